@@ -1,0 +1,156 @@
+/** Sampling a grid at points given in any CRS, and along WGS 84 polylines at a fixed geodesic ground step. */
+import geodesic from 'geographiclib-geodesic';
+import type { Grid, GridCrs } from './grid';
+import { sampleBilinear, sampleNearest } from './grid';
+import { WGS84, createTransform } from './crs';
+import { TerrainError, check } from './errors';
+
+/** How a height is read between pixel centres. */
+export type SampleMethod = 'bilinear' | 'nearest';
+
+/** Options for point sampling: the CRS of the given points (default WGS 84 lon/lat) and the method (default bilinear). */
+export interface SampleOptions {
+  crs?: GridCrs;
+  method?: SampleMethod;
+}
+
+const { Geodesic } = geodesic as unknown as typeof import('geographiclib-geodesic');
+const WGS84_GEODESIC = Geodesic.WGS84;
+const LATLON = Geodesic.LATITUDE | Geodesic.LONGITUDE;
+
+function checkMethod(method: unknown): SampleMethod {
+  if (method === undefined) return 'bilinear';
+  check(method === 'bilinear' || method === 'nearest', `method must be "bilinear" or "nearest", got ${JSON.stringify(method)}.`);
+  return method;
+}
+
+/** Height (metres) at one point, or null when the point is outside the grid or on nodata. */
+export function sampleAt(grid: Grid, x: number, y: number, opts: SampleOptions = {}): number | null {
+  check(Number.isFinite(x) && Number.isFinite(y), `A sample point needs two finite coordinates, got (${x}, ${y}).`);
+  const method = checkMethod(opts.method);
+  const [gx, gy] = createTransform(opts.crs ?? WGS84, grid.crs).forward(x, y);
+  const v = method === 'nearest' ? sampleNearest(grid, gx, gy) : sampleBilinear(grid, gx, gy);
+  return Number.isNaN(v) ? null : v;
+}
+
+/** Heights at many points (one transform set-up for all); unknown ones are null and counted. */
+export function samplePoints(
+  grid: Grid,
+  points: ReadonlyArray<readonly [number, number]>,
+  opts: SampleOptions = {},
+): { values: Array<number | null>; unknownCount: number } {
+  check(Array.isArray(points), 'points must be an array of [x, y] pairs.');
+  const method = checkMethod(opts.method);
+  const n = points.length;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const p = points[i];
+    check(Array.isArray(p) && Number.isFinite(p[0]) && Number.isFinite(p[1]), `Point ${i} must be [x, y] with finite numbers, got ${JSON.stringify(p)}.`);
+    xs[i] = p[0];
+    ys[i] = p[1];
+  }
+  createTransform(opts.crs ?? WGS84, grid.crs).forwardArrays(xs, ys);
+  const out = new Float64Array(n);
+  const unknownCount = sampleGridCoords(grid, xs, ys, out, method);
+  const values: Array<number | null> = new Array(n);
+  for (let i = 0; i < n; i++) values[i] = Number.isNaN(out[i]) ? null : out[i];
+  return { values, unknownCount };
+}
+
+/**
+ * The sampling hot loop: heights at grid-CRS coordinates into `out` (NaN = unknown); returns the unknown count.
+ * Bilinear between the four surrounding pixel centres, edge pixels clamped within half a pixel of the border,
+ * exactly as `sampleBilinear` in grid.ts (that function is the reference the tests compare this loop with).
+ */
+export function sampleGridCoords(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, out: Float64Array | Float32Array, method: SampleMethod = 'bilinear'): number {
+  const { width, height, data } = grid;
+  const t = grid.transform;
+  const det = t[1] * t[5] - t[2] * t[4];
+  if (det === 0) throw new TerrainError('no-georeference', 'The grid transform has a zero pixel size; the georeference is broken.');
+  // inverse affine, precomputed once: col = a0 + a1*x + a2*y; row = b0 + b1*x + b2*y
+  const a1 = t[5] / det, a2 = -t[2] / det, b1 = -t[4] / det, b2 = t[1] / det;
+  const a0 = -(a1 * t[0] + a2 * t[3]), b0 = -(b1 * t[0] + b2 * t[3]);
+  const wMax = width - 1, hMax = height - 1;
+  let unknown = 0;
+  const n = out.length;
+  for (let i = 0; i < n; i++) {
+    const x = xs[i], y = ys[i];
+    const pc = a0 + a1 * x + a2 * y;
+    const pr = b0 + b1 * x + b2 * y;
+    let v: number;
+    if (!(pc >= 0 && pr >= 0 && pc <= width && pr <= height)) v = NaN;
+    else if (method === 'nearest') {
+      const c = pc < width ? Math.floor(pc) : wMax; // the far edge belongs to the last pixel
+      const r = pr < height ? Math.floor(pr) : hMax;
+      v = data[r * width + c];
+    } else {
+      let fx = pc - 0.5, fy = pr - 0.5;
+      if (fx < 0) fx = 0; else if (fx > wMax) fx = wMax;
+      if (fy < 0) fy = 0; else if (fy > hMax) fy = hMax;
+      const c0 = fx | 0, r0 = fy | 0;
+      const c1 = c0 < wMax ? c0 + 1 : c0;
+      const o0 = r0 * width, o1 = r0 < hMax ? o0 + width : o0;
+      const tx = fx - c0, ty = fy - r0;
+      const v00 = data[o0 + c0], v10 = data[o0 + c1], v01 = data[o1 + c0], v11 = data[o1 + c1];
+      const top = v00 + (v10 - v00) * tx;
+      v = top + (v01 + (v11 - v01) * tx - top) * ty;
+    }
+    out[i] = v;
+    if (v !== v) unknown++;
+  }
+  return unknown;
+}
+
+/** Geodesic positions every `stepM` metres along a WGS 84 polyline (plus its end point). */
+export function densifyLine(lineLonLat: ReadonlyArray<readonly [number, number]>, stepM: number): { lon: Float64Array; lat: Float64Array; distanceM: Float64Array } {
+  check(Array.isArray(lineLonLat) && lineLonLat.length >= 2, `A line needs at least two [lon, lat] vertices, got ${Array.isArray(lineLonLat) ? lineLonLat.length : typeof lineLonLat}.`);
+  check(Number.isFinite(stepM) && stepM > 0, `stepM must be a positive number of metres, got ${stepM}.`);
+  const segs = [];
+  let total = 0;
+  for (let i = 0; i < lineLonLat.length; i++) {
+    const [lon, lat] = lineLonLat[i];
+    check(Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lat) <= 90, `Vertex ${i} must be [lon, lat] in degrees, got ${JSON.stringify(lineLonLat[i])}.`);
+    if (i === 0) continue;
+    const [lon0, lat0] = lineLonLat[i - 1];
+    const line = WGS84_GEODESIC.InverseLine(lat0, lon0, lat, lon, LATLON | Geodesic.DISTANCE_IN | Geodesic.LONG_UNROLL);
+    segs.push({ line, startM: total, lengthM: line.s13 });
+    total += line.s13;
+  }
+  const steps = Math.floor(total / stepM + 1e-9);
+  check(steps < 50_000_000, `A step of ${stepM} m over ${total.toFixed(0)} m gives ${steps} samples; use a longer step.`);
+  const endExtra = total - steps * stepM > 1e-6 * stepM ? 1 : 0;
+  const n = steps + 1 + endExtra;
+  const lon = new Float64Array(n), lat = new Float64Array(n), distanceM = new Float64Array(n);
+  let s = 0;
+  for (let i = 0; i < n; i++) {
+    const d = i <= steps ? i * stepM : total;
+    while (s < segs.length - 1 && d > segs[s].startM + segs[s].lengthM) s++;
+    const seg = segs[s];
+    const p = seg.line.Position(d - seg.startM, LATLON | Geodesic.LONG_UNROLL);
+    lon[i] = p.lon2 as number;
+    lat[i] = p.lat2 as number;
+    distanceM[i] = d;
+  }
+  return { lon, lat, distanceM };
+}
+
+/**
+ * Heights every `stepM` metres of geodesic distance along a WGS 84 [lon, lat] polyline (GeographicLib geodesics, Karney 2013).
+ * One transform pass to the grid CRS and one sampling pass; elevationM is NaN where unknown.
+ */
+export function sampleAlongLine(
+  grid: Grid,
+  lineLonLat: ReadonlyArray<readonly [number, number]>,
+  opts: { stepM: number; method?: SampleMethod },
+): { lon: Float64Array; lat: Float64Array; distanceM: Float64Array; elevationM: Float64Array; unknownCount: number } {
+  check(opts !== null && typeof opts === 'object', 'sampleAlongLine needs options { stepM }.');
+  const method = checkMethod(opts.method);
+  const { lon, lat, distanceM } = densifyLine(lineLonLat, opts.stepM);
+  const xs = Float64Array.from(lon);
+  const ys = Float64Array.from(lat);
+  createTransform(WGS84, grid.crs).forwardArrays(xs, ys);
+  const elevationM = new Float64Array(lon.length);
+  const unknownCount = sampleGridCoords(grid, xs, ys, elevationM, method);
+  return { lon, lat, distanceM, elevationM, unknownCount };
+}
