@@ -1,0 +1,2 @@
+/** Every table of Loftline; drizzle-kit reads this file. */
+export * from './auth';

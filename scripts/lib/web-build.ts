@@ -1,0 +1,55 @@
+/** Build the web app with `expo export` only when its sources changed since the last build. */
+import { spawnSync } from 'node:child_process';
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { distDir, projectRoot } from './paths';
+
+const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'package-lock.json', 'tsconfig.json'];
+
+function hashInputs(): string {
+  const h = crypto.createHash('sha256');
+  const walk = (p: string) => {
+    const full = path.join(projectRoot, p);
+    if (!fs.existsSync(full)) return;
+    const st = fs.statSync(full);
+    if (st.isDirectory()) {
+      for (const name of fs.readdirSync(full).sort()) walk(path.join(p, name));
+    } else {
+      h.update(p);
+      h.update(fs.readFileSync(full));
+    }
+  };
+  inputs.forEach(walk);
+  return h.digest('hex');
+}
+
+/** Export the web build into dist/ if the sources differ from the recorded hash; returns the dist folder. */
+export function ensureWebBuild(opts: { force?: boolean } = {}): string {
+  const stamp = path.join(distDir, '.source-hash');
+  const hash = hashInputs();
+  if (!opts.force && fs.existsSync(stamp) && fs.readFileSync(stamp, 'utf8') === hash && fs.existsSync(path.join(distDir, 'index.html'))) {
+    return distDir;
+  }
+  copySkiaWasm();
+  console.log('loftline: building the web app (expo export)…');
+  const t0 = Date.now();
+  const r = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', 'dist'], {
+    cwd: projectRoot,
+    stdio: ['ignore', 'inherit', 'inherit'],
+    env: { ...process.env, CI: '1', EXPO_NO_TELEMETRY: '1', NODE_ENV: 'production' },
+  });
+  if (r.status !== 0) throw new Error('The web build failed (see the expo output above).');
+  fs.writeFileSync(stamp, hash);
+  console.log(`loftline: web app built in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+  return distDir;
+}
+
+/** Charts draw with Skia's CanvasKit on the web: serve its wasm from our own build instead of a CDN. */
+function copySkiaWasm(): void {
+  const src = path.join(projectRoot, 'node_modules', 'canvaskit-wasm', 'bin', 'full', 'canvaskit.wasm');
+  const dest = path.join(projectRoot, 'public', 'canvaskit.wasm');
+  if (!fs.existsSync(src)) return;
+  fs.mkdirSync(path.dirname(dest), { recursive: true });
+  if (!fs.existsSync(dest) || fs.statSync(dest).size !== fs.statSync(src).size) fs.copyFileSync(src, dest);
+}

@@ -1,0 +1,35 @@
+/** `npm start`: database, migrations, demo seed, web build, then the app and API on one port. */
+import { bootServer } from '../server/boot';
+import { buildConfig, parseEnv } from '../server/config';
+import { domainRoutes } from '../server/routes';
+import { demoPassword, demoUsers } from '../server/seed/demo-team';
+import { seedDemo } from '../server/seed/seed';
+import { startCluster } from './lib/postgres';
+import { localAuthSecret } from './lib/secrets';
+import { ensureWebBuild } from './lib/web-build';
+
+const env = parseEnv(process.env);
+const pgPort = Number(process.env.LOFTLINE_PG_PORT ?? 54329);
+
+const cluster = env.DATABASE_URL ? null : await startCluster({ port: pgPort, databases: ['loftline'] });
+const databaseUrl = env.DATABASE_URL ?? cluster!.url('loftline');
+const webDist = ensureWebBuild();
+const config = buildConfig(env, { databaseUrl, authSecret: localAuthSecret(), webDist });
+const srv = await bootServer(config, { routes: domainRoutes() });
+const seeded = await seedDemo({ db: srv.db, auth: srv.auth });
+
+console.log(`\nLoftline is running at ${config.publicUrl}`);
+console.log(seeded.created ? 'Demo team seeded. Demo accounts:' : 'Demo accounts:');
+for (const u of demoUsers) console.log(`  ${u.role.padEnd(9)} ${u.email}  password: ${demoPassword}`);
+console.log('Press Ctrl+C to stop.\n');
+
+let stopping = false;
+async function stop() {
+  if (stopping) return;
+  stopping = true;
+  await srv.close().catch(() => undefined);
+  cluster?.stop();
+  process.exit(0);
+}
+process.on('SIGINT', stop);
+process.on('SIGTERM', stop);

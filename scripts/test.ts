@@ -1,0 +1,57 @@
+/**
+ * `npm test`: the same set-up as start (test database recreated, migrated and seeded; web build when stale),
+ * then every vitest suite: unit, API over real HTTP against the real database, and browser tests.
+ */
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { createDb } from '../db/client';
+import { migrateDb } from '../db/migrate';
+import { createAuth } from '../server/auth/auth';
+import { buildConfig, parseEnv } from '../server/config';
+import { seedDemo } from '../server/seed/seed';
+import { artifactsDir, projectRoot } from './lib/paths';
+import { recreateDatabase, startCluster } from './lib/postgres';
+import { ensureWebBuild } from './lib/web-build';
+
+const env = parseEnv(process.env);
+const pgPort = Number(process.env.LOFTLINE_PG_PORT ?? 54329);
+const t0 = Date.now();
+
+let databaseUrl = process.env.LOFTLINE_TEST_DATABASE_URL;
+const cluster = databaseUrl ? null : await startCluster({ port: pgPort, databases: ['loftline_test'], fast: true });
+if (cluster) {
+  await recreateDatabase(cluster, 'loftline_test');
+  databaseUrl = cluster.url('loftline_test');
+}
+const db = createDb(databaseUrl!);
+await migrateDb(db);
+const config = buildConfig(env, { databaseUrl: databaseUrl!, authSecret: 'Xq7v2LmPz9RtY4wKc8NbF3hJd6SgA1eU0oIyTnMrWqE', webDist: null });
+await seedDemo({ db, auth: createAuth({ db, config }) });
+await db.$client.end();
+
+// LOFTLINE_SKIP_WEB=1 runs the suites without (re)building the web app, for quick server-only iterations.
+const webDist = process.env.LOFTLINE_SKIP_WEB === '1' ? '' : ensureWebBuild();
+console.log(`loftline: test set-up done in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+
+fs.mkdirSync(artifactsDir, { recursive: true });
+const report = path.join(artifactsDir, 'vitest.json');
+fs.rmSync(report, { force: true });
+const extra = process.argv.slice(2);
+const r = spawnSync('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...extra], {
+  cwd: projectRoot,
+  stdio: 'inherit',
+  env: { ...process.env, LOFTLINE_TEST_DATABASE_URL: databaseUrl, LOFTLINE_WEB_DIST: webDist, NODE_ENV: 'test' },
+});
+cluster?.stop();
+
+if (fs.existsSync(report)) {
+  const j = JSON.parse(fs.readFileSync(report, 'utf8'));
+  // A plain closing line that any CI reader understands.
+  console.log(`${j.numPassedTests} passed, ${j.numFailedTests} failed${j.numPendingTests ? `, ${j.numPendingTests} skipped` : ''}`);
+  if (j.numTotalTests === 0) {
+    console.error('loftline: no test ran');
+    process.exit(1);
+  }
+}
+process.exit(r.status ?? 1);

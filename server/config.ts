@@ -1,0 +1,76 @@
+/** Server configuration, parsed once from the environment. */
+import { z } from 'zod';
+
+const bool = z
+  .enum(['1', '0', 'true', 'false', 'yes', 'no'])
+  .transform((v) => v === '1' || v === 'true' || v === 'yes');
+
+const envSchema = z.object({
+  PORT: z.coerce.number().int().min(0).max(65535).default(8080),
+  HOST: z.string().default('127.0.0.1'),
+  DATABASE_URL: z.string().url().optional(),
+  /** Public origin the browser uses; sign-in cookies and trusted origins follow it. */
+  PUBLIC_URL: z.string().url().optional(),
+  AUTH_SECRET: z.string().min(32).optional(),
+  /** Sign-in attempts allowed per client address per minute. */
+  AUTH_SIGNIN_PER_MINUTE: z.coerce.number().int().min(1).max(10_000).default(10),
+  JSON_LIMIT: z.string().default('1mb'),
+  UPLOAD_LIMIT_MB: z.coerce.number().positive().max(1_000_000).default(512),
+  STORAGE_DRIVER: z.enum(['disk', 's3']).default('disk'),
+  STORAGE_DIR: z.string().optional(),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_BUCKET: z.string().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  SMTP_HOST: z.string().optional(),
+  SMTP_PORT: z.coerce.number().int().optional(),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  MAIL_FROM: z.string().default('Loftline <no-reply@loftline.example>'),
+  WORKERS: z.coerce.number().int().min(0).max(16).default(1),
+  DEV_OUTBOX: bool.optional(),
+  NODE_ENV: z.string().default('development'),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+export interface Config {
+  port: number;
+  host: string;
+  databaseUrl: string;
+  publicUrl: string;
+  authSecret: string;
+  signInPerMinute: number;
+  jsonLimit: string;
+  uploadLimitBytes: number;
+  webDist: string | null;
+  env: Env;
+}
+
+/** Parse the environment; throws a readable message listing each bad variable. */
+export function parseEnv(source: NodeJS.ProcessEnv): Env {
+  const r = envSchema.safeParse(source);
+  if (!r.success) {
+    const lines = r.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Configuration error:\n${lines.join('\n')}`);
+  }
+  return r.data;
+}
+
+/** Turn the parsed environment plus what start-up resolved (database, secret, web build) into the server config. */
+export function buildConfig(env: Env, resolved: { databaseUrl: string; authSecret: string; webDist: string | null; port?: number }): Config {
+  const port = resolved.port ?? env.PORT;
+  return {
+    port,
+    host: env.HOST,
+    databaseUrl: env.DATABASE_URL ?? resolved.databaseUrl,
+    publicUrl: env.PUBLIC_URL ?? `http://${env.HOST === '0.0.0.0' ? '127.0.0.1' : env.HOST}:${port}`,
+    authSecret: env.AUTH_SECRET ?? resolved.authSecret,
+    signInPerMinute: env.AUTH_SIGNIN_PER_MINUTE,
+    jsonLimit: env.JSON_LIMIT,
+    uploadLimitBytes: Math.round(env.UPLOAD_LIMIT_MB * 1024 * 1024),
+    webDist: resolved.webDist,
+    env,
+  };
+}

@@ -1,0 +1,19 @@
+/** GET /api/health: ok only when the database answers. */
+import { sql } from 'drizzle-orm';
+import type { Router } from 'express';
+import { healthSchema } from '../../contracts/teams';
+import type { Db } from '../../db/client';
+import { AppError } from '../http/errors';
+import type { Guards } from '../http/guard';
+import { sendJson } from '../http/validate';
+
+export function registerHealthRoutes(api: Router, deps: { guards: Guards; db: Db }) {
+  api.get('/health', deps.guards.public(), async (_req, res) => {
+    try {
+      await deps.db.execute(sql`select 1`);
+    } catch {
+      throw new AppError(503, 'db_down', 'The database is not answering.');
+    }
+    sendJson(res, healthSchema, { ok: true, db: 'up' });
+  });
+}

@@ -1,0 +1,117 @@
+/** Route guards: every API route starts with one, and each guard records what it requires so tests can walk them. */
+import { fromNodeHeaders } from 'better-auth/node';
+import { and, eq } from 'drizzle-orm';
+import type { Request, RequestHandler } from 'express';
+import { can, roleSchema, type Permission, type Role } from '../../contracts/roles';
+import type { Db } from '../../db/client';
+import { member } from '../../db/schema';
+import type { Auth } from '../auth/auth';
+import { errors } from './errors';
+
+/** What a guard demands: only a session, or a permission within the team named by `:teamId`. */
+export type GuardMeta = { kind: 'public' } | { kind: 'session' } | { kind: 'permission'; permission: Permission };
+
+export const guardMetaKey = Symbol.for('loftline.guard');
+
+export interface SessionUser {
+  id: string;
+  name: string;
+  email: string;
+}
+
+export interface RequestAuth {
+  user: SessionUser;
+  sessionId: string;
+  /** Set by permission guards: the caller's role in `req.params.teamId`. */
+  teamId?: string;
+  role?: Role;
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    auth?: RequestAuth;
+  }
+}
+
+function tag(handler: RequestHandler, meta: GuardMeta): RequestHandler {
+  (handler as unknown as Record<symbol, GuardMeta>)[guardMetaKey] = meta;
+  return handler;
+}
+
+/** The guard metadata of a handler, if it is a guard. */
+export function guardMetaOf(handler: unknown): GuardMeta | undefined {
+  return (handler as Record<symbol, GuardMeta> | undefined)?.[guardMetaKey];
+}
+
+/** Signed-in user, with the caller's session read from the cookie. */
+export function requireAuth(req: Request): RequestAuth {
+  if (!req.auth) throw errors.unauthenticated();
+  return req.auth;
+}
+
+/** Team id and role set by a permission guard. */
+export function requireTeam(req: Request): RequestAuth & { teamId: string; role: Role } {
+  const a = requireAuth(req);
+  if (!a.teamId || !a.role) throw new Error('requireTeam used on a route without a permission guard');
+  return a as RequestAuth & { teamId: string; role: Role };
+}
+
+/** Factory for the guards of one server. */
+export function createGuards(deps: { auth: Auth; db: Db }) {
+  const { auth, db } = deps;
+
+  async function loadSession(req: Request): Promise<RequestAuth> {
+    const s = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
+    if (!s) throw errors.unauthenticated();
+    return { user: { id: s.user.id, name: s.user.name, email: s.user.email }, sessionId: s.session.id };
+  }
+
+  return {
+    /** Open to anyone (health check). */
+    public: (): RequestHandler => tag((_req, _res, next) => next(), { kind: 'public' }),
+
+    /** Any signed-in user. */
+    session: (): RequestHandler =>
+      tag(async (req, _res, next) => {
+        req.auth = await loadSession(req);
+        next();
+      }, { kind: 'session' }),
+
+    /** A member of `:teamId` whose role holds `permission`. Non-members get 404 so team ids reveal nothing. */
+    permission: (permission: Permission): RequestHandler =>
+      tag(async (req, _res, next) => {
+        const a = await loadSession(req);
+        const teamId = String(req.params.teamId ?? '');
+        if (!teamId) throw new Error(`permission guard '${permission}' on a route without :teamId`);
+        const rows = await db
+          .select({ role: member.role })
+          .from(member)
+          .where(and(eq(member.organizationId, teamId), eq(member.userId, a.user.id)))
+          .limit(1);
+        const parsed = roleSchema.safeParse(rows[0]?.role);
+        if (!parsed.success) throw errors.notFound('Team');
+        if (!can(parsed.data, permission)) throw errors.forbidden(describe(permission));
+        req.auth = { ...a, teamId, role: parsed.data };
+        next();
+      }, { kind: 'permission', permission }),
+  };
+}
+
+export type Guards = ReturnType<typeof createGuards>;
+
+const descriptions: Partial<Record<Permission, string>> = {
+  'member:read': 'see the team members',
+  'member:manage': 'change roles or remove members',
+  'invitation:manage': 'invite people',
+  'project:write': 'create or edit projects',
+  'site:write': 'upload or edit elevation grids',
+  'plan:write': 'edit plans',
+  'plan:run': 'run analyses',
+  'plan:submit': 'send plans for review',
+  'plan:review': 'sign plans off or return them',
+  'outbox:read': 'read the outbox',
+};
+
+function describe(p: Permission): string {
+  return descriptions[p] ?? `do this (${p})`;
+}

@@ -1,0 +1,52 @@
+/** /api/me, /api/teams and team members. */
+import type { Router } from 'express';
+import { createTeamSchema, meSchema, memberSchema, membersSchema, teamSummarySchema, updateMemberRoleSchema } from '../../contracts/teams';
+import { roleSchema } from '../../contracts/roles';
+import { AppError, errors } from '../http/errors';
+import { requireAuth, requireTeam, type Guards } from '../http/guard';
+import { parseInput, sendJson } from '../http/validate';
+import type { TeamsRepository } from './teams.repository';
+
+export function registerTeamRoutes(api: Router, deps: { guards: Guards; teams: TeamsRepository }) {
+  const { guards, teams } = deps;
+
+  api.get('/me', guards.session(), async (req, res) => {
+    const a = requireAuth(req);
+    const rows = await teams.teamsOf(a.user.id);
+    sendJson(res, meSchema, { user: a.user, teams: rows.map((t) => ({ ...t, role: roleSchema.parse(t.role) })) });
+  });
+
+  api.post('/teams', guards.session(), async (req, res) => {
+    const a = requireAuth(req);
+    const body = parseInput(createTeamSchema, req.body);
+    sendJson(res, teamSummarySchema, await teams.createTeam(body.name, a.user.id), 201);
+  });
+
+  api.get('/teams/:teamId/members', guards.permission('member:read'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    const rows = await teams.members(teamId);
+    sendJson(res, membersSchema, {
+      members: rows.map((m) => ({ ...m, role: roleSchema.parse(m.role), joinedAt: m.joinedAt.toISOString() })),
+    });
+  });
+
+  api.patch('/teams/:teamId/members/:memberId', guards.permission('member:manage'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    const body = parseInput(updateMemberRoleSchema, req.body);
+    const r = await teams.changeMember(teamId, String(req.params.memberId), { role: body.role });
+    if (!r.ok) throw r.reason === 'not_found' ? errors.notFound('Member') : lastOwner();
+    const updated = (await teams.members(teamId)).find((m) => m.id === req.params.memberId)!;
+    sendJson(res, memberSchema, { ...updated, role: roleSchema.parse(updated.role), joinedAt: updated.joinedAt.toISOString() });
+  });
+
+  api.delete('/teams/:teamId/members/:memberId', guards.permission('member:manage'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    const r = await teams.changeMember(teamId, String(req.params.memberId), { remove: true });
+    if (!r.ok) throw r.reason === 'not_found' ? errors.notFound('Member') : lastOwner();
+    res.status(204).end();
+  });
+}
+
+function lastOwner() {
+  return new AppError(409, 'last_owner', 'A team needs at least one owner: make another member an owner first.');
+}

@@ -1,0 +1,28 @@
+/** Debian's Chromium through playwright-core, headless, with a fresh profile (never a downloaded browser). */
+import path from 'node:path';
+import { chromium, type Browser } from 'playwright-core';
+
+export const screenshotDir = path.resolve('.artifacts', 'screenshots');
+
+export async function launchBrowser(): Promise<Browser> {
+  // playwright gives every launch a fresh temporary profile of its own.
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  });
+}
+
+export const viewports = {
+  phone: { width: 390, height: 844 },
+  wide: { width: 1440, height: 900 },
+} as const;

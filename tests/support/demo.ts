@@ -1,0 +1,24 @@
+/** Signed-in clients for the seeded demo users, and the demo team id. */
+import { eq } from 'drizzle-orm';
+import { organization } from '../../db/schema';
+import type { Role } from '../../contracts/roles';
+import { demoPassword, demoTeam, demoUsers } from '../../server/seed/demo-team';
+import { ApiClient } from './http-client';
+import type { TestServer } from './test-server';
+
+export async function demoTeamId(srv: TestServer): Promise<string> {
+  const [row] = await srv.db.select({ id: organization.id }).from(organization).where(eq(organization.slug, demoTeam.slug));
+  if (!row) throw new Error('The demo team is missing: `npm test` seeds it before the suites run.');
+  return row.id;
+}
+
+export async function demoClients(srv: TestServer): Promise<Record<Role, ApiClient>> {
+  const out = {} as Record<Role, ApiClient>;
+  for (const u of demoUsers) {
+    const c = new ApiClient(srv.url);
+    const r = await c.signIn(u.email, demoPassword);
+    if (r.status !== 200) throw new Error(`Demo ${u.role} could not sign in: ${r.status}`);
+    out[u.role] = c;
+  }
+  return out;
+}

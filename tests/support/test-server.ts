@@ -1,0 +1,32 @@
+/** A real Loftline server for one test file: the test database that `npm test` prepared, a free loopback port. */
+import net from 'node:net';
+import { bootServer, type RunningServer } from '../../server/boot';
+import { buildConfig, parseEnv } from '../../server/config';
+import { domainRoutes } from '../../server/routes';
+
+export async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.once('error', reject);
+    s.listen(0, '127.0.0.1', () => {
+      const port = (s.address() as net.AddressInfo).port;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+export interface TestServer extends RunningServer {
+  stop: () => Promise<void>;
+}
+
+/** Boot a server on the test database; `env` overrides variables (e.g. a low sign-in limit). */
+export async function startTestServer(opts: { env?: Record<string, string>; web?: boolean } = {}): Promise<TestServer> {
+  const databaseUrl = process.env.LOFTLINE_TEST_DATABASE_URL;
+  if (!databaseUrl) throw new Error('LOFTLINE_TEST_DATABASE_URL is not set: run the suites through `npm test`.');
+  const port = await freePort();
+  const env = parseEnv({ AUTH_SIGNIN_PER_MINUTE: '1000', ...process.env, ...opts.env, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}` });
+  const webDist = opts.web === false ? null : (process.env.LOFTLINE_WEB_DIST ?? null);
+  const config = buildConfig(env, { databaseUrl, authSecret: 'Xq7v2LmPz9RtY4wKc8NbF3hJd6SgA1eU0oIyTnMrWqE', webDist, port });
+  const srv = await bootServer(config, { migrate: false, routes: domainRoutes() });
+  return { ...srv, stop: srv.close };
+}
