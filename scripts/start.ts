@@ -1,7 +1,6 @@
 /** `npm start`: database, migrations, demo seed, web build, then the app and API on one port. */
 import { bootServer } from '../server/boot';
 import { buildConfig, parseEnv } from '../server/config';
-import { domainRoutes } from '../server/routes';
 import { demoPassword, demoUsers } from '../server/seed/demo-team';
 import { seedDemo } from '../server/seed/seed';
 import { startCluster } from './lib/postgres';
@@ -15,7 +14,7 @@ const cluster = env.DATABASE_URL ? null : await startCluster({ port: pgPort, dat
 const databaseUrl = env.DATABASE_URL ?? cluster!.url('loftline');
 const webDist = ensureWebBuild();
 const config = buildConfig(env, { databaseUrl, authSecret: localAuthSecret(), webDist });
-const srv = await bootServer(config, { routes: domainRoutes() });
+const srv = await bootServer(config);
 const seeded = await seedDemo({ db: srv.db, auth: srv.auth });
 
 console.log(`\nLoftline is running at ${config.publicUrl}`);

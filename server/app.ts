@@ -2,13 +2,15 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { toNodeHandler } from 'better-auth/node';
-import express, { type RequestHandler, type Router } from 'express';
+import express, { type RequestHandler } from 'express';
 import type { Db } from '../db/client';
 import type { Auth } from './auth/auth';
 import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
+import type { RouteGroup } from './routes';
+import type { Services } from './services';
 import { createTeamsRepository } from './teams/teams.repository';
 import { registerTeamRoutes } from './teams/teams.routes';
 
@@ -16,8 +18,9 @@ export interface AppDeps {
   db: Db;
   auth: Auth;
   config: Config;
-  /** Extra route groups (each domain registers its own), given the shared guards. */
-  routes?: Array<(api: Router, ctx: { guards: Guards }) => void>;
+  /** Route groups of the domains, given the shared guards and services. */
+  routes?: RouteGroup[];
+  services?: Services;
   log?: (err: unknown) => void;
 }
 
@@ -48,7 +51,8 @@ export function createApp(deps: AppDeps) {
   api.use(express.json({ limit: config.jsonLimit }));
   registerHealthRoutes(api, { guards, db });
   registerTeamRoutes(api, { guards, teams: createTeamsRepository({ db }) });
-  for (const register of deps.routes ?? []) register(api, { guards });
+  const services: Services = deps.services ?? { db, auth, config };
+  for (const register of deps.routes ?? []) register(api, { guards, services });
   app.use('/api', api);
   app.use('/api', apiNotFound);
 

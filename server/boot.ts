@@ -6,21 +6,34 @@ import { migrateDb } from '../db/migrate';
 import { createApp, type AppDeps } from './app';
 import { createAuth, type Auth } from './auth/auth';
 import type { Config } from './config';
+import { routeGroups } from './routes';
+import { serviceFactories, type Services } from './services';
 
 export interface RunningServer {
   url: string;
   db: Db;
   auth: Auth;
   server: Server;
+  services: Services;
   api: ReturnType<typeof createApp>['api'];
   close: () => Promise<void>;
 }
 
-export async function bootServer(config: Config, opts: { migrate?: boolean; routes?: AppDeps['routes'] } = {}): Promise<RunningServer> {
+/** `services: false` skips the service factories (pure auth/team tests); `extraRoutes` adds test-only groups. */
+export async function bootServer(
+  config: Config,
+  opts: { migrate?: boolean; extraRoutes?: AppDeps['routes']; factories?: typeof serviceFactories } = {},
+): Promise<RunningServer> {
   const db = createDb(config.databaseUrl);
   if (opts.migrate !== false) await migrateDb(db);
   const auth = createAuth({ db, config });
-  const { app, api } = createApp({ db, auth, config, routes: opts.routes });
+  const services: Services = { db, auth, config };
+  const cleanups: Array<() => Promise<void>> = [];
+  for (const factory of opts.factories ?? serviceFactories) {
+    const cleanup = await factory(services);
+    if (cleanup) cleanups.push(cleanup);
+  }
+  const { app, api } = createApp({ db, auth, config, services, routes: [...routeGroups, ...(opts.extraRoutes ?? [])] });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, (err?: Error) => (err ? reject(err) : resolve(s)));
   });
@@ -30,10 +43,12 @@ export async function bootServer(config: Config, opts: { migrate?: boolean; rout
     db,
     auth,
     server,
+    services,
     api,
     close: async () => {
       await new Promise<void>((r) => server.close(() => r()));
       server.closeAllConnections?.();
+      for (const cleanup of cleanups.reverse()) await cleanup().catch(() => undefined);
       await db.$client.end();
     },
   };

@@ -1,7 +1,9 @@
 /** Every route group beyond the core ones, in one list so start-up and tests mount the same API. */
-import type { AppDeps } from './app';
+import type { Router } from 'express';
+import type { Guards } from './http/guard';
+import type { Services } from './services';
 
-/** Route groups of the domains (projects, sites, plans, reviews…), given shared services. */
-export function domainRoutes(): NonNullable<AppDeps['routes']> {
-  return [];
-}
+export type RouteGroup = (api: Router, ctx: { guards: Guards; services: Services }) => void;
+
+/** Route groups of the domains (projects, sites, plans, reviews…), in mount order. */
+export const routeGroups: RouteGroup[] = [];

@@ -1,2 +1,3 @@
 /** Every table of Loftline; drizzle-kit reads this file. */
 export * from './auth';
+export * from './projects';

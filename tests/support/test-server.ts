@@ -2,7 +2,6 @@
 import net from 'node:net';
 import { bootServer, type RunningServer } from '../../server/boot';
 import { buildConfig, parseEnv } from '../../server/config';
-import { domainRoutes } from '../../server/routes';
 
 export async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -27,6 +26,6 @@ export async function startTestServer(opts: { env?: Record<string, string>; web?
   const env = parseEnv({ AUTH_SIGNIN_PER_MINUTE: '1000', ...process.env, ...opts.env, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}` });
   const webDist = opts.web === false ? null : (process.env.LOFTLINE_WEB_DIST ?? null);
   const config = buildConfig(env, { databaseUrl, authSecret: 'Xq7v2LmPz9RtY4wKc8NbF3hJd6SgA1eU0oIyTnMrWqE', webDist, port });
-  const srv = await bootServer(config, { migrate: false, routes: domainRoutes() });
+  const srv = await bootServer(config, { migrate: false });
   return { ...srv, stop: srv.close };
 }
