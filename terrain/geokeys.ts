@@ -2,6 +2,7 @@
 import type { GridCrs, LengthUnit } from './grid';
 import { TerrainError } from './errors';
 import { crsFromEpsg, crsFromProj4 } from './crs';
+import { lookupEpsg } from './epsg-table';
 
 /** GeoKeys as geotiff.js's `getGeoKeys()` returns them (key name -> value). */
 export type GeoKeys = Record<string, unknown>;
@@ -25,7 +26,15 @@ export function lengthUnitFromCode(code: number | undefined): LengthUnit | null 
 
 /** Vertical unit of the heights from VerticalUnitsGeoKey (metre when absent); throws for units we do not convert. */
 export function verticalUnitFromGeoKeys(keys: GeoKeys | null | undefined): LengthUnit {
-  const code = keys ? num(keys, 'VerticalUnitsGeoKey') : undefined;
+  let code = keys ? num(keys, 'VerticalUnitsGeoKey') : undefined;
+  const vcs = keys ? num(keys, 'VerticalCSTypeGeoKey') : undefined;
+  if (code === undefined && vcs !== undefined && vcs !== USER_DEFINED) {
+    // GDAL writes only the vertical CRS code when the unit follows from it (e.g. EPSG:6360, NAVD88 height (ftUS))
+    const unit = lookupEpsg(vcs)?.unit?.toLowerCase() ?? '';
+    if (unit.includes('us survey foot')) return 'us-survey-foot';
+    if (unit.includes('foot')) return 'foot';
+    return 'metre';
+  }
   if (code === USER_DEFINED) return 'metre';
   const unit = lengthUnitFromCode(code);
   if (unit === null) {
@@ -97,6 +106,18 @@ function projectionTerms(keys: GeoKeys): string {
   }
 }
 
+/** The first meaningful citation among the named keys (GDAL writes "unknown" when it has none). */
+function citation(keys: GeoKeys, ...names: string[]): string | null {
+  for (const n of names) {
+    const v = keys[n];
+    if (typeof v === 'string') {
+      const t = v.replace(/\|$/, '').trim();
+      if (t && t.toLowerCase() !== 'unknown') return t;
+    }
+  }
+  return null;
+}
+
 /** The horizontal CRS described by a GeoTIFF's GeoKeys; throws `unknown-crs` when they do not name one we can use. */
 export function crsFromGeoKeys(keys: GeoKeys | null | undefined): GridCrs {
   if (!keys || Object.keys(keys).length === 0) {
@@ -114,13 +135,11 @@ export function crsFromGeoKeys(keys: GeoKeys | null | undefined): GridCrs {
     const size = num(keys, 'ProjLinearUnitSizeGeoKey');
     const units = unit === 'foot' ? '+units=ft' : unit === 'us-survey-foot' ? '+units=us-ft' : size ? `+to_meter=${size}` : '+units=m';
     const def = `${projectionTerms(keys)} ${datumTerms(keys)} ${units} +no_defs`;
-    const name = typeof keys.PCSCitationGeoKey === 'string' ? keys.PCSCitationGeoKey.replace(/\|$/, '') : typeof keys.GTCitationGeoKey === 'string' ? keys.GTCitationGeoKey.replace(/\|$/, '') : 'User-defined projection';
-    return crsFromProj4(def, name);
+    return crsFromProj4(def, citation(keys, 'PCSCitationGeoKey', 'GTCitationGeoKey') ?? `User-defined ${def.split(' ')[0].slice(6)} projection`);
   }
   if (geog !== undefined && geog !== USER_DEFINED) return crsFromEpsg(geog);
   if (model === 2) {
-    const name = typeof keys.GeogCitationGeoKey === 'string' ? keys.GeogCitationGeoKey.replace(/\|$/, '') : 'User-defined geographic CRS';
-    return crsFromProj4(`+proj=longlat ${datumTerms(keys)} +no_defs`, name);
+    return crsFromProj4(`+proj=longlat ${datumTerms(keys)} +no_defs`, citation(keys, 'GeogCitationGeoKey') ?? 'User-defined geographic CRS');
   }
   throw new TerrainError('unknown-crs', 'The GeoKeys name neither a projected nor a geographic CRS; assign one (e.g. gdal_translate -a_srs EPSG:4326 in.tif out.tif).');
 }

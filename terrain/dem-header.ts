@@ -1,0 +1,192 @@
+/** GeoTIFF header parsing for DEMs (TIFF 6.0, OGC GeoTIFF 1.1): size, layout, georeference, CRS, nodata, units. */
+import { GeoTIFF } from 'geotiff';
+import type { GeoTransform, GridCrs, LengthUnit } from './grid';
+import { TerrainError } from './errors';
+import { crsFromGeoKeys, type GeoKeys, verticalDatumFromGeoKeys, verticalUnitFromGeoKeys } from './geokeys';
+import { COMPRESSION_NAMES, type SampleType } from './dem-decoders';
+
+/** What a GeoTIFF DEM says about itself, without decoding any pixel. */
+export interface DemHeader {
+  width: number;
+  height: number;
+  /** GDAL geotransform, pixel-is-area (pixel-is-point files are shifted by half a pixel). */
+  transform: GeoTransform;
+  crs: GridCrs;
+  nodata: number | null;
+  units: { horizontal: LengthUnit; vertical: LengthUnit };
+  verticalDatum: { epsg: number | null; name: string } | null;
+  sampleType: SampleType;
+  bands: number;
+  tiling: { tiled: boolean; blockWidth: number; blockHeight: number; blocksAcross: number; blocksDown: number };
+  compression: string;
+  predictor: number;
+  rasterType: 'pixel-is-area' | 'pixel-is-point';
+  byteOrder: 'little-endian' | 'big-endian';
+}
+
+/** Where the blocks of band 1 live and how to decode them (internal to the reader). */
+export interface DemLayout {
+  compressionCode: number;
+  littleEndian: boolean;
+  offsets: ArrayLike<number>;
+  byteCounts: ArrayLike<number>;
+  /** Metres per stored height unit, and an additive offset in metres (GDAL scale/offset). */
+  toMetres: { scale: number; offset: number };
+}
+
+const METRES_PER: Record<LengthUnit, number> = { metre: 1, foot: 0.3048, 'us-survey-foot': 1200 / 3937, degree: NaN };
+
+/** Metres per unit (international foot 0.3048 m exactly; US survey foot 1200/3937 m, NIST SP 811 appendix B). */
+export function metresPerUnit(unit: LengthUnit): number {
+  return METRES_PER[unit];
+}
+
+/** A geotiff.js source over bytes already in memory: header reads copy only the small slices asked for. */
+function bytesSource(bytes: Uint8Array) {
+  return {
+    fileSize: bytes.byteLength,
+    async fetch(slices: Array<{ offset: number; length: number }>) {
+      return slices.map((s) => bytes.slice(s.offset, s.offset + s.length).buffer);
+    },
+    async close() {},
+  };
+}
+
+/** The bytes as a Uint8Array view (no copy). */
+export function asBytes(input: ArrayBuffer | Uint8Array): Uint8Array {
+  // a plain view, so that slice() copies even when the caller passes a Node Buffer (whose slice() does not)
+  if (input instanceof Uint8Array) return new Uint8Array(input.buffer, input.byteOffset, input.byteLength);
+  if (input instanceof ArrayBuffer) return new Uint8Array(input);
+  throw new TerrainError('invalid-input', `A DEM is read from an ArrayBuffer or Uint8Array, got ${Object.prototype.toString.call(input)}.`);
+}
+
+function sampleTypeOf(format: number, bits: number): SampleType | null {
+  if (format === 3) return bits === 32 ? 'float32' : bits === 64 ? 'float64' : null;
+  if (format === 1 || format === 4) return bits === 8 ? 'uint8' : bits === 16 ? 'uint16' : bits === 32 ? 'uint32' : null;
+  if (format === 2) return bits === 8 ? 'int8' : bits === 16 ? 'int16' : bits === 32 ? 'int32' : null;
+  return null;
+}
+
+function unitFromName(name: unknown): LengthUnit | null {
+  if (typeof name !== 'string') return null;
+  const n = name.trim().toLowerCase();
+  if (['m', 'metre', 'meter', 'metres', 'meters'].includes(n)) return 'metre';
+  if (['ft', 'foot', 'feet', 'international foot'].includes(n)) return 'foot';
+  if (['us-ft', 'ftus', 'us survey foot', 'us survey feet', 'foot_us', 'us_survey_foot'].includes(n)) return 'us-survey-foot';
+  return null;
+}
+
+/** The georeference as a GDAL geotransform, from ModelTransformation or ModelTiepoint + ModelPixelScale. */
+function geoTransformOf(fd: { getValue(t: string): any }, pixelIsPoint: boolean): GeoTransform {
+  const m = fd.getValue('ModelTransformation') as number[] | undefined;
+  const tie = fd.getValue('ModelTiepoint') as number[] | undefined;
+  const scale = fd.getValue('ModelPixelScale') as number[] | undefined;
+  let gt: [number, number, number, number, number, number];
+  if (m && m.length >= 16) {
+    gt = [m[3], m[0], m[1], m[7], m[4], m[5]];
+  } else if (tie && tie.length >= 6 && scale && scale.length >= 2) {
+    if (tie.length > 6) {
+      throw new TerrainError('no-georeference', 'The GeoTIFF is georeferenced by several control points, not an affine transform; warp it first (gdalwarp in.tif out.tif).');
+    }
+    const [i, j, , x, y] = tie;
+    gt = [x - i * scale[0], scale[0], 0, y + j * scale[1], 0, -scale[1]];
+  } else {
+    throw new TerrainError('no-georeference', 'The TIFF has no georeference (no ModelTiepoint + ModelPixelScale or ModelTransformation), so Loftline cannot place it on the ground; export it from your GIS as a GeoTIFF.');
+  }
+  if (!gt.every(Number.isFinite) || gt[1] * gt[5] - gt[2] * gt[4] === 0) {
+    throw new TerrainError('no-georeference', `The GeoTIFF's georeference is broken (pixel size ${gt[1]} x ${gt[5]}); re-export it from your GIS.`);
+  }
+  if (pixelIsPoint) {
+    // raster (0, 0) is the centre of the first pixel: move the origin to its outer corner (GDAL does the same)
+    gt[0] -= 0.5 * gt[1] + 0.5 * gt[2];
+    gt[3] -= 0.5 * gt[4] + 0.5 * gt[5];
+  }
+  return gt;
+}
+
+/** Parse the first image of a GeoTIFF into a header and the block layout of band 1. */
+export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
+  if (bytes.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${bytes.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
+  const bom = (bytes[0] << 8) | bytes[1];
+  const le = bom === 0x4949;
+  const magic = le ? bytes[2] | (bytes[3] << 8) : (bytes[2] << 8) | bytes[3];
+  if ((bom !== 0x4949 && bom !== 0x4d4d) || (magic !== 42 && magic !== 43)) {
+    throw new TerrainError('not-tiff', 'The file is not a TIFF (it does not start with a TIFF signature); upload a GeoTIFF (.tif) DEM.');
+  }
+  let image;
+  try {
+    const tiff = await GeoTIFF.fromSource(bytesSource(bytes) as never);
+    image = await tiff.getImage(0);
+  } catch (err) {
+    throw new TerrainError('truncated', `The TIFF's directory cannot be read (${(err as Error).message}); the file is probably cut short, so upload it again.`);
+  }
+  const fd = image.fileDirectory;
+  const width = image.getWidth();
+  const height = image.getHeight();
+  const bands = image.getSamplesPerPixel();
+  const planar = (fd.getValue('PlanarConfiguration') as number | undefined) ?? 1;
+  if (bands > 1 && planar !== 2) {
+    throw new TerrainError('unsupported', `The GeoTIFF has ${bands} interleaved bands; a DEM needs one: extract the elevation band (gdal_translate -b 1 in.tif out.tif).`);
+  }
+  const sampleType = sampleTypeOf(image.getSampleFormat(0) as number, image.getBitsPerSample(0));
+  if (!sampleType) {
+    throw new TerrainError('unsupported', `The GeoTIFF stores ${image.getBitsPerSample(0)}-bit samples of format ${image.getSampleFormat(0)}; Loftline reads 8/16/32-bit integers and 32/64-bit floats (gdal_translate -ot Float32).`);
+  }
+  const compressionCode = (fd.getValue('Compression') as number | undefined) ?? 1;
+  if (!(compressionCode in COMPRESSION_NAMES)) {
+    throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);
+  }
+  const predictor = (fd.getValue('Predictor') as number | undefined) ?? 1;
+  if (predictor !== 1 && predictor !== 2 && predictor !== 3) throw new TerrainError('unsupported', `Unknown TIFF predictor ${predictor}; re-save the grid without a predictor.`);
+  const geoKeys = image.getGeoKeys() as GeoKeys | null;
+  const pixelIsPoint = geoKeys?.GTRasterTypeGeoKey === 2;
+  const transform = geoTransformOf(fd, pixelIsPoint);
+  const crs = crsFromGeoKeys(geoKeys);
+  const tiled = image.isTiled as boolean;
+  const blockWidth = image.getTileWidth();
+  const blockHeight = image.getTileHeight();
+  const blocksAcross = Math.ceil(width / blockWidth);
+  const blocksDown = Math.ceil(height / blockHeight);
+  const offsets = (await fd.loadValue(tiled ? 'TileOffsets' : 'StripOffsets')) as ArrayLike<number>;
+  const byteCounts = (await fd.loadValue(tiled ? 'TileByteCounts' : 'StripByteCounts')) as ArrayLike<number>;
+  const nBlocks = blocksAcross * blocksDown;
+  if (!offsets || !byteCounts || offsets.length < nBlocks || byteCounts.length < nBlocks) {
+    throw new TerrainError('truncated', `The TIFF lists ${offsets?.length ?? 0} data blocks where ${nBlocks} are needed; the file is damaged, so export it again.`);
+  }
+  let end = 0;
+  for (let i = 0; i < nBlocks; i++) end = Math.max(end, Number(offsets[i]) + Number(byteCounts[i]));
+  if (end > bytes.byteLength) {
+    throw new TerrainError('truncated', `The GeoTIFF is cut short: its data runs to byte ${end} but the file has ${bytes.byteLength} bytes; upload the complete file.`);
+  }
+  const gdalMeta = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
+  const keysSayVertical = geoKeys != null && (geoKeys.VerticalUnitsGeoKey !== undefined || geoKeys.VerticalCSTypeGeoKey !== undefined);
+  const vertical = keysSayVertical ? verticalUnitFromGeoKeys(geoKeys) : unitFromName(gdalMeta.UNITTYPE) ?? 'metre';
+  const scale = gdalMeta.SCALE !== undefined ? Number(gdalMeta.SCALE) : 1;
+  const offset = gdalMeta.OFFSET !== undefined ? Number(gdalMeta.OFFSET) : 0;
+  const nodata = image.getGDALNoData();
+  const header: DemHeader = {
+    width,
+    height,
+    transform,
+    crs,
+    nodata,
+    units: { horizontal: crs.horizontalUnit, vertical },
+    verticalDatum: verticalDatumFromGeoKeys(geoKeys),
+    sampleType,
+    bands,
+    tiling: { tiled, blockWidth, blockHeight, blocksAcross, blocksDown },
+    compression: COMPRESSION_NAMES[compressionCode],
+    predictor,
+    rasterType: pixelIsPoint ? 'pixel-is-point' : 'pixel-is-area',
+    byteOrder: le ? 'little-endian' : 'big-endian',
+  };
+  const m = metresPerUnit(vertical);
+  const layout: DemLayout = {
+    compressionCode,
+    littleEndian: le,
+    offsets,
+    byteCounts,
+    toMetres: { scale: (Number.isFinite(scale) ? scale : 1) * m, offset: (Number.isFinite(offset) ? offset : 0) * m },
+  };
+  return { header, layout };
+}
