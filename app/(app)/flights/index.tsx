@@ -1,0 +1,4 @@
+/** Route /flights. */
+import { FlightsScreen } from '../../../components/flights/flights-screen';
+
+export default FlightsScreen;

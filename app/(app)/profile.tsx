@@ -1,0 +1,4 @@
+/** Route /profile. */
+import { ProfileScreen } from '../../components/profile/profile-screen';
+
+export default ProfileScreen;

@@ -1,0 +1,4 @@
+/** Route /projects. */
+import { ProjectsScreen } from '../../../components/projects/projects-screen';
+
+export default ProjectsScreen;

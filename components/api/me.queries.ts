@@ -1,0 +1,19 @@
+/** The signed-in user and their teams (GET /api/me): the app's session check. */
+import { useQuery } from '@tanstack/react-query';
+import { meSchema } from '../../contracts/teams';
+import { apiFetch } from './api-fetch';
+
+/** Query keys for the signed-in user. */
+export const meKeys = {
+  all: ['me'] as const,
+};
+
+/** Fetches the signed-in user; a 401 ApiError means "no session". */
+export function fetchMe(signal?: AbortSignal) {
+  return apiFetch('/api/me', { schema: meSchema, signal });
+}
+
+/** The signed-in user and teams; the query errors with status 401 when nobody is signed in. */
+export function useMe() {
+  return useQuery({ queryKey: meKeys.all, queryFn: ({ signal }) => fetchMe(signal) });
+}

@@ -1,0 +1,30 @@
+/** The frame of the signed-out screens: the product name, a one-line statement, and the form in a card. */
+import type { ReactNode } from 'react';
+import { StyleSheet, View } from 'react-native';
+import { BrandMark } from '../layout/brand-mark';
+import { space } from '../theme';
+import { Card, Heading, Screen, Text } from '../ui';
+
+/** A narrow centred column, the same on phones and desktops. */
+export function AuthFrame({ title, children, footer }: { title: string; children: ReactNode; footer?: ReactNode }) {
+  return (
+    <Screen width="form">
+      <View style={styles.brand}>
+        <BrandMark size="large" />
+        <Text tone="muted">Survey flight checks over real terrain: GSD, overlap and altitudes, line by line.</Text>
+      </View>
+      <Card>
+        <Heading level={1} variant="title">
+          {title}
+        </Heading>
+        {children}
+      </Card>
+      {footer ? <View style={styles.footer}>{footer}</View> : null}
+    </Screen>
+  );
+}
+
+const styles = StyleSheet.create({
+  brand: { gap: space.sm, paddingTop: space.xl },
+  footer: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xs, alignItems: 'baseline' },
+});

@@ -1,0 +1,58 @@
+/** A discreet list of the demo team's accounts on the sign-in page (the product ships with an invented demo team). */
+import { Pressable, StyleSheet, View } from 'react-native';
+import { roleLabels, type Role } from '../../contracts/roles';
+import { colors, layout, radii, space } from '../theme';
+import { Text } from '../ui';
+
+/** The seeded demo users (fictional people on the reserved .example domain); the server's seed creates the same list. */
+export const demoAccounts: ReadonlyArray<{ role: Role; email: string }> = [
+  { role: 'owner', email: 'ada.pennick@brackenmoor.example' },
+  { role: 'planner', email: 'tomas.vell@brackenmoor.example' },
+  { role: 'surveyor', email: 'rhea.castellan@brackenmoor.example' },
+  { role: 'pilot', email: 'jory.marsh@brackenmoor.example' },
+];
+
+/** The demo team's shared password, as documented in the README and printed by the server at start. */
+export const demoPasswordHint = 'loftline-demo';
+
+/** Tapping an account fills the form with it; nothing is submitted on the user's behalf. */
+export function DemoAccounts({ onPick }: { onPick: (email: string, password: string) => void }) {
+  return (
+    <View style={styles.box} testID="demo-accounts">
+      <Text variant="label" tone="muted">
+        Demo accounts — team “Brackenmoor Aerial Mapping”, password <Text variant="mono">{demoPasswordHint}</Text>
+      </Text>
+      {demoAccounts.map((account) => (
+        <Pressable
+          key={account.role}
+          role="button"
+          aria-label={`Fill in the demo ${roleLabels[account.role]} account`}
+          testID={`demo-${account.role}`}
+          onPress={() => onPick(account.email, demoPasswordHint)}
+          style={styles.row}
+        >
+          <Text variant="caption" tone="muted" style={styles.role}>
+            {roleLabels[account.role]}
+          </Text>
+          <Text variant="caption" tone="primary" style={styles.email}>
+            {account.email}
+          </Text>
+        </Pressable>
+      ))}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  box: {
+    gap: space.xs,
+    padding: space.md,
+    borderRadius: radii.md,
+    borderWidth: layout.borderWidthPx,
+    borderColor: colors.line,
+    backgroundColor: colors.surfaceSunken,
+  },
+  row: { flexDirection: 'row', gap: space.sm, paddingVertical: space.xxs, alignItems: 'baseline', flexWrap: 'wrap' },
+  role: { minWidth: layout.inlineLabelPx },
+  email: { textDecorationLine: 'underline' },
+});

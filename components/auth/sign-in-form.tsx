@@ -1,0 +1,86 @@
+/** The sign-in form: e-mail and password, field errors beside each field, the server's refusal shown as-is. */
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Controller, useForm } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { signInSchema, type SignIn } from '../../contracts/auth';
+import { meKeys } from '../api/me.queries';
+import { space } from '../theme';
+import { Banner, Button, TextField } from '../ui';
+import { authClient, authFailureFrom } from './auth-client';
+import { DemoAccounts } from './demo-accounts';
+
+/** On success it refreshes the session query; the signed-out layout then moves the user into the app. */
+export function SignInForm() {
+  const queryClient = useQueryClient();
+  const [failure, setFailure] = useState<string | null>(null);
+  const { control, handleSubmit, setValue, formState } = useForm<SignIn>({
+    resolver: zodResolver(signInSchema),
+    defaultValues: { email: '', password: '' },
+  });
+
+  const submit = handleSubmit(async (values) => {
+    setFailure(null);
+    const { error } = await authClient.signIn.email({ email: values.email, password: values.password });
+    const refused = authFailureFrom(error);
+    if (refused) {
+      setFailure(refused.message);
+      return;
+    }
+    await queryClient.refetchQueries({ queryKey: meKeys.all });
+  });
+
+  return (
+    <View style={styles.form}>
+      {failure ? <Banner tone="danger" message={failure} testID="sign-in-failure" /> : null}
+      <Controller
+        control={control}
+        name="email"
+        render={({ field, fieldState }) => (
+          <TextField
+            ref={field.ref}
+            label="E-mail"
+            value={field.value}
+            onChangeText={field.onChange}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            autoCapitalize="none"
+            autoCorrect={false}
+            autoComplete="email"
+            inputMode="email"
+            testID="sign-in-email"
+            onSubmitEditing={() => void submit()}
+          />
+        )}
+      />
+      <Controller
+        control={control}
+        name="password"
+        render={({ field, fieldState }) => (
+          <TextField
+            ref={field.ref}
+            label="Password"
+            value={field.value}
+            onChangeText={field.onChange}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            secureTextEntry
+            autoComplete="current-password"
+            testID="sign-in-password"
+            onSubmitEditing={() => void submit()}
+          />
+        )}
+      />
+      <Button label="Sign in" onPress={() => void submit()} busy={formState.isSubmitting} testID="sign-in-submit" />
+      <DemoAccounts
+        onPick={(email, password) => {
+          setValue('email', email, { shouldValidate: true });
+          setValue('password', password, { shouldValidate: true });
+        }}
+      />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({ form: { gap: space.lg } });

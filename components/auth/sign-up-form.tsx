@@ -1,0 +1,95 @@
+/** The sign-up form: name, e-mail and a new password, with the password rules shown before the user types. */
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { Controller, useForm } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { passwordRules, signUpSchema, type SignUp } from '../../contracts/auth';
+import { space } from '../theme';
+import { Banner, Button, TextField } from '../ui';
+import { authClient, authFailureFrom } from './auth-client';
+
+/**
+ * The server answers a sign-up the same way whether or not the address already has an account, and does not sign
+ * the user in, so the confirmation is worded to fit both cases and points to the sign-in form.
+ */
+export function SignUpForm({ onDone }: { onDone: () => void }) {
+  const [failure, setFailure] = useState<string | null>(null);
+  const { control, handleSubmit, formState } = useForm<SignUp>({
+    resolver: zodResolver(signUpSchema),
+    defaultValues: { name: '', email: '', password: '' },
+  });
+
+  const submit = handleSubmit(async (values) => {
+    setFailure(null);
+    const { error } = await authClient.signUp.email({ name: values.name, email: values.email, password: values.password });
+    const refused = authFailureFrom(error);
+    if (refused) {
+      setFailure(refused.message);
+      return;
+    }
+    onDone();
+  });
+
+  return (
+    <View style={styles.form}>
+      {failure ? <Banner tone="danger" message={failure} testID="sign-up-failure" /> : null}
+      <Controller
+        control={control}
+        name="name"
+        render={({ field, fieldState }) => (
+          <TextField
+            ref={field.ref}
+            label="Name"
+            value={field.value}
+            onChangeText={field.onChange}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            autoComplete="name"
+            testID="sign-up-name"
+          />
+        )}
+      />
+      <Controller
+        control={control}
+        name="email"
+        render={({ field, fieldState }) => (
+          <TextField
+            ref={field.ref}
+            label="E-mail"
+            value={field.value}
+            onChangeText={field.onChange}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            autoCapitalize="none"
+            autoCorrect={false}
+            autoComplete="email"
+            inputMode="email"
+            testID="sign-up-email"
+          />
+        )}
+      />
+      <Controller
+        control={control}
+        name="password"
+        render={({ field, fieldState }) => (
+          <TextField
+            ref={field.ref}
+            label="Password"
+            hint={`${passwordRules.minLength} to ${passwordRules.maxLength} characters. A few unrelated words make a good one.`}
+            value={field.value}
+            onChangeText={field.onChange}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            secureTextEntry
+            autoComplete="new-password"
+            testID="sign-up-password"
+            onSubmitEditing={() => void submit()}
+          />
+        )}
+      />
+      <Button label="Create account" onPress={() => void submit()} busy={formState.isSubmitting} testID="sign-up-submit" />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({ form: { gap: space.lg } });

@@ -1,0 +1,39 @@
+/** The signed-in area's navigation items and which of them a role sees. */
+import { can, type Permission, type Role } from '../../contracts/roles';
+
+export type NavKey = 'projects' | 'flights' | 'team' | 'profile';
+
+export type NavItem = {
+  key: NavKey;
+  label: string;
+  href: `/${string}`;
+  /** Permission needed to see the item; null for items everyone has. */
+  permission: Permission | null;
+  /** Stable id for end-to-end tests. */
+  testID: `nav-${NavKey}`;
+};
+
+/** All items in display order. */
+export const navItems: readonly NavItem[] = [
+  { key: 'projects', label: 'Projects', href: '/projects', permission: 'project:read', testID: 'nav-projects' },
+  { key: 'flights', label: 'Flights', href: '/flights', permission: 'flight:read', testID: 'nav-flights' },
+  { key: 'team', label: 'Team', href: '/team', permission: 'member:read', testID: 'nav-team' },
+  { key: 'profile', label: 'Profile', href: '/profile', permission: null, testID: 'nav-profile' },
+];
+
+/** The items `role` may see, in display order (only Profile without a role). */
+export function navItemsFor(role: Role | null | undefined): NavItem[] {
+  return navItems.filter((item) => item.permission === null || can(role, item.permission));
+}
+
+/** Where a role lands after sign-in: projects for those who read them, the flights list for pilots. */
+export function homeFor(role: Role | null | undefined): '/projects' | '/flights' | '/teams' {
+  if (!role) return '/teams';
+  return can(role, 'project:read') ? '/projects' : '/flights';
+}
+
+/** The item whose section contains `pathname` (e.g. /projects/abc belongs to Projects), or null. */
+export function activeNavKey(pathname: string): NavKey | null {
+  const item = navItems.find((i) => pathname === i.href || pathname.startsWith(`${i.href}/`));
+  return item?.key ?? null;
+}

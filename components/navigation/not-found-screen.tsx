@@ -1,0 +1,17 @@
+/** The screen for an address that matches no route. */
+import { usePathname } from 'expo-router';
+import { EmptyState, Screen, TextLink } from '../ui';
+
+/** Says which address was not found and offers the way back. */
+export function NotFoundScreen() {
+  const pathname = usePathname();
+  return (
+    <Screen testID="not-found-screen">
+      <EmptyState
+        title="Page not found"
+        message={`Nothing lives at ${pathname}. It may have moved, or the link was mistyped.`}
+        action={<TextLink href="/" label="Go to Loftline" testID="not-found-home" />}
+      />
+    </Screen>
+  );
+}

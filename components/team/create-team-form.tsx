@@ -1,0 +1,56 @@
+/** Form to create a team; the creator becomes its owner. */
+import { zodResolver } from '@hookform/resolvers/zod';
+import { Controller, useForm } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { createTeamSchema, type CreateTeam, type TeamSummary } from '../../contracts/teams';
+import { ApiError, errorMessage } from '../api/api-error';
+import { useCreateTeam } from '../api/teams.queries';
+import { space } from '../theme';
+import { Banner, Button, TextField } from '../ui';
+
+/** Field problems from the server (422) land on the field; any other refusal shows above the form. */
+export function CreateTeamForm({ onCreated }: { onCreated: (team: TeamSummary) => void }) {
+  const create = useCreateTeam();
+  const { control, handleSubmit, reset, setError, formState } = useForm<CreateTeam>({
+    resolver: zodResolver(createTeamSchema),
+    defaultValues: { name: '' },
+  });
+
+  const submit = handleSubmit(async (values) => {
+    try {
+      const team = await create.mutateAsync(values);
+      reset({ name: '' });
+      onCreated(team);
+    } catch (e) {
+      const nameProblem = e instanceof ApiError ? e.fields.find((f) => f.path === 'name') : undefined;
+      if (nameProblem) setError('name', { message: nameProblem.message });
+      else setError('root', { message: errorMessage(e) });
+    }
+  });
+
+  return (
+    <View style={styles.form}>
+      {formState.errors.root?.message ? <Banner tone="danger" message={formState.errors.root.message} testID="create-team-failure" /> : null}
+      <Controller
+        control={control}
+        name="name"
+        render={({ field, fieldState }) => (
+          <TextField
+            ref={field.ref}
+            label="Team name"
+            hint="Usually the company or crew name. You become the team's owner."
+            value={field.value}
+            onChangeText={field.onChange}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            testID="create-team-name"
+            onSubmitEditing={() => void submit()}
+          />
+        )}
+      />
+      <Button label="Create team" onPress={() => void submit()} busy={formState.isSubmitting} testID="create-team-submit" style={styles.submit} />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({ form: { gap: space.lg }, submit: { alignSelf: 'flex-start' } });

@@ -1,0 +1,2 @@
+/** The theme: tokens re-exported from one place. */
+export * from './tokens';

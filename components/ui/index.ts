@@ -1,0 +1,12 @@
+/** UI atoms re-exported from one place. */
+export { Badge, type BadgeTone } from './badge';
+export { Banner, type BannerTone } from './banner';
+export { Button, type ButtonVariant } from './button';
+export { Card } from './card';
+export { ChoiceGroup, type Choice } from './choice-group';
+export { EmptyState } from './empty-state';
+export { Loading } from './loading';
+export { Screen } from './screen';
+export { TextField } from './text-field';
+export { TextLink } from './text-link';
+export { Heading, Text, type TextTone } from './text';
