@@ -1,5 +1,5 @@
 /**
- * `npm test`: the same set-up as start (test database recreated, migrated and seeded; web build when stale),
+ * `npm test`: the same set-up as start (a fresh test database per run, migrated and seeded; web build when stale),
  * then every vitest suite: unit, API over real HTTP against the real database, and browser tests.
  */
 import { spawnSync } from 'node:child_process';
@@ -11,7 +11,7 @@ import { createAuth } from '../server/auth/auth';
 import { buildConfig, parseEnv } from '../server/config';
 import { seedDemo } from '../server/seed/seed';
 import { artifactsDir, projectRoot } from './lib/paths';
-import { recreateDatabase, startCluster } from './lib/postgres';
+import { createRunDatabase, startCluster } from './lib/postgres';
 import { ensureWebBuild } from './lib/web-build';
 
 const env = parseEnv(process.env);
@@ -19,11 +19,10 @@ const pgPort = Number(process.env.LOFTLINE_PG_PORT ?? 54329);
 const t0 = Date.now();
 
 let databaseUrl = process.env.LOFTLINE_TEST_DATABASE_URL;
-const cluster = databaseUrl ? null : await startCluster({ port: pgPort, databases: ['loftline_test'], fast: true });
-if (cluster) {
-  await recreateDatabase(cluster, 'loftline_test');
-  databaseUrl = cluster.url('loftline_test');
-}
+const cluster = databaseUrl ? null : await startCluster({ port: pgPort, databases: [], fast: true });
+// Each run gets its own database, so parallel runs (and a running `npm start`) never disturb each other.
+const runDb = cluster ? await createRunDatabase(cluster, 'loftline_test') : null;
+if (cluster && runDb) databaseUrl = cluster.url(runDb.name);
 const db = createDb(databaseUrl!);
 await migrateDb(db);
 const config = buildConfig(env, { databaseUrl: databaseUrl!, authSecret: 'Xq7v2LmPz9RtY4wKc8NbF3hJd6SgA1eU0oIyTnMrWqE', webDist: null });
@@ -43,6 +42,7 @@ const r = spawnSync('npx', ['vitest', 'run', '--reporter=default', '--reporter=j
   stdio: 'inherit',
   env: { ...process.env, LOFTLINE_TEST_DATABASE_URL: databaseUrl, LOFTLINE_WEB_DIST: webDist, NODE_ENV: 'test' },
 });
+await runDb?.drop().catch(() => undefined);
 cluster?.stop();
 
 if (fs.existsSync(report)) {

@@ -146,23 +146,75 @@ export async function startCluster(opts: { port: number; databases: string[]; fa
   } finally {
     await admin.end();
   }
+  const userFile = registerUser();
   return {
     url,
     startedHere,
     stop: () => {
-      if (startedHere) runPg('pg_ctl', ['-D', clusterDir, '-m', 'fast', '-w', 'stop'], { allowFail: true });
+      fs.rmSync(userFile, { force: true });
+      // Several commands may share the cluster (a running `npm start`, parallel test runs): the last one out stops it.
+      if (liveUsers().length === 0) runPg('pg_ctl', ['-D', clusterDir, '-m', 'fast', '-w', 'stop'], { allowFail: true });
     },
   };
 }
 
-/** Drop and re-create a database (tests start from an empty schema every run). */
-export async function recreateDatabase(cluster: Cluster, name: string): Promise<void> {
+const usersDir = path.join(dataRoot, 'users');
+
+function registerUser(): string {
+  fs.mkdirSync(usersDir, { recursive: true });
+  const file = path.join(usersDir, String(process.pid));
+  fs.writeFileSync(file, process.argv.slice(1).join(' '));
+  return file;
+}
+
+/** Pids of other live commands using the cluster (stale entries of dead processes are removed). */
+export function liveUsers(): number[] {
+  if (!fs.existsSync(usersDir)) return [];
+  const out: number[] = [];
+  for (const name of fs.readdirSync(usersDir)) {
+    const pid = Number(name);
+    if (pid === process.pid) continue;
+    let alive = false;
+    try {
+      process.kill(pid, 0);
+      alive = true;
+    } catch {
+      alive = false;
+    }
+    if (alive) out.push(pid);
+    else fs.rmSync(path.join(usersDir, name), { force: true });
+  }
+  return out;
+}
+
+/** Create a fresh database for one test run, dropping those left by test runs whose process is gone. */
+export async function createRunDatabase(cluster: Cluster, prefix: string): Promise<{ name: string; drop: () => Promise<void> }> {
+  const name = `${prefix}_${process.pid}`;
   const admin = new pg.Client({ connectionString: cluster.url('postgres') });
   await admin.connect();
   try {
-    await admin.query(`drop database if exists "${name}" with (force)`);
+    const rows = await admin.query<{ datname: string }>('select datname from pg_database where datname like $1', [`${prefix}_%`]);
+    for (const { datname } of rows.rows) {
+      const pid = Number(datname.slice(prefix.length + 1));
+      let alive = false;
+      try {
+        process.kill(pid, 0);
+        alive = pid !== process.pid;
+      } catch {
+        alive = false;
+      }
+      if (!alive) await admin.query(`drop database if exists "${datname}" with (force)`);
+    }
     await admin.query(`create database "${name}"`);
   } finally {
     await admin.end();
   }
+  return {
+    name,
+    drop: async () => {
+      const c = new pg.Client({ connectionString: cluster.url('postgres') });
+      await c.connect();
+      await c.query(`drop database if exists "${name}" with (force)`).finally(() => c.end());
+    },
+  };
 }
