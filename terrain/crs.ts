@@ -78,21 +78,34 @@ export function unitOfProj4(def: string): LengthUnit {
   throw new TerrainError('unknown-crs', `The CRS uses the length unit "${units}", which Loftline does not read; reproject the grid to metres or feet.`);
 }
 
+// OSGB36 -> WGS 84 seven-parameter Helmert, EPSG transformation 1314 (EPSG dataset; stated accuracy 2 m):
+// stands in for the OSTN15 grid that proj4 cannot load here.
+const OSGB36_TOWGS84 = '+towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489';
+
 /**
- * Drop datum-shift grid files proj4 cannot load here (they would make every transform fail);
- * such a CRS then converts with the ellipsoid and any +towgs84 only, which may be off by metres.
+ * Drop datum-shift grid files proj4 cannot load here (they would make every transform fail). A CRS whose only
+ * datum shift is such a grid is refused rather than silently shifted by up to hundreds of metres,
+ * except OSGB36, which gets EPSG's Helmert fit.
  */
-function withoutGridFiles(def: string): string {
-  return def
+function withoutGridFiles(def: string, name: string): string {
+  const grid = /\+nadgrids=(?!@null\b)(\S+)/.exec(def)?.[1];
+  let out = def
     .replace(/\s*\+nadgrids=(?!@null\b)\S+/g, '')
     .replace(/\s*\+geoidgrids=\S+/g, '')
     .replace(/\s*\+type=crs\b/g, '')
     .trim();
+  if (grid && !/\+towgs84=/.test(out) && !/\+datum=/.test(out)) {
+    if (/OSTN/i.test(grid)) out += ` ${OSGB36_TOWGS84}`;
+    else {
+      throw new TerrainError('unknown-crs', `${name} needs the datum-shift grid ${grid}, which Loftline cannot apply; reproject the DEM to WGS 84 or a UTM zone (gdalwarp -t_srs EPSG:326xx in.tif out.tif).`);
+    }
+  }
+  return out;
 }
 
 /** A CRS from a proj4 definition (user-defined GeoTIFF keys, tests). */
 export function crsFromProj4(def: string, name: string, epsg: number | null = null): GridCrs {
-  const clean = withoutGridFiles(def);
+  const clean = withoutGridFiles(def, name);
   try {
     proj4(WGS84.proj4, clean); // validate now rather than on first use
   } catch (err) {

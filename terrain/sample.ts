@@ -113,13 +113,13 @@ export function densifyLine(lineLonLat: ReadonlyArray<readonly [number, number]>
     check(Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lat) <= 90, `Vertex ${i} must be [lon, lat] in degrees, got ${JSON.stringify(lineLonLat[i])}.`);
     if (i === 0) continue;
     const [lon0, lat0] = lineLonLat[i - 1];
-    const line = WGS84_GEODESIC.InverseLine(lat0, lon0, lat, lon, LATLON | Geodesic.DISTANCE_IN | Geodesic.LONG_UNROLL);
+    const line = WGS84_GEODESIC.InverseLine(lat0, lon0, lat, lon, LATLON | Geodesic.DISTANCE_IN);
     segs.push({ line, startM: total, lengthM: line.s13 });
     total += line.s13;
   }
   const steps = Math.floor(total / stepM + 1e-9);
   check(steps < 50_000_000, `A step of ${stepM} m over ${total.toFixed(0)} m gives ${steps} samples; use a longer step.`);
-  const endExtra = total - steps * stepM > 1e-6 * stepM ? 1 : 0;
+  const endExtra = total - steps * stepM > 1e-6 ? 1 : 0; // the end point, unless a step lands on it (to a micrometre)
   const n = steps + 1 + endExtra;
   const lon = new Float64Array(n), lat = new Float64Array(n), distanceM = new Float64Array(n);
   let s = 0;
@@ -127,7 +127,7 @@ export function densifyLine(lineLonLat: ReadonlyArray<readonly [number, number]>
     const d = i <= steps ? i * stepM : total;
     while (s < segs.length - 1 && d > segs[s].startM + segs[s].lengthM) s++;
     const seg = segs[s];
-    const p = seg.line.Position(d - seg.startM, LATLON | Geodesic.LONG_UNROLL);
+    const p = seg.line.Position(d - seg.startM, LATLON);
     lon[i] = p.lon2 as number;
     lat[i] = p.lat2 as number;
     distanceM[i] = d;
