@@ -77,10 +77,10 @@ function unitFromName(name: unknown): LengthUnit | null {
 }
 
 /** The georeference as a GDAL geotransform, from ModelTransformation or ModelTiepoint + ModelPixelScale. */
-function geoTransformOf(fd: { getValue(t: string): any }, pixelIsPoint: boolean): GeoTransform {
-  const m = fd.getValue('ModelTransformation') as number[] | undefined;
-  const tie = fd.getValue('ModelTiepoint') as number[] | undefined;
-  const scale = fd.getValue('ModelPixelScale') as number[] | undefined;
+async function geoTransformOf(fd: { loadValue(t: string): Promise<unknown> }, pixelIsPoint: boolean): Promise<GeoTransform> {
+  const m = (await fd.loadValue('ModelTransformation')) as number[] | undefined;
+  const tie = (await fd.loadValue('ModelTiepoint')) as number[] | undefined;
+  const scale = (await fd.loadValue('ModelPixelScale')) as number[] | undefined;
   let gt: [number, number, number, number, number, number];
   if (m && m.length >= 16) {
     gt = [m[3], m[0], m[1], m[7], m[4], m[5]];
@@ -124,7 +124,7 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   const width = image.getWidth();
   const height = image.getHeight();
   const bands = image.getSamplesPerPixel();
-  const planar = (fd.getValue('PlanarConfiguration') as number | undefined) ?? 1;
+  const planar = ((await fd.loadValue('PlanarConfiguration')) as number | undefined) ?? 1;
   if (bands > 1 && planar !== 2) {
     throw new TerrainError('unsupported', `The GeoTIFF has ${bands} interleaved bands; a DEM needs one: extract the elevation band (gdal_translate -b 1 in.tif out.tif).`);
   }
@@ -132,15 +132,15 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   if (!sampleType) {
     throw new TerrainError('unsupported', `The GeoTIFF stores ${image.getBitsPerSample(0)}-bit samples of format ${image.getSampleFormat(0)}; Loftline reads 8/16/32-bit integers and 32/64-bit floats (gdal_translate -ot Float32).`);
   }
-  const compressionCode = (fd.getValue('Compression') as number | undefined) ?? 1;
+  const compressionCode = ((await fd.loadValue('Compression')) as number | undefined) ?? 1;
   if (!(compressionCode in COMPRESSION_NAMES)) {
     throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);
   }
-  const predictor = (fd.getValue('Predictor') as number | undefined) ?? 1;
+  const predictor = ((await fd.loadValue('Predictor')) as number | undefined) ?? 1;
   if (predictor !== 1 && predictor !== 2 && predictor !== 3) throw new TerrainError('unsupported', `Unknown TIFF predictor ${predictor}; re-save the grid without a predictor.`);
   const geoKeys = image.getGeoKeys() as GeoKeys | null;
   const pixelIsPoint = geoKeys?.GTRasterTypeGeoKey === 2;
-  const transform = geoTransformOf(fd, pixelIsPoint);
+  const transform = await geoTransformOf(fd as never, pixelIsPoint);
   const crs = crsFromGeoKeys(geoKeys);
   const tiled = image.isTiled as boolean;
   const blockWidth = image.getTileWidth();

@@ -1,0 +1,112 @@
+/** A hillshade preview of a grid as PNG bytes (grey + alpha), downsampled for the browser. */
+import pngjs from 'pngjs';
+import type { GeoTransform, Grid } from './grid';
+import { pixelToMap } from './grid';
+import { check } from './errors';
+import { WGS84, createTransform } from './crs';
+import { pixelBoundsWgs84 } from './metadata';
+import { metresPerUnit } from './dem-header';
+
+const { PNG } = pngjs as unknown as typeof import('pngjs');
+
+/** Options: the longest image side (default 1024 px), sun azimuth from north clockwise (315) and altitude (45 degrees). */
+export interface HillshadeOptions {
+  maxSizePx?: number;
+  azimuthDeg?: number;
+  altitudeDeg?: number;
+}
+
+/** The PNG and where it lies: image size, WGS 84 bounds, and the grid-CRS transform of the image pixels. */
+export interface Hillshade {
+  png: Uint8Array;
+  width: number;
+  height: number;
+  boundsWgs84: [number, number, number, number];
+  transform: GeoTransform;
+}
+
+/** Box-average the grid by an integer factor k, ignoring unknown pixels (NaN only where a whole box is unknown). */
+function downsample(grid: Grid, k: number): { w: number; h: number; z: Float32Array } {
+  const w = Math.ceil(grid.width / k), h = Math.ceil(grid.height / k);
+  if (k === 1) return { w, h, z: grid.data };
+  const sum = new Float64Array(w * h), n = new Uint32Array(w * h);
+  for (let r = 0; r < grid.height; r++) {
+    const o = ((r / k) | 0) * w;
+    for (let c = 0; c < grid.width; c++) {
+      const v = grid.data[r * grid.width + c];
+      if (v === v) { sum[o + ((c / k) | 0)] += v; n[o + ((c / k) | 0)]++; }
+    }
+  }
+  const z = new Float32Array(w * h);
+  for (let i = 0; i < z.length; i++) z[i] = n[i] ? sum[i] / n[i] : NaN;
+  return { w, h, z };
+}
+
+/** Ground size of the image pixels in metres (geographic grids: WGS 84 radii of curvature at the grid centre). */
+function pixelSizeM(grid: Grid, t: GeoTransform, w: number, h: number): [number, number] {
+  const dx = Math.hypot(t[1], t[4]), dy = Math.hypot(t[2], t[5]);
+  if (!grid.crs.geographic) {
+    const m = metresPerUnit(grid.crs.horizontalUnit);
+    return [dx * m, dy * m];
+  }
+  const [, lat] = createTransform(grid.crs, WGS84).forward(...pixelToMap(t, w / 2, h / 2));
+  const a = 6378137, e2 = 0.00669437999014; // WGS 84 (NIMA TR8350.2)
+  const s = Math.sin((lat * Math.PI) / 180);
+  const nRadius = a / Math.sqrt(1 - e2 * s * s);
+  const mRadius = (a * (1 - e2)) / Math.pow(1 - e2 * s * s, 1.5);
+  return [(dx * Math.PI * nRadius * Math.cos((lat * Math.PI) / 180)) / 180, (dy * Math.PI * mRadius) / 180];
+}
+
+/**
+ * Hillshade PNG of a grid. Slopes by Horn's 3 x 3 weighted differences (B. K. P. Horn, "Hill shading and the
+ * reflectance map", Proc. IEEE 69(1), 1981), Lambertian shade = surface normal . sun vector; nodata transparent.
+ */
+export function hillshadePng(grid: Grid, opts: HillshadeOptions = {}): Hillshade {
+  const maxSizePx = opts.maxSizePx ?? 1024;
+  const azimuthDeg = opts.azimuthDeg ?? 315;
+  const altitudeDeg = opts.altitudeDeg ?? 45;
+  check(Number.isInteger(maxSizePx) && maxSizePx >= 1, `maxSizePx must be a whole number >= 1, got ${maxSizePx}.`);
+  check(Number.isFinite(azimuthDeg), `azimuthDeg must be a number, got ${azimuthDeg}.`);
+  check(Number.isFinite(altitudeDeg) && altitudeDeg > 0 && altitudeDeg <= 90, `altitudeDeg must be in (0, 90], got ${altitudeDeg}.`);
+  const k = Math.max(1, Math.ceil(Math.max(grid.width, grid.height) / maxSizePx));
+  const { w, h, z } = downsample(grid, k);
+  const gt = grid.transform;
+  const t: GeoTransform = [gt[0], gt[1] * k, gt[2] * k, gt[3], gt[4] * k, gt[5] * k];
+  const [sxM, syM] = pixelSizeM(grid, t, w, h);
+  const az = (azimuthDeg * Math.PI) / 180, alt = (altitudeDeg * Math.PI) / 180;
+  // sun vector in (east, north, up); image rows run south when t[5] < 0
+  const sunE = Math.sin(az) * Math.cos(alt), sunN = Math.cos(az) * Math.cos(alt), sunU = Math.sin(alt);
+  const rowSign = t[5] < 0 ? 1 : -1, colSign = t[1] > 0 ? 1 : -1;
+  const rgba = new Uint8Array(w * h * 4);
+  const at = (c: number, r: number, fallback: number) => {
+    const cc = c < 0 ? 0 : c >= w ? w - 1 : c, rr = r < 0 ? 0 : r >= h ? h - 1 : r;
+    const v = z[rr * w + cc];
+    return v === v ? v : fallback; // edges and holes: reuse the centre height (flat there)
+  };
+  for (let r = 0; r < h; r++) {
+    for (let c = 0; c < w; c++) {
+      const e = z[r * w + c];
+      const o = (r * w + c) * 4;
+      if (e !== e) continue; // transparent
+      const a = at(c - 1, r - 1, e), b = at(c, r - 1, e), cc = at(c + 1, r - 1, e);
+      const d = at(c - 1, r, e), f = at(c + 1, r, e);
+      const g = at(c - 1, r + 1, e), hh = at(c, r + 1, e), i = at(c + 1, r + 1, e);
+      const dzE = (colSign * ((cc + 2 * f + i) - (a + 2 * d + g))) / (8 * sxM);
+      const dzN = (rowSign * ((a + 2 * b + cc) - (g + 2 * hh + i))) / (8 * syM);
+      const shade = (-dzE * sunE - dzN * sunN + sunU) / Math.sqrt(1 + dzE * dzE + dzN * dzN);
+      const v = Math.round(255 * (shade > 0 ? shade : 0));
+      rgba[o] = rgba[o + 1] = rgba[o + 2] = v;
+      rgba[o + 3] = 255;
+    }
+  }
+  const png = new PNG({ width: w, height: h });
+  png.data = rgba as never; // pngjs only indexes the pixel bytes, so a Uint8Array does (no Node Buffer needed)
+  const bytes = PNG.sync.write(png, { colorType: 4 });
+  return {
+    png: new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+    width: w,
+    height: h,
+    boundsWgs84: pixelBoundsWgs84({ transform: t, crs: grid.crs }, 0, 0, w, h),
+    transform: t,
+  };
+}
