@@ -22,6 +22,8 @@ export function createAuth(deps: { db: Db; config: Config; hooks?: AuthHooks }) 
     secret: config.authSecret,
     database: drizzleAdapter(db, { provider: 'pg', schema }),
     telemetry: { enabled: false },
+    // Failed sign-ins are expected in tests; keep their logs to real errors.
+    logger: { level: config.env.NODE_ENV === 'test' ? 'error' : 'warn' },
     trustedOrigins: originsOf(config.publicUrl),
     emailAndPassword: {
       enabled: true,
