@@ -13,7 +13,10 @@ export function fetchMe(signal?: AbortSignal) {
   return apiFetch('/api/me', { schema: meSchema, signal });
 }
 
-/** The signed-in user and teams; the query errors with status 401 when nobody is signed in. */
+/**
+ * The signed-in user and teams; the query errors with status 401 when nobody is signed in. A known "no session"
+ * is not asked again each time another gate mounts: signing in refetches it explicitly.
+ */
 export function useMe() {
-  return useQuery({ queryKey: meKeys.all, queryFn: ({ signal }) => fetchMe(signal) });
+  return useQuery({ queryKey: meKeys.all, queryFn: ({ signal }) => fetchMe(signal), retryOnMount: false });
 }

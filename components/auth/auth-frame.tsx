@@ -5,8 +5,8 @@ import { BrandMark } from '../layout/brand-mark';
 import { space } from '../theme';
 import { Card, Heading, Screen, Text } from '../ui';
 
-/** A narrow centred column, the same on phones and desktops. */
-export function AuthFrame({ title, children, footer }: { title: string; children: ReactNode; footer?: ReactNode }) {
+/** A narrow centred column, the same on phones and desktops; `aside` sits below the link to the other form. */
+export function AuthFrame({ title, children, footer, aside }: { title: string; children: ReactNode; footer?: ReactNode; aside?: ReactNode }) {
   return (
     <Screen width="form">
       <View style={styles.brand}>
@@ -20,6 +20,7 @@ export function AuthFrame({ title, children, footer }: { title: string; children
         {children}
       </Card>
       {footer ? <View style={styles.footer}>{footer}</View> : null}
+      {aside}
     </Screen>
   );
 }

@@ -52,7 +52,7 @@ const styles = StyleSheet.create({
     borderColor: colors.line,
     backgroundColor: colors.surfaceSunken,
   },
-  row: { flexDirection: 'row', gap: space.sm, paddingVertical: space.xxs, alignItems: 'baseline', flexWrap: 'wrap' },
+  row: { flexDirection: 'row', gap: space.sm, paddingVertical: space.xxs, alignItems: 'baseline' },
   role: { minWidth: layout.inlineLabelPx },
-  email: { textDecorationLine: 'underline' },
+  email: { flexShrink: 1, textDecorationLine: 'underline' },
 });

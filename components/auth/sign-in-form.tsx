@@ -1,7 +1,7 @@
 /** The sign-in form: e-mail and password, field errors beside each field, the server's refusal shown as-is. */
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { signInSchema, type SignIn } from '../../contracts/auth';
@@ -9,16 +9,24 @@ import { meKeys } from '../api/me.queries';
 import { space } from '../theme';
 import { Banner, Button, TextField } from '../ui';
 import { authClient, authFailureFrom } from './auth-client';
-import { DemoAccounts } from './demo-accounts';
+
+/** Values put into the form from outside (the demo accounts list); a new object each time. */
+export type SignInPrefill = { email: string; password: string };
 
 /** On success it refreshes the session query; the signed-out layout then moves the user into the app. */
-export function SignInForm() {
+export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
   const queryClient = useQueryClient();
   const [failure, setFailure] = useState<string | null>(null);
   const { control, handleSubmit, setValue, formState } = useForm<SignIn>({
     resolver: zodResolver(signInSchema),
     defaultValues: { email: '', password: '' },
   });
+
+  useEffect(() => {
+    if (!prefill) return;
+    setValue('email', prefill.email, { shouldValidate: true });
+    setValue('password', prefill.password, { shouldValidate: true });
+  }, [prefill, setValue]);
 
   const submit = handleSubmit(async (values) => {
     setFailure(null);
@@ -73,12 +81,6 @@ export function SignInForm() {
         )}
       />
       <Button label="Sign in" onPress={() => void submit()} busy={formState.isSubmitting} testID="sign-in-submit" />
-      <DemoAccounts
-        onPick={(email, password) => {
-          setValue('email', email, { shouldValidate: true });
-          setValue('password', password, { shouldValidate: true });
-        }}
-      />
     </View>
   );
 }

@@ -1,12 +1,15 @@
 /** The sign-in screen. */
 import { useLocalSearchParams } from 'expo-router';
+import { useState } from 'react';
 import { Banner, Text, TextLink } from '../ui';
 import { AuthFrame } from './auth-frame';
-import { SignInForm } from './sign-in-form';
+import { DemoAccounts } from './demo-accounts';
+import { SignInForm, type SignInPrefill } from './sign-in-form';
 
 /** After a sign-up the server does not sign the user in; `?created=1` explains what to do next. */
 export function SignInScreen() {
   const { created } = useLocalSearchParams<{ created?: string }>();
+  const [prefill, setPrefill] = useState<SignInPrefill | null>(null);
   return (
     <AuthFrame
       title="Sign in"
@@ -16,6 +19,7 @@ export function SignInScreen() {
           <TextLink href="/sign-up" label="Create an account" testID="go-sign-up" />
         </>
       }
+      aside={<DemoAccounts onPick={(email, password) => setPrefill({ email, password })} />}
     >
       {created === '1' ? (
         <Banner
@@ -24,7 +28,7 @@ export function SignInScreen() {
           message="Thanks. If that address was new, your account is ready: sign in with it below. If it already had an account, sign in with its existing password."
         />
       ) : null}
-      <SignInForm />
+      <SignInForm prefill={prefill} />
     </AuthFrame>
   );
 }

@@ -6,13 +6,18 @@ import { Text } from '../ui/text';
 const markImage = require('../../assets/brand-mark.png');
 const tilePx = { regular: 28, large: 40 } as const;
 
-/** The image is decorative; screen readers read the word "Loftline" beside it. */
-export function BrandMark({ size = 'regular' }: { size?: 'regular' | 'large' }) {
+/** The image is decorative beside the word; `markOnly` (narrow top bar) gives the image the name instead. */
+export function BrandMark({ size = 'regular', markOnly = false }: { size?: 'regular' | 'large'; markOnly?: boolean }) {
   const tile = tilePx[size];
   return (
     <View style={styles.row}>
-      <Image source={markImage} aria-hidden alt="" style={{ width: tile, height: tile }} />
-      <Text variant={size === 'large' ? 'heading' : 'title'}>Loftline</Text>
+      <Image
+        source={markImage}
+        aria-hidden={!markOnly}
+        alt={markOnly ? 'Loftline' : ''}
+        style={{ width: tile, height: tile }}
+      />
+      {markOnly ? null : <Text variant={size === 'large' ? 'heading' : 'title'}>Loftline</Text>}
     </View>
   );
 }

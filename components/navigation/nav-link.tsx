@@ -1,12 +1,9 @@
 /** One navigation item as a link, drawn for the side column or the bottom tab bar. */
-import { Link } from 'expo-router';
-import { Pressable, StyleSheet, View, type PressableStateCallbackType } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { colors, layout, radii, space } from '../theme';
-import { Text } from '../ui';
+import { LinkPressable, Text, type WebPressState } from '../ui';
 import { ariaCurrentPage } from '../ui/web-a11y';
 import type { NavItem } from './nav-items';
-
-type WebPressState = PressableStateCallbackType & { hovered?: boolean; focused?: boolean };
 
 export type NavLinkProps = { item: NavItem; active: boolean; placement: 'side' | 'tab' };
 
@@ -14,23 +11,22 @@ export type NavLinkProps = { item: NavItem; active: boolean; placement: 'side' |
 export function NavLink({ item, active, placement }: NavLinkProps) {
   const side = placement === 'side';
   return (
-    <Link href={item.href} asChild>
-      <Pressable
-        testID={item.testID}
-        aria-label={item.label}
-        {...ariaCurrentPage(active)}
-        style={(state: WebPressState) => [
-          side ? styles.side : styles.tab,
-          active ? (side ? styles.sideActive : styles.tabActive) : state.hovered || state.pressed ? styles.hovered : null,
-          state.focused && styles.focused,
-        ]}
-      >
-        <View aria-hidden style={[side ? styles.sideMarker : styles.tabMarker, active && styles.markerActive]} />
-        <Text variant={active ? 'bodyStrong' : 'body'} tone={active ? 'primary' : 'default'} style={side ? null : styles.tabLabel}>
-          {item.label}
-        </Text>
-      </Pressable>
-    </Link>
+    <LinkPressable
+      href={item.href}
+      testID={item.testID}
+      accessibilityLabel={item.label}
+      aria={ariaCurrentPage(active)}
+      style={(state: WebPressState) => [
+        side ? styles.side : styles.tab,
+        active ? (side ? styles.sideActive : styles.tabActive) : state.hovered || state.pressed ? styles.hovered : null,
+        state.focused && styles.focused,
+      ]}
+    >
+      <View aria-hidden style={[side ? styles.sideMarker : styles.tabMarker, active && styles.markerActive]} />
+      <Text variant={active ? 'bodyStrong' : 'body'} tone={active ? 'primary' : 'default'} style={side ? null : styles.tabLabel}>
+        {item.label}
+      </Text>
+    </LinkPressable>
   );
 }
 

@@ -1,5 +1,6 @@
 /** The screen for an address that matches no route. */
 import { usePathname } from 'expo-router';
+import { BrandMark } from '../layout/brand-mark';
 import { EmptyState, Screen, TextLink } from '../ui';
 
 /** Says which address was not found and offers the way back. */
@@ -7,6 +8,7 @@ export function NotFoundScreen() {
   const pathname = usePathname();
   return (
     <Screen testID="not-found-screen">
+      <BrandMark />
       <EmptyState
         title="Page not found"
         message={`Nothing lives at ${pathname}. It may have moved, or the link was mistyped.`}

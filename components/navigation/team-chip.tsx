@@ -1,41 +1,37 @@
 /** The current team's name and the user's role in it, linking to the team switcher. */
-import { Link } from 'expo-router';
-import { Pressable, StyleSheet, View, type PressableStateCallbackType } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { roleLabels } from '../../contracts/roles';
 import { useCurrentTeam } from '../team/current-team-context';
 import { colors, layout, radii, space } from '../theme';
-import { Badge, Text } from '../ui';
-
-type WebPressState = PressableStateCallbackType & { hovered?: boolean; focused?: boolean };
+import { Badge, LinkPressable, Text, type WebPressState } from '../ui';
 
 /** `compact` (phone top bar) keeps name and role on one line; the side column stacks them with a hint. */
 export function TeamChip({ compact = false }: { compact?: boolean }) {
   const { team, role } = useCurrentTeam();
   const teamName = team?.name ?? 'No team yet';
   return (
-    <Link href="/teams" asChild>
-      <Pressable
-        testID="nav-team-switcher"
-        aria-label={team && role ? `Team ${teamName}, your role ${roleLabels[role]}. Switch team` : 'Choose or create a team'}
-        style={(state: WebPressState) => [
-          compact ? styles.compact : styles.block,
-          (state.hovered || state.pressed) && styles.hovered,
-          state.focused && styles.focused,
-        ]}
-      >
-        <View style={compact ? styles.compactText : styles.blockText}>
-          <Text variant={compact ? 'label' : 'bodyStrong'} numberOfLines={compact ? 1 : 2} testID="current-team-name">
-            {teamName}
-          </Text>
-          {role ? <Badge label={roleLabels[role]} tone="primary" testID="current-team-role" /> : null}
-        </View>
-        {compact ? null : (
-          <Text variant="caption" tone="primary">
-            Switch team
-          </Text>
-        )}
-      </Pressable>
-    </Link>
+    <LinkPressable
+      href="/teams"
+      testID="team-switcher"
+      accessibilityLabel={team && role ? `Team ${teamName}, your role ${roleLabels[role]}. Switch team` : 'Choose or create a team'}
+      style={(state: WebPressState) => [
+        compact ? styles.compact : styles.block,
+        (state.hovered || state.pressed) && styles.hovered,
+        state.focused && styles.focused,
+      ]}
+    >
+      <View style={compact ? styles.compactText : styles.blockText}>
+        <Text variant={compact ? 'label' : 'bodyStrong'} numberOfLines={compact ? 1 : 2} testID="current-team-name">
+          {teamName}
+        </Text>
+        {role ? <Badge label={roleLabels[role]} tone="primary" testID="current-team-role" /> : null}
+      </View>
+      {compact ? null : (
+        <Text variant="caption" tone="primary">
+          Switch team
+        </Text>
+      )}
+    </LinkPressable>
   );
 }
 

@@ -2,15 +2,18 @@
 import { StyleSheet, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
 import { BrandMark } from '../layout/brand-mark';
+import { useBreakpoint } from '../layout/use-breakpoint';
 import { colors, layout, space } from '../theme';
 import { TeamChip } from './team-chip';
 
 /** Sits above the content; the team chip opens the team switcher. */
 export function TopBar() {
   const insets = useSafeAreaInsets();
+  // On phones the team name needs the room more than the word mark does.
+  const markOnly = useBreakpoint() === 'phone';
   return (
     <View role="banner" testID="top-bar" style={[styles.bar, { paddingTop: insets.top }]}>
-      <BrandMark />
+      <BrandMark markOnly={markOnly} />
       <TeamChip compact />
     </View>
   );
@@ -21,7 +24,7 @@ const styles = StyleSheet.create({
     minHeight: layout.topBarHeightPx,
     flexDirection: 'row',
     alignItems: 'center',
-    justifyContent: 'space-between',
+    justifyContent: 'flex-start',
     gap: space.md,
     paddingHorizontal: space.lg,
     backgroundColor: colors.surface,

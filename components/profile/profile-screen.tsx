@@ -38,7 +38,7 @@ export function ProfileScreen() {
       {failure ? <Banner tone="danger" title="Sign-out failed" message={failure} /> : null}
       <Card>
         <Field label="Name" value={me.user.name} testID="profile-name" />
-        <Field label="E-mail" value={me.user.email} testID="profile-email" />
+        <Field label="E-mail" value={me.user.email} testID="profile-email" last />
       </Card>
       <Card>
         <Heading level={2}>Current team</Heading>
@@ -55,16 +55,16 @@ export function ProfileScreen() {
         ) : (
           <Text tone="muted">No team yet.</Text>
         )}
-        <TextLink href="/teams" label={me.teams.length > 1 ? 'Switch team' : 'Teams'} />
+        <TextLink href="/teams" label={me.teams.length > 1 ? 'Switch team' : 'Create another team'} testID="profile-teams" />
       </Card>
       <Button label="Sign out" variant="secondary" busy={busy} onPress={() => void signOut()} testID="sign-out" style={styles.signOut} />
     </Screen>
   );
 }
 
-function Field({ label, value, testID }: { label: string; value: string; testID: string }) {
+function Field({ label, value, testID, last = false }: { label: string; value: string; testID: string; last?: boolean }) {
   return (
-    <View style={styles.field}>
+    <View style={[styles.field, !last && styles.divider]}>
       <Text variant="caption" tone="muted">
         {label}
       </Text>
@@ -74,7 +74,8 @@ function Field({ label, value, testID }: { label: string; value: string; testID:
 }
 
 const styles = StyleSheet.create({
-  field: { gap: space.xxs, paddingBottom: space.sm, borderBottomWidth: layout.borderWidthPx, borderBottomColor: colors.line },
+  field: { gap: space.xxs },
+  divider: { paddingBottom: space.md, borderBottomWidth: layout.borderWidthPx, borderBottomColor: colors.line },
   team: { gap: space.xs },
   teamLine: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
   signOut: { alignSelf: 'flex-start' },

@@ -5,7 +5,7 @@ import { StyleSheet, View } from 'react-native';
 import { createTeamSchema, type CreateTeam, type TeamSummary } from '../../contracts/teams';
 import { ApiError, errorMessage } from '../api/api-error';
 import { useCreateTeam } from '../api/teams.queries';
-import { space } from '../theme';
+import { layout, space } from '../theme';
 import { Banner, Button, TextField } from '../ui';
 
 /** Field problems from the server (422) land on the field; any other refusal shows above the form. */
@@ -53,4 +53,4 @@ export function CreateTeamForm({ onCreated }: { onCreated: (team: TeamSummary) =
   );
 }
 
-const styles = StyleSheet.create({ form: { gap: space.lg }, submit: { alignSelf: 'flex-start' } });
+const styles = StyleSheet.create({ form: { gap: space.lg, maxWidth: layout.maxFormWidthPx }, submit: { alignSelf: 'flex-start' } });

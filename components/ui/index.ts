@@ -9,4 +9,5 @@ export { Loading } from './loading';
 export { Screen } from './screen';
 export { TextField } from './text-field';
 export { TextLink } from './text-link';
+export { LinkPressable, type WebPressState } from './link-pressable';
 export { Heading, Text, type TextTone } from './text';
