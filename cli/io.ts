@@ -1,0 +1,65 @@
+/** Command-line plumbing shared by the terrain commands: file bytes, Node's fast inflate, argument parsing, one-line errors. */
+import { readFile } from 'node:fs/promises';
+import { inflateSync } from 'node:zlib';
+import { parseArgs, type ParseArgsConfig } from 'node:util';
+import { TerrainError } from '../terrain/errors';
+
+/** A bad command line or input: printed as one line on stderr, exit code 2 (usage) or 1 (input). */
+export class CliError extends Error {
+  constructor(message: string, readonly exitCode = 2) {
+    super(message);
+  }
+}
+
+/** node:zlib's inflate for readDem's `inflate` option (about 4x faster than the pure-JS one). */
+export const nodeInflate = (data: Uint8Array): Uint8Array => inflateSync(data);
+
+/** The bytes of a file, or a CliError that names the file and the reason. */
+export async function readFileBytes(path: string | undefined, what = 'DEM'): Promise<Uint8Array> {
+  if (!path) throw new CliError(`Give the ${what} file, e.g. DEM.tif.`);
+  try {
+    const buf = await readFile(path);
+    return new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength);
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : (err as Error).message;
+    throw new CliError(`Cannot read ${what} file "${path}": ${why}.`, 1);
+  }
+}
+
+/** node:util parseArgs with our error wording (strict: unknown options are errors). */
+export function parseCommandArgs<T extends NonNullable<ParseArgsConfig['options']>>(args: string[], options: T) {
+  try {
+    return parseArgs({ args, options, allowPositionals: true, strict: true });
+  } catch (err) {
+    throw new CliError((err as Error).message.split('\n')[0]);
+  }
+}
+
+/** "X,Y" to two finite numbers. */
+export function parsePair(text: string, flag: string): [number, number] {
+  const parts = text.split(',');
+  const nums = parts.map((p) => (p.trim() === '' ? NaN : Number(p)));
+  if (parts.length !== 2 || !nums.every(Number.isFinite)) throw new CliError(`${flag} needs X,Y with two numbers (lon,lat by default), got "${text}".`);
+  return [nums[0], nums[1]];
+}
+
+/** Print one JSON document on stdout. */
+export function printJson(doc: unknown): void {
+  process.stdout.write(`${JSON.stringify(doc, null, 2)}\n`);
+}
+
+/** Report an error as one line on stderr and set the exit code (TerrainError: 1, usage: 2, anything else: 70). */
+export function reportError(err: unknown): void {
+  const oneLine = (s: string) => s.replace(/\s*\n\s*/g, ' ').trim();
+  if (err instanceof TerrainError) {
+    process.stderr.write(`error (${err.code}): ${oneLine(err.message)}\n`);
+    process.exitCode = 1;
+  } else if (err instanceof CliError) {
+    process.stderr.write(`error: ${oneLine(err.message)}\n`);
+    process.exitCode = err.exitCode;
+  } else {
+    process.stderr.write(`internal error: ${oneLine(err instanceof Error ? err.message : String(err))}\n`);
+    process.exitCode = 70;
+  }
+}
