@@ -171,3 +171,19 @@ describe('windowed reads', () => {
     }
   });
 });
+
+describe('the demo grid', () => {
+  it('holds exactly the heights datasets/make-demo-dem.ts generates', async () => {
+    const { DEMO_DEM, demoGrid } = await import('../../datasets/make-demo-dem');
+    const committed = readFileSync(new URL('../../datasets/harrow-fell-dem.tif', import.meta.url));
+    const values = demoGrid();
+    const grid = await readDem(committed, { inflate: (d) => inflateSync(d) });
+    expect(grid.crs.epsg).toBe(32631);
+    expect(grid.transform).toEqual([DEMO_DEM.originE, 2, 0, DEMO_DEM.originN, 0, -2]);
+    for (let i = 0; i < values.length; i++) {
+      if (values[i] === DEMO_DEM.nodata) expect(grid.data[i]).toBeNaN();
+      else expect(grid.data[i]).toBe(values[i]);
+    }
+    expect((await readDemHeader(committed)).verticalDatum).toEqual({ epsg: 5773, name: 'EGM96 height' });
+  });
+});
