@@ -1,0 +1,70 @@
+/** Display units of a project: heights, lengths and speeds in metres or feet; values are stored in SI always. */
+import type { UnitSystem } from '../../contracts/projects';
+
+/** The international foot, exactly 0.3048 m (international yard and pound agreement, 1959). */
+export const metresPerFoot = 0.3048;
+
+/** The unit label for lengths and heights. */
+export function lengthUnit(units: UnitSystem): 'm' | 'ft' {
+  return units === 'imperial' ? 'ft' : 'm';
+}
+
+/** The unit label for speeds and vertical rates. */
+export function speedUnit(units: UnitSystem): 'm/s' | 'ft/s' {
+  return units === 'imperial' ? 'ft/s' : 'm/s';
+}
+
+/** A length in metres as a number in the display unit. */
+export function toDisplayLength(metres: number, units: UnitSystem): number {
+  return units === 'imperial' ? metres / metresPerFoot : metres;
+}
+
+/** A number in the display unit back to metres. */
+export function fromDisplayLength(value: number, units: UnitSystem): number {
+  return units === 'imperial' ? value * metresPerFoot : value;
+}
+
+function fixed(v: number, digits: number): string {
+  if (!Number.isFinite(v)) return '–';
+  return v.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
+}
+
+/** "123 m" or "404 ft"; `digits` decimals (default 0); a dash for a missing value. */
+export function formatLength(metres: number | null | undefined, units: UnitSystem, digits = 0): string {
+  if (metres === null || metres === undefined || !Number.isFinite(metres)) return '–';
+  return `${fixed(toDisplayLength(metres, units), digits)} ${lengthUnit(units)}`;
+}
+
+/** "10.0 m/s" or "32.8 ft/s". */
+export function formatSpeed(mps: number | null | undefined, units: UnitSystem, digits = 1): string {
+  if (mps === null || mps === undefined || !Number.isFinite(mps)) return '–';
+  return `${fixed(toDisplayLength(mps, units), digits)} ${speedUnit(units)}`;
+}
+
+/** A fraction (0.75) as a percentage ("75 %"). */
+export function formatPercent(fraction: number | null | undefined, digits = 0): string {
+  if (fraction === null || fraction === undefined || !Number.isFinite(fraction)) return '–';
+  return `${fixed(fraction * 100, digits)} %`;
+}
+
+/** GSD stays in centimetres in both systems: it is how survey specifications state it. */
+export function formatGsd(cm: number | null | undefined, digits = 2): string {
+  if (cm === null || cm === undefined || !Number.isFinite(cm)) return '–';
+  return `${fixed(cm, digits)} cm`;
+}
+
+/** Plain number with thousands separators. */
+export function formatCount(n: number | null | undefined): string {
+  if (n === null || n === undefined || !Number.isFinite(n)) return '–';
+  return fixed(n, 0);
+}
+
+/** A duration in seconds as "1 h 05 min" or "12 min 30 s". */
+export function formatDuration(seconds: number | null | undefined): string {
+  if (seconds === null || seconds === undefined || !Number.isFinite(seconds) || seconds < 0) return '–';
+  const s = Math.round(seconds);
+  const h = Math.floor(s / 3600);
+  const m = Math.floor((s % 3600) / 60);
+  if (h > 0) return `${h} h ${String(m).padStart(2, '0')} min`;
+  return `${m} min ${String(s % 60).padStart(2, '0')} s`;
+}

@@ -1,0 +1,16 @@
+/** Native builds have no file chooser yet; Loftline ships for the web (see file-picker.web.tsx). */
+import { Button, type ButtonVariant } from '../ui';
+
+export type FilePickerProps = {
+  label: string;
+  accept: string;
+  onPick: (file: File) => void;
+  disabled?: boolean;
+  variant?: ButtonVariant;
+  testID?: string;
+};
+
+/** A disabled button that says why. */
+export function FilePicker({ label, variant = 'secondary', testID }: FilePickerProps) {
+  return <Button label={label} variant={variant} disabled accessibilityLabel={`${label} (only in the web app)`} testID={testID} />;
+}
