@@ -180,10 +180,12 @@ describe('the demo grid', () => {
     const grid = await readDem(committed, { inflate: (d) => inflateSync(d) });
     expect(grid.crs.epsg).toBe(32631);
     expect(grid.transform).toEqual([DEMO_DEM.originE, 2, 0, DEMO_DEM.originN, 0, -2]);
+    let mismatches = 0;
     for (let i = 0; i < values.length; i++) {
-      if (values[i] === DEMO_DEM.nodata) expect(grid.data[i]).toBeNaN();
-      else expect(grid.data[i]).toBe(values[i]);
+      const ok = values[i] === DEMO_DEM.nodata ? Number.isNaN(grid.data[i]) : grid.data[i] === values[i];
+      if (!ok) mismatches++;
     }
+    expect(mismatches).toBe(0);
     expect((await readDemHeader(committed)).verticalDatum).toEqual({ epsg: 5773, name: 'EGM96 height' });
   });
 });
