@@ -1,0 +1,125 @@
+import fs from 'node:fs';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { profileSeries } from '../../components/charts/profile-series';
+import { lineRows, sortLineRows, type LineRow } from '../../components/results/line-rows';
+import { countStatuses, stationStatus, statusLooks, stationStatuses } from '../../components/results/station-status';
+import { readDem } from '../../terrain/dem';
+import { analysePlan, type PlanResult } from '../../terrain/plan';
+
+// A real analysis over the synthetic demo grid (datasets/README.md), so the table is checked against the
+// engine's own plan-wide summary, which it computes by a separate path.
+let result: PlanResult;
+beforeAll(async () => {
+  const grid = await readDem(new Uint8Array(fs.readFileSync('datasets/harrow-fell-dem.tif')));
+  result = analysePlan(grid, {
+    area: { type: 'Polygon', coordinates: [[[4.478, 46.768], [4.486, 46.768], [4.486, 46.774], [4.478, 46.774], [4.478, 46.768]]] },
+    camera: { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 },
+    targetGsdCm: 3,
+    takeoff: { lon: 4.477, lat: 46.767 },
+    headingDeg: 90,
+    mode: 'steps',
+  });
+});
+
+describe('stationStatus', () => {
+  it('calls a station without flags "meets" and takes the worst status among several flags', () => {
+    expect(stationStatus({ flags: [] })).toBe('meets');
+    const f = (code: string) => ({ code, reason: '' }) as never;
+    expect(stationStatus({ flags: [f('forward-overlap-low')] })).toBe('overlap');
+    expect(stationStatus({ flags: [f('forward-overlap-low'), f('gsd-coarse')] })).toBe('gsd');
+    expect(stationStatus({ flags: [f('gsd-fine'), f('below-clearance')] })).toBe('height');
+    expect(stationStatus({ flags: [f('side-overlap-low'), f('ground-unknown')] })).toBe('unknown');
+    expect(stationStatus({ flags: [f('a-code-added-later')] })).toBe('unknown');
+  });
+
+  it('gives every status its own marker shape and its own colour, so none is told apart by colour alone', () => {
+    const shapes = new Set(stationStatuses.map((s) => statusLooks[s].shape));
+    const colours = new Set(stationStatuses.map((s) => statusLooks[s].color));
+    expect(shapes.size).toBe(stationStatuses.length);
+    expect(colours.size).toBe(stationStatuses.length);
+  });
+
+  it('counts every station of the analysis exactly once', () => {
+    const all = result.lines.flatMap((l) => l.stations);
+    const counts = countStatuses(all);
+    expect(Object.values(counts).reduce((a, b) => a + b, 0)).toBe(result.summary.photoCount);
+    expect(all.length - counts.meets).toBe(result.summary.flaggedStationCount);
+  });
+});
+
+describe('lineRows', () => {
+  it('adds up to the engine summary: photos, smallest and largest GSD, least overlaps and least height above ground', () => {
+    const rows = lineRows(result.lines);
+    expect(rows).toHaveLength(result.summary.lineCount);
+    expect(rows.reduce((s, r) => s + r.photos, 0)).toBe(result.summary.photoCount);
+    const min = (k: keyof LineRow) => Math.min(...rows.map((r) => r[k] as number).filter((v) => v !== null));
+    expect(min('gsdMinCm')).toBe(result.summary.gsdCm.min);
+    expect(Math.max(...rows.map((r) => r.gsdMaxCm ?? -Infinity))).toBe(result.summary.gsdCm.max);
+    expect(min('forwardOverlapMin')).toBe(result.summary.forwardOverlapMin);
+    expect(min('sideOverlapMin')).toBe(result.summary.sideOverlapMin);
+    expect(min('aglMinM')).toBe(result.summary.aglMinM);
+  });
+
+  it('puts each line median between its minimum and maximum and numbers lines from 1 in flying order', () => {
+    for (const [i, r] of lineRows(result.lines).entries()) {
+      expect(r.number).toBe(i + 1);
+      if (r.gsdMedianCm !== null) {
+        expect(r.gsdMedianCm).toBeGreaterThanOrEqual(r.gsdMinCm!);
+        expect(r.gsdMedianCm).toBeLessThanOrEqual(r.gsdMaxCm!);
+      }
+    }
+  });
+});
+
+describe('sortLineRows', () => {
+  const row = (number: number, lengthM: number, gsdMinCm: number | null): LineRow => ({
+    index: number - 1, number, lengthM, photos: 1, gsdMinCm, gsdMedianCm: null, gsdMaxCm: null, forwardOverlapMin: null,
+    sideOverlapMin: null, aglMinM: null, legs: 1, flagged: 0, warnings: number === 2 ? ['x', 'y'] : [],
+  });
+  const rows = [row(1, 300, 2.9), row(2, 100, null), row(3, 200, 2.8), row(4, 200, 3.1)];
+
+  it('sorts both ways, breaking ties by flying order', () => {
+    expect(sortLineRows(rows, 'lengthM', 'asc').map((r) => r.number)).toEqual([2, 3, 4, 1]);
+    expect(sortLineRows(rows, 'lengthM', 'desc').map((r) => r.number)).toEqual([1, 3, 4, 2]);
+    expect(sortLineRows(rows, 'warningCount', 'desc')[0].number).toBe(2);
+  });
+
+  it('keeps rows without a value last in either direction and does not mutate its input', () => {
+    const copy = structuredClone(rows);
+    expect(sortLineRows(rows, 'gsdMinCm', 'asc').map((r) => r.number)).toEqual([3, 1, 4, 2]);
+    expect(sortLineRows(rows, 'gsdMinCm', 'desc').map((r) => r.number)).toEqual([4, 1, 3, 2]);
+    expect(rows).toEqual(copy);
+  });
+});
+
+describe('profileSeries', () => {
+  it('puts the clearance floor exactly the clearance above the ground and the altitude at every leg end', () => {
+    const line = result.lines[0];
+    const p = profileSeries(line, 30, 'metric');
+    const grounds = p.rows.filter((r) => r.ground !== null);
+    expect(grounds).toHaveLength(line.stations.filter((s) => s.groundM !== null).length);
+    for (const r of grounds) expect(r.clearance! - r.ground!).toBeCloseTo(30, 9);
+    expect(p.rows.filter((r) => r.altitude !== null)).toHaveLength(line.legs.length * 2);
+    expect(p.legs.map((l) => l.number)).toEqual(line.legs.map((_, i) => i + 1));
+    for (let i = 1; i < p.rows.length; i++) expect(p.rows[i].distance).toBeGreaterThanOrEqual(p.rows[i - 1].distance);
+  });
+
+  it('converts distances and heights to feet for imperial projects and leaves GSD in centimetres', () => {
+    const line = result.lines[0];
+    const m = profileSeries(line, 30, 'metric');
+    const ft = profileSeries(line, 30, 'imperial');
+    expect(ft.distanceDomain[1]).toBeCloseTo(m.distanceDomain[1] / 0.3048, 6);
+    expect(ft.heightDomain[1]).toBeCloseTo(m.heightDomain[1] / 0.3048, 6);
+    expect(ft.gsdDomain).toEqual(m.gsdDomain);
+  });
+
+  it('keeps every plotted value inside the axis domains', () => {
+    for (const line of result.lines) {
+      const p = profileSeries(line, 30, 'metric');
+      for (const r of p.rows) {
+        for (const v of [r.ground, r.altitude, r.clearance]) if (v !== null) expect(v).toBeGreaterThanOrEqual(p.heightDomain[0]), expect(v).toBeLessThanOrEqual(p.heightDomain[1]);
+        if (r.gsd !== null) expect(r.gsd).toBeGreaterThanOrEqual(p.gsdDomain[0]), expect(r.gsd).toBeLessThanOrEqual(p.gsdDomain[1]);
+      }
+    }
+  });
+});
