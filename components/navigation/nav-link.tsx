@@ -1,6 +1,7 @@
 /** One navigation item as a link, drawn for the side column or the bottom tab bar. */
 import { StyleSheet, View } from 'react-native';
 import { colors, layout, radii, space } from '../theme';
+import { showFocusRing } from '../ui/focus-modality';
 import { LinkPressable, Text, type WebPressState } from '../ui';
 import { ariaCurrentPage } from '../ui/web-a11y';
 import type { NavItem } from './nav-items';
@@ -19,7 +20,7 @@ export function NavLink({ item, active, placement }: NavLinkProps) {
       style={(state: WebPressState) => [
         side ? styles.side : styles.tab,
         active ? (side ? styles.sideActive : styles.tabActive) : state.hovered || state.pressed ? styles.hovered : null,
-        state.focused && styles.focused,
+        showFocusRing(state.focused) && styles.focused,
       ]}
     >
       <View aria-hidden style={[side ? styles.sideMarker : styles.tabMarker, active && styles.markerActive]} />

@@ -3,6 +3,7 @@ import { StyleSheet, View } from 'react-native';
 import { roleLabels } from '../../contracts/roles';
 import { useCurrentTeam } from '../team/current-team-context';
 import { colors, layout, radii, space } from '../theme';
+import { showFocusRing } from '../ui/focus-modality';
 import { Badge, LinkPressable, Text, type WebPressState } from '../ui';
 
 /** `compact` (phone top bar) keeps name and role on one line; the side column stacks them with a hint. */
@@ -17,7 +18,7 @@ export function TeamChip({ compact = false }: { compact?: boolean }) {
       style={(state: WebPressState) => [
         compact ? styles.compact : styles.block,
         (state.hovered || state.pressed) && styles.hovered,
-        state.focused && styles.focused,
+        showFocusRing(state.focused) && styles.focused,
       ]}
     >
       <View style={compact ? styles.compactText : styles.blockText}>

@@ -1,6 +1,7 @@
 /** Button atom: primary, secondary, danger and quiet variants, with a busy state and a visible focus ring. */
 import { ActivityIndicator, Pressable, StyleSheet, View, type PressableStateCallbackType, type StyleProp, type ViewStyle } from 'react-native';
 import { colors, layout, radii, space } from '../theme';
+import { showFocusRing } from './focus-modality';
 import { Text, type TextTone } from './text';
 
 export type ButtonVariant = 'primary' | 'secondary' | 'danger' | 'quiet';
@@ -46,7 +47,7 @@ export function Button({ label, onPress, variant = 'primary', disabled, busy, ac
         size === 'compact' && styles.compact,
         { backgroundColor: state.pressed || state.hovered ? look.pressed : look.rest, borderColor: look.border },
         inactive && styles.inactive,
-        state.focused && styles.focused,
+        showFocusRing(state.focused) && styles.focused,
         style,
       ]}
     >

@@ -1,6 +1,7 @@
 /** Choice-group atom: a row of mutually exclusive options (a radio group drawn as segments). */
 import { Pressable, StyleSheet, View, type PressableStateCallbackType } from 'react-native';
 import { colors, layout, opacity, radii, space } from '../theme';
+import { showFocusRing } from './focus-modality';
 import { Text } from './text';
 
 export type Choice<T extends string> = { value: T; label: string };
@@ -39,7 +40,7 @@ export function ChoiceGroup<T extends string>({ label, choices, value, onChange,
               styles.segment,
               selected ? styles.selected : state.hovered || state.pressed ? styles.hovered : null,
               disabled && styles.disabled,
-              state.focused && styles.focused,
+              showFocusRing(state.focused) && styles.focused,
             ]}
           >
             <Text variant="label" tone={selected ? 'inverse' : 'default'}>
