@@ -2,8 +2,15 @@
 import type { Router } from 'express';
 import type { Guards } from './http/guard';
 import type { Services } from './services';
+import { registerOutboxRoutes } from './mail/outbox.routes';
+import { registerReportRoutes } from './reports/reports.routes';
+import { registerReviewRoutes } from './reviews/reviews.routes';
 
 export type RouteGroup = (api: Router, ctx: { guards: Guards; services: Services }) => void;
 
 /** Route groups of the domains (projects, sites, plans, reviews…), in mount order. */
-export const routeGroups: RouteGroup[] = [];
+export const routeGroups: RouteGroup[] = [
+  registerReviewRoutes,
+  registerReportRoutes,
+  registerOutboxRoutes,
+];

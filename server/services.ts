@@ -5,6 +5,7 @@
 import type { Db } from '../db/client';
 import type { Auth } from './auth/auth';
 import type { Config } from './config';
+import { mailFactory } from './mail/mail.service';
 
 export interface Services {
   db: Db;
@@ -18,4 +19,4 @@ export interface Services {
 export type ServiceFactory = (services: Services) => Promise<(() => Promise<void>) | void>;
 
 /** Service factories in start-up order (storage before jobs, jobs before mail). */
-export const serviceFactories: ServiceFactory[] = [];
+export const serviceFactories: ServiceFactory[] = [mailFactory];

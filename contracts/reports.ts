@@ -1,0 +1,104 @@
+/** The compliance report of one plan version: the client's spec, the results per line and overall, the DEM, sign-off. */
+import { z } from 'zod';
+import { reviewStateSchema } from './reviews';
+
+const num = z.number();
+const nullableNum = z.number().nullable();
+
+/** Figures over a set of stations (one line, or all). Overlaps are fractions (0.75); null where no station had a value. */
+export const stationStatsSchema = z.object({
+  stationCount: z.number().int(),
+  /** Stations with a known ground height (the rest fell on nodata or outside the grid). */
+  knownCount: z.number().int(),
+  /** Share 0..1 of all stations whose GSD lies in the target band; unknown stations count as not meeting it. */
+  shareMeetingGsd: nullableNum,
+  gsdCm: z.object({ min: nullableNum, p5: nullableNum, median: nullableNum, max: nullableNum }),
+  forwardOverlapMin: nullableNum,
+  sideOverlapMin: nullableNum,
+  aglMinM: nullableNum,
+  aglMaxM: nullableNum,
+});
+export type StationStats = z.infer<typeof stationStatsSchema>;
+
+/** One requirement of the spec against what the plan achieves. */
+export const specCheckSchema = z.object({
+  key: z.enum(['gsd-band', 'forward-overlap', 'side-overlap', 'clearance', 'height-limit']),
+  label: z.string(),
+  required: z.string(),
+  achieved: z.string(),
+  pass: z.boolean(),
+});
+export type SpecCheck = z.infer<typeof specCheckSchema>;
+
+export const reportLineSchema = stationStatsSchema.extend({
+  /** Position in the flying order, 1 first (as printed). */
+  number: z.number().int(),
+  lengthM: num,
+  headingDeg: nullableNum,
+  legCount: z.number().int(),
+  warnings: z.array(z.string()),
+  /** GSD along the line for the chart: distance from the line start and GSD (null where unknown). */
+  gsdSeries: z.array(z.object({ distanceM: num, gsdCm: nullableNum })),
+});
+export type ReportLine = z.infer<typeof reportLineSchema>;
+
+export const complianceReportSchema = z.object({
+  version: z.object({
+    id: z.string(),
+    planId: z.string(),
+    number: z.number().int(),
+    reviewState: reviewStateSchema,
+    analysedAt: z.string().nullable(),
+    createdBy: z.string().nullable(),
+  }),
+  project: z.object({ name: z.string(), client: z.string() }),
+  plan: z.object({ name: z.string() }),
+  /** The client's spec as the plan states it. */
+  spec: z.object({
+    targetGsdCm: num,
+    /** Fraction either side of the target (0.1 = ±10 %). */
+    gsdTolerance: num,
+    gsdBandCm: z.tuple([num, num]),
+    forwardOverlap: num,
+    sideOverlap: num,
+    clearanceM: num,
+    obstacleAllowanceM: num,
+    maxAglM: num,
+    altitudeMode: z.string(),
+  }),
+  overall: stationStatsSchema.extend({ lineCount: z.number().int(), photoCount: z.number().int(), flightTimeS: nullableNum }),
+  checks: z.array(specCheckSchema),
+  lines: z.array(reportLineSchema),
+  dem: z.object({
+    siteName: z.string(),
+    fileName: z.string(),
+    crs: z.object({ name: z.string(), epsg: z.number().int().nullable() }),
+    resolution: z.tuple([num, num]),
+    resolutionUnit: z.string(),
+    verticalDatum: z.string(),
+    surfaceKind: z.enum(['bare-earth', 'surface']),
+    elevationRangeM: z.tuple([nullableNum, nullableNum]),
+  }),
+  /** Accuracy figures derived from GSD: advisory only, never a guarantee. */
+  accuracy: z.object({
+    label: z.literal('ADVISORY'),
+    basisGsdCm: nullableNum,
+    horizontalCm: z.tuple([num, num]).nullable(),
+    verticalCm: z.tuple([num, num]).nullable(),
+    ruleOfThumb: z.string(),
+    source: z.literal('common practice'),
+    deferral: z.string(),
+  }),
+  assumptions: z.array(z.string()),
+  cautions: z.array(z.string()),
+  signOff: z.object({
+    state: reviewStateSchema,
+    signedOffBy: z.string().nullable(),
+    signedOffAt: z.string().nullable(),
+    statement: z.string(),
+  }),
+  /** How the 5th percentile and median are computed. */
+  percentileMethod: z.string(),
+  generatedAt: z.string(),
+});
+export type ComplianceReport = z.infer<typeof complianceReportSchema>;

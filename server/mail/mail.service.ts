@@ -1,0 +1,25 @@
+/** The mail service factory for the boot sequence, and the typed way routes reach it. */
+import type { ServiceFactory, Services } from '../services';
+import { createMailer, type Mailer } from './mailer';
+
+/** Boot hook: starts the mailer (and, with no SMTP_HOST, the fake SMTP server) as `services.mail`. */
+export const mailFactory: ServiceFactory = async (services) => {
+  const mailer = await createMailer({ db: services.db, config: services.config });
+  services.mail = mailer;
+  return () => mailer.close();
+};
+
+/** A mailer that sends nothing, for servers booted without the mail factory. */
+const noMail: Mailer = {
+  mode: 'off',
+  from: '',
+  fake: null,
+  enqueue: () => undefined,
+  idle: async () => undefined,
+  close: async () => undefined,
+};
+
+/** The process's mailer, or one that sends nothing when the factory did not run (pure auth/team test servers). */
+export function mailerOf(services: Services): Mailer {
+  return (services.mail as Mailer | undefined) ?? noMail;
+}

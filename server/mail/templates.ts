@@ -1,0 +1,81 @@
+/** The texts of Loftline's e-mails: pure functions from the facts to subject and plain-text body. */
+import { roleLabels, roleSummaries, type Role } from '../../contracts/roles';
+import type { OutgoingMail } from './mailer';
+
+/** Links into the web app that e-mails carry. */
+export const links = {
+  invitation: (publicUrl: string, token: string) => `${publicUrl}/invite/${encodeURIComponent(token)}`,
+  version: (publicUrl: string, planId: string, versionId: string) => `${publicUrl}/plans/${planId}/versions/${versionId}`,
+  flights: (publicUrl: string) => `${publicUrl}/flights`,
+};
+
+/** What every review mail names: which version of which plan. */
+export interface VersionFacts {
+  teamName: string;
+  projectName: string;
+  planName: string;
+  versionNumber: number;
+  link: string;
+}
+
+const signature = '\n\n-- \nSent by Loftline for your team. You get this because of your role in the team.';
+
+function versionLine(v: VersionFacts): string {
+  return `${v.planName}, version ${v.versionNumber} (project ${v.projectName}, team ${v.teamName})`;
+}
+
+/** Invitation to join a team with a role. */
+export function invitationMail(f: { to: string; teamName: string; inviterName: string; role: Role; link: string; expiresAt: Date }): OutgoingMail {
+  return {
+    to: [f.to],
+    subject: `${f.inviterName} invites you to ${f.teamName} on Loftline`,
+    text:
+      `${f.inviterName} invites you to join the team ${f.teamName} on Loftline as ${roleLabels[f.role]}.\n` +
+      `${roleLabels[f.role]}: ${roleSummaries[f.role]}\n\n` +
+      `Open this link to sign in (or create an account with this address, ${f.to}) and join:\n${f.link}\n\n` +
+      `The invitation works once, only for ${f.to}, and expires on ${f.expiresAt.toUTCString()}.` +
+      signature,
+  };
+}
+
+/** To the team's surveyors: a planner sent a version for review. */
+export function reviewRequestedMail(f: VersionFacts & { to: string[]; submitterName: string; comment?: string | null }): OutgoingMail {
+  return {
+    to: f.to,
+    subject: `Review requested: ${f.planName} v${f.versionNumber}`,
+    text:
+      `${f.submitterName} sent ${versionLine(f)} for review.\n` +
+      (f.comment ? `\nTheir note:\n${f.comment}\n` : '') +
+      `\nCheck the compliance report and sign the version off or return it with comments:\n${f.link}` +
+      signature,
+  };
+}
+
+/** To the planner who made the version: signed off, with the compliance report attached. */
+export function signedOffMail(
+  f: VersionFacts & { to: string; signerName: string; signedOffAt: Date; comment?: string | null; pdf: Buffer; pdfName: string },
+): OutgoingMail {
+  return {
+    to: [f.to],
+    subject: `Signed off: ${f.planName} v${f.versionNumber}`,
+    text:
+      `${f.signerName} signed off ${versionLine(f)} on ${f.signedOffAt.toUTCString()}.\n` +
+      (f.comment ? `\nTheir note:\n${f.comment}\n` : '') +
+      `\nThe compliance report is attached (${f.pdfName}). The version is now locked and visible to the team's pilots; ` +
+      `a change to the plan makes a new version that needs its own review.\n${f.link}` +
+      signature,
+    attachments: [{ filename: f.pdfName, content: f.pdf, contentType: 'application/pdf' }],
+  };
+}
+
+/** To the planner who made the version: returned, with the surveyor's comment. */
+export function returnedMail(f: VersionFacts & { to: string; reviewerName: string; comment: string }): OutgoingMail {
+  return {
+    to: [f.to],
+    subject: `Returned with comments: ${f.planName} v${f.versionNumber}`,
+    text:
+      `${f.reviewerName} returned ${versionLine(f)} with these comments:\n\n${f.comment}\n\n` +
+      `Change the plan and run it again, or send this version back for review once the comments are answered:\n${f.link}` +
+      signature,
+  };
+}

@@ -1,0 +1,17 @@
+/** Number formats shared by the PDF report and its tests, so printed figures can be matched to the API's. */
+
+/** A fixed-decimals figure with its unit, or an en dash when unknown. */
+function fixed(v: number | null | undefined, digits: number, unit: string): string {
+  return v === null || v === undefined || !Number.isFinite(v) ? '–' : `${v.toFixed(digits)}${unit}`;
+}
+
+export const fmt = {
+  gsdCm: (v: number | null | undefined) => fixed(v, 2, ' cm'),
+  metres: (v: number | null | undefined) => fixed(v, 1, ' m'),
+  /** A fraction 0..1 as a percentage with one decimal. */
+  percent: (v: number | null | undefined) => fixed(v === null || v === undefined ? v : v * 100, 1, ' %'),
+  degrees: (v: number | null | undefined) => fixed(v, 0, '°'),
+  minutes: (seconds: number | null | undefined) => fixed(seconds === null || seconds === undefined ? seconds : seconds / 60, 1, ' min'),
+  /** UTC date and time to the minute, e.g. 2026-12-01 22:58 UTC. */
+  utc: (iso: string | null | undefined) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : '–'),
+};

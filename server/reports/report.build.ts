@@ -1,0 +1,188 @@
+/** Build the compliance report of one analysed version from its mission, its stored result and its site. */
+import geodesic from 'geographiclib-geodesic';
+import type { ComplianceReport, SpecCheck, StationStats } from '../../contracts/reports';
+import { reviewStateSchema } from '../../contracts/reviews';
+import { unitOfProj4 } from '../../terrain/crs';
+import type { GridMetadata } from '../../terrain/metadata';
+import type { Mission } from '../../terrain/mission';
+import type { VersionRecord } from '../reviews/versions.repository';
+import { flightCautions } from './cautions';
+import { fmt } from './format';
+import { noteText, readMission, readResult, type LineView, type StationView } from './result-view';
+import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
+
+const { Geodesic } = geodesic as unknown as typeof import('geographiclib-geodesic');
+
+/** The GSD band of the spec: target ± tolerance (a fraction of the target). */
+export function gsdBandCm(m: Pick<Mission, 'targetGsdCm' | 'gsdTolerance'>): [number, number] {
+  return [m.targetGsdCm * (1 - m.gsdTolerance), m.targetGsdCm * (1 + m.gsdTolerance)];
+}
+
+/** Figures over a set of stations against the GSD band. */
+export function stationStats(stations: StationView[], band: [number, number]): StationStats {
+  const gsd = stations.map((s) => s.gsdCm);
+  return {
+    stationCount: stations.length,
+    knownCount: stations.filter((s) => s.groundM !== null && s.gsdCm !== null).length,
+    shareMeetingGsd: shareWithin(gsd, band[0], band[1]),
+    gsdCm: distribution(gsd),
+    forwardOverlapMin: minKnown(stations.map((s) => s.forwardOverlap)),
+    sideOverlapMin: minKnown(stations.map((s) => s.sideOverlap)),
+    aglMinM: minKnown(stations.map((s) => s.aglM)),
+    aglMaxM: maxKnown(stations.map((s) => s.aglM)),
+  };
+}
+
+/** Geodesic azimuth (WGS 84, GeographicLib) from the first to the last station, degrees in [0, 360). */
+export function lineHeadingDeg(line: LineView): number | null {
+  if (line.headingDeg !== undefined) return line.headingDeg;
+  const a = line.legs[0]?.start ?? line.stations[0];
+  const b = line.legs[line.legs.length - 1]?.end ?? line.stations[line.stations.length - 1];
+  if (!a || !b || (a.lon === b.lon && a.lat === b.lat)) return null;
+  const azi = Geodesic.WGS84.Inverse(a.lat, a.lon, b.lat, b.lon).azi1 ?? 0;
+  return (azi + 360) % 360;
+}
+
+/** Length of a line: as the engine gives it, else the span of its legs or stations. */
+export function lineLengthM(line: LineView): number {
+  if (line.lengthM !== undefined) return line.lengthM;
+  const ends = [...line.legs.map((l) => l.end.distanceM), ...line.stations.map((s) => s.distanceM)];
+  const starts = [...line.legs.map((l) => l.start.distanceM), ...line.stations.map((s) => s.distanceM)];
+  return ends.length ? Math.max(...ends) - Math.min(...starts) : 0;
+}
+
+function specChecks(m: Mission, o: StationStats, lineCount: number, band: [number, number]): SpecCheck[] {
+  const eps = 1e-9;
+  return [
+    {
+      key: 'gsd-band',
+      label: 'GSD within the target band',
+      required: `${fmt.gsdCm(band[0])} to ${fmt.gsdCm(band[1])} at every station`,
+      achieved: `${fmt.percent(o.shareMeetingGsd)} of stations; GSD ${fmt.gsdCm(o.gsdCm.min)} to ${fmt.gsdCm(o.gsdCm.max)}`,
+      pass: o.shareMeetingGsd === 1,
+    },
+    {
+      key: 'forward-overlap',
+      label: 'Forward overlap',
+      required: `at least ${fmt.percent(m.forwardOverlap)}`,
+      achieved: `minimum ${fmt.percent(o.forwardOverlapMin)}`,
+      pass: o.forwardOverlapMin !== null && o.forwardOverlapMin >= m.forwardOverlap - eps,
+    },
+    {
+      key: 'side-overlap',
+      label: 'Side overlap',
+      required: `at least ${fmt.percent(m.sideOverlap)}`,
+      achieved: o.sideOverlapMin === null && lineCount <= 1 ? 'one line only: no side overlap' : `minimum ${fmt.percent(o.sideOverlapMin)}`,
+      pass: o.sideOverlapMin === null ? lineCount <= 1 : o.sideOverlapMin >= m.sideOverlap - eps,
+    },
+    {
+      key: 'clearance',
+      label: 'Clearance above ground',
+      required: `at least ${fmt.metres(m.clearanceM + m.obstacleAllowanceM)} (clearance ${fmt.metres(m.clearanceM)} + obstacle allowance ${fmt.metres(m.obstacleAllowanceM)})`,
+      achieved: `minimum ${fmt.metres(o.aglMinM)}`,
+      pass: o.aglMinM !== null && o.aglMinM >= m.clearanceM + m.obstacleAllowanceM - eps,
+    },
+    {
+      key: 'height-limit',
+      label: 'Height limit above ground',
+      required: `at most ${fmt.metres(m.maxAglM)}`,
+      achieved: `maximum ${fmt.metres(o.aglMaxM)}`,
+      pass: o.aglMaxM !== null && o.aglMaxM <= m.maxAglM + eps,
+    },
+  ];
+}
+
+/** The whole report; `now` is injected so the document can be reproduced. */
+export function buildReport(v: VersionRecord, now: Date = new Date()): ComplianceReport {
+  const mission = readMission(v.input);
+  const view = readResult(v.result);
+  const meta = v.siteMetadata as GridMetadata;
+  const band = gsdBandCm(mission);
+  const all = view.lines.flatMap((l) => l.stations);
+  const overall = stationStats(all, band);
+  const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
+  const basis = overall.gsdCm.median;
+  const state = reviewStateSchema.parse(v.reviewState);
+  const signedAt = v.signedOffAt ? v.signedOffAt.toISOString() : null;
+
+  return {
+    version: {
+      id: v.id,
+      planId: v.planId,
+      number: v.number,
+      reviewState: state,
+      analysedAt: v.analysedAt ? v.analysedAt.toISOString() : null,
+      createdBy: v.createdByName ?? null,
+    },
+    project: { name: v.projectName, client: v.projectClient },
+    plan: { name: v.planName },
+    spec: {
+      targetGsdCm: mission.targetGsdCm,
+      gsdTolerance: mission.gsdTolerance,
+      gsdBandCm: band,
+      forwardOverlap: mission.forwardOverlap,
+      sideOverlap: mission.sideOverlap,
+      clearanceM: mission.clearanceM,
+      obstacleAllowanceM: mission.obstacleAllowanceM,
+      maxAglM: mission.maxAglM,
+      altitudeMode: mission.mode,
+    },
+    overall: {
+      ...overall,
+      lineCount: view.lines.length,
+      photoCount: view.summary.photoCount ?? all.length,
+      flightTimeS: view.summary.flightTimeS ?? null,
+    },
+    checks: specChecks(mission, overall, view.lines.length, band),
+    lines: view.lines.map((line, i) => ({
+      number: i + 1,
+      ...stationStats(line.stations, band),
+      lengthM: lineLengthM(line),
+      headingDeg: lineHeadingDeg(line),
+      legCount: line.legs.length,
+      warnings: [...(line.warnings ?? []).map(noteText), ...(line.unmet ?? []).map((u) => u.message)],
+      gsdSeries: line.stations.map((s) => ({ distanceM: s.distanceM, gsdCm: s.gsdCm })),
+    })),
+    dem: {
+      siteName: v.siteName,
+      fileName: v.siteFileName,
+      crs: { name: meta.crs.name, epsg: meta.crs.epsg },
+      resolution: meta.resolution,
+      resolutionUnit: unitOfProj4(meta.crs.proj4),
+      verticalDatum: v.siteVerticalDatum,
+      surfaceKind,
+      elevationRangeM: [meta.elevation.min, meta.elevation.max],
+    },
+    accuracy: {
+      label: 'ADVISORY',
+      basisGsdCm: basis,
+      horizontalCm: basis === null ? null : [basis, 2 * basis],
+      verticalCm: basis === null ? null : [1.5 * basis, 3 * basis],
+      ruleOfThumb:
+        'With good ground control, horizontal accuracy is often quoted at about 1 to 2 times the GSD and vertical accuracy at about 1.5 to 3 times the GSD (common practice; no single source). Figures are from the median GSD.',
+      source: 'common practice',
+      deferral:
+        'These are not a guarantee. Accuracy is proven only with independent check points measured on site, assessed by licensed survey practice under the standards that apply to the job.',
+    },
+    assumptions: [
+      'GSD, footprint and overlaps are computed station by station from the ground under each photo in the elevation grid, not from flat-ground formulas.',
+      `A station meets the GSD target when its GSD lies within ${fmt.gsdCm(band[0])} to ${fmt.gsdCm(band[1])} (target ${fmt.gsdCm(mission.targetGsdCm)} ± ${fmt.percent(mission.gsdTolerance)}); stations over unknown ground count as not meeting it.`,
+      `Percentiles: ${percentileMethod}.`,
+      `Heights above the datum refer to the grid's vertical datum (${v.siteVerticalDatum}); altitudes for the pilot are above the takeoff point.`,
+      'The camera points straight down (no tilt, roll or wind crab) and the aircraft holds the planned track and speed.',
+      ...view.warnings.map(noteText),
+    ],
+    cautions: flightCautions({ surfaceKind, verticalDatum: v.siteVerticalDatum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
+    signOff: {
+      state,
+      signedOffBy: state === 'signed_off' ? (v.signedOffByName ?? '(former member)') : null,
+      signedOffAt: state === 'signed_off' ? signedAt : null,
+      statement:
+        state === 'signed_off'
+          ? `Signed off by ${v.signedOffByName ?? '(former member)'} on ${fmt.utc(signedAt)}. Version ${v.number} is locked.`
+          : `Not signed off (state: ${state.replace('_', ' ')}). This report is for review only.`,
+    },
+    percentileMethod,
+    generatedAt: now.toISOString(),
+  };
+}

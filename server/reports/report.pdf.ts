@@ -1,0 +1,180 @@
+/** The compliance report as a PDF (pdfkit, Inter fonts shipped in node_modules): the same figures as the JSON report. */
+import { createRequire } from 'node:module';
+import PDFDocument from 'pdfkit';
+import type { ComplianceReport } from '../../contracts/reports';
+import { drawGsdChart } from './report.chart';
+import { fmt } from './format';
+
+const require = createRequire(import.meta.url);
+/** Font files from the @expo-google-fonts/inter package (SIL Open Font License), embedded as subsets. */
+const fonts = {
+  Inter: require.resolve('@expo-google-fonts/inter/400Regular/Inter_400Regular.ttf'),
+  'Inter-Bold': require.resolve('@expo-google-fonts/inter/700Bold/Inter_700Bold.ttf'),
+};
+
+type Doc = InstanceType<typeof PDFDocument>;
+const page = { margin: 48, width: 595.28 - 96 }; // A4 in points, minus the margins
+const grey = '#5b6168';
+
+/** File name of a version's report, e.g. "north-ridge-v3-compliance.pdf". */
+export function reportFileName(r: Pick<ComplianceReport, 'plan' | 'version'>): string {
+  const slug = r.plan.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'plan';
+  return `${slug}-v${r.version.number}-compliance.pdf`;
+}
+
+function heading(doc: Doc, text: string): void {
+  if (doc.y > 740) doc.addPage();
+  doc.moveDown(0.8).font('Inter-Bold').fontSize(12).fillColor('black').text(text, page.margin, doc.y);
+  doc.moveDown(0.3).font('Inter').fontSize(9);
+}
+
+/** A table of rows; the first row is the header (bold). Widths are fractions of the text width. */
+function table(doc: Doc, rows: string[][], widths: number[]): void {
+  const total = widths.reduce((a, b) => a + b, 0);
+  const cols = widths.map((w) => (w / total) * page.width);
+  for (let r = 0; r < rows.length; r++) {
+    doc.font(r === 0 ? 'Inter-Bold' : 'Inter').fontSize(8.5);
+    const h = Math.max(...rows[r].map((cell, c) => doc.heightOfString(cell, { width: cols[c] - 6 }))) + 4;
+    if (doc.y + h > 790) doc.addPage();
+    const y = doc.y;
+    let x = page.margin;
+    rows[r].forEach((cell, c) => {
+      doc.fillColor(r === 0 ? 'black' : '#1b1e21').text(cell, x, y + 2, { width: cols[c] - 6 });
+      x += cols[c];
+    });
+    doc.y = y + h;
+    doc.moveTo(page.margin, doc.y).lineTo(page.margin + page.width, doc.y).lineWidth(0.3).strokeColor('#c9ced3').stroke();
+  }
+  doc.x = page.margin;
+}
+
+function paragraphs(doc: Doc, items: string[], bullet = '•'): void {
+  doc.font('Inter').fontSize(9).fillColor('#1b1e21');
+  for (const t of items) doc.text(`${bullet} ${t}`, page.margin, doc.y, { width: page.width }).moveDown(0.2);
+}
+
+/** Render the report to PDF bytes. */
+export async function renderReportPdf(r: ComplianceReport): Promise<Buffer> {
+  const doc = new PDFDocument({
+    size: 'A4',
+    margin: page.margin,
+    bufferPages: true,
+    info: {
+      Title: `Compliance report: ${r.plan.name} v${r.version.number}`,
+      Author: 'Loftline',
+      Subject: `${r.project.name} (${r.project.client})`,
+      CreationDate: new Date(r.generatedAt),
+    },
+  });
+  for (const [name, file] of Object.entries(fonts)) doc.registerFont(name, file);
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+
+  doc.font('Inter-Bold').fontSize(18).text('Compliance report');
+  doc.font('Inter').fontSize(10).fillColor(grey);
+  doc.text(`${r.project.name} · client ${r.project.client || '–'} · plan ${r.plan.name} · version ${r.version.number}`);
+  doc.text(`Analysed ${fmt.utc(r.version.analysedAt)} · report made ${fmt.utc(r.generatedAt)}`);
+
+  heading(doc, 'Sign-off');
+  doc.font('Inter-Bold').fontSize(10).fillColor(r.signOff.state === 'signed_off' ? '#1f5130' : '#8a4b00').text(r.signOff.statement);
+  doc.font('Inter').fontSize(9).fillColor('#1b1e21');
+  doc.text(`Signed off by: ${r.signOff.signedOffBy ?? '–'}    Date: ${fmt.utc(r.signOff.signedOffAt)}    Version: ${r.version.number}`);
+
+  heading(doc, 'The client’s spec against the plan');
+  table(doc, [['Requirement', 'Required', 'Achieved', 'Result'], ...r.checks.map((c) => [c.label, c.required, c.achieved, c.pass ? 'meets' : 'DOES NOT MEET'])], [2.2, 3, 3, 1.2]);
+  doc.moveDown(0.4).font('Inter').fontSize(8.5).fillColor(grey);
+  doc.text(`Target GSD ${fmt.gsdCm(r.spec.targetGsdCm)} ± ${fmt.percent(r.spec.gsdTolerance)}; altitude mode ${r.spec.altitudeMode}.`, page.margin);
+
+  heading(doc, 'Results overall');
+  const o = r.overall;
+  table(
+    doc,
+    [
+      ['Stations', 'Meeting GSD', 'GSD min', 'GSD 5th pct', 'GSD median', 'GSD max', 'Fwd overlap min', 'Side overlap min', 'AGL min'],
+      [String(o.stationCount), fmt.percent(o.shareMeetingGsd), fmt.gsdCm(o.gsdCm.min), fmt.gsdCm(o.gsdCm.p5), fmt.gsdCm(o.gsdCm.median), fmt.gsdCm(o.gsdCm.max), fmt.percent(o.forwardOverlapMin), fmt.percent(o.sideOverlapMin), fmt.metres(o.aglMinM)],
+    ],
+    [1, 1.1, 1, 1, 1, 1, 1.1, 1.1, 1],
+  );
+  doc.moveDown(0.3).fontSize(8.5).fillColor(grey).text(`${o.lineCount} lines, ${o.photoCount} photos, flight time ${fmt.minutes(o.flightTimeS)}. Percentiles: ${r.percentileMethod}.`, page.margin);
+
+  heading(doc, 'Results per line (flying order)');
+  table(
+    doc,
+    [
+      ['Line', 'Length', 'Meeting GSD', 'GSD min', 'GSD 5th pct', 'GSD median', 'GSD max', 'Fwd min', 'Side min', 'AGL min'],
+      ...r.lines.map((l) => [
+        String(l.number),
+        fmt.metres(l.lengthM),
+        fmt.percent(l.shareMeetingGsd),
+        fmt.gsdCm(l.gsdCm.min),
+        fmt.gsdCm(l.gsdCm.p5),
+        fmt.gsdCm(l.gsdCm.median),
+        fmt.gsdCm(l.gsdCm.max),
+        fmt.percent(l.forwardOverlapMin),
+        fmt.percent(l.sideOverlapMin),
+        fmt.metres(l.aglMinM),
+      ]),
+    ],
+    [0.6, 1.1, 1.1, 1, 1, 1, 1, 1, 1, 1],
+  );
+  const warned = r.lines.filter((l) => l.warnings.length > 0);
+  if (warned.length) paragraphs(doc, warned.flatMap((l) => l.warnings.map((w) => `Line ${l.number}: ${w}`)), '!');
+
+  heading(doc, 'GSD along each line');
+  doc.fontSize(8.5).fillColor(grey).text(`Shaded: the target band ${fmt.gsdCm(r.spec.gsdBandCm[0])} to ${fmt.gsdCm(r.spec.gsdBandCm[1])}. Red ticks: stations over unknown ground.`, page.margin);
+  for (const l of r.lines) {
+    const h = 130;
+    if (doc.y + h + 16 > 800) doc.addPage();
+    doc.font('Inter-Bold').fontSize(9).fillColor('black').text(`Line ${l.number} · ${fmt.metres(l.lengthM)} · heading ${fmt.degrees(l.headingDeg)}`, page.margin, doc.y + 4);
+    const y = doc.y + 2;
+    drawGsdChart(doc, l, r.spec.gsdBandCm, { x: page.margin, y, w: page.width, h });
+    doc.y = y + h + 4;
+    doc.x = page.margin;
+  }
+
+  heading(doc, 'Elevation grid used');
+  const d = r.dem;
+  table(
+    doc,
+    [
+      ['Item', 'Value'],
+      ['Site / file', `${d.siteName} / ${d.fileName}`],
+      ['CRS', `${d.crs.name}${d.crs.epsg ? ` (EPSG:${d.crs.epsg})` : ''}`],
+      ['Resolution', `${d.resolution[0]} x ${d.resolution[1]} ${d.resolutionUnit}`],
+      ['Vertical datum', d.verticalDatum],
+      ['Kind', d.surfaceKind === 'bare-earth' ? 'bare earth (ground only)' : 'surface model (tops of trees and buildings)'],
+      ['Elevation range', `${fmt.metres(d.elevationRangeM[0])} to ${fmt.metres(d.elevationRangeM[1])}`],
+    ],
+    [1, 3],
+  );
+
+  heading(doc, 'Accuracy (ADVISORY)');
+  const a = r.accuracy;
+  doc.font('Inter-Bold').fontSize(9).fillColor('#8a4b00').text(`ADVISORY, not a guarantee (${a.source}).`, page.margin);
+  doc.font('Inter').fillColor('#1b1e21');
+  if (a.horizontalCm && a.verticalCm) {
+    doc.text(`From the median GSD ${fmt.gsdCm(a.basisGsdCm)}: horizontal about ${fmt.gsdCm(a.horizontalCm[0])} to ${fmt.gsdCm(a.horizontalCm[1])}, vertical about ${fmt.gsdCm(a.verticalCm[0])} to ${fmt.gsdCm(a.verticalCm[1])}.`);
+  }
+  doc.text(a.ruleOfThumb).moveDown(0.2).text(a.deferral);
+
+  heading(doc, 'Assumptions');
+  paragraphs(doc, r.assumptions);
+  heading(doc, 'Safety cautions');
+  paragraphs(doc, r.cautions, '!');
+
+  const range = doc.bufferedPageRange();
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i);
+    const bottomMargin = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0; // write the footer inside the margin without starting a new page
+    doc.font('Inter').fontSize(7.5).fillColor(grey);
+    doc.text(`Loftline compliance report · ${r.plan.name} v${r.version.number} · page ${i + 1} of ${range.count}`, page.margin, 812, { width: page.width, align: 'center', lineBreak: false });
+    doc.page.margins.bottom = bottomMargin;
+  }
+  doc.end();
+  return done;
+}

@@ -1,0 +1,93 @@
+/** Review-state changes (row-locked, with their audit entry in the same transaction) and the audit trail of a plan. */
+import { and, asc, eq, sql } from 'drizzle-orm';
+import { reviewStateSchema, reviewTransitions, transitionAllowed, type ReviewAction, type ReviewState } from '../../contracts/reviews';
+import type { Db } from '../../db/client';
+import { auditEvent, member, organization, planVersion, user } from '../../db/schema';
+
+/** Why a transition was refused, as data for the use case to word. */
+export type TransitionRefusal =
+  | { reason: 'not_found' }
+  | { reason: 'state'; state: ReviewState; number: number }
+  | { reason: 'analysis'; analysisState: string; number: number };
+
+export function createReviewsRepository({ db }: { db: Db }) {
+  return {
+    /**
+     * Apply `action` to the version if its current state allows it. The row is locked first, so two reviewers
+     * acting at once cannot both pass the check; the audit entry commits with the change or not at all.
+     */
+    async transition(q: { teamId: string; versionId: string; action: ReviewAction; actorId: string; comment: string | null }) {
+      return db.transaction(async (tx) => {
+        const [row] = await tx
+          .select({ state: planVersion.reviewState, analysisState: planVersion.analysisState, number: planVersion.number, planId: planVersion.planId })
+          .from(planVersion)
+          .where(and(eq(planVersion.id, q.versionId), eq(planVersion.teamId, q.teamId)))
+          .for('update');
+        if (!row) return { ok: false as const, refusal: { reason: 'not_found' } as TransitionRefusal };
+        const state = reviewStateSchema.parse(row.state);
+        if (!transitionAllowed(q.action, state)) {
+          return { ok: false as const, refusal: { reason: 'state', state, number: row.number } as TransitionRefusal };
+        }
+        if (q.action === 'submit' && row.analysisState !== 'done') {
+          return { ok: false as const, refusal: { reason: 'analysis', analysisState: row.analysisState, number: row.number } as TransitionRefusal };
+        }
+        const t = reviewTransitions[q.action];
+        // now() is the transaction's start time: the sign-off time and its audit entry agree to the microsecond.
+        await tx
+          .update(planVersion)
+          .set(q.action === 'sign-off' ? { reviewState: t.to, signedOffBy: q.actorId, signedOffAt: sql`now()` } : { reviewState: t.to })
+          .where(eq(planVersion.id, q.versionId));
+        const [entry] = await tx.insert(auditEvent).values({
+          teamId: q.teamId,
+          planId: row.planId,
+          planVersionId: q.versionId,
+          actorId: q.actorId,
+          action: t.audit,
+          fromState: state,
+          toState: t.to,
+          comment: q.comment,
+        }).returning({ at: auditEvent.createdAt });
+        return { ok: true as const, from: state, to: t.to as ReviewState, at: entry.at };
+      });
+    },
+
+    /** Every audit entry of a plan, oldest first, with the actor's name and the version number. */
+    async auditOf(teamId: string, planId: string) {
+      return db
+        .select({
+          id: auditEvent.id,
+          action: auditEvent.action,
+          actorId: auditEvent.actorId,
+          actorName: user.name,
+          versionId: auditEvent.planVersionId,
+          versionNumber: planVersion.number,
+          fromState: auditEvent.fromState,
+          toState: auditEvent.toState,
+          comment: auditEvent.comment,
+          at: auditEvent.createdAt,
+        })
+        .from(auditEvent)
+        .leftJoin(user, eq(user.id, auditEvent.actorId))
+        .leftJoin(planVersion, eq(planVersion.id, auditEvent.planVersionId))
+        .where(and(eq(auditEvent.teamId, teamId), eq(auditEvent.planId, planId)))
+        .orderBy(asc(auditEvent.createdAt), asc(auditEvent.id));
+    },
+
+    /** Members of the team holding `role`, with their addresses (e.g. the surveyors to ask for a review). */
+    async membersWithRole(teamId: string, role: string) {
+      return db
+        .select({ id: user.id, name: user.name, email: user.email })
+        .from(member)
+        .innerJoin(user, eq(user.id, member.userId))
+        .where(and(eq(member.organizationId, teamId), eq(member.role, role)))
+        .orderBy(asc(user.email));
+    },
+
+    async teamName(teamId: string): Promise<string> {
+      const [row] = await db.select({ name: organization.name }).from(organization).where(eq(organization.id, teamId));
+      return row?.name ?? 'your team';
+    },
+  };
+}
+
+export type ReviewsRepository = ReturnType<typeof createReviewsRepository>;

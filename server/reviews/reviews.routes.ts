@@ -1,0 +1,52 @@
+/** Review transitions of a plan version (submit, sign-off, return), its review status, and the plan's audit trail. */
+import type { Request, Router } from 'express';
+import { auditTrailSchema, returnSchema, reviewActions, reviewNoteSchema, reviewTransitions, versionReviewSchema } from '../../contracts/reviews';
+import { requireTeam } from '../http/guard';
+import { parseInput, sendJson } from '../http/validate';
+import { mailerOf } from '../mail/mail.service';
+import { createReportService } from '../reports/reports.service';
+import type { RouteGroup } from '../routes';
+import { createReviewNotifier } from './reviews.notify';
+import { createReviewsRepository } from './reviews.repository';
+import { createReviewsUsecases } from './reviews.usecases';
+import { createVersionsRepository } from './versions.repository';
+
+const plans = '/teams/:teamId/plans/:planId';
+const version = `${plans}/versions/:versionId`;
+
+/** Route group: review states and the audit trail. */
+export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services }) => {
+  const { db, config } = services;
+  const versions = createVersionsRepository({ db });
+  const reviews = createReviewsRepository({ db });
+  const reports = createReportService({ versions });
+  const usecases = createReviewsUsecases({
+    versions,
+    reviews,
+    // The mailer is looked up per request: the boot sequence adds it to `services` before routes run.
+    notify: (q) => createReviewNotifier({ mailer: mailerOf(services), reviews, config, renderReportPdf: reports.pdfOf })(q),
+  });
+
+  const target = (req: Request) => {
+    const { teamId, role, user } = requireTeam(req);
+    return { teamId, role, actor: user, planId: String(req.params.planId), versionId: String(req.params.versionId) };
+  };
+
+  api.get(`${version}/review`, guards.permission('plan:read'), async (req, res) => {
+    sendJson(res, versionReviewSchema, await usecases.status(target(req)));
+  });
+
+  for (const action of reviewActions) {
+    const { permission } = reviewTransitions[action];
+    api.post(`${version}/${action}`, guards.permission(permission), async (req, res) => {
+      const body = parseInput(action === 'return' ? returnSchema : reviewNoteSchema, req.body ?? {});
+      const out = await usecases.transition({ ...target(req), action, comment: body.comment || null });
+      sendJson(res, versionReviewSchema, out);
+    });
+  }
+
+  api.get(`${plans}/audit`, guards.permission('plan:read'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    sendJson(res, auditTrailSchema, await usecases.audit({ teamId, planId: String(req.params.planId) }));
+  });
+};

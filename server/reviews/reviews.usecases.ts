@@ -1,0 +1,106 @@
+/** Review use cases: change a version's state (with its audit entry and e-mail), read its status and the plan's audit trail. */
+import {
+  actionsFrom,
+  isLocked,
+  reviewStateLabels,
+  reviewStateSchema,
+  reviewTransitions,
+  type AuditTrail,
+  type ReviewAction,
+  type ReviewState,
+  type VersionReview,
+} from '../../contracts/reviews';
+import type { Role } from '../../contracts/roles';
+import { AppError, errors } from '../http/errors';
+import type { SessionUser } from '../http/guard';
+import type { ReviewNotifier } from './reviews.notify';
+import type { ReviewsRepository, TransitionRefusal } from './reviews.repository';
+import type { VersionRecord, VersionsRepository } from './versions.repository';
+
+const actionVerbs: Record<ReviewAction, string> = { submit: 'sent for review', 'sign-off': 'signed off', return: 'returned' };
+
+function list(states: readonly ReviewState[]): string {
+  const names = states.map((s) => reviewStateLabels[s].toLowerCase());
+  return names.length > 1 ? `${names.slice(0, -1).join(', ')} or ${names[names.length - 1]}` : names[0];
+}
+
+/** The 409 message: the current state, what the action needs, and what can be done from here. */
+export function refusalMessage(action: ReviewAction, refusal: Exclude<TransitionRefusal, { reason: 'not_found' }>): string {
+  if (refusal.reason === 'analysis') {
+    const what = refusal.analysisState === 'failed' ? 'failed' : `is not finished (it is ${refusal.analysisState})`;
+    return `Version ${refusal.number} cannot be sent for review: its analysis ${what}. Send it once the analysis is done.`;
+  }
+  const { state, number } = refusal;
+  const needs = `A version can be ${actionVerbs[action]} only when it is ${list(reviewTransitions[action].from)}`;
+  const here = isLocked(state)
+    ? 'A signed-off version is locked: nothing changes it. Edit the plan and run it to make a new version for review.'
+    : `From ${reviewStateLabels[state].toLowerCase()} the next step is: ${actionsFrom(state)
+        .map((a) => reviewTransitions[a].label.toLowerCase())
+        .join(' or ')}.`;
+  return `Version ${number} is ${reviewStateLabels[state].toLowerCase()}. ${needs}. ${here}`;
+}
+
+export function createReviewsUsecases(deps: { versions: VersionsRepository; reviews: ReviewsRepository; notify: ReviewNotifier }) {
+  const { versions, reviews, notify } = deps;
+
+  function statusOf(v: VersionRecord, role: Role): VersionReview {
+    const state = reviewStateSchema.parse(v.reviewState);
+    return {
+      versionId: v.id,
+      planId: v.planId,
+      number: v.number,
+      reviewState: state,
+      locked: isLocked(state),
+      signedOffBy: v.signedOffById ? { id: v.signedOffById, name: v.signedOffByName ?? '(former member)' } : null,
+      signedOffAt: v.signedOffAt ? v.signedOffAt.toISOString() : null,
+      allowedActions: actionsFrom(state, role),
+    };
+  }
+
+  async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
+    const v = await versions.find(q);
+    if (!v) throw errors.notFound('Plan version');
+    return v;
+  }
+
+  return {
+    /** The review status of a version as the caller's role sees it. */
+    async status(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionReview> {
+      return statusOf(await load(q), q.role);
+    },
+
+    /** Apply a review action; refused transitions are 409 with the reason. The e-mail is queued after the commit. */
+    async transition(q: { teamId: string; planId: string; versionId: string; role: Role; actor: SessionUser; action: ReviewAction; comment: string | null }) {
+      await load(q);
+      const r = await reviews.transition({ teamId: q.teamId, versionId: q.versionId, action: q.action, actorId: q.actor.id, comment: q.comment });
+      if (!r.ok) {
+        if (r.refusal.reason === 'not_found') throw errors.notFound('Plan version');
+        const code = r.refusal.reason === 'analysis' ? 'analysis_not_done' : 'invalid_transition';
+        throw new AppError(409, code, refusalMessage(q.action, r.refusal));
+      }
+      const after = await load(q);
+      const notification = await notify({ action: q.action, version: after, actor: q.actor, comment: q.comment });
+      return { ...statusOf(after, q.role), notification };
+    },
+
+    /** The plan's audit trail. */
+    async audit(q: { teamId: string; planId: string }): Promise<AuditTrail> {
+      if (!(await versions.planExists(q.teamId, q.planId))) throw errors.notFound('Plan');
+      const rows = await reviews.auditOf(q.teamId, q.planId);
+      return {
+        planId: q.planId,
+        events: rows.map((e) => ({
+          id: e.id,
+          action: e.action,
+          actor: e.actorId ? { id: e.actorId, name: e.actorName ?? '(former member)' } : null,
+          versionId: e.versionId,
+          versionNumber: e.versionNumber,
+          fromState: e.fromState,
+          toState: e.toState,
+          comment: e.comment,
+          at: e.at.toISOString(),
+        })),
+      };
+    },
+  };
+}

@@ -1,0 +1,107 @@
+/** Plan-version lookups shared by reviews, reports, leg sheets and exports, with the pilot's signed-off-only rule in the query. */
+import { alias } from 'drizzle-orm/pg-core';
+import { and, desc, eq, type SQL } from 'drizzle-orm';
+import type { Role } from '../../contracts/roles';
+import type { Db } from '../../db/client';
+import { plan, planVersion, project, site, user } from '../../db/schema';
+
+const creator = alias(user, 'creator');
+const signer = alias(user, 'signer');
+
+/** Roles that may only ever see signed-off versions. */
+export function seesSignedOffOnly(role: Role): boolean {
+  return role === 'pilot';
+}
+
+function selection() {
+  return {
+    id: planVersion.id,
+    teamId: planVersion.teamId,
+    planId: planVersion.planId,
+    number: planVersion.number,
+    input: planVersion.input,
+    reviewState: planVersion.reviewState,
+    analysisState: planVersion.analysisState,
+    analysisError: planVersion.analysisError,
+    result: planVersion.result,
+    analysedAt: planVersion.analysedAt,
+    createdAt: planVersion.createdAt,
+    createdById: planVersion.createdBy,
+    createdByName: creator.name,
+    createdByEmail: creator.email,
+    signedOffById: planVersion.signedOffBy,
+    signedOffByName: signer.name,
+    signedOffAt: planVersion.signedOffAt,
+    planName: plan.name,
+    projectId: project.id,
+    projectName: project.name,
+    projectClient: project.client,
+    projectUnits: project.units,
+    siteId: site.id,
+    siteName: site.name,
+    siteFileName: site.fileName,
+    siteSurfaceKind: site.surfaceKind,
+    siteVerticalDatum: site.verticalDatum,
+    siteMetadata: site.metadata,
+  };
+}
+
+/** A version with its plan, project, site, creator and signer, as the lookups answer it. */
+export type VersionRecord = NonNullable<Awaited<ReturnType<ReturnType<typeof createVersionsRepository>['find']>>>;
+
+/** Factory over `{ db }`. */
+export function createVersionsRepository({ db }: { db: Db }) {
+  function base(where: SQL | undefined) {
+    return db
+      .select(selection())
+      .from(planVersion)
+      .innerJoin(plan, eq(plan.id, planVersion.planId))
+      .innerJoin(project, eq(project.id, plan.projectId))
+      .innerJoin(site, eq(site.id, planVersion.siteId))
+      .leftJoin(creator, eq(creator.id, planVersion.createdBy))
+      .leftJoin(signer, eq(signer.id, planVersion.signedOffBy))
+      .where(where);
+  }
+
+  return {
+    /**
+     * One version of the team, or null. `planId` narrows it to one plan (URLs that name both must agree);
+     * for a pilot, anything but a signed-off version is as good as absent.
+     */
+    async find(q: { teamId: string; versionId: string; planId?: string; role: Role }) {
+      if (!isUuid(q.versionId) || (q.planId !== undefined && !isUuid(q.planId))) return null;
+      const conds: SQL[] = [eq(planVersion.teamId, q.teamId), eq(planVersion.id, q.versionId)];
+      if (q.planId !== undefined) conds.push(eq(planVersion.planId, q.planId));
+      if (seesSignedOffOnly(q.role)) conds.push(eq(planVersion.reviewState, 'signed_off'));
+      const rows = await base(and(...conds)).limit(1);
+      return rows[0] ?? null;
+    },
+
+    /** The team's signed-off versions, newest sign-off first. */
+    async signedOff(teamId: string) {
+      return base(and(eq(planVersion.teamId, teamId), eq(planVersion.reviewState, 'signed_off'))).orderBy(
+        desc(planVersion.signedOffAt),
+      );
+    },
+
+    /** Whether the plan exists in the team (for routes that name a plan only). */
+    async planExists(teamId: string, planId: string): Promise<boolean> {
+      if (!isUuid(planId)) return false;
+      const rows = await db
+        .select({ id: plan.id })
+        .from(plan)
+        .where(and(eq(plan.teamId, teamId), eq(plan.id, planId)))
+        .limit(1);
+      return rows.length > 0;
+    },
+  };
+}
+
+export type VersionsRepository = ReturnType<typeof createVersionsRepository>;
+
+const uuidPattern = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** Ids in URLs are uuids; anything else cannot name a row (and must not reach a uuid column as a cast error). */
+export function isUuid(s: string): boolean {
+  return uuidPattern.test(s);
+}

@@ -1,0 +1,263 @@
+/**
+ * Test data for the review, report, leg-sheet and export suites: a fresh team with one member per role, and analysed
+ * plan versions inserted straight into the database (project, site, plan, version) over a small synthetic hill.
+ * When the planner routes can create and run plans, suites may build versions through them instead.
+ */
+import crypto from 'node:crypto';
+import { eq } from 'drizzle-orm';
+import type { Role } from '../../contracts/roles';
+import type { ReviewState } from '../../contracts/reviews';
+import { member, plan, planVersion, project, site, user } from '../../db/schema';
+import { WGS84, createTransform, utmCrs } from '../../terrain/crs';
+import { createGrid, sampleBilinear, type Grid } from '../../terrain/grid';
+import { describeGrid } from '../../terrain/metadata';
+import type { MissionInput } from '../../terrain/mission';
+import { ApiClient, uniqueEmail } from './http-client';
+import type { TestServer } from './test-server';
+
+export const fixturePassword = 'fixture password 1';
+
+export interface FixtureUser {
+  id: string;
+  email: string;
+  name: string;
+}
+
+export interface FreshTeam {
+  teamId: string;
+  clients: Record<Role, ApiClient>;
+  users: Record<Role, FixtureUser>;
+}
+
+const names: Record<Role, string> = { owner: 'Wren Halloway', planner: 'Idris Quell', surveyor: 'Maren Toft', pilot: 'Cass Orrin' };
+
+/** A new team (invented people) with one signed-in member per role, so suites never see each other's data. */
+export async function freshTeam(srv: TestServer, tag = 'fx'): Promise<FreshTeam> {
+  const clients = {} as Record<Role, ApiClient>;
+  const users = {} as Record<Role, FixtureUser>;
+  for (const role of ['owner', 'planner', 'surveyor', 'pilot'] as const) {
+    const c = new ApiClient(srv.url);
+    const email = uniqueEmail(`${tag}-${role}`);
+    await c.signUp(email, fixturePassword, names[role]);
+    const r = await c.signIn(email, fixturePassword);
+    if (r.status !== 200) throw new Error(`fixture ${role} could not sign in: ${r.status}`);
+    const [row] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, email));
+    clients[role] = c;
+    users[role] = { id: row.id, email, name: names[role] };
+  }
+  const t = await clients.owner.post('/api/teams', { name: `Fixture team ${tag}` });
+  if (t.status !== 201) throw new Error(`fixture team not created: ${t.status}`);
+  for (const role of ['planner', 'surveyor', 'pilot'] as const) {
+    await srv.db.insert(member).values({ id: crypto.randomUUID(), organizationId: t.body.id, userId: users[role].id, role });
+  }
+  return { teamId: t.body.id, clients, users };
+}
+
+/** UTM zone 30 north: a projected CRS in metres for the synthetic site. */
+const siteCrs = utmCrs(30, false);
+const origin = { e: 512_000, n: 6_012_000 };
+
+/**
+ * A 1 km x 1 km synthetic grid at 5 m: a ramp rising 30 m to the north and a 45 m round hill in the middle
+ * (invented terrain, no real place).
+ */
+export function syntheticGrid(): Grid {
+  const width = 200;
+  const height = 200;
+  const px = 5;
+  const data = new Float32Array(width * height);
+  for (let r = 0; r < height; r++) {
+    for (let c = 0; c < width; c++) {
+      const x = (c + 0.5) * px - 500;
+      const y = 500 - (r + 0.5) * px;
+      data[r * width + c] = 180 + 0.03 * (y + 500) + 45 * Math.exp(-(x * x + y * y) / (2 * 180 * 180));
+    }
+  }
+  return createGrid({ width, height, data, transform: [origin.e, px, 0, origin.n + 1000, 0, -px], crs: siteCrs });
+}
+
+const toLonLat = createTransform(siteCrs, WGS84);
+
+/** The mission the fixtures analyse: a square area inside the grid, 3 cm GSD, hold mode. */
+export function syntheticMission(overrides: Partial<MissionInput> = {}): MissionInput {
+  const corner = (x: number, y: number) => toLonLat.forward(origin.e + x, origin.n + y) as [number, number];
+  const ring = [corner(150, 150), corner(850, 150), corner(850, 850), corner(150, 850), corner(150, 150)];
+  return {
+    area: { type: 'Polygon', coordinates: [ring] },
+    camera: { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 },
+    targetGsdCm: 3,
+    gsdTolerance: 0.1,
+    forwardOverlap: 0.8,
+    sideOverlap: 0.7,
+    headingDeg: 90,
+    mode: 'hold',
+    clearanceM: 30,
+    obstacleAllowanceM: 0,
+    maxAglM: 120,
+    speedMps: 10,
+    climbMps: 3,
+    descentMps: 2,
+    takeoff: (([lon, lat]) => ({ lon, lat }))(corner(500, 120)),
+    enduranceMin: 25,
+    batteryReserve: 0.25,
+    ...overrides,
+  };
+}
+
+/**
+ * An analysis result in the engine's plan-output shape, computed over `grid` with the textbook relations
+ * (GSD = H x p / f, footprint = GSD x pixels, overlap = 1 - base / footprint; see shared domain notes): east-west lines
+ * 150 m apart, alternating direction, one level leg per line at the altitude that gives the target GSD over the
+ * line's highest ground. `holeAt` puts stations of the first line over unknown ground.
+ */
+export function syntheticResult(grid: Grid = syntheticGrid(), opts: { holeAt?: [number, number] } = {}) {
+  const m = syntheticMission();
+  const cam = m.camera;
+  const pitchMm = cam.sensorWidthMm / cam.imageWidthPx;
+  const gsdAt = (aglM: number) => (aglM * 100 * pitchMm) / cam.focalLengthMm;
+  const targetH = (m.targetGsdCm / 100) * (cam.focalLengthMm / pitchMm);
+  const baseM = (1 - (m.forwardOverlap ?? 0.8)) * gsdAt(targetH) / 100 * cam.imageHeightPx;
+  const spacingM = 150;
+  const ground = (x: number, y: number) => {
+    const h = sampleBilinear(grid, origin.e + x, origin.n + y);
+    return Number.isFinite(h) ? h : null;
+  };
+  const takeoffGround = ground(500, 120)!;
+  const lines = [0, 1, 2, 3, 4].map((index) => {
+    const y = 200 + index * spacingM;
+    const eastward = index % 2 === 0;
+    const xs: number[] = [];
+    for (let d = 0; d <= 700 + 1e-9; d += baseM) xs.push(eastward ? 150 + d : 850 - d);
+    const hs = xs.map((x, i) => (opts.holeAt && index === 0 && i >= opts.holeAt[0] && i < opts.holeAt[1] ? null : ground(x, y)));
+    const zM = Math.max(...hs.filter((h): h is number => h !== null)) + targetH;
+    const stations = xs.map((x, i) => {
+      const h = hs[i];
+      const agl = h === null ? null : zM - h;
+      const gsd = agl === null ? null : gsdAt(agl);
+      const [lon, lat] = toLonLat.forward(origin.e + x, origin.n + y);
+      return {
+        lon,
+        lat,
+        distanceM: Math.abs(x - xs[0]),
+        groundM: h,
+        altitudeM: zM,
+        aglM: agl,
+        gsdCm: gsd,
+        forwardOverlap: gsd === null || i === 0 ? null : 1 - baseM / ((gsd / 100) * cam.imageHeightPx),
+        sideOverlap: gsd === null ? null : 1 - spacingM / ((gsd / 100) * cam.imageWidthPx),
+        flags: [],
+      };
+    });
+    const known = stations.filter((s) => s.aglM !== null);
+    const end = (s: (typeof stations)[number]) => ({ lon: s.lon, lat: s.lat, distanceM: s.distanceM });
+    return {
+      index,
+      stations,
+      legs: [
+        {
+          start: end(stations[0]),
+          end: end(stations[stations.length - 1]),
+          altitudeStartM: zM,
+          altitudeEndM: zM,
+          altitudeStartAboveTakeoffM: zM - takeoffGround,
+          altitudeEndAboveTakeoffM: zM - takeoffGround,
+          aglMinM: Math.min(...known.map((s) => s.aglM!)),
+          aglMaxM: Math.max(...known.map((s) => s.aglM!)),
+          gsdMinCm: Math.min(...known.map((s) => s.gsdCm!)),
+          gsdMaxCm: Math.max(...known.map((s) => s.gsdCm!)),
+          gradient: 0,
+        },
+      ],
+    };
+  });
+  const photoCount = lines.reduce((a, l) => a + l.stations.length, 0);
+  const flightDistanceM = lines.length * 700 + (lines.length - 1) * spacingM;
+  return {
+    lines,
+    summary: { lineCount: lines.length, photoCount, flightDistanceM, flightTimeS: flightDistanceM / 10 + 4 * 10 },
+    warnings: [],
+  };
+}
+
+export interface VersionFixture {
+  projectId: string;
+  siteId: string;
+  planId: string;
+  versionId: string;
+  /** API path prefix of the version: /api/teams/:teamId/plans/:planId/versions/:versionId */
+  path: string;
+}
+
+/** Insert a project, site, plan and one version (analysed unless told otherwise) for `teamId`. */
+export async function createVersion(
+  srv: TestServer,
+  q: {
+    teamId: string;
+    createdBy: string;
+    reviewState?: ReviewState;
+    analysisState?: 'queued' | 'running' | 'done' | 'failed';
+    result?: unknown;
+    surfaceKind?: 'bare-earth' | 'surface';
+    planName?: string;
+  },
+): Promise<VersionFixture> {
+  const grid = syntheticGrid();
+  const analysed = (q.analysisState ?? 'done') === 'done';
+  const [p] = await srv.db
+    .insert(project)
+    .values({ teamId: q.teamId, name: 'Hollin Fell quarry survey', client: 'Tarnside Aggregates (fictional)', createdBy: q.createdBy })
+    .returning({ id: project.id });
+  const [s] = await srv.db
+    .insert(site)
+    .values({
+      teamId: q.teamId,
+      projectId: p.id,
+      name: 'Hollin Fell synthetic hill',
+      fileName: 'hollin-fell-synthetic.tif',
+      storageKey: `fixtures/${crypto.randomUUID()}.tif`,
+      sizeBytes: grid.data.byteLength,
+      sha256: crypto.randomBytes(32).toString('hex'),
+      surfaceKind: q.surfaceKind ?? 'bare-earth',
+      verticalDatum: 'EGM96 geoid',
+      metadata: describeGrid(grid),
+      hillshadeKey: `fixtures/${crypto.randomUUID()}.png`,
+      hillshade: {},
+      createdBy: q.createdBy,
+    })
+    .returning({ id: site.id });
+  const input = syntheticMission();
+  const [pl] = await srv.db
+    .insert(plan)
+    .values({ teamId: q.teamId, projectId: p.id, siteId: s.id, name: q.planName ?? 'North bench', input, createdBy: q.createdBy })
+    .returning({ id: plan.id });
+  const [v] = await srv.db
+    .insert(planVersion)
+    .values({
+      teamId: q.teamId,
+      planId: pl.id,
+      number: 1,
+      siteId: s.id,
+      input,
+      reviewState: q.reviewState ?? 'draft',
+      analysisState: q.analysisState ?? 'done',
+      analysisProgress: analysed ? 100 : 0,
+      result: analysed ? (q.result ?? syntheticResult(grid)) : null,
+      analysedAt: analysed ? new Date() : null,
+      createdBy: q.createdBy,
+      signedOffBy: q.reviewState === 'signed_off' ? q.createdBy : null,
+      signedOffAt: q.reviewState === 'signed_off' ? new Date() : null,
+    })
+    .returning({ id: planVersion.id });
+  return { projectId: p.id, siteId: s.id, planId: pl.id, versionId: v.id, path: `/api/teams/${q.teamId}/plans/${pl.id}/versions/${v.id}` };
+}
+
+/** Wait until `check` returns a value (polling), or fail after `timeoutMs`. */
+export async function eventually<T>(check: () => Promise<T | null | undefined | false>, timeoutMs = 10_000, what = 'condition'): Promise<T> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const v = await check();
+    if (v) return v;
+    if (Date.now() > deadline) throw new Error(`Timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
