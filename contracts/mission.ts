@@ -1,0 +1,98 @@
+/** The mission input of a plan (CLI, API, plan form): zod schema with the terrain core's ranges and defaults. */
+import { z } from 'zod';
+import { MISSION_DEFAULTS, MISSION_RANGES, checkArea, type NumberRange } from '../terrain/mission';
+
+/** A number in a mission range, with a message that says the range. */
+function ranged(name: string, r: NumberRange) {
+  const what = r.integer ? 'a whole number' : 'a number';
+  const msg = `${name} must be ${what} ${r.exclusiveMin ? 'above' : 'from'} ${r.min} to ${r.max}.`;
+  let s = z.number({ error: msg });
+  s = r.exclusiveMin ? s.gt(r.min, { error: msg }) : s.gte(r.min, { error: msg });
+  s = s.lte(r.max, { error: msg });
+  return r.integer ? s.int({ error: msg }) : s;
+}
+
+const R = MISSION_RANGES;
+const D = MISSION_DEFAULTS;
+const positive = (name: string, max: number) => z.number({ error: `${name} must be a number.` }).gt(0, { error: `${name} must be above 0.` }).lte(max, { error: `${name} must be at most ${max}.` });
+
+export const altitudeModes = ['hold', 'steps', 'follow'] as const;
+/** Altitude modes: one altitude per line, a few level legs, or sloped legs that track the ground. */
+export const altitudeModeSchema = z.enum(altitudeModes);
+
+export const distortionSchema = z.object({
+  k1: z.number().gt(-10).lt(10), k2: z.number().gt(-10).lt(10), k3: z.number().gt(-10).lt(10),
+  p1: z.number().gt(-10).lt(10), p2: z.number().gt(-10).lt(10),
+});
+
+/** Camera: sensor (mm), lens (mm), image (px); which image side runs along track; optional principal point and Brown distortion. */
+export const cameraSchema = z
+  .object({
+    sensorWidthMm: positive('camera.sensorWidthMm', 200),
+    sensorHeightMm: positive('camera.sensorHeightMm', 200),
+    focalLengthMm: positive('camera.focalLengthMm', 1000),
+    imageWidthPx: positive('camera.imageWidthPx', 100_000).int({ error: 'camera.imageWidthPx must be whole pixels.' }),
+    imageHeightPx: positive('camera.imageHeightPx', 100_000).int({ error: 'camera.imageHeightPx must be whole pixels.' }),
+    alongTrackSide: z.enum(['height', 'width']).optional(),
+    principalPointPx: z.object({ x: z.number().gte(0), y: z.number().gte(0) }).optional(),
+    distortion: distortionSchema.optional(),
+  })
+  .superRefine((c, ctx) => {
+    if (c.principalPointPx && (c.principalPointPx.x > c.imageWidthPx || c.principalPointPx.y > c.imageHeightPx)) {
+      ctx.addIssue({ code: 'custom', path: ['principalPointPx'], message: `camera.principalPointPx must lie inside the ${c.imageWidthPx} x ${c.imageHeightPx} image.` });
+    }
+  });
+
+/** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the terrain core's checks). */
+export const areaPolygonSchema = z
+  .object({
+    type: z.literal('Polygon', { error: 'area.type must be "Polygon".' }),
+    coordinates: z.array(z.array(z.array(z.number()).min(2)).min(4, { error: 'An area ring needs at least 4 positions (3 corners and the closing one).' })).min(1),
+  })
+  .superRefine((a, ctx) => {
+    try {
+      checkArea(a);
+    } catch (err) {
+      ctx.addIssue({ code: 'custom', message: (err as Error).message });
+    }
+  });
+
+export const lonLatSchema = z.object({ lon: z.number().gte(-180).lte(180), lat: z.number().gte(-90).lte(90) });
+
+/** The mission: required area, camera, target GSD and takeoff; everything else has a default. */
+export const missionSchema = z
+  .object({
+    area: areaPolygonSchema,
+    camera: cameraSchema,
+    targetGsdCm: ranged('targetGsdCm', R.targetGsdCm),
+    gsdTolerance: ranged('gsdTolerance', R.gsdTolerance).default(D.gsdTolerance),
+    forwardOverlap: ranged('forwardOverlap', R.forwardOverlap).default(D.forwardOverlap),
+    sideOverlap: ranged('sideOverlap', R.sideOverlap).default(D.sideOverlap),
+    headingDeg: z.union([ranged('headingDeg', R.headingDeg), z.literal('advise')]).default(D.headingDeg),
+    mode: altitudeModeSchema.default(D.mode),
+    clearanceM: ranged('clearanceM', R.clearanceM).default(D.clearanceM),
+    obstacleAllowanceM: ranged('obstacleAllowanceM', R.obstacleAllowanceM).default(D.obstacleAllowanceM),
+    maxAglM: ranged('maxAglM', R.maxAglM).default(D.maxAglM),
+    speedMps: ranged('speedMps', R.speedMps).default(D.speedMps),
+    climbMps: ranged('climbMps', R.climbMps).default(D.climbMps),
+    descentMps: ranged('descentMps', R.descentMps).default(D.descentMps),
+    takeoff: lonLatSchema,
+    minLegLengthM: ranged('minLegLengthM', R.minLegLengthM).default(D.minLegLengthM),
+    maxLegsPerLine: ranged('maxLegsPerLine', R.maxLegsPerLine).default(D.maxLegsPerLine),
+    altitudeRoundingM: ranged('altitudeRoundingM', R.altitudeRoundingM).default(D.altitudeRoundingM),
+    runInM: ranged('runInM', R.runInM).default(D.runInM),
+    enduranceMin: ranged('enduranceMin', R.enduranceMin).default(D.enduranceMin),
+    batteryReserve: ranged('batteryReserve', R.batteryReserve).default(D.batteryReserve),
+    turnTimeS: ranged('turnTimeS', R.turnTimeS).default(D.turnTimeS),
+    stationStepM: ranged('stationStepM', R.stationStepM).nullable().default(D.stationStepM),
+  })
+  .superRefine((m, ctx) => {
+    if (m.clearanceM + m.obstacleAllowanceM >= m.maxAglM) {
+      ctx.addIssue({ code: 'custom', path: ['clearanceM'], message: `clearance plus obstacle allowance (${m.clearanceM + m.obstacleAllowanceM} m) must be below the maximum height above ground (${m.maxAglM} m).` });
+    }
+  });
+
+/** A mission as a user writes it (optional fields may be left out). */
+export type MissionInput = z.input<typeof missionSchema>;
+/** A mission with every default applied. */
+export type MissionValues = z.output<typeof missionSchema>;
