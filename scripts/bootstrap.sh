@@ -10,6 +10,8 @@ if [ -z "${DATABASE_URL:-}" ] && ! ls /usr/lib/postgresql/*/bin/initdb >/dev/nul
 if [ "$mode" = "--test" ]; then
   [ -x /usr/bin/chromium ] || apt_pkgs+=(chromium)
   fc-list 2>/dev/null | grep -qi dejavu || apt_pkgs+=(fonts-dejavu-core)
+  # pdftotext / pdffonts read the compliance-report PDFs back in the report tests.
+  command -v pdftotext >/dev/null || apt_pkgs+=(poppler-utils)
 fi
 if [ "${#apt_pkgs[@]}" -gt 0 ]; then
   echo "loftline: installing Debian packages: ${apt_pkgs[*]}"

@@ -39,7 +39,7 @@ export function drawGsdChart(
   const left = box.x + 40;
   const bottom = box.y + box.h - 24;
   const right = box.x + box.w - 6;
-  const top = box.y + 6;
+  const top = box.y + 16;
   const known = line.gsdSeries.filter((p) => p.gsdCm !== null).map((p) => p.gsdCm as number);
   const xs = line.gsdSeries.map((p) => p.distanceM);
   const yTicks = niceTicks(Math.min(band[0], ...known), Math.max(band[1], ...known), 4);
@@ -59,7 +59,7 @@ export function drawGsdChart(
   doc.font('Inter').fontSize(7).fillColor(ink.text);
   for (const t of yTicks) doc.text(t.toFixed(2), box.x, py(t) - 3.5, { width: 36, align: 'right', lineBreak: false });
   for (const t of xTicks) doc.text(String(Math.round(t)), px(t) - 20, bottom + 3, { width: 40, align: 'center', lineBreak: false });
-  doc.text('GSD (cm)', box.x, top - 2, { width: 36, align: 'right', lineBreak: false });
+  doc.text('GSD (cm)', box.x, box.y, { width: 60, align: 'left', lineBreak: false });
   doc.text('distance along the line (m)', left, bottom + 12, { width: right - left, align: 'center', lineBreak: false });
 
   doc.lineWidth(1.2).strokeColor(ink.line);

@@ -58,7 +58,7 @@ const siteCrs = utmCrs(30, false);
 const origin = { e: 512_000, n: 6_012_000 };
 
 /**
- * A 1 km x 1 km synthetic grid at 5 m: a ramp rising 30 m to the north and a 45 m round hill in the middle
+ * A 1 km x 1 km synthetic grid at 5 m: a ramp rising 30 m to the north and a 12 m round hill in the middle
  * (invented terrain, no real place).
  */
 export function syntheticGrid(): Grid {
@@ -70,7 +70,7 @@ export function syntheticGrid(): Grid {
     for (let c = 0; c < width; c++) {
       const x = (c + 0.5) * px - 500;
       const y = 500 - (r + 0.5) * px;
-      data[r * width + c] = 180 + 0.03 * (y + 500) + 45 * Math.exp(-(x * x + y * y) / (2 * 180 * 180));
+      data[r * width + c] = 180 + 0.03 * (y + 500) + 12 * Math.exp(-(x * x + y * y) / (2 * 180 * 180));
     }
   }
   return createGrid({ width, height, data, transform: [origin.e, px, 0, origin.n + 1000, 0, -px], crs: siteCrs });
@@ -106,9 +106,9 @@ export function syntheticMission(overrides: Partial<MissionInput> = {}): Mission
 
 /**
  * An analysis result in the engine's plan-output shape, computed over `grid` with the textbook relations
- * (GSD = H x p / f, footprint = GSD x pixels, overlap = 1 - base / footprint; see shared domain notes): east-west lines
- * 150 m apart, alternating direction, one level leg per line at the altitude that gives the target GSD over the
- * line's highest ground. `holeAt` puts stations of the first line over unknown ground.
+ * (GSD = H x p / f, footprint = GSD x pixels, overlap = 1 - base / footprint; see shared domain notes): five east-west
+ * lines over the hill at the spacing of the side overlap, alternating direction, one level leg per line at the altitude
+ * that gives the target GSD over the line's highest ground. `holeAt` puts stations of the first line over unknown ground.
  */
 export function syntheticResult(grid: Grid = syntheticGrid(), opts: { holeAt?: [number, number] } = {}) {
   const m = syntheticMission();
@@ -117,14 +117,14 @@ export function syntheticResult(grid: Grid = syntheticGrid(), opts: { holeAt?: [
   const gsdAt = (aglM: number) => (aglM * 100 * pitchMm) / cam.focalLengthMm;
   const targetH = (m.targetGsdCm / 100) * (cam.focalLengthMm / pitchMm);
   const baseM = (1 - (m.forwardOverlap ?? 0.8)) * gsdAt(targetH) / 100 * cam.imageHeightPx;
-  const spacingM = 150;
+  const spacingM = (1 - (m.sideOverlap ?? 0.7)) * (gsdAt(targetH) / 100) * cam.imageWidthPx;
   const ground = (x: number, y: number) => {
     const h = sampleBilinear(grid, origin.e + x, origin.n + y);
     return Number.isFinite(h) ? h : null;
   };
   const takeoffGround = ground(500, 120)!;
   const lines = [0, 1, 2, 3, 4].map((index) => {
-    const y = 200 + index * spacingM;
+    const y = 500 + (index - 2) * spacingM;
     const eastward = index % 2 === 0;
     const xs: number[] = [];
     for (let d = 0; d <= 700 + 1e-9; d += baseM) xs.push(eastward ? 150 + d : 850 - d);

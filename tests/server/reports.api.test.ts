@@ -1,0 +1,132 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { complianceReportSchema, type ComplianceReport } from '../../contracts/reports';
+import { fmt } from '../../server/reports/format';
+import { createVersion, freshTeam, syntheticGrid, syntheticResult, type FreshTeam } from '../support/fixtures';
+import { startTestServer, type TestServer } from '../support/test-server';
+import { numpyFigures, pdfFonts, pdfText } from '../reports/pdf-text';
+
+let srv: TestServer;
+let team: FreshTeam;
+
+beforeAll(async () => {
+  srv = await startTestServer({ web: false });
+  team = await freshTeam(srv, 'reports');
+});
+afterAll(async () => srv?.stop());
+
+async function pdfOf(path: string): Promise<Buffer> {
+  const res = await fetch(srv.url + path + '/report.pdf', { headers: { Cookie: cookieOf(team.clients.surveyor) } });
+  expect(res.status).toBe(200);
+  expect(res.headers.get('content-type')).toBe('application/pdf');
+  return Buffer.from(await res.arrayBuffer());
+}
+
+function cookieOf(c: unknown): string {
+  return [...(c as { cookies: Map<string, string> }).cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+}
+
+describe('the compliance report (JSON)', () => {
+  it('reports per line and overall GSD figures as numpy computes them from the stations', async () => {
+    const result = syntheticResult(syntheticGrid(), { holeAt: [2, 5] });
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, result });
+    const res = await team.clients.surveyor.get(`${v.path}/report`);
+    expect(res.status).toBe(200);
+    const r: ComplianceReport = complianceReportSchema.parse(res.body);
+    expect(r.spec).toMatchObject({ targetGsdCm: 3, gsdTolerance: 0.1, forwardOverlap: 0.8, sideOverlap: 0.7, clearanceM: 30, maxAglM: 120 });
+    const band = r.spec.gsdBandCm;
+    expect(band[0]).toBeCloseTo(2.7, 12);
+    expect(band[1]).toBeCloseTo(3.3, 12);
+
+    // numpy 1.24.2 (Debian python3-numpy): np.percentile default 'linear', np.median; share counted over all stations.
+    const lists = result.lines.map((l) => l.stations.map((s) => s.gsdCm));
+    const ref = numpyFigures([...lists, lists.flat()], band);
+    r.lines.forEach((line, i) => {
+      expect(line.gsdCm.min).toBeCloseTo(ref[i].min, 10);
+      expect(line.gsdCm.p5).toBeCloseTo(ref[i].p5, 10);
+      expect(line.gsdCm.median).toBeCloseTo(ref[i].median, 10);
+      expect(line.gsdCm.max).toBeCloseTo(ref[i].max, 10);
+      expect(line.shareMeetingGsd).toBeCloseTo(ref[i].share, 12);
+    });
+    const all = ref[ref.length - 1];
+    expect(r.overall.gsdCm.median).toBeCloseTo(all.median, 10);
+    expect(r.overall.gsdCm.p5).toBeCloseTo(all.p5, 10);
+    expect(r.overall.shareMeetingGsd).toBeCloseTo(all.share, 12);
+
+    // The three stations over the hole are unknown: counted, not known, and against the share.
+    expect(r.lines[0].stationCount - r.lines[0].knownCount).toBe(3);
+    expect(r.lines[0].shareMeetingGsd!).toBeLessThanOrEqual((r.lines[0].stationCount - 3) / r.lines[0].stationCount);
+    const stations = result.lines.flatMap((l) => l.stations);
+    expect(r.overall.forwardOverlapMin).toBe(Math.min(...stations.filter((s) => s.forwardOverlap !== null).map((s) => s.forwardOverlap!)));
+    expect(r.overall.aglMinM).toBe(Math.min(...stations.filter((s) => s.aglM !== null).map((s) => s.aglM!)));
+  });
+
+  it('names the DEM, labels accuracy ADVISORY with its rule of thumb, and carries the cautions', async () => {
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id });
+    const r: ComplianceReport = (await team.clients.owner.get(`${v.path}/report`)).body;
+    expect(r.dem).toMatchObject({ fileName: 'hollin-fell-synthetic.tif', crs: { epsg: 32630 }, resolution: [5, 5], resolutionUnit: 'metre', verticalDatum: 'EGM96 geoid', surfaceKind: 'bare-earth' });
+    expect(r.accuracy.label).toBe('ADVISORY');
+    expect(r.accuracy.source).toBe('common practice');
+    const g = r.overall.gsdCm.median!;
+    // Rule of thumb (common practice, see shared domain notes): horizontal 1-2 x GSD, vertical 1.5-3 x GSD.
+    expect(r.accuracy.horizontalCm).toEqual([g, 2 * g]);
+    expect(r.accuracy.verticalCm).toEqual([1.5 * g, 3 * g]);
+    expect(r.accuracy.deferral).toMatch(/check points/);
+    expect(r.cautions.join(' ')).toMatch(/bare earth.*trees/i);
+    expect(r.cautions.join(' ')).toMatch(/line of sight/);
+    expect(r.cautions.join(' ')).toMatch(/Wind/);
+    expect(r.cautions.join(' ')).toMatch(/takeoff point/);
+    expect(r.signOff).toMatchObject({ state: 'draft', signedOffBy: null });
+    expect(r.percentileMethod).toMatch(/numpy/);
+  });
+
+  it('checks the spec: a plan flying above the height limit fails that check', async () => {
+    const result = syntheticResult();
+    for (const l of result.lines) for (const s of l.stations) if (s.aglM !== null) s.aglM += 20;
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, result });
+    const r: ComplianceReport = (await team.clients.surveyor.get(`${v.path}/report`)).body;
+    const byKey = Object.fromEntries(r.checks.map((c) => [c.key, c.pass]));
+    expect(byKey).toMatchObject({ 'height-limit': false, clearance: true, 'forward-overlap': true });
+  });
+
+  it('is refused before the analysis is done, to pilots, and to other teams', async () => {
+    const queued = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, analysisState: 'running' });
+    const r1 = await team.clients.surveyor.get(`${queued.path}/report`);
+    expect(r1.status).toBe(409);
+    expect(r1.body.error.code).toBe('analysis_not_done');
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off' });
+    expect((await team.clients.pilot.get(`${v.path}/report`)).status).toBe(403);
+    const other = await freshTeam(srv, 'reports-other');
+    expect((await other.clients.owner.get(`/api/teams/${other.teamId}/plans/${v.planId}/versions/${v.versionId}/report`)).status).toBe(404);
+  });
+});
+
+describe('the compliance report (PDF)', () => {
+  it('parses, embeds its fonts, and prints the figures the API reports for that version', async () => {
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review', result: syntheticResult(syntheticGrid(), { holeAt: [2, 5] }) });
+    expect((await team.clients.surveyor.post(`${v.path}/sign-off`, {})).status).toBe(200);
+    const r: ComplianceReport = (await team.clients.surveyor.get(`${v.path}/report`)).body;
+    const pdf = await pdfOf(v.path);
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
+    const fonts = pdfFonts(pdf);
+    expect(fonts.map((f) => f.name.replace(/^[A-Z]+\+/, ''))).toEqual(expect.arrayContaining(['Inter-Regular', 'Inter-Bold']));
+    expect(fonts.every((f) => f.embedded)).toBe(true);
+
+    const text = pdfText(pdf);
+    const squash = (s: string) => s.replace(/\s+/g, ' ');
+    const o = r.overall;
+    const overallRow = [String(o.stationCount), fmt.percent(o.shareMeetingGsd), fmt.gsdCm(o.gsdCm.min), fmt.gsdCm(o.gsdCm.p5), fmt.gsdCm(o.gsdCm.median), fmt.gsdCm(o.gsdCm.max), fmt.percent(o.forwardOverlapMin), fmt.percent(o.sideOverlapMin), fmt.metres(o.aglMinM)];
+    expect(squash(text)).toContain(overallRow.join(' '));
+    for (const l of r.lines) {
+      const row = [String(l.number), fmt.metres(l.lengthM), fmt.percent(l.shareMeetingGsd), fmt.gsdCm(l.gsdCm.min), fmt.gsdCm(l.gsdCm.p5), fmt.gsdCm(l.gsdCm.median), fmt.gsdCm(l.gsdCm.max), fmt.percent(l.forwardOverlapMin), fmt.percent(l.sideOverlapMin), fmt.metres(l.aglMinM)];
+      expect(text.split('\n').some((line) => squash(line).trim() === row.join(' ')), `line ${l.number} row ${row.join(' ')}`).toBe(true);
+      expect(text).toContain(`Line ${l.number} · ${fmt.metres(l.lengthM)} · heading ${fmt.degrees(l.headingDeg)}`);
+    }
+    expect(text.match(/distance along the line \(m\)/g)).toHaveLength(r.lines.length);
+    expect(squash(text)).toContain(`Signed off by ${team.users.surveyor.name} on ${fmt.utc(r.signOff.signedOffAt)}`);
+    expect(text).toContain('ADVISORY');
+    expect(squash(text)).toContain(`From the median GSD ${fmt.gsdCm(r.accuracy.basisGsdCm)}`);
+    expect(squash(text)).toContain(r.dem.fileName);
+    expect(squash(text)).toContain('EPSG:32630');
+    for (const c of r.cautions) expect(squash(text)).toContain(squash(c).slice(0, 60));
+  });
+});
