@@ -52,7 +52,8 @@ export function mailModeOf(config: Config): MailMode {
 /** Create the mail service of one server process. */
 export async function createMailer(deps: { db: Db; config: Config; log?: (msg: string, err?: unknown) => void }): Promise<Mailer> {
   const { db, config } = deps;
-  const log = deps.log ?? ((msg: string, err?: unknown) => console.error(`loftline: ${msg}`, err ?? ''));
+  // One line per failure: the reason is what an operator needs; the full record is in the audit trail.
+  const log = deps.log ?? ((msg: string, err?: unknown) => console.error(`loftline: ${msg}${err ? `: ${err instanceof Error ? err.message : String(err)}` : ''}`));
   const mode = mailModeOf(config);
   const env = config.env;
   let fake: FakeSmtp | null = null;
