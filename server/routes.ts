@@ -2,6 +2,8 @@
 import type { Router } from 'express';
 import type { Guards } from './http/guard';
 import type { Services } from './services';
+import { projectRouteGroup } from './projects/projects.routes';
+import { registerInvitationRoutes } from './invitations/invitations.routes';
 import { registerOutboxRoutes } from './mail/outbox.routes';
 import { registerReportRoutes } from './reports/reports.routes';
 import { registerReviewRoutes } from './reviews/reviews.routes';
@@ -10,7 +12,9 @@ export type RouteGroup = (api: Router, ctx: { guards: Guards; services: Services
 
 /** Route groups of the domains (projects, sites, plans, reviews…), in mount order. */
 export const routeGroups: RouteGroup[] = [
+  projectRouteGroup,
   registerReviewRoutes,
   registerReportRoutes,
   registerOutboxRoutes,
+  registerInvitationRoutes,
 ];
