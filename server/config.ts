@@ -28,6 +28,8 @@ const envSchema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASS: z.string().optional(),
   MAIL_FROM: z.string().default('Loftline <no-reply@loftline.example>'),
+  /** Days a team invitation stays valid. */
+  INVITATION_DAYS: z.coerce.number().positive().max(90).default(7),
   WORKERS: z.coerce.number().int().min(0).max(16).default(1),
   DEV_OUTBOX: bool.optional(),
   NODE_ENV: z.string().default('development'),
