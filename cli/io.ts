@@ -11,8 +11,9 @@ export class CliError extends Error {
   }
 }
 
-/** node:zlib's inflate for readDem's `inflate` option (about 4x faster than the pure-JS one). */
-export const nodeInflate = (data: Uint8Array): Uint8Array => inflateSync(data);
+/** node:zlib's inflate for readDem's `inflate` option (about 4x faster than the pure-JS one); one output chunk of the expected size, so nothing is copied. */
+export const nodeInflate = (data: Uint8Array, expectedBytes?: number): Uint8Array =>
+  inflateSync(data, { chunkSize: Math.max(1024, expectedBytes ?? 0) });
 
 /** The bytes of a file, or a CliError that names the file and the reason. */
 export async function readFileBytes(path: string | undefined, what = 'DEM'): Promise<Uint8Array> {

@@ -2,8 +2,8 @@
 import { getDecoder } from 'geotiff';
 import { TerrainError } from './errors';
 
-/** A function that inflates a zlib (DEFLATE) stream; the server injects node:zlib's inflateSync. */
-export type InflateFn = (data: Uint8Array) => Uint8Array;
+/** A function that inflates a zlib (DEFLATE) stream, told the size to expect; the server injects node:zlib's inflateSync. */
+export type InflateFn = (data: Uint8Array, expectedBytes: number) => Uint8Array;
 
 /** Sample types Loftline reads, as TIFF SampleFormat + BitsPerSample. */
 export type SampleType = 'uint8' | 'int8' | 'uint16' | 'int16' | 'uint32' | 'int32' | 'float32' | 'float64';
@@ -43,7 +43,7 @@ type BlockDecoder = (compressed: Uint8Array, expectedBytes: number) => Promise<U
 export async function blockDecoderFor(compression: number, inflate?: InflateFn): Promise<BlockDecoder> {
   if (compression === 1) return (c) => c;
   if (compression === 32773) return unpackBits;
-  if ((compression === 8 || compression === 32946) && inflate) return (c) => inflate(c);
+  if ((compression === 8 || compression === 32946) && inflate) return (c, n) => inflate(c, n);
   if (compression === 5 || compression === 8 || compression === 32946) {
     // geotiff.js's own decoders; its predictor step is skipped (predictor 1) because ours is word-wise
     const dec = await getDecoder(compression, { tileWidth: 1, tileHeight: 1, predictor: 1, bitsPerSample: 8, planarConfiguration: 1 });
@@ -102,63 +102,94 @@ export function undoFloatPredictorBytes(bytes: Uint8Array, size: number, rowPx: 
 }
 
 /**
- * The float32 fast path of predictor 3: one pass that keeps a running byte sum per plane and writes whole
- * little-endian words straight into the destination rows, converting nodata to NaN on the way.
- * Plane start sums come from a word-wise reduction of the earlier planes.
+ * The float32 fast path of predictor 3, word-wise: (1) the byte prefix sum of each row, four bytes per step
+ * (SWAR: even and odd bytes in 16-bit lanes, so no carry crosses a byte), in place; (2) a 4 x 4 byte transpose
+ * from the four byte planes into whole little-endian words in the destination, nodata turned to NaN on the way.
+ * `bytes` is changed (it is a freshly decoded block). Falls back to bytes when rows are not word-aligned.
  */
 export function float32PredictorRows(
-  bytes: Uint8Array, rowPx: number, rows: number,
+  bytes: Uint8Array, rowPx: number, _rows: number,
   dest: Uint32Array, destOffset: number, destStride: number, colFrom: number, colTo: number, rowFrom: number, rowTo: number,
   nodataBits: number | null,
 ): void {
   const w = rowPx;
-  const wordsAligned = bytes.byteOffset % 4 === 0 && w % 4 === 0;
-  const words = wordsAligned ? new Uint32Array(bytes.buffer, bytes.byteOffset, (bytes.byteLength >>> 2)) : null;
+  if (bytes.byteOffset % 4 !== 0 || w % 4 !== 0) {
+    float32PredictorRowsBytewise(bytes, w, dest, destOffset, destStride, colFrom, colTo, rowFrom, rowTo, nodataBits);
+    return;
+  }
+  // Int32 views keep every value a small integer in V8's optimised code (no uint32 -> double conversions)
+  const words = new Int32Array(bytes.buffer, bytes.byteOffset, bytes.byteLength >>> 2);
+  const out = new Int32Array(dest.buffer, dest.byteOffset, dest.length);
+  const NAN_BITS = 0x7fc00000;
+  const nb = nodataBits === null ? 0x7fc00001 : nodataBits | 0; // 0x7fc00001: a NaN no writer emits as nodata
+  const M = 0x00ff00ff;
+  const q = w >>> 2;
+  const full = colFrom === 0 && colTo === w;
+  for (let r = rowFrom; r < rowTo; r++) {
+    const wo = r * w; // a row of w float32 samples is w words
+    let c = 0; // running byte sum; only its low 8 bits matter, and the only loop-carried step is c += ...
+    for (let j = wo, e = wo + w; j < e; j++) {
+      const x = words[j];
+      const ev = x & M, od = (x >>> 8) & M;
+      const sum = ev + od; // 16-bit lanes: d0 + d1, d2 + d3
+      const oddL = sum + (sum << 16); // local prefix at bytes 1 and 3
+      const evenL = ev + ((sum & 0xffff) << 16); // local prefix at bytes 0 and 2
+      const c8 = c & 255;
+      const cc = c8 | (c8 << 16);
+      words[j] = ((evenL + cc) & M) | (((oddL + cc) & M) << 8);
+      c += oddL >>> 16;
+    }
+    const d = destOffset + (r - rowFrom) * destStride - colFrom;
+    for (let j = 0; j < q; j++) {
+      // plane 0 holds the most significant bytes; byte n of each plane word is pixel 4j + n
+      const a = words[wo + j], b = words[wo + q + j], cw = words[wo + 2 * q + j], e = words[wo + 3 * q + j];
+      let v0 = (a << 24) | ((b & 255) << 16) | ((cw & 255) << 8) | (e & 255);
+      let v1 = ((a >>> 8) << 24) | ((b & 0xff00) << 8) | (cw & 0xff00) | ((e >>> 8) & 255);
+      let v2 = ((a >>> 16) << 24) | (b & 0xff0000) | ((cw >>> 8) & 0xff00) | ((e >>> 16) & 255);
+      let v3 = (a & 0xff000000) | ((b >>> 8) & 0xff0000) | ((cw >>> 16) & 0xff00) | (e >>> 24);
+      if (v0 === nb) v0 = NAN_BITS;
+      if (v1 === nb) v1 = NAN_BITS;
+      if (v2 === nb) v2 = NAN_BITS;
+      if (v3 === nb) v3 = NAN_BITS;
+      const k = 4 * j;
+      if (full) {
+        out[d + k] = v0; out[d + k + 1] = v1; out[d + k + 2] = v2; out[d + k + 3] = v3;
+      } else {
+        if (k >= colFrom && k < colTo) out[d + k] = v0;
+        if (k + 1 >= colFrom && k + 1 < colTo) out[d + k + 1] = v1;
+        if (k + 2 >= colFrom && k + 2 < colTo) out[d + k + 2] = v2;
+        if (k + 3 >= colFrom && k + 3 < colTo) out[d + k + 3] = v3;
+      }
+    }
+  }
+}
+
+/** Byte-by-byte predictor 3 for float32 rows that are not word-aligned (four running plane sums per pixel). */
+function float32PredictorRowsBytewise(
+  bytes: Uint8Array, w: number,
+  dest: Uint32Array, destOffset: number, destStride: number, colFrom: number, colTo: number, rowFrom: number, rowTo: number,
+  nodataBits: number | null,
+): void {
   const NAN_BITS = 0x7fc00000;
   const nb = nodataBits === null ? -1 : nodataBits >>> 0;
   for (let r = rowFrom; r < rowTo; r++) {
     const o = r * w * 4;
-    // byte sums of planes 0..2, i.e. the running sum at the start of planes 1..3
+    // byte sums of planes 0..2 give the running sum at the start of planes 1..3
     let s0 = 0, s1 = 0, s2 = 0;
-    if (words) {
-      s0 = planeSum(words, o >>> 2, w >>> 2);
-      s1 = planeSum(words, (o + w) >>> 2, w >>> 2);
-      s2 = planeSum(words, (o + 2 * w) >>> 2, w >>> 2);
-    } else {
-      for (let i = 0; i < w; i++) { s0 += bytes[o + i]; s1 += bytes[o + w + i]; s2 += bytes[o + 2 * w + i]; }
-    }
+    for (let i = 0; i < w; i++) { s0 += bytes[o + i]; s1 += bytes[o + w + i]; s2 += bytes[o + 2 * w + i]; }
     let a0 = 0, a1 = s0 & 255, a2 = (s0 + s1) & 255, a3 = (s0 + s1 + s2) & 255;
-    const p0 = o, p1 = o + w, p2 = o + 2 * w, p3 = o + 3 * w;
     const d = destOffset + (r - rowFrom) * destStride - colFrom;
     for (let i = 0; i < colTo; i++) {
-      a0 = (a0 + bytes[p0 + i]) & 255;
-      a1 = (a1 + bytes[p1 + i]) & 255;
-      a2 = (a2 + bytes[p2 + i]) & 255;
-      a3 = (a3 + bytes[p3 + i]) & 255;
+      a0 = (a0 + bytes[o + i]) & 255;
+      a1 = (a1 + bytes[o + w + i]) & 255;
+      a2 = (a2 + bytes[o + 2 * w + i]) & 255;
+      a3 = (a3 + bytes[o + 3 * w + i]) & 255;
       if (i >= colFrom) {
         const v = ((a0 << 24) | (a1 << 16) | (a2 << 8) | a3) >>> 0;
         dest[d + i] = v === nb ? NAN_BITS : v;
       }
     }
   }
-}
-
-/** Sum of the bytes of `n` words from `start`, modulo 256, two byte lanes per 16 bits (folded before they overflow). */
-function planeSum(words: Uint32Array, start: number, n: number): number {
-  let total = 0;
-  let acc = 0;
-  let k = 0;
-  for (let i = start, e = start + n; i < e; i++) {
-    const v = words[i];
-    acc += (v & 0x00ff00ff) + ((v >>> 8) & 0x00ff00ff);
-    if (++k === 127) {
-      total += (acc & 0xffff) + (acc >>> 16);
-      acc = 0;
-      k = 0;
-    }
-  }
-  total += (acc & 0xffff) + (acc >>> 16);
-  return total & 255;
 }
 
 /**
@@ -174,11 +205,14 @@ export function copyRows(
   const n = colTo - colFrom;
   const aligned = bytes.byteOffset % size === 0;
   // an uncompressed block inside the file may sit at any byte offset: copy each row to an aligned scratch
-  const scratch = littleEndian && !aligned ? new Uint8Array(n * size) : null;
+  const scratch = littleEndian && !aligned && type !== 'float32' ? new Uint8Array(n * size) : null;
   for (let r = rowFrom; r < rowTo; r++) {
     const srcPx = r * rowPx + colFrom;
     const d = destOffset + (r - rowFrom) * destStride;
-    if (littleEndian && aligned) {
+    if (littleEndian && type === 'float32') {
+      // same type: one byte copy straight into the destination, whatever the source alignment
+      new Uint8Array(dest.buffer, dest.byteOffset + d * 4, n * 4).set(bytes.subarray(srcPx * 4, (srcPx + n) * 4));
+    } else if (littleEndian && aligned) {
       dest.set(viewOf(bytes, type, srcPx, n), d); // typed-array set converts the type at memcpy-like speed
     } else if (scratch) {
       scratch.set(bytes.subarray(srcPx * size, (srcPx + n) * size));

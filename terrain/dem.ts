@@ -104,12 +104,12 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
     }
     stats.blocksDecoded++;
     stats.pixelsDecoded += bw * rowsInBlock;
+    if (data === raw && header.predictor !== 1) data = raw.slice(); // never change the caller's bytes
     if (f32pred) {
       float32PredictorRows(data, bw, rowsInBlock, new Uint32Array(dest.buffer, dest.byteOffset, dest.length), destOffset, destStride, colFrom, colTo, rowFrom, rowTo, nodataBits);
       return;
     }
     if (header.predictor !== 1) {
-      if (data === raw) data = raw.slice(); // never change the caller's bytes
       if (header.predictor === 2) undoIntegerPredictor(data, header.sampleType, bw, rowsInBlock, layout.littleEndian);
       else undoFloatPredictorBytes(data, size, bw, rowsInBlock, layout.littleEndian);
     }

@@ -64,37 +64,66 @@ export function samplePoints(
  * exactly as `sampleBilinear` in grid.ts (that function is the reference the tests compare this loop with).
  */
 export function sampleGridCoords(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, out: Float64Array | Float32Array, method: SampleMethod = 'bilinear'): number {
-  const { width, height, data } = grid;
   const t = grid.transform;
   const det = t[1] * t[5] - t[2] * t[4];
   if (det === 0) throw new TerrainError('no-georeference', 'The grid transform has a zero pixel size; the georeference is broken.');
-  // inverse affine, precomputed once: col = a0 + a1*x + a2*y; row = b0 + b1*x + b2*y
+  // inverse affine, precomputed once: col = a0 + a1*x + a2*y; row = b0 + b1*x + b2*y (corner-based pixels)
   const a1 = t[5] / det, a2 = -t[2] / det, b1 = -t[4] / det, b2 = t[1] / det;
   const a0 = -(a1 * t[0] + a2 * t[3]), b0 = -(b1 * t[0] + b2 * t[3]);
+  return method === 'nearest' ? nearestLoop(grid, xs, ys, out, a0, a1, a2, b0, b1, b2) : bilinearLoop(grid, xs, ys, out, a0, a1, a2, b0, b1, b2);
+}
+
+function bilinearLoop(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, out: Float64Array | Float32Array, a0: number, a1: number, a2: number, b0: number, b1: number, b2: number): number {
+  const { width, height, data } = grid;
   const wMax = width - 1, hMax = height - 1;
+  // pixel-centre coordinates: fx = col - 0.5, fy = row - 0.5
+  const c0f = a0 - 0.5, r0f = b0 - 0.5;
+  let unknown = 0;
+  const n = out.length;
+  for (let i = 0; i < n; i++) {
+    const x = xs[i], y = ys[i];
+    let fx = c0f + a1 * x + a2 * y;
+    let fy = r0f + b1 * x + b2 * y;
+    let v: number;
+    if (fx >= 0 && fy >= 0 && fx < wMax && fy < hMax) {
+      // interior: four neighbours exist, no clamping (the hot path)
+      const c = fx | 0, r = fy | 0;
+      const tx = fx - c, ty = fy - r;
+      const o = r * width + c;
+      const v00 = data[o], v10 = data[o + 1], v01 = data[o + width], v11 = data[o + width + 1];
+      const top = v00 + (v10 - v00) * tx;
+      v = top + (v01 + (v11 - v01) * tx - top) * ty;
+    } else if (fx >= -0.5 && fy >= -0.5 && fx <= wMax + 0.5 && fy <= hMax + 0.5) {
+      // within half a pixel of the edge: clamp to the edge pixels
+      if (fx < 0) fx = 0; else if (fx > wMax) fx = wMax;
+      if (fy < 0) fy = 0; else if (fy > hMax) fy = hMax;
+      const c = fx | 0, r = fy | 0;
+      const c1 = c < wMax ? c + 1 : c;
+      const o0 = r * width, o1 = r < hMax ? o0 + width : o0;
+      const tx = fx - c, ty = fy - r;
+      const v00 = data[o0 + c], v10 = data[o0 + c1], v01 = data[o1 + c], v11 = data[o1 + c1];
+      const top = v00 + (v10 - v00) * tx;
+      v = top + (v01 + (v11 - v01) * tx - top) * ty;
+    } else v = NaN;
+    out[i] = v;
+    if (v !== v) unknown++;
+  }
+  return unknown;
+}
+
+function nearestLoop(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, out: Float64Array | Float32Array, a0: number, a1: number, a2: number, b0: number, b1: number, b2: number): number {
+  const { width, height, data } = grid;
   let unknown = 0;
   const n = out.length;
   for (let i = 0; i < n; i++) {
     const x = xs[i], y = ys[i];
     const pc = a0 + a1 * x + a2 * y;
     const pr = b0 + b1 * x + b2 * y;
-    let v: number;
-    if (!(pc >= 0 && pr >= 0 && pc <= width && pr <= height)) v = NaN;
-    else if (method === 'nearest') {
-      const c = pc < width ? Math.floor(pc) : wMax; // the far edge belongs to the last pixel
-      const r = pr < height ? Math.floor(pr) : hMax;
+    let v = NaN;
+    if (pc >= 0 && pr >= 0 && pc <= width && pr <= height) {
+      const c = pc < width ? pc | 0 : width - 1; // the far edge belongs to the last pixel
+      const r = pr < height ? pr | 0 : height - 1;
       v = data[r * width + c];
-    } else {
-      let fx = pc - 0.5, fy = pr - 0.5;
-      if (fx < 0) fx = 0; else if (fx > wMax) fx = wMax;
-      if (fy < 0) fy = 0; else if (fy > hMax) fy = hMax;
-      const c0 = fx | 0, r0 = fy | 0;
-      const c1 = c0 < wMax ? c0 + 1 : c0;
-      const o0 = r0 * width, o1 = r0 < hMax ? o0 + width : o0;
-      const tx = fx - c0, ty = fy - r0;
-      const v00 = data[o0 + c0], v10 = data[o0 + c1], v01 = data[o1 + c0], v11 = data[o1 + c1];
-      const top = v00 + (v10 - v00) * tx;
-      v = top + (v01 + (v11 - v01) * tx - top) * ty;
     }
     out[i] = v;
     if (v !== v) unknown++;

@@ -189,3 +189,27 @@ describe('the demo grid', () => {
     expect((await readDemHeader(committed)).verticalDatum).toEqual({ epsg: 5773, name: 'EGM96 height' });
   });
 });
+
+describe('the floating-point predictor undo', () => {
+  it('gives the same words word-wise (aligned rows) as byte-wise (unaligned rows), windows and nodata included', async () => {
+    const { float32PredictorRows } = await import('../../terrain/dem-decoders');
+    const w = 12, rows = 5;
+    const raw = new Uint8Array(w * rows * 4).map((_, i) => (i * 2654435761) >>> 24);
+    const aligned = raw.slice();
+    const shifted = new Uint8Array(raw.length + 1).subarray(1);
+    shifted.set(raw);
+    const a = new Uint32Array(w * rows), b = new Uint32Array(w * rows);
+    float32PredictorRows(aligned, w, rows, a, 0, w, 0, w, 0, rows, null);
+    float32PredictorRows(shifted, w, rows, b, 0, w, 0, w, 0, rows, null);
+    expect(Array.from(a)).toEqual(Array.from(b));
+    const nd = a[7];
+    const c = new Uint32Array(3 * 2), d = new Uint32Array(3 * 2);
+    const s2 = new Uint8Array(raw.length + 1).subarray(1);
+    s2.set(raw);
+    float32PredictorRows(raw.slice(), w, rows, c, 0, 3, 5, 8, 0, 2, nd);
+    float32PredictorRows(s2, w, rows, d, 0, 3, 5, 8, 0, 2, nd);
+    expect(Array.from(c)).toEqual(Array.from(d));
+    expect(c[2]).toBe(0x7fc00000); // row 0, column 7 was the nodata word
+    expect(c[0]).toBe(a[5]);
+  });
+});
