@@ -3,6 +3,8 @@ import type { Router } from 'express';
 import type { Guards } from './http/guard';
 import type { Services } from './services';
 import { projectRouteGroup } from './projects/projects.routes';
+import { siteRouteGroup } from './sites/sites.routes';
+import { registerFlightRoutes } from './flights/flights.routes';
 import { registerInvitationRoutes } from './invitations/invitations.routes';
 import { registerOutboxRoutes } from './mail/outbox.routes';
 import { registerReportRoutes } from './reports/reports.routes';
@@ -13,8 +15,10 @@ export type RouteGroup = (api: Router, ctx: { guards: Guards; services: Services
 /** Route groups of the domains (projects, sites, plans, reviews…), in mount order. */
 export const routeGroups: RouteGroup[] = [
   projectRouteGroup,
+  siteRouteGroup,
   registerReviewRoutes,
   registerReportRoutes,
   registerOutboxRoutes,
   registerInvitationRoutes,
+  registerFlightRoutes,
 ];

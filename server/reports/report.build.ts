@@ -1,5 +1,4 @@
 /** Build the compliance report of one analysed version from its mission, its stored result and its site. */
-import geodesic from 'geographiclib-geodesic';
 import type { ComplianceReport, SpecCheck, StationStats } from '../../contracts/reports';
 import { reviewStateSchema } from '../../contracts/reviews';
 import { unitOfProj4 } from '../../terrain/crs';
@@ -7,11 +6,10 @@ import type { GridMetadata } from '../../terrain/metadata';
 import type { Mission } from '../../terrain/mission';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { flightCautions } from './cautions';
+import { azimuthDeg } from './geodesy';
 import { fmt } from './format';
 import { noteText, readMission, readResult, type LineView, type StationView } from './result-view';
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
-
-const { Geodesic } = geodesic as unknown as typeof import('geographiclib-geodesic');
 
 /** The GSD band of the spec: target ± tolerance (a fraction of the target). */
 export function gsdBandCm(m: Pick<Mission, 'targetGsdCm' | 'gsdTolerance'>): [number, number] {
@@ -38,9 +36,7 @@ export function lineHeadingDeg(line: LineView): number | null {
   if (line.headingDeg !== undefined) return line.headingDeg;
   const a = line.legs[0]?.start ?? line.stations[0];
   const b = line.legs[line.legs.length - 1]?.end ?? line.stations[line.stations.length - 1];
-  if (!a || !b || (a.lon === b.lon && a.lat === b.lat)) return null;
-  const azi = Geodesic.WGS84.Inverse(a.lat, a.lon, b.lat, b.lon).azi1 ?? 0;
-  return (azi + 360) % 360;
+  return a && b ? azimuthDeg(a, b) : null;
 }
 
 /** Length of a line: as the engine gives it, else the span of its legs or stations. */

@@ -1,0 +1,65 @@
+/**
+ * Battery plan: lines in flying order packed greedily into battery packs. Each pack flies out from the takeoff point
+ * to its first line, its lines with a turn between each, and back; a pack closes when the next line would push it past
+ * the usable time (endurance less the reserve). Transits are straight at the cruise speed, in still air.
+ */
+import type { BatteryPlan } from '../../contracts/flights';
+
+export interface BatteryLine {
+  number: number;
+  /** Time on the line itself, seconds. */
+  timeS: number;
+  /** Straight distance from the takeoff point to the line's start and from its end, metres. */
+  fromTakeoffM: number;
+  toTakeoffM: number;
+}
+
+export interface BatteryOptions {
+  enduranceMin: number;
+  /** Fraction of each battery kept in reserve (0.25 = land with a quarter left). */
+  reserve: number;
+  speedMps: number;
+  turnTimeS: number;
+}
+
+/** Pack the lines into batteries; throws on impossible options (expected vs got). */
+export function planBatteries(lines: readonly BatteryLine[], o: BatteryOptions): BatteryPlan {
+  if (!(o.enduranceMin > 0)) throw new RangeError(`enduranceMin must be positive, got ${o.enduranceMin}`);
+  if (!(o.reserve >= 0 && o.reserve < 1)) throw new RangeError(`reserve must be in [0, 1), got ${o.reserve}`);
+  if (!(o.speedMps > 0)) throw new RangeError(`speedMps must be positive, got ${o.speedMps}`);
+  if (!(o.turnTimeS >= 0)) throw new RangeError(`turnTimeS must be zero or more, got ${o.turnTimeS}`);
+  const usable = o.enduranceMin * 60 * (1 - o.reserve);
+  const packs: BatteryPlan['packs'] = [];
+  const notes: string[] = [];
+  let cur: { lines: BatteryLine[]; timeS: number } | null = null;
+
+  const close = () => {
+    if (!cur) return;
+    const last = cur.lines[cur.lines.length - 1];
+    const flightTimeS = cur.timeS + last.toTakeoffM / o.speedMps;
+    packs.push({ number: packs.length + 1, lines: cur.lines.map((l) => l.number), flightTimeS, overBudget: flightTimeS > usable + 1e-9 });
+    cur = null;
+  };
+
+  for (const line of lines) {
+    if (cur) {
+      const withLine = cur.timeS + o.turnTimeS + line.timeS + line.toTakeoffM / o.speedMps;
+      if (withLine <= usable + 1e-9) {
+        cur.timeS += o.turnTimeS + line.timeS;
+        cur.lines.push(line);
+        continue;
+      }
+      close();
+    }
+    cur = { lines: [line], timeS: line.fromTakeoffM / o.speedMps + line.timeS };
+  }
+  close();
+
+  for (const p of packs) {
+    if (p.overBudget) {
+      notes.push(`Line ${p.lines[0]} alone needs ${(p.flightTimeS / 60).toFixed(1)} min with its transits, more than one battery's usable ${(usable / 60).toFixed(1)} min: fly it in parts or shorten it.`);
+    }
+  }
+  notes.push(`Each pack assumes still air and a straight transit from and back to the takeoff point at ${o.speedMps} m/s; wind changes these times.`);
+  return { enduranceMin: o.enduranceMin, reserve: o.reserve, usablePerBatteryS: usable, count: packs.length, packs, notes };
+}

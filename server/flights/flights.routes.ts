@@ -1,0 +1,35 @@
+/** GET /teams/:teamId/flights (signed-off versions) and GET /teams/:teamId/flights/:versionId/leg-sheet. */
+import type { Router } from 'express';
+import { flightListSchema, legSheetSchema } from '../../contracts/flights';
+import { errors } from '../http/errors';
+import { requireTeam } from '../http/guard';
+import { sendJson } from '../http/validate';
+import { requireAnalysed } from '../reports/result-view';
+import type { RouteGroup } from '../routes';
+import { createVersionsRepository } from '../reviews/versions.repository';
+import { createFlightsRepository } from './flights.repository';
+import { buildLegSheet } from './leg-sheet.build';
+
+/** Route group: the pilot's flights. A pilot reaches signed-off versions only (the version query says so). */
+export const registerFlightRoutes: RouteGroup = (api: Router, { guards, services }) => {
+  const flights = createFlightsRepository({ db: services.db });
+  const versions = createVersionsRepository({ db: services.db });
+
+  api.get('/teams/:teamId/flights', guards.permission('flight:read'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    const rows = await flights.signedOff(teamId);
+    sendJson(res, flightListSchema, {
+      flights: rows.map((r) => ({ ...r, signedOffBy: r.signedOffBy ?? null, signedOffAt: r.signedOffAt ? r.signedOffAt.toISOString() : null, flightTimeS: r.flightTimeS === null ? null : Number(r.flightTimeS) })),
+    });
+  });
+
+  api.get('/teams/:teamId/flights/:versionId/leg-sheet', guards.permission('flight:read'), async (req, res) => {
+    const { teamId, role } = requireTeam(req);
+    const v = await versions.find({ teamId, versionId: String(req.params.versionId), role });
+    if (!v) throw errors.notFound('Flight');
+    requireAnalysed(v);
+    // Sheets change only with the version; a short private cache lets a phone keep it when the network drops.
+    res.setHeader('Cache-Control', 'private, max-age=300');
+    sendJson(res, legSheetSchema, buildLegSheet(v));
+  });
+};

@@ -1,0 +1,102 @@
+/** Build the pilot's leg sheet of one analysed version: lines in flying order, their legs, the battery plan, the checklist. */
+import type { ChecklistItem, LegSheet, SheetLeg, SheetLine } from '../../contracts/flights';
+import { reviewStateSchema } from '../../contracts/reviews';
+import { flightCautions, notSignedOffCaution } from '../reports/cautions';
+import { fmt } from '../reports/format';
+import { azimuthDeg, distanceM } from '../reports/geodesy';
+import { lineHeadingDeg, lineLengthM } from '../reports/report.build';
+import { noteText, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../reports/result-view';
+import type { VersionRecord } from '../reviews/versions.repository';
+import { planBatteries } from './battery-plan';
+
+/** A leg as the pilot reads it; time at the cruise speed over the leg's horizontal length. */
+export function sheetLeg(leg: LegView, number: number, speedMps: number): SheetLeg {
+  const lengthM = Math.abs(leg.end.distanceM - leg.start.distanceM);
+  const rise = leg.altitudeEndM - leg.altitudeStartM;
+  return {
+    number,
+    start: leg.start,
+    end: leg.end,
+    altitudeAboveTakeoffM: { start: leg.altitudeStartAboveTakeoffM, end: leg.altitudeEndAboveTakeoffM },
+    altitudeAboveDatumM: { start: leg.altitudeStartM, end: leg.altitudeEndM },
+    aglM: { min: leg.aglMinM, max: leg.aglMaxM },
+    gsdCm: { min: leg.gsdMinCm, max: leg.gsdMaxCm },
+    headingDeg: azimuthDeg(leg.start, leg.end),
+    lengthM,
+    timeS: lengthM / speedMps,
+    gradientPct: leg.gradient * 100,
+    kind: Math.abs(rise) < 0.05 ? 'level' : rise > 0 ? 'climb' : 'descent',
+  };
+}
+
+function sheetLine(line: LineView, number: number, speedMps: number): SheetLine {
+  const first = line.legs[0]?.start ?? line.stations[0];
+  const last = line.legs[line.legs.length - 1]?.end ?? line.stations[line.stations.length - 1];
+  const lengthM = lineLengthM(line);
+  return {
+    number,
+    headingDeg: lineHeadingDeg(line),
+    lengthM,
+    timeS: lengthM / speedMps,
+    photoCount: line.stations.length,
+    start: { lon: first.lon, lat: first.lat },
+    end: { lon: last.lon, lat: last.lat },
+    legs: line.legs.map((l, i) => sheetLeg(l, i + 1, speedMps)),
+    warnings: [...(line.warnings ?? []).map(noteText), ...(line.unmet ?? []).map((u) => u.message)],
+  };
+}
+
+/** The sheet; `now` is injected for reproducible output. */
+export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegSheet {
+  const mission = readMission(v.input);
+  const view = readResult(v.result);
+  const state = reviewStateSchema.parse(v.reviewState);
+  const signedOff = state === 'signed_off';
+  const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
+  const lines = view.lines.map((l, i) => sheetLine(l, i + 1, mission.speedMps));
+  const takeoff = mission.takeoff;
+  const batteries = planBatteries(
+    lines.map((l) => ({ number: l.number, timeS: l.timeS, fromTakeoffM: distanceM(takeoff, l.start), toTakeoffM: distanceM(l.end, takeoff) })),
+    { enduranceMin: mission.enduranceMin, reserve: mission.batteryReserve, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS },
+  );
+  const groundM = takeoffGroundM(view);
+  const cautions = flightCautions({ surfaceKind, verticalDatum: v.siteVerticalDatum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM });
+  if (!signedOff) cautions.unshift(notSignedOffCaution);
+
+  const checklist: ChecklistItem[] = [
+    ...cautions.map((text, i) => ({ id: `caution-${i + 1}`, kind: 'caution' as const, text })),
+    {
+      id: 'takeoff-height',
+      kind: 'check',
+      text: `Take off from ${takeoff.lat.toFixed(6)}, ${takeoff.lon.toFixed(6)}: the sheet assumes its ground is ${fmt.metres(groundM)} above ${v.siteVerticalDatum}. Check it on site; from another spot every altitude above takeoff shifts by the height difference.`,
+    },
+    { id: 'limits', kind: 'check', text: `Confirm the local altitude limit, airspace and permissions for this site; the plan's limit is ${fmt.metres(mission.maxAglM)} above ground.` },
+    { id: 'line-of-sight', kind: 'check', text: 'Plan where you and any observer stand to keep the aircraft in sight along every line.' },
+    { id: 'wind', kind: 'check', text: 'Check the wind forecast and on site: strong wind drifts the aircraft off the lines and shortens battery time.' },
+    { id: 'batteries', kind: 'check', text: `Charge ${batteries.count} ${batteries.count === 1 ? 'battery' : 'batteries'} for this plan (reserve ${fmt.percent(mission.batteryReserve)} each), plus a spare.` },
+  ];
+
+  return {
+    version: {
+      id: v.id,
+      planId: v.planId,
+      number: v.number,
+      planName: v.planName,
+      projectName: v.projectName,
+      client: v.projectClient,
+      reviewState: state,
+      signedOff,
+      signedOffBy: signedOff ? (v.signedOffByName ?? '(former member)') : null,
+      signedOffAt: signedOff && v.signedOffAt ? v.signedOffAt.toISOString() : null,
+    },
+    units: v.projectUnits === 'imperial' ? 'imperial' : 'metric',
+    datum: { name: v.siteVerticalDatum, takeoff: { lon: takeoff.lon, lat: takeoff.lat }, takeoffGroundM: groundM },
+    speedMps: mission.speedMps,
+    altitudeMode: mission.mode,
+    lines,
+    batteries,
+    checklist,
+    cautions,
+    generatedAt: now.toISOString(),
+  };
+}

@@ -1,0 +1,110 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { legSheetSchema, type LegSheet } from '../../contracts/flights';
+import { createVersion, freshTeam, syntheticResult, type FreshTeam } from '../support/fixtures';
+import { startTestServer, type TestServer } from '../support/test-server';
+
+let srv: TestServer;
+let team: FreshTeam;
+
+beforeAll(async () => {
+  srv = await startTestServer({ web: false });
+  team = await freshTeam(srv, 'flights');
+});
+afterAll(async () => srv?.stop());
+
+const sheetPath = (versionId: string) => `/api/teams/${team.teamId}/flights/${versionId}/leg-sheet`;
+
+describe('the pilot sees signed-off versions only', () => {
+  it('lists the team\'s signed-off versions and nothing else', async () => {
+    const made = {} as Record<string, string>;
+    for (const state of ['draft', 'in_review', 'returned', 'signed_off'] as const) {
+      made[state] = (await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: state, planName: `Plan ${state}` })).versionId;
+    }
+    const other = await freshTeam(srv, 'flights-other');
+    await createVersion(srv, { teamId: other.teamId, createdBy: other.users.planner.id, reviewState: 'signed_off' });
+    const res = await team.clients.pilot.get(`/api/teams/${team.teamId}/flights`);
+    expect(res.status).toBe(200);
+    expect(res.body.flights.map((f: { versionId: string }) => f.versionId)).toEqual([made.signed_off]);
+    const result = syntheticResult();
+    expect(res.body.flights[0]).toMatchObject({
+      planName: 'Plan signed_off',
+      lineCount: result.lines.length,
+      photoCount: result.summary.photoCount,
+      flightTimeS: result.summary.flightTimeS,
+    });
+
+    expect((await team.clients.pilot.get(sheetPath(made.signed_off))).status).toBe(200);
+    for (const state of ['draft', 'in_review', 'returned'] as const) {
+      const r = await team.clients.pilot.get(sheetPath(made[state]));
+      expect(r.status, state).toBe(404); // as if it did not exist
+    }
+  });
+
+  it('shows a planner an unsigned version, stamped as not for flight', async () => {
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review' });
+    const r = await team.clients.planner.get(sheetPath(v.versionId));
+    expect(r.status).toBe(200);
+    expect(r.body.version.signedOff).toBe(false);
+    expect(r.body.cautions[0]).toMatch(/^NOT SIGNED OFF/);
+  });
+
+  it('answers 404 for another team\'s version', async () => {
+    const other = await freshTeam(srv, 'flights-other2');
+    const v = await createVersion(srv, { teamId: other.teamId, createdBy: other.users.planner.id, reviewState: 'signed_off' });
+    expect((await team.clients.pilot.get(sheetPath(v.versionId))).status).toBe(404);
+    expect((await team.clients.owner.get(sheetPath(v.versionId))).status).toBe(404);
+  });
+});
+
+describe('the leg sheet', () => {
+  it('gives lines in flying order with their legs, altitudes above takeoff and datum, heading, length and time', async () => {
+    const result = syntheticResult();
+    const stored = { ...result, lines: [...result.lines].reverse() }; // stored out of order: the sheet sorts by index
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', result: stored });
+    const res = await team.clients.pilot.get(sheetPath(v.versionId));
+    expect(res.headers.get('cache-control')).toBe('private, max-age=300');
+    const sheet: LegSheet = legSheetSchema.parse(res.body);
+    expect(sheet.lines.map((l) => l.number)).toEqual([1, 2, 3, 4, 5]);
+    expect(sheet.datum.name).toBe('EGM96 geoid');
+    expect(sheet.speedMps).toBe(10);
+
+    result.lines.forEach((line, i) => {
+      const s = sheet.lines[i];
+      const leg = line.legs[0];
+      expect(s.legs).toHaveLength(1);
+      expect(s.legs[0].altitudeAboveTakeoffM).toEqual({ start: leg.altitudeStartAboveTakeoffM, end: leg.altitudeEndAboveTakeoffM });
+      expect(s.legs[0].altitudeAboveDatumM).toEqual({ start: leg.altitudeStartM, end: leg.altitudeEndM });
+      expect(s.legs[0].aglM).toEqual({ min: leg.aglMinM, max: leg.aglMaxM });
+      const lengthM = leg.end.distanceM - leg.start.distanceM;
+      expect(s.legs[0].lengthM).toBeCloseTo(lengthM, 9);
+      expect(s.legs[0].timeS).toBeCloseTo(lengthM / 10, 9);
+      expect(s.legs[0].kind).toBe('level');
+      // Lines run along UTM grid east-west, alternating; geodesic azimuths differ from 90/270 by the meridian
+      // convergence, gamma ~ dLon x sin(lat) ~ 0.18 x sin(54.25) ~ 0.15 degrees here (relation from memory).
+      const expected = i % 2 === 0 ? 90 : 270;
+      expect(Math.abs(s.legs[0].headingDeg! - expected)).toBeLessThan(0.5);
+      expect(Math.abs(s.headingDeg! - expected)).toBeLessThan(0.5);
+    });
+    // The takeoff point's ground: datum altitude minus altitude above takeoff.
+    const leg = result.lines[0].legs[0];
+    expect(sheet.datum.takeoffGroundM).toBeCloseTo(leg.altitudeStartM - leg.altitudeStartAboveTakeoffM, 9);
+  });
+
+  it('plans the batteries and carries the pre-flight checklist with the cautions', async () => {
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', surfaceKind: 'bare-earth' });
+    const sheet: LegSheet = (await team.clients.pilot.get(sheetPath(v.versionId))).body;
+    // 25 min endurance, 25 % reserve (the fixture's mission): 1125 s usable per battery.
+    expect(sheet.batteries.usablePerBatteryS).toBe(1125);
+    expect(sheet.batteries.packs.flatMap((p) => p.lines)).toEqual([1, 2, 3, 4, 5]);
+    expect(sheet.batteries.count).toBe(sheet.batteries.packs.length);
+    for (const p of sheet.batteries.packs) expect(p.flightTimeS).toBeLessThanOrEqual(1125);
+    const ids = sheet.checklist.map((c) => c.id);
+    expect(ids).toEqual(expect.arrayContaining(['takeoff-height', 'limits', 'line-of-sight', 'wind', 'batteries']));
+    const text = sheet.checklist.map((c) => c.text).join('\n');
+    expect(text).toMatch(/bare earth: trees, masts/);
+    expect(text).toMatch(/Local rules govern/);
+    expect(text).toMatch(/line of sight/);
+    expect(text).toMatch(/Wind/);
+    expect(sheet.checklist.find((c) => c.id === 'takeoff-height')!.text).toContain(`${sheet.datum.takeoffGroundM!.toFixed(1)} m above EGM96 geoid`);
+  });
+});

@@ -1,0 +1,42 @@
+import { describe, expect, it } from 'vitest';
+import { planBatteries, type BatteryLine } from '../../server/flights/battery-plan';
+
+// Worked by hand: 10 min endurance, 20 % reserve -> 480 s usable per battery; 10 m/s; 10 s per turn.
+const opts = { enduranceMin: 10, reserve: 0.2, speedMps: 10, turnTimeS: 10 };
+const line = (number: number, timeS: number, fromTakeoffM = 300, toTakeoffM = 300): BatteryLine => ({ number, timeS, fromTakeoffM, toTakeoffM });
+
+describe('the battery plan', () => {
+  it('packs lines in flying order until the next would pass the usable time', () => {
+    // Pack 1: 30 s out + 100 + 10 + 100 + 10 + 100 = 350 s, + 30 s back = 380 s; a fourth line would make 490 s > 480 s.
+    const plan = planBatteries([line(1, 100), line(2, 100), line(3, 100), line(4, 100), line(5, 100)], opts);
+    expect(plan.usablePerBatteryS).toBe(480);
+    expect(plan.packs.map((p) => p.lines)).toEqual([[1, 2, 3], [4, 5]]);
+    expect(plan.packs[0].flightTimeS).toBeCloseTo(380, 9);
+    // Pack 2: 30 + 100 + 10 + 100 + 30 = 270 s.
+    expect(plan.packs[1].flightTimeS).toBeCloseTo(270, 9);
+    expect(plan.count).toBe(2);
+    expect(plan.packs.every((p) => !p.overBudget)).toBe(true);
+  });
+
+  it('flags a line that alone needs more than one battery', () => {
+    const plan = planBatteries([line(1, 100), line(2, 500)], opts);
+    expect(plan.packs.map((p) => [p.lines, p.overBudget])).toEqual([[[1], false], [[2], true]]);
+    expect(plan.notes[0]).toMatch(/^Line 2 alone needs 9\.3 min/);
+  });
+
+  it('says its figures assume still air', () => {
+    expect(planBatteries([line(1, 10)], opts).notes.at(-1)).toMatch(/still air/);
+  });
+
+  it('throws on bad options, saying what it got', () => {
+    expect(() => planBatteries([], { ...opts, reserve: 1 })).toThrow(/reserve must be in \[0, 1\), got 1/);
+    expect(() => planBatteries([], { ...opts, speedMps: 0 })).toThrow(/speedMps must be positive/);
+  });
+
+  it('does not mutate its input', () => {
+    const lines = [line(1, 100), line(2, 100)];
+    const copy = structuredClone(lines);
+    planBatteries(lines, opts);
+    expect(lines).toEqual(copy);
+  });
+});
