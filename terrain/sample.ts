@@ -1,9 +1,9 @@
 /** Sampling a grid at points given in any CRS, and along WGS 84 polylines at a fixed geodesic ground step. */
-import geodesic from 'geographiclib-geodesic';
 import type { Grid, GridCrs } from './grid';
 import { sampleBilinear, sampleNearest } from './grid';
 import { WGS84, createTransform } from './crs';
 import { TerrainError, check } from './errors';
+import { lineStations } from './geodesic-line';
 
 /** How a height is read between pixel centres. */
 export type SampleMethod = 'bilinear' | 'nearest';
@@ -13,10 +13,6 @@ export interface SampleOptions {
   crs?: GridCrs;
   method?: SampleMethod;
 }
-
-const { Geodesic } = geodesic as unknown as typeof import('geographiclib-geodesic');
-const WGS84_GEODESIC = Geodesic.WGS84;
-const LATLON = Geodesic.LATITUDE | Geodesic.LONGITUDE;
 
 function checkMethod(method: unknown): SampleMethod {
   if (method === undefined) return 'bilinear';
@@ -131,42 +127,16 @@ function nearestLoop(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, o
   return unknown;
 }
 
-/** Geodesic positions every `stepM` metres along a WGS 84 polyline (plus its end point). */
+/** Geodesic positions every `stepM` metres along a WGS 84 polyline (plus its end point), distances exact. */
 export function densifyLine(lineLonLat: ReadonlyArray<readonly [number, number]>, stepM: number): { lon: Float64Array; lat: Float64Array; distanceM: Float64Array } {
-  check(Array.isArray(lineLonLat) && lineLonLat.length >= 2, `A line needs at least two [lon, lat] vertices, got ${Array.isArray(lineLonLat) ? lineLonLat.length : typeof lineLonLat}.`);
-  check(Number.isFinite(stepM) && stepM > 0, `stepM must be a positive number of metres, got ${stepM}.`);
-  const segs = [];
-  let total = 0;
-  for (let i = 0; i < lineLonLat.length; i++) {
-    const [lon, lat] = lineLonLat[i];
-    check(Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lat) <= 90, `Vertex ${i} must be [lon, lat] in degrees, got ${JSON.stringify(lineLonLat[i])}.`);
-    if (i === 0) continue;
-    const [lon0, lat0] = lineLonLat[i - 1];
-    const line = WGS84_GEODESIC.InverseLine(lat0, lon0, lat, lon, LATLON | Geodesic.DISTANCE_IN);
-    segs.push({ line, startM: total, lengthM: line.s13 });
-    total += line.s13;
-  }
-  const steps = Math.floor(total / stepM + 1e-9);
-  check(steps < 50_000_000, `A step of ${stepM} m over ${total.toFixed(0)} m gives ${steps} samples; use a longer step.`);
-  const endExtra = total - steps * stepM > 1e-6 ? 1 : 0; // the end point, unless a step lands on it (to a micrometre)
-  const n = steps + 1 + endExtra;
-  const lon = new Float64Array(n), lat = new Float64Array(n), distanceM = new Float64Array(n);
-  let s = 0;
-  for (let i = 0; i < n; i++) {
-    const d = i <= steps ? i * stepM : total;
-    while (s < segs.length - 1 && d > segs[s].startM + segs[s].lengthM) s++;
-    const seg = segs[s];
-    const p = seg.line.Position(d - seg.startM, LATLON);
-    lon[i] = p.lon2 as number;
-    lat[i] = p.lat2 as number;
-    distanceM[i] = d;
-  }
+  const { lon, lat, distanceM } = lineStations(lineLonLat, stepM);
   return { lon, lat, distanceM };
 }
 
 /**
- * Heights every `stepM` metres of geodesic distance along a WGS 84 [lon, lat] polyline (GeographicLib geodesics, Karney 2013).
- * One transform pass to the grid CRS and one sampling pass; elevationM is NaN where unknown.
+ * Heights every `stepM` metres of geodesic distance along a WGS 84 [lon, lat] polyline (GeographicLib geodesics,
+ * Karney 2013). Positions and grid coordinates come exact at 25 m knots and linear between them (see
+ * geodesic-line.ts for the error bound), then one sampling pass; elevationM is NaN where unknown.
  */
 export function sampleAlongLine(
   grid: Grid,
@@ -175,11 +145,8 @@ export function sampleAlongLine(
 ): { lon: Float64Array; lat: Float64Array; distanceM: Float64Array; elevationM: Float64Array; unknownCount: number } {
   check(opts !== null && typeof opts === 'object', 'sampleAlongLine needs options { stepM }.');
   const method = checkMethod(opts.method);
-  const { lon, lat, distanceM } = densifyLine(lineLonLat, opts.stepM);
-  const xs = Float64Array.from(lon);
-  const ys = Float64Array.from(lat);
-  createTransform(WGS84, grid.crs).forwardArrays(xs, ys);
+  const { lon, lat, distanceM, x, y } = lineStations(lineLonLat, opts.stepM, grid.crs);
   const elevationM = new Float64Array(lon.length);
-  const unknownCount = sampleGridCoords(grid, xs, ys, elevationM, method);
+  const unknownCount = sampleGridCoords(grid, x as Float64Array, y as Float64Array, elevationM, method);
   return { lon, lat, distanceM, elevationM, unknownCount };
 }

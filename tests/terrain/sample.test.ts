@@ -5,6 +5,8 @@ import { WGS84, createTransform, crsFromEpsg } from '../../terrain/crs';
 import { densifyLine, sampleAlongLine, sampleAt, sampleGridCoords, samplePoints } from '../../terrain/sample';
 import { readDem } from '../../terrain/dem';
 import { TerrainError } from '../../terrain/errors';
+import { lineStations } from '../../terrain/geodesic-line';
+import geodesic from 'geographiclib-geodesic';
 
 const fixture = (name: string) => readFileSync(new URL(`../fixtures/dem/${name}`, import.meta.url));
 // GDAL 3.6.2 reads and bilinear samples (gdal.Warp -r bilinear to a 1x1 output), from tests/fixtures/dem/make-fixtures.py
@@ -166,6 +168,32 @@ describe('sampleAlongLine', () => {
     expect(unknown).toBeGreaterThan(35); // the last ~40 m lie over the nodata block
     expect(unknown).toBeLessThan(45);
     expect(r.elevationM[0]).toBe(300);
+  });
+
+  it('puts stations within 1 mm of exact geodesic positions and their exact UTM coordinates (geographiclib-geodesic, proj4)', () => {
+    const { Geodesic } = geodesic as unknown as typeof import('geographiclib-geodesic');
+    const utm = crsFromEpsg(32633);
+    const toUtm = createTransform(WGS84, utm);
+    for (const line of [[[14.9, 60.2], [15.1, 60.25]], [[15.0, -33.9], [15.0, -33.99]], [[15.2, 50.1], [15.21, 50.1], [15.21, 50.12]]] as Array<Array<[number, number]>>) {
+      const g = createGrid({ width: 2, height: 2, data: new Float32Array(4).fill(1), transform: [0, 1, 0, 0, 0, -1], crs: utm });
+      const r = sampleAlongLine(g, line, { stepM: 7.3 });
+      const d = densifyLine(line, 7.3);
+      expect(Array.from(d.lon)).toEqual(Array.from(r.lon));
+      const g0 = Geodesic.WGS84.InverseLine(line[0][1], line[0][0], line[1][1], line[1][0]);
+      for (let i = 0; i < r.distanceM.length && r.distanceM[i] <= g0.s13; i += 37) {
+        const exact = g0.Position(r.distanceM[i]);
+        // position error in metres, from the inverse problem between the station and the exact point
+        const err = Geodesic.WGS84.Inverse(r.lat[i], r.lon[i], exact.lat2 as number, exact.lon2 as number).s12 as number;
+        expect(err, `station ${i}`).toBeLessThan(1e-3);
+      }
+      // the grid coordinates the sampling pass uses: exact UTM of the exact geodesic point, within 1 mm
+      const st = lineStations(line, 7.3, utm);
+      for (let i = 0; i < st.distanceM.length && st.distanceM[i] <= g0.s13; i += 37) {
+        const exact = g0.Position(st.distanceM[i]);
+        const [ex, ey] = toUtm.forward(exact.lon2 as number, exact.lat2 as number);
+        expect(Math.hypot((st.x as Float64Array)[i] - ex, (st.y as Float64Array)[i] - ey), `station ${i}`).toBeLessThan(1e-3);
+      }
+    }
   });
 
   it('throws on bad input', () => {
