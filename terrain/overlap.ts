@@ -1,0 +1,215 @@
+/** Per-station GSD and forward/side overlap from the terrain actually under each photo (edge rays cast onto the grid). */
+import type { Camera } from './camera';
+import { pixelPitchMm } from './camera';
+import type { HeightAt } from './footprint';
+import { cameraToLocal, castPixel } from './footprint';
+
+/** The photos of one flight line: station positions (local metres), altitudes and the flight direction. */
+export interface LinePhotos {
+  headingDeg: number;
+  /** Lines with the same row number fly the same track (pieces of one line over a concave area); rows are numbered across the area. */
+  row: number;
+  x: Float64Array;
+  y: Float64Array;
+  altitudeM: Float64Array;
+}
+
+/** Targets that stations are checked against. */
+export interface OverlapTargets {
+  forwardOverlap: number;
+  sideOverlap: number;
+  gsdMinCm: number;
+  gsdMaxCm: number;
+  maxAglM: number;
+  clearanceM: number;
+  /** The planned height above ground the layout was made for (for the reasons' wording). */
+  plannedHeightM: number;
+}
+
+/** Why a station is flagged. */
+export type StationFlagCode =
+  | 'ground-unknown'
+  | 'footprint-off-grid'
+  | 'forward-overlap-low'
+  | 'side-overlap-low'
+  | 'gsd-coarse'
+  | 'gsd-fine'
+  | 'above-max-agl'
+  | 'below-clearance';
+
+/** A flag with the reason in words. */
+export interface StationFlag {
+  code: StationFlagCode;
+  reason: string;
+}
+
+/** What one photo achieves over the real terrain. */
+export interface StationResult {
+  groundM: number | null;
+  aglM: number | null;
+  gsdCm: number | null;
+  /** Overlap with the previous photo of the line (null for the first photo or where unknown), fraction. */
+  forwardOverlap: number | null;
+  /** Least overlap with the nearest photo of a neighbouring line (null where the line has no neighbour there). */
+  sideOverlap: number | null;
+  flags: StationFlag[];
+}
+
+const DEG = Math.PI / 180;
+/** Numbers stored per station by `photoExtents`. */
+export const STRIDE = 15;
+const f2 = (v: number) => v.toFixed(2);
+const f1 = (v: number) => v.toFixed(1);
+
+/**
+ * Ground extents of each photo in the layout frame (a along `layoutHeadingDeg`, c to its right):
+ * for three image columns (left edge, centre, right edge) the along-track interval, for three image rows
+ * (front edge, centre, back edge) the across-track interval and the row's along-track position; 15 numbers
+ * a station (STRIDE), NaN where a ray missed.
+ * Rays go through the image edge points (Brown distortion included) to the grid for the photo's real pose.
+ */
+export function photoExtents(camera: Camera, heightAt: HeightAt, line: LinePhotos, layoutHeadingDeg: number): Float64Array {
+  const n = line.x.length;
+  const out = new Float64Array(n * STRIDE).fill(NaN);
+  const W = camera.imageWidthPx, H = camera.imageHeightPx;
+  const alongIsWidth = camera.alongTrackSide === 'width';
+  // image point at across fraction p and along fraction q (q = 0 front), in pixels
+  const px = (p: number, q: number): [number, number] => (alongIsWidth ? [W * (1 - q), H * p] : [W * p, H * q]);
+  const th = layoutHeadingDeg * DEG;
+  const sa = Math.sin(th), ca = Math.cos(th);
+  const pts: Array<[number, number]> = [];
+  for (const q of [0, 0.5, 1]) for (const p of [0, 0.5, 1]) pts.push(px(p, q));
+  const A = new Float64Array(9), C = new Float64Array(9);
+  for (let s = 0; s < n; s++) {
+    const pose = { xM: line.x[s], yM: line.y[s], altitudeM: line.altitudeM[s], yawDeg: line.headingDeg };
+    const rot = cameraToLocal(camera, pose);
+    const startHeightM = heightAt(pose.xM, pose.yM);
+    for (let k = 0; k < 9; k++) {
+      if (k === 4) continue; // the image centre is not an edge
+      const g = castPixel(camera, pose, rot, pts[k][0], pts[k][1], heightAt, { startHeightM });
+      A[k] = g ? g[0] * sa + g[1] * ca : NaN;
+      C[k] = g ? g[0] * ca - g[1] * sa : NaN;
+    }
+    const o = s * STRIDE;
+    for (let col = 0; col < 3; col++) {
+      const front = A[col], back = A[6 + col]; // rows q = 0 and q = 1 of this column
+      out[o + col * 2] = Math.min(front, back);
+      out[o + col * 2 + 1] = Math.max(front, back);
+    }
+    for (let row = 0; row < 3; row++) {
+      const left = C[row * 3], right = C[row * 3 + 2];
+      out[o + 6 + row * 2] = Math.min(left, right);
+      out[o + 6 + row * 2 + 1] = Math.max(left, right);
+      out[o + 12 + row] = (A[row * 3] + A[row * 3 + 2]) / 2;
+    }
+  }
+  return out;
+}
+
+/**
+ * Shared part of two intervals as a fraction of their mean length, in [0, 1]; NaN if either is unknown.
+ * For equal photos this is the textbook overlap 1 - B / G; over uneven ground (photos of different sizes)
+ * the mean keeps it symmetric and growing as either photo grows, as the overlap physically does.
+ */
+export function intervalOverlap(a0: number, a1: number, b0: number, b1: number): number {
+  const shared = Math.min(a1, b1) - Math.max(a0, b0);
+  const mean = (a1 - a0 + (b1 - b0)) / 2;
+  if (!(mean > 0) || Number.isNaN(shared)) return NaN;
+  return shared <= 0 ? 0 : Math.min(1, shared / mean);
+}
+
+/**
+ * GSD, forward and side overlap and flags at every station of every line. Forward overlap is the least,
+ * over the left, centre and right image columns, of the along-track overlap with the previous photo; side
+ * overlap the least, over the image rows, of the across-track overlap with the nearest-along-track photo of
+ * each neighbouring row. Every figure comes from the photos' ground extents over the real terrain.
+ */
+export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], layoutHeadingDeg: number, t: OverlapTargets): StationResult[][] {
+  const ext = lines.map((l) => photoExtents(camera, heightAt, l, layoutHeadingDeg));
+  const th = layoutHeadingDeg * DEG;
+  const sa = Math.sin(th);
+  const ca = Math.cos(th);
+  // every row's photos sorted by along-track position, for the nearest-neighbour search
+  const rows = new Map<number, Array<{ line: number; s: number; a: number }>>();
+  lines.forEach((l, li) => {
+    const list = rows.get(l.row) ?? [];
+    for (let s = 0; s < l.x.length; s++) list.push({ line: li, s, a: l.x[s] * sa + l.y[s] * ca });
+    rows.set(l.row, list);
+  });
+  for (const list of rows.values()) list.sort((p, q) => p.a - q.a);
+  const rowKeys = [...rows.keys()].sort((p, q) => p - q);
+  const pitchOverF = pixelPitchMm(camera) / camera.focalLengthMm;
+  return lines.map((l, li) => {
+    const e = ext[li];
+    const ri = rowKeys.indexOf(l.row);
+    const neighbours = [rowKeys[ri - 1], rowKeys[ri + 1]].filter((r) => r !== undefined).map((r) => rows.get(r)!);
+    const out: StationResult[] = [];
+    for (let s = 0; s < l.x.length; s++) {
+      const flags: StationFlag[] = [];
+      const g = heightAt(l.x[s], l.y[s]);
+      const groundM = Number.isFinite(g) ? g : null;
+      const aglM = groundM === null ? null : l.altitudeM[s] - groundM;
+      const gsdCm = aglM === null || aglM <= 0 ? null : aglM * pitchOverF * 100;
+      const o = s * STRIDE;
+      let complete = true;
+      for (let k = 0; k < STRIDE; k++) if (Number.isNaN(e[o + k])) complete = false;
+      let forwardOverlap: number | null = null;
+      if (s > 0) {
+        let m = Infinity;
+        const p = o - STRIDE;
+        for (let col = 0; col < 3; col++) m = Math.min(m, intervalOverlap(e[p + col * 2], e[p + col * 2 + 1], e[o + col * 2], e[o + col * 2 + 1]));
+        forwardOverlap = Number.isNaN(m) ? null : m;
+      }
+      let sideOverlap: number | null = null;
+      for (const list of neighbours) {
+        const v = sideWith(e, o, list, ext, l.x[s] * sa + l.y[s] * ca);
+        if (v !== null && (sideOverlap === null || v < sideOverlap)) sideOverlap = v;
+      }
+      if (groundM === null) flags.push({ code: 'ground-unknown', reason: 'No elevation data under this photo (nodata or off the grid); its height above ground is unknown.' });
+      else if (!complete) flags.push({ code: 'footprint-off-grid', reason: 'Part of this photo\'s footprint lies off the grid or over nodata; its overlaps there are unknown.' });
+      if (forwardOverlap !== null && forwardOverlap < t.forwardOverlap - 1e-9) {
+        flags.push({ code: 'forward-overlap-low', reason: `Forward overlap ${f2(forwardOverlap)} is below the target ${f2(t.forwardOverlap)}: ${terrainWhy(aglM, t.plannedHeightM)}` });
+      }
+      if (sideOverlap !== null && sideOverlap < t.sideOverlap - 1e-9) {
+        flags.push({ code: 'side-overlap-low', reason: `Side overlap ${f2(sideOverlap)} is below the target ${f2(t.sideOverlap)}: ${terrainWhy(aglM, t.plannedHeightM)}` });
+      }
+      if (gsdCm !== null && gsdCm > t.gsdMaxCm + 1e-9) flags.push({ code: 'gsd-coarse', reason: `GSD ${f2(gsdCm)} cm is coarser than the allowed ${f2(t.gsdMaxCm)} cm (height above ground ${f1(aglM!)} m).` });
+      if (gsdCm !== null && gsdCm < t.gsdMinCm - 1e-9) flags.push({ code: 'gsd-fine', reason: `GSD ${f2(gsdCm)} cm is finer than the band's ${f2(t.gsdMinCm)} cm (height above ground ${f1(aglM!)} m): more photos than needed, smaller footprints.` });
+      if (aglM !== null && aglM > t.maxAglM + 1e-6) flags.push({ code: 'above-max-agl', reason: `Height above ground ${f1(aglM)} m exceeds the ${f1(t.maxAglM)} m limit.` });
+      if (aglM !== null && aglM < t.clearanceM - 1e-6) flags.push({ code: 'below-clearance', reason: `Height above ground ${f1(aglM)} m is below the ${f1(t.clearanceM)} m clearance.` });
+      out.push({ groundM, aglM, gsdCm, forwardOverlap, sideOverlap, flags });
+    }
+    return out;
+  });
+}
+
+function terrainWhy(aglM: number | null, plannedM: number): string {
+  if (aglM === null) return 'the ground under the photos is unknown.';
+  const d = plannedM - aglM;
+  if (d > 0.5) return `the ground here is ${f1(d)} m closer to the camera than planned (height above ground ${f1(aglM)} m, planned ${f1(plannedM)} m), so each photo covers less.`;
+  return `the terrain under this photo and its neighbour differs (height above ground ${f1(aglM)} m, planned ${f1(plannedM)} m).`;
+}
+
+/** Least across-track overlap of photo `o` with the nearest-along-track photo in a neighbouring row. */
+function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: number; a: number }>, ext: Float64Array[], a: number): number | null {
+  if (list.length === 0) return null;
+  let lo = 0, hi = list.length - 1;
+  while (hi - lo > 1) { const m = (lo + hi) >> 1; if (list[m].a <= a) lo = m; else hi = m; }
+  const near = Math.abs(list[lo].a - a) <= Math.abs(list[hi].a - a) ? list[lo] : list[hi];
+  const en = ext[near.line];
+  const p = near.s * STRIDE;
+  // no along-track overlap at all: the neighbouring row does not reach this far (edge of the area)
+  const along = intervalOverlap(e[o + 2], e[o + 3], en[p + 2], en[p + 3]);
+  if (!(along > 0)) return null;
+  // match each image row with the neighbour's row nearest along track (the neighbour may fly the other way)
+  let m = Infinity;
+  for (let r = 0; r < 3; r++) {
+    let best = 1, bestD = Infinity;
+    for (let q = 0; q < 3; q++) {
+      const d = Math.abs(en[p + 12 + q] - e[o + 12 + r]);
+      if (d < bestD) { bestD = d; best = q; }
+    }
+    m = Math.min(m, intervalOverlap(e[o + 6 + r * 2], e[o + 7 + r * 2], en[p + 6 + best * 2], en[p + 7 + best * 2]));
+  }
+  return Number.isNaN(m) ? null : m;
+}
