@@ -1,7 +1,7 @@
 /** `npm start`: database, migrations, demo seed, web build, then the app and API on one port. */
 import { bootServer } from '../server/boot';
 import { buildConfig, parseEnv } from '../server/config';
-import { demoPassword, demoUsers } from '../server/seed/demo-team';
+import { demoPassword, demoUsers } from '../contracts/demo-team';
 import { seedDemo } from '../server/seed/seed';
 import { startCluster } from './lib/postgres';
 import { localAuthSecret } from './lib/secrets';

@@ -1,19 +1,15 @@
 /** A discreet list of the demo team's accounts on the sign-in page (the product ships with an invented demo team). */
 import { Pressable, StyleSheet, View } from 'react-native';
-import { roleLabels, type Role } from '../../contracts/roles';
+import { demoPassword, demoUsers } from '../../contracts/demo-team';
+import { roleLabels } from '../../contracts/roles';
 import { colors, layout, radii, space } from '../theme';
 import { Text } from '../ui';
 
-/** The seeded demo users (fictional people on the reserved .example domain); the server's seed creates the same list. */
-export const demoAccounts: ReadonlyArray<{ role: Role; email: string }> = [
-  { role: 'owner', email: 'ada.pennick@brackenmoor.example' },
-  { role: 'planner', email: 'tomas.vell@brackenmoor.example' },
-  { role: 'surveyor', email: 'rhea.castellan@brackenmoor.example' },
-  { role: 'pilot', email: 'jory.marsh@brackenmoor.example' },
-];
+/** The seeded demo users (fictional people on the reserved .example domain), from the one list the seed uses. */
+export const demoAccounts = demoUsers;
 
 /** The demo team's shared password, as documented in the README and printed by the server at start. */
-export const demoPasswordHint = 'loftline-demo';
+export const demoPasswordHint = demoPassword;
 
 /** Tapping an account fills the form with it; nothing is submitted on the user's behalf. */
 export function DemoAccounts({ onPick }: { onPick: (email: string, password: string) => void }) {

@@ -4,7 +4,7 @@ import { eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { member, organization, user } from '../../db/schema';
 import type { Auth } from '../auth/auth';
-import { demoPassword, demoTeam, demoUsers } from './demo-team';
+import { demoPassword, demoTeam, demoUsers } from '../../contracts/demo-team';
 
 export type SeedStep = (ctx: { db: Db; auth: Auth; teamId: string; userIds: Record<string, string> }) => Promise<void>;
 

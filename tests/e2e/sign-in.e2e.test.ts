@@ -7,7 +7,7 @@ import path from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../contracts/roles';
-import { demoPassword, demoTeam, demoUsers } from '../../server/seed/demo-team';
+import { demoPassword, demoTeam, demoUsers } from '../../contracts/demo-team';
 import { launchBrowser, screenshotDir, viewports } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/test-server';
 

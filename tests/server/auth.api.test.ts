@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoPassword, demoUsers } from '../../server/seed/demo-team';
+import { demoPassword, demoUsers } from '../../contracts/demo-team';
 import { ApiClient, uniqueEmail } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
 

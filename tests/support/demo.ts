@@ -2,7 +2,7 @@
 import { eq } from 'drizzle-orm';
 import { organization } from '../../db/schema';
 import type { Role } from '../../contracts/roles';
-import { demoPassword, demoTeam, demoUsers } from '../../server/seed/demo-team';
+import { demoPassword, demoTeam, demoUsers } from '../../contracts/demo-team';
 import { ApiClient } from './http-client';
 import type { TestServer } from './test-server';
 

@@ -1,5 +1,5 @@
 /** The invented demo team: one user per role. All names are fictional; the addresses use the reserved .example domain. */
-import type { Role } from '../../contracts/roles';
+import type { Role } from './roles';
 
 export const demoPassword = 'loftline-demo';
 
