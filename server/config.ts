@@ -31,6 +31,8 @@ const envSchema = z.object({
   /** Days a team invitation stays valid. */
   INVITATION_DAYS: z.coerce.number().positive().max(90).default(7),
   WORKERS: z.coerce.number().int().min(0).max(16).default(1),
+  /** Worker threads for DEM decoding and analyses in this process; 0 runs them on the main thread. */
+  TERRAIN_THREADS: z.coerce.number().int().min(0).max(16).default(1),
   DEV_OUTBOX: bool.optional(),
   NODE_ENV: z.string().default('development'),
 });

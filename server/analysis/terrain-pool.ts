@@ -1,0 +1,128 @@
+/**
+ * Runs the heavy terrain tasks off the main thread, so decoding a large DEM or analysing a big plan never stalls
+ * the API: a small pool of worker threads started on first use, one task per thread at a time. `threads: 0`
+ * runs the tasks inline (seed scripts, debugging).
+ */
+import { Worker } from 'node:worker_threads';
+import type { PlanResult } from '../../terrain/index';
+import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
+import { analyseMission, inspectDem, type DemInspection } from './terrain-tasks';
+
+export type ThreadTask =
+  | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: { maxSizePx?: number } }
+  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown };
+
+export type ThreadReply =
+  | { id: number; progress: number }
+  | { id: number; ok: true; value: unknown }
+  | { id: number; ok: false; error: { name: string; code?: string; message: string; stack?: string } };
+
+/** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
+export interface TerrainRunner {
+  inspect(bytes: Uint8Array, opts?: { maxSizePx?: number }): Promise<DemInspection>;
+  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void): Promise<PlanResult>;
+  close(): Promise<void>;
+}
+
+interface Pending {
+  task: ThreadTask;
+  resolve: (v: unknown) => void;
+  reject: (e: Error) => void;
+  onProgress?: (pct: number) => void;
+}
+
+interface Slot {
+  worker: Worker;
+  busy: Pending | null;
+}
+
+const bootFile = new URL('./terrain-thread-boot.mjs', import.meta.url);
+const entryFile = new URL('./terrain-thread.ts', import.meta.url).href;
+
+/** A Uint8Array that owns its whole buffer (transferable without taking bytes that belong to someone else). */
+function ownBuffer(b: Uint8Array): Uint8Array {
+  return b.byteOffset === 0 && b.byteLength === b.buffer.byteLength && b.buffer instanceof ArrayBuffer ? b : new Uint8Array(b);
+}
+
+function rebuildError(e: { name: string; code?: string; message: string; stack?: string }): Error {
+  const err = e.name === 'TerrainError' && e.code ? new TerrainError(e.code as TerrainErrorCode, e.message) : new Error(e.message);
+  if (e.stack) err.stack = e.stack;
+  return err;
+}
+
+/** Tasks run inline on the calling thread. */
+export function createInlineTerrainRunner(): TerrainRunner {
+  return {
+    inspect: (bytes, opts) => inspectDem(bytes, opts),
+    analyse: (bytes, mission, onProgress) => analyseMission(bytes, mission, onProgress),
+    close: async () => {},
+  };
+}
+
+/** A pool of `threads` terrain threads (0: inline). */
+export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
+  if (opts.threads <= 0) return createInlineTerrainRunner();
+  const slots: Slot[] = [];
+  const queue: Pending[] = [];
+  let nextId = 1;
+  let closed = false;
+
+  function spawn(): Slot {
+    const worker = new Worker(bootFile, { workerData: { entry: entryFile } });
+    const slot: Slot = { worker, busy: null };
+    worker.unref(); // an idle pool never keeps the process alive
+    worker.on('message', (m: ThreadReply) => {
+      const p = slot.busy;
+      if (!p || p.task.id !== m.id) return;
+      if ('progress' in m) return p.onProgress?.(m.progress);
+      slot.busy = null;
+      worker.unref();
+      if (m.ok) p.resolve(m.value);
+      else p.reject(rebuildError(m.error));
+      dispatch();
+    });
+    const fail = (err: Error) => {
+      const i = slots.indexOf(slot);
+      if (i >= 0) slots.splice(i, 1);
+      const p = slot.busy;
+      slot.busy = null;
+      p?.reject(new Error(`The terrain thread stopped while working (${err.message}).`));
+      dispatch();
+    };
+    worker.on('error', fail);
+    worker.on('exit', (code) => fail(new Error(`exit code ${code}`)));
+    slots.push(slot);
+    return slot;
+  }
+
+  function dispatch(): void {
+    while (queue.length && !closed) {
+      let slot = slots.find((s) => !s.busy);
+      if (!slot && slots.length < opts.threads) slot = spawn();
+      if (!slot) return;
+      const p = queue.shift()!;
+      slot.busy = p;
+      slot.worker.ref();
+      slot.worker.postMessage(p.task, [p.task.bytes.buffer as ArrayBuffer]);
+    }
+  }
+
+  function run<T>(task: Omit<ThreadTask, 'id'>, onProgress?: (pct: number) => void): Promise<T> {
+    if (closed) return Promise.reject(new Error('The terrain pool is closed.'));
+    const full = { ...task, id: nextId++, bytes: ownBuffer(task.bytes) } as ThreadTask;
+    return new Promise<T>((resolve, reject) => {
+      queue.push({ task: full, resolve: resolve as (v: unknown) => void, reject, onProgress });
+      dispatch();
+    });
+  }
+
+  return {
+    inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o }),
+    analyse: (bytes, mission, onProgress) => run<PlanResult>({ kind: 'analyse', bytes, mission }, onProgress),
+    async close() {
+      closed = true;
+      for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));
+      await Promise.all(slots.splice(0).map((s) => s.worker.terminate()));
+    },
+  };
+}

@@ -1,0 +1,55 @@
+/**
+ * The two heavy terrain jobs of the server, as plain functions of bytes: inspect an uploaded DEM, and analyse a
+ * mission over the part of a DEM it needs. They run in a terrain thread (terrain-pool.ts) or inline.
+ */
+import { inflateSync } from 'node:zlib';
+import type { DemFileInfo, HillshadeInfo } from '../../contracts/sites';
+import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, readDemHeader, TerrainError, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
+
+/** Largest grid an upload may decode whole (2^28 pixels = 1 GiB of float32), and the largest analysis window. */
+export const MAX_DEM_PIXELS = 2 ** 28;
+
+/** node:zlib's inflate (about 4x faster than geotiff.js's); a block that will not inflate is reported as damaged data. */
+export const nodeInflate: InflateFn = (data, expectedBytes) => {
+  try {
+    return inflateSync(data, { chunkSize: Math.max(1024, expectedBytes ?? 0) });
+  } catch (err) {
+    throw new TerrainError('truncated', `A compressed block of the GeoTIFF cannot be decoded (${(err as Error).message}); the file is damaged or cut short, so export it again.`);
+  }
+};
+
+/** What an upload yields: header facts, grid metadata and the hillshade preview. */
+export interface DemInspection {
+  file: DemFileInfo;
+  metadata: GridMetadata;
+  hillshade: HillshadeInfo & { png: Uint8Array };
+}
+
+/** Read the header only (a quick refusal of files that are not usable DEMs, before any pixel is decoded). */
+export async function inspectDemHeader(bytes: Uint8Array): Promise<DemFileInfo> {
+  const h = await readDemHeader(bytes);
+  return { compression: h.compression, sampleType: h.sampleType, tiled: h.tiling.tiled, nodata: h.nodata, declaredVerticalDatum: h.verticalDatum };
+}
+
+/** Decode the whole grid: metadata and a hillshade preview (longest side `maxSizePx`, default 1024). */
+export async function inspectDem(bytes: Uint8Array, opts: { maxSizePx?: number } = {}): Promise<DemInspection> {
+  const file = await inspectDemHeader(bytes);
+  const grid = await readDem(bytes, { inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
+  const metadata = describeGrid(grid);
+  const hs = hillshadePng(grid, { maxSizePx: opts.maxSizePx ?? 1024 });
+  return {
+    file,
+    metadata,
+    hillshade: { png: hs.png, width: hs.width, height: hs.height, boundsWgs84: hs.boundsWgs84, transform: [...hs.transform] as HillshadeInfo['transform'] },
+  };
+}
+
+/** Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin). */
+export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}): Promise<PlanResult> {
+  const bbox = missionBboxWgs84(mission);
+  const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
+  onProgress(40);
+  const result = analysePlan(grid, mission);
+  onProgress(95);
+  return result;
+}

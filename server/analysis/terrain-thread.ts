@@ -1,0 +1,23 @@
+/** Entry of a terrain thread: runs the tasks of terrain-tasks.ts on messages from terrain-pool.ts. */
+import { parentPort } from 'node:worker_threads';
+import { analyseMission, inspectDem } from './terrain-tasks';
+import type { ThreadReply, ThreadTask } from './terrain-pool';
+
+const port = parentPort;
+if (!port) throw new Error('terrain-thread.ts runs only as a worker thread.');
+
+port.on('message', async (task: ThreadTask) => {
+  const reply = (m: ThreadReply, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer);
+  try {
+    if (task.kind === 'inspect') {
+      const r = await inspectDem(task.bytes, task.opts);
+      reply({ id: task.id, ok: true, value: r }, [r.hillshade.png.buffer as ArrayBuffer]);
+    } else {
+      const r = await analyseMission(task.bytes, task.mission, (pct) => reply({ id: task.id, progress: pct }));
+      reply({ id: task.id, ok: true, value: r });
+    }
+  } catch (err) {
+    const e = err as Error & { code?: string };
+    reply({ id: task.id, ok: false, error: { name: e?.name ?? 'Error', code: e?.code, message: e?.message ?? String(err), stack: e?.stack } });
+  }
+});

@@ -1,0 +1,17 @@
+/** The `terrain` service: the pool of terrain threads shared by uploads and analysis workers of this process. */
+import type { ServiceFactory, Services } from '../services';
+import { createTerrainRunner, type TerrainRunner } from './terrain-pool';
+
+/** Service factory: puts `terrain` on the services (TERRAIN_THREADS threads; 0 runs inline). */
+export const terrainFactory: ServiceFactory = async (services) => {
+  const runner = createTerrainRunner({ threads: services.config.env.TERRAIN_THREADS });
+  services.terrain = runner;
+  return () => runner.close();
+};
+
+/** The terrain runner, or a clear error when the factory did not run. */
+export function terrainOf(services: Services): TerrainRunner {
+  const t = services.terrain as TerrainRunner | undefined;
+  if (!t) throw new Error('The terrain service is not set up: terrainFactory must run before the routes that use it.');
+  return t;
+}
