@@ -4,6 +4,7 @@ import type { Guards } from './http/guard';
 import type { Services } from './services';
 import { projectRouteGroup } from './projects/projects.routes';
 import { siteRouteGroup } from './sites/sites.routes';
+import { registerExportRoutes } from './exports/exports.routes';
 import { registerFlightRoutes } from './flights/flights.routes';
 import { registerInvitationRoutes } from './invitations/invitations.routes';
 import { registerOutboxRoutes } from './mail/outbox.routes';
@@ -21,4 +22,5 @@ export const routeGroups: RouteGroup[] = [
   registerOutboxRoutes,
   registerInvitationRoutes,
   registerFlightRoutes,
+  registerExportRoutes,
 ];

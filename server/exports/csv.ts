@@ -1,0 +1,16 @@
+/** CSV export of the waypoints (papaparse), led by comment lines with the datum and the cautions. */
+import Papa from 'papaparse';
+import { waypointColumns } from '../../contracts/exports';
+import type { ExportContext } from './export-context';
+import { heightsNote } from './export-context';
+
+/** Comment lines start with "#": papaparse reads them back with `comments: '#'`. */
+export function toCsv(ctx: ExportContext): string {
+  const head = [
+    `# ${ctx.title}${ctx.signedOff ? '' : ' (NOT SIGNED OFF)'}`,
+    `# ${heightsNote(ctx, 'Heights in metres.')}`,
+    ...ctx.cautions.map((c) => `# CAUTION: ${c}`),
+  ];
+  const body = Papa.unparse({ fields: [...waypointColumns], data: ctx.waypoints.map((w) => waypointColumns.map((k) => w[k])) }, { newline: '\r\n' });
+  return `${head.map((h) => h.replace(/[\r\n]+/g, ' ')).join('\r\n')}\r\n${body}\r\n`;
+}
