@@ -1,9 +1,9 @@
 /** Full-grid decode on several worker threads into one shared Float32Array (tile rows handed out as they finish). */
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
-import { inflateSync } from 'node:zlib';
 import { openDem, type DemSource } from '../terrain/dem';
+import { nodeInflate } from '../cli/io';
 
-const inflate = (d: Uint8Array, n: number) => inflateSync(d, { chunkSize: Math.max(1024, n) });
+const inflate = nodeInflate;
 
 interface Job { out: SharedArrayBuffer; counter: SharedArrayBuffer; rowsPerChunk: number }
 

@@ -11,7 +11,7 @@ Each request is one JSON line; each reply one JSON line with wall milliseconds (
   {"cmd": "memory", "file": F}                        peak RSS of a fresh process decoding F (bytes)
   {"cmd": "versions"}
 """
-import json, os, subprocess, sys, time
+import json, subprocess, sys, time
 import numpy as np
 import scipy
 from scipy import ndimage
@@ -84,12 +84,12 @@ def main():
             ms = (time.perf_counter() - t) * 1000
             out = {'ms': ms, 'first': [float(x) for x in v[:1000]]}
         elif cmd == 'memory':
-            code = ('import resource; from osgeo import gdal; gdal.UseExceptions(); '
-                    'ds = gdal.Open(%r); a = ds.GetRasterBand(1).ReadAsArray(); '
-                    'print(resource.getrusage(resource.RUSAGE_SELF).ru_maxrss * 1024, a.nbytes)') % req['file']
-            base = subprocess.run([sys.executable, '-c', 'import resource; from osgeo import gdal; import numpy; '
-                                   'print(resource.getrusage(resource.RUSAGE_SELF).ru_maxrss * 1024)'],
+            # VmHWM (peak resident set of this process image; getrusage's maxrss would be inherited across exec)
+            hwm = "int([l for l in open('/proc/self/status') if l.startswith('VmHWM')][0].split()[1]) * 1024"
+            base = subprocess.run([sys.executable, '-c', 'from osgeo import gdal; import numpy; print(%s)' % hwm],
                                   capture_output=True, text=True, check=True).stdout.split()
+            code = ('from osgeo import gdal; gdal.UseExceptions(); ds = gdal.Open(%r); '
+                    'a = ds.GetRasterBand(1).ReadAsArray(); print(%s, a.nbytes)') % (req['file'], hwm)
             peak, nbytes = subprocess.run([sys.executable, '-c', code], capture_output=True, text=True, check=True).stdout.split()
             out = {'ms': 0, 'peakBytes': int(peak) - int(base[0]), 'decodedBytes': int(nbytes)}
         elif cmd == 'versions':

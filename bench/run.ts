@@ -8,12 +8,12 @@ import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import { createInterface } from 'node:readline';
 import { fileURLToPath } from 'node:url';
-import { inflateSync } from 'node:zlib';
 import { openDem, readDem } from '../terrain/dem';
 import { sampleAlongLine, sampleGridCoords } from '../terrain/sample';
 import { WGS84, createTransform } from '../terrain/crs';
 import { createParallelDecoder } from './parallel-decode';
 import { benchPlan } from './plan-bench';
+import { nodeInflate } from '../cli/io';
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 const OUT = here('./out/');
@@ -21,7 +21,7 @@ const TILED = `${OUT}bench-tiled.tif`;
 const STRIPED = `${OUT}bench-striped.tif`;
 const PY = '/usr/bin/python3';
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 5);
-const inflate = (d: Uint8Array, n: number) => inflateSync(d, { chunkSize: Math.max(1024, n) });
+const inflate = nodeInflate;
 
 function ensureReferenceTools(): void {
   if (spawnSync(PY, ['-c', 'import osgeo, scipy, numpy'], { stdio: 'ignore' }).status === 0) return;

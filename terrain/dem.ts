@@ -120,15 +120,18 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
     const hit = cache.get(idx);
     if (hit) { cache.delete(idx); cache.set(idx, hit); return hit; }
     const rows = tiled ? bh : Math.min(bh, header.height - Math.floor(idx / blocksAcross) * bh);
-    const tile = new Float32Array(bw * rows);
+    // once the cache is full, the least recently used block's buffer is reused (no new allocation)
+    let tile: Float32Array | undefined;
+    if (cacheBytes + bw * rows * 4 > cacheLimit && cache.size > 0) {
+      const [k, v] = cache.entries().next().value as [number, Float32Array];
+      cache.delete(k);
+      cacheBytes -= v.byteLength;
+      if (v.length === bw * rows) tile = v;
+    }
+    tile ??= new Float32Array(bw * rows);
     await decodeBlockInto(idx, tile, 0, bw, 0, bw, 0, rows);
     cache.set(idx, tile);
     cacheBytes += tile.byteLength;
-    for (const [k, v] of cache) {
-      if (cacheBytes <= cacheLimit || cache.size <= 1) break;
-      cache.delete(k);
-      cacheBytes -= v.byteLength;
-    }
     return tile;
   }
 
