@@ -86,6 +86,12 @@ describe('readDemHeader', () => {
     expect(h.transform).toEqual([500900, 1.8, 0.3, 5549950, 0.25, -1.9]);
   });
 
+  it('reads a block the file leaves unwritten (sparse, byte count 0) as nodata', async () => {
+    const grid = await readDem(fixture('sparse-tiles.tif'));
+    expect(Number.isNaN(grid.data[0 * 32 + 20])).toBe(true); // inside the unwritten top-right 16 x 16 block
+    expect(Number.isNaN(grid.data[17 * 32 + 20])).toBe(false);
+  });
+
   it('does not mutate the bytes it is given', async () => {
     const bytes = fixture('int16-deflate-utm55s.tif');
     const copy = Buffer.from(bytes);
