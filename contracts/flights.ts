@@ -109,6 +109,8 @@ export const legSheetSchema = z.object({
   batteries: batteryPlanSchema,
   checklist: z.array(checklistItemSchema),
   cautions: z.array(z.string()),
+  /** Plan-wide warnings of the analysis beyond the cautions. */
+  warnings: z.array(z.string()),
   generatedAt: z.string(),
 });
 export type LegSheet = z.infer<typeof legSheetSchema>;

@@ -90,6 +90,8 @@ export const complianceReportSchema = z.object({
     deferral: z.string(),
   }),
   assumptions: z.array(z.string()),
+  /** Plan-wide warnings of the analysis (flagged stations, distance from takeoff, batteries…). */
+  warnings: z.array(z.string()),
   cautions: z.array(z.string()),
   signOff: z.object({
     state: reviewStateSchema,

@@ -5,7 +5,7 @@ import { flightCautions, notSignedOffCaution } from '../reports/cautions';
 import { fmt } from '../reports/format';
 import { azimuthDeg, distanceM } from '../reports/geodesy';
 import { lineHeadingDeg, lineLengthM } from '../reports/report.build';
-import { noteText, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../reports/result-view';
+import { noteText, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../reports/result-view';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { planBatteries } from './battery-plan';
 
@@ -60,6 +60,9 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
     { enduranceMin: mission.enduranceMin, reserve: mission.batteryReserve, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS },
   );
   const groundM = takeoffGroundM(view);
+  const farthest = lines.length
+    ? Math.max(...lines.flatMap((l) => l.legs.flatMap((g) => [distanceM(takeoff, g.start), distanceM(takeoff, g.end)])))
+    : null;
   const cautions = flightCautions({ surfaceKind, verticalDatum: v.siteVerticalDatum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM });
   if (!signedOff) cautions.unshift(notSignedOffCaution);
 
@@ -71,7 +74,11 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
       text: `Take off from ${takeoff.lat.toFixed(6)}, ${takeoff.lon.toFixed(6)}: the sheet assumes its ground is ${fmt.metres(groundM)} above ${v.siteVerticalDatum}. Check it on site; from another spot every altitude above takeoff shifts by the height difference.`,
     },
     { id: 'limits', kind: 'check', text: `Confirm the local altitude limit, airspace and permissions for this site; the plan's limit is ${fmt.metres(mission.maxAglM)} above ground.` },
-    { id: 'line-of-sight', kind: 'check', text: 'Plan where you and any observer stand to keep the aircraft in sight along every line.' },
+    {
+      id: 'line-of-sight',
+      kind: 'check',
+      text: `Plan where you and any observer stand to keep the aircraft in sight along every line${farthest === null ? '' : ` (the plan reaches ${fmt.metres(farthest)} from the takeoff point)`}.`,
+    },
     { id: 'wind', kind: 'check', text: 'Check the wind forecast and on site: strong wind drifts the aircraft off the lines and shortens battery time.' },
     { id: 'batteries', kind: 'check', text: `Charge ${batteries.count} ${batteries.count === 1 ? 'battery' : 'batteries'} for this plan (reserve ${fmt.percent(mission.batteryReserve)} each), plus a spare.` },
   ];
@@ -97,6 +104,7 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
     batteries,
     checklist,
     cautions,
+    warnings: planWarnings(view),
     generatedAt: now.toISOString(),
   };
 }

@@ -8,7 +8,7 @@ import type { VersionRecord } from '../reviews/versions.repository';
 import { flightCautions } from './cautions';
 import { azimuthDeg } from './geodesy';
 import { fmt } from './format';
-import { noteText, readMission, readResult, type LineView, type StationView } from './result-view';
+import { noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
 
 /** The GSD band of the spec: target ± tolerance (a fraction of the target). */
@@ -166,8 +166,8 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       `Percentiles: ${percentileMethod}.`,
       `Heights above the datum refer to the grid's vertical datum (${v.siteVerticalDatum}); altitudes for the pilot are above the takeoff point.`,
       'The camera points straight down (no tilt, roll or wind crab) and the aircraft holds the planned track and speed.',
-      ...view.warnings.map(noteText),
     ],
+    warnings: planWarnings(view),
     cautions: flightCautions({ surfaceKind, verticalDatum: v.siteVerticalDatum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
     signOff: {
       state,

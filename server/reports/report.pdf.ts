@@ -22,8 +22,13 @@ export function reportFileName(r: Pick<ComplianceReport, 'plan' | 'version'>): s
   return `${slug}-v${r.version.number}-compliance.pdf`;
 }
 
+/** The lowest y that text may reach on the current page before pdfkit breaks to a new one. */
+function pageBottom(doc: Doc): number {
+  return doc.page.height - doc.page.margins.bottom;
+}
+
 function heading(doc: Doc, text: string): void {
-  if (doc.y > 740) doc.addPage();
+  if (doc.y > pageBottom(doc) - 60) doc.addPage();
   doc.moveDown(0.8).font('Inter-Bold').fontSize(12).fillColor('black').text(text, page.margin, doc.y);
   doc.moveDown(0.3).font('Inter').fontSize(9);
 }
@@ -35,7 +40,7 @@ function table(doc: Doc, rows: string[][], widths: number[]): void {
   for (let r = 0; r < rows.length; r++) {
     doc.font(r === 0 ? 'Inter-Bold' : 'Inter').fontSize(8.5);
     const h = Math.max(...rows[r].map((cell, c) => doc.heightOfString(cell, { width: cols[c] - 6 }))) + 4;
-    if (doc.y + h > 790) doc.addPage();
+    if (doc.y + h > pageBottom(doc)) doc.addPage();
     const y = doc.y;
     let x = page.margin;
     rows[r].forEach((cell, c) => {
@@ -122,13 +127,14 @@ export async function renderReportPdf(r: ComplianceReport): Promise<Buffer> {
     [0.6, 1.1, 1.1, 1, 1, 1, 1, 1, 1, 1],
   );
   const warned = r.lines.filter((l) => l.warnings.length > 0);
-  if (warned.length) paragraphs(doc, warned.flatMap((l) => l.warnings.map((w) => `Line ${l.number}: ${w}`)), '!');
+  if (warned.length) paragraphs(doc, warned.flatMap((l) => l.warnings.map((w) => (/^Line \d/.test(w) ? w : `Line ${l.number}: ${w}`))), '!');
 
   heading(doc, 'GSD along each line');
   doc.fontSize(8.5).fillColor(grey).text(`Shaded: the target band ${fmt.gsdCm(r.spec.gsdBandCm[0])} to ${fmt.gsdCm(r.spec.gsdBandCm[1])}. Red ticks: stations over unknown ground.`, page.margin);
   for (const l of r.lines) {
     const h = 130;
-    if (doc.y + h + 16 > 800) doc.addPage();
+    // Everything the chart writes must fit above the bottom margin, or pdfkit starts a page in the middle of it.
+    if (doc.y + h + 24 > pageBottom(doc)) doc.addPage();
     doc.font('Inter-Bold').fontSize(9).fillColor('black').text(`Line ${l.number} · ${fmt.metres(l.lengthM)} · heading ${fmt.degrees(l.headingDeg)}`, page.margin, doc.y + 4);
     const y = doc.y + 2;
     drawGsdChart(doc, l, r.spec.gsdBandCm, { x: page.margin, y, w: page.width, h });
@@ -163,6 +169,10 @@ export async function renderReportPdf(r: ComplianceReport): Promise<Buffer> {
 
   heading(doc, 'Assumptions');
   paragraphs(doc, r.assumptions);
+  if (r.warnings.length) {
+    heading(doc, 'Warnings from the analysis');
+    paragraphs(doc, r.warnings, '!');
+  }
   heading(doc, 'Safety cautions');
   paragraphs(doc, r.cautions, '!');
 

@@ -72,6 +72,7 @@ export const resultViewSchema = z
       .passthrough()
       .default({}),
     warnings: z.array(note).default([]),
+    takeoff: z.object({ lon: n, lat: n, groundM: n }).passthrough().optional(),
   })
   .passthrough();
 
@@ -103,6 +104,14 @@ export function readMission(input: unknown): Mission {
   throw new Error(`Stored plan input is not a mission: ${last instanceof Error ? last.message : String(last)}`);
 }
 
+/** Warning codes of the engine that the shared flight cautions already cover (cautions.ts words them once). */
+const coveredByCautions = new Set(['bare-earth', 'local-rules', 'wind']);
+
+/** The engine's plan-wide warnings that add something to the cautions (e.g. distances, flagged stations). */
+export function planWarnings(view: ResultView): string[] {
+  return view.warnings.filter((w) => typeof w === 'string' || !coveredByCautions.has(String((w as { code?: unknown }).code))).map(noteText);
+}
+
 /** Text of a warning or flag, whatever form the engine gave it. */
 export function noteText(x: z.infer<typeof note> | z.infer<typeof flag>): string {
   if (typeof x === 'string') return x;
@@ -111,8 +120,9 @@ export function noteText(x: z.infer<typeof note> | z.infer<typeof flag>): string
   return 'code' in x ? String(x.code) : JSON.stringify(x);
 }
 
-/** Altitude of the takeoff point's ground above the datum, from any leg (datum altitude minus above-takeoff altitude). */
+/** Ground height of the takeoff point above the datum: as the engine sampled it, else from a leg (datum minus above-takeoff altitude). */
 export function takeoffGroundM(view: ResultView): number | null {
+  if (view.takeoff) return view.takeoff.groundM;
   for (const line of view.lines) {
     const leg = line.legs[0];
     if (leg) return leg.altitudeStartM - leg.altitudeStartAboveTakeoffM;
