@@ -6,6 +6,15 @@ import { createMailer, type Mailer } from './mailer';
 export const mailFactory: ServiceFactory = async (services) => {
   const mailer = await createMailer({ db: services.db, config: services.config });
   services.mail = mailer;
+  if (services.config.env.NODE_ENV !== 'test') {
+    const where =
+      mailer.mode === 'fake'
+        ? `the development outbox (fake SMTP on ${mailer.fake!.host}:${mailer.fake!.port}; owners read it at /api/teams/:teamId/dev/outbox)`
+        : mailer.mode === 'smtp'
+          ? `SMTP at ${services.config.env.SMTP_HOST}:${services.config.env.SMTP_PORT ?? 587}`
+          : 'nowhere (DEV_OUTBOX=0 and no SMTP_HOST)';
+    console.log(`loftline: mail goes to ${where}`);
+  }
   return () => mailer.close();
 };
 
