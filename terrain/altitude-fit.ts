@@ -25,6 +25,9 @@ export interface Breakpoints {
   z: number[];
 }
 
+/** Slack when comparing slopes (rise over run): far below any gradient that matters, far above rounding noise. */
+const SLOPE_TOL = 1e-9;
+
 /** Leg-shape limits. */
 export interface LegLimits {
   minLegLengthM: number;
@@ -76,7 +79,8 @@ export function bestLevel(c: Corridor, i0: number, i1: number): number {
     if (from > to) continue;
     const z = Math.min(Math.max(t, from), to);
     const dist = Math.abs(z - t);
-    if (count > bestCount || (count === bestCount && dist < bestDist)) { bestCount = count; bestZ = z; bestDist = dist; }
+    // ties go to the lower altitude, so that the choice does not depend on rounding noise
+    if (count > bestCount || (count === bestCount && (dist < bestDist - 1e-9 || (Math.abs(dist - bestDist) <= 1e-9 && z < bestZ)))) { bestCount = count; bestZ = z; bestDist = dist; }
   }
   if (bestCount === 0) return Math.max(zMin, Math.min(t, capMin));
   return Math.max(bestZ, zMin);
@@ -103,7 +107,7 @@ export function fitSteps(c: Corridor, g: Gradients, lim: LegLimits): Breakpoints
     let maxLo = -Infinity, minHi = Infinity, ok = a;
     for (let j = a; j < n; j++) {
       const lo = Math.max(maxLo, c.lo[j]), hi = Math.min(minHi, c.hi[j]);
-      if (lo > hi) break;
+      if (lo > hi + 1e-9) break;
       maxLo = lo; minHi = hi; ok = j;
     }
     let b = ok;
@@ -136,15 +140,16 @@ export function fitSteps(c: Corridor, g: Gradients, lim: LegLimits): Breakpoints
     // the shortest offender: a level part or a climb/descent between two levels shorter than the minimum leg
     let worst = -1, nb = -1, worstLen = Infinity;
     for (let k = 0; k < lv.length; k++) {
-      if (flatM[k] < lim.minLegLengthM - 1e-9 && flatM[k] < worstLen) {
+      // equal offenders (to a nanometre) go in line order, so that rounding noise cannot pick among them
+      if (flatM[k] < lim.minLegLengthM - 1e-9 && flatM[k] < worstLen - 1e-9) {
         worstLen = flatM[k];
         worst = k;
-        nb = k === 0 ? 1 : k === lv.length - 1 ? k - 1 : Math.abs(lv[k - 1].z - lv[k].z) <= Math.abs(lv[k + 1].z - lv[k].z) ? k - 1 : k + 1;
+        nb = k === 0 ? 1 : k === lv.length - 1 ? k - 1 : Math.abs(lv[k - 1].z - lv[k].z) <= Math.abs(lv[k + 1].z - lv[k].z) + 1e-9 ? k - 1 : k + 1;
       }
       if (k + 1 < lv.length) {
         const dz = lv[k + 1].z - lv[k].z;
         const ramp = dz > 0 ? dz / g.climb : -dz / g.descent;
-        if (ramp < lim.minLegLengthM - 1e-9 && ramp < worstLen) { worstLen = ramp; worst = k; nb = k + 1; }
+        if (ramp < lim.minLegLengthM - 1e-9 && ramp < worstLen - 1e-9) { worstLen = ramp; worst = k; nb = k + 1; }
       }
     }
     if (worst < 0 || seg.length === 1) return joinLevels(lv, g);
@@ -180,7 +185,8 @@ export function joinLevels(lv: Array<{ x0: number; x1: number; z: number }>, g: 
   const zs: number[] = [];
   const at = (k: number, x: number) => Math.max(lv[k].z, R[k] + g.climb * x, L[k] - g.descent * x);
   const push = (x: number, z: number) => {
-    if (xs.length && Math.abs(x - xs[xs.length - 1]) < 1e-9) { zs[zs.length - 1] = Math.max(zs[zs.length - 1], z); return; }
+    // breakpoints closer than a micrometre are one (a shorter piece would turn rounding noise into slope)
+    if (xs.length && Math.abs(x - xs[xs.length - 1]) < 1e-6) { zs[zs.length - 1] = Math.max(zs[zs.length - 1], z); return; }
     xs.push(x); zs.push(z);
   };
   for (let k = 0; k < m; k++) {
@@ -194,7 +200,27 @@ export function joinLevels(lv: Array<{ x0: number; x1: number; z: number }>, g: 
     cuts.sort((p, q) => p - q);
     for (const xc of cuts) push(xc, at(k, xc));
   }
-  return simplify({ x: xs, z: zs });
+  if (xs.length === 1) { xs.push(lv[m - 1].x1); zs.push(zs[0]); }
+  xs[xs.length - 1] = lv[m - 1].x1; // the line's end exactly
+  return enforceGradients(simplify({ x: xs, z: zs }), g);
+}
+
+/**
+ * Raise the lower end of any leg that rounding noise left a hair steeper than the limits (raising only,
+ * so clearance is kept); legs are otherwise built at or inside the limits.
+ */
+export function enforceGradients(bp: Breakpoints, g: Gradients): Breakpoints {
+  const { x, z } = bp;
+  for (let pass = 0; pass < 1000; pass++) {
+    let changed = false;
+    for (let i = 0; i + 1 < x.length; i++) {
+      const dx = x[i + 1] - x[i];
+      if (z[i + 1] - z[i] > g.climb * dx) { z[i] = z[i + 1] - g.climb * dx; changed = true; }
+      else if (z[i] - z[i + 1] > g.descent * dx) { z[i + 1] = z[i] - g.descent * dx; changed = true; }
+    }
+    if (!changed) break;
+  }
+  return bp;
 }
 
 /** Drop breakpoints where the slope does not change. */
@@ -231,7 +257,8 @@ export function fitFollow(c: Corridor, g: Gradients, lim: LegLimits): Breakpoint
       for (let j = a + 1; j <= upTo; j++) {
         const dx = c.x[j] - c.x[a];
         const lo = Math.max(sLo, (c.lo[j] - za) / dx), hi = Math.min(sHi, (c.hi[j] - za) / dx);
-        if (lo > hi) break;
+        // a ramp of exactly the limit gradient meets the limit itself: compare with a tolerance, not bit for bit
+        if (lo > hi + SLOPE_TOL) break;
         sLo = lo; sHi = hi; ok = j;
       }
       return [ok, sLo, sHi];
@@ -251,13 +278,14 @@ export function fitFollow(c: Corridor, g: Gradients, lim: LegLimits): Breakpoint
         if (e > a && c.x[e] - c.x[a] >= minLeg) { b = e; [, sLo, sHi] = interval(b); }
       }
       const want = (Math.min(Math.max(c.target[b], c.lo[b]), c.hi[b]) - za) / (c.x[b] - c.x[a]);
-      slope = Math.min(Math.max(want, sLo), sHi);
+      slope = Math.min(Math.max(want, sLo), sHi, g.climb);
+      if (slope < -g.descent) slope = -g.descent;
     }
     xs.push(c.x[b]);
     zs.push(za + slope * (c.x[b] - c.x[a]));
     a = b;
   }
-  return roundFollow(simplify({ x: xs, z: zs }), g, lim.roundingM);
+  return enforceGradients(roundFollow(simplify({ x: xs, z: zs }), g, lim.roundingM), g);
 }
 
 /** Slope from (x_a, za) to sample b that stays above the safe profile and within the gradients, nearest the target's. */

@@ -224,7 +224,7 @@ interface Bounds {
  * lower edge the lowest feasible profile above the band and the safe profile, but never above the highest
  * feasible profile under the height cap (the cap outranks the band); upper edge the highest feasible profile
  * under the band and the cap. Where the two cross (the band cannot be held within the gradients) the corridor
- * is the lower edge. The safe profile is never given up.
+ * is the lower edge and a little room above it. The safe profile is never given up.
  */
 function corridor(x: Float64Array, h: Float64Array, floor: Float64Array, safe: Float64Array, lim: AltitudeLimits): { c: Corridor; b: Bounds } {
   const n = x.length;
@@ -246,10 +246,16 @@ function corridor(x: Float64Array, h: Float64Array, floor: Float64Array, safe: F
   const highBase = mk();
   for (let i = 0; i < n; i++) highBase[i] = Math.min(c.bandHi[i] - lim.roundingM, capHigh[i]);
   const high = ceilingProfile(x, highBase, gc, gd);
+  // Where the band cannot be held the corridor is the lower edge plus a little room (capped by the height
+  // limit): a zero-width corridor along a ramp of exactly the limit gradient would make every leg end at
+  // the first rounding error.
+  const room = Math.max(lim.roundingM, 0.25 * (lim.bandHighM - lim.bandLowM), 0.1);
   for (let i = 0; i < n; i++) {
     const lo = Math.min(low.safe[i], capHigh[i]);
     c.lo[i] = lo;
-    c.hi[i] = Math.max(high.high[i], lo);
+    let hi = high.high[i];
+    if (hi < lo + room && high.high[i] < low.safe[i] - 1e-9) hi = capHigh[i] - lo >= 1e-3 ? Math.min(lo + room, capHigh[i]) : lo + 1e-6;
+    c.hi[i] = Math.max(hi, lo + 1e-6);
   }
   return { c, b: { capHigh, bandLow: low.safe, bandLowForward: low.forward, bandLowBase: lowBase, bandHigh: high.high, bandHighForward: high.forward, bandHighBase: highBase } };
 }

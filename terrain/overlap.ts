@@ -121,8 +121,8 @@ export function intervalOverlap(a0: number, a1: number, b0: number, b1: number):
 /**
  * GSD, forward and side overlap and flags at every station of every line. Forward overlap is the least,
  * over the left, centre and right image columns, of the along-track overlap with the previous photo; side
- * overlap the least, over the image rows, of the across-track overlap with the nearest-along-track photo of
- * each neighbouring row. Every figure comes from the photos' ground extents over the real terrain.
+ * overlap the least, over the image rows, of the across-track overlap with each neighbouring row's strip at that
+ * row's position. Every figure comes from the photos' ground extents over the real terrain.
  */
 export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], layoutHeadingDeg: number, t: OverlapTargets): StationResult[][] {
   const ext = lines.map((l) => photoExtents(camera, heightAt, l, layoutHeadingDeg));
@@ -162,7 +162,7 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       }
       let sideOverlap: number | null = null;
       for (const list of neighbours) {
-        const v = sideWith(e, o, list, ext, l.x[s] * sa + l.y[s] * ca);
+        const v = sideWith(e, o, list, ext);
         if (v !== null && (sideOverlap === null || v < sideOverlap)) sideOverlap = v;
       }
       if (groundM === null) flags.push({ code: 'ground-unknown', reason: 'No elevation data under this photo (nodata or off the grid); its height above ground is unknown.' });
@@ -190,26 +190,38 @@ function terrainWhy(aglM: number | null, plannedM: number): string {
   return `the terrain under this photo and its neighbour differs (height above ground ${f1(aglM)} m, planned ${f1(plannedM)} m).`;
 }
 
-/** Least across-track overlap of photo `o` with the nearest-along-track photo in a neighbouring row. */
-function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: number; a: number }>, ext: Float64Array[], a: number): number | null {
+/**
+ * Least across-track overlap of photo `o` with a neighbouring row: for each image row (front, centre, back)
+ * the neighbouring strip's across-track extent at that row's along-track position, interpolated between the
+ * two neighbour photos around it (so the figure does not jump as the photos of the two rows slide past each
+ * other); null where the neighbouring row does not reach this far (the area's edge).
+ */
+function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: number; a: number }>, ext: Float64Array[]): number | null {
   if (list.length === 0) return null;
-  let lo = 0, hi = list.length - 1;
-  while (hi - lo > 1) { const m = (lo + hi) >> 1; if (list[m].a <= a) lo = m; else hi = m; }
-  const near = Math.abs(list[lo].a - a) <= Math.abs(list[hi].a - a) ? list[lo] : list[hi];
-  const en = ext[near.line];
-  const p = near.s * STRIDE;
-  // no along-track overlap at all: the neighbouring row does not reach this far (edge of the area)
-  const along = intervalOverlap(e[o + 2], e[o + 3], en[p + 2], en[p + 3]);
-  if (!(along > 0)) return null;
-  // match each image row with the neighbour's row nearest along track (the neighbour may fly the other way)
   let m = Infinity;
+  let any = false;
   for (let r = 0; r < 3; r++) {
-    let best = 1, bestD = Infinity;
-    for (let q = 0; q < 3; q++) {
-      const d = Math.abs(en[p + 12 + q] - e[o + 12 + r]);
-      if (d < bestD) { bestD = d; best = q; }
+    const a = e[o + 12 + r];
+    if (Number.isNaN(a)) return null;
+    let lo = 0, hi = list.length - 1;
+    if (a <= list[0].a) hi = 0;
+    else if (a >= list[hi].a) lo = hi;
+    else while (hi - lo > 1) { const k = (lo + hi) >> 1; if (list[k].a <= a) lo = k; else hi = k; }
+    const p = list[lo], q = list[hi];
+    const ep = ext[p.line], eq = ext[q.line];
+    const bp = p.s * STRIDE, bq = q.s * STRIDE;
+    // beyond the end photo of the neighbouring row by more than its along-track half length: no neighbour here
+    if (lo === hi) {
+      const half = (ep[bp + 3] - ep[bp + 2]) / 2;
+      if (!(Math.abs(a - p.a) <= half)) continue;
     }
-    m = Math.min(m, intervalOverlap(e[o + 6 + r * 2], e[o + 7 + r * 2], en[p + 6 + best * 2], en[p + 7 + best * 2]));
+    const f = hi === lo || q.a === p.a ? 0 : (a - p.a) / (q.a - p.a);
+    const c0 = ep[bp + 8] + (eq[bq + 8] - ep[bp + 8]) * f;
+    const c1 = ep[bp + 9] + (eq[bq + 9] - ep[bp + 9]) * f;
+    const v = intervalOverlap(e[o + 6 + r * 2], e[o + 7 + r * 2], c0, c1);
+    if (Number.isNaN(v)) return null;
+    any = true;
+    m = Math.min(m, v);
   }
-  return Number.isNaN(m) ? null : m;
+  return any ? m : null;
 }

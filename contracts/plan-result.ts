@@ -1,0 +1,64 @@
+/** The plan analysis result (CLI `plan`, worker, API): zod schema of what `analysePlan` returns. */
+import { z } from 'zod';
+import { altitudeModeSchema } from './mission';
+
+const n = z.number();
+const nn = z.number().nullable();
+const fraction = z.number().gte(0).lte(1);
+
+export const stationFlagCodes = ['ground-unknown', 'footprint-off-grid', 'forward-overlap-low', 'side-overlap-low', 'gsd-coarse', 'gsd-fine', 'above-max-agl', 'below-clearance'] as const;
+export const unmetReasons = ['ground-unknown', 'above-max-agl', 'max-agl-ahead', 'band-above-max-agl', 'clearance-above-band', 'climb-limit', 'descent-limit', 'hold', 'steps', 'leg-limits'] as const;
+
+export const stationFlagSchema = z.object({ code: z.enum(stationFlagCodes), reason: z.string() });
+export const planWarningSchema = z.object({ code: z.string(), message: z.string() });
+
+export const planPointSchema = z.object({ lon: n, lat: n, distanceM: n });
+
+/** One exposure station; heights above the grid's vertical datum unless named "AboveTakeoff". */
+export const planStationSchema = z.object({
+  lon: n, lat: n, distanceM: n,
+  groundM: nn, altitudeM: n, altitudeAboveTakeoffM: n, aglM: nn, gsdCm: nn,
+  forwardOverlap: fraction.nullable(), sideOverlap: fraction.nullable(),
+  flags: z.array(stationFlagSchema),
+});
+
+/** One straight altitude leg; gradient is rise over run in the flying direction. */
+export const planLegSchema = z.object({
+  start: planPointSchema, end: planPointSchema,
+  altitudeStartM: n, altitudeEndM: n, altitudeStartAboveTakeoffM: n, altitudeEndAboveTakeoffM: n,
+  aglMinM: n, aglMaxM: n, gsdMinCm: n, gsdMaxCm: n, gradient: n,
+});
+
+export const unmetStretchSchema = z.object({ startM: n, endM: n, reason: z.enum(unmetReasons), message: z.string() });
+
+export const planLineSchema = z.object({
+  index: z.number().int(), headingDeg: n, lengthM: n,
+  start: z.object({ lon: n, lat: n }), end: z.object({ lon: n, lat: n }),
+  areaStartM: n, areaEndM: n,
+  stations: z.array(planStationSchema), legs: z.array(planLegSchema),
+  unmet: z.array(unmetStretchSchema), warnings: z.array(planWarningSchema),
+});
+
+export const planSummarySchema = z.object({
+  lineCount: z.number().int(), photoCount: z.number().int(), flightDistanceM: n, flightTimeS: n, batteries: z.number().int(),
+  gsdCm: z.object({ min: nn, median: nn, max: nn }),
+  forwardOverlapMin: fraction.nullable(), sideOverlapMin: fraction.nullable(), aglMinM: nn, aglMaxM: nn,
+  shareWithinGsdTarget: fraction, flaggedStationCount: z.number().int(), unmetLengthM: n,
+  mode: altitudeModeSchema, headingDeg: n, plannedHeightM: n, gsdBandCm: z.object({ min: n, max: n }),
+  lineSpacingM: n, triggerDistanceM: n, footprintAcrossM: n, footprintAlongM: n, maxDistanceFromTakeoffM: n,
+});
+
+export const headingOptionSchema = z.object({ headingDeg: n, lineCount: z.number().int(), flightDistanceM: n, aglSpreadM: n, aglRangeMaxM: n });
+
+/** The whole analysis. */
+export const planResultSchema = z.object({
+  lines: z.array(planLineSchema),
+  summary: planSummarySchema,
+  warnings: z.array(planWarningSchema),
+  takeoff: z.object({ lon: n, lat: n, groundM: n, geoidUndulationM: n }),
+  heights: z.object({ datum: z.string(), aboveTakeoff: z.string() }),
+  headingAdvice: z.object({ recommendedDeg: n, options: z.array(headingOptionSchema) }).nullable(),
+  frame: z.object({ crs: z.string(), epsg: z.number().int().nullable() }),
+});
+
+export type PlanResultData = z.infer<typeof planResultSchema>;

@@ -1,0 +1,346 @@
+/** The whole mission analysis over a grid: lines, stations, overlaps, altitude legs, estimates and warnings (CLI `plan`, worker and API). */
+import type { Grid } from './grid';
+import { TerrainError } from './errors';
+import { footprintM, heightForGsdM, airBaseM, lineSpacingM } from './gsd';
+import { pixelPitchMm } from './camera';
+import { resolveMission, type Mission } from './mission';
+import { localFrameFor, localHeights, type LocalFrame } from './local-frame';
+import { planFlightLines, polygonToLocal, pointAlong, type FlightLine } from './lines';
+import { fitAltitudes, type AltitudeLimits, type UnmetStretch } from './altitude';
+import { stationOverlaps, type StationFlag } from './overlap';
+import { adviseHeading, type HeadingAdvice } from './heading';
+import { estimateMission } from './estimates';
+import { geoidUndulationM } from './heights';
+import { planSafetyWarnings, transitWarnings, type PlanWarning } from './plan-warnings';
+
+export type { PlanWarning } from './plan-warnings';
+
+/** A point of a line: longitude, latitude and distance from the line start. */
+export interface PlanPoint { lon: number; lat: number; distanceM: number }
+
+/** One exposure station as the plan expects it to turn out over the real terrain. */
+export interface PlanStation {
+  lon: number;
+  lat: number;
+  distanceM: number;
+  /** Ground under the station, metres above the grid's vertical datum (null where unknown). */
+  groundM: number | null;
+  /** Planned altitude above the grid's vertical datum. */
+  altitudeM: number;
+  altitudeAboveTakeoffM: number;
+  aglM: number | null;
+  gsdCm: number | null;
+  forwardOverlap: number | null;
+  sideOverlap: number | null;
+  flags: StationFlag[];
+}
+
+/** One straight altitude leg of a line. */
+export interface PlanLeg {
+  start: PlanPoint;
+  end: PlanPoint;
+  altitudeStartM: number;
+  altitudeEndM: number;
+  altitudeStartAboveTakeoffM: number;
+  altitudeEndAboveTakeoffM: number;
+  aglMinM: number;
+  aglMaxM: number;
+  gsdMinCm: number;
+  gsdMaxCm: number;
+  /** Rise over run in the flying direction (climb positive). */
+  gradient: number;
+}
+
+/** One flight line with its stations and legs. */
+export interface PlanLine {
+  index: number;
+  headingDeg: number;
+  lengthM: number;
+  start: { lon: number; lat: number };
+  end: { lon: number; lat: number };
+  /** Where the line is over the survey area (distances from its start); outside it are the run-in and run-out. */
+  areaStartM: number;
+  areaEndM: number;
+  stations: PlanStation[];
+  legs: PlanLeg[];
+  unmet: UnmetStretch[];
+  warnings: PlanWarning[];
+}
+
+/** Plan-wide figures. */
+export interface PlanSummary {
+  lineCount: number;
+  photoCount: number;
+  flightDistanceM: number;
+  flightTimeS: number;
+  batteries: number;
+  gsdCm: { min: number | null; median: number | null; max: number | null };
+  forwardOverlapMin: number | null;
+  sideOverlapMin: number | null;
+  aglMinM: number | null;
+  aglMaxM: number | null;
+  /** Share of stations whose GSD lies within the target's tolerance band, fraction. */
+  shareWithinGsdTarget: number;
+  flaggedStationCount: number;
+  unmetLengthM: number;
+  mode: Mission['mode'];
+  headingDeg: number;
+  plannedHeightM: number;
+  gsdBandCm: { min: number; max: number };
+  lineSpacingM: number;
+  triggerDistanceM: number;
+  footprintAcrossM: number;
+  footprintAlongM: number;
+  maxDistanceFromTakeoffM: number;
+}
+
+/** The analysis result (the CLI `plan` JSON document). */
+export interface PlanResult {
+  lines: PlanLine[];
+  summary: PlanSummary;
+  warnings: PlanWarning[];
+  takeoff: { lon: number; lat: number; groundM: number; geoidUndulationM: number };
+  heights: { datum: string; aboveTakeoff: string };
+  headingAdvice: HeadingAdvice | null;
+  frame: { crs: string; epsg: number | null };
+}
+
+const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
+const orNull = (v: number) => (Number.isFinite(v) ? v : null);
+
+/** Ground-profile step from the grid's pixel size (metres), clamped to 1..10 m. */
+export function autoStepM(grid: Grid, latDeg: number): number {
+  const t = grid.transform;
+  let dx = Math.hypot(t[1], t[4]);
+  let dy = Math.hypot(t[2], t[5]);
+  if (grid.crs.geographic) { dx *= 111_320 * Math.cos((latDeg * Math.PI) / 180); dy *= 110_574; }
+  else if (grid.crs.horizontalUnit === 'foot') { dx *= 0.3048; dy *= 0.3048; }
+  else if (grid.crs.horizontalUnit === 'us-survey-foot') { dx *= 1200 / 3937; dy *= 1200 / 3937; }
+  return Math.min(10, Math.max(1, Math.min(dx, dy)));
+}
+
+/**
+ * WGS 84 bbox [minLon, minLat, maxLon, maxLat] of the grid a mission needs: its area and takeoff point,
+ * widened by the run-in, an air base and the largest footprint at the height limit (so a reader can decode
+ * only the tiles under it).
+ */
+export function missionBboxWgs84(input: unknown): [number, number, number, number] {
+  const m = resolveMission(input);
+  let lo0 = m.takeoff.lon, la0 = m.takeoff.lat, lo1 = lo0, la1 = la0;
+  for (const [lon, lat] of m.area.coordinates[0]) { lo0 = Math.min(lo0, lon); lo1 = Math.max(lo1, lon); la0 = Math.min(la0, lat); la1 = Math.max(la1, lat); }
+  const fp = footprintM(m.camera, m.maxAglM);
+  const marginM = m.runInM + Math.max(fp.acrossM, fp.alongM) * 1.5 + 50;
+  const dLat = marginM / 110_574;
+  const dLon = marginM / (111_320 * Math.max(0.05, Math.cos((((la0 + la1) / 2) * Math.PI) / 180)));
+  return [lo0 - dLon, la0 - dLat, lo1 + dLon, la1 + dLat];
+}
+
+function centroid(ring: number[][]): [number, number] {
+  let x = 0, y = 0;
+  const n = ring.length - 1;
+  for (let i = 0; i < n; i++) { x += ring[i][0]; y += ring[i][1]; }
+  return [x / n, y / n];
+}
+
+/** Distances along a line: every `stepM` plus the stations, sorted; with each station's index in it. */
+function profileDistances(line: FlightLine, stepM: number): { x: Float64Array; stationIdx: Int32Array } {
+  const n = Math.max(2, Math.ceil(line.lengthM / stepM) + 1);
+  const all: number[] = [];
+  for (let i = 0; i < n; i++) all.push(Math.min(line.lengthM, (line.lengthM * i) / (n - 1)));
+  for (const s of line.stationsM) all.push(s);
+  all.sort((a, b) => a - b);
+  const x: number[] = [];
+  for (const v of all) if (x.length === 0 || v - x[x.length - 1] > 1e-6) x.push(v);
+  const xs = Float64Array.from(x);
+  const stationIdx = new Int32Array(line.stationsM.length);
+  let j = 0;
+  for (let s = 0; s < line.stationsM.length; s++) {
+    while (j < xs.length - 1 && xs[j] < line.stationsM[s] - 1e-6) j++;
+    stationIdx[s] = j;
+  }
+  return { x: xs, stationIdx };
+}
+
+/** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
+export function analysePlan(grid: Grid, missionInput: unknown): PlanResult {
+  const mission = resolveMission(missionInput);
+  const cam = mission.camera;
+  const [cLon, cLat] = centroid(mission.area.coordinates[0]);
+  const frame: LocalFrame = localFrameFor(cLon, cLat);
+  const heights = localHeights(grid, frame);
+  const area = polygonToLocal(mission.area as never, frame.toLocal);
+  const H = heightForGsdM(cam, mission.targetGsdCm);
+  const spacing = lineSpacingM(cam, H, mission.sideOverlap);
+  const base = airBaseM(cam, H, mission.forwardOverlap);
+  const fp = footprintM(cam, H);
+  const stepM = mission.stationStepM ?? autoStepM(grid, cLat);
+  const headingAdvice = mission.headingDeg === 'advise'
+    ? adviseHeading(area, heights.sampleMany, { lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, sampleStepM: Math.max(stepM, 10) })
+    : null;
+  const headingDeg = headingAdvice ? headingAdvice.recommendedDeg : (mission.headingDeg as number);
+  const takeoffXY = frame.toLocal(mission.takeoff.lon, mission.takeoff.lat);
+  const takeoffGroundM = heights.heightAt(takeoffXY[0], takeoffXY[1]);
+  if (!Number.isFinite(takeoffGroundM)) {
+    throw new TerrainError('outside-grid', `The takeoff point (${mission.takeoff.lon}, ${mission.takeoff.lat}) is off the elevation grid or over nodata, so altitudes above takeoff cannot be given; move it onto the grid.`);
+  }
+  const lines = planFlightLines(area, { headingDeg, lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, takeoff: takeoffXY });
+  const lim: AltitudeLimits = {
+    targetHeightM: H,
+    bandLowM: H * (1 - mission.gsdTolerance),
+    bandHighM: H * (1 + mission.gsdTolerance),
+    clearanceM: mission.clearanceM + mission.obstacleAllowanceM,
+    maxAglM: mission.maxAglM,
+    climbGradient: mission.climbMps / mission.speedMps,
+    descentGradient: mission.descentMps / mission.speedMps,
+    minLegLengthM: mission.minLegLengthM,
+    maxLegsPerLine: mission.maxLegsPerLine,
+    roundingM: mission.altitudeRoundingM,
+  };
+  // ground profiles: one batch sample per line, stations included as samples
+  const profiles = lines.map((line) => {
+    const { x, stationIdx } = profileDistances(line, stepM);
+    const xs = new Float64Array(x.length), ys = new Float64Array(x.length), g = new Float64Array(x.length);
+    for (let i = 0; i < x.length; i++) { const p = pointAlong(line, x[i]); xs[i] = p[0]; ys[i] = p[1]; }
+    heights.sampleMany(xs, ys, g);
+    return { x, stationIdx, fit: fitAltitudes(x, g, mission.mode, lim) };
+  });
+  const offsets = [...new Set(lines.map((l) => l.offsetM))].sort((a, b) => a - b);
+  const photos = lines.map((line, li) => {
+    const { x, stationIdx, fit } = profiles[li];
+    void x;
+    const n = line.stationsM.length;
+    const px = new Float64Array(n), py = new Float64Array(n), alt = new Float64Array(n);
+    for (let s = 0; s < n; s++) {
+      const p = pointAlong(line, line.stationsM[s]);
+      px[s] = p[0]; py[s] = p[1];
+      alt[s] = fit.altitudeM[stationIdx[s]];
+    }
+    return { headingDeg: line.headingDeg, row: offsets.indexOf(line.offsetM), x: px, y: py, altitudeM: alt };
+  });
+  const gsdPerM = (pixelPitchMm(cam) / cam.focalLengthMm) * 100;
+  const band = { min: mission.targetGsdCm * (1 - mission.gsdTolerance), max: mission.targetGsdCm * (1 + mission.gsdTolerance) };
+  const results = stationOverlaps(cam, heights.heightAt, photos, headingDeg, {
+    forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, gsdMinCm: band.min, gsdMaxCm: band.max,
+    maxAglM: mission.maxAglM, clearanceM: lim.clearanceM, plannedHeightM: H,
+  });
+  const aboveTakeoff = (z: number) => round(z - takeoffGroundM, 2);
+  const ll = (x: number, y: number) => { const [lon, lat] = frame.toLonLat(x, y); return { lon: round(lon, 8), lat: round(lat, 8) }; };
+  const outLines: PlanLine[] = lines.map((line, li) => {
+    const fit = profiles[li].fit;
+    const stations: PlanStation[] = results[li].map((r, s) => ({
+      ...ll(photos[li].x[s], photos[li].y[s]),
+      distanceM: round(line.stationsM[s], 3),
+      groundM: r.groundM === null ? null : round(r.groundM, 3),
+      altitudeM: round(photos[li].altitudeM[s], 3),
+      altitudeAboveTakeoffM: aboveTakeoff(photos[li].altitudeM[s]),
+      aglM: r.aglM === null ? null : round(r.aglM, 3),
+      gsdCm: r.gsdCm === null ? null : round(r.gsdCm, 4),
+      forwardOverlap: r.forwardOverlap === null ? null : round(r.forwardOverlap, 4),
+      sideOverlap: r.sideOverlap === null ? null : round(r.sideOverlap, 4),
+      flags: r.flags,
+    }));
+    const at = (d: number): PlanPoint => { const p = pointAlong(line, d); return { ...ll(p[0], p[1]), distanceM: round(d, 3) }; };
+    const legs: PlanLeg[] = fit.legs.map((leg) => ({
+      start: at(leg.startM),
+      end: at(leg.endM),
+      altitudeStartM: round(leg.altitudeStartM, 3),
+      altitudeEndM: round(leg.altitudeEndM, 3),
+      altitudeStartAboveTakeoffM: aboveTakeoff(leg.altitudeStartM),
+      altitudeEndAboveTakeoffM: aboveTakeoff(leg.altitudeEndM),
+      aglMinM: round(leg.aglMinM, 3),
+      aglMaxM: round(leg.aglMaxM, 3),
+      gsdMinCm: round(leg.aglMinM * gsdPerM, 4),
+      gsdMaxCm: round(leg.aglMaxM * gsdPerM, 4),
+      gradient: round(leg.gradient, 6),
+    }));
+    const warnings: PlanWarning[] = [];
+    if (fit.unknownCount > 0) {
+      warnings.push({ code: 'ground-unknown', message: `Line ${li + 1}: ${fit.unknownCount} of ${fit.groundM.length} ground samples have no elevation data; heights there were carried over from known neighbours.` });
+    }
+    return {
+      index: li, headingDeg: round(line.headingDeg, 6), lengthM: round(line.lengthM, 3),
+      start: ll(line.start[0], line.start[1]), end: ll(line.end[0], line.end[1]),
+      areaStartM: round(line.areaStartM, 3), areaEndM: round(line.areaEndM, 3),
+      stations, legs, unmet: fit.unmet.map((u) => ({ ...u, startM: round(u.startM, 3), endM: round(u.endM, 3) })), warnings,
+    };
+  });
+  // summary
+  const gsds: number[] = [], agls: number[] = [];
+  let fwdMin = Infinity, sideMin = Infinity, within = 0, flagged = 0, photoCount = 0, maxFromTakeoff = 0;
+  results.forEach((lr, li) => lr.forEach((r, s) => {
+    photoCount++;
+    if (r.gsdCm !== null) { gsds.push(r.gsdCm); if (r.gsdCm >= band.min - 1e-9 && r.gsdCm <= band.max + 1e-9) within++; }
+    if (r.aglM !== null) agls.push(r.aglM);
+    if (r.forwardOverlap !== null) fwdMin = Math.min(fwdMin, r.forwardOverlap);
+    if (r.sideOverlap !== null) sideMin = Math.min(sideMin, r.sideOverlap);
+    if (r.flags.length > 0) flagged++;
+    maxFromTakeoff = Math.max(maxFromTakeoff, Math.hypot(photos[li].x[s] - takeoffXY[0], photos[li].y[s] - takeoffXY[1]));
+  }));
+  gsds.sort((a, b) => a - b);
+  const med = gsds.length === 0 ? null : gsds.length % 2 ? gsds[gsds.length >> 1] : (gsds[gsds.length / 2 - 1] + gsds[gsds.length / 2]) / 2;
+  let lineDistanceM = 0, transitDistanceM = 0;
+  lines.forEach((l, i) => {
+    lineDistanceM += l.lengthM;
+    if (i > 0) transitDistanceM += Math.hypot(l.start[0] - lines[i - 1].end[0], l.start[1] - lines[i - 1].end[1]);
+  });
+  const first = lines[0], last = lines[lines.length - 1];
+  transitDistanceM += Math.hypot(first.start[0] - takeoffXY[0], first.start[1] - takeoffXY[1]) + Math.hypot(last.end[0] - takeoffXY[0], last.end[1] - takeoffXY[1]);
+  const firstAlt = profiles[0].fit.legs[0]?.altitudeStartM ?? NaN;
+  const lastLegs = profiles[profiles.length - 1].fit.legs;
+  const lastAlt = lastLegs[lastLegs.length - 1]?.altitudeEndM ?? NaN;
+  const est = estimateMission({
+    photoCount, lineDistanceM, transitDistanceM, lineCount: lines.length, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS,
+    climbM: Number.isFinite(firstAlt) ? Math.max(0, firstAlt - takeoffGroundM) : 0,
+    descentM: Number.isFinite(lastAlt) ? Math.max(0, lastAlt - takeoffGroundM) : 0,
+    climbMps: mission.climbMps, descentMps: mission.descentMps, enduranceMin: mission.enduranceMin, batteryReserve: mission.batteryReserve,
+  });
+  const unmetLengthM = outLines.reduce((s, l) => s + l.unmet.reduce((t, u) => t + (u.endM - u.startM), 0), 0);
+  const summary: PlanSummary = {
+    lineCount: lines.length,
+    photoCount,
+    flightDistanceM: round(est.flightDistanceM, 1),
+    flightTimeS: round(est.flightTimeS, 1),
+    batteries: est.batteries,
+    gsdCm: { min: gsds.length ? round(gsds[0], 4) : null, median: med === null ? null : round(med, 4), max: gsds.length ? round(gsds[gsds.length - 1], 4) : null },
+    forwardOverlapMin: orNull(round(fwdMin, 4)),
+    sideOverlapMin: orNull(round(sideMin, 4)),
+    aglMinM: agls.length ? round(Math.min(...agls), 3) : null,
+    aglMaxM: agls.length ? round(Math.max(...agls), 3) : null,
+    shareWithinGsdTarget: photoCount ? round(within / photoCount, 4) : 0,
+    flaggedStationCount: flagged,
+    unmetLengthM: round(unmetLengthM, 1),
+    mode: mission.mode,
+    headingDeg,
+    plannedHeightM: round(H, 3),
+    gsdBandCm: { min: round(band.min, 4), max: round(band.max, 4) },
+    lineSpacingM: round(spacing, 3),
+    triggerDistanceM: round(base, 3),
+    footprintAcrossM: round(fp.acrossM, 3),
+    footprintAlongM: round(fp.alongM, 3),
+    maxDistanceFromTakeoffM: round(maxFromTakeoff, 1),
+  };
+  const warnings: PlanWarning[] = [
+    ...planSafetyWarnings(mission, { maxDistanceFromTakeoffM: maxFromTakeoff, targetHeightM: H }),
+    ...transitWarnings(lines, profiles.map((p) => p.fit.legs), takeoffXY, takeoffGroundM, heights.heightAt, lim.clearanceM),
+    ...outLines.flatMap((l) => l.warnings),
+  ];
+  if (unmetLengthM > 0) {
+    const byReason = new Map<string, number>();
+    for (const l of outLines) for (const u of l.unmet) byReason.set(u.reason, (byReason.get(u.reason) ?? 0) + u.endM - u.startM);
+    warnings.push({ code: 'band-not-held', message: `The GSD band or the height limit is not held over ${round(unmetLengthM, 0)} m of line (${[...byReason].map(([r, m]) => `${r} ${Math.round(m)} m`).join(', ')}); see each line's unmet stretches.` });
+  }
+  if (flagged > 0) warnings.push({ code: 'stations-flagged', message: `${flagged} of ${photoCount} photos are flagged (overlap or GSD off target over the real terrain); see each station's flags.` });
+  if (est.batteries > 1) warnings.push({ code: 'batteries', message: `The flight needs about ${est.batteries} batteries (${round(est.flightTimeS / 60, 1)} min of flight, ${round(est.usablePerBatteryS / 60, 1)} min usable per battery after the reserve); plan the battery changes.` });
+  return {
+    lines: outLines,
+    summary,
+    warnings,
+    takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3) },
+    heights: {
+      datum: 'altitudeM, groundM: metres above the elevation grid\'s vertical datum (usually orthometric, e.g. EGM96 or a national datum)',
+      aboveTakeoff: 'altitude…AboveTakeoffM: metres above the ground at the takeoff point, as sampled from the grid',
+    },
+    headingAdvice,
+    frame: { crs: frame.crs.name, epsg: frame.crs.epsg },
+  };
+}
