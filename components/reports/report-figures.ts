@@ -1,0 +1,87 @@
+/** The compliance report's figures as label/value pairs, in the order the screen and the PDF print them. */
+import type { ComplianceReport, ReportLine, StationStats } from '../../contracts/reports';
+import { formatCount, formatDuration, formatGsd, formatLength, formatPercent } from '../projects/units';
+
+export type Figure = { key: string; label: string; value: string };
+
+/** Degrees as a three-digit bearing ("094°"), a dash when unknown. */
+export function formatHeading(deg: number | null | undefined): string {
+  if (deg === null || deg === undefined || !Number.isFinite(deg)) return '–';
+  const d = ((Math.round(deg) % 360) + 360) % 360;
+  return `${String(d).padStart(3, '0')}°`;
+}
+
+/** The station figures every line and the whole plan share. */
+export function statsFigures(s: StationStats): Figure[] {
+  return [
+    { key: 'share', label: 'Stations meeting the GSD target', value: formatPercent(s.shareMeetingGsd, 1) },
+    { key: 'gsd-min', label: 'GSD min', value: formatGsd(s.gsdCm.min) },
+    { key: 'gsd-p5', label: 'GSD 5th percentile', value: formatGsd(s.gsdCm.p5) },
+    { key: 'gsd-median', label: 'GSD median', value: formatGsd(s.gsdCm.median) },
+    { key: 'gsd-max', label: 'GSD max', value: formatGsd(s.gsdCm.max) },
+    { key: 'forward-min', label: 'Forward overlap min', value: formatPercent(s.forwardOverlapMin, 1) },
+    { key: 'side-min', label: 'Side overlap min', value: formatPercent(s.sideOverlapMin, 1) },
+    { key: 'agl-min', label: 'Height above ground min', value: formatLength(s.aglMinM, 'metric', 1) },
+    { key: 'agl-max', label: 'Height above ground max', value: formatLength(s.aglMaxM, 'metric', 1) },
+    {
+      key: 'known',
+      label: 'Stations with known ground',
+      value: `${formatCount(s.knownCount)} of ${formatCount(s.stationCount)}`,
+    },
+  ];
+}
+
+/** Overall: the plan's size first, then the station figures. */
+export function overallFigures(o: ComplianceReport['overall']): Figure[] {
+  return [
+    { key: 'lines', label: 'Flight lines', value: formatCount(o.lineCount) },
+    { key: 'photos', label: 'Photos', value: formatCount(o.photoCount) },
+    { key: 'time', label: 'Flight time', value: formatDuration(o.flightTimeS) },
+    ...statsFigures(o),
+  ];
+}
+
+/** One line: length, heading and legs, then its station figures. */
+export function lineFigures(l: ReportLine): Figure[] {
+  return [
+    { key: 'length', label: 'Length', value: formatLength(l.lengthM, 'metric') },
+    { key: 'heading', label: 'Heading', value: formatHeading(l.headingDeg) },
+    { key: 'legs', label: 'Altitude legs', value: formatCount(l.legCount) },
+    ...statsFigures(l),
+  ];
+}
+
+/** The spec as the client stated it. */
+export function specFigures(spec: ComplianceReport['spec']): Figure[] {
+  return [
+    { key: 'target', label: 'Target GSD', value: `${formatGsd(spec.targetGsdCm)} ± ${formatPercent(spec.gsdTolerance)}` },
+    { key: 'band', label: 'Accepted GSD band', value: `${formatGsd(spec.gsdBandCm[0])} – ${formatGsd(spec.gsdBandCm[1])}` },
+    { key: 'forward', label: 'Forward overlap', value: formatPercent(spec.forwardOverlap) },
+    { key: 'side', label: 'Side overlap', value: formatPercent(spec.sideOverlap) },
+    { key: 'clearance', label: 'Clearance above ground', value: formatLength(spec.clearanceM, 'metric') },
+    { key: 'obstacles', label: 'Obstacle allowance', value: formatLength(spec.obstacleAllowanceM, 'metric') },
+    { key: 'max-agl', label: 'Height limit above ground', value: formatLength(spec.maxAglM, 'metric') },
+    { key: 'mode', label: 'Altitude mode', value: spec.altitudeMode },
+  ];
+}
+
+/** The elevation grid the analysis used. */
+export function demFigures(dem: ComplianceReport['dem']): Figure[] {
+  const [lo, hi] = dem.elevationRangeM;
+  const res = `${dem.resolution[0].toLocaleString('en-GB', { maximumFractionDigits: 3 })} × ${dem.resolution[1].toLocaleString('en-GB', { maximumFractionDigits: 3 })} ${dem.resolutionUnit}`;
+  return [
+    { key: 'site', label: 'Elevation grid', value: dem.siteName },
+    { key: 'file', label: 'File', value: dem.fileName },
+    { key: 'crs', label: 'Coordinate system', value: dem.crs.epsg ? `${dem.crs.name} (EPSG:${dem.crs.epsg})` : dem.crs.name },
+    { key: 'resolution', label: 'Resolution', value: res },
+    { key: 'datum', label: 'Vertical datum', value: dem.verticalDatum },
+    { key: 'surface', label: 'Surface', value: dem.surfaceKind === 'bare-earth' ? 'Bare earth (no trees, masts or buildings)' : 'Surface model (includes what stands on the ground)' },
+    { key: 'range', label: 'Elevation range', value: lo === null || hi === null ? '–' : `${formatLength(lo, 'metric', 1)} – ${formatLength(hi, 'metric', 1)}` },
+  ];
+}
+
+/** "2–4 cm" for an advisory accuracy range, or a dash. */
+export function formatRangeCm(r: readonly [number, number] | null): string {
+  if (!r) return '–';
+  return `${r[0].toLocaleString('en-GB', { maximumFractionDigits: 1 })}–${r[1].toLocaleString('en-GB', { maximumFractionDigits: 1 })} cm`;
+}

@@ -1,0 +1,131 @@
+/** The compliance report of one plan version: spec against results, per line and overall, the grid, cautions, sign-off. */
+import { StyleSheet, View } from 'react-native';
+import { reviewStateLabels } from '../../contracts/reviews';
+import type { ComplianceReport } from '../../contracts/reports';
+import { errorMessage } from '../api/api-error';
+import { formatDayTime } from '../projects/format-date';
+import { reviewStateTones } from '../reviews/review-state';
+import { RequirePermission } from '../team/require-permission';
+import { space } from '../theme';
+import { Badge, Banner, Card, Heading, Loading, Screen, Text, TextLink } from '../ui';
+import { BulletList } from './bullet-list';
+import { DownloadLink } from './download-link';
+import { FigureGrid } from './figure-grid';
+import { demFigures, formatRangeCm, overallFigures, specFigures } from './report-figures';
+import { ReportLineCard } from './report-line-card';
+import { SpecChecks } from './spec-checks';
+import { useReportScreen } from './use-report-screen';
+
+/** Route screen; planners, surveyors and owners read it (report:read), pilots read leg sheets instead. */
+export function ReportScreen() {
+  const s = useReportScreen();
+  const r = s.report.data;
+  return (
+    <Screen
+      title="Compliance report"
+      subtitle={r ? `${r.plan.name} · version ${r.version.number} · ${r.project.name} for ${r.project.client}` : undefined}
+      testID="report-screen"
+    >
+      <TextLink href={s.versionHref} label="← Back to the version" testID="report-back" />
+      <RequirePermission permission="report:read" what="The compliance report">
+        {s.report.isPending ? <Loading label="Building the report…" /> : null}
+        {s.report.isError ? <Banner tone="danger" title="Could not load the report" message={errorMessage(s.report.error)} testID="report-failure" /> : null}
+        {r ? <ReportBody report={r} pdfHref={s.pdfHref} /> : null}
+      </RequirePermission>
+    </Screen>
+  );
+}
+
+function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref: string | null }) {
+  const passed = r.checks.filter((c) => c.pass).length;
+  return (
+    <>
+      <View style={styles.topLine}>
+        <Badge label={reviewStateLabels[r.version.reviewState]} tone={reviewStateTones[r.version.reviewState]} testID="report-state" />
+        <Text tone="muted">
+          Analysed {formatDayTime(r.version.analysedAt)}
+          {r.version.createdBy ? ` · prepared by ${r.version.createdBy}` : ''}
+        </Text>
+      </View>
+      {pdfHref ? <DownloadLink href={pdfHref} label="Download PDF" detail="The same report, printable, with sign-off block" testID="report-pdf" /> : null}
+
+      <Card testID="report-spec">
+        <Heading level={2}>Spec against results</Heading>
+        <Text tone="muted" testID="report-checks-summary">
+          {passed} of {r.checks.length} requirements met.
+        </Text>
+        <SpecChecks checks={r.checks} />
+        <Heading level={3}>The client's spec</Heading>
+        <FigureGrid figures={specFigures(r.spec)} testID="spec" />
+      </Card>
+
+      <Card testID="report-overall">
+        <Heading level={2}>All lines together</Heading>
+        <FigureGrid figures={overallFigures(r.overall)} testID="overall" />
+        <Text variant="label" tone="muted">
+          {r.percentileMethod}
+        </Text>
+      </Card>
+
+      <View style={styles.section}>
+        <Heading level={2}>Line by line</Heading>
+        {r.lines.map((line) => (
+          <ReportLineCard key={line.number} line={line} bandCm={r.spec.gsdBandCm} targetCm={r.spec.targetGsdCm} />
+        ))}
+      </View>
+
+      <Card testID="report-dem">
+        <Heading level={2}>Elevation grid used</Heading>
+        <FigureGrid figures={demFigures(r.dem)} testID="dem" />
+      </Card>
+
+      <Banner tone="info" title="Accuracy: advisory only" testID="report-accuracy">
+        <Text>
+          Horizontal {formatRangeCm(r.accuracy.horizontalCm)}, vertical {formatRangeCm(r.accuracy.verticalCm)}
+          {r.accuracy.basisGsdCm !== null ? `, from a median GSD of ${r.accuracy.basisGsdCm.toFixed(2)} cm` : ''}.
+        </Text>
+        <Text>
+          {r.accuracy.ruleOfThumb} ({r.accuracy.source}).
+        </Text>
+        <Text variant="bodyStrong">{r.accuracy.deferral}</Text>
+      </Banner>
+
+      <Card testID="report-assumptions">
+        <Heading level={2}>Assumptions</Heading>
+        <BulletList items={r.assumptions} />
+      </Card>
+
+      {r.warnings.length ? (
+        <Banner tone="caution" title="Warnings from the analysis" testID="report-warnings">
+          <BulletList items={r.warnings} tone="caution" />
+        </Banner>
+      ) : null}
+
+      <Banner tone="caution" title="Cautions" testID="report-cautions">
+        <BulletList items={r.cautions} tone="caution" />
+      </Banner>
+
+      <Card testID="report-sign-off">
+        <Heading level={2}>Sign-off</Heading>
+        <FigureGrid
+          figures={[
+            { key: 'state', label: 'State', value: reviewStateLabels[r.signOff.state] },
+            { key: 'by', label: 'Signed off by', value: r.signOff.signedOffBy ?? '–' },
+            { key: 'at', label: 'Signed off on', value: formatDayTime(r.signOff.signedOffAt) },
+            { key: 'version', label: 'Version', value: String(r.version.number) },
+          ]}
+          testID="sign-off"
+        />
+        <Text>{r.signOff.statement}</Text>
+        <Text variant="label" tone="muted">
+          Report generated {formatDayTime(r.generatedAt)}.
+        </Text>
+      </Card>
+    </>
+  );
+}
+
+const styles = StyleSheet.create({
+  topLine: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
+  section: { gap: space.md },
+});
