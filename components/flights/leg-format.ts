@@ -1,0 +1,68 @@
+/** Leg-sheet wording: altitudes in the project's units, ranges, coordinates, leg kinds and battery packs. */
+import type { BatteryPlan, SheetLeg } from '../../contracts/flights';
+import type { UnitSystem } from '../../contracts/projects';
+import { formatDuration, formatLength, lengthUnit, toDisplayLength } from '../projects/units';
+
+/** Below this difference (in metres) a leg's start and end altitude print as one figure: the server calls it level too. */
+export const levelToleranceM = 0.05;
+
+function whole(metres: number, units: UnitSystem): string {
+  return Math.round(toDisplayLength(metres, units)).toLocaleString('en-GB');
+}
+
+/** "62 m" for a level leg, "62 → 75 m" for a climb or descent; whole units, as a pilot sets them. */
+export function formatAltitudePair(pair: { start: number; end: number }, units: UnitSystem): string {
+  const unit = lengthUnit(units);
+  if (Math.abs(pair.end - pair.start) < levelToleranceM) return `${whole(pair.start, units)} ${unit}`;
+  return `${whole(pair.start, units)} → ${whole(pair.end, units)} ${unit}`;
+}
+
+/** The same with one decimal, for the datum altitude (it is compared with survey heights, not set on a controller). */
+export function formatDatumPair(pair: { start: number; end: number }, units: UnitSystem): string {
+  if (Math.abs(pair.end - pair.start) < levelToleranceM) return formatLength(pair.start, units, 1);
+  const unit = lengthUnit(units);
+  const one = (m: number) => toDisplayLength(m, units).toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+  return `${one(pair.start)} → ${one(pair.end)} ${unit}`;
+}
+
+/** "58–66 m"; a single figure when both ends agree; a dash when unknown. */
+export function formatRange(r: { min: number | null; max: number | null }, units: UnitSystem): string {
+  if (r.min === null || r.max === null) return '–';
+  const unit = lengthUnit(units);
+  const lo = whole(r.min, units);
+  const hi = whole(r.max, units);
+  return lo === hi ? `${lo} ${unit}` : `${lo}–${hi} ${unit}`;
+}
+
+/** "2.9–3.1 cm" (GSD stays in centimetres in both unit systems). */
+export function formatGsdRange(r: { min: number | null; max: number | null }): string {
+  if (r.min === null || r.max === null) return '–';
+  const f = (v: number) => v.toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+  return f(r.min) === f(r.max) ? `${f(r.min)} cm` : `${f(r.min)}–${f(r.max)} cm`;
+}
+
+/** Latitude, longitude in decimal degrees, six places (about 0.1 m), in the order map apps accept when pasted. */
+export function formatLatLon(p: { lat: number; lon: number }): string {
+  return `${p.lat.toFixed(6)}, ${p.lon.toFixed(6)}`;
+}
+
+/** "Level", "Climb 3.2 %" or "Descent 2.1 %". */
+export function legKindLabel(leg: Pick<SheetLeg, 'kind' | 'gradientPct'>): string {
+  if (leg.kind === 'level') return 'Level';
+  const pct = Math.abs(leg.gradientPct).toLocaleString('en-GB', { maximumFractionDigits: 1 });
+  return `${leg.kind === 'climb' ? 'Climb' : 'Descent'} ${pct} %`;
+}
+
+/** "Lines 1–3" or "Line 4" or "Lines 1, 3, 5" for a battery pack. */
+export function packLinesLabel(lines: readonly number[]): string {
+  if (lines.length === 0) return 'No lines';
+  if (lines.length === 1) return `Line ${lines[0]}`;
+  const consecutive = lines.every((n, i) => i === 0 || n === lines[i - 1]! + 1);
+  return consecutive ? `Lines ${lines[0]}–${lines[lines.length - 1]}` : `Lines ${lines.join(', ')}`;
+}
+
+/** One sentence for the battery plan's head: count, usable time per battery and the reserve kept. */
+export function batterySummary(b: BatteryPlan): string {
+  const reserve = `${Math.round(b.reserve * 100)} %`;
+  return `${b.count} ${b.count === 1 ? 'battery' : 'batteries'}: ${formatDuration(b.usablePerBatteryS)} usable each of ${b.enduranceMin} min, keeping ${reserve} in reserve.`;
+}

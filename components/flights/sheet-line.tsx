@@ -1,0 +1,38 @@
+/** One flight line of the leg sheet: its number in flying order, heading, length, time, photos, warnings and legs. */
+import { StyleSheet, View } from 'react-native';
+import type { SheetLine as SheetLineData } from '../../contracts/flights';
+import type { UnitSystem } from '../../contracts/projects';
+import { formatCount, formatDuration, formatLength } from '../projects/units';
+import { BulletList } from '../reports/bullet-list';
+import { formatHeading } from '../reports/report-figures';
+import { space } from '../theme';
+import { Banner, Card, Heading, Text } from '../ui';
+import { LegCard } from './leg-card';
+import { formatLatLon } from './leg-format';
+
+/** testID line-N. */
+export function SheetLine({ line, units, datumName }: { line: SheetLineData; units: UnitSystem; datumName: string }) {
+  return (
+    <Card testID={`line-${line.number}`}>
+      <Heading level={2}>Line {line.number}</Heading>
+      <Text variant="bodyStrong">
+        Heading {formatHeading(line.headingDeg)} · {formatLength(line.lengthM, units)} · {formatDuration(line.timeS)} · {formatCount(line.photoCount)} photos
+      </Text>
+      <Text tone="muted">
+        From {formatLatLon(line.start)} to {formatLatLon(line.end)}
+      </Text>
+      {line.warnings.length ? (
+        <Banner tone="caution" title="On this line">
+          <BulletList items={line.warnings} tone="caution" />
+        </Banner>
+      ) : null}
+      <View style={styles.legs}>
+        {line.legs.map((leg) => (
+          <LegCard key={leg.number} leg={leg} lineNumber={line.number} units={units} datumName={datumName} />
+        ))}
+      </View>
+    </Card>
+  );
+}
+
+const styles = StyleSheet.create({ legs: { gap: space.md } });
