@@ -4,6 +4,7 @@ import { StyleSheet, View } from 'react-native';
 import { can, roleLabels, roles, roleSummaries } from '../../contracts/roles';
 import { errorMessage } from '../api/api-error';
 import { useMembers, useRemoveMember, useUpdateMemberRole } from '../api/members.queries';
+import { InvitationsCard } from '../invitations/invitations-card';
 import { space } from '../theme';
 import { Banner, Button, Card, EmptyState, Heading, Loading, Screen, Text } from '../ui';
 import { useCurrentTeam } from './current-team-context';
@@ -56,6 +57,7 @@ export function MembersScreen() {
             </View>
           </Card>
         ) : null}
+        {team && can(role, 'invitation:manage') ? <InvitationsCard teamId={team.id} /> : null}
         <Card>
           <Heading level={2}>What each role may do</Heading>
           {roles.map((r) => (
