@@ -5,6 +5,7 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { roleLabels, roleSummaries } from '../../contracts/roles';
 import { authClient, authFailureFrom } from '../auth/auth-client';
+import { OutboxLink } from '../outbox/outbox-link';
 import { rememberTeam } from '../team/team-storage';
 import { useCurrentTeam } from '../team/current-team-context';
 import { colors, layout, space } from '../theme';
@@ -56,6 +57,7 @@ export function ProfileScreen() {
           <Text tone="muted">No team yet.</Text>
         )}
         <TextLink href="/teams" label={me.teams.length > 1 ? 'Switch team' : 'Create another team'} testID="profile-teams" />
+        <OutboxLink />
       </Card>
       <Button label="Sign out" variant="secondary" busy={busy} onPress={() => void signOut()} testID="sign-out" style={styles.signOut} />
     </Screen>
