@@ -11,6 +11,8 @@ export interface Command {
 const COMMANDS: Record<string, () => Promise<Command>> = {
   info: () => import('./info'),
   sample: () => import('./sample'),
+  gsd: () => import('./gsd'),
+  plan: () => import('./plan'),
 };
 
 async function main(argv: string[]): Promise<void> {

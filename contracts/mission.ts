@@ -28,8 +28,8 @@ export const distortionSchema = z.object({
 /** Camera: sensor (mm), lens (mm), image (px); which image side runs along track; optional principal point and Brown distortion. */
 export const cameraSchema = z
   .object({
-    sensorWidthMm: positive('camera.sensorWidthMm', 200),
-    sensorHeightMm: positive('camera.sensorHeightMm', 200),
+    sensorWidthMm: positive('camera.sensorWidthMm', 500),
+    sensorHeightMm: positive('camera.sensorHeightMm', 500),
     focalLengthMm: positive('camera.focalLengthMm', 1000),
     imageWidthPx: positive('camera.imageWidthPx', 100_000).int({ error: 'camera.imageWidthPx must be whole pixels.' }),
     imageHeightPx: positive('camera.imageHeightPx', 100_000).int({ error: 'camera.imageHeightPx must be whole pixels.' }),

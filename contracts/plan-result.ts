@@ -56,7 +56,7 @@ export const planResultSchema = z.object({
   summary: planSummarySchema,
   warnings: z.array(planWarningSchema),
   takeoff: z.object({ lon: n, lat: n, groundM: n, geoidUndulationM: n }),
-  heights: z.object({ datum: z.string(), aboveTakeoff: z.string() }),
+  heights: z.object({ datum: z.string(), aboveTakeoff: z.string(), verticalDatum: z.object({ epsg: z.number().int().nullable(), name: z.string() }).nullable() }),
   headingAdvice: z.object({ recommendedDeg: n, options: z.array(headingOptionSchema) }).nullable(),
   frame: z.object({ crs: z.string(), epsg: z.number().int().nullable() }),
 });

@@ -239,8 +239,11 @@ function corridor(x: Float64Array, h: Float64Array, floor: Float64Array, safe: F
   }
   const capHigh = ceilingProfile(x, c.cap, gc, gd).high;
   for (let i = 0; i < n; i++) capHigh[i] = Math.max(capHigh[i], safe[i]);
+  // Lower edge at the target height, not the band's: below the target the footprints shrink and the overlaps
+  // fall under their targets, so the band's lower half is left to where the limits force it (unmet stretches
+  // and forced legs are judged against the whole band).
   const lowBase = mk();
-  for (let i = 0; i < n; i++) lowBase[i] = Math.max(c.bandLo[i], safe[i]);
+  for (let i = 0; i < n; i++) lowBase[i] = Math.max(c.target[i], safe[i]);
   const low = safeProfile(x, lowBase, gc, gd);
   // every mode rounds altitudes up: aim one rounding step under the band top
   const highBase = mk();

@@ -75,8 +75,8 @@ export function checkCamera(c: Camera): void {
     const v = c[name] as unknown;
     check(typeof v === 'number' && Number.isFinite(v) && v > 0 && v <= max, `camera.${name} must be a number in (0, ${max}], got ${JSON.stringify(v)}.`);
   };
-  pos('sensorWidthMm', 200);
-  pos('sensorHeightMm', 200);
+  pos('sensorWidthMm', 500); // up to large-format film frames (230 mm)
+  pos('sensorHeightMm', 500);
   pos('focalLengthMm', 1000);
   pos('imageWidthPx', 100_000);
   pos('imageHeightPx', 100_000);

@@ -33,4 +33,4 @@ export type { Estimate, EstimateInput } from './estimates';
 export { resolveMission, checkArea, ringAreaM2, MISSION_DEFAULTS, MISSION_RANGES, MAX_AREA_KM2 } from './mission';
 export type { Mission, MissionInput, AreaPolygon, NumberRange } from './mission';
 export { analysePlan, missionBboxWgs84, autoStepM } from './plan';
-export type { PlanResult, PlanLine, PlanLeg, PlanStation, PlanSummary, PlanPoint, PlanWarning } from './plan';
+export type { PlanResult, PlanLine, PlanLeg, PlanStation, PlanSummary, PlanPoint, PlanWarning, AnalyseOptions } from './plan';

@@ -119,10 +119,11 @@ export function intervalOverlap(a0: number, a1: number, b0: number, b1: number):
 }
 
 /**
- * GSD, forward and side overlap and flags at every station of every line. Forward overlap is the least,
- * over the left, centre and right image columns, of the along-track overlap with the previous photo; side
- * overlap the least, over the image rows, of the across-track overlap with each neighbouring row's strip at that
- * row's position. Every figure comes from the photos' ground extents over the real terrain.
+ * GSD, forward and side overlap and flags at every station of every line. Forward overlap is the share of the
+ * photo's footprint area that the previous photo also covers: the along-track overlap of the left, centre and
+ * right image columns, combined by the trapezoid rule (1 : 2 : 1); side overlap likewise over the front, centre
+ * and back image rows against each neighbouring row's strip, the lesser of the two neighbours. Every figure
+ * comes from the photos' ground extents over the real terrain.
  */
 export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], layoutHeadingDeg: number, t: OverlapTargets): StationResult[][] {
   const ext = lines.map((l) => photoExtents(camera, heightAt, l, layoutHeadingDeg));
@@ -155,9 +156,10 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       for (let k = 0; k < STRIDE; k++) if (Number.isNaN(e[o + k])) complete = false;
       let forwardOverlap: number | null = null;
       if (s > 0) {
-        let m = Infinity;
+        // share of the footprint area: trapezoid rule over the left, centre and right image columns
         const p = o - STRIDE;
-        for (let col = 0; col < 3; col++) m = Math.min(m, intervalOverlap(e[p + col * 2], e[p + col * 2 + 1], e[o + col * 2], e[o + col * 2 + 1]));
+        const col = (k: number) => intervalOverlap(e[p + k * 2], e[p + k * 2 + 1], e[o + k * 2], e[o + k * 2 + 1]);
+        const m = (col(0) + 2 * col(1) + col(2)) / 4;
         forwardOverlap = Number.isNaN(m) ? null : m;
       }
       let sideOverlap: number | null = null;
@@ -191,15 +193,15 @@ function terrainWhy(aglM: number | null, plannedM: number): string {
 }
 
 /**
- * Least across-track overlap of photo `o` with a neighbouring row: for each image row (front, centre, back)
+ * Across-track overlap of photo `o` with a neighbouring row: for each image row (front, centre, back)
  * the neighbouring strip's across-track extent at that row's along-track position, interpolated between the
  * two neighbour photos around it (so the figure does not jump as the photos of the two rows slide past each
  * other); null where the neighbouring row does not reach this far (the area's edge).
  */
 function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: number; a: number }>, ext: Float64Array[]): number | null {
   if (list.length === 0) return null;
-  let m = Infinity;
-  let any = false;
+  let m = 0;
+  let weight = 0;
   for (let r = 0; r < 3; r++) {
     const a = e[o + 12 + r];
     if (Number.isNaN(a)) return null;
@@ -220,8 +222,9 @@ function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: num
     const c1 = ep[bp + 9] + (eq[bq + 9] - ep[bp + 9]) * f;
     const v = intervalOverlap(e[o + 6 + r * 2], e[o + 7 + r * 2], c0, c1);
     if (Number.isNaN(v)) return null;
-    any = true;
-    m = Math.min(m, v);
+    const w = r === 1 ? 2 : 1; // trapezoid rule over the front, centre and back image rows
+    m += w * v;
+    weight += w;
   }
-  return any ? m : null;
+  return weight > 0 ? m / weight : null;
 }

@@ -100,7 +100,7 @@ export interface PlanResult {
   summary: PlanSummary;
   warnings: PlanWarning[];
   takeoff: { lon: number; lat: number; groundM: number; geoidUndulationM: number };
-  heights: { datum: string; aboveTakeoff: string };
+  heights: { datum: string; aboveTakeoff: string; verticalDatum: { epsg: number | null; name: string } | null };
   headingAdvice: HeadingAdvice | null;
   frame: { crs: string; epsg: number | null };
 }
@@ -161,8 +161,13 @@ function profileDistances(line: FlightLine, stepM: number): { x: Float64Array; s
   return { x: xs, stationIdx };
 }
 
+/** What the caller knows about the grid beyond the Grid itself (from the GeoTIFF header). */
+export interface AnalyseOptions {
+  verticalDatum?: { epsg: number | null; name: string } | null;
+}
+
 /** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
-export function analysePlan(grid: Grid, missionInput: unknown): PlanResult {
+export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOptions = {}): PlanResult {
   const mission = resolveMission(missionInput);
   const cam = mission.camera;
   const [cLon, cLat] = centroid(mission.area.coordinates[0]);
@@ -174,15 +179,15 @@ export function analysePlan(grid: Grid, missionInput: unknown): PlanResult {
   const base = airBaseM(cam, H, mission.forwardOverlap);
   const fp = footprintM(cam, H);
   const stepM = mission.stationStepM ?? autoStepM(grid, cLat);
-  const headingAdvice = mission.headingDeg === 'advise'
-    ? adviseHeading(area, heights.sampleMany, { lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, sampleStepM: Math.max(stepM, 10) })
-    : null;
-  const headingDeg = headingAdvice ? headingAdvice.recommendedDeg : (mission.headingDeg as number);
   const takeoffXY = frame.toLocal(mission.takeoff.lon, mission.takeoff.lat);
   const takeoffGroundM = heights.heightAt(takeoffXY[0], takeoffXY[1]);
   if (!Number.isFinite(takeoffGroundM)) {
     throw new TerrainError('outside-grid', `The takeoff point (${mission.takeoff.lon}, ${mission.takeoff.lat}) is off the elevation grid or over nodata, so altitudes above takeoff cannot be given; move it onto the grid.`);
   }
+  const headingAdvice = mission.headingDeg === 'advise'
+    ? adviseHeading(area, heights.sampleMany, { lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, sampleStepM: Math.max(stepM, 10) })
+    : null;
+  const headingDeg = headingAdvice ? headingAdvice.recommendedDeg : (mission.headingDeg as number);
   const lines = planFlightLines(area, { headingDeg, lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, takeoff: takeoffXY });
   const lim: AltitudeLimits = {
     targetHeightM: H,
@@ -337,8 +342,9 @@ export function analysePlan(grid: Grid, missionInput: unknown): PlanResult {
     warnings,
     takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3) },
     heights: {
-      datum: 'altitudeM, groundM: metres above the elevation grid\'s vertical datum (usually orthometric, e.g. EGM96 or a national datum)',
+      datum: `altitudeM, groundM: metres above the elevation grid's vertical datum (${opts.verticalDatum ? opts.verticalDatum.name : 'not stated in the file; usually orthometric, e.g. EGM96 or a national datum'})`,
       aboveTakeoff: 'altitude…AboveTakeoffM: metres above the ground at the takeoff point, as sampled from the grid',
+      verticalDatum: opts.verticalDatum ?? null,
     },
     headingAdvice,
     frame: { crs: frame.crs.name, epsg: frame.crs.epsg },

@@ -61,6 +61,16 @@ describe('fitAltitudes', () => {
     expect(hold.unmet.map((u) => u.reason)).toContain('hold');
   });
 
+  it('flies at or above the target height where the limits allow (below it the overlaps would shrink)', () => {
+    const { x, h } = profile(601, 5, (d) => 200 + 40 * Math.sin(d / 400) + 0.02 * d);
+    const p = fitAltitudes(x, h, 'follow', LIM);
+    expect(p.unmet).toEqual([]);
+    for (let i = 0; i < x.length; i++) {
+      expect(p.altitudeM[i] - h[i]).toBeGreaterThanOrEqual(LIM.targetHeightM - 1e-6);
+      expect(p.altitudeM[i] - h[i]).toBeLessThanOrEqual(LIM.bandHighM + 1e-6);
+    }
+  });
+
   it('reports a cliff steeper than the climb limit as a climb-limit stretch before it, never cutting the clearance', () => {
     const { x, h } = profile(401, 5, (d) => (d < 1000 ? 100 : 160));
     const p = fitAltitudes(x, h, 'follow', LIM);
