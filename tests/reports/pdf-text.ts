@@ -1,9 +1,12 @@
 /** Read PDFs back in tests with poppler-utils (Debian 12: 22.12.0; `npm test` installs it via scripts/bootstrap.sh). */
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawnSync } from 'node:child_process';
 
-/** The text of a PDF as `pdftotext -layout` prints it (table rows stay on one line). */
+/** The text of a PDF as `pdftotext -layout` prints it (table rows stay on one line); throws if poppler reports errors. */
 export function pdfText(pdf: Buffer): string {
-  return execFileSync('pdftotext', ['-layout', '-enc', 'UTF-8', '-', '-'], { input: pdf, maxBuffer: 32 * 1024 * 1024 }).toString('utf8');
+  const r = spawnSync('pdftotext', ['-layout', '-enc', 'UTF-8', '-', '-'], { input: pdf, maxBuffer: 32 * 1024 * 1024 });
+  const stderr = r.stderr?.toString('utf8') ?? '';
+  if (r.status !== 0 || /error/i.test(stderr)) throw new Error(`pdftotext could not read the PDF cleanly (status ${r.status}): ${stderr.trim()}`);
+  return r.stdout.toString('utf8');
 }
 
 /** Fonts listed by `pdffonts`: name and whether embedded. */

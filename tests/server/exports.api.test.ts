@@ -5,7 +5,7 @@ import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { waypointColumns, type Waypoint } from '../../contracts/exports';
 import type { LegSheet } from '../../contracts/flights';
-import { createVersion, freshTeam, syntheticResult, type FreshTeam, type VersionFixture } from '../support/fixtures';
+import { createVersion, freshTeam, type FreshTeam, type VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 let srv: TestServer;
@@ -155,7 +155,7 @@ describe('who may export what', () => {
 
 describe('heights from an ellipsoidal grid', () => {
   it('gives sea-level altitudes as the datum altitude less the geoid height, and leaves ellipsoidal ones unchanged', async () => {
-    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', result: syntheticResult() });
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off' });
     await srv.db.$client.query(`update site set vertical_datum = 'WGS 84 ellipsoid' where id = $1`, [v.siteId]);
     const fc = (await download(v.path, 'geojson')).body;
     const parsed = typeof fc === 'string' ? JSON.parse(fc) : fc;

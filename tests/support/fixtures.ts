@@ -1,7 +1,7 @@
 /**
- * Test data for the review, report, leg-sheet and export suites: a fresh team with one member per role, and analysed
- * plan versions inserted straight into the database (project, site, plan, version) over a small synthetic hill.
- * When the planner routes can create and run plans, suites may build versions through them instead.
+ * Test data for the review, report, leg-sheet and export suites: a fresh team with one member per role, and plan
+ * versions inserted straight into the database (project, site, plan, version) with the terrain engine's analysis
+ * (analysePlan) of a small synthetic hill. Suites may build versions through the planner routes instead.
  */
 import crypto from 'node:crypto';
 import { eq } from 'drizzle-orm';
@@ -9,9 +9,11 @@ import type { Role } from '../../contracts/roles';
 import type { ReviewState } from '../../contracts/reviews';
 import { member, plan, planVersion, project, site, user } from '../../db/schema';
 import { WGS84, createTransform, utmCrs } from '../../terrain/crs';
-import { createGrid, sampleBilinear, type Grid } from '../../terrain/grid';
+import { createGrid, type Grid } from '../../terrain/grid';
 import { describeGrid } from '../../terrain/metadata';
 import type { MissionInput } from '../../terrain/mission';
+import { analysePlan } from '../../terrain/plan';
+import type { PlanResultData } from '../../contracts/plan-result';
 import { ApiClient, uniqueEmail } from './http-client';
 import type { TestServer } from './test-server';
 
@@ -59,9 +61,9 @@ const origin = { e: 512_000, n: 6_012_000 };
 
 /**
  * A 1 km x 1 km synthetic grid at 5 m: a ramp rising 30 m to the north and a 12 m round hill in the middle
- * (invented terrain, no real place).
+ * (invented terrain, no real place). `hole` blanks a block of pixels (rows r0..r1, columns c0..c1, ends excluded).
  */
-export function syntheticGrid(): Grid {
+export function syntheticGrid(opts: { hole?: { rows: [number, number]; cols: [number, number] } } = {}): Grid {
   const width = 200;
   const height = 200;
   const px = 5;
@@ -73,8 +75,13 @@ export function syntheticGrid(): Grid {
       data[r * width + c] = 180 + 0.03 * (y + 500) + 12 * Math.exp(-(x * x + y * y) / (2 * 180 * 180));
     }
   }
+  const h = opts.hole;
+  if (h) for (let r = h.rows[0]; r < h.rows[1]; r++) for (let c = h.cols[0]; c < h.cols[1]; c++) data[r * width + c] = Number.NaN;
   return createGrid({ width, height, data, transform: [origin.e, px, 0, origin.n + 1000, 0, -px], crs: siteCrs });
 }
+
+/** A nodata block under the first lines of the fixture plan (x 300..350 m, y 150..250 m from the grid's south-west corner). */
+export const fixtureHole = { rows: [150, 170] as [number, number], cols: [60, 70] as [number, number] };
 
 const toLonLat = createTransform(siteCrs, WGS84);
 
@@ -104,79 +111,16 @@ export function syntheticMission(overrides: Partial<MissionInput> = {}): Mission
   };
 }
 
+let defaultResultJson: string | null = null;
+
 /**
- * An analysis result in the engine's plan-output shape, computed over `grid` with the textbook relations
- * (GSD = H x p / f, footprint = GSD x pixels, overlap = 1 - base / footprint; see shared domain notes): five east-west
- * lines over the hill at the spacing of the side overlap, alternating direction, one level leg per line at the altitude
- * that gives the target GSD over the line's highest ground. `holeAt` puts stations of the first line over unknown ground.
+ * The terrain engine's analysis of the fixture mission over `grid` (default: the plain synthetic hill), as plain JSON,
+ * what a version row stores. The default one is computed once per test file and handed out as fresh copies.
  */
-export function syntheticResult(grid: Grid = syntheticGrid(), opts: { holeAt?: [number, number] } = {}) {
-  const m = syntheticMission();
-  const cam = m.camera;
-  const pitchMm = cam.sensorWidthMm / cam.imageWidthPx;
-  const gsdAt = (aglM: number) => (aglM * 100 * pitchMm) / cam.focalLengthMm;
-  const targetH = (m.targetGsdCm / 100) * (cam.focalLengthMm / pitchMm);
-  const baseM = (1 - (m.forwardOverlap ?? 0.8)) * gsdAt(targetH) / 100 * cam.imageHeightPx;
-  const spacingM = (1 - (m.sideOverlap ?? 0.7)) * (gsdAt(targetH) / 100) * cam.imageWidthPx;
-  const ground = (x: number, y: number) => {
-    const h = sampleBilinear(grid, origin.e + x, origin.n + y);
-    return Number.isFinite(h) ? h : null;
-  };
-  const takeoffGround = ground(500, 120)!;
-  const lines = [0, 1, 2, 3, 4].map((index) => {
-    const y = 500 + (index - 2) * spacingM;
-    const eastward = index % 2 === 0;
-    const xs: number[] = [];
-    for (let d = 0; d <= 700 + 1e-9; d += baseM) xs.push(eastward ? 150 + d : 850 - d);
-    const hs = xs.map((x, i) => (opts.holeAt && index === 0 && i >= opts.holeAt[0] && i < opts.holeAt[1] ? null : ground(x, y)));
-    const zM = Math.max(...hs.filter((h): h is number => h !== null)) + targetH;
-    const stations = xs.map((x, i) => {
-      const h = hs[i];
-      const agl = h === null ? null : zM - h;
-      const gsd = agl === null ? null : gsdAt(agl);
-      const [lon, lat] = toLonLat.forward(origin.e + x, origin.n + y);
-      return {
-        lon,
-        lat,
-        distanceM: Math.abs(x - xs[0]),
-        groundM: h,
-        altitudeM: zM,
-        aglM: agl,
-        gsdCm: gsd,
-        forwardOverlap: gsd === null || i === 0 ? null : 1 - baseM / ((gsd / 100) * cam.imageHeightPx),
-        sideOverlap: gsd === null ? null : 1 - spacingM / ((gsd / 100) * cam.imageWidthPx),
-        flags: [],
-      };
-    });
-    const known = stations.filter((s) => s.aglM !== null);
-    const end = (s: (typeof stations)[number]) => ({ lon: s.lon, lat: s.lat, distanceM: s.distanceM });
-    return {
-      index,
-      stations,
-      legs: [
-        {
-          start: end(stations[0]),
-          end: end(stations[stations.length - 1]),
-          altitudeStartM: zM,
-          altitudeEndM: zM,
-          altitudeStartAboveTakeoffM: zM - takeoffGround,
-          altitudeEndAboveTakeoffM: zM - takeoffGround,
-          aglMinM: Math.min(...known.map((s) => s.aglM!)),
-          aglMaxM: Math.max(...known.map((s) => s.aglM!)),
-          gsdMinCm: Math.min(...known.map((s) => s.gsdCm!)),
-          gsdMaxCm: Math.max(...known.map((s) => s.gsdCm!)),
-          gradient: 0,
-        },
-      ],
-    };
-  });
-  const photoCount = lines.reduce((a, l) => a + l.stations.length, 0);
-  const flightDistanceM = lines.length * 700 + (lines.length - 1) * spacingM;
-  return {
-    lines,
-    summary: { lineCount: lines.length, photoCount, flightDistanceM, flightTimeS: flightDistanceM / 10 + 4 * 10 },
-    warnings: [],
-  };
+export function analysedResult(grid?: Grid): PlanResultData {
+  if (grid) return JSON.parse(JSON.stringify(analysePlan(grid, syntheticMission())));
+  defaultResultJson ??= JSON.stringify(analysePlan(syntheticGrid(), syntheticMission()));
+  return JSON.parse(defaultResultJson);
 }
 
 export interface VersionFixture {
@@ -241,7 +185,7 @@ export async function createVersion(
       reviewState: q.reviewState ?? 'draft',
       analysisState: q.analysisState ?? 'done',
       analysisProgress: analysed ? 100 : 0,
-      result: analysed ? (q.result ?? syntheticResult(grid)) : null,
+      result: analysed ? (q.result ?? analysedResult()) : null,
       analysedAt: analysed ? new Date() : null,
       createdBy: q.createdBy,
       signedOffBy: q.reviewState === 'signed_off' ? q.createdBy : null,
