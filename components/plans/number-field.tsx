@@ -3,6 +3,7 @@ import { useEffect, useState } from 'react';
 import { type Control, type FieldPath, type FieldValues, useController } from 'react-hook-form';
 import { TextField } from '../ui';
 import { numberToText, parseNumberText } from './number-text';
+import { fieldMessage } from './plan-form-schema';
 
 export type NumberFieldProps<T extends FieldValues> = {
   control: Control<T>;
@@ -31,7 +32,7 @@ export function NumberField<T extends FieldValues>({ control, name, label, unit,
   }, [field.value, scale]);
 
   const typed = parseNumberText(text, scale);
-  const error = fieldState.error ? (Number.isNaN(typed) ? `Enter a number${unit ? ` in ${unit}` : ''}.` : fieldState.error.message) : undefined;
+  const error = fieldState.error ? (Number.isNaN(typed) ? `Enter a number${unit ? ` in ${unit}` : ''}.` : fieldMessage(fieldState.error.message)) : undefined;
   return (
     <TextField
       ref={field.ref}

@@ -7,10 +7,11 @@ export type FilePickerProps = {
   onPick: (file: File) => void;
   disabled?: boolean;
   variant?: ButtonVariant;
+  size?: 'regular' | 'compact';
   testID?: string;
 };
 
 /** A disabled button that says why. */
-export function FilePicker({ label, variant = 'secondary', testID }: FilePickerProps) {
-  return <Button label={label} variant={variant} disabled accessibilityLabel={`${label} (only in the web app)`} testID={testID} />;
+export function FilePicker({ label, variant = 'secondary', size, testID }: FilePickerProps) {
+  return <Button label={label} variant={variant} size={size} disabled accessibilityLabel={`${label} (only in the web app)`} testID={testID} />;
 }

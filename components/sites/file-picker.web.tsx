@@ -9,16 +9,17 @@ export type FilePickerProps = {
   onPick: (file: File) => void;
   disabled?: boolean;
   variant?: ButtonVariant;
+  size?: 'regular' | 'compact';
   /** The button's test id; the hidden input gets `${testID}-input` (end-to-end tests set files on it). */
   testID?: string;
 };
 
 /** The input is reset after each pick, so choosing the same file again still reports it. */
-export function FilePicker({ label, accept, onPick, disabled, variant = 'secondary', testID }: FilePickerProps) {
+export function FilePicker({ label, accept, onPick, disabled, variant = 'secondary', size, testID }: FilePickerProps) {
   const input = useRef<HTMLInputElement | null>(null);
   return (
     <>
-      <Button label={label} variant={variant} disabled={disabled} onPress={() => input.current?.click()} testID={testID} />
+      <Button label={label} variant={variant} size={size} disabled={disabled} onPress={() => input.current?.click()} testID={testID} />
       <input
         ref={input}
         type="file"

@@ -10,6 +10,8 @@ export type UploadRequest<S extends z.ZodType> = {
   schema: S;
   onProgress?: (p: UploadProgress) => void;
   signal?: AbortSignal;
+  /** A more specific error for some refusals (e.g. a duplicate with the existing id); null for the usual ApiError. */
+  interpretError?: (status: number, body: unknown) => Error | null;
   /** For tests: the XMLHttpRequest constructor (the browser's by default). */
   Xhr?: typeof XMLHttpRequest;
 };
@@ -35,7 +37,7 @@ export function uploadWithProgress<S extends z.ZodType>(req: UploadRequest<S>): 
       } catch {
         json = undefined;
       }
-      if (xhr.status < 200 || xhr.status >= 300) return reject(apiErrorFrom(xhr.status, json));
+      if (xhr.status < 200 || xhr.status >= 300) return reject(req.interpretError?.(xhr.status, json) ?? apiErrorFrom(xhr.status, json));
       const parsed = req.schema.safeParse(json);
       if (!parsed.success) return reject(new ApiError(xhr.status, 'contract_mismatch', `The server's answer to the upload did not match the expected shape.`));
       resolve(parsed.data);

@@ -1,0 +1,4 @@
+/** Route /projects/:projectId. */
+import { ProjectScreen } from '../../../../components/projects/project-screen';
+
+export default ProjectScreen;

@@ -1,0 +1,4 @@
+/** Route /projects/:projectId/plans/:planId. */
+import { PlanScreen } from '../../../../../../components/plans/plan-editor-screen';
+
+export default PlanScreen;

@@ -1,0 +1,73 @@
+/** The Skia part of the profile chart (victory-native CartesianChart); loaded only in the browser, after CanvasKit. */
+import { DashPathEffect, Line as SkLine, Text as SkText, useFont, vec } from '@shopify/react-native-skia';
+import { StyleSheet, View } from 'react-native';
+import { Area, CartesianChart, Line, Scatter } from 'victory-native';
+import { fontFiles } from '../theme/fonts';
+import { fontFamilies, space } from '../theme';
+import { chartInk, dashIntervals, seriesLooks } from './chart-palette';
+import type { ProfileSeries } from './profile-series';
+
+export type ProfileChartCanvasProps = {
+  series: ProfileSeries;
+  lengthUnit: string;
+  heightTitle: string;
+  heightPx: number;
+};
+
+const fontSizePx = 11;
+const fmt = (v: number) => (Math.abs(v) >= 100 ? v.toFixed(0) : Math.abs(v) >= 10 ? v.toFixed(0) : v.toFixed(1));
+
+export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, heightPx }: ProfileChartCanvasProps) {
+  const font = useFont(fontFiles[fontFamilies.regular], fontSizePx);
+  const dash = (style: keyof typeof dashIntervals) => {
+    const d = dashIntervals[style];
+    return d ? <DashPathEffect intervals={d} /> : null;
+  };
+  return (
+    <View style={[styles.box, { height: heightPx }]} testID="profile-chart-canvas">
+      <CartesianChart
+        data={series.rows}
+        xKey="distance"
+        yKeys={['ground', 'clearance', 'altitude', 'gsd']}
+        domain={{ x: series.distanceDomain }}
+        padding={{ left: space.xs, right: space.xs, top: space.sm, bottom: space.xs }}
+        xAxis={{ font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: 6, formatXLabel: (v) => fmt(Number(v)), title: { text: `Distance along the line (${lengthUnit})`, font, color: chartInk.ink } }}
+        yAxis={[
+          { yKeys: ['ground', 'clearance', 'altitude'], domain: series.heightDomain, font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: 5, formatYLabel: (v) => fmt(Number(v)), title: { text: heightTitle, font, color: chartInk.ink } },
+          { yKeys: ['gsd'], axisSide: 'right', domain: series.gsdDomain, font, labelColor: chartInk.axis, lineColor: 'transparent', tickCount: 5, formatYLabel: (v) => Number(v).toFixed(2), title: { text: 'GSD (cm)', font, color: chartInk.ink } },
+        ]}
+      >
+        {({ points, chartBounds, xScale }) => (
+          <>
+            <Area points={points.ground} y0={chartBounds.bottom} color={chartInk.groundFill} connectMissingData />
+            {series.legs.map((leg) => {
+              const x = xScale(leg.startDistance);
+              return (
+                <SkLine key={`leg-${leg.number}`} p1={vec(x, chartBounds.top)} p2={vec(x, chartBounds.bottom)} color={chartInk.legMark} strokeWidth={1}>
+                  <DashPathEffect intervals={[3, 3]} />
+                </SkLine>
+              );
+            })}
+            {font
+              ? series.legs.map((leg) => (
+                  <SkText key={`leg-label-${leg.number}`} x={(xScale(leg.startDistance) + xScale(leg.endDistance)) / 2 - 6} y={chartBounds.top + fontSizePx} text={`L${leg.number}`} font={font} color={chartInk.ink} />
+                ))
+              : null}
+            <Line points={points.ground} color={seriesLooks.ground.color} strokeWidth={seriesLooks.ground.widthPx} connectMissingData />
+            <Line points={points.clearance} color={seriesLooks.clearance.color} strokeWidth={seriesLooks.clearance.widthPx} connectMissingData>
+              {dash(seriesLooks.clearance.style)}
+            </Line>
+            <Line points={points.altitude} color={seriesLooks.altitude.color} strokeWidth={seriesLooks.altitude.widthPx} connectMissingData />
+            <Scatter points={points.altitude} shape="circle" radius={3.5} color={seriesLooks.altitude.color} />
+            <Line points={points.gsd} color={seriesLooks.gsd.color} strokeWidth={seriesLooks.gsd.widthPx} connectMissingData>
+              {dash(seriesLooks.gsd.style)}
+            </Line>
+            <Scatter points={points.gsd} shape="square" radius={2} color={seriesLooks.gsd.color} />
+          </>
+        )}
+      </CartesianChart>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({ box: { width: '100%' } });

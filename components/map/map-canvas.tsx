@@ -1,0 +1,19 @@
+/** Native builds draw no map yet (Loftline ships for the web; see map-canvas.web.tsx). */
+import { EmptyState } from '../ui';
+import type { MapShape } from './map-shapes';
+
+export type MapCanvasProps = {
+  imageUrl: string;
+  widthPx: number;
+  heightPx: number;
+  shapes: MapShape[];
+  onTap?: (xPx: number, yPx: number) => void;
+  label: string;
+  testID?: string;
+  crosshair?: boolean;
+};
+
+/** Says where the map can be used instead. */
+export function MapCanvas({ testID }: MapCanvasProps) {
+  return <EmptyState testID={testID} title="Map only in the web app" message="Open Loftline in a browser to draw areas and see results on the hillshade." />;
+}

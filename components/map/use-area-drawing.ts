@@ -1,0 +1,71 @@
+/** Drawing on the hillshade: taps become corners or the takeoff point; files become areas; all checked on the way in. */
+import { useCallback, useMemo, useReducer, useState } from 'react';
+import type { Polygon } from 'geojson';
+import { colors } from '../theme';
+import { checkTakeoff, ringToPolygon, type LonLat } from './area-check';
+import { drawingReducer, initialDrawing, type DrawTool } from './area-drawing';
+import { AreaImportError, parseAreaFile } from './area-import';
+import type { ImageGeoref } from './image-georef';
+import type { MapShape, PxPoint } from './map-shapes';
+
+export type AreaDrawing = ReturnType<typeof useAreaDrawing>;
+
+/** `initialArea` and `initialTakeoff` come from a saved plan. */
+export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null, initialTakeoff?: { lon: number; lat: number } | null) {
+  const reducer = useMemo(() => drawingReducer(georef), [georef]);
+  const [state, dispatch] = useReducer(reducer, undefined, () =>
+    initialDrawing(
+      initialArea?.coordinates[0]?.map((p) => [p[0], p[1]] as LonLat) ?? null,
+      initialTakeoff ? [initialTakeoff.lon, initialTakeoff.lat] : null,
+    ),
+  );
+  const [importError, setImportError] = useState<string | null>(null);
+
+  const tapPx = useCallback(
+    (xPx: number, yPx: number) => {
+      setImportError(null);
+      dispatch({ type: 'tap', at: georef.toLonLat(xPx, yPx) });
+    },
+    [georef],
+  );
+
+  const importFile = useCallback(async (file: File) => {
+    setImportError(null);
+    try {
+      const text = await file.text();
+      const got = parseAreaFile(file.name, text);
+      dispatch({ type: 'import', ring: got.ring, note: got.note });
+    } catch (e) {
+      setImportError(e instanceof AreaImportError ? e.message : `Could not read "${file.name}": ${(e as Error).message}`);
+    }
+  }, []);
+
+  const toPx = useCallback((p: LonLat): PxPoint => georef.toPixel(p[0], p[1]), [georef]);
+
+  const shapes = useMemo<MapShape[]>(() => {
+    const out: MapShape[] = [];
+    const px = state.corners.map(toPx);
+    if (px.length > 0) {
+      out.push({ kind: 'polygon', id: 'area', points: px, closed: state.closed, stroke: colors.primary, fill: state.closed ? colors.primary : undefined, fillOpacity: 0.14, dashed: !state.closed, widthPx: 2.5 });
+      px.forEach((p, i) => out.push({ kind: 'marker', id: `corner-${i}`, at: p, shape: 'circle', fill: i === 0 ? colors.primary : colors.surface, stroke: colors.primary, sizePx: 10, label: String(i + 1) }));
+    }
+    if (state.takeoff) out.push({ kind: 'marker', id: 'takeoff', at: toPx(state.takeoff), shape: 'diamond', fill: colors.ink, stroke: colors.surface, sizePx: 16, label: 'Takeoff' });
+    return out;
+  }, [state.corners, state.closed, state.takeoff, toPx]);
+
+  return {
+    state,
+    shapes,
+    tapPx,
+    importFile,
+    importError,
+    undo: () => dispatch({ type: 'undo' }),
+    close: () => dispatch({ type: 'close' }),
+    clear: () => dispatch({ type: 'clear' }),
+    setTool: (tool: DrawTool) => dispatch({ type: 'tool', tool }),
+    /** The area to save: only once closed and checked. */
+    polygon: state.closed ? ringToPolygon(state.corners) : null,
+    takeoff: state.takeoff ? { lon: state.takeoff[0], lat: state.takeoff[1] } : null,
+    takeoffProblem: state.takeoff ? checkTakeoff(state.takeoff, georef) : null,
+  };
+}

@@ -1,0 +1,16 @@
+/** Plans, versions and their analysis states as contracts/plans.ts defines them (one import point for the client). */
+export {
+  analysisStateLabels,
+  analysisStates,
+  planListSchema,
+  planSchema,
+  planVersionSchema,
+  versionListSchema,
+  versionStatusSchema,
+  versionSummarySchema,
+  type AnalysisState,
+  type Plan,
+  type PlanVersion,
+  type VersionStatus,
+  type VersionSummary,
+} from '../../contracts/plans';

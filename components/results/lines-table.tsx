@@ -1,0 +1,171 @@
+/** The flight lines: a sortable table on wide screens, a list of cards on phones; choosing a line shows its chart. */
+import { Pressable, StyleSheet, View, type PressableStateCallbackType } from 'react-native';
+import type { UnitSystem } from '../../contracts/projects';
+import { MarkerGlyph } from '../map/marker-glyph';
+import { formatGsd, formatLength, formatPercent } from '../projects/units';
+import { colors, layout, radii, space } from '../theme';
+import { Text } from '../ui';
+import type { LineRow, LineSortKey } from './line-rows';
+import { statusLooks } from './station-status';
+
+type WebPressState = PressableStateCallbackType & { hovered?: boolean; focused?: boolean };
+
+export type LinesTableProps = {
+  rows: LineRow[];
+  units: UnitSystem;
+  sortKey: LineSortKey;
+  sortDir: 'asc' | 'desc';
+  onSort: (key: LineSortKey) => void;
+  selected: number | null;
+  onSelect: (index: number) => void;
+  layout: 'table' | 'list';
+};
+
+type Column = { key: LineSortKey; label: string; cell: (r: LineRow, u: UnitSystem) => string; flex: number };
+
+const columns: Column[] = [
+  { key: 'number', label: 'Line', cell: (r) => String(r.number), flex: 0.6 },
+  { key: 'lengthM', label: 'Length', cell: (r, u) => formatLength(r.lengthM, u), flex: 1 },
+  { key: 'photos', label: 'Photos', cell: (r) => String(r.photos), flex: 0.8 },
+  { key: 'gsdMinCm', label: 'GSD min', cell: (r) => formatGsd(r.gsdMinCm), flex: 1 },
+  { key: 'gsdMedianCm', label: 'GSD median', cell: (r) => formatGsd(r.gsdMedianCm), flex: 1 },
+  { key: 'gsdMaxCm', label: 'GSD max', cell: (r) => formatGsd(r.gsdMaxCm), flex: 1 },
+  { key: 'forwardOverlapMin', label: 'Forward min', cell: (r) => formatPercent(r.forwardOverlapMin), flex: 1 },
+  { key: 'sideOverlapMin', label: 'Side min', cell: (r) => formatPercent(r.sideOverlapMin), flex: 0.9 },
+  { key: 'aglMinM', label: 'Above ground min', cell: (r, u) => formatLength(r.aglMinM, u), flex: 1.1 },
+  { key: 'legs', label: 'Legs', cell: (r) => String(r.legs), flex: 0.6 },
+  { key: 'warningCount', label: 'Warnings', cell: (r) => (r.warnings.length ? String(r.warnings.length) : '–'), flex: 0.9 },
+];
+
+function FlaggedNote({ row }: { row: LineRow }) {
+  if (row.flagged === 0) {
+    return (
+      <View style={styles.flag}>
+        <MarkerGlyph shape={statusLooks.meets.shape} color={statusLooks.meets.color} sizePx={12} />
+        <Text variant="caption">all photos meet the targets</Text>
+      </View>
+    );
+  }
+  return (
+    <View style={styles.flag}>
+      <MarkerGlyph shape={statusLooks.overlap.shape} color={statusLooks.overlap.color} sizePx={12} />
+      <Text variant="caption">{row.flagged} of {row.photos} photos off target</Text>
+    </View>
+  );
+}
+
+export function LinesTable(p: LinesTableProps) {
+  if (p.layout === 'list') return <LinesList {...p} />;
+  return (
+    <View role="table" aria-label="Flight lines" testID="lines-table" style={styles.table}>
+      <View role="row" style={[styles.tr, styles.thead]}>
+        {columns.map((c) => {
+          const active = p.sortKey === c.key;
+          return (
+            <Pressable
+              key={c.key}
+              role="columnheader"
+              aria-sort={active ? (p.sortDir === 'asc' ? 'ascending' : 'descending') : 'none'}
+              aria-label={`${c.label}: sort`}
+              onPress={() => p.onSort(c.key)}
+              testID={`lines-sort-${c.key}`}
+              style={(s: WebPressState) => [styles.th, { flex: c.flex }, (s.hovered || s.focused) && styles.thHover]}
+            >
+              <Text variant="caption" style={styles.thText}>
+                {c.label}
+                {active ? (p.sortDir === 'asc' ? ' ▲' : ' ▼') : ''}
+              </Text>
+            </Pressable>
+          );
+        })}
+      </View>
+      {p.rows.map((r) => {
+        const selected = r.index === p.selected;
+        return (
+          <Pressable
+            key={r.index}
+            role="row"
+            aria-selected={selected}
+            onPress={() => p.onSelect(r.index)}
+            testID={`line-row-${r.number}`}
+            style={(s: WebPressState) => [styles.tr, styles.body, selected && styles.selected, !selected && (s.hovered || s.focused) && styles.hover]}
+          >
+            {columns.map((c) => (
+              <View key={c.key} role="cell" style={[styles.td, { flex: c.flex }]}>
+                <Text variant={c.key === 'number' ? 'label' : 'caption'}>{c.cell(r, p.units)}</Text>
+              </View>
+            ))}
+          </Pressable>
+        );
+      })}
+    </View>
+  );
+}
+
+function LinesList(p: LinesTableProps) {
+  const sortChoices: { key: LineSortKey; label: string }[] = [
+    { key: 'number', label: 'Order' },
+    { key: 'gsdMaxCm', label: 'GSD max' },
+    { key: 'sideOverlapMin', label: 'Side min' },
+    { key: 'aglMinM', label: 'Lowest' },
+    { key: 'warningCount', label: 'Warnings' },
+  ];
+  return (
+    <View style={styles.listWrap} testID="lines-list">
+      <View style={styles.sortRow} role="group" aria-label="Sort lines">
+        <Text variant="caption" tone="muted">Sort:</Text>
+        {sortChoices.map((c) => (
+          <Pressable key={c.key} role="button" onPress={() => p.onSort(c.key)} testID={`lines-sort-${c.key}`} style={[styles.chip, p.sortKey === c.key && styles.chipOn]}>
+            <Text variant="caption" tone={p.sortKey === c.key ? 'inverse' : 'default'}>
+              {c.label}
+              {p.sortKey === c.key ? (p.sortDir === 'asc' ? ' ▲' : ' ▼') : ''}
+            </Text>
+          </Pressable>
+        ))}
+      </View>
+      <View role="list" aria-label="Flight lines">
+        {p.rows.map((r) => {
+          const selected = r.index === p.selected;
+          return (
+            <Pressable key={r.index} role="listitem" aria-selected={selected} onPress={() => p.onSelect(r.index)} testID={`line-row-${r.number}`} style={[styles.card, selected && styles.selected]}>
+              <Text variant="bodyStrong">
+                Line {r.number} · {formatLength(r.lengthM, p.units)} · {r.photos} photos · {r.legs} leg{r.legs === 1 ? '' : 's'}
+              </Text>
+              <Text variant="caption">
+                GSD {formatGsd(r.gsdMinCm)} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm)} (min / median / max)
+              </Text>
+              <Text variant="caption">
+                Least overlap {formatPercent(r.forwardOverlapMin)} forward, {formatPercent(r.sideOverlapMin)} side · lowest {formatLength(r.aglMinM, p.units)} above ground
+              </Text>
+              <FlaggedNote row={r} />
+              {r.warnings.map((w, i) => (
+                <Text key={i} variant="caption" tone="caution">
+                  ⚠ {w}
+                </Text>
+              ))}
+            </Pressable>
+          );
+        })}
+      </View>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  table: { borderWidth: layout.borderWidthPx, borderColor: colors.line, borderRadius: radii.md, overflow: 'hidden' },
+  tr: { flexDirection: 'row', alignItems: 'center' },
+  thead: { backgroundColor: colors.surfaceSunken, borderBottomWidth: layout.borderWidthPx, borderBottomColor: colors.lineStrong },
+  th: { paddingHorizontal: space.xs, paddingVertical: space.sm, minHeight: layout.compactControlPx, justifyContent: 'center' },
+  thHover: { backgroundColor: colors.line },
+  thText: { fontWeight: '600' },
+  body: { borderBottomWidth: layout.borderWidthPx, borderBottomColor: colors.line, minHeight: layout.compactControlPx, backgroundColor: colors.surface },
+  td: { paddingHorizontal: space.xs, paddingVertical: space.xs },
+  selected: { backgroundColor: colors.infoSoft, borderColor: colors.focus },
+  hover: { backgroundColor: colors.surfaceSunken },
+  flag: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  listWrap: { gap: space.sm },
+  sortRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.xs },
+  chip: { paddingHorizontal: space.sm, paddingVertical: space.xs, borderRadius: radii.pill, borderWidth: layout.borderWidthPx, borderColor: colors.lineStrong, minHeight: layout.compactControlPx, justifyContent: 'center' },
+  chipOn: { backgroundColor: colors.primary, borderColor: colors.primary },
+  card: { gap: space.xxs, padding: space.md, borderWidth: layout.borderWidthPx, borderColor: colors.line, borderRadius: radii.md, marginBottom: space.sm, backgroundColor: colors.surface },
+});

@@ -1,0 +1,51 @@
+/** The results overview as map shapes: survey area, flight lines (the chosen one emphasised), stations by status, takeoff. */
+import type { PlanResult } from '../../terrain/plan';
+import type { ImageGeoref } from '../map/image-georef';
+import type { MapShape, PxPoint } from '../map/map-shapes';
+import { colors } from '../theme';
+import { stationStatus, statusLooks } from './station-status';
+
+/** Shapes in drawing order: area under lines under stations; the selected line's label on top. */
+export function overviewShapes(result: PlanResult, area: number[][][] | null, georef: ImageGeoref, selectedIndex: number | null): MapShape[] {
+  const px = (lon: number, lat: number): PxPoint => georef.toPixel(lon, lat);
+  const out: MapShape[] = [];
+  if (area?.[0]) out.push({ kind: 'polygon', id: 'area', points: area[0].slice(0, -1).map(([lon, lat]) => px(lon, lat)), closed: true, stroke: colors.ink, fill: colors.primary, fillOpacity: 0.08, dashed: true, widthPx: 1.5 });
+  for (const line of result.lines) {
+    const selected = line.index === selectedIndex;
+    out.push({ kind: 'polyline', id: `line-${line.index}`, points: [px(line.start.lon, line.start.lat), px(line.end.lon, line.end.lat)], stroke: selected ? colors.focus : colors.ink, widthPx: selected ? 4 : 1.2 });
+  }
+  for (const line of result.lines) {
+    line.stations.forEach((s, i) => {
+      const look = statusLooks[stationStatus(s)];
+      out.push({ kind: 'marker', id: `st-${line.index}-${i}`, at: px(s.lon, s.lat), shape: look.shape, fill: look.color, stroke: colors.ink, sizePx: line.index === selectedIndex ? 10 : 7 });
+    });
+  }
+  out.push({ kind: 'marker', id: 'takeoff', at: px(result.takeoff.lon, result.takeoff.lat), shape: 'diamond', fill: colors.ink, stroke: colors.surface, sizePx: 15, label: 'Takeoff' });
+  if (selectedIndex !== null) {
+    const line = result.lines.find((l) => l.index === selectedIndex);
+    if (line) out.push({ kind: 'marker', id: 'selected-label', at: px(line.start.lon, line.start.lat), shape: 'circle', fill: colors.focus, stroke: colors.surface, sizePx: 9, label: `Line ${line.index + 1}` });
+  }
+  return out;
+}
+
+function distanceToSegment([x, y]: PxPoint, [x0, y0]: PxPoint, [x1, y1]: PxPoint): number {
+  const dx = x1 - x0;
+  const dy = y1 - y0;
+  const len2 = dx * dx + dy * dy;
+  const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((x - x0) * dx + (y - y0) * dy) / len2));
+  return Math.hypot(x - (x0 + t * dx), y - (y0 + t * dy));
+}
+
+/** The line nearest to an image point, if one lies within `maxPx` image pixels; else null. */
+export function nearestLine(result: PlanResult, georef: ImageGeoref, at: PxPoint, maxPx: number): number | null {
+  let best: number | null = null;
+  let bestD = maxPx;
+  for (const line of result.lines) {
+    const d = distanceToSegment(at, georef.toPixel(line.start.lon, line.start.lat), georef.toPixel(line.end.lon, line.end.lat));
+    if (d <= bestD) {
+      bestD = d;
+      best = line.index;
+    }
+  }
+  return best;
+}

@@ -1,0 +1,47 @@
+/** The plan-wide figures: photos, flight time, batteries, the share of stations within the GSD target, and more. */
+import { StyleSheet, View } from 'react-native';
+import type { UnitSystem } from '../../contracts/projects';
+import type { PlanSummary } from '../../terrain/plan';
+import { formatCount, formatDuration, formatGsd, formatLength, formatPercent } from '../projects/units';
+import { colors, layout, radii, space } from '../theme';
+import { Text } from '../ui';
+
+function Figure({ label, value, note, testID }: { label: string; value: string; note?: string; testID?: string }) {
+  return (
+    <View style={styles.figure} testID={testID}>
+      <Text variant="caption" tone="muted">{label}</Text>
+      <Text variant="title">{value}</Text>
+      {note ? <Text variant="caption" tone="muted">{note}</Text> : null}
+    </View>
+  );
+}
+
+export function SummaryFigures({ summary, units }: { summary: PlanSummary; units: UnitSystem }) {
+  const s = summary;
+  return (
+    <View style={styles.grid} testID="summary-figures">
+      <Figure label="Photos" value={formatCount(s.photoCount)} note={`${s.lineCount} lines`} testID="summary-photos" />
+      <Figure label="Flight time" value={formatDuration(s.flightTimeS)} note={`${formatLength(s.flightDistanceM, units)} flown`} testID="summary-time" />
+      <Figure label="Batteries" value={formatCount(s.batteries)} note="with the reserve kept" testID="summary-batteries" />
+      <Figure label="Within the GSD target" value={formatPercent(s.shareWithinGsdTarget, 1)} note={`band ${formatGsd(s.gsdBandCm.min)} – ${formatGsd(s.gsdBandCm.max)}`} testID="summary-share" />
+      <Figure label="GSD min / median / max" value={`${formatGsd(s.gsdCm.min)} / ${formatGsd(s.gsdCm.median)} / ${formatGsd(s.gsdCm.max)}`} />
+      <Figure label="Least overlap forward / side" value={`${formatPercent(s.forwardOverlapMin)} / ${formatPercent(s.sideOverlapMin)}`} />
+      <Figure label="Height above ground" value={`${formatLength(s.aglMinM, units)} – ${formatLength(s.aglMaxM, units)}`} note={`planned ${formatLength(s.plannedHeightM, units)}`} />
+      <Figure label="Photos off target" value={formatCount(s.flaggedStationCount)} note={s.unmetLengthM > 0 ? `band not held over ${formatLength(s.unmetLengthM, units)}` : 'band held on every line'} />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  figure: {
+    flexGrow: 1,
+    flexBasis: 150,
+    gap: space.xxs,
+    padding: space.md,
+    borderRadius: radii.md,
+    borderWidth: layout.borderWidthPx,
+    borderColor: colors.line,
+    backgroundColor: colors.surface,
+  },
+});

@@ -1,0 +1,40 @@
+/** State of the results view: which line is shown, how the table is sorted, and the overview's shapes. */
+import { useMemo, useState } from 'react';
+import type { PlanResult } from '../../terrain/plan';
+import type { ImageGeoref } from '../map/image-georef';
+import { lineRows, sortLineRows, type LineSortKey } from './line-rows';
+import { nearestLine, overviewShapes } from './overview-shapes';
+import { countStatuses } from './station-status';
+
+/** Taps this close (image pixels) to a line select it. */
+const tapReachPx = 12;
+
+/** The line shown first: the one with the most photos off target (ties: flying order), where a planner looks first. */
+export function firstLineToShow(result: PlanResult): number | null {
+  const rows = lineRows(result.lines);
+  if (rows.length === 0) return null;
+  return sortLineRows(rows, 'flagged', 'desc')[0].index;
+}
+
+export function useResultsView(result: PlanResult, area: number[][][] | null, georef: ImageGeoref) {
+  const [sortKey, setSortKey] = useState<LineSortKey>('number');
+  const [sortDir, setSortDir] = useState<'asc' | 'desc'>('asc');
+  const [selected, setSelected] = useState<number | null>(() => firstLineToShow(result));
+  const rows = useMemo(() => lineRows(result.lines), [result]);
+  const sorted = useMemo(() => sortLineRows(rows, sortKey, sortDir), [rows, sortKey, sortDir]);
+  const counts = useMemo(() => countStatuses(result.lines.flatMap((l) => l.stations)), [result]);
+  const shapes = useMemo(() => overviewShapes(result, area, georef, selected), [result, area, georef, selected]);
+  const onSort = (key: LineSortKey) => {
+    if (key === sortKey) setSortDir(sortDir === 'asc' ? 'desc' : 'asc');
+    else {
+      setSortKey(key);
+      setSortDir(key === 'number' ? 'asc' : 'desc');
+    }
+  };
+  const onMapTap = (xPx: number, yPx: number) => {
+    const hit = nearestLine(result, georef, [xPx, yPx], tapReachPx * (georef.widthPx / 600));
+    if (hit !== null) setSelected(hit);
+  };
+  const selectedLine = result.lines.find((l) => l.index === selected) ?? null;
+  return { rows: sorted, sortKey, sortDir, onSort, selected, setSelected, selectedLine, counts, shapes, onMapTap };
+}
