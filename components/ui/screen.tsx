@@ -10,8 +10,8 @@ export type ScreenProps = {
   subtitle?: string;
   /** Buttons beside the title (below it on phones). */
   actions?: ReactNode;
-  /** `form` keeps a single column of fields narrow even on wide screens. */
-  width?: 'content' | 'form';
+  /** `form` keeps a single column of fields narrow even on wide screens; `full` uses the whole width (side-by-side results). */
+  width?: 'content' | 'form' | 'full';
   children: ReactNode;
   testID?: string;
 };
@@ -27,7 +27,7 @@ export function Screen({ title, subtitle, actions, width = 'content', children, 
       contentContainerStyle={[styles.content, { paddingHorizontal: pad, paddingVertical: pad }]}
       keyboardShouldPersistTaps="handled"
     >
-      <View style={[styles.column, { maxWidth: width === 'form' ? layout.maxFormWidthPx : layout.maxContentWidthPx }]}>
+      <View style={[styles.column, width !== 'full' && { maxWidth: width === 'form' ? layout.maxFormWidthPx : layout.maxContentWidthPx }]}>
         {title || actions ? (
           <View style={[styles.header, breakpoint === 'phone' && styles.headerStacked]}>
             <View style={styles.titles}>
