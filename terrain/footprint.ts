@@ -1,7 +1,9 @@
 /** Rigorous photo footprint: rays through image points cast onto the terrain (iterative ray–terrain intersection, Brown distortion). */
 import type { Camera } from './camera';
-import { pixelRay } from './camera';
+import { checkCamera, pixelRay } from './camera';
+import type { Grid } from './grid';
 import { check } from './errors';
+import { localFrameFor, localHeights } from './local-frame';
 
 /** Ground height (metres, the grid's vertical datum) at a point of a local metric frame (x east, y north); NaN where unknown. */
 export type HeightAt = (xM: number, yM: number) => number;
@@ -186,4 +188,39 @@ export function photoFootprint(camera: Camera, pose: CameraPose, heightAt: Heigh
   const gsdYCm = span(castPixel(camera, pose, rot, cx, cy - d, heightAt, fine), castPixel(camera, pose, rot, cx, cy + d, heightAt, fine), 2 * d);
   const gsdCm = gsdXCm !== null && gsdYCm !== null ? Math.max(gsdXCm, gsdYCm) : null;
   return { corners, centre, areaM2, gsdXCm, gsdYCm, gsdCm, heightAboveCentreM: centre ? pose.altitudeM - centre[2] : null };
+}
+
+/** A camera pose given in WGS 84 longitude/latitude with the altitude above the grid's vertical datum. */
+export interface GeoCameraPose {
+  lon: number;
+  lat: number;
+  altitudeM: number;
+  yawDeg: number;
+  pitchDeg?: number;
+  rollDeg?: number;
+}
+
+/** A footprint ground point in WGS 84 with the grid height there. */
+export interface GeoGroundPoint {
+  lon: number;
+  lat: number;
+  groundM: number;
+}
+
+/** The rigorous footprint of one photo over a grid, for a pose in longitude/latitude (corners back in longitude/latitude). */
+export function footprintOnGrid(
+  grid: Grid, camera: Camera, pose: GeoCameraPose, opts: IntersectOptions = {},
+): Omit<PhotoFootprint, 'corners' | 'centre'> & { corners: Array<GeoGroundPoint | null>; centre: GeoGroundPoint | null } {
+  check(Number.isFinite(pose.lon) && Number.isFinite(pose.lat) && Math.abs(pose.lat) < 84, `pose needs a longitude and a latitude (UTM range), got (${pose.lon}, ${pose.lat}).`);
+  checkCamera(camera);
+  const frame = localFrameFor(pose.lon, pose.lat);
+  const { heightAt } = localHeights(grid, frame);
+  const [x, y] = frame.toLocal(pose.lon, pose.lat);
+  const fp = photoFootprint(camera, { xM: x, yM: y, altitudeM: pose.altitudeM, yawDeg: pose.yawDeg, pitchDeg: pose.pitchDeg, rollDeg: pose.rollDeg }, heightAt, opts);
+  const geo = (p: GroundPoint | null): GeoGroundPoint | null => {
+    if (!p) return null;
+    const [lon, lat] = frame.toLonLat(p[0], p[1]);
+    return { lon, lat, groundM: p[2] };
+  };
+  return { ...fp, corners: fp.corners.map(geo), centre: geo(fp.centre) };
 }

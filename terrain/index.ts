@@ -16,8 +16,8 @@ export { geoidUndulationM, ellipsoidToEgm96, egm96ToEllipsoid } from './heights'
 export { CAMERA_PRESETS, cameraPreset, checkCamera, pixelPitchMm, pixelPitchHeightMm, trackSides, pixelRay, distortNormalised, undistortNormalised } from './camera';
 export type { Camera, CameraPreset, BrownDistortion, AlongTrackSide } from './camera';
 export { gsdCm, heightForGsdM, photoScale, footprintM, airBaseM, lineSpacingM, flatOverlap } from './gsd';
-export { photoFootprint, intersectRay, castPixel, cameraToLocal } from './footprint';
-export type { CameraPose, HeightAt, GroundPoint, PhotoFootprint, IntersectOptions } from './footprint';
+export { photoFootprint, footprintOnGrid, intersectRay, castPixel, cameraToLocal } from './footprint';
+export type { CameraPose, GeoCameraPose, GeoGroundPoint, HeightAt, GroundPoint, PhotoFootprint, IntersectOptions } from './footprint';
 export { localFrameFor, localHeights } from './local-frame';
 export type { LocalFrame, LocalHeights } from './local-frame';
 export { planFlightLines, polygonToLocal, pointAlong, normaliseDeg } from './lines';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { castPixel, cameraToLocal, intersectRay, photoFootprint, type HeightAt } from '../../terrain/footprint';
+import { castPixel, cameraToLocal, footprintOnGrid, intersectRay, photoFootprint, type HeightAt } from '../../terrain/footprint';
 import { localFrameFor, localHeights } from '../../terrain/local-frame';
 import type { Camera } from '../../terrain/camera';
 import { undistortNormalised } from '../../terrain/camera';
@@ -114,6 +114,20 @@ describe('ray–terrain intersection', () => {
     expect(fp.corners[1]).toBeNull(); // top-right corner lies at x = +75 m
     expect(fp.corners[0]).not.toBeNull();
     expect(fp.areaM2).toBeNull();
+  });
+
+  it('works on a grid for a pose in longitude/latitude, handing corners back in longitude/latitude', () => {
+    const grid = utmGrid({ width: 600, height: 600, f: () => 250 });
+    const [lon, lat] = lonLatOf(grid, 300, 300);
+    const fp = footprintOnGrid(grid, ONE_INCH, { lon, lat, altitudeM: 350, yawDeg: 0 });
+    const frame = localFrameFor(lon, lat);
+    const [x0, y0] = frame.toLocal(fp.corners[0]!.lon, fp.corners[0]!.lat);
+    expect(x0).toBeCloseTo(-75, 6); // 100 m above the ground: 150 m x 100 m, top-left to the north-west
+    expect(y0).toBeCloseTo(50, 6);
+    expect(fp.corners[2]!.groundM).toBe(250);
+    expect(fp.areaM2).toBeCloseTo(15000, 3);
+    expect(fp.centre!.lon).toBeCloseTo(lon, 9);
+    expect(() => footprintOnGrid(grid, ONE_INCH, { lon, lat: 89, altitudeM: 350, yawDeg: 0 })).toThrow(TerrainError);
   });
 
   it('throws invalid-input on a pose without a position', () => {
