@@ -14,6 +14,26 @@ import { artifactsDir, projectRoot } from './lib/paths';
 import { createRunDatabase, startCluster } from './lib/postgres';
 import { ensureWebBuild } from './lib/web-build';
 
+function processAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return pid !== process.pid;
+  } catch {
+    return false;
+  }
+}
+
+// The suites of one run share a storage folder of their own (so any worker can read any suite's grid), removed
+// with the run's database; folders of runs that died are cleared. Test servers queue analyses but do not work
+// them unless a suite asks for workers (WORKERS=1 in its server env).
+const testDataDir = path.join(projectRoot, '.test-data');
+for (const d of fs.existsSync(testDataDir) ? fs.readdirSync(testDataDir) : []) {
+  const pid = Number(/^storage-(\d+)$/.exec(d)?.[1]);
+  if (pid && !processAlive(pid)) fs.rmSync(path.join(testDataDir, d), { recursive: true, force: true });
+}
+const storageDir = path.join(testDataDir, `storage-${process.pid}`);
+process.env.STORAGE_DIR ??= storageDir;
+process.env.WORKERS ??= '0';
 const env = parseEnv(process.env);
 const pgPort = Number(process.env.LOFTLINE_PG_PORT ?? 54329);
 const t0 = Date.now();
@@ -43,6 +63,7 @@ const r = spawnSync('npx', ['vitest', 'run', '--reporter=default', '--reporter=j
   env: { ...process.env, LOFTLINE_TEST_DATABASE_URL: databaseUrl, LOFTLINE_WEB_DIST: webDist, NODE_ENV: 'test' },
 });
 await runDb?.drop().catch(() => undefined);
+fs.rmSync(storageDir, { recursive: true, force: true });
 cluster?.stop();
 
 if (fs.existsSync(report)) {

@@ -33,6 +33,15 @@ const envSchema = z.object({
   WORKERS: z.coerce.number().int().min(0).max(16).default(1),
   /** Worker threads for DEM decoding and analyses in this process; 0 runs them on the main thread. */
   TERRAIN_THREADS: z.coerce.number().int().min(0).max(16).default(1),
+  /** Retries of an analysis job that stopped without finishing (a crashed or killed worker). */
+  ANALYSIS_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(3),
+  /** An analysis job still active after this long is taken as lost and retried; keep it above the longest run. */
+  ANALYSIS_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(86_400).default(900),
+  /** How often the job queue looks for lost jobs (pg-boss maintenance), and how often idle workers poll. */
+  JOBS_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+  JOBS_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
+  /** Name of the analysis queue; processes that share a database but should not share work use different names. */
+  ANALYSIS_QUEUE: z.string().regex(/^[a-z0-9][a-z0-9._-]{0,40}$/).default('plan-analysis'),
   DEV_OUTBOX: bool.optional(),
   NODE_ENV: z.string().default('development'),
 });

@@ -4,6 +4,7 @@ import type { Guards } from './http/guard';
 import type { Services } from './services';
 import { projectRouteGroup } from './projects/projects.routes';
 import { siteRouteGroup } from './sites/sites.routes';
+import { planRouteGroup } from './plans/plans.routes';
 import { registerExportRoutes } from './exports/exports.routes';
 import { registerFlightRoutes } from './flights/flights.routes';
 import { registerInvitationRoutes } from './invitations/invitations.routes';
@@ -17,6 +18,7 @@ export type RouteGroup = (api: Router, ctx: { guards: Guards; services: Services
 export const routeGroups: RouteGroup[] = [
   projectRouteGroup,
   siteRouteGroup,
+  planRouteGroup,
   registerReviewRoutes,
   registerReportRoutes,
   registerOutboxRoutes,

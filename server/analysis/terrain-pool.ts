@@ -3,6 +3,7 @@
  * the API: a small pool of worker threads started on first use, one task per thread at a time. `threads: 0`
  * runs the tasks inline (seed scripts, debugging).
  */
+import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { PlanResult } from '../../terrain/index';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
@@ -24,6 +25,9 @@ export interface TerrainRunner {
   close(): Promise<void>;
 }
 
+/** A task before it gets its id (Omit spread over each member of the union). */
+type NewTask = ThreadTask extends infer T ? (T extends ThreadTask ? Omit<T, 'id'> : never) : never;
+
 interface Pending {
   task: ThreadTask;
   resolve: (v: unknown) => void;
@@ -36,7 +40,7 @@ interface Slot {
   busy: Pending | null;
 }
 
-const bootFile = new URL('./terrain-thread-boot.mjs', import.meta.url);
+const bootFile = fileURLToPath(new URL('./terrain-thread-boot.mjs', import.meta.url));
 const entryFile = new URL('./terrain-thread.ts', import.meta.url).href;
 
 /** A Uint8Array that owns its whole buffer (transferable without taking bytes that belong to someone else). */
@@ -107,7 +111,7 @@ export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
     }
   }
 
-  function run<T>(task: Omit<ThreadTask, 'id'>, onProgress?: (pct: number) => void): Promise<T> {
+  function run<T>(task: NewTask, onProgress?: (pct: number) => void): Promise<T> {
     if (closed) return Promise.reject(new Error('The terrain pool is closed.'));
     const full = { ...task, id: nextId++, bytes: ownBuffer(task.bytes) } as ThreadTask;
     return new Promise<T>((resolve, reject) => {

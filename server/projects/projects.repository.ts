@@ -3,13 +3,14 @@ import { and, asc, desc, eq, getTableColumns, ilike, isNotNull, isNull, or, sql,
 import type { CreateProject, Project, ProjectListQuery, UpdateProject } from '../../contracts/projects';
 import { projectListQuerySchema, unitSystemSchema } from '../../contracts/projects';
 import type { Db } from '../../db/client';
-import { plan, project, site } from '../../db/schema';
+import { project } from '../../db/schema';
 
 type ProjectRow = typeof project.$inferSelect;
 
+// Written out with table names: inside a subquery drizzle leaves columns unqualified, and "id" would bind to the inner table.
 const counts = {
-  siteCount: sql<number>`(select count(*)::int from ${site} where ${site.projectId} = ${project.id})`,
-  planCount: sql<number>`(select count(*)::int from ${plan} where ${plan.projectId} = ${project.id})`,
+  siteCount: sql<number>`(select count(*)::int from site s where s.project_id = "project"."id")`,
+  planCount: sql<number>`(select count(*)::int from plan p where p.project_id = "project"."id")`,
 };
 
 function toProject(row: ProjectRow & { siteCount: number; planCount: number }): Project {

@@ -11,7 +11,8 @@ export type SiteRow = typeof site.$inferSelect;
 /** What the metadata column holds: the engine's GridMetadata plus what the file header said. */
 export type StoredSiteMetadata = GridMetadata & { file: DemFileInfo };
 
-const planCount = sql<number>`(select count(*)::int from ${plan} where ${plan.siteId} = ${site.id})`;
+// Written out with table names: inside a subquery drizzle leaves columns unqualified, and "id" would bind to the inner table.
+const planCount = sql<number>`(select count(*)::int from plan p where p.site_id = "site"."id")`;
 
 /** The API shape of a site row. */
 export function toSite(row: SiteRow & { planCount: number }): Site {

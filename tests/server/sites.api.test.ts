@@ -226,7 +226,7 @@ describe('deleting a site', () => {
     const r = await c.delete(`${base}/${s.id}`);
     expect(r.status).toBe(409);
     expect(r.body.error.code).toBe('site_in_use');
-    expect((await c.get(`${base}/${s.id}`)).status).toBe(200);
+    expect((await c.get(`${base}/${s.id}`)).body.planCount).toBe(1);
     expect(filesUnder(path.join(storageDir, 'teams', teamId))).toHaveLength(2);
   });
 });

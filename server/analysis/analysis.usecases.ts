@@ -1,0 +1,139 @@
+/**
+ * Analysing one plan version: claim it, read the part of its DEM the mission needs, run the terrain engine, store
+ * the result once. Safe to run twice for the same version (a retried job): a version already done is left alone,
+ * and only one finish can win.
+ */
+import { and, eq, inArray, ne, sql } from 'drizzle-orm';
+import { planResultSchema } from '../../contracts/plan-result';
+import type { Db } from '../../db/client';
+import { auditEvent, planVersion, site } from '../../db/schema';
+import { TerrainError } from '../../terrain/errors';
+import { StorageNotFoundError, type Storage } from '../storage/storage';
+import type { TerrainRunner } from './terrain-pool';
+
+/** What one attempt ended with. */
+export type AnalysisOutcome = 'done' | 'failed' | 'skipped';
+
+/** A failure that no retry can mend (bad input, missing grid): the version is marked failed at once. */
+class FinalAnalysisError extends Error {}
+
+export interface AttemptInfo {
+  /** 1 for the first attempt. */
+  attempt: number;
+  /** No retry follows this attempt: a failure marks the version failed. */
+  final: boolean;
+}
+
+export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain: TerrainRunner; log?: (msg: string) => void }) {
+  const { db, storage, terrain } = deps;
+  const log = deps.log ?? (() => {});
+
+  /** Take a queued (or interrupted) version for analysis; null when it is already done or failed. */
+  async function claim(versionId: string) {
+    const [row] = await db
+      .update(planVersion)
+      .set({ analysisState: 'running', analysisProgress: 5, analysisError: null })
+      .where(and(eq(planVersion.id, versionId), inArray(planVersion.analysisState, ['queued', 'running'])))
+      .returning({ id: planVersion.id, teamId: planVersion.teamId, planId: planVersion.planId, siteId: planVersion.siteId, input: planVersion.input });
+    return row ?? null;
+  }
+
+  async function setProgress(versionId: string, pct: number) {
+    await db
+      .update(planVersion)
+      .set({ analysisProgress: Math.round(pct) })
+      .where(and(eq(planVersion.id, versionId), eq(planVersion.analysisState, 'running')));
+  }
+
+  /** Write the final state once (never over a done version) with its audit event. */
+  async function settle(v: { id: string; teamId: string; planId: string }, outcome: { result: unknown } | { error: string }): Promise<boolean> {
+    return db.transaction(async (tx) => {
+      const done = 'result' in outcome;
+      const rows = await tx
+        .update(planVersion)
+        .set(
+          done
+            ? { analysisState: 'done', result: outcome.result, analysisProgress: 100, analysisError: null, analysedAt: sql`now()` }
+            : { analysisState: 'failed', analysisError: outcome.error, analysedAt: sql`now()` },
+        )
+        .where(and(eq(planVersion.id, v.id), ne(planVersion.analysisState, 'done')))
+        .returning({ id: planVersion.id });
+      if (rows.length === 0) return false;
+      await tx.insert(auditEvent).values({
+        teamId: v.teamId,
+        planId: v.planId,
+        planVersionId: v.id,
+        action: done ? 'analysis.done' : 'analysis.failed',
+        toState: done ? 'done' : 'failed',
+        comment: done ? null : outcome.error,
+      });
+      return true;
+    });
+  }
+
+  async function compute(v: { id: string; teamId: string; siteId: string; input: unknown }) {
+    const [s] = await db.select({ storageKey: site.storageKey }).from(site).where(and(eq(site.id, v.siteId), eq(site.teamId, v.teamId))).limit(1);
+    if (!s) throw new FinalAnalysisError('The elevation grid of this version is gone.');
+    let bytes: Buffer;
+    try {
+      bytes = await storage.getBytes(s.storageKey);
+    } catch (err) {
+      if (err instanceof StorageNotFoundError) throw new FinalAnalysisError('The stored elevation grid file of this version is missing; upload it again.');
+      throw err;
+    }
+    await setProgress(v.id, 20);
+    let last = 0;
+    const result = await terrain.analyse(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), v.input, (pct) => {
+      if (pct - last >= 5) {
+        last = pct;
+        setProgress(v.id, pct).catch(() => undefined);
+      }
+    });
+    const checked = planResultSchema.safeParse(result);
+    if (!checked.success) throw new FinalAnalysisError(`The analysis produced a result the server cannot store (${checked.error.issues[0]?.message}); this is a Loftline bug.`);
+    return checked.data;
+  }
+
+  return {
+    /** One attempt at analysing a version. Throws (for the queue to retry) only on failures a retry may mend. */
+    async analyseVersion(versionId: string, attempt: AttemptInfo = { attempt: 1, final: true }): Promise<AnalysisOutcome> {
+      const v = await claim(versionId);
+      if (!v) {
+        log(`analysis ${versionId}: already settled, nothing to do`);
+        return 'skipped';
+      }
+      try {
+        const result = await compute(v);
+        const wrote = await settle(v, { result });
+        log(`analysis ${versionId}: ${wrote ? 'done' : 'finished by another worker first'}`);
+        return wrote ? 'done' : 'skipped';
+      } catch (err) {
+        const message = err instanceof TerrainError || err instanceof FinalAnalysisError ? err.message : `The analysis stopped: ${(err as Error)?.message ?? String(err)}`;
+        if (err instanceof TerrainError || err instanceof FinalAnalysisError || attempt.final) {
+          const suffix = attempt.final && !(err instanceof TerrainError || err instanceof FinalAnalysisError) && attempt.attempt > 1 ? ` (after ${attempt.attempt} attempts)` : '';
+          await settle(v, { error: message + suffix });
+          log(`analysis ${versionId}: failed: ${message}`);
+          return 'failed';
+        }
+        // back in the queue: say why the last attempt stopped while the next one waits
+        await db
+          .update(planVersion)
+          .set({ analysisState: 'queued', analysisProgress: 0, analysisError: `Attempt ${attempt.attempt} stopped (${(err as Error)?.message}); trying again.` })
+          .where(and(eq(planVersion.id, versionId), eq(planVersion.analysisState, 'running')));
+        throw err;
+      }
+    },
+
+    /** Mark a version failed when its job ran out of retries without a worker finishing it (e.g. every worker died). */
+    async giveUp(versionId: string, reason: string): Promise<void> {
+      const [v] = await db
+        .select({ id: planVersion.id, teamId: planVersion.teamId, planId: planVersion.planId })
+        .from(planVersion)
+        .where(and(eq(planVersion.id, versionId), inArray(planVersion.analysisState, ['queued', 'running'])))
+        .limit(1);
+      if (v) await settle(v, { error: reason });
+    },
+  };
+}
+
+export type AnalysisUsecases = ReturnType<typeof createAnalysisUsecases>;

@@ -1,0 +1,94 @@
+/**
+ * Plans and their versions. A project's plans: /api/teams/:teamId/projects/:projectId/plans (list, create).
+ * One plan: /api/teams/:teamId/plans/:planId (read, edit, delete, runs, versions, version status), the same
+ * plan-level prefix that reviews, reports and exports use.
+ */
+import type { Request, Router } from 'express';
+import { planListSchema, planSchema, planVersionSchema, runPlanSchema, versionListSchema, versionStatusSchema, versionSummarySchema } from '../../contracts/plans';
+import { errors } from '../http/errors';
+import { requireTeam, type Guards } from '../http/guard';
+import { parseInput, sendJson } from '../http/validate';
+import { jobsOf } from '../jobs/jobs.service';
+import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
+import { idParam } from '../projects/route-params';
+import type { RouteGroup } from '../routes';
+import { createSitesRepository } from '../sites/sites.repository';
+import { createPlansRepository, type PlansRepository } from './plans.repository';
+import { createPlansUsecases, type PlansUsecases } from './plans.usecases';
+
+export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: PlansRepository; projects: ProjectsRepository; usecases: PlansUsecases }) {
+  const { guards, plans, projects, usecases } = deps;
+  const projectPlans = '/teams/:teamId/projects/:projectId/plans';
+  const onePlan = '/teams/:teamId/plans/:planId';
+  const oneVersion = `${onePlan}/versions/:versionId`;
+
+  const actor = (req: Request) => {
+    const { teamId, user } = requireTeam(req);
+    return { teamId, userId: user.id };
+  };
+
+  api.get(projectPlans, guards.permission('plan:read'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    const projectId = idParam(req, 'projectId', 'Project');
+    if (!(await projects.get(teamId, projectId))) throw errors.notFound('Project');
+    sendJson(res, planListSchema, { plans: await plans.list(teamId, projectId) });
+  });
+
+  api.post(projectPlans, guards.permission('plan:write'), async (req, res) => {
+    sendJson(res, planSchema, await usecases.create(actor(req), idParam(req, 'projectId', 'Project'), req.body), 201);
+  });
+
+  api.get(onePlan, guards.permission('plan:read'), async (req, res) => {
+    const found = await plans.get(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'));
+    if (!found) throw errors.notFound('Plan');
+    sendJson(res, planSchema, found);
+  });
+
+  api.patch(onePlan, guards.permission('plan:write'), async (req, res) => {
+    sendJson(res, planSchema, await usecases.update(actor(req), idParam(req, 'planId', 'Plan'), req.body));
+  });
+
+  api.delete(onePlan, guards.permission('plan:write'), async (req, res) => {
+    await usecases.remove(actor(req), idParam(req, 'planId', 'Plan'));
+    res.status(204).end();
+  });
+
+  api.post(`${onePlan}/runs`, guards.permission('plan:run'), async (req, res) => {
+    parseInput(runPlanSchema, req.body ?? {});
+    const v = await usecases.run(actor(req), idParam(req, 'planId', 'Plan'));
+    res.setHeader('Location', `/api/teams/${requireTeam(req).teamId}/plans/${v.planId}/versions/${v.id}/status`);
+    sendJson(res, versionSummarySchema, v, 202);
+  });
+
+  api.get(`${onePlan}/versions`, guards.permission('plan:read'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    const planId = idParam(req, 'planId', 'Plan');
+    if (!(await plans.get(teamId, planId))) throw errors.notFound('Plan');
+    sendJson(res, versionListSchema, { versions: await plans.versions(teamId, planId) });
+  });
+
+  api.get(oneVersion, guards.permission('plan:read'), async (req, res) => {
+    const v = await plans.version(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'), idParam(req, 'versionId', 'Version'));
+    if (!v) throw errors.notFound('Version');
+    sendJson(res, planVersionSchema, v);
+  });
+
+  api.get(`${oneVersion}/status`, guards.permission('plan:read'), async (req, res) => {
+    const s = await plans.status(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'), idParam(req, 'versionId', 'Version'));
+    if (!s) throw errors.notFound('Version');
+    res.setHeader('Cache-Control', 'no-store');
+    sendJson(res, versionStatusSchema, s);
+  });
+}
+
+/** The plans route group for server/routes.ts. */
+export const planRouteGroup: RouteGroup = (api, { guards, services }) => {
+  const { db } = services;
+  const plans = createPlansRepository({ db });
+  const projects = createProjectsRepository({ db });
+  // the jobs service is looked up per run: tests may boot without a queue and never run anything
+  const jobs = {
+    queueAnalysis: (...args: Parameters<ReturnType<typeof jobsOf>['queueAnalysis']>) => jobsOf(services).queueAnalysis(...args),
+  } as ReturnType<typeof jobsOf>;
+  registerPlanRoutes(api, { guards, plans, projects, usecases: createPlansUsecases({ db, plans, projects, sites: createSitesRepository({ db }), jobs }) });
+};
