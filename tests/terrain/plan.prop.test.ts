@@ -24,7 +24,9 @@ const missionArb = fc.record({
   descentMps: fc.double({ min: 0.5, max: 5, noNaN: true }),
 });
 
-const build = (grid: typeof flat, m: fc.RecordValue<typeof missionArb>, extra: Record<string, unknown> = {}) =>
+type MissionCase = typeof missionArb extends fc.Arbitrary<infer T> ? T : never;
+
+const build = (grid: typeof flat, m: MissionCase, extra: Record<string, unknown> = {}) =>
   missionOver(grid, m.x0, m.y0, m.x0 + m.w, m.y0 + m.h, {
     headingDeg: m.headingDeg, targetGsdCm: m.targetGsdCm, forwardOverlap: m.forwardOverlap, sideOverlap: m.sideOverlap,
     mode: m.mode, clearanceM: m.clearanceM, climbMps: m.climbMps, descentMps: m.descentMps, ...extra,
