@@ -9,7 +9,9 @@ import { createDb } from '../db/client';
 import { migrateDb } from '../db/migrate';
 import { createAuth } from '../server/auth/auth';
 import { buildConfig, parseEnv } from '../server/config';
+import { demoProjectStep } from '../server/seed/demo-project';
 import { seedDemo } from '../server/seed/seed';
+import { createStorageFromConfig } from '../server/storage/storage.service';
 import { artifactsDir, projectRoot } from './lib/paths';
 import { createRunDatabase, startCluster } from './lib/postgres';
 import { ensureWebBuild } from './lib/web-build';
@@ -46,7 +48,7 @@ if (cluster && runDb) databaseUrl = cluster.url(runDb.name);
 const db = createDb(databaseUrl!);
 await migrateDb(db);
 const config = buildConfig(env, { databaseUrl: databaseUrl!, authSecret: 'Xq7v2LmPz9RtY4wKc8NbF3hJd6SgA1eU0oIyTnMrWqE', webDist: null });
-await seedDemo({ db, auth: createAuth({ db, config }) });
+await seedDemo({ db, auth: createAuth({ db, config }), steps: [demoProjectStep({ storage: createStorageFromConfig(config) })] });
 await db.$client.end();
 
 // LOFTLINE_SKIP_WEB=1 runs the suites without (re)building the web app, for quick server-only iterations.

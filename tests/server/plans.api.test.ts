@@ -166,3 +166,22 @@ describe('plans', () => {
     expect((await a.c.get(a.plan(p.id))).body.name).toBe('Secret plan');
   });
 });
+
+describe('the demo seed', () => {
+  it('gives the demo team a project with the demo grid and its example plan already analysed', async () => {
+    const projects = (await demo.surveyor.get(`/api/teams/${demoTeam}/projects?q=${encodeURIComponent('Harrow Fell')}`)).body.projects;
+    expect(projects).toHaveLength(1);
+    const [p] = projects;
+    expect(p).toMatchObject({ client: expect.stringMatching(/fictional/), siteCount: 1, planCount: 1 });
+    const [site] = (await demo.surveyor.get(`/api/teams/${demoTeam}/projects/${p.id}/sites`)).body.sites;
+    expect(site).toMatchObject({ surfaceKind: 'bare-earth', sizeBytes: demBytes.length, sha256: crypto.createHash('sha256').update(demBytes).digest('hex') });
+    const [plan] = (await demo.surveyor.get(`/api/teams/${demoTeam}/projects/${p.id}/plans`)).body.plans;
+    const example = JSON.parse(fs.readFileSync('datasets/example-mission.json', 'utf8'));
+    expect(plan.input.area).toEqual(example.area);
+    expect(plan.latestVersion).toMatchObject({ number: 1, analysisState: 'done', reviewState: 'draft' });
+    const v = (await demo.surveyor.get(`/api/teams/${demoTeam}/plans/${plan.id}/versions/${plan.latestVersion.id}`)).body;
+    expect(v.result.summary.photoCount).toBeGreaterThan(0);
+    expect(v.result.lines.length).toBe(v.result.summary.lineCount);
+  });
+});
+
