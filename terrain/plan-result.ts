@@ -1,0 +1,98 @@
+/** The shape of a plan analysis result (what `analysePlan` returns and the CLI `plan` prints). */
+import type { Mission } from './mission';
+import type { UnmetStretch } from './altitude';
+import type { StationFlag } from './overlap';
+import type { HeadingAdvice } from './heading';
+import type { PlanWarning } from './plan-warnings';
+
+export type { PlanWarning } from './plan-warnings';
+
+/** A point of a line: longitude, latitude and distance from the line start. */
+export interface PlanPoint { lon: number; lat: number; distanceM: number }
+
+/** One exposure station as the plan expects it to turn out over the real terrain. */
+export interface PlanStation {
+  lon: number;
+  lat: number;
+  distanceM: number;
+  /** Ground under the station, metres above the grid's vertical datum (null where unknown). */
+  groundM: number | null;
+  /** Planned altitude above the grid's vertical datum. */
+  altitudeM: number;
+  altitudeAboveTakeoffM: number;
+  aglM: number | null;
+  gsdCm: number | null;
+  forwardOverlap: number | null;
+  sideOverlap: number | null;
+  flags: StationFlag[];
+}
+
+/** One straight altitude leg of a line. */
+export interface PlanLeg {
+  start: PlanPoint;
+  end: PlanPoint;
+  altitudeStartM: number;
+  altitudeEndM: number;
+  altitudeStartAboveTakeoffM: number;
+  altitudeEndAboveTakeoffM: number;
+  aglMinM: number;
+  aglMaxM: number;
+  gsdMinCm: number;
+  gsdMaxCm: number;
+  /** Rise over run in the flying direction (climb positive). */
+  gradient: number;
+}
+
+/** One flight line with its stations and legs. */
+export interface PlanLine {
+  index: number;
+  headingDeg: number;
+  lengthM: number;
+  start: { lon: number; lat: number };
+  end: { lon: number; lat: number };
+  /** Where the line is over the survey area (distances from its start); outside it are the run-in and run-out. */
+  areaStartM: number;
+  areaEndM: number;
+  stations: PlanStation[];
+  legs: PlanLeg[];
+  unmet: UnmetStretch[];
+  warnings: PlanWarning[];
+}
+
+/** Plan-wide figures. */
+export interface PlanSummary {
+  lineCount: number;
+  photoCount: number;
+  flightDistanceM: number;
+  flightTimeS: number;
+  batteries: number;
+  gsdCm: { min: number | null; median: number | null; max: number | null };
+  forwardOverlapMin: number | null;
+  sideOverlapMin: number | null;
+  aglMinM: number | null;
+  aglMaxM: number | null;
+  /** Share of stations whose GSD lies within the target's tolerance band, fraction. */
+  shareWithinGsdTarget: number;
+  flaggedStationCount: number;
+  unmetLengthM: number;
+  mode: Mission['mode'];
+  headingDeg: number;
+  plannedHeightM: number;
+  gsdBandCm: { min: number; max: number };
+  lineSpacingM: number;
+  triggerDistanceM: number;
+  footprintAcrossM: number;
+  footprintAlongM: number;
+  maxDistanceFromTakeoffM: number;
+}
+
+/** The analysis result (the CLI `plan` JSON document). */
+export interface PlanResult {
+  lines: PlanLine[];
+  summary: PlanSummary;
+  warnings: PlanWarning[];
+  takeoff: { lon: number; lat: number; groundM: number; geoidUndulationM: number };
+  heights: { datum: string; aboveTakeoff: string; verticalDatum: { epsg: number | null; name: string } | null };
+  headingAdvice: HeadingAdvice | null;
+  frame: { crs: string; epsg: number | null };
+}
