@@ -11,7 +11,10 @@ import { FlightRow } from './flight-row';
 import { useFlights } from './flights.queries';
 import { storedSheets, type StoredSheetEntry } from './leg-sheet-storage';
 
-/** Only signed-off versions ever appear here; drafts and plans in review stay with planners and surveyors. */
+/**
+ * Only signed-off versions ever appear here; drafts and plans in review stay with planners and surveyors. The list
+ * comes first so a phone shows it without scrolling; the cautions follow, and every leg sheet repeats them.
+ */
 export function FlightsScreen() {
   const { team, me } = useCurrentTeam();
   const flights = useFlights(team?.id);
@@ -22,7 +25,6 @@ export function FlightsScreen() {
   return (
     <Screen title="Flights" subtitle={team ? `Signed-off plans of ${team.name}` : undefined} testID="flights-screen">
       <RequirePermission permission="flight:read" what="Flights">
-        <FlightCautions />
         {flights.isPending ? <Loading label="Loading the flights…" /> : null}
         {flights.isError ? (
           <Banner tone="danger" title="Could not load the flights" message={errorMessage(flights.error)} testID="flights-failure">
@@ -55,6 +57,7 @@ export function FlightsScreen() {
             </View>
           </Card>
         ) : null}
+        <FlightCautions />
       </RequirePermission>
     </Screen>
   );

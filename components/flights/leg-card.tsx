@@ -36,6 +36,7 @@ export function LegCard({ leg, lineNumber, units, datumName }: LegCardProps) {
       </View>
       <FigureGrid
         testID={`${id}-figures`}
+        minCellPx={layout.maxFormWidthPx / 4}
         figures={[
           { key: 'agl', label: 'Height above ground', value: formatRange(leg.aglM, units) },
           { key: 'gsd', label: 'GSD', value: formatGsdRange(leg.gsdCm) },

@@ -58,7 +58,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
       ) : (
         <Banner tone="danger" title="Not signed off: do not fly from this sheet" testID="leg-sheet-not-signed" message="Only a signed-off version is meant for flight. This one is still with the planner and surveyor." />
       )}
-      <FlightCautions compact />
+      <FlightCautions />
       {sheet.warnings.length ? (
         <Banner tone="caution" title="Warnings from the analysis" testID="leg-sheet-warnings">
           <BulletList items={sheet.warnings} tone="caution" />

@@ -1,5 +1,6 @@
 /** The notice over a leg sheet shown from the device's copy: when it was loaded, and why the server's answer is missing. */
 import { formatDayTime } from '../projects/format-date';
+import { StyleSheet } from 'react-native';
 import { Banner, Button, Text } from '../ui';
 import type { OfflineReason } from './sheet-source';
 
@@ -14,7 +15,9 @@ export function OfflineNotice({ savedAt, reason, onRetry, retrying }: { savedAt:
   return (
     <Banner tone={reason === 'checking' ? 'info' : 'caution'} title={`Offline copy, loaded at ${formatDayTime(savedAt)}`} testID="offline-notice">
       <Text>{why[reason]}</Text>
-      {reason === 'checking' ? null : <Button label="Try again" variant="secondary" size="compact" busy={retrying} onPress={onRetry} testID="offline-retry" />}
+      {reason === 'checking' ? null : <Button label="Try again" variant="secondary" size="compact" busy={retrying} onPress={onRetry} testID="offline-retry" style={styles.retry} />}
     </Banner>
   );
 }
+
+const styles = StyleSheet.create({ retry: { alignSelf: 'flex-start' } });

@@ -20,7 +20,7 @@ export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] 
   return (
     <Card testID="preflight-checklist">
       <View style={styles.head}>
-        <Heading level={2}>Before you fly</Heading>
+        <Heading level={2}>Pre-flight checklist</Heading>
         <Badge label={`${items.filter((i) => done.has(i.id)).length} of ${items.length} done`} tone={all ? 'success' : 'caution'} testID="checklist-count" />
       </View>
       <View role="list" style={styles.list}>

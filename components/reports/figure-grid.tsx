@@ -4,12 +4,15 @@ import { colors, layout, radii, space } from '../theme';
 import { Text } from '../ui';
 import type { Figure } from './report-figures';
 
-/** `testID` prefixes each cell's id with the figure key (e.g. line-1-gsd-median). */
-export function FigureGrid({ figures, testID }: { figures: readonly Figure[]; testID?: string }) {
+/** Cells never narrower than this unless the container is: two columns on a phone card, up to six on a wide one. */
+const defaultCellPx = layout.maxFormWidthPx / 3;
+
+/** `testID` prefixes each cell's id with the figure key (e.g. line-1-gsd-median); `minCellPx` for tighter containers. */
+export function FigureGrid({ figures, testID, minCellPx = defaultCellPx }: { figures: readonly Figure[]; testID?: string; minCellPx?: number }) {
   return (
     <View style={styles.grid} testID={testID}>
       {figures.map((f) => (
-        <View key={f.key} style={styles.cell} testID={testID ? `${testID}-${f.key}` : undefined}>
+        <View key={f.key} style={[styles.cell, { flexBasis: minCellPx }]} testID={testID ? `${testID}-${f.key}` : undefined}>
           <Text variant="label" tone="muted">
             {f.label}
           </Text>
@@ -24,7 +27,6 @@ const styles = StyleSheet.create({
   grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   cell: {
     flexGrow: 1,
-    flexBasis: layout.maxFormWidthPx / 3,
     minWidth: 0,
     gap: space.xxs,
     padding: space.sm,

@@ -41,13 +41,23 @@ export function overallFigures(o: ComplianceReport['overall']): Figure[] {
   ];
 }
 
-/** One line: length, heading and legs, then its station figures. */
+const slash = (values: Array<string>) => values.join(' / ');
+const bare = (s: string) => s.replace(/ (cm|%|m)$/, '');
+
+/** One line, compact (fifteen lines must stay readable): related figures share a cell, GSD as min / p5 / median / max. */
 export function lineFigures(l: ReportLine): Figure[] {
+  const legs = `${formatCount(l.legCount)} ${l.legCount === 1 ? 'leg' : 'legs'}`;
   return [
-    { key: 'length', label: 'Length', value: formatLength(l.lengthM, 'metric') },
-    { key: 'heading', label: 'Heading', value: formatHeading(l.headingDeg) },
-    { key: 'legs', label: 'Altitude legs', value: formatCount(l.legCount) },
-    ...statsFigures(l),
+    { key: 'line', label: 'Length · heading · legs', value: `${formatLength(l.lengthM, 'metric')} · ${formatHeading(l.headingDeg)} · ${legs}` },
+    { key: 'share', label: 'Stations meeting the GSD target', value: formatPercent(l.shareMeetingGsd, 1) },
+    {
+      key: 'gsd',
+      label: 'GSD min / p5 / median / max',
+      value: `${slash([l.gsdCm.min, l.gsdCm.p5, l.gsdCm.median, l.gsdCm.max].map((v) => bare(formatGsd(v))))} cm`,
+    },
+    { key: 'overlap', label: 'Overlap min, forward / side', value: `${slash([l.forwardOverlapMin, l.sideOverlapMin].map((v) => bare(formatPercent(v, 1))))} %` },
+    { key: 'agl', label: 'Height above ground', value: `${bare(formatLength(l.aglMinM, 'metric', 1))} – ${formatLength(l.aglMaxM, 'metric', 1)}` },
+    { key: 'known', label: 'Stations with known ground', value: `${formatCount(l.knownCount)} of ${formatCount(l.stationCount)}` },
   ];
 }
 

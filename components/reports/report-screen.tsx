@@ -4,6 +4,7 @@ import { reviewStateLabels } from '../../contracts/reviews';
 import type { ComplianceReport } from '../../contracts/reports';
 import { errorMessage } from '../api/api-error';
 import { formatDayTime } from '../projects/format-date';
+import { ReviewPanel } from '../reviews/review-panel';
 import { reviewStateTones } from '../reviews/review-state';
 import { RequirePermission } from '../team/require-permission';
 import { space } from '../theme';
@@ -16,7 +17,8 @@ import { ReportLineCard } from './report-line-card';
 import { SpecChecks } from './spec-checks';
 import { useReportScreen } from './use-report-screen';
 
-/** Route screen; planners, surveyors and owners read it (report:read), pilots read leg sheets instead. */
+/** Route screen; planners, surveyors and owners read it (report:read), pilots read leg sheets instead. The review panel
+ * sits under the sign-off block, so a surveyor signs off where the evidence is. */
 export function ReportScreen() {
   const s = useReportScreen();
   const r = s.report.data;
@@ -31,6 +33,7 @@ export function ReportScreen() {
         {s.report.isPending ? <Loading label="Building the report…" /> : null}
         {s.report.isError ? <Banner tone="danger" title="Could not load the report" message={errorMessage(s.report.error)} testID="report-failure" /> : null}
         {r ? <ReportBody report={r} pdfHref={s.pdfHref} /> : null}
+        {r && s.planId && s.versionId ? <ReviewPanel projectId={s.projectId} planId={s.planId} versionId={s.versionId} showReportLink={false} /> : null}
       </RequirePermission>
     </Screen>
   );
@@ -63,7 +66,7 @@ function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref:
         <Heading level={2}>All lines together</Heading>
         <FigureGrid figures={overallFigures(r.overall)} testID="overall" />
         <Text variant="label" tone="muted">
-          {r.percentileMethod}
+          Percentiles: {r.percentileMethod}
         </Text>
       </Card>
 
@@ -82,11 +85,9 @@ function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref:
       <Banner tone="info" title="Accuracy: advisory only" testID="report-accuracy">
         <Text>
           Horizontal {formatRangeCm(r.accuracy.horizontalCm)}, vertical {formatRangeCm(r.accuracy.verticalCm)}
-          {r.accuracy.basisGsdCm !== null ? `, from a median GSD of ${r.accuracy.basisGsdCm.toFixed(2)} cm` : ''}.
+          {r.accuracy.basisGsdCm !== null ? ` (median GSD ${r.accuracy.basisGsdCm.toFixed(2)} cm)` : ''}.
         </Text>
-        <Text>
-          {r.accuracy.ruleOfThumb} ({r.accuracy.source}).
-        </Text>
+        <Text>{withSource(r.accuracy.ruleOfThumb, r.accuracy.source)}</Text>
         <Text variant="bodyStrong">{r.accuracy.deferral}</Text>
       </Banner>
 
@@ -123,6 +124,11 @@ function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref:
       </Card>
     </>
   );
+}
+
+/** The rule of thumb with its source named once, even when the server's sentence already names it. */
+function withSource(rule: string, source: string): string {
+  return rule.includes(source) ? rule : `${rule} (${source}).`;
 }
 
 const styles = StyleSheet.create({

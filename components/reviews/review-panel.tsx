@@ -7,7 +7,7 @@ import { formatDayTime } from '../projects/format-date';
 import { space } from '../theme';
 import { Badge, Banner, Button, Card, Heading, Loading, Text, TextField, TextLink } from '../ui';
 import { AuditTrail } from './audit-trail';
-import { reviewStateNotes, reviewStateTones } from './review-state';
+import { lockedNote, reviewStateNotes, reviewStateTones } from './review-state';
 import { useReviewPanel } from './use-review-panel';
 
 export type ReviewPanelProps = {
@@ -16,6 +16,8 @@ export type ReviewPanelProps = {
   versionId: string;
   /** False while the analysis is queued, running or failed: such a version cannot be sent for review yet. */
   analysisDone?: boolean;
+  /** False on the report page itself. */
+  showReportLink?: boolean;
 };
 
 const commentLabels: Record<ReviewAction, { label: string; hint: string; confirm: string }> = {
@@ -25,7 +27,7 @@ const commentLabels: Record<ReviewAction, { label: string; hint: string; confirm
 };
 
 /** Mounted on the version page; buttons appear only for actions the caller's role holds (the server checks anyway). */
-export function ReviewPanel({ projectId, planId, versionId, analysisDone = true }: ReviewPanelProps) {
+export function ReviewPanel({ projectId, planId, versionId, analysisDone = true, showReportLink = true }: ReviewPanelProps) {
   const p = useReviewPanel({ planId, versionId });
   const review = p.status.data;
   const reportHref = `/projects/${projectId}/plans/${planId}/versions/${versionId}/report`;
@@ -45,7 +47,7 @@ export function ReviewPanel({ projectId, planId, versionId, analysisDone = true 
               tone="success"
               title="Locked"
               testID="review-locked"
-              message={`Signed off by ${review.signedOffBy?.name ?? 'a surveyor'} on ${formatDayTime(review.signedOffAt)}. ${reviewStateNotes.signed_off}`}
+              message={`Signed off by ${review.signedOffBy?.name ?? 'a surveyor'} on ${formatDayTime(review.signedOffAt)}. ${lockedNote}`}
             />
           ) : (
             <Text tone="muted" testID="review-note">
@@ -111,7 +113,7 @@ export function ReviewPanel({ projectId, planId, versionId, analysisDone = true 
           ) : null}
         </>
       ) : null}
-      {can(p.role, 'report:read') ? <TextLink href={reportHref} label="Open the compliance report" testID="review-report-link" /> : null}
+      {showReportLink && can(p.role, 'report:read') ? <TextLink href={reportHref} label="Open the compliance report" testID="review-report-link" /> : null}
       <Heading level={3}>Audit trail</Heading>
       {p.audit.isPending ? <Loading label="Loading the audit trail…" /> : null}
       {p.audit.isError ? <Banner tone="danger" message={errorMessage(p.audit.error)} /> : null}

@@ -10,6 +10,9 @@ export const reviewStateTones: Record<ReviewState, BadgeTone> = {
   returned: 'caution',
 };
 
+/** Under the "Locked" title of a signed-off version, after who signed it off and when. */
+export const lockedNote = 'Nothing changes this version any more. Editing the plan makes a new version that needs its own review.';
+
 /** What each state means for the people looking at it, one sentence. */
 export const reviewStateNotes: Record<ReviewState, string> = {
   draft: 'Not yet sent for review. A planner sends it once the analysis looks right.',

@@ -1,0 +1,273 @@
+/**
+ * The review loop in Chromium against the real web build and API: the demo planner sends a version for review, the
+ * demo surveyor signs it off from the compliance report, the demo pilot reads the leg sheet on a 390x844 phone (also
+ * with the leg-sheet request cut off), and the demo owner invites a pilot who joins through the e-mailed link.
+ * Screenshots go to .artifacts/screenshots/review/.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import { eq } from 'drizzle-orm';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoPassword, demoUsers } from '../../contracts/demo-team';
+import type { Role } from '../../contracts/roles';
+import { user } from '../../db/schema';
+import { launchBrowser, screenshotDir, viewports } from '../support/browser';
+import { demoClients, demoTeamId } from '../support/demo';
+import { createVersion, eventually, type VersionFixture } from '../support/fixtures';
+import type { ApiClient } from '../support/http-client';
+import { uniqueEmail } from '../support/http-client';
+import { startTestServer, type TestServer } from '../support/test-server';
+
+const shotDir = path.join(screenshotDir, 'review');
+const skipWeb = process.env.LOFTLINE_SKIP_WEB === '1';
+
+let srv: TestServer;
+let browser: Browser;
+let teamId: string;
+let clients: Record<Role, ApiClient>;
+let version: VersionFixture;
+const planName = `Quarry north face ${Date.now().toString(36)}`;
+
+const demo = (role: Role) => demoUsers.find((u) => u.role === role)!;
+
+beforeAll(async () => {
+  if (!process.env.LOFTLINE_WEB_DIST && !skipWeb) throw new Error('LOFTLINE_WEB_DIST is not set: run the browser tests through `npm test`.');
+  fs.mkdirSync(shotDir, { recursive: true });
+  srv = await startTestServer();
+  browser = await launchBrowser();
+  teamId = await demoTeamId(srv);
+  clients = await demoClients(srv);
+  const [planner] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, demo('planner').email));
+  // An analysed draft version in the demo team (the fixtures' synthetic hill), fresh for this run.
+  version = await createVersion(srv, { teamId, createdBy: planner!.id, planName });
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await srv?.stop();
+});
+
+async function openPage(viewport: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page; pageErrors: string[] }> {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const pageErrors: string[] = [];
+  page.on('pageerror', (e) => pageErrors.push(e.message));
+  return { context, page, pageErrors };
+}
+
+async function signIn(page: Page, email: string, password = demoPassword): Promise<void> {
+  await page.goto(`${srv.url}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(email);
+  await page.getByTestId('sign-in-password').fill(password);
+  await page.getByTestId('sign-in-submit').click();
+  await page.getByTestId('nav-profile').waitFor();
+}
+
+/**
+ * A screenshot of the whole screen: the app scrolls inside its own container, not the document, so the window is
+ * made as tall as the content for the shot (Chromium's limit is 16384 px) and restored after.
+ */
+async function shootWhole(page: Page, name: string): Promise<void> {
+  const size = page.viewportSize()!;
+  const contentPx = await page.evaluate(() => {
+    let most = document.documentElement.scrollHeight;
+    for (const el of Array.from(document.querySelectorAll<HTMLElement>('*'))) {
+      const overflow = getComputedStyle(el).overflowY;
+      if ((overflow === 'auto' || overflow === 'scroll') && el.scrollHeight > el.clientHeight + 1) {
+        most = Math.max(most, el.scrollHeight + (window.innerHeight - el.clientHeight));
+      }
+    }
+    return most;
+  });
+  await page.setViewportSize({ width: size.width, height: Math.min(16_000, Math.max(size.height, contentPx)) });
+  await page.waitForTimeout(300);
+  await page.screenshot({ path: path.join(shotDir, name) });
+  await page.setViewportSize(size);
+}
+
+/** The page's width beyond the window: 0 means nothing scrolls sideways. */
+async function horizontalOverflowPx(page: Page): Promise<number> {
+  return page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+}
+
+const reportUrl = () => `${srv.url}/projects/${version.projectId}/plans/${version.planId}/versions/${version.versionId}/report`;
+
+describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
+  it('the demo planner sends the version for review through the API', async () => {
+    const r = await clients.planner.post(`${version.path}/submit`, { comment: 'Hold mode over the hill; please check the north lines.' });
+    expect(r.status).toBe(200);
+    expect(r.body.reviewState).toBe('in_review');
+  });
+
+  it('the demo surveyor reads the compliance report and signs the version off', async () => {
+    const { context, page, pageErrors } = await openPage(viewports.wide);
+    try {
+      await signIn(page, demo('surveyor').email);
+      await page.goto(reportUrl());
+      await page.getByTestId('report-spec').waitFor();
+      await expect(page.getByTestId('review-state').textContent()).resolves.toBe('In review');
+      // The figures on screen are the API's: the overall median GSD, formatted to two decimals.
+      const api = await clients.surveyor.get(`${version.path}/report`);
+      expect(api.status).toBe(200);
+      const median = api.body.overall.gsdCm.median as number;
+      await expect(page.getByTestId('overall-gsd-median').textContent()).resolves.toContain(median.toFixed(2));
+      await expect(page.getByTestId('gsd-chart-1').locator('svg path').count()).resolves.toBeGreaterThan(0);
+      await expect(page.getByTestId('report-pdf').getAttribute('href')).resolves.toBe(`/api/teams/${teamId}/plans/${version.planId}/versions/${version.versionId}/report.pdf`);
+      await shootWhole(page, 'wide-report-in-review.png');
+
+      // A return needs a comment: confirming an empty one is refused in place, nothing is sent.
+      await page.getByTestId('review-return').click();
+      await page.getByTestId('review-confirm').click();
+      await page.getByTestId('review-comment-error').waitFor();
+      await page.getByTestId('review-cancel').click();
+
+      await page.getByTestId('review-sign-off').click();
+      await page.getByTestId('review-comment').fill('Checked against the client spec; GSD band and overlaps met.');
+      await page.getByTestId('review-confirm').click();
+      await page.getByTestId('review-locked').waitFor();
+      await expect(page.getByTestId('review-state').textContent()).resolves.toBe('Signed off');
+      await page.getByTestId('audit-review.signed_off').waitFor();
+      await eventually(async () => (await page.getByTestId('sign-off-by').textContent())?.includes(demo('surveyor').name), 10_000, 'the sign-off block');
+      await shootWhole(page, 'wide-report-signed-off.png');
+
+      const status = await clients.surveyor.get(`${version.path}/review`);
+      expect(status.body).toMatchObject({ reviewState: 'signed_off', locked: true, allowedActions: [] });
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  }, 90_000);
+
+  it('the demo pilot on a 390x844 phone opens the leg sheet and reads the API\'s first-leg altitude', async () => {
+    const { context, page, pageErrors } = await openPage(viewports.phone);
+    try {
+      await signIn(page, demo('pilot').email);
+      await page.waitForURL((u) => u.pathname === '/flights');
+      await page.getByTestId(`flight-${version.versionId}`).waitFor();
+      await shootWhole(page, 'phone-flights.png');
+      await page.getByTestId(`flight-${version.versionId}`).click();
+      await page.waitForURL((u) => u.pathname === `/flights/${version.versionId}`);
+      const altitude = page.getByTestId('leg-1-1-altitude');
+      await altitude.waitFor();
+
+      const sheet = await clients.pilot.get(`/api/teams/${teamId}/flights/${version.versionId}/leg-sheet`);
+      expect(sheet.status).toBe(200);
+      const first = sheet.body.lines[0].legs[0].altitudeAboveTakeoffM as { start: number; end: number };
+      const shown = (await altitude.textContent()) ?? '';
+      // "62 m" or "62 → 75 m": the first figure is the start altitude rounded to whole metres.
+      const figure = Number(/^(-?[\d,]+)/.exec(shown)?.[1]?.replace(/,/g, ''));
+      expect(shown).toMatch(/ m$/);
+      expect(figure).toBe(Math.round(first.start));
+      expect(Math.abs(figure - first.start)).toBeLessThanOrEqual(0.5);
+
+      await page.screenshot({ path: path.join(shotDir, 'phone-leg-sheet-top.png') });
+
+      // Large enough to read outdoors: the altitude is the largest type on the page.
+      const px = await altitude.evaluate((el) => parseFloat(getComputedStyle(el).fontSize));
+      expect(px).toBeGreaterThanOrEqual(40);
+      await expect(page.getByTestId('leg-sheet-state').textContent()).resolves.toBe('Signed off');
+      await expect(page.getByTestId('checklist-takeoff-height').isVisible()).resolves.toBe(true);
+      await page.getByTestId('checklist-wind').click();
+      await expect(page.getByTestId('checklist-wind').getAttribute('aria-checked')).resolves.toBe('true');
+      for (const f of ['geojson', 'kml', 'gpx', 'csv']) {
+        await expect(page.getByTestId(`export-${f}`).getAttribute('href')).resolves.toBe(`/api/teams/${teamId}/plans/${version.planId}/versions/${version.versionId}/export.${f}`);
+      }
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+      await shootWhole(page, 'phone-leg-sheet.png');
+
+      // With the leg-sheet request cut off (network gone after loading), the device copy still shows, said so.
+      await page.route('**/leg-sheet', (route) => route.abort('internetdisconnected'));
+      await page.reload();
+      await page.getByTestId('offline-notice').waitFor();
+      await expect(page.getByTestId('offline-notice').textContent()).resolves.toContain('Offline copy, loaded at');
+      await expect(page.getByTestId('leg-1-1-altitude').textContent()).resolves.toBe(shown);
+      await page.getByTestId('offline-retry').waitFor({ timeout: 15_000 });
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+      await page.screenshot({ path: path.join(shotDir, 'phone-leg-sheet-offline.png') });
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  }, 90_000);
+
+  it('the leg sheet also lays out on a 1440x900 window', async () => {
+    const { context, page, pageErrors } = await openPage(viewports.wide);
+    try {
+      await signIn(page, demo('pilot').email);
+      await page.goto(`${srv.url}/flights/${version.versionId}`);
+      await page.getByTestId('leg-1-1-altitude').waitFor();
+      expect(await horizontalOverflowPx(page)).toBe(0);
+      await shootWhole(page, 'wide-leg-sheet.png');
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  }, 90_000);
+});
+
+describe.skipIf(skipWeb)('invitations and the development outbox', () => {
+  const invited = uniqueEmail('invited-pilot');
+  let link = '';
+
+  it('the demo owner invites a pilot from the Team screen and sees it pending', async () => {
+    const { context, page, pageErrors } = await openPage(viewports.wide);
+    try {
+      await signIn(page, demo('owner').email);
+      await page.getByTestId('nav-team').click();
+      await page.getByTestId('invite-email').fill(invited);
+      await page.getByTestId('invite-role-pilot').click();
+      await page.getByTestId('invite-submit').click();
+      await page.getByTestId('invite-sent').waitFor();
+      link = ((await page.getByTestId('invite-link').textContent()) ?? '').trim();
+      expect(link).toMatch(/\/invite\/[^/]+$/);
+      await expect(page.getByTestId(`invitation-status-${invited}`).textContent()).resolves.toBe('Pending');
+      await shootWhole(page, 'wide-team-invitations.png');
+
+      // The fake SMTP server got the invitation and the sign-off mail with its PDF; Profile links the outbox.
+      await page.getByTestId('nav-profile').click();
+      await page.getByTestId('profile-outbox').click();
+      await page.getByTestId('outbox-list').waitFor();
+      await eventually(async () => {
+        const subjects = await page.getByTestId('outbox-subject').allTextContents();
+        if (subjects.length < 2) await page.getByTestId('outbox-refresh').click();
+        return subjects.length >= 2;
+      }, 15_000, 'two messages in the outbox');
+      await expect(page.locator('[data-testid^="outbox-attachment-"]').count()).resolves.toBeGreaterThan(0);
+      await shootWhole(page, 'wide-outbox.png');
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  }, 90_000);
+
+  it('the invited person signs up and in from the link at 390 px, sees team and role, and joins as a pilot', async () => {
+    const { context, page, pageErrors } = await openPage(viewports.phone);
+    try {
+      const url = new URL(link);
+      await page.goto(`${srv.url}${url.pathname}`);
+      await page.getByTestId('invite-signed-out').waitFor();
+      await shootWhole(page, 'phone-invite-signed-out.png');
+      await page.getByTestId('invite-switch-form').click();
+      await page.getByTestId('sign-up-name').fill('Nell Ashby');
+      await page.getByTestId('sign-up-email').fill(invited);
+      await page.getByTestId('sign-up-password').fill('heather ridge lantern');
+      await page.getByTestId('sign-up-submit').click();
+      await page.getByTestId('invite-account-created').waitFor();
+      await page.getByTestId('sign-in-email').fill(invited);
+      await page.getByTestId('sign-in-password').fill('heather ridge lantern');
+      await page.getByTestId('sign-in-submit').click();
+      await page.getByTestId('invite-offer').waitFor();
+      await expect(page.getByTestId('invite-role-offered').textContent()).resolves.toBe('Pilot');
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+      await shootWhole(page, 'phone-invite-offer.png');
+      await page.getByTestId('invite-accept').click();
+      await page.waitForURL((u) => u.pathname === '/flights');
+      await page.getByTestId(`flight-${version.versionId}`).waitFor();
+      await expect(page.getByTestId('current-team-role').textContent()).resolves.toBe('Pilot');
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  }, 90_000);
+});
