@@ -123,6 +123,21 @@ describe('plans', () => {
     expect(ok.body.input).toMatchObject({ sideOverlap: 0.75, mode: 'steps' });
   });
 
+  it('keeps a plan whose versions are in review, and freezes plans of an archived project', async () => {
+    const w = await workspace('keep');
+    const p = (await w.c.post(w.plans, { name: 'Reviewed', siteId: w.siteId, input: mission() })).body;
+    const run = await w.c.post(`${w.plan(p.id)}/runs`, {});
+    expect(run.status).toBe(202);
+    await srv.db.$client.query(`update plan_version set review_state = 'in_review' where id = $1`, [run.body.id]);
+    const del = await w.c.delete(w.plan(p.id));
+    expect(del.status).toBe(409);
+    expect(del.body.error.code).toBe('plan_reviewed');
+    await w.c.patch(`/api/teams/${w.teamId}/projects/${w.projectId}`, { archived: true });
+    expect((await w.c.patch(w.plan(p.id), { name: 'Changed' })).status).toBe(409);
+    expect((await w.c.post(w.plans, { name: 'New', siteId: w.siteId, input: mission() })).status).toBe(409);
+    expect((await w.c.get(w.plan(p.id))).body.name).toBe('Reviewed');
+  });
+
   it('refuses a site that belongs to another project', async () => {
     const w = await workspace('other-site');
     const other = await workspace('other-site-2', w.c, w.teamId);

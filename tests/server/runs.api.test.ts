@@ -98,6 +98,18 @@ describe('analysis runs', () => {
     expect(list).toEqual([2, 1]);
   });
 
+  it('fixes what a site\'s heights mean once a version was analysed over it', async () => {
+    const w = await planned('site-fixed');
+    const run = (await w.c.post(`${w.plan}/runs`, {})).body;
+    await settled(w.c, w.plan, run.id);
+    const siteUrl = `/api/teams/${w.teamId}/projects/${w.site.projectId}/sites/${w.site.id}`;
+    const r = await w.c.patch(siteUrl, { verticalDatum: 'Some other datum' });
+    expect(r.status).toBe(409);
+    expect(r.body.error.code).toBe('site_in_use');
+    expect((await w.c.patch(siteUrl, { name: 'Renamed is fine' })).status).toBe(200);
+    expect((await w.c.get(siteUrl)).body.verticalDatum).toBe(w.site.verticalDatum);
+  });
+
   it('numbers concurrent runs without gaps or clashes', async () => {
     const w = await planned('concurrent');
     const runs = await Promise.all([1, 2, 3].map(() => w.c.post(`${w.plan}/runs`, {})));

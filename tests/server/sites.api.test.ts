@@ -210,6 +210,21 @@ describe('the upload size limit', () => {
   });
 });
 
+describe('reading and editing a site', () => {
+  it('serves the stored DEM back byte for byte and renames the site', async () => {
+    const { c, base } = await ownProject(srv, 'download');
+    const s = (await upload(c, base, demBytes, undefined, 'harrow fell (copy).tif')).body;
+    const res = await fetch(`${srv.url}${base}/${s.id}/dem.tif`, { headers: { Cookie: (c as unknown as { cookieHeader(): string }).cookieHeader() } });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-disposition')).toBe('attachment; filename="harrow_fell__copy_.tif"');
+    expect(Buffer.from(await res.arrayBuffer()).equals(demBytes)).toBe(true);
+    const renamed = await c.patch(`${base}/${s.id}`, { name: 'Harrow Fell, March flight' });
+    expect(renamed.status).toBe(200);
+    expect(renamed.body).toMatchObject({ name: 'Harrow Fell, March flight', sha256: s.sha256 });
+    expect((await c.patch(`${base}/${s.id}`, { surfaceKind: 'lidar' })).status).toBe(422);
+  });
+});
+
 describe('deleting a site', () => {
   it('removes the row and its stored files', async () => {
     const { c, teamId, base } = await ownProject(srv, 'delete');
