@@ -273,13 +273,14 @@ function classify(
   const n = x.length;
   const eps = 1e-6;
   const reasons: Array<UnmetReason | null> = new Array(n).fill(null);
+  const byMode = new Uint8Array(n); // above the cap by the mode's choice, not forced by clearance and gradients
   for (let i = 0; i < n; i++) {
     const agl = z[i] - h[i];
     const top = Math.min(lim.bandHighM, lim.maxAglM);
     if (unknown[i]) { reasons[i] = 'ground-unknown'; continue; }
     if (agl >= lim.bandLowM - eps && agl <= top + eps) continue;
     if (lim.bandLowM > lim.maxAglM) { reasons[i] = 'band-above-max-agl'; continue; }
-    if (agl > lim.maxAglM + eps) { reasons[i] = 'above-max-agl'; continue; }
+    if (agl > lim.maxAglM + eps) { reasons[i] = 'above-max-agl'; byMode[i] = c.hardLo[i] <= c.cap[i] + eps ? 1 : 0; continue; }
     const safe = c.hardLo[i];
     if (agl > top && safe > c.bandHi[i] + eps) {
       reasons[i] = lim.clearanceM > lim.bandHighM + eps ? 'clearance-above-band' : safe > safeForward[i] + eps ? 'climb-limit' : 'descent-limit';
@@ -303,10 +304,17 @@ function classify(
     let worst = 0;
     while (j + 1 < n && reasons[j + 1] === r) j++;
     for (let k = i; k <= j; k++) worst = Math.max(worst, Math.abs(z[k] - h[k] - lim.targetHeightM));
-    out.push({ startM: x[i], endM: x[j], reason: r, message: message(r, lim, worst) });
+    const msg = r === 'above-max-agl' && byMode[i] ? modeCapMessage(mode, limitedByLegs, lim) : message(r, lim, worst);
+    out.push({ startM: x[i], endM: x[j], reason: r, message: msg });
     i = j + 1;
   }
   return out;
+}
+
+function modeCapMessage(mode: AltitudeMode, limitedByLegs: boolean, lim: AltitudeLimits): string {
+  const why = limitedByLegs ? 'the maximum legs per line or the minimum leg length'
+    : mode === 'hold' ? 'one altitude for the whole line' : mode === 'steps' ? 'level legs' : 'the minimum leg length';
+  return `The aircraft is above the ${fmt(lim.maxAglM)} m height limit here because of ${why}; a terrain-following mode or shorter legs would keep under it.`;
 }
 
 function message(r: UnmetReason, lim: AltitudeLimits, worstM: number): string {

@@ -109,6 +109,15 @@ describe('fitAltitudes', () => {
     expect(p.unmet.map((u) => u.reason)).toContain('above-max-agl');
   });
 
+  it('says when the mode, not the limits, puts the aircraft above the height limit (hold over a wide valley)', () => {
+    const { x, h } = profile(401, 5, (d) => (Math.abs(d - 1000) < 400 ? 100 : 200));
+    const p = fitAltitudes(x, h, 'hold', LIM);
+    const cap = p.unmet.find((u) => u.reason === 'above-max-agl')!;
+    expect(cap).toBeDefined();
+    expect(cap.message).toMatch(/because of one altitude for the whole line/);
+    expect(fitAltitudes(x, h, 'follow', LIM).unmet.filter((u) => u.reason === 'above-max-agl')).toEqual([]);
+  });
+
   it('carries the higher known neighbour over nodata and reports the stretch', () => {
     const { x, h } = profile(101, 10, (d) => 100 + d * 0.05);
     for (let i = 40; i < 50; i++) h[i] = NaN;
