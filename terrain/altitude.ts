@@ -302,7 +302,7 @@ function classify(
     if (r === null) { i++; continue; }
     let j = i;
     let worst = 0;
-    while (j + 1 < n && reasons[j + 1] === r) j++;
+    while (j + 1 < n && reasons[j + 1] === r && byMode[j + 1] === byMode[i]) j++;
     for (let k = i; k <= j; k++) worst = Math.max(worst, Math.abs(z[k] - h[k] - lim.targetHeightM));
     const msg = r === 'above-max-agl' && byMode[i] ? modeCapMessage(mode, limitedByLegs, lim) : message(r, lim, worst);
     out.push({ startM: x[i], endM: x[j], reason: r, message: msg });

@@ -112,9 +112,10 @@ describe('fitAltitudes', () => {
   it('says when the mode, not the limits, puts the aircraft above the height limit (hold over a wide valley)', () => {
     const { x, h } = profile(401, 5, (d) => (Math.abs(d - 1000) < 400 ? 100 : 200));
     const p = fitAltitudes(x, h, 'hold', LIM);
-    const cap = p.unmet.find((u) => u.reason === 'above-max-agl')!;
-    expect(cap).toBeDefined();
-    expect(cap.message).toMatch(/because of one altitude for the whole line/);
+    const cap = p.unmet.filter((u) => u.reason === 'above-max-agl');
+    // over most of the valley the single altitude is the cause; just inside the rims the descent limit is
+    expect(cap.some((u) => /because of one altitude for the whole line/.test(u.message) && u.endM - u.startM > 500)).toBe(true);
+    expect(cap.some((u) => /clearance and the climb\/descent limits leave no lower way/.test(u.message))).toBe(true);
     expect(fitAltitudes(x, h, 'follow', LIM).unmet.filter((u) => u.reason === 'above-max-agl')).toEqual([]);
   });
 
