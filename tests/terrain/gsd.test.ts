@@ -7,7 +7,7 @@ import { TerrainError } from '../../terrain/errors';
 const filmCamera = (focalLengthMm: number): Camera => ({ sensorWidthMm: 230, sensorHeightMm: 230, focalLengthMm, imageWidthPx: 23000, imageHeightPx: 23000 });
 
 describe('flat-ground photo geometry against published worked examples', () => {
-  // NPTEL course 105104100 (IIT), Module 3 "Photogrammetry", Lecture 21 "Flight planning", Example 1
+  // NPTEL course 105104100, Module 3 "Photogrammetry", Lecture 21 "Flight planning", Example 1
   // (archive.nptel.ac.in/content/storage2/courses/105104100/lectureC_33/C_33_3.htm): 45 km x 36 km at an
   // average scale of 1:12000, f = 21 cm, 23 cm square photos, 60 % forward and 30 % side overlap, terrain
   // 500 m above MSL, 200 km/h. Published: exposure interval kept at 19 s, adjusted base 55.55 x 19 =
