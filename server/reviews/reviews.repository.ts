@@ -1,5 +1,5 @@
 /** Review-state changes (row-locked, with their audit entry in the same transaction) and the audit trail of a plan. */
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import { reviewStateSchema, reviewTransitions, transitionAllowed, type ReviewAction, type ReviewState } from '../../contracts/reviews';
 import type { Db } from '../../db/client';
 import { auditEvent, member, organization, planVersion, user } from '../../db/schema';
@@ -8,7 +8,8 @@ import { auditEvent, member, organization, planVersion, user } from '../../db/sc
 export type TransitionRefusal =
   | { reason: 'not_found' }
   | { reason: 'state'; state: ReviewState; number: number }
-  | { reason: 'analysis'; analysisState: string; number: number };
+  | { reason: 'analysis'; analysisState: string; number: number }
+  | { reason: 'independence'; number: number; role: 'created' | 'submitted' };
 
 export function createReviewsRepository({ db }: { db: Db }) {
   return {
@@ -19,7 +20,13 @@ export function createReviewsRepository({ db }: { db: Db }) {
     async transition(q: { teamId: string; versionId: string; action: ReviewAction; actorId: string; comment: string | null }) {
       return db.transaction(async (tx) => {
         const [row] = await tx
-          .select({ state: planVersion.reviewState, analysisState: planVersion.analysisState, number: planVersion.number, planId: planVersion.planId })
+          .select({
+            state: planVersion.reviewState,
+            analysisState: planVersion.analysisState,
+            number: planVersion.number,
+            planId: planVersion.planId,
+            createdBy: planVersion.createdBy,
+          })
           .from(planVersion)
           .where(and(eq(planVersion.id, q.versionId), eq(planVersion.teamId, q.teamId)))
           .for('update');
@@ -30,6 +37,21 @@ export function createReviewsRepository({ db }: { db: Db }) {
         }
         if (q.action === 'submit' && row.analysisState !== 'done') {
           return { ok: false as const, refusal: { reason: 'analysis', analysisState: row.analysisState, number: row.number } as TransitionRefusal };
+        }
+        if (q.action === 'sign-off') {
+          // Independent check: whoever made the version or sent it for review cannot also sign it off.
+          if (row.createdBy === q.actorId) {
+            return { ok: false as const, refusal: { reason: 'independence', number: row.number, role: 'created' } as TransitionRefusal };
+          }
+          const [submitted] = await tx
+            .select({ actorId: auditEvent.actorId })
+            .from(auditEvent)
+            .where(and(eq(auditEvent.planVersionId, q.versionId), eq(auditEvent.toState, 'in_review')))
+            .orderBy(desc(auditEvent.createdAt))
+            .limit(1);
+          if (submitted?.actorId === q.actorId) {
+            return { ok: false as const, refusal: { reason: 'independence', number: row.number, role: 'submitted' } as TransitionRefusal };
+          }
         }
         const t = reviewTransitions[q.action];
         // now() is the transaction's start time: the sign-off time and its audit entry agree to the microsecond.

@@ -26,6 +26,10 @@ function list(states: readonly ReviewState[]): string {
 
 /** The 409 message: the current state, what the action needs, and what can be done from here. */
 export function refusalMessage(action: ReviewAction, refusal: Exclude<TransitionRefusal, { reason: 'not_found' }>): string {
+  if (refusal.reason === 'independence') {
+    const did = refusal.role === 'created' ? 'ran' : 'sent for review';
+    return `Version ${refusal.number} needs an independent check: you ${did} it, so another surveyor or owner of the team must sign it off.`;
+  }
   if (refusal.reason === 'analysis') {
     const what = refusal.analysisState === 'failed' ? 'failed' : `is not finished (it is ${refusal.analysisState})`;
     return `Version ${refusal.number} cannot be sent for review: its analysis ${what}. Send it once the analysis is done.`;
@@ -75,7 +79,7 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
       const r = await reviews.transition({ teamId: q.teamId, versionId: q.versionId, action: q.action, actorId: q.actor.id, comment: q.comment });
       if (!r.ok) {
         if (r.refusal.reason === 'not_found') throw errors.notFound('Plan version');
-        const code = r.refusal.reason === 'analysis' ? 'analysis_not_done' : 'invalid_transition';
+        const code = r.refusal.reason === 'analysis' ? 'analysis_not_done' : r.refusal.reason === 'independence' ? 'not_independent' : 'invalid_transition';
         throw new AppError(409, code, refusalMessage(q.action, r.refusal));
       }
       const after = await load(q);
