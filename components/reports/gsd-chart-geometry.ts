@@ -93,13 +93,13 @@ export function gsdChartGeometry(points: readonly GsdPoint[], bandCm: readonly [
   const band = Number.isFinite(bandTop) && bandBottom > bandTop ? { x: box.padLeftPx, y: bandTop, width: plotW, height: bandBottom - bandTop } : null;
 
   const yStep = niceStep(hi - lo, 4);
-  const xStep = niceStep(dSpan, 4);
+  const xStep = niceStep(dSpan, 6);
   return {
     path,
     dots,
     band,
     targetY: Number.isFinite(targetCm) ? y(targetCm) : null,
-    xTicks: ticks(0, dSpan, 4).map((d) => ({ x: x(d), label: `${d.toFixed(decimalsFor(xStep))}` })),
+    xTicks: ticks(0, dSpan, 6).map((d) => ({ x: x(d), label: `${d.toFixed(decimalsFor(xStep))}` })),
     yTicks: ticks(lo, hi, 4).map((g) => ({ y: y(g), label: g.toFixed(decimalsFor(yStep)) })),
     gaps,
     domainCm: [lo, hi],

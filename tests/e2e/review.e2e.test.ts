@@ -6,12 +6,13 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword, demoUsers } from '../../contracts/demo-team';
 import type { Role } from '../../contracts/roles';
-import { user } from '../../db/schema';
+import { plan, planVersion, project, user } from '../../db/schema';
+import { demoProject } from '../../server/seed/demo-project';
 import { launchBrowser, screenshotDir, viewports } from '../support/browser';
 import { demoClients, demoTeamId } from '../support/demo';
 import { createVersion, eventually, type VersionFixture } from '../support/fixtures';
@@ -27,7 +28,6 @@ let browser: Browser;
 let teamId: string;
 let clients: Record<Role, ApiClient>;
 let version: VersionFixture;
-const planName = `Quarry north face ${Date.now().toString(36)}`;
 
 const demo = (role: Role) => demoUsers.find((u) => u.role === role)!;
 
@@ -38,10 +38,26 @@ beforeAll(async () => {
   browser = await launchBrowser();
   teamId = await demoTeamId(srv);
   clients = await demoClients(srv);
-  const [planner] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, demo('planner').email));
-  // An analysed draft version in the demo team (the fixtures' synthetic hill), fresh for this run.
-  version = await createVersion(srv, { teamId, createdBy: planner!.id, planName });
+  version = (await seededDemoVersion()) ?? (await fixtureVersion());
 });
+
+/** Version 1 of the seeded demo plan (Harrow Fell, analysed at seed time), when the seed made it. */
+async function seededDemoVersion(): Promise<VersionFixture | null> {
+  const [row] = await srv.db
+    .select({ projectId: project.id, planId: plan.id, versionId: planVersion.id, siteId: plan.siteId })
+    .from(planVersion)
+    .innerJoin(plan, eq(plan.id, planVersion.planId))
+    .innerJoin(project, eq(project.id, plan.projectId))
+    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(planVersion.number, 1)));
+  if (!row) return null;
+  return { ...row, path: `/api/teams/${teamId}/plans/${row.planId}/versions/${row.versionId}` };
+}
+
+/** Otherwise an analysed draft over the fixtures' synthetic hill in the demo team. */
+async function fixtureVersion(): Promise<VersionFixture> {
+  const [planner] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, demo('planner').email));
+  return createVersion(srv, { teamId, createdBy: planner!.id, planName: `Quarry north face ${Date.now().toString(36)}` });
+}
 
 afterAll(async () => {
   await browser?.close();
@@ -95,9 +111,15 @@ const reportUrl = () => `${srv.url}/projects/${version.projectId}/plans/${versio
 
 describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
   it('the demo planner sends the version for review through the API', async () => {
-    const r = await clients.planner.post(`${version.path}/submit`, { comment: 'Hold mode over the hill; please check the north lines.' });
-    expect(r.status).toBe(200);
-    expect(r.body.reviewState).toBe('in_review');
+    const before = await clients.planner.get(`${version.path}/review`);
+    expect(before.status).toBe(200);
+    // Another suite may already have sent the shared demo version; signing off is what this file needs to see.
+    expect(before.body.reviewState, 'the demo version must not be signed off before this suite').not.toBe('signed_off');
+    if (before.body.reviewState !== 'in_review') {
+      const r = await clients.planner.post(`${version.path}/submit`, { comment: 'Follow mode over the face; please check the lines by the spoil heap.' });
+      expect(r.status).toBe(200);
+      expect(r.body.reviewState).toBe('in_review');
+    }
   });
 
   it('the demo surveyor reads the compliance report and signs the version off', async () => {
@@ -191,6 +213,21 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
     }
   }, 90_000);
 
+  it('the signed-off report and the review panel also read on a 390x844 phone', async () => {
+    const { context, page, pageErrors } = await openPage(viewports.phone);
+    try {
+      await signIn(page, demo('surveyor').email);
+      await page.goto(reportUrl());
+      await page.getByTestId('review-locked').waitFor();
+      await page.getByTestId('gsd-chart-1').locator('svg').waitFor();
+      expect(await horizontalOverflowPx(page)).toBe(0);
+      await shootWhole(page, 'phone-report-signed-off.png');
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await context.close();
+    }
+  }, 90_000);
+
   it('the leg sheet also lays out on a 1440x900 window', async () => {
     const { context, page, pageErrors } = await openPage(viewports.wide);
     try {
@@ -223,6 +260,12 @@ describe.skipIf(skipWeb)('invitations and the development outbox', () => {
       expect(link).toMatch(/\/invite\/[^/]+$/);
       await expect(page.getByTestId(`invitation-status-${invited}`).textContent()).resolves.toBe('Pending');
       await shootWhole(page, 'wide-team-invitations.png');
+      await page.setViewportSize(viewports.phone);
+      await page.getByTestId('bottom-tabs').waitFor();
+      expect(await horizontalOverflowPx(page)).toBe(0);
+      await shootWhole(page, 'phone-team-invitations.png');
+      await page.setViewportSize(viewports.wide);
+      await page.getByTestId('side-nav').waitFor();
 
       // The fake SMTP server got the invitation and the sign-off mail with its PDF; Profile links the outbox.
       await page.getByTestId('nav-profile').click();
