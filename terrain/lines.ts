@@ -19,6 +19,8 @@ export interface FlightLineOptions {
   takeoff?: [number, number];
   /** Refuse layouts with more lines than this (default 2000). */
   maxLines?: number;
+  /** Clip each line to the polygon within its whole strip (default) or only where its centre line crosses (quick estimates). */
+  clip?: 'strip' | 'centre';
 }
 
 /** One straight flight line in the local frame, with its exposure stations. */
@@ -125,8 +127,9 @@ export function planFlightLines(area: LocalPolygon, opts: FlightLineOptions): Fl
     // (probes across the strip plus the corners inside it), not only where the centre line crosses.
     const inside = (v: number) => Math.min(Math.max(v, cMin + 1e-7 * (1 + Math.abs(cMin))), cMax - 1e-7 * (1 + Math.abs(cMax)));
     const spans: Array<[number, number]> = [];
-    for (const f of [-0.5, -0.25, 0, 0.25, 0.5]) spans.push(...clipAtOffset(rotated, inside(c + f * S), aMin, aMax));
-    for (const ring of rotatedRings) for (const [va, vc] of ring) if (Math.abs(vc - c) <= S / 2) spans.push([va, va]);
+    const probes = opts.clip === 'centre' ? [0] : [-0.5, -0.25, 0, 0.25, 0.5];
+    for (const f of probes) spans.push(...clipAtOffset(rotated, inside(c + f * S), aMin, aMax));
+    if (opts.clip !== 'centre') for (const ring of rotatedRings) for (const [va, vc] of ring) if (Math.abs(vc - c) <= S / 2) spans.push([va, va]);
     spans.sort((p, q) => p[0] - q[0]);
     const merged: Array<[number, number]> = [];
     for (const sp of spans) {

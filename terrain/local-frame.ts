@@ -1,6 +1,5 @@
 /** The local metric frame of a survey: UTM of the area, origin at its centre, scaled to true ground distance; grid heights in it. */
 import type { Grid, GridCrs } from './grid';
-import { sampleBilinear } from './grid';
 import { WGS84, createTransform, utmCrsFor } from './crs';
 import { sampleGridCoords } from './sample';
 import type { HeightAt } from './footprint';
@@ -68,11 +67,12 @@ export interface LocalHeights {
 export function localHeights(grid: Grid, frame: LocalFrame): LocalHeights {
   const t = createTransform(frame.crs, grid.crs);
   const { originE: e0, originN: n0, scale: k } = frame;
+  const bilinear = bilinearSampler(grid);
   const heightAt: HeightAt = t.identity
-    ? (x, y) => sampleBilinear(grid, e0 + x * k, n0 + y * k)
+    ? (x, y) => bilinear(e0 + x * k, n0 + y * k)
     : (x, y) => {
         const [gx, gy] = t.forward(e0 + x * k, n0 + y * k);
-        return sampleBilinear(grid, gx, gy);
+        return bilinear(gx, gy);
       };
   return {
     heightAt,
@@ -87,5 +87,34 @@ export function localHeights(grid: Grid, frame: LocalFrame): LocalHeights {
       t.forwardArrays(gx, gy);
       return sampleGridCoords(grid, gx, gy, out);
     },
+  };
+}
+
+/**
+ * `sampleBilinear` of grid.ts as a closure with the inverse geotransform worked out once: the ray casting
+ * samples the grid a few hundred thousand times a plan, one point at a time. Same clamping and nodata rules.
+ */
+export function bilinearSampler(grid: Grid): (x: number, y: number) => number {
+  const { width, height, data } = grid;
+  const t = grid.transform;
+  const det = t[1] * t[5] - t[2] * t[4];
+  if (det === 0) throw new Error('Grid transform is singular (pixel size 0): the georeference is broken.');
+  const a1 = t[5] / det, a2 = -t[2] / det, b1 = -t[4] / det, b2 = t[1] / det;
+  const a0 = -(a1 * t[0] + a2 * t[3]), b0 = -(b1 * t[0] + b2 * t[3]);
+  const wMax = width - 1, hMax = height - 1;
+  return (x, y) => {
+    const pc = a0 + a1 * x + a2 * y;
+    const pr = b0 + b1 * x + b2 * y;
+    if (!(pc >= 0 && pr >= 0 && pc <= width && pr <= height)) return NaN;
+    let fx = pc - 0.5, fy = pr - 0.5;
+    if (fx < 0) fx = 0; else if (fx > wMax) fx = wMax;
+    if (fy < 0) fy = 0; else if (fy > hMax) fy = hMax;
+    const c0 = Math.floor(fx), r0 = Math.floor(fy);
+    const c1 = c0 + 1 < width ? c0 + 1 : c0;
+    const o0 = r0 * width, o1 = r0 + 1 < height ? o0 + width : o0;
+    const tx = fx - c0, ty = fy - r0;
+    const v00 = data[o0 + c0], v10 = data[o0 + c1], v01 = data[o1 + c0], v11 = data[o1 + c1];
+    const top = v00 + (v10 - v00) * tx;
+    return top + (v01 + (v11 - v01) * tx - top) * ty;
   };
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import geodesic from 'geographiclib-geodesic';
-import { localFrameFor, localHeights } from '../../terrain/local-frame';
+import { bilinearSampler, localFrameFor, localHeights } from '../../terrain/local-frame';
 import { createGrid, sampleBilinear } from '../../terrain/grid';
 import { WGS84, createTransform } from '../../terrain/crs';
 import { utmGrid } from './plan-fixtures';
@@ -22,6 +22,18 @@ describe('local frame', () => {
       expect(bl).toBeCloseTo(lon + 0.01, 9);
       expect(bb).toBeCloseTo(lat - 0.01, 9);
       expect(f.toLocal(lon, lat)[0]).toBeCloseTo(0, 6);
+    }
+  });
+
+  it('samples exactly as sampleBilinear does, edges, nodata and outside included', () => {
+    const grid = utmGrid({ width: 50, height: 40, f: (x, y) => Math.sin(x / 7) * 30 + y });
+    grid.data[10 * 50 + 20] = NaN;
+    const f = bilinearSampler(grid);
+    for (let i = 0; i < 5000; i++) {
+      const e = 500_000 - 2 + ((i * 7919) % 5400) / 100, n = 5_000_000 - 2 + ((i * 104729) % 4400) / 100;
+      const a = f(e, n), b = sampleBilinear(grid, e, n);
+      if (Number.isNaN(b)) expect(a).toBeNaN();
+      else expect(a).toBeCloseTo(b, 9);
     }
   });
 
