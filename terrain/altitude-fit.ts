@@ -11,6 +11,7 @@ export interface Corridor {
   bandLo: Float64Array; // band bounds without the safety terms, for choosing levels
   bandHi: Float64Array;
   cap: Float64Array; // ground + maximum height above ground
+  capHigh: Float64Array; // highest gradient-feasible profile under the cap (never below hardLo)
 }
 
 /** Climb and descent limits as positive gradients (rise or fall over run). */
@@ -288,13 +289,20 @@ export function fitFollow(c: Corridor, g: Gradients, lim: LegLimits): Breakpoint
   return enforceGradients(roundFollow(simplify({ x: xs, z: zs }), g, lim.roundingM), g);
 }
 
-/** Slope from (x_a, za) to sample b that stays above the safe profile and within the gradients, nearest the target's. */
+/**
+ * Slope from (x_a, za) to sample b that stays above the safe profile and within the gradients, under the
+ * height cap too where that is still possible, nearest the target's.
+ */
 function hardSlope(c: Corridor, g: Gradients, a: number, b: number, za: number): number {
-  let lo = -g.descent;
-  for (let i = a + 1; i <= b; i++) lo = Math.max(lo, (c.hardLo[i] - za) / (c.x[i] - c.x[a]));
-  const dx = c.x[b] - c.x[a];
-  const want = (Math.min(Math.max(c.target[b], c.lo[b]), c.hi[b]) - za) / dx;
-  return Math.min(Math.max(want, lo), Math.max(lo, g.climb));
+  let lo = -g.descent, capHi = g.climb;
+  for (let i = a + 1; i <= b; i++) {
+    const dx = c.x[i] - c.x[a];
+    lo = Math.max(lo, (c.hardLo[i] - za) / dx);
+    capHi = Math.min(capHi, (c.capHigh[i] - za) / dx);
+  }
+  const hi = capHi >= lo ? capHi : Math.max(lo, g.climb);
+  const want = (Math.min(Math.max(c.target[b], c.lo[b]), c.hi[b]) - za) / (c.x[b] - c.x[a]);
+  return Math.min(Math.max(want, lo), hi);
 }
 
 /**

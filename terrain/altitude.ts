@@ -229,7 +229,7 @@ interface Bounds {
 function corridor(x: Float64Array, h: Float64Array, floor: Float64Array, safe: Float64Array, lim: AltitudeLimits): { c: Corridor; b: Bounds } {
   const n = x.length;
   const mk = () => new Float64Array(n);
-  const c: Corridor = { x, lo: mk(), hi: mk(), hardLo: safe, floor, target: mk(), bandLo: mk(), bandHi: mk(), cap: mk() };
+  const c: Corridor = { x, lo: mk(), hi: mk(), hardLo: safe, floor, target: mk(), bandLo: mk(), bandHi: mk(), cap: mk(), capHigh: mk() };
   const { climbGradient: gc, descentGradient: gd } = lim;
   for (let i = 0; i < n; i++) {
     c.cap[i] = h[i] + lim.maxAglM;
@@ -239,6 +239,7 @@ function corridor(x: Float64Array, h: Float64Array, floor: Float64Array, safe: F
   }
   const capHigh = ceilingProfile(x, c.cap, gc, gd).high;
   for (let i = 0; i < n; i++) capHigh[i] = Math.max(capHigh[i], safe[i]);
+  c.capHigh = capHigh;
   // Lower edge at the target height, not the band's: below the target the footprints shrink and the overlaps
   // fall under their targets, so the band's lower half is left to where the limits force it (unmet stretches
   // and forced legs are judged against the whole band).
