@@ -13,8 +13,9 @@ export function SignedInGate({ children }: { children: ReactNode }) {
   const pathname = usePathname();
 
   if (me.isPending) return <Loading fill label="Checking your session…" />;
-  if (me.isError) {
-    if (me.error instanceof ApiError && me.error.isUnauthenticated) return <Redirect href="/sign-in" />;
+  if (me.isError && me.error instanceof ApiError && me.error.isUnauthenticated) return <Redirect href="/sign-in" />;
+  // A later check that fails for want of a network keeps what was loaded (a pilot's leg sheet in the field).
+  if (me.isError && !me.data) {
     return (
       <Screen title="Loftline is not answering">
         <Banner tone="danger" message={errorMessage(me.error)}>
@@ -23,6 +24,7 @@ export function SignedInGate({ children }: { children: ReactNode }) {
       </Screen>
     );
   }
+  if (!me.data) return <Loading fill label="Checking your session…" />;
   // A user with no team can do nothing but create one (or wait to be added).
   if (me.data.teams.length === 0 && pathname !== '/teams' && pathname !== '/profile') return <Redirect href="/teams" />;
 

@@ -21,7 +21,7 @@ export function FlightCautions({ compact = false }: { compact?: boolean }) {
             <Text tone="caution" aria-hidden>
               •
             </Text>
-            <Text style={styles.line}>{compact ? line.split('. ')[0] + '.' : line}</Text>
+            <Text style={styles.line}>{compact ? firstSentence(line) : line}</Text>
           </View>
         ))}
       </View>
@@ -34,3 +34,8 @@ const styles = StyleSheet.create({
   item: { flexDirection: 'row', gap: space.sm },
   line: { flex: 1 },
 });
+
+/** The first sentence of a caution, ending in exactly one full stop. */
+function firstSentence(line: string): string {
+  return `${line.split('. ')[0].replace(/\.$/, '')}.`;
+}

@@ -34,13 +34,23 @@ export function ensureWebBuild(opts: { force?: boolean } = {}): string {
   copySkiaWasm();
   console.log('loftline: building the web app (expo export)…');
   const t0 = Date.now();
-  const r = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', 'dist'], {
+  // Build beside dist/ and swap it in, so a server or test run serving the old build never sees a half-written one.
+  const staging = `${distDir}.build-${process.pid}`;
+  fs.rmSync(staging, { recursive: true, force: true });
+  const r = spawnSync('npx', ['expo', 'export', '--platform', 'web', '--output-dir', path.basename(staging)], {
     cwd: projectRoot,
     stdio: ['ignore', 'inherit', 'inherit'],
     env: { ...process.env, CI: '1', EXPO_NO_TELEMETRY: '1', NODE_ENV: 'production' },
   });
-  if (r.status !== 0) throw new Error('The web build failed (see the expo output above).');
-  fs.writeFileSync(stamp, hash);
+  if (r.status !== 0) {
+    fs.rmSync(staging, { recursive: true, force: true });
+    throw new Error('The web build failed (see the expo output above).');
+  }
+  fs.writeFileSync(path.join(staging, '.source-hash'), hash);
+  const old = `${distDir}.old-${process.pid}`;
+  if (fs.existsSync(distDir)) fs.renameSync(distDir, old);
+  fs.renameSync(staging, distDir);
+  fs.rmSync(old, { recursive: true, force: true });
   console.log(`loftline: web app built in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
   return distDir;
 }
