@@ -100,7 +100,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     ? adviseHeading(area, heights.sampleMany, { lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, sampleStepM: Math.max(stepM, 10) })
     : null;
   const headingDeg = headingAdvice ? headingAdvice.recommendedDeg : (mission.headingDeg as number);
-  const lines = planFlightLines(area, { headingDeg, lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, takeoff: takeoffXY });
+  const laidLines = planFlightLines(area, { headingDeg, lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, takeoff: takeoffXY });
   const lim: AltitudeLimits = {
     targetHeightM: H,
     bandLowM: H * (1 - mission.gsdTolerance),
@@ -114,13 +114,21 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     roundingM: mission.altitudeRoundingM,
   };
   // ground profiles: one batch sample per line, stations included as samples
-  const profiles = lines.map((line) => {
+  const laidProfiles = laidLines.map((line) => {
     const { x, stationIdx } = profileDistances(line, stepM);
     const xs = new Float64Array(x.length), ys = new Float64Array(x.length), g = new Float64Array(x.length);
     for (let i = 0; i < x.length; i++) { const p = pointAlong(line, x[i]); xs[i] = p[0]; ys[i] = p[1]; }
     heights.sampleMany(xs, ys, g);
     return { x, stationIdx, fit: fitAltitudes(x, g, mission.mode, lim) };
   });
+  // A line with no known ground at all has no safe altitude: it is left out of the flight and reported.
+  const plannable = laidProfiles.map((p) => p.fit.unknownCount < p.x.length);
+  const lines = laidLines.filter((_, i) => plannable[i]);
+  const profiles = laidProfiles.filter((_, i) => plannable[i]);
+  const leftOut = laidLines.filter((_, i) => !plannable[i]);
+  if (lines.length === 0) {
+    throw new TerrainError('all-nodata', 'The elevation grid has no data under any flight line of this area: no altitude can be planned. Move the area onto ground the grid covers, or upload a grid that covers it.');
+  }
   const offsets = [...new Set(lines.map((l) => l.offsetM))].sort((a, b) => a - b);
   const photos = lines.map((line, li) => {
     const { x, stationIdx, fit } = profiles[li];
@@ -241,6 +249,10 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     ...transitWarnings(lines, profiles.map((p) => p.fit.legs), takeoffXY, takeoffGroundM, heights.heightAt, lim.clearanceM),
     ...outLines.flatMap((l) => l.warnings),
   ];
+  if (leftOut.length > 0) {
+    const m = leftOut.reduce((t, l) => t + l.lengthM, 0);
+    warnings.push({ code: 'lines-left-out', message: `${leftOut.length} flight line${leftOut.length > 1 ? 's' : ''} (${Math.round(m)} m) lie entirely over ground the grid has no data for and were left out: that strip of the area is not covered. Extend the grid or shrink the area.` });
+  }
   if (unmetLengthM > 0) {
     const byReason = new Map<string, number>();
     for (const l of outLines) for (const u of l.unmet) byReason.set(u.reason, (byReason.get(u.reason) ?? 0) + u.endM - u.startM);
