@@ -12,12 +12,16 @@ export type ProfileChartCanvasProps = {
   lengthUnit: string;
   heightTitle: string;
   heightPx: number;
+  /** Fewer ticks on narrow charts. */
+  compact: boolean;
 };
 
 const fontSizePx = 11;
-const fmt = (v: number) => (Math.abs(v) >= 100 ? v.toFixed(0) : Math.abs(v) >= 10 ? v.toFixed(0) : v.toFixed(1));
+/** Whole numbers without decimals; small fractional ticks with one. */
+const fmt = (v: number) => (Number.isInteger(v) || Math.abs(v) >= 10 ? v.toFixed(0) : v.toFixed(1));
 
-export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, heightPx }: ProfileChartCanvasProps) {
+export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, heightPx, compact }: ProfileChartCanvasProps) {
+  const ticks = compact ? 4 : 6;
   const font = useFont(fontFiles[fontFamilies.regular], fontSizePx);
   const dash = (style: keyof typeof dashIntervals) => {
     const d = dashIntervals[style];
@@ -31,7 +35,7 @@ export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, he
         yKeys={['ground', 'clearance', 'altitude', 'gsd']}
         domain={{ x: series.distanceDomain }}
         padding={{ left: space.xs, right: space.xs, top: space.sm, bottom: space.xs }}
-        xAxis={{ font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: 6, formatXLabel: (v) => fmt(Number(v)), title: { text: `Distance along the line (${lengthUnit})`, font, color: chartInk.ink } }}
+        xAxis={{ font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: ticks, formatXLabel: (v) => fmt(Number(v)), title: { text: `Distance along the line (${lengthUnit})`, font, color: chartInk.ink } }}
         yAxis={[
           { yKeys: ['ground', 'clearance', 'altitude'], domain: series.heightDomain, font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: 5, formatYLabel: (v) => fmt(Number(v)), title: { text: heightTitle, font, color: chartInk.ink } },
           { yKeys: ['gsd'], axisSide: 'right', domain: series.gsdDomain, font, labelColor: chartInk.axis, lineColor: 'transparent', tickCount: 5, formatYLabel: (v) => Number(v).toFixed(2), title: { text: 'GSD (cm)', font, color: chartInk.ink } },

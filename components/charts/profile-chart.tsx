@@ -37,7 +37,9 @@ export function ProfileChart({ line, clearanceTotalM, units, datum, heightPx }: 
   useEffect(() => setMounted(true), []);
   const series = useMemo(() => profileSeries(line, clearanceTotalM, units), [line, clearanceTotalM, units]);
   const u = lengthUnit(units);
-  const props: ProfileChartCanvasProps = { series, lengthUnit: u, heightTitle: `Height above ${datum} (${u})`, heightPx };
+  const compact = heightPx < 280;
+  // The datum can be a long name: the axis says "datum", the caption names it.
+  const props: ProfileChartCanvasProps = { series, lengthUnit: u, heightTitle: `Height above datum (${u})`, heightPx, compact };
   const fallback = (
     <View style={[styles.placeholder, { height: heightPx }]}>
       <Loading label="Drawing the chart…" />
@@ -53,6 +55,9 @@ export function ProfileChart({ line, clearanceTotalM, units, datum, heightPx }: 
       ) : (
         fallback
       )}
+      <Text variant="caption" tone="muted">
+        Heights above {datum}; GSD on the right-hand axis. Each photo position is a point on the GSD line.
+      </Text>
       <View style={styles.legend} testID="profile-legend">
         {Object.values(seriesLooks).map((look) => (
           <LegendItem key={look.label} look={look} />

@@ -29,6 +29,19 @@ export interface ProfileSeries {
   distanceDomain: [number, number];
 }
 
+/** The 1-2-5 series step nearest to `raw` (the usual choice of axis steps, as in Heckbert's "nice numbers", Graphics Gems 1990). */
+export function niceStep(raw: number): number {
+  const p = 10 ** Math.floor(Math.log10(raw));
+  const f = raw / p;
+  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * p;
+}
+
+/** [lo, hi] widened to whole multiples of a nice step, so axis ticks fall on round values. */
+export function niceDomain(lo: number, hi: number, ticks = 5): [number, number] {
+  const step = niceStep((hi - lo) / ticks);
+  return [Math.floor(lo / step) * step, Math.ceil(hi / step) * step];
+}
+
 /**
  * Rows at every station (ground, clearance floor = ground + clearance + obstacle allowance, GSD) and at every
  * leg end (altitude), sorted by distance; heights stay in the grid's vertical datum.
@@ -61,7 +74,7 @@ export function profileSeries(line: PlanLine, clearanceTotalM: number, units: Un
     const lo = Math.min(...vs);
     const hi = Math.max(...vs);
     const pad = Math.max((hi - lo) * padShare, 1e-6 + (hi === lo ? Math.abs(hi) * 0.05 + 1 : 0));
-    return [lo - pad, hi + pad];
+    return niceDomain(lo - pad, hi + pad);
   };
   return {
     rows,

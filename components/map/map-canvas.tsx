@@ -11,6 +11,7 @@ export type MapCanvasProps = {
   label: string;
   testID?: string;
   crosshair?: boolean;
+  view?: readonly [number, number, number, number];
 };
 
 /** Says where the map can be used instead. */

@@ -15,23 +15,28 @@ export type MapCanvasProps = {
   label: string;
   testID?: string;
   crosshair?: boolean;
+  /** The part of the image to show, [x0, y0, x1, y1] in image pixels (default: all of it). */
+  view?: readonly [number, number, number, number];
 };
 
 const strokeScreenPx = 2;
 const markerScreenPx = 11;
 
 /** Sizes are given in screen pixels and scaled into image pixels, so markers stay readable at any zoom. */
-export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, label, testID, crosshair }: MapCanvasProps) {
-  const [shownWidth, setShownWidth] = useState(widthPx);
-  const k = shownWidth > 0 ? widthPx / shownWidth : 1; // image px per screen px
+export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, label, testID, crosshair, view }: MapCanvasProps) {
+  const [x0, y0, x1, y1] = view ?? [0, 0, widthPx, heightPx];
+  const vw = x1 - x0;
+  const vh = y1 - y0;
+  const [shownWidth, setShownWidth] = useState(vw);
+  const k = shownWidth > 0 ? vw / shownWidth : 1; // image px per screen px
   return (
     <View
-      style={[styles.frame, { aspectRatio: widthPx / heightPx }]}
+      style={[styles.frame, { aspectRatio: vw / vh }]}
       onLayout={(e) => setShownWidth(e.nativeEvent.layout.width)}
       testID={testID}
     >
       <svg
-        viewBox={`0 0 ${widthPx} ${heightPx}`}
+        viewBox={`${x0} ${y0} ${vw} ${vh}`}
         width="100%"
         height="100%"
         role="img"
@@ -41,17 +46,24 @@ export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, label, t
         onClick={(e) => {
           if (!onTap) return;
           const r = e.currentTarget.getBoundingClientRect();
-          onTap(((e.clientX - r.left) / r.width) * widthPx, ((e.clientY - r.top) / r.height) * heightPx);
+          onTap(x0 + ((e.clientX - r.left) / r.width) * vw, y0 + ((e.clientY - r.top) / r.height) * vh);
         }}
       >
-        <rect x={0} y={0} width={widthPx} height={heightPx} fill={colors.surfaceSunken} />
+        <defs>
+          {/* Hatching where the grid has no data (the hillshade is transparent there), so a hole never looks like flat ground. */}
+          <pattern id="nodata-hatch" width={8 * k} height={8 * k} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+            <rect width={8 * k} height={8 * k} fill={colors.surfaceSunken} />
+            <line x1={0} y1={0} x2={0} y2={8 * k} stroke={colors.lineStrong} strokeWidth={1.5 * k} />
+          </pattern>
+        </defs>
+        <rect x={0} y={0} width={widthPx} height={heightPx} fill="url(#nodata-hatch)" />
         <image href={imageUrl} x={0} y={0} width={widthPx} height={heightPx} preserveAspectRatio="none" />
         {shapes.map((s) => {
           if (s.kind === 'marker') {
             const r = ((s.sizePx ?? markerScreenPx) / 2) * k;
             const d = markerPath(s.shape, s.at[0], s.at[1], r);
             return (
-              <g key={s.id}>
+              <g key={s.id} opacity={s.opacity}>
                 {s.shape === 'cross' ? (
                   <>
                     <path d={d} stroke={colors.surface} strokeWidth={4 * k} strokeLinecap="round" />

@@ -6,7 +6,7 @@ export type PxPoint = [number, number];
 export type MapShape =
   | { kind: 'polygon'; id: string; points: PxPoint[]; closed: boolean; stroke: string; fill?: string; fillOpacity?: number; dashed?: boolean; widthPx?: number }
   | { kind: 'polyline'; id: string; points: PxPoint[]; stroke: string; dashed?: boolean; widthPx?: number }
-  | { kind: 'marker'; id: string; at: PxPoint; shape: MarkerShape; fill: string; stroke: string; sizePx?: number; label?: string };
+  | { kind: 'marker'; id: string; at: PxPoint; shape: MarkerShape; fill: string; stroke: string; sizePx?: number; label?: string; opacity?: number };
 
 /** SVG path of a marker shape of `r` (half the size) centred on (x, y); the cross is drawn as a stroked path. */
 export function markerPath(shape: MarkerShape, x: number, y: number, r: number): string {

@@ -53,6 +53,11 @@ export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null
     return out;
   }, [state.corners, state.closed, state.takeoff, toPx]);
 
+  // Stable objects, so effects that copy them into a form run only when the drawing really changed.
+  const polygon = useMemo(() => (state.closed ? ringToPolygon(state.corners) : null), [state.closed, state.corners]);
+  const takeoff = useMemo(() => (state.takeoff ? { lon: state.takeoff[0], lat: state.takeoff[1] } : null), [state.takeoff]);
+  const takeoffProblem = useMemo(() => (state.takeoff ? checkTakeoff(state.takeoff, georef) : null), [state.takeoff, georef]);
+
   return {
     state,
     shapes,
@@ -64,8 +69,8 @@ export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null
     clear: () => dispatch({ type: 'clear' }),
     setTool: (tool: DrawTool) => dispatch({ type: 'tool', tool }),
     /** The area to save: only once closed and checked. */
-    polygon: state.closed ? ringToPolygon(state.corners) : null,
-    takeoff: state.takeoff ? { lon: state.takeoff[0], lat: state.takeoff[1] } : null,
-    takeoffProblem: state.takeoff ? checkTakeoff(state.takeoff, georef) : null,
+    polygon,
+    takeoff,
+    takeoffProblem,
   };
 }

@@ -21,7 +21,7 @@ export function NewPlanScreen() {
   const sites = useSites(team?.id, projectId);
   const site = useSite(team?.id, projectId, siteId);
   return (
-    <Screen title="New plan" subtitle={project.data?.name} testID="new-plan-screen">
+    <Screen title="New plan" subtitle={project.data?.name} width="full" testID="new-plan-screen">
       <TextLink href={`/projects/${projectId}`} label="← Back to the project" />
       <RequirePermission permission="plan:write" what="Creating plans">
         {project.isError ? <Banner tone="danger" message={errorMessage(project.error)} /> : null}
@@ -56,7 +56,7 @@ export function PlanScreen() {
   const site = useSite(team?.id, projectId, plan.data?.siteId);
   const versions = useVersions(team?.id, planId);
   return (
-    <Screen title={plan.data?.name ?? 'Plan'} subtitle={project.data ? `In ${project.data.name}${site.data ? ` · over ${site.data.name}` : ''}` : undefined} testID="plan-screen">
+    <Screen width="full" title={plan.data?.name ?? 'Plan'} subtitle={project.data ? `In ${project.data.name}${site.data ? ` · over ${site.data.name}` : ''}` : undefined} testID="plan-screen">
       <TextLink href={`/projects/${projectId}`} label="← Back to the project" />
       <RequirePermission permission="plan:read" what="Plans">
         {plan.isPending ? <Loading label="Loading the plan…" /> : null}

@@ -75,6 +75,7 @@ export function PlanEditor({ project, site, plan }: { project: Project; site: Si
   return (
     <View style={styles.body}>
       <FlightCautions compact={!wide} />
+      {readOnly ? <Banner tone="info" message="You are reading this plan: planners and owners change it and run its analysis." testID="plan-read-only" /> : null}
       {wide ? (
         <View style={styles.row}>
           <View style={styles.mapColumn}>{map}</View>
@@ -93,8 +94,9 @@ export function PlanEditor({ project, site, plan }: { project: Project; site: Si
 const styles = StyleSheet.create({
   body: { gap: space.xl },
   row: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
-  mapColumn: { flex: 5, minWidth: 0 },
-  formColumn: { flex: 6, minWidth: 0 },
+  // The map stays in view while the form scrolls past it (position sticky is a web-only value).
+  mapColumn: { flex: 6, minWidth: 0, position: 'sticky' as never, top: 0 },
+  formColumn: { flex: 5, minWidth: 0 },
   column: { gap: space.xl },
   actions: { gap: space.sm },
   buttons: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },

@@ -32,9 +32,9 @@ const columns: Column[] = [
   { key: 'gsdMaxCm', label: 'GSD max', cell: (r) => formatGsd(r.gsdMaxCm), flex: 1 },
   { key: 'forwardOverlapMin', label: 'Forward min', cell: (r) => formatPercent(r.forwardOverlapMin), flex: 1 },
   { key: 'sideOverlapMin', label: 'Side min', cell: (r) => formatPercent(r.sideOverlapMin), flex: 0.9 },
-  { key: 'aglMinM', label: 'Above ground min', cell: (r, u) => formatLength(r.aglMinM, u), flex: 1.1 },
+  { key: 'aglMinM', label: 'AGL min', cell: (r, u) => formatLength(r.aglMinM, u), flex: 0.9 },
   { key: 'legs', label: 'Legs', cell: (r) => String(r.legs), flex: 0.6 },
-  { key: 'warningCount', label: 'Warnings', cell: (r) => (r.warnings.length ? String(r.warnings.length) : '–'), flex: 0.9 },
+  { key: 'warningCount', label: 'Warnings', cell: (r) => (r.warnings.length ? String(r.warnings.length) : '–'), flex: 1.2 },
 ];
 
 function FlaggedNote({ row }: { row: LineRow }) {

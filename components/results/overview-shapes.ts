@@ -14,10 +14,14 @@ export function overviewShapes(result: PlanResult, area: number[][][] | null, ge
     const selected = line.index === selectedIndex;
     out.push({ kind: 'polyline', id: `line-${line.index}`, points: [px(line.start.lon, line.start.lat), px(line.end.lon, line.end.lat)], stroke: selected ? colors.focus : colors.ink, widthPx: selected ? 4 : 1.2 });
   }
-  for (const line of result.lines) {
+  // The chosen line's stations are drawn last and larger, the others a little faded, so the chosen line stands out.
+  const order = [...result.lines].sort((a, b) => Number(a.index === selectedIndex) - Number(b.index === selectedIndex));
+  for (const line of order) {
+    const chosen = line.index === selectedIndex;
+    if (chosen) out.push({ kind: 'polyline', id: `line-${line.index}-halo`, points: [px(line.start.lon, line.start.lat), px(line.end.lon, line.end.lat)], stroke: colors.focus, widthPx: 6 });
     line.stations.forEach((s, i) => {
       const look = statusLooks[stationStatus(s)];
-      out.push({ kind: 'marker', id: `st-${line.index}-${i}`, at: px(s.lon, s.lat), shape: look.shape, fill: look.color, stroke: colors.ink, sizePx: line.index === selectedIndex ? 10 : 7 });
+      out.push({ kind: 'marker', id: `st-${line.index}-${i}`, at: px(s.lon, s.lat), shape: look.shape, fill: look.color, stroke: colors.ink, sizePx: chosen ? 10 : 7, opacity: selectedIndex === null || chosen ? 1 : 0.55 });
     });
   }
   out.push({ kind: 'marker', id: 'takeoff', at: px(result.takeoff.lon, result.takeoff.lat), shape: 'diamond', fill: colors.ink, stroke: colors.surface, sizePx: 15, label: 'Takeoff' });
@@ -48,4 +52,21 @@ export function nearestLine(result: PlanResult, georef: ImageGeoref, at: PxPoint
     }
   }
   return best;
+}
+
+/** The part of the image the overview shows: the area, lines and takeoff with a margin, kept on the image. */
+export function overviewView(result: PlanResult, area: number[][][] | null, georef: ImageGeoref, marginShare = 0.12): [number, number, number, number] {
+  const pts: PxPoint[] = [georef.toPixel(result.takeoff.lon, result.takeoff.lat)];
+  for (const l of result.lines) pts.push(georef.toPixel(l.start.lon, l.start.lat), georef.toPixel(l.end.lon, l.end.lat));
+  for (const [lon, lat] of area?.[0] ?? []) pts.push(georef.toPixel(lon, lat));
+  let x0 = Math.min(...pts.map((p) => p[0]));
+  let x1 = Math.max(...pts.map((p) => p[0]));
+  let y0 = Math.min(...pts.map((p) => p[1]));
+  let y1 = Math.max(...pts.map((p) => p[1]));
+  const m = Math.max(x1 - x0, y1 - y0) * marginShare + 10;
+  x0 = Math.max(0, x0 - m);
+  y0 = Math.max(0, y0 - m);
+  x1 = Math.min(georef.widthPx, x1 + m);
+  y1 = Math.min(georef.heightPx, y1 + m);
+  return [x0, y0, x1, y1];
 }

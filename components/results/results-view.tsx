@@ -39,7 +39,7 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
       <Text variant="caption" tone="muted">
         Every photo position, by whether it meets the targets over the real terrain. Tap a line to see its profile.
       </Text>
-      <MapCanvas imageUrl={hillshadeUrl} widthPx={georef.widthPx} heightPx={georef.heightPx} shapes={v.shapes} onTap={v.onMapTap} label={`Overview of ${result.lines.length} flight lines and ${result.summary.photoCount} photo positions on the hillshade.`} testID="results-map" />
+      <MapCanvas imageUrl={hillshadeUrl} widthPx={georef.widthPx} heightPx={georef.heightPx} shapes={v.shapes} view={v.view} onTap={v.onMapTap} label={`Overview of ${result.lines.length} flight lines and ${result.summary.photoCount} photo positions on the hillshade.`} testID="results-map" />
       <StatusLegend counts={v.counts} compact={!wide} />
     </Card>
   );

@@ -4,14 +4,16 @@ import type { UnitSystem } from '../../contracts/projects';
 import type { PlanSummary } from '../../terrain/plan';
 import { formatCount, formatDuration, formatGsd, formatLength, formatPercent } from '../projects/units';
 import { colors, layout, radii, space } from '../theme';
+import { useBreakpoint } from '../layout/use-breakpoint';
 import { Text } from '../ui';
 
 function Figure({ label, value, note, testID }: { label: string; value: string; note?: string; testID?: string }) {
+  const phone = useBreakpoint() === 'phone';
   return (
-    <View style={styles.figure} testID={testID}>
+    <View style={[styles.figure, { flexBasis: phone ? '45%' : '22%' }]} testID={testID}>
       <Text variant="caption" tone="muted">{label}</Text>
       <Text variant="title">{value}</Text>
-      {note ? <Text variant="caption" tone="muted">{note}</Text> : null}
+      {note ? <Text variant="caption" tone="muted" testID={testID ? `${testID}-note` : undefined}>{note}</Text> : null}
     </View>
   );
 }
@@ -36,7 +38,6 @@ const styles = StyleSheet.create({
   grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   figure: {
     flexGrow: 1,
-    flexBasis: 150,
     gap: space.xxs,
     padding: space.md,
     borderRadius: radii.md,

@@ -3,7 +3,7 @@ import { useMemo, useState } from 'react';
 import type { PlanResult } from '../../terrain/plan';
 import type { ImageGeoref } from '../map/image-georef';
 import { lineRows, sortLineRows, type LineSortKey } from './line-rows';
-import { nearestLine, overviewShapes } from './overview-shapes';
+import { nearestLine, overviewShapes, overviewView } from './overview-shapes';
 import { countStatuses } from './station-status';
 
 /** Taps this close (image pixels) to a line select it. */
@@ -24,6 +24,7 @@ export function useResultsView(result: PlanResult, area: number[][][] | null, ge
   const sorted = useMemo(() => sortLineRows(rows, sortKey, sortDir), [rows, sortKey, sortDir]);
   const counts = useMemo(() => countStatuses(result.lines.flatMap((l) => l.stations)), [result]);
   const shapes = useMemo(() => overviewShapes(result, area, georef, selected), [result, area, georef, selected]);
+  const view = useMemo(() => overviewView(result, area, georef), [result, area, georef]);
   const onSort = (key: LineSortKey) => {
     if (key === sortKey) setSortDir(sortDir === 'asc' ? 'desc' : 'asc');
     else {
@@ -32,9 +33,9 @@ export function useResultsView(result: PlanResult, area: number[][][] | null, ge
     }
   };
   const onMapTap = (xPx: number, yPx: number) => {
-    const hit = nearestLine(result, georef, [xPx, yPx], tapReachPx * (georef.widthPx / 600));
+    const hit = nearestLine(result, georef, [xPx, yPx], tapReachPx * ((view[2] - view[0]) / 600));
     if (hit !== null) setSelected(hit);
   };
   const selectedLine = result.lines.find((l) => l.index === selected) ?? null;
-  return { rows: sorted, sortKey, sortDir, onSort, selected, setSelected, selectedLine, counts, shapes, onMapTap };
+  return { rows: sorted, sortKey, sortDir, onSort, selected, setSelected, selectedLine, counts, shapes, view, onMapTap };
 }

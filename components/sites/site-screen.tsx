@@ -3,6 +3,7 @@ import { useLocalSearchParams, useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 import { can } from '../../contracts/roles';
 import { errorMessage } from '../api/api-error';
+import { useBreakpoint } from '../layout/use-breakpoint';
 import { MapCanvas } from '../map/map-canvas';
 import { useProject } from '../projects/projects.queries';
 import { RequirePermission } from '../team/require-permission';
@@ -22,6 +23,7 @@ export function SiteScreen() {
   const project = useProject(team?.id, projectId);
   const site = useSite(team?.id, projectId, siteId);
   const s = site.data;
+  const wide = useBreakpoint() === 'wide';
   return (
     <Screen
       title={s ? s.name : 'Elevation grid'}
@@ -38,8 +40,8 @@ export function SiteScreen() {
         {site.isPending ? <Loading label="Loading the grid…" /> : null}
         {site.isError ? <Banner tone="danger" title="Could not load the grid" message={errorMessage(site.error)} /> : null}
         {s && team ? (
-          <View style={styles.body}>
-            <Card>
+          <View style={[styles.body, wide && styles.sideBySide]}>
+            <Card style={wide ? styles.half : undefined}>
               <View style={styles.headRow}>
                 <Heading level={2}>Hillshade</Heading>
                 <Badge label={surfaceKindInfo[s.surfaceKind].label} tone={s.surfaceKind === 'bare-earth' ? 'caution' : 'info'} testID="site-surface-badge" />
@@ -53,10 +55,10 @@ export function SiteScreen() {
                 testID="site-hillshade"
               />
               <Text variant="caption" tone="muted">
-                Lit from the north-west; grey where the grid has no data. {surfaceKindInfo[s.surfaceKind].hint}
+                Lit from the north-west; hatched where the grid has no data. {surfaceKindInfo[s.surfaceKind].hint}
               </Text>
             </Card>
-            <Card>
+            <Card style={wide ? styles.half : undefined}>
               <Heading level={2}>What Loftline read from the file</Heading>
               <SiteMetadataTable facts={siteFacts(s, project.data?.units ?? 'metric')} />
             </Card>
@@ -69,5 +71,7 @@ export function SiteScreen() {
 
 const styles = StyleSheet.create({
   body: { gap: space.xl },
+  sideBySide: { flexDirection: 'row', alignItems: 'flex-start' },
+  half: { flex: 1, minWidth: 0 },
   headRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', justifyContent: 'space-between', gap: space.sm },
 });

@@ -46,7 +46,9 @@ export function useSiteUpload(projectId: string) {
     setFile(f);
     setFileError(null);
     setRefusal(null);
-    if (!form.getValues('name')) form.setValue('name', nameFromFile(f.name), { shouldValidate: true });
+    // Follow the file with the name until the planner types one of their own.
+    const current = form.getValues('name');
+    if (!current || (file && current === nameFromFile(file.name))) form.setValue('name', nameFromFile(f.name), { shouldValidate: true });
   };
 
   const submit = form.handleSubmit(async (fields) => {

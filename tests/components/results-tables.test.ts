@@ -1,6 +1,6 @@
 import fs from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { profileSeries } from '../../components/charts/profile-series';
+import { niceDomain, niceStep, profileSeries } from '../../components/charts/profile-series';
 import { lineRows, sortLineRows, type LineRow } from '../../components/results/line-rows';
 import { countStatuses, stationStatus, statusLooks, stationStatuses } from '../../components/results/station-status';
 import { readDem } from '../../terrain/dem';
@@ -109,7 +109,10 @@ describe('profileSeries', () => {
     const m = profileSeries(line, 30, 'metric');
     const ft = profileSeries(line, 30, 'imperial');
     expect(ft.distanceDomain[1]).toBeCloseTo(m.distanceDomain[1] / 0.3048, 6);
-    expect(ft.heightDomain[1]).toBeCloseTo(m.heightDomain[1] / 0.3048, 6);
+    ft.rows.forEach((r, i) => {
+      if (r.ground !== null) expect(r.ground).toBeCloseTo(m.rows[i].ground! / 0.3048, 6);
+      expect(r.gsd).toBe(m.rows[i].gsd);
+    });
     expect(ft.gsdDomain).toEqual(m.gsdDomain);
   });
 
@@ -121,5 +124,17 @@ describe('profileSeries', () => {
         if (r.gsd !== null) expect(r.gsd).toBeGreaterThanOrEqual(p.gsdDomain[0]), expect(r.gsd).toBeLessThanOrEqual(p.gsdDomain[1]);
       }
     }
+  });
+});
+
+describe('niceDomain', () => {
+  it('steps in the 1-2-5 series and widens the range to whole steps', () => {
+    expect(niceStep(0.07)).toBeCloseTo(0.1, 12);
+    expect(niceStep(23)).toBe(50);
+    expect(niceStep(1.5)).toBe(2);
+    expect(niceDomain(337.2, 488.9)).toEqual([300, 500]);
+    const [lo, hi] = niceDomain(2.93, 3.34);
+    expect(lo).toBeCloseTo(2.9, 12);
+    expect(hi).toBeCloseTo(3.4, 12);
   });
 });
