@@ -7,5 +7,6 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 120_000,
     globalSetup: ['tests/setup/global-setup.ts'],
+    setupFiles: ['tests/setup/fast-check.ts'],
   },
 });

@@ -29,6 +29,9 @@ export interface Breakpoints {
 /** Slack when comparing slopes (rise over run): far below any gradient that matters, far above rounding noise. */
 const SLOPE_TOL = 1e-9;
 
+/** Slack on band edges when counting samples inside their band, in metres. */
+const BAND_EPS_M = 1e-6;
+
 /** Leg-shape limits. */
 export interface LegLimits {
   minLegLengthM: number;
@@ -62,7 +65,8 @@ export function bestLevel(c: Corridor, i0: number, i1: number): number {
     if (c.cap[i] < capMin) capMin = c.cap[i];
     targets.push(c.target[i]);
     const lo = c.bandLo[i], hi = Math.min(c.bandHi[i], c.cap[i]);
-    if (lo <= hi) { vals.push(lo, hi); kinds.push(1, -1); }
+    // widened by a micrometre so that bands meeting exactly (a zero GSD tolerance) still meet after rounding noise
+    if (lo <= hi) { vals.push(lo - BAND_EPS_M, hi + BAND_EPS_M); kinds.push(1, -1); }
   }
   const t = median(targets);
   const order = vals.map((_, k) => k).sort((p, q) => vals[p] - vals[q] || kinds[q] - kinds[p]); // opens first: closed intervals

@@ -100,7 +100,7 @@ describe('terrain-following altitudes (properties)', () => {
       // to 0.1 mm: at knife-edge ties (a slope equal to the limit to 1e-9) rounding noise may pick another
       // but equally good leg split, so the profiles are compared, not the leg lists
       for (let i = 0; i < x.length; i++) expect(Math.abs(b.altitudeM[i] - dz - a.altitudeM[i])).toBeLessThan(1e-4);
-    }), { numRuns: 200 });
+    }), { numRuns: Number(process.env.PROP_RUNS ?? 200) });
   });
 
   it('keep legs at least the minimum length, except a forced last leg in follow', () => {
