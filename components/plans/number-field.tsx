@@ -2,7 +2,7 @@
 import { useEffect, useState } from 'react';
 import { type Control, type FieldPath, type FieldValues, useController } from 'react-hook-form';
 import { TextField } from '../ui';
-import { numberToText, parseNumberText } from './number-text';
+import { numberToText, parseNumberText, scaleRangeMessage } from './number-text';
 import { fieldMessage } from './plan-form-schema';
 
 export type NumberFieldProps<T extends FieldValues> = {
@@ -32,7 +32,7 @@ export function NumberField<T extends FieldValues>({ control, name, label, unit,
   }, [field.value, scale]);
 
   const typed = parseNumberText(text, scale);
-  const error = fieldState.error ? (Number.isNaN(typed) ? `Enter a number${unit ? ` in ${unit}` : ''}.` : fieldMessage(fieldState.error.message)) : undefined;
+  const error = fieldState.error ? (Number.isNaN(typed) ? `Enter a number${unit ? ` in ${unit}` : ''}.` : scaleRangeMessage(fieldMessage(fieldState.error.message) ?? '', scale, unit)) : undefined;
   return (
     <TextField
       ref={field.ref}

@@ -13,3 +13,14 @@ export function numberToText(value: number | null | undefined, scale = 1): strin
   if (value === null || value === undefined || Number.isNaN(value)) return '';
   return String(Number((value * scale).toPrecision(12)));
 }
+
+/**
+ * A range message written for stored values ("… from 0 to 0.95.") restated in the shown unit ("… from 0 to 95 %.")
+ * for fields that show a scaled value; other messages pass unchanged.
+ */
+export function scaleRangeMessage(message: string, scale: number, unit?: string): string {
+  if (scale === 1) return message;
+  return message.replace(/\b(from|above) (-?\d+(?:\.\d+)?) to (-?\d+(?:\.\d+)?)\.?$/, (_m, word: string, a: string, b: string) =>
+    `${word} ${numberToText(Number(a), scale)} to ${numberToText(Number(b), scale)}${unit ? ` ${unit}` : ''}.`,
+  );
+}

@@ -80,7 +80,8 @@ export function usePlanEditor({ project, site, plan }: PlanEditorInput) {
     setRefusal(null);
     setBusy('run');
     try {
-      const p = mayWrite && (form.formState.isDirty || !plan) ? await persist(values) : (plan as Plan);
+      // Always save first (when allowed): the server runs the saved plan, so what is on screen is what gets analysed.
+      const p = mayWrite || !plan ? await persist(values) : plan;
       const v = await runPlan.mutateAsync({ planId: p.id });
       router.push(`/projects/${project.id}/plans/${p.id}/versions/${v.id}`);
     } catch (e) {

@@ -1,10 +1,11 @@
 /** One run of a plan: progress while the analysis runs, its reason when it failed, the results when done. */
 import { useLocalSearchParams } from 'expo-router';
-import { useMemo } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useMemo } from 'react';
 import { errorMessage } from '../api/api-error';
 import { hillshadeGeoref } from '../map/image-georef';
 import { analysisLabels } from '../plans/versions-list';
-import { isSettled, usePlan, useVersion, useVersionStatus } from '../plans/plans.queries';
+import { isSettled, planKeys, usePlan, useVersion, useVersionStatus } from '../plans/plans.queries';
 import { useProject } from '../projects/projects.queries';
 import { FlightCautions } from '../safety/flight-cautions';
 import { ProgressBar } from '../sites/progress-bar';
@@ -24,7 +25,16 @@ export function VersionScreen() {
   const plan = usePlan(team?.id, planId);
   const status = useVersionStatus(team?.id, planId, versionId);
   const st = status.data;
-  const version = useVersion(team?.id, planId, versionId, isSettled(st));
+  const settled = isSettled(st);
+  const version = useVersion(team?.id, planId, versionId, settled);
+  const queryClient = useQueryClient();
+  // Lists that show this version's state (the plan page, the project page) catch up once it settles.
+  useEffect(() => {
+    if (!settled || !team) return;
+    void queryClient.invalidateQueries({ queryKey: planKeys.versions(team.id, String(planId)), exact: true });
+    void queryClient.invalidateQueries({ queryKey: planKeys.detail(team.id, String(planId)), exact: true });
+    void queryClient.invalidateQueries({ queryKey: [...planKeys.team(team.id), 'list'] });
+  }, [settled, team, planId, queryClient]);
   const site = useSite(team?.id, projectId, plan.data?.siteId);
   const v = version.data;
   const georef = useMemo(() => (site.data ? hillshadeGeoref(site.data.hillshade, site.data.metadata.crs.proj4) : null), [site.data]);

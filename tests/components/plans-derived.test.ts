@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { deriveValues } from '../../components/plans/derived-values';
-import { numberToText, parseNumberText } from '../../components/plans/number-text';
+import { numberToText, parseNumberText, scaleRangeMessage } from '../../components/plans/number-text';
+import { fieldMessage, formPathOf } from '../../components/plans/plan-form-schema';
 import { formatDuration, formatLength, formatSpeed, fromDisplayLength, metresPerFoot } from '../../components/projects/units';
 import { cameraPreset } from '../../terrain/camera';
 
@@ -55,6 +56,22 @@ describe('number text', () => {
     expect(numberToText(0.57, 100)).toBe('57');
     expect(parseNumberText('75', 100)).toBe(0.75);
     expect(numberToText(undefined)).toBe('');
+  });
+});
+
+describe('field messages', () => {
+  it('restates a fraction range of the mission schema in the percent the field shows', () => {
+    expect(scaleRangeMessage('Must be a number from 0 to 0.95.', 100, '%')).toBe('Must be a number from 0 to 95 %.');
+    expect(scaleRangeMessage('Must be a number from 0.1 to 100.', 1, 'cm')).toBe('Must be a number from 0.1 to 100.');
+    expect(scaleRangeMessage('Enter a number.', 100, '%')).toBe('Enter a number.');
+  });
+
+  it('drops the code name a schema message starts with, and maps server paths onto form paths', () => {
+    expect(fieldMessage('sideOverlap must be a number from 0 to 0.95.')).toBe('Must be a number from 0 to 0.95.');
+    expect(fieldMessage('camera.focalLengthMm must be above 0.')).toBe('Must be above 0.');
+    expect(formPathOf('input.targetGsdCm')).toBe('mission.targetGsdCm');
+    expect(formPathOf('input.camera.focalLengthMm')).toBe('mission.camera.focalLengthMm');
+    expect(formPathOf('name')).toBe('name');
   });
 });
 
