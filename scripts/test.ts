@@ -36,6 +36,16 @@ for (const d of fs.existsSync(testDataDir) ? fs.readdirSync(testDataDir) : []) {
 const storageDir = path.join(testDataDir, `storage-${process.pid}`);
 process.env.STORAGE_DIR ??= storageDir;
 process.env.WORKERS ??= '0';
+// The whole tree type-checks first (strict TypeScript): a type error fails the run before any suite starts.
+if (process.env.LOFTLINE_SKIP_TYPECHECK !== '1') {
+  const tc = spawnSync('npx', ['tsc', '--noEmit', '-p', '.'], { cwd: projectRoot, stdio: 'inherit' });
+  if (tc.status !== 0) {
+    console.error('loftline: type check failed (npx tsc --noEmit)');
+    process.exit(1);
+  }
+  console.log('loftline: type check passed');
+}
+
 const env = parseEnv(process.env);
 const pgPort = Number(process.env.LOFTLINE_PG_PORT ?? 54329);
 const t0 = Date.now();
