@@ -1,6 +1,6 @@
 /** The table of flight lines: one row of figures per line, and sorting by any column (unknown values last). */
 import type { PlanLine } from '../../terrain/plan';
-import { stationStatus } from './station-status';
+import { stationStatus, stationStatuses, type StationStatus } from './station-status';
 
 export interface LineRow {
   index: number;
@@ -17,11 +17,13 @@ export interface LineRow {
   legs: number;
   /** Stations that miss a target. */
   flagged: number;
+  /** The worst station status on the line ('meets' when none misses a target). */
+  worst: StationStatus;
   /** Line warnings and unmet stretches, in words. */
   warnings: string[];
 }
 
-export type LineSortKey = Exclude<keyof LineRow, 'index' | 'warnings'> | 'warningCount';
+export type LineSortKey = Exclude<keyof LineRow, 'index' | 'warnings' | 'worst'> | 'warningCount';
 
 function median(sorted: number[]): number | null {
   if (sorted.length === 0) return null;
@@ -52,6 +54,10 @@ export function lineRows(lines: readonly PlanLine[]): LineRow[] {
       aglMinM: minOf(line.stations.map((s) => s.aglM)),
       legs: line.legs.length,
       flagged: line.stations.filter((s) => stationStatus(s) !== 'meets').length,
+      worst: line.stations.reduce<StationStatus>((w, s) => {
+        const st = stationStatus(s);
+        return stationStatuses.indexOf(st) < stationStatuses.indexOf(w) ? st : w;
+      }, 'meets'),
       warnings: [...line.warnings.map((w) => w.message), ...line.unmet.map((u) => u.message)],
     };
   });

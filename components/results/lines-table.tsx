@@ -24,16 +24,16 @@ export type LinesTableProps = {
 type Column = { key: LineSortKey; label: string; cell: (r: LineRow, u: UnitSystem) => string; flex: number };
 
 const columns: Column[] = [
-  { key: 'number', label: 'Line', cell: (r) => String(r.number), flex: 0.6 },
+  { key: 'number', label: 'Line', cell: (r) => String(r.number), flex: 0.8 },
   { key: 'lengthM', label: 'Length', cell: (r, u) => formatLength(r.lengthM, u), flex: 1 },
-  { key: 'photos', label: 'Photos', cell: (r) => String(r.photos), flex: 0.8 },
+  { key: 'photos', label: 'Photos', cell: (r) => String(r.photos), flex: 1 },
   { key: 'gsdMinCm', label: 'GSD min', cell: (r) => formatGsd(r.gsdMinCm), flex: 1 },
   { key: 'gsdMedianCm', label: 'GSD median', cell: (r) => formatGsd(r.gsdMedianCm), flex: 1 },
   { key: 'gsdMaxCm', label: 'GSD max', cell: (r) => formatGsd(r.gsdMaxCm), flex: 1 },
   { key: 'forwardOverlapMin', label: 'Forward min', cell: (r) => formatPercent(r.forwardOverlapMin), flex: 1 },
   { key: 'sideOverlapMin', label: 'Side min', cell: (r) => formatPercent(r.sideOverlapMin), flex: 0.9 },
   { key: 'aglMinM', label: 'AGL min', cell: (r, u) => formatLength(r.aglMinM, u), flex: 0.9 },
-  { key: 'legs', label: 'Legs', cell: (r) => String(r.legs), flex: 0.6 },
+  { key: 'legs', label: 'Legs', cell: (r) => String(r.legs), flex: 0.7 },
   { key: 'warningCount', label: 'Warnings', cell: (r) => (r.warnings.length ? String(r.warnings.length) : '–'), flex: 1.2 },
 ];
 
@@ -48,8 +48,10 @@ function FlaggedNote({ row }: { row: LineRow }) {
   }
   return (
     <View style={styles.flag}>
-      <MarkerGlyph shape={statusLooks.overlap.shape} color={statusLooks.overlap.color} sizePx={12} />
-      <Text variant="caption">{row.flagged} of {row.photos} photos off target</Text>
+      <MarkerGlyph shape={statusLooks[row.worst].shape} color={statusLooks[row.worst].color} sizePx={12} />
+      <Text variant="caption">
+        {row.flagged} of {row.photos} photos off target (worst: {statusLooks[row.worst].label.toLowerCase()})
+      </Text>
     </View>
   );
 }
@@ -91,8 +93,11 @@ export function LinesTable(p: LinesTableProps) {
             style={(s: WebPressState) => [styles.tr, styles.body, selected && styles.selected, !selected && (s.hovered || s.focused) && styles.hover]}
           >
             {columns.map((c) => (
-              <View key={c.key} role="cell" style={[styles.td, { flex: c.flex }]}>
-                <Text variant={c.key === 'number' ? 'label' : 'caption'}>{c.cell(r, p.units)}</Text>
+              <View key={c.key} role="cell" style={[styles.td, { flex: c.flex }, c.key === 'number' && styles.numberCell]}>
+                {c.key === 'number' ? <MarkerGlyph shape={statusLooks[r.worst].shape} color={statusLooks[r.worst].color} sizePx={13} /> : null}
+                <Text variant={c.key === 'number' ? 'label' : 'caption'} aria-label={c.key === 'number' ? `Line ${r.number}, ${statusLooks[r.worst].label}` : undefined}>
+                  {c.cell(r, p.units)}
+                </Text>
               </View>
             ))}
           </Pressable>
@@ -160,6 +165,7 @@ const styles = StyleSheet.create({
   thText: { fontWeight: '600' },
   body: { borderBottomWidth: layout.borderWidthPx, borderBottomColor: colors.line, minHeight: layout.compactControlPx, backgroundColor: colors.surface },
   td: { paddingHorizontal: space.xs, paddingVertical: space.xs },
+  numberCell: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
   selected: { backgroundColor: colors.infoSoft, borderColor: colors.focus },
   hover: { backgroundColor: colors.surfaceSunken },
   flag: { flexDirection: 'row', alignItems: 'center', gap: space.xs },

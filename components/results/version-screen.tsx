@@ -26,7 +26,7 @@ export function VersionScreen() {
   const status = useVersionStatus(team?.id, planId, versionId);
   const st = status.data;
   const settled = isSettled(st);
-  const version = useVersion(team?.id, planId, versionId, settled);
+  const version = useVersion(team?.id, planId, versionId, st?.analysisState === 'done');
   const queryClient = useQueryClient();
   // Lists that show this version's state (the plan page, the project page) catch up once it settles.
   useEffect(() => {
@@ -51,7 +51,7 @@ export function VersionScreen() {
       <TextLink href={`/projects/${projectId}/plans/${planId}`} label="← Back to the plan" />
       <RequirePermission permission="plan:read" what="Plans">
         <FlightCautions />
-        {status.isPending || (isSettled(st) && version.isPending) ? <Loading label="Loading the run…" /> : null}
+        {status.isPending || (st?.analysisState === 'done' && version.isPending) ? <Loading label="Loading the run…" /> : null}
         {status.isError ? <Banner tone="danger" title="Could not load this run" message={errorMessage(status.error)} /> : null}
         {version.isError ? <Banner tone="danger" title="Could not load the results" message={errorMessage(version.error)} /> : null}
         {st && !isSettled(st) ? (

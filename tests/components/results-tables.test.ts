@@ -60,6 +60,15 @@ describe('lineRows', () => {
     expect(min('aglMinM')).toBe(result.summary.aglMinM);
   });
 
+  it('names as worst status of a line the worst of its stations, and "meets" only when none is flagged', () => {
+    for (const [i, r] of lineRows(result.lines).entries()) {
+      const statuses = result.lines[i].stations.map(stationStatus);
+      expect(statuses).toContain(r.worst);
+      expect(r.worst === 'meets').toBe(r.flagged === 0);
+      for (const st of statuses) expect(stationStatuses.indexOf(st)).toBeGreaterThanOrEqual(stationStatuses.indexOf(r.worst));
+    }
+  });
+
   it('puts each line median between its minimum and maximum and numbers lines from 1 in flying order', () => {
     for (const [i, r] of lineRows(result.lines).entries()) {
       expect(r.number).toBe(i + 1);
@@ -74,7 +83,7 @@ describe('lineRows', () => {
 describe('sortLineRows', () => {
   const row = (number: number, lengthM: number, gsdMinCm: number | null): LineRow => ({
     index: number - 1, number, lengthM, photos: 1, gsdMinCm, gsdMedianCm: null, gsdMaxCm: null, forwardOverlapMin: null,
-    sideOverlapMin: null, aglMinM: null, legs: 1, flagged: 0, warnings: number === 2 ? ['x', 'y'] : [],
+    sideOverlapMin: null, aglMinM: null, legs: 1, flagged: 0, worst: 'meets', warnings: number === 2 ? ['x', 'y'] : [],
   });
   const rows = [row(1, 300, 2.9), row(2, 100, null), row(3, 200, 2.8), row(4, 200, 3.1)];
 

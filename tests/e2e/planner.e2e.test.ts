@@ -215,7 +215,7 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('the planner workflow o
 });
 
 describe.skipIf(skipWeb)('a surveyor', () => {
-  it('reads the project and the results but sees no control to create, upload, edit or run', async () => {
+  it('reads the project and the results with no control to create, upload, edit or run, and a failed run with its reason', async () => {
     expect(resultUrls.length).toBeGreaterThan(0);
     const { context, page, pageErrors } = await openPage(viewports.wide);
     try {
@@ -238,6 +238,16 @@ describe.skipIf(skipWeb)('a surveyor', () => {
       await expect(page.getByTestId('area-close').count()).resolves.toBe(0);
       await expect(page.getByTestId('plan-gsd').isEditable()).resolves.toBe(false);
       await shot(page, viewports.wide, 'wide-07-surveyor-plan.png');
+
+      // A run that failed shows the worker's reason word for word (the status answer is replaced in the browser,
+      // since a real failure cannot be ordered up on demand).
+      const reason = 'The survey area lies over nodata only: no ground heights could be read under it.';
+      await page.route('**/versions/*/status', (route) =>
+        route.fulfill({ json: { id: crypto.randomUUID(), planId: crypto.randomUUID(), number: 9, analysisState: 'failed', analysisProgressPct: 40, analysisError: reason, analysedAt: null } }),
+      );
+      await page.goto(resultUrls[0]!);
+      await expect(page.getByTestId('run-failed').textContent()).resolves.toContain(reason);
+      await expect(page.getByTestId('results-view').count()).resolves.toBe(0);
       expect(pageErrors).toEqual([]);
     } finally {
       await context.close();
