@@ -13,6 +13,7 @@ import { useSite } from '../sites/sites.queries';
 import { RequirePermission } from '../team/require-permission';
 import { useCurrentTeam } from '../team/current-team-context';
 import { Badge, Banner, Card, Loading, Screen, Text, TextLink } from '../ui';
+import { ReviewPanel } from '../reviews/review-panel';
 import { ResultsView } from './results-view';
 
 type MissionSnapshot = { area?: { coordinates: number[][][] }; clearanceM?: number; obstacleAllowanceM?: number };
@@ -78,6 +79,7 @@ export function VersionScreen() {
           />
         ) : null}
         {v?.analysisState === 'done' && !v.result ? <Banner tone="danger" message="This version is marked done but carries no result." /> : null}
+        {st ? <ReviewPanel projectId={projectId} planId={planId} versionId={versionId} analysisDone={st.analysisState === 'done'} /> : null}
       </RequirePermission>
     </Screen>
   );
