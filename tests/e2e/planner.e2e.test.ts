@@ -6,12 +6,12 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import type { Browser, Locator, Page } from 'playwright-core';
 import { PNG } from 'pngjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword, demoUsers } from '../../contracts/demo-team';
 import { seriesLooks } from '../../components/charts/chart-palette';
-import { launchBrowser, screenshotDir, viewports } from '../support/browser';
+import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const shotDir = path.join(screenshotDir, 'planner');
@@ -38,14 +38,6 @@ afterAll(async () => {
   await browser?.close();
   await srv?.stop();
 });
-
-async function openPage(viewport: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page; pageErrors: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const pageErrors: string[] = [];
-  page.on('pageerror', (e) => pageErrors.push(e.message));
-  return { context, page, pageErrors };
-}
 
 async function signIn(page: Page, email: string): Promise<void> {
   await page.goto(`${srv.url}/sign-in`);
@@ -92,7 +84,7 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('the planner workflow o
   const wide = viewport.width >= 1024;
 
   it('creates a project, uploads the demo DEM, draws an area, runs the analysis and sees the chart and the table', async () => {
-    const { context, page, pageErrors } = await openPage(viewport);
+    const { context, page, pageErrors } = await openPage(browser, viewport);
     try {
       await signIn(page, planner.email);
       await page.getByTestId('projects-screen').waitFor();
@@ -217,7 +209,7 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('the planner workflow o
 describe.skipIf(skipWeb)('a surveyor', () => {
   it('reads the project and the results with no control to create, upload, edit or run, and a failed run with its reason', async () => {
     expect(resultUrls.length).toBeGreaterThan(0);
-    const { context, page, pageErrors } = await openPage(viewports.wide);
+    const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signIn(page, surveyor.email);
       await page.getByTestId('projects-screen').waitFor();

@@ -7,13 +7,13 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { and, eq } from 'drizzle-orm';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPassword, demoUsers } from '../../contracts/demo-team';
 import type { Role } from '../../contracts/roles';
 import { plan, planVersion, project, user } from '../../db/schema';
 import { demoProject } from '../../server/seed/demo-project';
-import { launchBrowser, screenshotDir, viewports } from '../support/browser';
+import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
 import { demoClients, demoTeamId } from '../support/demo';
 import { createVersion, eventually, type VersionFixture } from '../support/fixtures';
 import type { ApiClient } from '../support/http-client';
@@ -63,14 +63,6 @@ afterAll(async () => {
   await browser?.close();
   await srv?.stop();
 });
-
-async function openPage(viewport: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page; pageErrors: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const pageErrors: string[] = [];
-  page.on('pageerror', (e) => pageErrors.push(e.message));
-  return { context, page, pageErrors };
-}
 
 async function signIn(page: Page, email: string, password = demoPassword): Promise<void> {
   await page.goto(`${srv.url}/sign-in`);
@@ -123,7 +115,7 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
   });
 
   it('the demo surveyor reads the compliance report and signs the version off', async () => {
-    const { context, page, pageErrors } = await openPage(viewports.wide);
+    const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signIn(page, demo('surveyor').email);
       await page.goto(reportUrl());
@@ -162,7 +154,7 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
   }, 90_000);
 
   it('the demo pilot on a 390x844 phone opens the leg sheet and reads the API\'s first-leg altitude', async () => {
-    const { context, page, pageErrors } = await openPage(viewports.phone);
+    const { context, page, pageErrors } = await openPage(browser, viewports.phone);
     try {
       await signIn(page, demo('pilot').email);
       await page.waitForURL((u) => u.pathname === '/flights');
@@ -214,7 +206,7 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
   }, 90_000);
 
   it('the signed-off report and the review panel also read on a 390x844 phone', async () => {
-    const { context, page, pageErrors } = await openPage(viewports.phone);
+    const { context, page, pageErrors } = await openPage(browser, viewports.phone);
     try {
       await signIn(page, demo('surveyor').email);
       await page.goto(reportUrl());
@@ -229,7 +221,7 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
   }, 90_000);
 
   it('the leg sheet also lays out on a 1440x900 window', async () => {
-    const { context, page, pageErrors } = await openPage(viewports.wide);
+    const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signIn(page, demo('pilot').email);
       await page.goto(`${srv.url}/flights/${version.versionId}`);
@@ -248,7 +240,7 @@ describe.skipIf(skipWeb)('invitations and the development outbox', () => {
   let link = '';
 
   it('the demo owner invites a pilot from the Team screen and sees it pending', async () => {
-    const { context, page, pageErrors } = await openPage(viewports.wide);
+    const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signIn(page, demo('owner').email);
       await page.getByTestId('nav-team').click();
@@ -285,7 +277,7 @@ describe.skipIf(skipWeb)('invitations and the development outbox', () => {
   }, 90_000);
 
   it('the invited person signs up and in from the link at 390 px, sees team and role, and joins as a pilot', async () => {
-    const { context, page, pageErrors } = await openPage(viewports.phone);
+    const { context, page, pageErrors } = await openPage(browser, viewports.phone);
     try {
       const url = new URL(link);
       await page.goto(`${srv.url}${url.pathname}`);

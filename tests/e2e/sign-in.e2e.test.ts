@@ -4,11 +4,11 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../contracts/roles';
 import { demoPassword, demoTeam, demoUsers } from '../../contracts/demo-team';
-import { launchBrowser, screenshotDir, viewports } from '../support/browser';
+import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const navIds = ['nav-projects', 'nav-flights', 'nav-team', 'nav-profile'] as const;
@@ -50,15 +50,6 @@ afterAll(async () => {
   await srv?.stop();
 });
 
-/** A fresh context (no cookies, empty localStorage) that records uncaught page errors. */
-async function openPage(viewport: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page; pageErrors: string[] }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const pageErrors: string[] = [];
-  page.on('pageerror', (e) => pageErrors.push(e.message));
-  return { context, page, pageErrors };
-}
-
 async function visibleNavIds(page: Page): Promise<string[]> {
   const found: string[] = [];
   for (const id of navIds) if (await page.getByTestId(id).isVisible()) found.push(id);
@@ -69,7 +60,7 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('signing in on a %s win
   const wide = viewport.width >= 1024;
 
   it('shows the sign-in form first to a visitor without a session', async () => {
-    const { context, page, pageErrors } = await openPage(viewport);
+    const { context, page, pageErrors } = await openPage(browser, viewport);
     try {
       await page.goto(`${srv.url}/projects`);
       await page.getByTestId('sign-in-email').waitFor();
@@ -84,7 +75,7 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('signing in on a %s win
   });
 
   it('refuses a wrong password with the server message and stays signed out', async () => {
-    const { context, page } = await openPage(viewport);
+    const { context, page } = await openPage(browser, viewport);
     try {
       await page.goto(`${srv.url}/sign-in`);
       await page.getByTestId('sign-in-email').fill(demoUsers[0]!.email);
@@ -105,7 +96,7 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('signing in on a %s win
     const absent = navIds.filter((id) => !want.nav.includes(id));
 
     it(`lets the demo ${user.role} in, landing on ${want.home} with only ${want.nav.join(', ')}`, async () => {
-      const { context, page, pageErrors } = await openPage(viewport);
+      const { context, page, pageErrors } = await openPage(browser, viewport);
       try {
         await page.goto(`${srv.url}/sign-in`);
         await page.getByTestId('sign-in-email').fill(user.email);

@@ -1,6 +1,6 @@
 /** Debian's Chromium through playwright-core, headless, with a fresh profile (never a downloaded browser). */
 import path from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 
 export const screenshotDir = path.resolve('.artifacts', 'screenshots');
 
@@ -26,3 +26,15 @@ export const viewports = {
   phone: { width: 390, height: 844 },
   wide: { width: 1440, height: 900 },
 } as const;
+
+/** A fresh context (no cookies, empty localStorage) on `browser` that records uncaught page errors. */
+export async function openPage(
+  browser: Browser,
+  viewport: { width: number; height: number },
+): Promise<{ context: BrowserContext; page: Page; pageErrors: string[] }> {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const pageErrors: string[] = [];
+  page.on('pageerror', (e) => pageErrors.push(e.message));
+  return { context, page, pageErrors };
+}
