@@ -73,6 +73,17 @@ export function createReviewsRepository({ db }: { db: Db }) {
       });
     },
 
+    /** Who last sent the version for review, if anyone. */
+    async lastSubmitterOf(versionId: string): Promise<string | null> {
+      const [row] = await db
+        .select({ actorId: auditEvent.actorId })
+        .from(auditEvent)
+        .where(and(eq(auditEvent.planVersionId, versionId), eq(auditEvent.toState, 'in_review')))
+        .orderBy(desc(auditEvent.createdAt))
+        .limit(1);
+      return row?.actorId ?? null;
+    },
+
     /** Every audit entry of a plan, oldest first, with the actor's name and the version number. */
     async auditOf(teamId: string, planId: string) {
       return db

@@ -47,8 +47,10 @@ export function refusalMessage(action: ReviewAction, refusal: Exclude<Transition
 export function createReviewsUsecases(deps: { versions: VersionsRepository; reviews: ReviewsRepository; notify: ReviewNotifier }) {
   const { versions, reviews, notify } = deps;
 
-  function statusOf(v: VersionRecord, role: Role): VersionReview {
+  async function statusOf(v: VersionRecord, role: Role, actorId: string): Promise<VersionReview> {
     const state = reviewStateSchema.parse(v.reviewState);
+    // Offer sign-off only to someone who neither ran the version nor sent it (the transition checks it again).
+    const involved = v.createdById === actorId || (state === 'in_review' && (await reviews.lastSubmitterOf(v.id)) === actorId);
     return {
       versionId: v.id,
       planId: v.planId,
@@ -57,7 +59,7 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
       locked: isLocked(state),
       signedOffBy: v.signedOffById ? { id: v.signedOffById, name: v.signedOffByName ?? '(former member)' } : null,
       signedOffAt: v.signedOffAt ? v.signedOffAt.toISOString() : null,
-      allowedActions: actionsFrom(state, role),
+      allowedActions: actionsFrom(state, role).filter((a) => !(a === 'sign-off' && involved)),
     };
   }
 
@@ -69,8 +71,8 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
 
   return {
     /** The review status of a version as the caller's role sees it. */
-    async status(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionReview> {
-      return statusOf(await load(q), q.role);
+    async status(q: { teamId: string; planId: string; versionId: string; role: Role; actor: SessionUser }): Promise<VersionReview> {
+      return statusOf(await load(q), q.role, q.actor.id);
     },
 
     /** Apply a review action; refused transitions are 409 with the reason. The e-mail is queued after the commit. */
@@ -84,7 +86,7 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
       }
       const after = await load(q);
       const notification = await notify({ action: q.action, version: after, actor: q.actor, comment: q.comment });
-      return { ...statusOf(after, q.role), notification };
+      return { ...(await statusOf(after, q.role, q.actor.id)), notification };
     },
 
     /** The plan's audit trail. */

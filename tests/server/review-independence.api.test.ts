@@ -33,6 +33,15 @@ describe('sign-off needs a second person', () => {
     expect((await team.clients.owner.post(`${v.path}/return`, { comment: 'Line 3 crosses the spoil heap too low.' })).status).toBe(200);
   });
 
+  it('offers sign-off only to someone who neither ran nor sent the version', async () => {
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'draft' });
+    expect((await team.clients.owner.post(`${v.path}/submit`, {})).status).toBe(200);
+    const ownerView = await team.clients.owner.get(`${v.path}/review`);
+    expect(ownerView.body.allowedActions).toEqual(['return']);
+    const surveyorView = await team.clients.surveyor.get(`${v.path}/review`);
+    expect(surveyorView.body.allowedActions.sort()).toEqual(['return', 'sign-off']);
+  });
+
   it('lets an owner sign off what a planner ran and sent', async () => {
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'draft' });
     expect((await team.clients.planner.post(`${v.path}/submit`, {})).status).toBe(200);
