@@ -136,7 +136,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       lengthM: lineLengthM(line),
       headingDeg: lineHeadingDeg(line),
       legCount: line.legs.length,
-      warnings: [...(line.warnings ?? []).map(noteText), ...(line.unmet ?? []).map((u) => u.message)],
+      warnings: [...(line.warnings ?? []).map(noteText), ...summariseUnmet(line.unmet ?? [])],
       gsdSeries: line.stations.map((s) => ({ distanceM: s.distanceM, gsdCm: s.gsdCm })),
     })),
     dem: {
@@ -181,4 +181,22 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
     percentileMethod,
     generatedAt: now.toISOString(),
   };
+}
+
+/**
+ * One sentence per reason for a line's unmet stretches (a busy line over a quarry face has dozens): how many,
+ * how long in all, and the explanation of the longest of them.
+ */
+export function summariseUnmet(unmet: ReadonlyArray<{ startM: number; endM: number; message: string; reason?: unknown }>): string[] {
+  const groups = new Map<string, Array<{ startM: number; endM: number; message: string }>>();
+  for (const u of unmet) {
+    const key = typeof u.reason === 'string' ? u.reason : u.message;
+    groups.set(key, [...(groups.get(key) ?? []), u]);
+  }
+  return [...groups.values()].map((g) => {
+    if (g.length === 1) return g[0].message;
+    const total = g.reduce((t, u) => t + (u.endM - u.startM), 0);
+    const longest = g.reduce((a, b) => (b.endM - b.startM > a.endM - a.startM ? b : a));
+    return `${g.length} stretches, ${Math.round(total)} m in all: ${longest.message}`;
+  });
 }

@@ -1,0 +1,17 @@
+import { describe, expect, it } from 'vitest';
+import { summariseUnmet } from '../../server/reports/report.build';
+
+describe('summariseUnmet', () => {
+  it('gives one sentence per reason with the count, total length and the longest stretch', () => {
+    const out = summariseUnmet([
+      { startM: 0, endM: 10, reason: 'climb-limit', message: 'climb A (up to 5 m)' },
+      { startM: 50, endM: 80, reason: 'climb-limit', message: 'climb B (up to 9 m)' },
+      { startM: 100, endM: 104, reason: 'above-max-agl', message: 'over the cap' },
+    ]);
+    expect(out).toEqual(['2 stretches, 40 m in all: climb B (up to 9 m)', 'over the cap']);
+  });
+
+  it('says nothing when every stretch was held', () => {
+    expect(summariseUnmet([])).toEqual([]);
+  });
+});
