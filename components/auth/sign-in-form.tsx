@@ -2,12 +2,12 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
-import { Controller, useForm } from 'react-hook-form';
+import { useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { signInSchema, type SignIn } from '../../contracts/auth';
 import { meKeys } from '../api/me.queries';
 import { space } from '../theme';
-import { Banner, Button, TextField } from '../ui';
+import { Banner, Button, FormTextField } from '../ui';
 import { authClient, authFailureFrom } from './auth-client';
 
 /** Values put into the form from outside (the demo accounts list); a new object each time. */
@@ -42,43 +42,25 @@ export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
   return (
     <View style={styles.form}>
       {failure ? <Banner tone="danger" message={failure} testID="sign-in-failure" /> : null}
-      <Controller
+      <FormTextField
         control={control}
         name="email"
-        render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
-            label="E-mail"
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            autoCapitalize="none"
-            autoCorrect={false}
-            autoComplete="email"
-            inputMode="email"
-            testID="sign-in-email"
-            onSubmitEditing={() => void submit()}
-          />
-        )}
+        label="E-mail"
+        autoCapitalize="none"
+        autoCorrect={false}
+        autoComplete="email"
+        inputMode="email"
+        testID="sign-in-email"
+        onSubmitEditing={() => void submit()}
       />
-      <Controller
+      <FormTextField
         control={control}
         name="password"
-        render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
-            label="Password"
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            secureTextEntry
-            autoComplete="current-password"
-            testID="sign-in-password"
-            onSubmitEditing={() => void submit()}
-          />
-        )}
+        label="Password"
+        secureTextEntry
+        autoComplete="current-password"
+        testID="sign-in-password"
+        onSubmitEditing={() => void submit()}
       />
       <Button label="Sign in" onPress={() => void submit()} busy={formState.isSubmitting} testID="sign-in-submit" />
     </View>

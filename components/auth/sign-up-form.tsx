@@ -1,11 +1,11 @@
 /** The sign-up form: name, e-mail and a new password, with the password rules shown before the user types. */
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { Controller, useForm } from 'react-hook-form';
+import { useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { passwordRules, signUpSchema, type SignUp } from '../../contracts/auth';
 import { space } from '../theme';
-import { Banner, Button, TextField } from '../ui';
+import { Banner, Button, FormTextField } from '../ui';
 import { authClient, authFailureFrom } from './auth-client';
 
 /**
@@ -33,59 +33,32 @@ export function SignUpForm({ onDone }: { onDone: () => void }) {
   return (
     <View style={styles.form}>
       {failure ? <Banner tone="danger" message={failure} testID="sign-up-failure" /> : null}
-      <Controller
+      <FormTextField
         control={control}
         name="name"
-        render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
-            label="Name"
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            autoComplete="name"
-            testID="sign-up-name"
-          />
-        )}
+        label="Name"
+        autoComplete="name"
+        testID="sign-up-name"
       />
-      <Controller
+      <FormTextField
         control={control}
         name="email"
-        render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
-            label="E-mail"
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            autoCapitalize="none"
-            autoCorrect={false}
-            autoComplete="email"
-            inputMode="email"
-            testID="sign-up-email"
-          />
-        )}
+        label="E-mail"
+        autoCapitalize="none"
+        autoCorrect={false}
+        autoComplete="email"
+        inputMode="email"
+        testID="sign-up-email"
       />
-      <Controller
+      <FormTextField
         control={control}
         name="password"
-        render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
-            label="Password"
-            hint={`${passwordRules.minLength} to ${passwordRules.maxLength} characters. A few unrelated words make a good one.`}
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            secureTextEntry
-            autoComplete="new-password"
-            testID="sign-up-password"
-            onSubmitEditing={() => void submit()}
-          />
-        )}
+        label="Password"
+        hint={`${passwordRules.minLength} to ${passwordRules.maxLength} characters. A few unrelated words make a good one.`}
+        secureTextEntry
+        autoComplete="new-password"
+        testID="sign-up-password"
+        onSubmitEditing={() => void submit()}
       />
       <Button label="Create account" onPress={() => void submit()} busy={formState.isSubmitting} testID="sign-up-submit" />
     </View>

@@ -7,7 +7,7 @@ import { createInvitationSchema, type CreateInvitation } from '../../contracts/i
 import { roleLabels, roles, roleSummaries } from '../../contracts/roles';
 import { ApiError, errorMessage } from '../api/api-error';
 import { space } from '../theme';
-import { Banner, Button, ChoiceGroup, Text, TextField } from '../ui';
+import { Banner, Button, ChoiceGroup, Text, FormTextField } from '../ui';
 import { useCreateInvitation } from './invitations.queries';
 
 const roleChoices = roles.map((r) => ({ value: r, label: roleLabels[r] }));
@@ -54,26 +54,17 @@ export function InviteForm({ teamId }: { teamId: string }) {
           ) : null}
         </Banner>
       ) : null}
-      <Controller
+      <FormTextField
         control={control}
         name="email"
-        render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
-            label="E-mail address"
-            hint="They sign up or sign in with exactly this address to join."
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            autoCapitalize="none"
-            autoCorrect={false}
-            autoComplete="email"
-            inputMode="email"
-            testID="invite-email"
-            onSubmitEditing={() => void submit()}
-          />
-        )}
+        label="E-mail address"
+        hint="They sign up or sign in with exactly this address to join."
+        autoCapitalize="none"
+        autoCorrect={false}
+        autoComplete="email"
+        inputMode="email"
+        testID="invite-email"
+        onSubmitEditing={() => void submit()}
       />
       <Controller
         control={control}

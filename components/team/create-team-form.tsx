@@ -1,12 +1,12 @@
 /** Form to create a team; the creator becomes its owner. */
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Controller, useForm } from 'react-hook-form';
+import { useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { createTeamSchema, type CreateTeam, type TeamSummary } from '../../contracts/teams';
 import { ApiError, errorMessage } from '../api/api-error';
 import { useCreateTeam } from '../api/teams.queries';
 import { layout, space } from '../theme';
-import { Banner, Button, TextField } from '../ui';
+import { Banner, Button, FormTextField } from '../ui';
 
 /** Field problems from the server (422) land on the field; any other refusal shows above the form. */
 export function CreateTeamForm({ onCreated }: { onCreated: (team: TeamSummary) => void }) {
@@ -31,22 +31,13 @@ export function CreateTeamForm({ onCreated }: { onCreated: (team: TeamSummary) =
   return (
     <View style={styles.form}>
       {formState.errors.root?.message ? <Banner tone="danger" message={formState.errors.root.message} testID="create-team-failure" /> : null}
-      <Controller
+      <FormTextField
         control={control}
         name="name"
-        render={({ field, fieldState }) => (
-          <TextField
-            ref={field.ref}
-            label="Team name"
-            hint="Usually the company or crew name. You become the team's owner."
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            testID="create-team-name"
-            onSubmitEditing={() => void submit()}
-          />
-        )}
+        label="Team name"
+        hint="Usually the company or crew name. You become the team's owner."
+        testID="create-team-name"
+        onSubmitEditing={() => void submit()}
       />
       <Button label="Create team" onPress={() => void submit()} busy={formState.isSubmitting} testID="create-team-submit" style={styles.submit} />
     </View>

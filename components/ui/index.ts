@@ -11,3 +11,4 @@ export { TextField } from './text-field';
 export { TextLink } from './text-link';
 export { LinkPressable, type WebPressState } from './link-pressable';
 export { Heading, Text, type TextTone } from './text';
+export { FormTextField } from './form-text-field';
