@@ -174,14 +174,7 @@ export function liveUsers(): number[] {
   for (const name of fs.readdirSync(usersDir)) {
     const pid = Number(name);
     if (pid === process.pid) continue;
-    let alive = false;
-    try {
-      process.kill(pid, 0);
-      alive = true;
-    } catch {
-      alive = false;
-    }
-    if (alive) out.push(pid);
+    if (isAlive(pid)) out.push(pid);
     else fs.rmSync(path.join(usersDir, name), { force: true });
   }
   return out;
@@ -196,14 +189,7 @@ export async function createRunDatabase(cluster: Cluster, prefix: string): Promi
     const rows = await admin.query<{ datname: string }>('select datname from pg_database where datname like $1', [`${prefix}_%`]);
     for (const { datname } of rows.rows) {
       const pid = Number(datname.slice(prefix.length + 1));
-      let alive = false;
-      try {
-        process.kill(pid, 0);
-        alive = pid !== process.pid;
-      } catch {
-        alive = false;
-      }
-      if (!alive) await admin.query(`drop database if exists "${datname}" with (force)`);
+      if (pid === process.pid || !isAlive(pid)) await admin.query(`drop database if exists "${datname}" with (force)`);
     }
     await admin.query(`create database "${name}"`);
   } finally {
@@ -217,4 +203,14 @@ export async function createRunDatabase(cluster: Cluster, prefix: string): Promi
       await c.query(`drop database if exists "${name}" with (force)`).finally(() => c.end());
     },
   };
+}
+
+/** Whether a process with this pid is running. */
+function isAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
 }

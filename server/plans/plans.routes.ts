@@ -10,7 +10,7 @@ import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { jobsOf } from '../jobs/jobs.service';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
-import { idParam } from '../projects/route-params';
+import { idParam } from '../http/ids';
 import type { RouteGroup } from '../routes';
 import { createSitesRepository } from '../sites/sites.repository';
 import { createPlansRepository, type PlansRepository } from './plans.repository';

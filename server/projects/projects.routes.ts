@@ -6,7 +6,7 @@ import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import type { RouteGroup } from '../routes';
 import { createProjectsRepository, type ProjectsRepository } from './projects.repository';
-import { idParam } from './route-params';
+import { idParam } from '../http/ids';
 
 export function registerProjectRoutes(api: Router, deps: { guards: Guards; projects: ProjectsRepository }) {
   const { guards, projects } = deps;

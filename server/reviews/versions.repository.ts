@@ -4,6 +4,7 @@ import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { plan, planVersion, project, site, user } from '../../db/schema';
+import { isUuid } from '../http/ids';
 
 const creator = alias(user, 'creator');
 const signer = alias(user, 'signer');
@@ -98,10 +99,3 @@ export function createVersionsRepository({ db }: { db: Db }) {
 }
 
 export type VersionsRepository = ReturnType<typeof createVersionsRepository>;
-
-const uuidPattern = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
-/** Ids in URLs are uuids; anything else cannot name a row (and must not reach a uuid column as a cast error). */
-export function isUuid(s: string): boolean {
-  return uuidPattern.test(s);
-}

@@ -7,7 +7,7 @@ import { AppError, errors } from '../http/errors';
 import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
-import { idParam } from '../projects/route-params';
+import { idParam } from '../http/ids';
 import type { RouteGroup } from '../routes';
 import { storageOf } from '../storage/storage.service';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
