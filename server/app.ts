@@ -2,7 +2,9 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { toNodeHandler } from 'better-auth/node';
+import compression from 'compression';
 import express, { type RequestHandler } from 'express';
+import type { ServerResponse } from 'node:http';
 import type { Db } from '../db/client';
 import type { Auth } from './auth/auth';
 import type { Config } from './config';
@@ -38,14 +40,31 @@ const clientAddress: RequestHandler = (req, _res, next) => {
   next();
 };
 
+/**
+ * Files whose names carry a content hash (the bundler's scripts, hashed assets) never change under that name:
+ * cache them for a year as immutable. Everything else is revalidated (ETag) so a new build is picked up at once.
+ */
+export function staticCacheHeaders(res: ServerResponse, filePath: string): void {
+  const hashed = /[.-][0-9a-f]{16,}(?:@\dx)?\.[a-z0-9]+$/i.test(path.basename(filePath)) || filePath.includes(`${path.sep}_expo${path.sep}static${path.sep}`);
+  res.setHeader('Cache-Control', hashed ? 'public, max-age=31536000, immutable' : 'no-cache');
+}
+
 export function createApp(deps: AppDeps) {
   const { db, auth, config } = deps;
   const app = express();
   app.disable('x-powered-by');
+  // Text answers (API JSON, the app's scripts and styles) go compressed; bodies the body cache already gzipped are
+  // left alone (compression skips a response that has a Content-Encoding).
+  app.use(compression({ threshold: 1024 }));
+  const guards = createGuards({ auth, db });
   app.use('/api/auth', clientAddress);
+  // A signed-out session must not live on in the guards' short session cache.
+  app.post('/api/auth/sign-out', (req, _res, next) => {
+    guards.sessions.forget(req.headers.cookie ?? '');
+    next();
+  });
   app.all('/api/auth/{*any}', toNodeHandler(auth)); // before express.json(): better-auth reads the raw body
 
-  const guards = createGuards({ auth, db });
   const api = express.Router();
   api.use(requireJsonBody);
   api.use(express.json({ limit: config.jsonLimit }));
@@ -58,9 +77,9 @@ export function createApp(deps: AppDeps) {
 
   if (config.webDist && fs.existsSync(path.join(config.webDist, 'index.html'))) {
     const dist = config.webDist;
-    app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    app.use(express.static(dist, { index: false, setHeaders: staticCacheHeaders }));
     // Single-page app: any other GET gets the shell and the router picks the screen.
-    app.get('/{*any}', (_req, res) => res.sendFile(path.join(dist, 'index.html'), { maxAge: 0 }));
+    app.get('/{*any}', (_req, res) => res.sendFile(path.join(dist, 'index.html'), { cacheControl: false, headers: { 'Cache-Control': 'no-cache' } }));
   }
   app.use(errorMiddleware(deps.log));
   return { app, api, guards };

@@ -4,6 +4,7 @@ import { flightListSchema, legSheetSchema } from '../../contracts/flights';
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
+import { bodyCacheOf } from '../http/body-cache';
 import { requireAnalysed } from '../reports/result-view';
 import type { RouteGroup } from '../routes';
 import { createVersionsRepository } from '../reviews/versions.repository';
@@ -14,6 +15,7 @@ import { buildLegSheet } from './leg-sheet.build';
 export const registerFlightRoutes: RouteGroup = (api: Router, { guards, services }) => {
   const flights = createFlightsRepository({ db: services.db });
   const versions = createVersionsRepository({ db: services.db });
+  const bodyCache = bodyCacheOf(services);
 
   api.get('/teams/:teamId/flights', guards.permission('flight:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
@@ -25,11 +27,15 @@ export const registerFlightRoutes: RouteGroup = (api: Router, { guards, services
 
   api.get('/teams/:teamId/flights/:versionId/leg-sheet', guards.permission('flight:read'), async (req, res) => {
     const { teamId, role } = requireTeam(req);
-    const v = await versions.find({ teamId, versionId: String(req.params.versionId), role });
-    if (!v) throw errors.notFound('Flight');
-    requireAnalysed(v);
-    // Sheets change only with the version; a short private cache lets a phone keep it when the network drops.
-    res.setHeader('Cache-Control', 'private, max-age=300');
-    sendJson(res, legSheetSchema, buildLegSheet(v));
+    const q = { teamId, versionId: String(req.params.versionId), role };
+    const stamp = await versions.stamp(q);
+    if (!stamp) throw errors.notFound('Flight');
+    // Sheets change only with the version (the stamp); a short private cache lets a phone keep it when the network drops.
+    await bodyCache.send(req, res, `leg-sheet:${stamp}`, async () => {
+      const v = await versions.find(q);
+      if (!v) throw errors.notFound('Flight');
+      requireAnalysed(v);
+      return legSheetSchema.parse(buildLegSheet(v));
+    }, 'private, max-age=300');
   });
 };

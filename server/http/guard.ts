@@ -7,6 +7,7 @@ import type { Db } from '../../db/client';
 import { member } from '../../db/schema';
 import type { Auth } from '../auth/auth';
 import { errors } from './errors';
+import { createSessionCache, type SessionCache } from './session-cache';
 
 /** What a guard demands: only a session, or a permission within the team named by `:teamId`. */
 export type GuardMeta = { kind: 'public' } | { kind: 'session' } | { kind: 'permission'; permission: Permission };
@@ -57,16 +58,26 @@ export function requireTeam(req: Request): RequestAuth & { teamId: string; role:
 }
 
 /** Factory for the guards of one server. */
-export function createGuards(deps: { auth: Auth; db: Db }) {
+export function createGuards(deps: { auth: Auth; db: Db; sessions?: SessionCache }) {
   const { auth, db } = deps;
 
+  const sessions = deps.sessions ?? createSessionCache();
+
   async function loadSession(req: Request): Promise<RequestAuth> {
+    const cookie = req.headers.cookie;
+    const cached = sessions.get(cookie);
+    if (cached) return cached;
     const s = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
     if (!s) throw errors.unauthenticated();
-    return { user: { id: s.user.id, name: s.user.name, email: s.user.email }, sessionId: s.session.id };
+    const found = { user: { id: s.user.id, name: s.user.name, email: s.user.email }, sessionId: s.session.id };
+    sessions.set(cookie, found, new Date(s.session.expiresAt).getTime());
+    return found;
   }
 
   return {
+    /** The per-process session cache (sign-out empties it for the signed-out cookie). */
+    sessions,
+
     /** Open to anyone (health check). */
     public: (): RequestHandler => tag((_req, _res, next) => next(), { kind: 'public' }),
 

@@ -154,6 +154,17 @@ export function createPlansRepository({ db }: { db: Db }) {
       return rows.map(toSummary);
     },
 
+    /** One version's summary (no input, no result): a light read that says whether the full version changed. */
+    async versionSummary(teamId: string, planId: string, versionId: string): Promise<VersionSummary | null> {
+      const [r] = await db
+        .select(summaryCols)
+        .from(planVersion)
+        .leftJoin(user, eq(user.id, planVersion.createdBy))
+        .where(and(eq(planVersion.teamId, teamId), eq(planVersion.planId, planId), eq(planVersion.id, versionId)))
+        .limit(1);
+      return r ? toSummary(r) : null;
+    },
+
     async version(teamId: string, planId: string, versionId: string): Promise<PlanVersion | null> {
       const [r] = await db
         .select({ ...summaryCols, input: planVersion.input, result: planVersion.result })

@@ -11,13 +11,14 @@ import { parseInput, sendJson } from '../http/validate';
 import { jobsOf } from '../jobs/jobs.service';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
 import { idParam } from '../http/ids';
+import { bodyCacheOf, type BodyCache } from '../http/body-cache';
 import type { RouteGroup } from '../routes';
 import { createSitesRepository } from '../sites/sites.repository';
 import { createPlansRepository, type PlansRepository } from './plans.repository';
 import { createPlansUsecases, type PlansUsecases } from './plans.usecases';
 
-export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: PlansRepository; projects: ProjectsRepository; usecases: PlansUsecases }) {
-  const { guards, plans, projects, usecases } = deps;
+export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: PlansRepository; projects: ProjectsRepository; usecases: PlansUsecases; bodyCache: BodyCache }) {
+  const { guards, plans, projects, usecases, bodyCache } = deps;
   const projectPlans = '/teams/:teamId/projects/:projectId/plans';
   const onePlan = '/teams/:teamId/plans/:planId';
   const oneVersion = `${onePlan}/versions/:versionId`;
@@ -68,9 +69,26 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
   });
 
   api.get(oneVersion, guards.permission('plan:read'), async (req, res) => {
-    const v = await plans.version(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'), idParam(req, 'versionId', 'Version'));
-    if (!v) throw errors.notFound('Version');
-    sendJson(res, planVersionSchema, v);
+    const { teamId } = requireTeam(req);
+    const planId = idParam(req, 'planId', 'Plan');
+    const versionId = idParam(req, 'versionId', 'Version');
+    const summary = await plans.versionSummary(teamId, planId, versionId);
+    if (!summary) throw errors.notFound('Version');
+    const load = async () => {
+      const v = await plans.version(teamId, planId, versionId);
+      if (!v) throw errors.notFound('Version');
+      return v;
+    };
+    if (summary.analysisState !== 'done' && summary.analysisState !== 'failed') {
+      sendJson(res, planVersionSchema, await load());
+      return;
+    }
+    // A settled version's input and result never change (the result was checked against its schema when the
+    // analysis stored it); only its summary does (review state), and the summary is part of the key.
+    await bodyCache.send(req, res, `version:${versionId}:${JSON.stringify(summary)}`, async () => {
+      const { result, ...rest } = await load();
+      return { ...planVersionSchema.omit({ result: true }).parse(rest), result };
+    });
   });
 
   api.get(`${oneVersion}/status`, guards.permission('plan:read'), async (req, res) => {
@@ -90,5 +108,5 @@ export const planRouteGroup: RouteGroup = (api, { guards, services }) => {
   const jobs = {
     queueAnalysis: (...args: Parameters<ReturnType<typeof jobsOf>['queueAnalysis']>) => jobsOf(services).queueAnalysis(...args),
   } as ReturnType<typeof jobsOf>;
-  registerPlanRoutes(api, { guards, plans, projects, usecases: createPlansUsecases({ db, plans, projects, sites: createSitesRepository({ db }), jobs }) });
+  registerPlanRoutes(api, { guards, plans, projects, bodyCache: bodyCacheOf(services), usecases: createPlansUsecases({ db, plans, projects, sites: createSitesRepository({ db }), jobs }) });
 };

@@ -64,17 +64,44 @@ export function createVersionsRepository({ db }: { db: Db }) {
       .where(where);
   }
 
+  function conditions(q: { teamId: string; versionId: string; planId?: string; role: Role }): SQL | null {
+    if (!isUuid(q.versionId) || (q.planId !== undefined && !isUuid(q.planId))) return null;
+    const conds: SQL[] = [eq(planVersion.teamId, q.teamId), eq(planVersion.id, q.versionId)];
+    if (q.planId !== undefined) conds.push(eq(planVersion.planId, q.planId));
+    if (seesSignedOffOnly(q.role)) conds.push(eq(planVersion.reviewState, 'signed_off'));
+    return and(...conds)!;
+  }
+
   return {
+    /**
+     * What a version's derived documents (leg sheet, report) depend on besides its immutable input and result, as
+     * one string, or null when the caller may not see the version: a light read that keys cached documents.
+     */
+    async stamp(q: { teamId: string; versionId: string; planId?: string; role: Role }): Promise<string | null> {
+      const where = conditions(q);
+      if (!where) return null;
+      const { input: _i, result: _r, siteMetadata: _m, ...light } = selection();
+      const rows = await db
+        .select(light)
+        .from(planVersion)
+        .innerJoin(plan, eq(plan.id, planVersion.planId))
+        .innerJoin(project, eq(project.id, plan.projectId))
+        .innerJoin(site, eq(site.id, planVersion.siteId))
+        .leftJoin(creator, eq(creator.id, planVersion.createdBy))
+        .leftJoin(signer, eq(signer.id, planVersion.signedOffBy))
+        .where(where)
+        .limit(1);
+      return rows[0] ? JSON.stringify(rows[0]) : null;
+    },
+
     /**
      * One version of the team, or null. `planId` narrows it to one plan (URLs that name both must agree);
      * for a pilot, anything but a signed-off version is as good as absent.
      */
     async find(q: { teamId: string; versionId: string; planId?: string; role: Role }) {
-      if (!isUuid(q.versionId) || (q.planId !== undefined && !isUuid(q.planId))) return null;
-      const conds: SQL[] = [eq(planVersion.teamId, q.teamId), eq(planVersion.id, q.versionId)];
-      if (q.planId !== undefined) conds.push(eq(planVersion.planId, q.planId));
-      if (seesSignedOffOnly(q.role)) conds.push(eq(planVersion.reviewState, 'signed_off'));
-      const rows = await base(and(...conds)).limit(1);
+      const where = conditions(q);
+      if (!where) return null;
+      const rows = await base(where).limit(1);
       return rows[0] ?? null;
     },
 

@@ -1,0 +1,196 @@
+/**
+ * `npm run bench:api`: the read mix that every role makes (projects list, a plan version with its result, the
+ * pilot's leg sheet) under load from autocannon, against a real server in its own process on a fresh bench
+ * database, alone and while analyses run beside it. Prints p50/p95/p99, throughput, errors and the server's
+ * resident memory, and `ratio`-style lines against the targets. Not part of `npm test`.
+ *
+ * Knobs: BENCH_SECONDS (default 30), BENCH_RATE (requests/s overall, default 200), BENCH_CONNECTIONS (200).
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import fs from 'node:fs';
+import http from 'node:http';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import autocannon from 'autocannon';
+import { createDb } from '../db/client';
+import { migrateDb } from '../db/migrate';
+import { demoPassword, demoUsers } from '../contracts/demo-team';
+import { createAuth } from '../server/auth/auth';
+import { buildConfig, parseEnv } from '../server/config';
+import { demoProjectStep } from '../server/seed/demo-project';
+import { seedDemo } from '../server/seed/seed';
+import { createStorageFromConfig } from '../server/storage/storage.service';
+import { projectRoot } from '../scripts/lib/paths';
+import { createRunDatabase, startCluster } from '../scripts/lib/postgres';
+
+const seconds = Number(process.env.BENCH_SECONDS ?? 30);
+const rate = Number(process.env.BENCH_RATE ?? 200);
+const connections = Number(process.env.BENCH_CONNECTIONS ?? 200);
+const pgPort = Number(process.env.LOFTLINE_PG_PORT ?? 54329);
+
+const cluster = await startCluster({ port: pgPort, databases: [], fast: true });
+const runDb = await createRunDatabase(cluster, 'loftline_bench');
+const databaseUrl = cluster.url(runDb.name);
+const storageDir = fs.mkdtempSync(path.join(os.tmpdir(), 'loftline-bench-'));
+{
+  const db = createDb(databaseUrl);
+  await migrateDb(db);
+  const config = buildConfig(parseEnv({ ...process.env, STORAGE_DIR: storageDir }), { databaseUrl, authSecret: 'bench-secret-0123456789-abcdefghijklmnopqrstuvwxyz', webDist: null });
+  await seedDemo({ db, auth: createAuth({ db, config }), steps: [demoProjectStep({ storage: createStorageFromConfig(config) })] });
+  await db.$client.end();
+}
+
+let child: ChildProcess | null = null;
+async function cleanUp() {
+  if (child && child.exitCode === null) {
+    child.kill('SIGTERM');
+    await new Promise((r) => child!.once('exit', r));
+  }
+  await runDb.drop().catch(() => undefined);
+  fs.rmSync(storageDir, { recursive: true, force: true });
+  cluster.stop();
+}
+
+const port = await new Promise<number>((resolve) => {
+  const s = net.createServer().listen(0, '127.0.0.1', () => {
+    const p = (s.address() as net.AddressInfo).port;
+    s.close(() => resolve(p));
+  });
+});
+
+try {
+  child = spawn(process.execPath, [...(process.env.BENCH_PROFILE ? ['--cpu-prof', '--cpu-prof-dir', process.env.BENCH_PROFILE] : []), '--import', 'tsx', path.join(projectRoot, 'bench/api-server.ts')], {
+    cwd: projectRoot,
+    env: { ...process.env, DATABASE_URL: databaseUrl, STORAGE_DIR: storageDir, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}`, WORKERS: '1', AUTH_SIGNIN_PER_MINUTE: '1000', NODE_ENV: 'production' },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  const url = await new Promise<string>((resolve, reject) => {
+    let buf = '';
+    child!.stdout!.on('data', (d: Buffer) => {
+      buf += d.toString();
+      const m = /LISTENING (\S+)/.exec(buf);
+      if (m) resolve(m[1]);
+    });
+    child!.once('exit', (code) => reject(new Error(`bench server exited (${code}) before listening`)));
+  });
+  const pid = child.pid!;
+  const rssMiB = () => Number(/VmRSS:\s+(\d+)/.exec(fs.readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? 0) / 1024;
+
+  async function signIn(email: string): Promise<string> {
+    const res = await fetch(`${url}/api/auth/sign-in/email`, {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json', Origin: url },
+      body: JSON.stringify({ email, password: demoPassword }),
+    });
+    if (!res.ok) throw new Error(`sign-in of ${email}: ${res.status}`);
+    return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  }
+  const byRole = (role: string) => demoUsers.find((u) => u.role === role)!.email;
+  const cookies = { planner: await signIn(byRole('planner')), surveyor: await signIn(byRole('surveyor')), pilot: await signIn(byRole('pilot')) };
+  const get = async (cookie: string, p: string) => {
+    const r = await fetch(url + p, { headers: { Cookie: cookie, Origin: url } });
+    if (!r.ok) throw new Error(`GET ${p}: ${r.status}`);
+    return r.json();
+  };
+  const post = async (cookie: string, p: string, body: unknown = {}) => {
+    const r = await fetch(url + p, { method: 'POST', headers: { Cookie: cookie, Origin: url, 'Content-Type': 'application/json' }, body: JSON.stringify(body) });
+    if (!r.ok) throw new Error(`POST ${p}: ${r.status} ${await r.text()}`);
+    return r.json();
+  };
+
+  const me = await get(cookies.planner, '/api/me');
+  const teamId: string = me.teams[0].id;
+  const projects = await get(cookies.planner, `/api/teams/${teamId}/projects`);
+  const projectId: string = projects.projects[0].id;
+  const plans = await get(cookies.planner, `/api/teams/${teamId}/projects/${projectId}/plans`);
+  const planId: string = plans.plans[0].id;
+  const versions = await get(cookies.planner, `/api/teams/${teamId}/plans/${planId}/versions`);
+  const versionId: string = versions.versions[0].id;
+  // The pilot reads signed-off versions only: send the demo version through review first.
+  await post(cookies.planner, `/api/teams/${teamId}/plans/${planId}/versions/${versionId}/submit`);
+  await post(cookies.surveyor, `/api/teams/${teamId}/plans/${planId}/versions/${versionId}/sign-off`);
+
+  const mix = [
+    { cookie: cookies.planner, path: `/api/teams/${teamId}/projects` },
+    { cookie: cookies.surveyor, path: `/api/teams/${teamId}/plans/${planId}/versions/${versionId}` },
+    { cookie: cookies.pilot, path: `/api/teams/${teamId}/flights/${versionId}/leg-sheet` },
+  ];
+  // Bytes on the wire (compressed, as a browser receives them) and the unloaded latency of each read, one at a time.
+  const sizes: number[] = [];
+  const single: number[] = [];
+  for (const m of mix) {
+    const wire = await new Promise<number>((resolve, reject) =>
+      http.get(url + m.path, { headers: { Cookie: m.cookie, 'Accept-Encoding': 'gzip, br' } }, (res) => {
+        let n = 0;
+        res.on('data', (c: Buffer) => (n += c.byteLength));
+        res.on('end', () => resolve(n));
+      }).on('error', reject),
+    );
+    sizes.push(wire);
+    const times: number[] = [];
+    for (let i = 0; i < 30; i++) {
+      const t = performance.now();
+      await (await fetch(url + m.path, { headers: { Cookie: m.cookie } })).arrayBuffer();
+      times.push(performance.now() - t);
+    }
+    times.sort((a, b) => a - b);
+    single.push(times[15]);
+  }
+
+  async function measure(label: string): Promise<{ p50: number; p95: number; p99: number; rps: number; errors: number; rssMiB: number }> {
+    const rssBefore = rssMiB();
+    let rssPeak = rssBefore;
+    const probe = setInterval(() => (rssPeak = Math.max(rssPeak, rssMiB())), 250);
+    const result = await autocannon({
+      url,
+      connections,
+      overallRate: rate,
+      duration: seconds,
+      headers: { 'Accept-Encoding': 'gzip, br' },
+      requests: mix.map((m) => ({ method: 'GET' as const, path: m.path, headers: { Cookie: m.cookie, 'Accept-Encoding': 'gzip, br' } })),
+    });
+    clearInterval(probe);
+    const errors = result.errors + result.timeouts + result.non2xx;
+    const out = { p50: result.latency.p50, p95: result.latency.p97_5 ?? 0, p99: result.latency.p99, rps: result.requests.average, errors, rssMiB: rssPeak };
+    // autocannon reports p97.5, not p95: compute p95 from its histogram percentiles when available.
+    const hist = result.latency as unknown as Record<string, number>;
+    if (typeof hist.p95 === 'number') out.p95 = hist.p95;
+    console.log(`${label}: ${out.rps.toFixed(0)} req/s, p50 ${out.p50} ms, p95 ${out.p95} ms, p99 ${out.p99} ms, errors ${errors}, RSS ${rssBefore.toFixed(0)} → peak ${rssPeak.toFixed(0)} MiB`);
+    return out;
+  }
+
+  console.log(`bench:api on ${os.cpus().length} cores (${os.cpus()[0]?.model ?? 'unknown cpu'}), Node ${process.version}`);
+  console.log(`read mix: ${mix.map((m, i) => `${m.path.replace(/[0-9a-f-]{36}/g, ':id')} (${(sizes[i] / 1024).toFixed(1)} KiB on the wire)`).join(', ')}`);
+  console.log(`one at a time (median of 30): ${mix.map((m, i) => `${single[i].toFixed(1)} ms`).join(', ')}`);
+  console.log(`load: ${connections} connections, ${rate} requests/s overall, ${seconds} s per phase`);
+  await measure('warm-up');
+  const alone = await measure('reads alone');
+
+  // Analyses beside the reads: keep one run queued or running for the whole phase.
+  let analysing = true;
+  let runs = 0;
+  const keepAnalysing = (async () => {
+    while (analysing) {
+      const v = await post(cookies.planner, `/api/teams/${teamId}/plans/${planId}/runs`);
+      runs++;
+      for (;;) {
+        const s = await get(cookies.planner, `/api/teams/${teamId}/plans/${planId}/versions/${v.id}/status`);
+        if (s.analysisState === 'done' || s.analysisState === 'failed' || !analysing) break;
+        await new Promise((r) => setTimeout(r, 200));
+      }
+    }
+  })();
+  await new Promise((r) => setTimeout(r, 500));
+  const busy = await measure('reads during analyses');
+  analysing = false;
+  await keepAnalysing;
+  console.log(`analyses run during the phase: ${runs}`);
+
+  console.log(`ratio p95-alone-vs-target = ${(alone.p95 / 50).toFixed(2)} (target ≤ 1.0: p95 ${alone.p95} ms vs 50 ms at ${rate} req/s)`);
+  console.log(`ratio p95-busy-vs-target = ${(busy.p95 / 100).toFixed(2)} (target ≤ 1.0: p95 ${busy.p95} ms vs 100 ms during analyses)`);
+  console.log(`ratio rss-busy-vs-alone = ${(busy.rssMiB / alone.rssMiB).toFixed(2)} (memory flat: ≤ 1.25)`);
+} finally {
+  await cleanUp();
+}
+process.exit(0);
