@@ -14,7 +14,7 @@ const pgPort = Number(process.env.LOFTLINE_PG_PORT ?? 54329);
 
 const cluster = env.DATABASE_URL ? null : await startCluster({ port: pgPort, databases: ['loftline'] });
 const databaseUrl = env.DATABASE_URL ?? cluster!.url('loftline');
-const webDist = ensureWebBuild();
+const webDist = await ensureWebBuild();
 const config = buildConfig(env, { databaseUrl, authSecret: localAuthSecret(), webDist });
 const srv = await bootServer(config);
 const seeded = await seedDemo({ db: srv.db, auth: srv.auth, steps: [demoProjectStep({ storage: storageOf(srv.services) })] });

@@ -62,7 +62,7 @@ await seedDemo({ db, auth: createAuth({ db, config }), steps: [demoProjectStep({
 await db.$client.end();
 
 // LOFTLINE_SKIP_WEB=1 runs the suites without (re)building the web app, for quick server-only iterations.
-const webDist = process.env.LOFTLINE_SKIP_WEB === '1' ? '' : ensureWebBuild();
+const webDist = process.env.LOFTLINE_SKIP_WEB === '1' ? '' : await ensureWebBuild();
 console.log(`loftline: test set-up done in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
 
 fs.mkdirSync(artifactsDir, { recursive: true });

@@ -2,8 +2,8 @@
 import { DashPathEffect, Line as SkLine, Text as SkText, useFont, vec } from '@shopify/react-native-skia';
 import { StyleSheet, View } from 'react-native';
 import { Area, CartesianChart, Line, Scatter } from 'victory-native';
-import { fontFiles } from '../theme/fonts';
-import { fontFamilies, space } from '../theme';
+import { Inter_400Regular } from '@expo-google-fonts/inter/400Regular';
+import { space } from '../theme';
 import { chartInk, dashIntervals, seriesLooks } from './chart-palette';
 import type { ProfileSeries } from './profile-series';
 
@@ -22,7 +22,7 @@ const fmt = (v: number) => (Number.isInteger(v) || Math.abs(v) >= 10 ? v.toFixed
 
 export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, heightPx, compact }: ProfileChartCanvasProps) {
   const ticks = compact ? 4 : 6;
-  const font = useFont(fontFiles[fontFamilies.regular], fontSizePx);
+  const font = useFont(Inter_400Regular, fontSizePx);
   const dash = (style: keyof typeof dashIntervals) => {
     const d = dashIntervals[style];
     return d ? <DashPathEffect intervals={d} /> : null;

@@ -54,14 +54,28 @@ export const radii = {
   pill: 999,
 } as const;
 
-/** Font family names as registered with expo-font in the root layout (one file per weight). */
-export const fontFamilies = {
+/** The shipped faces, by the names their @font-face rules declare (see scripts/lib/web-fonts.ts). */
+export const fontFaces = {
   regular: 'Inter_400Regular',
   medium: 'Inter_500Medium',
   semibold: 'Inter_600SemiBold',
   bold: 'Inter_700Bold',
   mono: 'JetBrainsMono_400Regular',
   monoMedium: 'JetBrainsMono_500Medium',
+} as const;
+
+// Until a face arrives (font-display: swap) text paints in the system's own font, so fonts never hold up a screen.
+const sansFallback = 'system-ui, -apple-system, "Segoe UI", Roboto, "Helvetica Neue", Arial, sans-serif';
+const monoFallback = 'ui-monospace, Menlo, Consolas, "DejaVu Sans Mono", monospace';
+
+/** Font stacks for styles: the shipped face first, then the system fallbacks. */
+export const fontFamilies = {
+  regular: `${fontFaces.regular}, ${sansFallback}`,
+  medium: `${fontFaces.medium}, ${sansFallback}`,
+  semibold: `${fontFaces.semibold}, ${sansFallback}`,
+  bold: `${fontFaces.bold}, ${sansFallback}`,
+  mono: `${fontFaces.mono}, ${monoFallback}`,
+  monoMedium: `${fontFaces.monoMedium}, ${monoFallback}`,
 } as const;
 
 /** Type scale: size and line height in px, with the family that carries the weight. */

@@ -4,8 +4,9 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { distDir, projectRoot } from './paths';
+import { injectFontTags, writeWebFonts } from './web-fonts';
 
-const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'package-lock.json', 'tsconfig.json'];
+const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'package-lock.json', 'tsconfig.json', 'scripts/lib/web-fonts.ts'];
 
 function hashInputs(): string {
   const h = crypto.createHash('sha256');
@@ -25,7 +26,7 @@ function hashInputs(): string {
 }
 
 /** Export the web build into dist/ if the sources differ from the recorded hash; returns the dist folder. */
-export function ensureWebBuild(opts: { force?: boolean } = {}): string {
+export async function ensureWebBuild(opts: { force?: boolean } = {}): Promise<string> {
   const stamp = path.join(distDir, '.source-hash');
   const hash = hashInputs();
   if (!opts.force && fs.existsSync(stamp) && fs.readFileSync(stamp, 'utf8') === hash && fs.existsSync(path.join(distDir, 'index.html'))) {
@@ -46,6 +47,9 @@ export function ensureWebBuild(opts: { force?: boolean } = {}): string {
     fs.rmSync(staging, { recursive: true, force: true });
     throw new Error('The web build failed (see the expo output above).');
   }
+  // Fonts as WOFF2 subsets declared with font-display: swap (scripts/lib/web-fonts.ts); the page never waits for them.
+  const indexFile = path.join(staging, 'index.html');
+  fs.writeFileSync(indexFile, injectFontTags(fs.readFileSync(indexFile, 'utf8'), await writeWebFonts(staging)));
   fs.writeFileSync(path.join(staging, '.source-hash'), hash);
   const old = `${distDir}.old-${process.pid}`;
   if (fs.existsSync(distDir)) fs.renameSync(distDir, old);
