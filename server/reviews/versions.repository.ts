@@ -4,6 +4,7 @@ import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { plan, planVersion, project, site, user } from '../../db/schema';
+import { plainText } from '../../contracts/text';
 import { isUuid } from '../http/ids';
 
 const creator = alias(user, 'creator');
@@ -47,6 +48,19 @@ function selection() {
   };
 }
 
+
+/** Names typed by people, cleaned once here for every report, leg sheet, export and mail built from a version. */
+const textFields = ['planName', 'projectName', 'projectClient', 'siteName', 'siteFileName', 'siteVerticalDatum', 'createdByName', 'signedOffByName'] as const;
+
+function cleaned<T extends Partial<Record<(typeof textFields)[number], string | null>>>(row: T): T {
+  const out = { ...row };
+  for (const k of textFields) {
+    const v = out[k];
+    if (typeof v === 'string') (out as Record<string, unknown>)[k] = plainText(v);
+  }
+  return out;
+}
+
 /** A version with its plan, project, site, creator and signer, as the lookups answer it. */
 export type VersionRecord = NonNullable<Awaited<ReturnType<ReturnType<typeof createVersionsRepository>['find']>>>;
 
@@ -75,14 +89,15 @@ export function createVersionsRepository({ db }: { db: Db }) {
       if (q.planId !== undefined) conds.push(eq(planVersion.planId, q.planId));
       if (seesSignedOffOnly(q.role)) conds.push(eq(planVersion.reviewState, 'signed_off'));
       const rows = await base(and(...conds)).limit(1);
-      return rows[0] ?? null;
+      return rows[0] ? cleaned(rows[0]) : null;
     },
 
     /** The team's signed-off versions, newest sign-off first. */
     async signedOff(teamId: string) {
-      return base(and(eq(planVersion.teamId, teamId), eq(planVersion.reviewState, 'signed_off'))).orderBy(
+      const rows = await base(and(eq(planVersion.teamId, teamId), eq(planVersion.reviewState, 'signed_off'))).orderBy(
         desc(planVersion.signedOffAt),
       );
+      return rows.map(cleaned);
     },
 
     /** Whether the plan exists in the team (for routes that name a plan only). */

@@ -43,6 +43,14 @@ export class ApiClient {
     return { status: res.status, body: parsed as T, headers: res.headers };
   }
 
+  /** GET a binary body (PDFs, grids) as bytes. */
+  async getBytes(path: string): Promise<{ status: number; bytes: Buffer; headers: Headers }> {
+    const headers: Record<string, string> = { Origin: this.baseUrl };
+    if (this.cookies.size) headers.Cookie = this.cookieHeader();
+    const res = await fetch(this.baseUrl + path, { headers, redirect: 'manual' });
+    return { status: res.status, bytes: Buffer.from(await res.arrayBuffer()), headers: res.headers };
+  }
+
   get<T = any>(path: string) {
     return this.request<T>('GET', path);
   }
