@@ -9,6 +9,7 @@ import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
+import { requireSameOrigin, trustedOriginsOf } from './http/origin';
 import type { RouteGroup } from './routes';
 import type { Services } from './services';
 import { createTeamsRepository } from './teams/teams.repository';
@@ -47,6 +48,7 @@ export function createApp(deps: AppDeps) {
 
   const guards = createGuards({ auth, db });
   const api = express.Router();
+  api.use(requireSameOrigin(trustedOriginsOf(config.publicUrl))); // first: a cross-site request is refused unread
   api.use(requireJsonBody);
   api.use(express.json({ limit: config.jsonLimit }));
   registerHealthRoutes(api, { guards, db });
