@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoPassword, demoUsers } from '../../contracts/demo-team';
+import { demoUsers } from '../../contracts/demo-team';
+import { demoPassword } from '../../server/seed/demo-password';
 import { ApiClient, uniqueEmail } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
 
