@@ -1,10 +1,10 @@
 /** Build the Express app (no listening): auth, JSON API, the web build with SPA fallback, one error middleware. */
 import fs from 'node:fs';
 import path from 'node:path';
-import { toNodeHandler } from 'better-auth/node';
 import express, { type RequestHandler } from 'express';
 import type { Db } from '../db/client';
 import type { Auth } from './auth/auth';
+import { authHttpHandler } from './auth/auth-http';
 import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
@@ -44,7 +44,8 @@ export function createApp(deps: AppDeps) {
   const app = express();
   app.disable('x-powered-by');
   app.use('/api/auth', clientAddress);
-  app.all('/api/auth/{*any}', toNodeHandler(auth)); // before express.json(): better-auth reads the raw body
+  // Before express.json(): better-auth reads the raw body.
+  app.all('/api/auth/{*any}', authHttpHandler(auth, { failuresPerAccount: config.signInFailuresPerAccount, windowS: 15 * 60 }));
 
   const guards = createGuards({ auth, db });
   const api = express.Router();
