@@ -10,6 +10,7 @@ import { registerHealthRoutes } from './health/health.routes';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
 import { requireSameOrigin, trustedOriginsOf } from './http/origin';
+import { securityHeaders } from './http/security-headers';
 import type { RouteGroup } from './routes';
 import type { Services } from './services';
 import { createTeamsRepository } from './teams/teams.repository';
@@ -43,6 +44,7 @@ export function createApp(deps: AppDeps) {
   const { db, auth, config } = deps;
   const app = express();
   app.disable('x-powered-by');
+  app.use(securityHeaders({ publicUrl: config.publicUrl, webDist: config.webDist }));
   app.use('/api/auth', clientAddress);
   // Before express.json(): better-auth reads the raw body.
   app.all('/api/auth/{*any}', authHttpHandler(auth, { failuresPerAccount: config.signInFailuresPerAccount, windowS: 15 * 60 }));
