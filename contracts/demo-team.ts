@@ -1,8 +1,6 @@
 /** The invented demo team: one user per role. All names are fictional; the addresses use the reserved .example domain. */
 import type { Role } from './roles';
 
-export const demoPassword = 'loftline-demo';
-
 export const demoTeam = { name: 'Brackenmoor Aerial Mapping', slug: 'brackenmoor-aerial-mapping' } as const;
 
 export const demoUsers: ReadonlyArray<{ role: Role; name: string; email: string }> = [

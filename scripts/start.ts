@@ -1,7 +1,8 @@
 /** `npm start`: database, migrations, demo seed, web build, then the app and API on one port. */
 import { bootServer } from '../server/boot';
 import { buildConfig, parseEnv } from '../server/config';
-import { demoPassword, demoUsers } from '../contracts/demo-team';
+import { demoUsers } from '../contracts/demo-team';
+import { demoPassword } from '../server/seed/demo-password';
 import { demoProjectStep } from '../server/seed/demo-project';
 import { seedDemo } from '../server/seed/seed';
 import { storageOf } from '../server/storage/storage.service';

@@ -1,16 +1,18 @@
 /** Build the Express app (no listening): auth, JSON API, the web build with SPA fallback, one error middleware. */
 import fs from 'node:fs';
 import path from 'node:path';
-import { toNodeHandler } from 'better-auth/node';
 import compression from 'compression';
 import express, { type RequestHandler } from 'express';
 import type { ServerResponse } from 'node:http';
 import type { Db } from '../db/client';
 import type { Auth } from './auth/auth';
+import { authHttpHandler } from './auth/auth-http';
 import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
+import { requireSameOrigin, trustedOriginsOf } from './http/origin';
+import { securityHeaders } from './http/security-headers';
 import type { RouteGroup } from './routes';
 import type { Services } from './services';
 import { createTeamsRepository } from './teams/teams.repository';
@@ -53,6 +55,7 @@ export function createApp(deps: AppDeps) {
   const { db, auth, config } = deps;
   const app = express();
   app.disable('x-powered-by');
+  app.use(securityHeaders({ publicUrl: config.publicUrl, webDist: config.webDist }));
   // Text answers (API JSON, the app's scripts and styles) go compressed; bodies the body cache already gzipped are
   // left alone (compression skips a response that has a Content-Encoding).
   app.use(compression({ threshold: 1024 }));
@@ -63,9 +66,11 @@ export function createApp(deps: AppDeps) {
     guards.sessions.forget(req.headers.cookie ?? '');
     next();
   });
-  app.all('/api/auth/{*any}', toNodeHandler(auth)); // before express.json(): better-auth reads the raw body
+  // Before express.json(): better-auth reads the raw body.
+  app.all('/api/auth/{*any}', authHttpHandler(auth, { failuresPerAccount: config.signInFailuresPerAccount, windowS: 15 * 60 }));
 
   const api = express.Router();
+  api.use(requireSameOrigin(trustedOriginsOf(config.publicUrl))); // first: a cross-site request is refused unread
   api.use(requireJsonBody);
   api.use(express.json({ limit: config.jsonLimit }));
   registerHealthRoutes(api, { guards, db });

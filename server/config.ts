@@ -14,6 +14,8 @@ const envSchema = z.object({
   AUTH_SECRET: z.string().min(32).optional(),
   /** Sign-in attempts allowed per client address per minute. */
   AUTH_SIGNIN_PER_MINUTE: z.coerce.number().int().min(1).max(10_000).default(10),
+  /** Failed sign-ins allowed per account (e-mail address) in 15 minutes, from any number of addresses. */
+  AUTH_SIGNIN_FAILURES_PER_ACCOUNT: z.coerce.number().int().min(1).max(10_000).default(10),
   JSON_LIMIT: z.string().default('1mb'),
   UPLOAD_LIMIT_MB: z.coerce.number().positive().max(1_000_000).default(512),
   STORAGE_DRIVER: z.enum(['disk', 's3']).default('disk'),
@@ -55,6 +57,7 @@ export interface Config {
   publicUrl: string;
   authSecret: string;
   signInPerMinute: number;
+  signInFailuresPerAccount: number;
   jsonLimit: string;
   uploadLimitBytes: number;
   webDist: string | null;
@@ -81,6 +84,7 @@ export function buildConfig(env: Env, resolved: { databaseUrl: string; authSecre
     publicUrl: env.PUBLIC_URL ?? `http://${env.HOST === '0.0.0.0' ? '127.0.0.1' : env.HOST}:${port}`,
     authSecret: env.AUTH_SECRET ?? resolved.authSecret,
     signInPerMinute: env.AUTH_SIGNIN_PER_MINUTE,
+    signInFailuresPerAccount: env.AUTH_SIGNIN_FAILURES_PER_ACCOUNT,
     jsonLimit: env.JSON_LIMIT,
     uploadLimitBytes: Math.round(env.UPLOAD_LIMIT_MB * 1024 * 1024),
     webDist: resolved.webDist,

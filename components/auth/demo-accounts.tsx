@@ -1,6 +1,6 @@
 /** A discreet list of the demo team's accounts on the sign-in page (the product ships with an invented demo team). */
 import { Pressable, StyleSheet, View } from 'react-native';
-import { demoPassword, demoUsers } from '../../contracts/demo-team';
+import { demoUsers } from '../../contracts/demo-team';
 import { roleLabels } from '../../contracts/roles';
 import { colors, layout, radii, space } from '../theme';
 import { Text } from '../ui';
@@ -8,15 +8,15 @@ import { Text } from '../ui';
 /** The seeded demo users (fictional people on the reserved .example domain), from the one list the seed uses. */
 export const demoAccounts = demoUsers;
 
-/** The demo team's shared password, as documented in the README and printed by the server at start. */
-export const demoPasswordHint = demoPassword;
-
-/** Tapping an account fills the form with it; nothing is submitted on the user's behalf. */
-export function DemoAccounts({ onPick }: { onPick: (email: string, password: string) => void }) {
+/**
+ * Tapping an account fills in its e-mail; nothing is submitted on the user's behalf. The shared password is not in
+ * the web bundle: it is in the README and in what the server prints when it starts.
+ */
+export function DemoAccounts({ onPick }: { onPick: (email: string) => void }) {
   return (
     <View style={styles.box} testID="demo-accounts">
       <Text variant="label" tone="muted">
-        Demo accounts — team “Brackenmoor Aerial Mapping”, password <Text variant="mono">{demoPasswordHint}</Text>
+        Demo accounts — team “Brackenmoor Aerial Mapping”; the password is in the README and in the server's start-up output
       </Text>
       {demoAccounts.map((account) => (
         <Pressable
@@ -24,7 +24,7 @@ export function DemoAccounts({ onPick }: { onPick: (email: string, password: str
           role="button"
           aria-label={`Fill in the demo ${roleLabels[account.role]} account`}
           testID={`demo-${account.role}`}
-          onPress={() => onPick(account.email, demoPasswordHint)}
+          onPress={() => onPick(account.email)}
           style={styles.row}
         >
           <Text variant="caption" tone="muted" style={styles.role}>

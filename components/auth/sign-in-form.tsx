@@ -11,7 +11,7 @@ import { Banner, Button, FormTextField } from '../ui';
 import { authClient, authFailureFrom } from './auth-client';
 
 /** Values put into the form from outside (the demo accounts list); a new object each time. */
-export type SignInPrefill = { email: string; password: string };
+export type SignInPrefill = { email: string };
 
 /** On success it refreshes the session query; the signed-out layout then moves the user into the app. */
 export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
@@ -25,7 +25,6 @@ export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
   useEffect(() => {
     if (!prefill) return;
     setValue('email', prefill.email, { shouldValidate: true });
-    setValue('password', prefill.password, { shouldValidate: true });
   }, [prefill, setValue]);
 
   const submit = handleSubmit(async (values) => {

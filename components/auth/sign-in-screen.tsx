@@ -19,7 +19,7 @@ export function SignInScreen() {
           <TextLink href="/sign-up" label="Create an account" testID="go-sign-up" />
         </>
       }
-      aside={<DemoAccounts onPick={(email, password) => setPrefill({ email, password })} />}
+      aside={<DemoAccounts onPick={(email) => setPrefill({ email })} />}
     >
       {created === '1' ? (
         <Banner

@@ -5,6 +5,7 @@ import { organization } from 'better-auth/plugins';
 import type { Db } from '../../db/client';
 import { schema } from '../../db/client';
 import type { Config } from '../config';
+import { trustedOriginsOf } from '../http/origin';
 import { ac, acRoles } from './access';
 
 export interface AuthHooks {
@@ -24,7 +25,7 @@ export function createAuth(deps: { db: Db; config: Config; hooks?: AuthHooks }) 
     telemetry: { enabled: false },
     // Failed sign-ins are expected in tests; keep their logs to real errors.
     logger: { level: config.env.NODE_ENV === 'test' ? 'error' : 'warn' },
-    trustedOrigins: originsOf(config.publicUrl),
+    trustedOrigins: trustedOriginsOf(config.publicUrl),
     emailAndPassword: {
       enabled: true,
       minPasswordLength: 10,
@@ -62,15 +63,6 @@ export function createAuth(deps: { db: Db; config: Config; hooks?: AuthHooks }) 
 }
 
 export type Auth = ReturnType<typeof createAuth>;
-
-/** The public origin plus its loopback twin (127.0.0.1 <-> localhost), so either spelling can sign in. */
-function originsOf(publicUrl: string): string[] {
-  const u = new URL(publicUrl);
-  const out = [u.origin];
-  if (u.hostname === '127.0.0.1') out.push(u.origin.replace('127.0.0.1', 'localhost'));
-  if (u.hostname === 'localhost') out.push(u.origin.replace('localhost', '127.0.0.1'));
-  return out;
-}
 
 /** In-memory fixed-window rate-limit counters for one auth instance (check and increment in one step). */
 function memoryRateLimitStore() {

@@ -4,6 +4,7 @@ import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { plan, planVersion, project, site, user } from '../../db/schema';
+import { plainText } from '../../contracts/text';
 import { isUuid } from '../http/ids';
 
 const creator = alias(user, 'creator');
@@ -45,6 +46,19 @@ function selection() {
     siteVerticalDatum: site.verticalDatum,
     siteMetadata: site.metadata,
   };
+}
+
+
+/** Names typed by people, cleaned once here for every report, leg sheet, export and mail built from a version. */
+const textFields = ['planName', 'projectName', 'projectClient', 'siteName', 'siteFileName', 'siteVerticalDatum', 'createdByName', 'signedOffByName'] as const;
+
+function cleaned<T extends Partial<Record<(typeof textFields)[number], string | null>>>(row: T): T {
+  const out = { ...row };
+  for (const k of textFields) {
+    const v = out[k];
+    if (typeof v === 'string') (out as Record<string, unknown>)[k] = plainText(v);
+  }
+  return out;
 }
 
 /** A version with its plan, project, site, creator and signer, as the lookups answer it. */
@@ -102,14 +116,15 @@ export function createVersionsRepository({ db }: { db: Db }) {
       const where = conditions(q);
       if (!where) return null;
       const rows = await base(where).limit(1);
-      return rows[0] ?? null;
+      return rows[0] ? cleaned(rows[0]) : null;
     },
 
     /** The team's signed-off versions, newest sign-off first. */
     async signedOff(teamId: string) {
-      return base(and(eq(planVersion.teamId, teamId), eq(planVersion.reviewState, 'signed_off'))).orderBy(
+      const rows = await base(and(eq(planVersion.teamId, teamId), eq(planVersion.reviewState, 'signed_off'))).orderBy(
         desc(planVersion.signedOffAt),
       );
+      return rows.map(cleaned);
     },
 
     /** Whether the plan exists in the team (for routes that name a plan only). */

@@ -4,7 +4,8 @@ import { eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { member, organization, user } from '../../db/schema';
 import type { Auth } from '../auth/auth';
-import { demoPassword, demoTeam, demoUsers } from '../../contracts/demo-team';
+import { demoTeam, demoUsers } from '../../contracts/demo-team';
+import { demoPassword } from './demo-password';
 
 export type SeedStep = (ctx: { db: Db; auth: Auth; teamId: string; userIds: Record<string, string> }) => Promise<void>;
 

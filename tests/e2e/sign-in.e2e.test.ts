@@ -7,7 +7,8 @@ import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../contracts/roles';
-import { demoPassword, demoTeam, demoUsers } from '../../contracts/demo-team';
+import { demoTeam, demoUsers } from '../../contracts/demo-team';
+import { demoPassword } from '../../server/seed/demo-password';
 import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/test-server';
 

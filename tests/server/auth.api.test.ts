@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoPassword, demoUsers } from '../../contracts/demo-team';
+import { demoUsers } from '../../contracts/demo-team';
+import { demoPassword } from '../../server/seed/demo-password';
 import { ApiClient, uniqueEmail } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -39,7 +40,7 @@ describe('sign-up, sign-in and sign-out', () => {
     const fresh = await new ApiClient(srv.url).signUp(uniqueEmail('fresh'), 'some other password');
     expect(taken.status).toBe(fresh.status);
     expect(Object.keys(taken.body).sort()).toEqual(Object.keys(fresh.body).sort());
-    expect(taken.body.token).toBeNull();
+    expect('token' in taken.body).toBe(false);
   });
 
   it('gives the same answer for a wrong password and an unknown address', async () => {
@@ -71,5 +72,77 @@ describe('sign-in rate limit', () => {
     } finally {
       await limited.stop();
     }
+  });
+});
+
+describe('sign-in limit per account', () => {
+  it('refuses an account after its failed sign-ins, from any client, while other accounts still sign in', async () => {
+    const limited = await startTestServer({ web: false, env: { AUTH_SIGNIN_FAILURES_PER_ACCOUNT: '3' } });
+    try {
+      const email = uniqueEmail('locked');
+      await new ApiClient(limited.url).signUp(email, 'the right password');
+      const statuses: number[] = [];
+      // Different clients and spellings of the address: the count follows the account, not the socket.
+      for (const spelling of [email, email.toUpperCase(), email]) statuses.push((await new ApiClient(limited.url).signIn(spelling, 'a wrong password')).status);
+      expect(statuses).toEqual([401, 401, 401]);
+      const blocked = await new ApiClient(limited.url).signIn(email, 'the right password');
+      expect(blocked.status).toBe(429);
+      expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(0);
+      expect(blocked.body.message).toMatch(/Too many failed sign-ins for this account/);
+      expect((await new ApiClient(limited.url).signIn(demoUsers[2].email, demoPassword)).status).toBe(200);
+    } finally {
+      await limited.stop();
+    }
+  });
+});
+
+describe('the session token stays in its HttpOnly cookie', () => {
+  it('is in no JSON body of sign-in, get-session or list-sessions, and the cookie still works', async () => {
+    const c = new ApiClient(srv.url);
+    const inn = await c.signIn(demoUsers[3].email, demoPassword);
+    expect(inn.status).toBe(200);
+    expect(inn.body.user.email).toBe(demoUsers[3].email);
+    const session = await c.get('/api/auth/get-session');
+    expect(session.status).toBe(200);
+    expect(session.body.user.email).toBe(demoUsers[3].email);
+    const sessions = await c.get('/api/auth/list-sessions');
+    expect(sessions.status).toBe(200);
+    expect(sessions.body.length).toBeGreaterThan(0);
+    const cookieToken = decodeURIComponent((inn.headers.getSetCookie().find((h) => h.includes('session_token')) ?? '').split(';')[0].split('=')[1]).split('.')[0];
+    expect(cookieToken.length).toBeGreaterThan(10);
+    for (const body of [inn.body, session.body, sessions.body]) {
+      expect(JSON.stringify(body)).not.toMatch(/"token"/);
+      expect(JSON.stringify(body)).not.toContain(cookieToken);
+    }
+    expect((await c.get('/api/me')).status).toBe(200);
+  });
+});
+
+describe("the auth library's organization endpoints", () => {
+  it('are closed to every role (a pilot cannot read members or their e-mail addresses there)', async () => {
+    const { demoClients, demoTeamId } = await import('../support/demo');
+    const clients = await demoClients(srv);
+    const teamId = await demoTeamId(srv);
+    const reads = [
+      `/api/auth/organization/list-members?organizationId=${teamId}`,
+      `/api/auth/organization/get-full-organization?organizationId=${teamId}`,
+      `/api/auth/organization/list-invitations?organizationId=${teamId}`,
+      `/api/auth/organization/get-active-member`,
+      `/api/auth/organization/list`,
+    ];
+    for (const role of ['pilot', 'owner'] as const) {
+      for (const path of reads) {
+        const res = await clients[role].get(path);
+        expect(res.status, `${role} ${path}`).toBe(404);
+        expect(JSON.stringify(res.body)).not.toMatch(/@brackenmoor\.example/);
+      }
+      const set = await clients[role].post('/api/auth/organization/set-active', { organizationId: teamId });
+      expect(set.status).toBe(404);
+      const invite = await clients[role].post('/api/auth/organization/invite-member', { organizationId: teamId, email: uniqueEmail('sneak'), role: 'owner' });
+      expect(invite.status).toBe(404);
+    }
+    // Loftline's own member list still refuses the pilot, and serves the owner.
+    expect((await clients.pilot.get(`/api/teams/${teamId}/members`)).status).toBe(403);
+    expect((await clients.owner.get(`/api/teams/${teamId}/members`)).status).toBe(200);
   });
 });

@@ -89,3 +89,57 @@ describe('every API route is guarded on the server', () => {
     }
   });
 });
+
+describe('every state-changing API route refuses requests from another site', () => {
+  const stateChanging = () => routes.filter((r) => ['POST', 'PUT', 'PATCH', 'DELETE'].includes(r.method));
+  const foreign = 'https://evil.example';
+  /** The bodies a cross-site page can send: JSON through fetch, and a form's url-encoded or multipart body (no preflight). */
+  const bodies = (): Array<{ kind: string; body: unknown; headers?: Record<string, string> }> => {
+    const form = new FormData();
+    form.append('comment', 'signed off from elsewhere');
+    form.append('file', new Blob([new Uint8Array([73, 73, 42, 0])]), 'x.tif');
+    return [
+      { kind: 'json', body: {} },
+      { kind: 'form', body: 'comment=signed+off', headers: { 'Content-Type': 'application/x-www-form-urlencoded' } },
+      { kind: 'multipart', body: form },
+    ];
+  };
+
+  it('answers 403 cross_origin to a foreign Origin with a valid session cookie, whatever the body', async () => {
+    expect(stateChanging().length).toBeGreaterThan(5);
+    expect(clients.owner.signedIn).toBe(true);
+    const failures: string[] = [];
+    for (const r of stateChanging()) {
+      for (const b of bodies()) {
+        const res = await clients.owner.request(r.method, concrete(r.path), { body: b.body, headers: { ...b.headers, Origin: foreign } });
+        if (res.status !== 403 || res.body?.error?.code !== 'cross_origin') failures.push(`${b.kind} ${r.method} ${r.path} -> ${res.status}`);
+      }
+    }
+    expect(failures).toEqual([]);
+  });
+
+  it('falls back to the Referer, and refuses a cookie-bearing request that names neither', async () => {
+    const failures: string[] = [];
+    for (const r of stateChanging()) {
+      const viaReferer = await clients.owner.request(r.method, concrete(r.path), { body: {}, noOrigin: true, headers: { Referer: `${foreign}/page` } });
+      if (viaReferer.status !== 403 || viaReferer.body?.error?.code !== 'cross_origin') failures.push(`referer ${r.method} ${r.path} -> ${viaReferer.status}`);
+      const neither = await clients.owner.request(r.method, concrete(r.path), { body: {}, noOrigin: true });
+      if (neither.status !== 403 || neither.body?.error?.code !== 'cross_origin') failures.push(`none ${r.method} ${r.path} -> ${neither.status}`);
+    }
+    expect(failures).toEqual([]);
+  });
+
+  it('says why in the message, and lets the same request through from its own origin or its own Referer', async () => {
+    const refused = await clients.owner.request('POST', '/api/teams', { body: { name: '' }, headers: { Origin: foreign } });
+    expect(refused.body.error.message).toMatch(/another site \(https:\/\/evil\.example\)/);
+    const own = await clients.owner.request('POST', '/api/teams', { body: { name: '' } });
+    expect(own.status).toBe(422); // reached the route: the empty name is what is wrong
+    const ownReferer = await clients.owner.request('POST', '/api/teams', { body: { name: '' }, noOrigin: true, headers: { Referer: `${srv.url}/projects` } });
+    expect(ownReferer.status).toBe(422);
+  });
+
+  it('leaves clients without cookies alone (they have no session to misuse): 401, not 403', async () => {
+    const res = await new ApiClient(srv.url).request('POST', `/api/teams/${teamId}/projects`, { body: {}, noOrigin: true });
+    expect(res.status).toBe(401);
+  });
+});

@@ -2,7 +2,8 @@
 import { eq } from 'drizzle-orm';
 import { organization } from '../../db/schema';
 import type { Role } from '../../contracts/roles';
-import { demoPassword, demoTeam, demoUsers } from '../../contracts/demo-team';
+import { demoTeam, demoUsers } from '../../contracts/demo-team';
+import { demoPassword } from '../../server/seed/demo-password';
 import { ApiClient } from './http-client';
 import type { TestServer } from './test-server';
 

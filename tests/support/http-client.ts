@@ -25,9 +25,17 @@ export class ApiClient {
     }
   }
 
-  /** Send a request; `body` objects are sent as JSON, strings/buffers as they are. */
-  async request<T = any>(method: string, path: string, opts: { body?: unknown; headers?: Record<string, string> } = {}): Promise<JsonResponse<T>> {
-    const headers: Record<string, string> = { Origin: this.baseUrl, ...opts.headers };
+  /**
+   * Send a request; `body` objects are sent as JSON, strings/buffers as they are. Like a browser on Loftline's own
+   * pages it sends `Origin: <server>` (the server refuses state-changing requests from other sites); `noOrigin` leaves
+   * it out.
+   */
+  async request<T = any>(
+    method: string,
+    path: string,
+    opts: { body?: unknown; headers?: Record<string, string>; noOrigin?: boolean } = {},
+  ): Promise<JsonResponse<T>> {
+    const headers: Record<string, string> = { ...(opts.noOrigin ? {} : { Origin: this.baseUrl }), ...opts.headers };
     if (this.cookies.size) headers.Cookie = this.cookieHeader();
     let body: BodyInit | undefined;
     if (opts.body instanceof FormData || typeof opts.body === 'string' || opts.body instanceof Uint8Array) {
@@ -42,6 +50,14 @@ export class ApiClient {
     let parsed: unknown = text;
     if ((res.headers.get('content-type') ?? '').includes('json') && text) parsed = JSON.parse(text);
     return { status: res.status, body: parsed as T, headers: res.headers };
+  }
+
+  /** GET a binary body (PDFs, grids) as bytes. */
+  async getBytes(path: string): Promise<{ status: number; bytes: Buffer; headers: Headers }> {
+    const headers: Record<string, string> = { Origin: this.baseUrl };
+    if (this.cookies.size) headers.Cookie = this.cookieHeader();
+    const res = await fetch(this.baseUrl + path, { headers, redirect: 'manual' });
+    return { status: res.status, bytes: Buffer.from(await res.arrayBuffer()), headers: res.headers };
   }
 
   get<T = any>(path: string) {
