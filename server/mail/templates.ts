@@ -15,7 +15,8 @@ function clean(m: OutgoingMail): OutgoingMail {
 /** Links into the web app that e-mails carry. */
 export const links = {
   invitation: (publicUrl: string, token: string) => `${publicUrl}/invite/${encodeURIComponent(token)}`,
-  version: (publicUrl: string, planId: string, versionId: string) => `${publicUrl}/plans/${planId}/versions/${versionId}`,
+  version: (publicUrl: string, projectId: string, planId: string, versionId: string) => `${publicUrl}/projects/${projectId}/plans/${planId}/versions/${versionId}`,
+  legSheet: (publicUrl: string, versionId: string) => `${publicUrl}/flights/${versionId}`,
   flights: (publicUrl: string) => `${publicUrl}/flights`,
 };
 

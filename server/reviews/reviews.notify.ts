@@ -21,7 +21,7 @@ export function createReviewNotifier(deps: { mailer: Mailer; reviews: ReviewsRep
       projectName: v.projectName,
       planName: v.planName,
       versionNumber: v.number,
-      link: links.version(config.publicUrl, v.planId, v.id),
+      link: links.version(config.publicUrl, v.projectId, v.planId, v.id),
     });
     const ctx = { kind: `review.${q.action}`, teamId: v.teamId, planId: v.planId, versionId: v.id, actorId: q.actor.id };
 
