@@ -3,6 +3,7 @@ import { readFile } from 'node:fs/promises';
 import { openDem } from '../terrain/dem';
 import { WGS84 } from '../terrain/crs';
 import { analysePlan, missionBboxWgs84 } from '../terrain/plan';
+import { generalCautions } from '../contracts/cautions';
 import { CliError, nodeInflate, parseCommandArgs, readFileBytes } from './io';
 
 export const usage = 'usage: npm run -s terrain -- plan DEM.tif --mission mission.json';
@@ -31,5 +32,7 @@ export async function run(args: string[]): Promise<unknown> {
   const bbox = missionBboxWgs84(mission); // checks the mission before the DEM is decoded
   const dem = await openDem(await readFileBytes(positionals[0]), { inflate: nodeInflate });
   const grid = await dem.read({ window: { bbox, crs: WGS84, marginPx: 2 } });
-  return analysePlan(grid, mission, { verticalDatum: dem.header.verticalDatum });
+  const result = analysePlan(grid, mission, { verticalDatum: dem.header.verticalDatum });
+  // The same cautions as every flight-facing output; the plan's own warnings stay in `warnings`.
+  return { ...result, cautions: [...generalCautions] };
 }

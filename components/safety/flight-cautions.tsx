@@ -1,15 +1,11 @@
 /** The standard cautions every flight-facing screen and export carries. */
 import { StyleSheet, View } from 'react-native';
+import { generalCautions } from '../../contracts/cautions';
 import { space } from '../theme';
 import { Banner, Text } from '../ui';
 
-/** The caution lines, also used by exports so the wording stays the same everywhere. */
-export const flightCautions: readonly string[] = [
-  'Elevation grids are often bare-earth models: they miss trees, masts, power lines and buildings. Check obstacles on site.',
-  'Local altitude limits and visual line-of-sight rules apply, whatever the plan says.',
-  'Wind moves the aircraft off the planned lines and changes its ground speed; overlap and height above ground change with it.',
-  'Local regulations and licensed practice govern every flight. This plan is an aid to them, not a permission.',
-];
+/** The caution lines (contracts/cautions.ts), also used by reports, exports and mail so the wording stays the same. */
+export const flightCautions = generalCautions;
 
 /** A caution banner with the standard list; `compact` shows the first sentence of each line. */
 export function FlightCautions({ compact = false }: { compact?: boolean }) {

@@ -3,6 +3,7 @@
  * only (no HTML part), so names need no markup escaping; they pass through plainText (no bidi overrides or control
  * characters) and the subject is one line, so a name cannot add a header or reorder the text around it.
  */
+import { generalCautions } from '../../contracts/cautions';
 import { roleLabels, roleSummaries, type Role } from '../../contracts/roles';
 import { plainText } from '../../contracts/text';
 import type { OutgoingMail } from './mailer';
@@ -73,7 +74,8 @@ export function signedOffMail(
       `${f.signerName} signed off ${versionLine(f)} on ${f.signedOffAt.toUTCString()}.\n` +
       (f.comment ? `\nTheir note:\n${f.comment}\n` : '') +
       `\nThe compliance report is attached (${f.pdfName}). The version is now locked and visible to the team's pilots; ` +
-      `a change to the plan makes a new version that needs its own review.\n${f.link}` +
+      `a change to the plan makes a new version that needs its own review.\n${f.link}\n\n` +
+      `Before anyone flies it:\n${generalCautions.map((c) => `- ${c}`).join('\n')}` +
       signature,
     attachments: [{ filename: f.pdfName, content: f.pdf, contentType: 'application/pdf' }],
   });

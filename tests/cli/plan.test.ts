@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { runTerrainCli } from './run-cli';
 import { planResultSchema } from '../../contracts/plan-result';
 import { missionSchema } from '../../contracts/mission';
+import { generalCautions } from '../../contracts/cautions';
 
 const DEM = 'datasets/harrow-fell-dem.tif';
 const MISSION = 'datasets/example-mission.json';
@@ -26,7 +27,10 @@ describe('terrain plan', () => {
     const r = await runTerrainCli(['plan', DEM, '--mission', MISSION]);
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
-    const doc = planResultSchema.parse(JSON.parse(r.stdout));
+    const printed = JSON.parse(r.stdout);
+    const doc = planResultSchema.parse(printed);
+    expect(printed.cautions).toEqual([...generalCautions]);
+    expect(printed.cautions.at(-1)).toMatch(/^Local regulations and licensed practice govern every flight/);
     expect(doc.lines.length).toBe(doc.summary.lineCount);
     expect(doc.summary.photoCount).toBe(doc.lines.reduce((n, l) => n + l.stations.length, 0));
     expect(doc.headingAdvice).not.toBeNull(); // the example asks for advice
