@@ -89,7 +89,7 @@ describe('reads under load: cached bodies, compression, cache headers', () => {
     expect(after.status).toBe(200);
     expect(after.headers.etag).not.toBe(etag);
     expect(JSON.parse(after.body.toString()).reviewState).toBe('in_review');
-  });
+  }, 150_000);
 
   it('refuses a signed-out session at once, although sessions are briefly cached', async () => {
     const c = new ApiClient(srv.url);
