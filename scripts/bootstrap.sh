@@ -12,6 +12,8 @@ if [ "$mode" = "--test" ]; then
   fc-list 2>/dev/null | grep -qi dejavu || apt_pkgs+=(fonts-dejavu-core)
   # pdftotext / pdffonts read the compliance-report PDFs back in the report tests.
   command -v pdftotext >/dev/null || apt_pkgs+=(poppler-utils)
+  # ogrinfo reads the CSV export back as GDAL/OGR's CSV driver sees it.
+  command -v ogrinfo >/dev/null || apt_pkgs+=(gdal-bin)
 fi
 if [ "${#apt_pkgs[@]}" -gt 0 ]; then
   echo "loftline: installing Debian packages: ${apt_pkgs[*]}"

@@ -1,21 +1,28 @@
-/** CSV export of the waypoints (papaparse), led by comment lines with the datum and the cautions. */
+/**
+ * CSV export of the waypoints (papaparse): a plain table, one header row and one row per waypoint, so standard
+ * readers (GDAL/OGR, spreadsheets, papaparse) take the column names from the first line. What a file of numbers
+ * must not lose goes in columns on every row, so no filter or sort can drop it: the plan, whether it is signed off,
+ * what the heights are measured from, and the cautions.
+ */
 import Papa from 'papaparse';
 import { waypointColumns } from '../../contracts/exports';
 import type { ExportContext } from './export-context';
 import { heightsNote } from './export-context';
 
-/** Comment lines start with "#" (papaparse reads them back with `comments: '#'`); a line break in a name cannot end one early. */
+/** The CSV's columns: the waypoint fields, then the context columns repeated on every row. */
+export const csvColumns = [...waypointColumns, 'plan', 'status', 'heightsReference', 'cautions'] as const;
+
 export function toCsv(ctx: ExportContext): string {
-  const head = [
-    `# ${ctx.title}${ctx.signedOff ? '' : ' (NOT SIGNED OFF)'}`,
-    `# ${heightsNote(ctx, 'Heights in metres.')}`,
-    ...ctx.cautions.map((c) => `# CAUTION: ${c}`),
-  ];
+  const context = {
+    plan: ctx.title,
+    status: ctx.signedOff ? 'signed off' : 'NOT SIGNED OFF: not for flight',
+    heightsReference: heightsNote(ctx, 'Heights in metres.'),
+    cautions: ctx.cautions.join(' | '),
+  };
   // escapeFormulae: a text cell starting with = + - @ (or tab/CR) gets a leading apostrophe so a spreadsheet shows it
   // as text instead of running it (common practice against CSV formula injection); numbers are left as they are.
-  const body = Papa.unparse(
-    { fields: [...waypointColumns], data: ctx.waypoints.map((w) => waypointColumns.map((k) => w[k])) },
+  return `${Papa.unparse(
+    { fields: [...csvColumns], data: ctx.waypoints.map((w) => csvColumns.map((k) => (k in context ? context[k as keyof typeof context] : w[k as keyof typeof w]))) },
     { newline: '\r\n', escapeFormulae: true },
-  );
-  return `${head.map((h) => h.replace(/[\r\n]+/g, ' ')).join('\r\n')}\r\n${body}\r\n`;
+  )}\r\n`;
 }

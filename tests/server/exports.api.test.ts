@@ -1,12 +1,17 @@
+import { execFileSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { gpx, kml } from '@tmcw/togeojson';
 import { DOMParser } from '@xmldom/xmldom';
 import { egm96ToEllipsoid } from 'egm96-universal';
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { waypointColumns, type Waypoint } from '../../contracts/exports';
+import type { Waypoint } from '../../contracts/exports';
 import type { LegSheet } from '../../contracts/flights';
 import { createVersion, freshTeam, type FreshTeam, type VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { csvColumns } from '../../server/exports/csv';
 
 let srv: TestServer;
 let team: FreshTeam;
@@ -110,16 +115,14 @@ describe('exports of a signed-off version', () => {
     expect(doc.getElementsByTagName('metadata')[0].getElementsByTagName('desc')[0].textContent).toMatch(/ele is metres above mean sea level \(EGM96\)/);
   });
 
-  it('CSV: every waypoint with its altitudes; the datum and cautions on comment lines', async () => {
+  it('CSV: a plain table that papaparse and GDAL/OGR (ogrinfo) read alike, every waypoint with its altitudes, the datum and cautions on every row', async () => {
     const res = await download(signed.path, 'csv');
     expect(res.headers.get('content-type')).toMatch(/^text\/csv/);
     const text: string = res.body;
-    const comments = text.split(/\r?\n/).filter((l) => l.startsWith('#'));
-    expect(comments.join('\n')).toMatch(/CAUTION: Local rules govern/);
-    expect(comments.join('\n')).toMatch(/EGM96 geoid/);
-    const parsed = Papa.parse<Record<string, unknown>>(text, { header: true, comments: '#', dynamicTyping: true, skipEmptyLines: true });
+    expect(text.split('\r\n')[0]).toBe(csvColumns.join(','));
+    const parsed = Papa.parse<Record<string, unknown>>(text, { header: true, dynamicTyping: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    expect(parsed.meta.fields).toEqual([...waypointColumns]);
+    expect(parsed.meta.fields).toEqual([...csvColumns]);
     const want = expectedWaypoints();
     expect(parsed.data).toHaveLength(want.length);
     parsed.data.forEach((row, i) => {
@@ -128,6 +131,29 @@ describe('exports of a signed-off version', () => {
       expect(row.verticalDatum).toBe('EGM96 geoid');
       expect(row.line).toBe(want[i].line);
       expect(row.seq).toBe(i + 1);
+      expect(row.status).toBe('signed off');
+      expect(row.heightsReference).toMatch(/EGM96 geoid/);
+      expect(row.cautions).toMatch(/Local rules govern/);
+      expect(row.cautions).toMatch(/Local regulations and licensed practice govern every flight/);
+    });
+
+    // GDAL/OGR's CSV driver (gdal-bin 3.6.2 from Debian): the first line is the header, one feature per waypoint,
+    // points from the lon/lat columns, altitudes as read by papaparse.
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'loftline-csv-'));
+    const file = path.join(dir, 'waypoints.csv');
+    fs.writeFileSync(file, text);
+    const info = execFileSync('ogrinfo', ['-ro', '-al', '-oo', 'X_POSSIBLE_NAMES=lon', '-oo', 'Y_POSSIBLE_NAMES=lat', '-oo', 'AUTODETECT_TYPE=YES', file], { encoding: 'utf8' });
+    fs.rmSync(dir, { recursive: true, force: true });
+    expect(info).toMatch(new RegExp(`Feature Count: ${want.length}\\b`));
+    for (const c of csvColumns) expect(info).toMatch(new RegExp(`^${c}: `, 'm'));
+    const ogrAltitudes = [...info.matchAll(/^\s+altitudeAboveTakeoffM \(Real\) = (\S+)/gm)].map((m) => Number(m[1]));
+    expect(ogrAltitudes).toHaveLength(want.length);
+    ogrAltitudes.forEach((a, i) => expect(a).toBeCloseTo(want[i].aboveTakeoff, 6));
+    const points = [...info.matchAll(/POINT \((\S+) (\S+)\)/g)].map((m) => [Number(m[1]), Number(m[2])]);
+    expect(points).toHaveLength(want.length);
+    points.forEach(([lon, lat], i) => {
+      expect(lon).toBeCloseTo(want[i].lon, 7);
+      expect(lat).toBeCloseTo(want[i].lat, 7);
     });
   });
 });
