@@ -9,7 +9,8 @@ export class ApiClient {
   private cookies = new Map<string, string>();
   constructor(readonly baseUrl: string) {}
 
-  private cookieHeader(): string {
+  /** The Cookie header this client sends. */
+  cookieHeader(): string {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
   }
 
