@@ -99,7 +99,20 @@ export const siteSchema = z.object({
 });
 export type Site = z.infer<typeof siteSchema>;
 
-export const siteListSchema = z.object({ sites: z.array(siteSchema) });
+/**
+ * A stored site whose record no longer reads as a site (for example metadata written before a check existed):
+ * listed apart so the list still answers and the site can be deleted.
+ */
+export const unreadableSiteSchema = z.object({
+  id: z.string().uuid(),
+  name: z.string(),
+  fileName: z.string(),
+  createdAt: z.string(),
+  problem: z.string(),
+});
+export type UnreadableSite = z.infer<typeof unreadableSiteSchema>;
+
+export const siteListSchema = z.object({ sites: z.array(siteSchema), unreadable: z.array(unreadableSiteSchema).default([]) });
 export type SiteList = z.infer<typeof siteListSchema>;
 
 /** 409 body when the same file (same SHA-256) is already a site of the project. */

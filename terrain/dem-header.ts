@@ -1,6 +1,7 @@
 /** GeoTIFF header parsing for DEMs (TIFF 6.0, OGC GeoTIFF 1.1): size, layout, georeference, CRS, nodata, units. */
 import { GeoTIFF } from 'geotiff';
-import type { GeoTransform, GridCrs, LengthUnit } from './grid';
+import { pixelToMap, type GeoTransform, type GridCrs, type LengthUnit } from './grid';
+import { createTransform, WGS84 } from './crs';
 import { TerrainError } from './errors';
 import { crsFromGeoKeys, type GeoKeys, verticalDatumFromGeoKeys, verticalUnitFromGeoKeys } from './geokeys';
 import { COMPRESSION_NAMES, type SampleType } from './dem-decoders';
@@ -104,6 +105,32 @@ async function geoTransformOf(fd: { loadValue(t: string): Promise<unknown> }, pi
   return gt;
 }
 
+/**
+ * Refuse a georeference that puts the grid nowhere on Earth: each corner must have finite coordinates and map to
+ * a longitude within ±360° and a latitude within ±90°. (A tie point of 1e308 with a pixel size of 1e300 used to
+ * pass, and every later figure of the site was infinite.)
+ */
+function checkPlacement(t: GeoTransform, crs: GridCrs, width: number, height: number): void {
+  const tr = createTransform(crs, WGS84);
+  for (const [c, r] of [[0, 0], [width, 0], [0, height], [width, height]]) {
+    const [x, y] = pixelToMap(t, c, r);
+    let lonLat: [number, number] = [NaN, NaN];
+    if (Number.isFinite(x) && Number.isFinite(y)) {
+      try {
+        lonLat = tr.forward(x, y) as [number, number];
+      } catch {
+        // proj4 throws for some points outside a projection's domain: treated as off the Earth below
+      }
+    }
+    const [lon, lat] = lonLat;
+    if (!(Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lon) <= 360 && Math.abs(lat) <= 90)) {
+      throw new TerrainError('no-georeference',
+        `The GeoTIFF's georeference puts its corner (pixel ${c}, ${r}) at ${x}, ${y} in ${crs.name}, which is not a place on Earth ` +
+        `(origin ${t[0]}, ${t[3]}; pixel size ${t[1]} x ${t[5]}); fix the tie point and pixel size in your GIS and export it again.`);
+    }
+  }
+}
+
 /** Parse the first image of a GeoTIFF into a header and the block layout of band 1. */
 export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
   if (bytes.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${bytes.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
@@ -142,6 +169,7 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   const pixelIsPoint = geoKeys?.GTRasterTypeGeoKey === 2;
   const transform = await geoTransformOf(fd as never, pixelIsPoint);
   const crs = crsFromGeoKeys(geoKeys);
+  checkPlacement(transform, crs, width, height);
   const tiled = image.isTiled as boolean;
   const blockWidth = image.getTileWidth();
   const blockHeight = image.getTileHeight();

@@ -1,6 +1,6 @@
 /** Turning a received upload into a site (or a clear refusal that leaves nothing behind), and deleting sites. */
 import type { Site } from '../../contracts/sites';
-import { siteUploadFieldsSchema } from '../../contracts/sites';
+import { siteSchema, siteUploadFieldsSchema } from '../../contracts/sites';
 import { TerrainError } from '../../terrain/errors';
 import type { TerrainRunner } from '../analysis/terrain-pool';
 import { inspectDemHeader } from '../analysis/terrain-tasks';
@@ -60,7 +60,7 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
         await storage.put(hillshadeKey, inspection.hillshade.png, { contentType: 'image/png' });
         const { png: _png, ...hillshade } = inspection.hillshade;
         const fileName = cleanFileName(file.originalname);
-        const row = await sites.insert({
+        const values = {
           id: siteId,
           teamId,
           projectId,
@@ -75,7 +75,15 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
           hillshadeKey,
           hillshade,
           createdBy: ctx.userId,
-        });
+        };
+        // the record must read back as a site before it is kept: a figure the API cannot send (an infinite
+        // bound, say) is refused now, instead of a saved site that fails every list
+        const readBack = siteSchema.safeParse(toSite({ ...values, planCount: 0, createdAt: new Date() } as Parameters<typeof toSite>[0]));
+        if (!readBack.success) {
+          const where = readBack.error.issues[0]?.path.join('.') ?? 'metadata';
+          throw new AppError(422, 'unreadable-grid', `The grid's description has a value Loftline cannot use (${where}); check the file's georeference and heights in your GIS and export it again.`, [{ path: 'file', message: `Unusable value at ${where}.` }]);
+        }
+        const row = await sites.insert(values);
         if (!row) {
           // the same file arrived twice at once: the other upload won the unique index
           const other = await sites.findBySha(teamId, projectId, file.sha256);

@@ -1,0 +1,71 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { site } from '../../db/schema';
+import { startTestServer, type TestServer } from '../support/test-server';
+import { setDoubles, TAG } from '../support/tiff-bytes';
+import { filesUnder, ownProject, uploadDem } from '../support/upload-helpers';
+
+const fixture = (name: string) => new Uint8Array(fs.readFileSync(path.join('tests/fixtures/dem', name)));
+
+const tmpRoot = fs.mkdtempSync(path.join(os.tmpdir(), 'loftline-upload-robust-'));
+const storageDir = path.join(tmpRoot, 'storage');
+let srv: TestServer;
+
+beforeAll(async () => {
+  srv = await startTestServer({ web: false, env: { STORAGE_DIR: storageDir, STORAGE_DRIVER: 'disk' } });
+});
+afterAll(async () => {
+  await srv?.stop();
+  fs.rmSync(tmpRoot, { recursive: true, force: true });
+});
+
+describe('uploads whose georeference is not a place on Earth', () => {
+  it('refuses a tie point of 1e308 with a pixel size of 1e300 with a 422 and keeps nothing', async () => {
+    const { c, teamId, base } = await ownProject(srv, 'georef-inf');
+    const bytes = fixture('utm-f32-strips.tif');
+    setDoubles(bytes, TAG.ModelTiepoint, [0, 0, 0, 1e308, 1e308, 0]);
+    setDoubles(bytes, TAG.ModelPixelScale, [1e300, 1e300, 0]);
+    const r = await uploadDem(c, base, bytes);
+    expect(r.status).toBe(422);
+    expect(r.body.error.code).toBe('no-georeference');
+    expect(r.body.error.message).toMatch(/not a place on Earth.*fix the tie point and pixel size/);
+    expect(filesUnder(path.join(storageDir, 'teams', teamId))).toEqual([]);
+    expect(filesUnder(path.join(storageDir, '.tmp'))).toEqual([]);
+    const list = await c.get(base);
+    expect(list.status).toBe(200);
+    expect(list.body.sites).toEqual([]);
+  });
+
+  it('refuses a geographic grid placed beyond the poles', async () => {
+    const { c, base } = await ownProject(srv, 'georef-pole');
+    const bytes = fixture('geo-f64-packbits.tif');
+    setDoubles(bytes, TAG.ModelTiepoint, [0, 0, 0, 10, 400, 0]);
+    const r = await uploadDem(c, base, bytes);
+    expect(r.status).toBe(422);
+    expect(r.body.error.code).toBe('no-georeference');
+  });
+});
+
+describe('a stored site whose record does not read back', () => {
+  it('is listed apart with a reason, the rest of the list still answers, and it can be deleted', async () => {
+    const { c, base } = await ownProject(srv, 'bad-row');
+    const good = await uploadDem(c, base, fixture('utm-f32-strips.tif'));
+    expect(good.status).toBe(201);
+    const other = await uploadDem(c, base, fixture('lzw-u16.tif'));
+    expect(other.status).toBe(201);
+    // what an infinite bound becomes in a jsonb column (JSON has no Infinity): null
+    const [row] = await srv.db.select().from(site).where(eq(site.id, other.body.id));
+    const metadata = row.metadata as { bounds: unknown[] };
+    await srv.db.update(site).set({ metadata: { ...metadata, bounds: [null, null, null, null] } }).where(eq(site.id, other.body.id));
+
+    const list = await c.get(base);
+    expect(list.status).toBe(200);
+    expect(list.body.sites.map((s: { id: string }) => s.id)).toEqual([good.body.id]);
+    expect(list.body.unreadable).toEqual([expect.objectContaining({ id: other.body.id, problem: expect.stringMatching(/delete it and upload the file again/) })]);
+    expect((await c.delete(`${base}/${other.body.id}`)).status).toBe(204);
+    expect((await c.get(base)).body.unreadable).toEqual([]);
+  });
+});
