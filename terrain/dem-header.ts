@@ -4,7 +4,7 @@ import { pixelToMap, type GeoTransform, type GridCrs, type LengthUnit } from './
 import { createTransform, WGS84 } from './crs';
 import { TerrainError } from './errors';
 import { crsFromGeoKeys, type GeoKeys, verticalDatumFromGeoKeys, verticalUnitFromGeoKeys } from './geokeys';
-import { COMPRESSION_NAMES, type SampleType } from './dem-decoders';
+import { COMPRESSION_NAMES, sampleBytes, type SampleType } from './dem-decoders';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -106,6 +106,26 @@ async function geoTransformOf(fd: { loadValue(t: string): Promise<unknown> }, pi
 }
 
 /**
+ * Most decoded bytes a file may declare per stored byte. DEFLATE cannot pack more than about 1032 to 1 (RFC 1951:
+ * a 258-byte match costs at least 2 bits), and real elevation grids pack 2-10 to 1; 1100 leaves DEFLATE's
+ * ceiling in. A 9.5 KB file that declared 16384 x 16384 float32 samples (1 GiB) used to be decoded.
+ */
+export const MAX_DECLARED_BYTES_PER_FILE_BYTE = 1100;
+
+/** Refuse a grid whose declared samples could not come out of a file of `fileBytes`. */
+function checkDeclaredSize(width: number, height: number, bands: number, bytesPerSample: number, fileBytes: number): void {
+  if (!(Number.isInteger(width) && Number.isInteger(height) && width > 0 && height > 0)) {
+    throw new TerrainError('truncated', `The TIFF declares a ${width} x ${height} grid; the file is damaged, so export it again.`);
+  }
+  const declared = width * height * bands * bytesPerSample;
+  if (declared > fileBytes * MAX_DECLARED_BYTES_PER_FILE_BYTE) {
+    throw new TerrainError('too-large',
+      `The GeoTIFF declares ${width} x ${height} pixels (${Math.round(declared / 2 ** 20)} MiB of samples) in a file of ${fileBytes} bytes, ` +
+      `more than any supported compression can hold (at most ${MAX_DECLARED_BYTES_PER_FILE_BYTE} bytes per stored byte); the file is damaged or not a real grid, so export it again.`);
+  }
+}
+
+/**
  * Refuse a georeference that puts the grid nowhere on Earth: each corner must have finite coordinates and map to
  * a longitude within ±360° and a latitude within ±90°. (A tie point of 1e308 with a pixel size of 1e300 used to
  * pass, and every later figure of the site was infinite.)
@@ -159,6 +179,7 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   if (!sampleType) {
     throw new TerrainError('unsupported', `The GeoTIFF stores ${image.getBitsPerSample(0)}-bit samples of format ${image.getSampleFormat(0)}; Loftline reads 8/16/32-bit integers and 32/64-bit floats (gdal_translate -ot Float32).`);
   }
+  checkDeclaredSize(width, height, bands, sampleBytes(sampleType), bytes.byteLength);
   const compressionCode = ((await fd.loadValue('Compression')) as number | undefined) ?? 1;
   if (!(compressionCode in COMPRESSION_NAMES)) {
     throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);

@@ -159,7 +159,7 @@ export const siteRouteGroup: RouteGroup = (api, { guards, services }) => {
     guards,
     projects: createProjectsRepository({ db: services.db }),
     sites,
-    usecases: createSitesUsecases({ sites, storage, terrain: terrainOf(services) }),
+    usecases: createSitesUsecases({ sites, storage, terrain: terrainOf(services), maxPixels: services.config.env.DEM_MAX_PIXELS }),
     storage,
     uploadLimitBytes: services.config.uploadLimitBytes,
   });

@@ -2,7 +2,7 @@
 import type { Site } from '../../contracts/sites';
 import { siteSchema, siteUploadFieldsSchema } from '../../contracts/sites';
 import { TerrainError } from '../../terrain/errors';
-import type { TerrainRunner } from '../analysis/terrain-pool';
+import { TerrainTimeoutError, type TerrainRunner } from '../analysis/terrain-pool';
 import { inspectDemHeader } from '../analysis/terrain-tasks';
 import { AppError, errors } from '../http/errors';
 import { parseInput } from '../http/validate';
@@ -19,6 +19,10 @@ export const siteKeys = {
 /** The engine's reason as a 422 (error code = TerrainError code). */
 function refusal(err: unknown): unknown {
   if (err instanceof TerrainError) return new AppError(422, err.code, err.message, [{ path: 'file', message: err.message }]);
+  if (err instanceof TerrainTimeoutError) {
+    const message = `Reading the grid took longer than this server allows (${Math.round(err.limitMs / 1000)} s, TERRAIN_TASK_SECONDS) and was stopped; nothing was kept. Crop or resample the DEM (gdal_translate -projwin / -tr) and upload it again.`;
+    return new AppError(422, 'too-slow', message, [{ path: 'file', message }]);
+  }
   return err;
 }
 
@@ -30,8 +34,8 @@ export function cleanFileName(name: string | undefined): string {
 
 export type UploadOutcome = { site: Site } | { duplicateOf: string };
 
-export function createSitesUsecases(deps: { sites: SitesRepository; storage: Storage; terrain: TerrainRunner; log?: (err: unknown) => void }) {
-  const { sites, storage, terrain } = deps;
+export function createSitesUsecases(deps: { sites: SitesRepository; storage: Storage; terrain: TerrainRunner; maxPixels?: number; log?: (err: unknown) => void }) {
+  const { sites, storage, terrain, maxPixels } = deps;
   const log = deps.log ?? ((err: unknown) => console.error(err));
 
   return {
@@ -47,14 +51,14 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
         const dup = await sites.findBySha(teamId, projectId, file.sha256);
         if (dup) return { duplicateOf: dup.id };
         const bytes = await storage.getBytes(file.storageKey);
-        const header = await inspectDemHeader(bytes).catch((e) => { throw refusal(e); });
+        const header = await inspectDemHeader(bytes, { maxPixels }).catch((e) => { throw refusal(e); });
         const verticalDatum = fields.verticalDatum ?? header.declaredVerticalDatum?.name;
         if (!verticalDatum) {
           throw errors.invalid('State the vertical datum of the heights: the file does not declare one.', [
             { path: 'verticalDatum', message: 'The GeoTIFF declares no vertical datum; state it (for example "EGM96" or a national height datum).' },
           ]);
         }
-        const inspection = await terrain.inspect(bytes).catch((e) => { throw refusal(e); });
+        const inspection = await terrain.inspect(bytes, { maxPixels }).catch((e) => { throw refusal(e); });
         const hillshadeKey = siteKeys.hillshade(teamId, siteId);
         leftovers.push(hillshadeKey);
         await storage.put(hillshadeKey, inspection.hillshade.png, { contentType: 'image/png' });

@@ -5,7 +5,8 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { site } from '../../db/schema';
 import { startTestServer, type TestServer } from '../support/test-server';
-import { setDoubles, TAG } from '../support/tiff-bytes';
+import { deflateSync } from 'node:zlib';
+import { setDoubles, setInt, TAG } from '../support/tiff-bytes';
 import { filesUnder, ownProject, uploadDem } from '../support/upload-helpers';
 
 const fixture = (name: string) => new Uint8Array(fs.readFileSync(path.join('tests/fixtures/dem', name)));
@@ -67,5 +68,53 @@ describe('a stored site whose record does not read back', () => {
     expect(list.body.unreadable).toEqual([expect.objectContaining({ id: other.body.id, problem: expect.stringMatching(/delete it and upload the file again/) })]);
     expect((await c.delete(`${base}/${other.body.id}`)).status).toBe(204);
     expect((await c.get(base)).body.unreadable).toEqual([]);
+  });
+});
+
+describe('small files that declare a huge cost', () => {
+  it('refuses a 612-byte file declaring 16384 x 16384 float32 samples before decoding anything', async () => {
+    const { c, teamId, base } = await ownProject(srv, 'declared-huge');
+    const bytes = fixture('utm-f32-strips.tif');
+    setInt(bytes, TAG.ImageWidth, 16384);
+    setInt(bytes, TAG.ImageLength, 16384);
+    setInt(bytes, TAG.RowsPerStrip, 16384);
+    const t0 = performance.now();
+    const r = await uploadDem(c, base, bytes);
+    console.info(`16384 x 16384 declared in ${bytes.length} bytes: refused in ${(performance.now() - t0).toFixed(0)} ms`);
+    expect(r.status).toBe(422);
+    expect(r.body.error.code).toBe('too-large');
+    expect(r.body.error.message).toMatch(/declares 16384 x 16384 pixels \(1024 MiB of samples\) in a file of 612 bytes/);
+    expect(filesUnder(path.join(storageDir, 'teams', teamId))).toEqual([]);
+  });
+
+  it('refuses a block that inflates far past its declared size, without inflating it all', async () => {
+    const { c, teamId, base } = await ownProject(srv, 'inflate-bomb');
+    const valid = fixture('tiled-deflate-fp.tif');
+    // tile 0 (16 x 16 float32 = 1 KiB declared) replaced by 16 MiB of zeros, DEFLATE-packed to about 16 KB
+    const bomb = deflateSync(Buffer.alloc(16 * 2 ** 20));
+    const bytes = new Uint8Array(valid.length + bomb.length);
+    bytes.set(valid);
+    bytes.set(bomb, valid.length);
+    setInt(bytes, TAG.TileOffsets, valid.length, 0);
+    setInt(bytes, TAG.TileByteCounts, bomb.length, 0);
+    const r = await uploadDem(c, base, bytes);
+    expect(r.status).toBe(422);
+    expect(r.body.error.code).toBe('truncated');
+    expect(r.body.error.message).toMatch(/inflates far past its declared 1024 bytes/);
+    expect(filesUnder(path.join(storageDir, 'teams', teamId))).toEqual([]);
+  });
+
+  it('refuses a grid above DEM_MAX_PIXELS, naming the limit', async () => {
+    const small = await startTestServer({ web: false, env: { STORAGE_DIR: path.join(tmpRoot, 'small'), STORAGE_DRIVER: 'disk', DEM_MAX_PIXELS: '50' } });
+    try {
+      const { c, base } = await ownProject(small, 'max-pixels');
+      const r = await uploadDem(c, base, fixture('utm-f32-strips.tif')); // 9 x 7 = 63 pixels
+      expect(r.status).toBe(422);
+      expect(r.body.error.code).toBe('too-large');
+      expect(r.body.error.message).toMatch(/9 x 7 = 63 pixels, above this server's limit of 50 \(DEM_MAX_PIXELS\)/);
+      expect((await c.get(base)).body.sites).toEqual([]);
+    } finally {
+      await small.stop();
+    }
   });
 });
