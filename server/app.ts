@@ -9,6 +9,7 @@ import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
+import { refuseNulInBody, refuseNulInPath } from './http/text-guard';
 import type { RouteGroup } from './routes';
 import type { Services } from './services';
 import { createTeamsRepository } from './teams/teams.repository';
@@ -47,8 +48,10 @@ export function createApp(deps: AppDeps) {
 
   const guards = createGuards({ auth, db });
   const api = express.Router();
+  api.use(refuseNulInPath);
   api.use(requireJsonBody);
   api.use(express.json({ limit: config.jsonLimit }));
+  api.use(refuseNulInBody);
   registerHealthRoutes(api, { guards, db });
   registerTeamRoutes(api, { guards, teams: createTeamsRepository({ db }) });
   const services: Services = deps.services ?? { db, auth, config };

@@ -151,6 +151,15 @@ function checkPlacement(t: GeoTransform, crs: GridCrs, width: number, height: nu
   }
 }
 
+/** Load one of the block tables; a table that lies (partly) past the end of the file is named in the refusal. */
+async function loadTable(fd: { loadValue(t: string): Promise<unknown> }, tag: string, fileBytes: number): Promise<unknown> {
+  try {
+    return await fd.loadValue(tag);
+  } catch (err) {
+    throw new TerrainError('truncated', `The TIFF's ${tag} table cannot be read (${(err as Error).message}); it points past the end of the ${fileBytes}-byte file or is damaged, so export the file again.`);
+  }
+}
+
 /** Parse the first image of a GeoTIFF into a header and the block layout of band 1. */
 export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
   if (bytes.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${bytes.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
@@ -196,8 +205,8 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   const blockHeight = image.getTileHeight();
   const blocksAcross = Math.ceil(width / blockWidth);
   const blocksDown = Math.ceil(height / blockHeight);
-  const offsets = (await fd.loadValue(tiled ? 'TileOffsets' : 'StripOffsets')) as ArrayLike<number>;
-  const byteCounts = (await fd.loadValue(tiled ? 'TileByteCounts' : 'StripByteCounts')) as ArrayLike<number>;
+  const offsets = (await loadTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', bytes.byteLength)) as ArrayLike<number>;
+  const byteCounts = (await loadTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', bytes.byteLength)) as ArrayLike<number>;
   const nBlocks = blocksAcross * blocksDown;
   if (!offsets || !byteCounts || offsets.length < nBlocks || byteCounts.length < nBlocks) {
     throw new TerrainError('truncated', `The TIFF lists ${offsets?.length ?? 0} data blocks where ${nBlocks} are needed; the file is damaged, so export it again.`);

@@ -5,6 +5,7 @@ import { TerrainError } from '../../terrain/errors';
 import { TerrainTimeoutError, type TerrainRunner } from '../analysis/terrain-pool';
 import { inspectDemHeader } from '../analysis/terrain-tasks';
 import { AppError, errors } from '../http/errors';
+import { nulProblem } from '../http/text-guard';
 import { parseInput } from '../http/validate';
 import type { Storage } from '../storage/storage';
 import type { ReceivedFile } from './site-upload';
@@ -47,6 +48,8 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
       const { teamId, projectId, siteId, file } = ctx;
       const leftovers = [file.storageKey];
       try {
+        const nul = nulProblem(ctx.body);
+        if (nul) throw nul;
         const fields = parseInput(siteUploadFieldsSchema, ctx.body);
         const dup = await sites.findBySha(teamId, projectId, file.sha256);
         if (dup) return { duplicateOf: dup.id };

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { site } from '../../db/schema';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { deflateSync } from 'node:zlib';
-import { setDoubles, setInt, TAG } from '../support/tiff-bytes';
+import { setDoubles, setInt, setValuesPointer, TAG } from '../support/tiff-bytes';
 import { filesUnder, ownProject, uploadDem } from '../support/upload-helpers';
 
 const fixture = (name: string) => new Uint8Array(fs.readFileSync(path.join('tests/fixtures/dem', name)));
@@ -116,5 +116,30 @@ describe('small files that declare a huge cost', () => {
     } finally {
       await small.stop();
     }
+  });
+});
+
+describe('block tables past the end of the file', () => {
+  it.each([
+    ['TileOffsets', 'tiled-deflate-fp.tif', TAG.TileOffsets],
+    ['TileByteCounts', 'tiled-deflate-fp.tif', TAG.TileByteCounts],
+  ] as const)('refuses a %s table that lies past the end with a 422 naming it', async (name, file, tag) => {
+    const { c, teamId, base } = await ownProject(srv, `table-${name}`);
+    const bytes = fixture(file);
+    setValuesPointer(bytes, tag, bytes.length + 4096);
+    const r = await uploadDem(c, base, bytes);
+    expect(r.status).toBe(422);
+    expect(r.body.error.code).toBe('truncated');
+    expect(r.body.error.message).toContain(`${name} table`);
+    expect(filesUnder(path.join(storageDir, 'teams', teamId))).toEqual([]);
+  });
+
+  it('refuses tile offsets that point past the end, naming where the data would run to', async () => {
+    const { c, base } = await ownProject(srv, 'offset-past-end');
+    const bytes = fixture('tiled-deflate-fp.tif');
+    setInt(bytes, TAG.TileOffsets, bytes.length + 10_000, 3);
+    const r = await uploadDem(c, base, bytes);
+    expect(r.status).toBe(422);
+    expect(r.body.error.message).toMatch(/data runs to byte \d+ but the file has \d+ bytes/);
   });
 });

@@ -92,3 +92,9 @@ export function getInts(b: Uint8Array, tag: number): number[] {
   const v = view(b);
   return Array.from({ length: e.count }, (_, k) => (e.type === 3 ? v.getUint16(e.valuesAt + 2 * k, littleEndian(b)) : v.getUint32(e.valuesAt + 4 * k, littleEndian(b))));
 }
+
+/** Point an entry whose values do not fit in the entry at another place in the file (e.g. past its end). */
+export function setValuesPointer(b: Uint8Array, tag: number, offset: number): void {
+  const e = entry(b, tag);
+  view(b).setUint32(e.entryAt + 8, offset >>> 0, littleEndian(b));
+}
