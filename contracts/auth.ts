@@ -1,10 +1,11 @@
 /** Shapes of the sign-in and sign-up forms, and the password rules the server's auth config must match. */
 import { z } from 'zod';
+import { userText } from './text';
 
 /** Password length rules (the server passes these to better-auth as minPasswordLength / maxPasswordLength). */
 export const passwordRules = { minLength: 10, maxLength: 128 } as const;
 
-const email = z.string().trim().min(1, 'Enter your e-mail address.').email('Enter an e-mail address like name@example.com.');
+const email = userText().trim().min(1, 'Enter your e-mail address.').email('Enter an e-mail address like name@example.com.');
 
 /** Sign-in checks only that both fields are filled: the rules for new passwords do not apply to existing ones. */
 export const signInSchema = z.object({
@@ -14,7 +15,7 @@ export const signInSchema = z.object({
 export type SignIn = z.infer<typeof signInSchema>;
 
 export const signUpSchema = z.object({
-  name: z.string().trim().min(1, 'Enter your name.').max(120, 'Keep the name under 120 characters.'),
+  name: userText().trim().min(1, 'Enter your name.').max(120, 'Keep the name under 120 characters.'),
   email,
   password: z
     .string()

@@ -1,9 +1,10 @@
 /** Team invitations: an owner invites an address with a role; the link works once, for that address, until it expires. */
 import { z } from 'zod';
+import { userText } from './text';
 import { roleSchema } from './roles';
 
 export const createInvitationSchema = z.object({
-  email: z.string().trim().toLowerCase().min(1, 'Enter the e-mail address to invite.').email('Enter an e-mail address like name@example.com.'),
+  email: userText().trim().toLowerCase().min(1, 'Enter the e-mail address to invite.').email('Enter an e-mail address like name@example.com.'),
   role: roleSchema,
 });
 export type CreateInvitation = z.infer<typeof createInvitationSchema>;

@@ -43,54 +43,112 @@ export const cameraSchema = z
     }
   });
 
-/** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the terrain core's checks). */
-export const areaPolygonSchema = z
-  .object({
-    type: z.literal('Polygon', { error: 'area.type must be "Polygon".' }),
-    coordinates: z.array(z.array(z.array(z.number()).min(2)).min(4, { error: 'An area ring needs at least 4 positions (3 corners and the closing one).' })).min(1),
-  })
-  .superRefine((a, ctx) => {
-    try {
-      checkArea(a);
-    } catch (err) {
-      ctx.addIssue({ code: 'custom', message: (err as Error).message });
+/**
+ * Most corners a survey area may have, over all its rings (closing positions not counted). Drawn and imported
+ * survey outlines have tens to hundreds of corners; 2,000 leaves room for a traced boundary while keeping every
+ * geometry check of a plan within milliseconds. The schema and its message both use this one figure.
+ */
+export const MAX_AREA_CORNERS = 2000;
+
+/** The message for an area with more than MAX_AREA_CORNERS corners. */
+export function tooManyCornersMessage(corners: number): string {
+  return `The survey area has ${thousands(corners)} corners; the limit is ${thousands(MAX_AREA_CORNERS)}. Simplify the outline (for example with a tolerance of a metre) or split it into several plans.`;
+}
+
+/** 12345 -> "12,345" (toLocaleString loads ICU data on first use: a tenth of a second on a busy server). */
+function thousands(n: number): string {
+  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+}
+
+/** What is wrong with a Polygon's `coordinates` (rings of at least 4 [lon, lat] positions), or null. */
+function ringsProblem(v: unknown): string | null {
+  if (!Array.isArray(v) || v.length === 0) return 'area.coordinates must be a list of rings, the outer ring first.';
+  for (let r = 0; r < v.length; r++) {
+    const ring: unknown = v[r];
+    if (!Array.isArray(ring) || ring.length < 4) return 'An area ring needs at least 4 positions (3 corners and the closing one).';
+    for (let i = 0; i < ring.length; i++) {
+      const p: unknown = ring[i];
+      if (!Array.isArray(p) || p.length < 2 || !p.every((x) => typeof x === 'number' && Number.isFinite(x))) {
+        return `area ring ${r} position ${i} must be [lon, lat] numbers.`;
+      }
     }
-  });
+  }
+  return null;
+}
+
+/**
+ * Polygon coordinates, checked by one plain loop: zod's nested arrays cost about 35 µs per position here, which
+ * made a 10,000-corner outline hold the server for a quarter of a second before any limit applied.
+ */
+const ringsSchema = z.custom<number[][][]>().superRefine((v, ctx) => {
+  const problem = ringsProblem(v);
+  if (problem) ctx.addIssue({ code: 'custom', message: problem });
+});
+
+/** The GeoJSON Polygon shape of a survey area, without the geometry checks (for areas already checked when saved). */
+export const areaPolygonShapeSchema = z.object({
+  type: z.literal('Polygon', { error: 'area.type must be "Polygon".' }),
+  coordinates: ringsSchema,
+});
+
+/** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the terrain core's checks). */
+export const areaPolygonSchema = areaPolygonShapeSchema.superRefine((a, ctx) => {
+  // count the corners before the geometry check: an oversized outline is refused at the cost of one loop
+  const corners = a.coordinates.reduce((n, ring) => n + Math.max(0, ring.length - 1), 0);
+  if (corners > MAX_AREA_CORNERS) {
+    ctx.addIssue({ code: 'custom', message: tooManyCornersMessage(corners) });
+    return;
+  }
+  try {
+    checkArea(a);
+  } catch (err) {
+    ctx.addIssue({ code: 'custom', message: (err as Error).message });
+  }
+});
 
 export const lonLatSchema = z.object({ lon: z.number().gte(-180).lte(180), lat: z.number().gte(-90).lte(90) });
 
+/** The mission's fields; `area` is given by the two schemas below. */
+const missionFields = z.object({
+  area: areaPolygonShapeSchema,
+  camera: cameraSchema,
+  targetGsdCm: ranged('targetGsdCm', R.targetGsdCm),
+  gsdTolerance: ranged('gsdTolerance', R.gsdTolerance).default(D.gsdTolerance),
+  forwardOverlap: ranged('forwardOverlap', R.forwardOverlap).default(D.forwardOverlap),
+  sideOverlap: ranged('sideOverlap', R.sideOverlap).default(D.sideOverlap),
+  headingDeg: z.union([ranged('headingDeg', R.headingDeg), z.literal('advise')]).default(D.headingDeg),
+  mode: altitudeModeSchema.default(D.mode),
+  clearanceM: ranged('clearanceM', R.clearanceM).default(D.clearanceM),
+  obstacleAllowanceM: ranged('obstacleAllowanceM', R.obstacleAllowanceM).default(D.obstacleAllowanceM),
+  maxAglM: ranged('maxAglM', R.maxAglM).default(D.maxAglM),
+  speedMps: ranged('speedMps', R.speedMps).default(D.speedMps),
+  climbMps: ranged('climbMps', R.climbMps).default(D.climbMps),
+  descentMps: ranged('descentMps', R.descentMps).default(D.descentMps),
+  takeoff: lonLatSchema,
+  minLegLengthM: ranged('minLegLengthM', R.minLegLengthM).default(D.minLegLengthM),
+  maxLegsPerLine: ranged('maxLegsPerLine', R.maxLegsPerLine).default(D.maxLegsPerLine),
+  altitudeRoundingM: ranged('altitudeRoundingM', R.altitudeRoundingM).default(D.altitudeRoundingM),
+  runInM: ranged('runInM', R.runInM).default(D.runInM),
+  enduranceMin: ranged('enduranceMin', R.enduranceMin).default(D.enduranceMin),
+  batteryReserve: ranged('batteryReserve', R.batteryReserve).default(D.batteryReserve),
+  turnTimeS: ranged('turnTimeS', R.turnTimeS).default(D.turnTimeS),
+  stationStepM: ranged('stationStepM', R.stationStepM).nullable().default(D.stationStepM),
+});
+
 /** The mission: required area, camera, target GSD and takeoff; everything else has a default. */
-export const missionSchema = z
-  .object({
-    area: areaPolygonSchema,
-    camera: cameraSchema,
-    targetGsdCm: ranged('targetGsdCm', R.targetGsdCm),
-    gsdTolerance: ranged('gsdTolerance', R.gsdTolerance).default(D.gsdTolerance),
-    forwardOverlap: ranged('forwardOverlap', R.forwardOverlap).default(D.forwardOverlap),
-    sideOverlap: ranged('sideOverlap', R.sideOverlap).default(D.sideOverlap),
-    headingDeg: z.union([ranged('headingDeg', R.headingDeg), z.literal('advise')]).default(D.headingDeg),
-    mode: altitudeModeSchema.default(D.mode),
-    clearanceM: ranged('clearanceM', R.clearanceM).default(D.clearanceM),
-    obstacleAllowanceM: ranged('obstacleAllowanceM', R.obstacleAllowanceM).default(D.obstacleAllowanceM),
-    maxAglM: ranged('maxAglM', R.maxAglM).default(D.maxAglM),
-    speedMps: ranged('speedMps', R.speedMps).default(D.speedMps),
-    climbMps: ranged('climbMps', R.climbMps).default(D.climbMps),
-    descentMps: ranged('descentMps', R.descentMps).default(D.descentMps),
-    takeoff: lonLatSchema,
-    minLegLengthM: ranged('minLegLengthM', R.minLegLengthM).default(D.minLegLengthM),
-    maxLegsPerLine: ranged('maxLegsPerLine', R.maxLegsPerLine).default(D.maxLegsPerLine),
-    altitudeRoundingM: ranged('altitudeRoundingM', R.altitudeRoundingM).default(D.altitudeRoundingM),
-    runInM: ranged('runInM', R.runInM).default(D.runInM),
-    enduranceMin: ranged('enduranceMin', R.enduranceMin).default(D.enduranceMin),
-    batteryReserve: ranged('batteryReserve', R.batteryReserve).default(D.batteryReserve),
-    turnTimeS: ranged('turnTimeS', R.turnTimeS).default(D.turnTimeS),
-    stationStepM: ranged('stationStepM', R.stationStepM).nullable().default(D.stationStepM),
-  })
+export const missionSchema = missionFields
+  .extend({ area: areaPolygonSchema })
   .superRefine((m, ctx) => {
     if (m.clearanceM + m.obstacleAllowanceM >= m.maxAglM) {
       ctx.addIssue({ code: 'custom', path: ['clearanceM'], message: `clearance plus obstacle allowance (${m.clearanceM + m.obstacleAllowanceM} m) must be below the maximum height above ground (${m.maxAglM} m).` });
     }
   });
+
+/**
+ * A mission as Loftline stored it (every check and default already applied when it was saved): read back in
+ * responses without the area's geometry checks, so listing plans never repeats them.
+ */
+export const storedMissionSchema = missionFields;
 
 /** A mission as a user writes it (optional fields may be left out). */
 export type MissionInput = z.input<typeof missionSchema>;

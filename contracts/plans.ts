@@ -1,10 +1,11 @@
 /** Shapes of plans (what to fly over a site), their immutable versions and analysis runs. */
 import { z } from 'zod';
-import { missionSchema } from './mission';
+import { userText } from './text';
+import { missionSchema, storedMissionSchema } from './mission';
 import { planResultSchema } from './plan-result';
 import { reviewStateSchema } from './reviews';
 
-const planName = z.string().trim().min(1, 'Give the plan a name.').max(120, 'Keep the plan name under 120 characters.');
+const planName = userText().trim().min(1, 'Give the plan a name.').max(120, 'Keep the plan name under 120 characters.');
 
 /** POST /teams/:teamId/projects/:projectId/plans: a name, the site to fly over and the mission. */
 export const createPlanSchema = z.object({
@@ -62,7 +63,7 @@ export type VersionSummary = z.infer<typeof versionSummarySchema>;
 
 /** One version with the mission it snapshotted and, once done, the analysis result. */
 export const planVersionSchema = versionSummarySchema.extend({
-  input: missionSchema,
+  input: storedMissionSchema,
   result: planResultSchema.nullable(),
 });
 export type PlanVersion = z.infer<typeof planVersionSchema>;
@@ -76,8 +77,8 @@ export const planSchema = z.object({
   projectId: z.string().uuid(),
   siteId: z.string().uuid(),
   name: z.string(),
-  /** The mission as last saved, with every default filled in. */
-  input: missionSchema,
+  /** The mission as last saved, with every default filled in (checked when saved, not again on each read). */
+  input: storedMissionSchema,
   createdAt: z.string(),
   updatedAt: z.string(),
   versionCount: z.number().int(),

@@ -1,5 +1,6 @@
 /** Shapes of sites: an uploaded elevation grid (GeoTIFF DEM) of a project, its metadata and hillshade preview. */
 import { z } from 'zod';
+import { userText } from './text';
 import type { GridMetadata } from '../terrain/metadata';
 import { apiErrorSchema } from './errors';
 
@@ -19,9 +20,9 @@ export const surfaceKindLabels: Record<SurfaceKind, string> = {
  * `verticalDatum` may be left out when the GeoTIFF declares one (its GeoKeys); otherwise the planner must state it.
  */
 export const siteUploadFieldsSchema = z.object({
-  name: z.string().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
+  name: userText().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
   surfaceKind: surfaceKindSchema,
-  verticalDatum: z.string().trim().min(1, 'State the vertical datum of the heights (for example "EGM96").').max(80, 'Keep the datum under 80 characters.').optional(),
+  verticalDatum: userText().trim().min(1, 'State the vertical datum of the heights (for example "EGM96").').max(80, 'Keep the datum under 80 characters.').optional(),
 });
 export type SiteUploadFields = z.infer<typeof siteUploadFieldsSchema>;
 
@@ -30,9 +31,9 @@ export const siteFileField = 'file';
 
 export const siteUpdateSchema = z
   .object({
-    name: z.string().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
+    name: userText().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
     surfaceKind: surfaceKindSchema.optional(),
-    verticalDatum: z.string().trim().min(1, 'State the vertical datum of the heights.').max(80, 'Keep the datum under 80 characters.').optional(),
+    verticalDatum: userText().trim().min(1, 'State the vertical datum of the heights.').max(80, 'Keep the datum under 80 characters.').optional(),
   })
   .strict()
   .refine((v) => Object.keys(v).length > 0, { message: 'Send at least one field to change.' });
@@ -99,7 +100,20 @@ export const siteSchema = z.object({
 });
 export type Site = z.infer<typeof siteSchema>;
 
-export const siteListSchema = z.object({ sites: z.array(siteSchema) });
+/**
+ * A stored site whose record no longer reads as a site (for example metadata written before a check existed):
+ * listed apart so the list still answers and the site can be deleted.
+ */
+export const unreadableSiteSchema = z.object({
+  id: z.string().uuid(),
+  name: z.string(),
+  fileName: z.string(),
+  createdAt: z.string(),
+  problem: z.string(),
+});
+export type UnreadableSite = z.infer<typeof unreadableSiteSchema>;
+
+export const siteListSchema = z.object({ sites: z.array(siteSchema), unreadable: z.array(unreadableSiteSchema).default([]) });
 export type SiteList = z.infer<typeof siteListSchema>;
 
 /** 409 body when the same file (same SHA-256) is already a site of the project. */
@@ -108,5 +122,5 @@ export const duplicateSiteErrorSchema = apiErrorSchema.extend({
 });
 export type DuplicateSiteError = z.infer<typeof duplicateSiteErrorSchema>;
 
-/** Terrain engine reasons a file is refused with 422 (TerrainError codes). */
-export const demRefusalCodes = ['not-tiff', 'truncated', 'unsupported', 'no-georeference', 'unknown-crs', 'too-large', 'all-nodata'] as const;
+/** Reasons a file is refused with 422: the terrain engine's (TerrainError codes), a read that ran out of time, a description that does not read back. */
+export const demRefusalCodes = ['not-tiff', 'truncated', 'unsupported', 'no-georeference', 'unknown-crs', 'too-large', 'all-nodata', 'too-slow', 'unreadable-grid'] as const;

@@ -31,7 +31,39 @@ export function plainText(s: string): string {
   return s.replace(bidiControls, '').replace(controlChars, '').replace(invalidUnicode, '');
 }
 
-/** A field of user text: bidi controls removed as it is read (chain `.trim()`, `.min()`, `.max()` as the field needs). */
-export function userText() {
-  return z.string().overwrite(stripBidiControls);
+/**
+ * PostgreSQL cannot store the NUL character (U+0000) in text or JSON, so a NUL is refused at the boundary with a 422
+ * instead of failing in the database with a 500.
+ */
+export const NUL_MESSAGE = 'Text may not contain the NUL character (U+0000); remove it and send again.';
+
+/**
+ * A field of user text: a NUL is refused, bidi controls are removed as it is read (chain `.trim()`, `.min()`,
+ * `.max()` as the field needs).
+ */
+export function userText(params?: Parameters<typeof z.string>[0]) {
+  return z
+    .string(params)
+    .refine((s) => !s.includes('\u0000'), { message: NUL_MESSAGE })
+    .overwrite(stripBidiControls);
+}
+
+/** The path of the first string (value or key) holding a NUL in `value`, as "a.b.0.c", or null. */
+export function findNul(value: unknown, path: string[] = []): string | null {
+  if (typeof value === 'string') return value.includes('\u0000') ? path.join('.') || '(body)' : null;
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      const p = findNul(value[i], [...path, String(i)]);
+      if (p) return p;
+    }
+    return null;
+  }
+  if (value !== null && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) {
+      if (k.includes('\u0000')) return [...path, k.replace(/\u0000/g, '\\u0000')].join('.');
+      const p = findNul(v, [...path, k]);
+      if (p) return p;
+    }
+  }
+  return null;
 }

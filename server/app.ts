@@ -13,6 +13,7 @@ import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
 import { requireSameOrigin, trustedOriginsOf } from './http/origin';
 import { securityHeaders } from './http/security-headers';
+import { refuseNulInBody, refuseNulInPath } from './http/text-guard';
 import type { RouteGroup } from './routes';
 import type { Services } from './services';
 import { createTeamsRepository } from './teams/teams.repository';
@@ -71,8 +72,10 @@ export function createApp(deps: AppDeps) {
 
   const api = express.Router();
   api.use(requireSameOrigin(trustedOriginsOf(config.publicUrl))); // first: a cross-site request is refused unread
+  api.use(refuseNulInPath);
   api.use(requireJsonBody);
   api.use(express.json({ limit: config.jsonLimit }));
+  api.use(refuseNulInBody);
   registerHealthRoutes(api, { guards, db });
   registerTeamRoutes(api, { guards, teams: createTeamsRepository({ db }) });
   const services: Services = deps.services ?? { db, auth, config };

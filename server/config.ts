@@ -35,6 +35,10 @@ const envSchema = z.object({
   WORKERS: z.coerce.number().int().min(0).max(16).default(1),
   /** Worker threads for DEM decoding and analyses in this process; 0 runs them on the main thread. */
   TERRAIN_THREADS: z.coerce.number().int().min(0).max(16).default(1),
+  /** Largest elevation grid an upload may declare, in pixels (2^27 = 512 MiB of float32 heights). */
+  DEM_MAX_PIXELS: z.coerce.number().int().min(1).max(2 ** 30).default(2 ** 27),
+  /** Longest one terrain task (reading an upload, one analysis) may run before its thread is stopped and replaced. */
+  TERRAIN_TASK_SECONDS: z.coerce.number().positive().max(86_400).default(300),
   /** Retries of an analysis job that stopped without finishing (a crashed or killed worker). */
   ANALYSIS_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(3),
   /** An analysis job still active after this long is taken as lost and retried; keep it above the longest run. */

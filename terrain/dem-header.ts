@@ -1,9 +1,10 @@
 /** GeoTIFF header parsing for DEMs (TIFF 6.0, OGC GeoTIFF 1.1): size, layout, georeference, CRS, nodata, units. */
 import { GeoTIFF } from 'geotiff';
-import type { GeoTransform, GridCrs, LengthUnit } from './grid';
+import { pixelToMap, type GeoTransform, type GridCrs, type LengthUnit } from './grid';
+import { createTransform, WGS84 } from './crs';
 import { TerrainError } from './errors';
 import { crsFromGeoKeys, type GeoKeys, verticalDatumFromGeoKeys, verticalUnitFromGeoKeys } from './geokeys';
-import { COMPRESSION_NAMES, type SampleType } from './dem-decoders';
+import { COMPRESSION_NAMES, sampleBytes, type SampleType } from './dem-decoders';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -104,6 +105,61 @@ async function geoTransformOf(fd: { loadValue(t: string): Promise<unknown> }, pi
   return gt;
 }
 
+/**
+ * Most decoded bytes a file may declare per stored byte. DEFLATE cannot pack more than about 1032 to 1 (RFC 1951:
+ * a 258-byte match costs at least 2 bits), and real elevation grids pack 2-10 to 1; 1100 leaves DEFLATE's
+ * ceiling in. A 9.5 KB file that declared 16384 x 16384 float32 samples (1 GiB) used to be decoded.
+ */
+export const MAX_DECLARED_BYTES_PER_FILE_BYTE = 1100;
+
+/** Refuse a grid whose declared samples could not come out of a file of `fileBytes`. */
+function checkDeclaredSize(width: number, height: number, bands: number, bytesPerSample: number, fileBytes: number): void {
+  if (!(Number.isInteger(width) && Number.isInteger(height) && width > 0 && height > 0)) {
+    throw new TerrainError('truncated', `The TIFF declares a ${width} x ${height} grid; the file is damaged, so export it again.`);
+  }
+  const declared = width * height * bands * bytesPerSample;
+  if (declared > fileBytes * MAX_DECLARED_BYTES_PER_FILE_BYTE) {
+    throw new TerrainError('too-large',
+      `The GeoTIFF declares ${width} x ${height} pixels (${Math.round(declared / 2 ** 20)} MiB of samples) in a file of ${fileBytes} bytes, ` +
+      `more than any supported compression can hold (at most ${MAX_DECLARED_BYTES_PER_FILE_BYTE} bytes per stored byte); the file is damaged or not a real grid, so export it again.`);
+  }
+}
+
+/**
+ * Refuse a georeference that puts the grid nowhere on Earth: each corner must have finite coordinates and map to
+ * a longitude within ±360° and a latitude within ±90°. (A tie point of 1e308 with a pixel size of 1e300 used to
+ * pass, and every later figure of the site was infinite.)
+ */
+function checkPlacement(t: GeoTransform, crs: GridCrs, width: number, height: number): void {
+  const tr = createTransform(crs, WGS84);
+  for (const [c, r] of [[0, 0], [width, 0], [0, height], [width, height]]) {
+    const [x, y] = pixelToMap(t, c, r);
+    let lonLat: [number, number] = [NaN, NaN];
+    if (Number.isFinite(x) && Number.isFinite(y)) {
+      try {
+        lonLat = tr.forward(x, y) as [number, number];
+      } catch {
+        // proj4 throws for some points outside a projection's domain: treated as off the Earth below
+      }
+    }
+    const [lon, lat] = lonLat;
+    if (!(Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lon) <= 360 && Math.abs(lat) <= 90)) {
+      throw new TerrainError('no-georeference',
+        `The GeoTIFF's georeference puts its corner (pixel ${c}, ${r}) at ${x}, ${y} in ${crs.name}, which is not a place on Earth ` +
+        `(origin ${t[0]}, ${t[3]}; pixel size ${t[1]} x ${t[5]}); fix the tie point and pixel size in your GIS and export it again.`);
+    }
+  }
+}
+
+/** Load one of the block tables; a table that lies (partly) past the end of the file is named in the refusal. */
+async function loadTable(fd: { loadValue(t: string): Promise<unknown> }, tag: string, fileBytes: number): Promise<unknown> {
+  try {
+    return await fd.loadValue(tag);
+  } catch (err) {
+    throw new TerrainError('truncated', `The TIFF's ${tag} table cannot be read (${(err as Error).message}); it points past the end of the ${fileBytes}-byte file or is damaged, so export the file again.`);
+  }
+}
+
 /** Parse the first image of a GeoTIFF into a header and the block layout of band 1. */
 export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
   if (bytes.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${bytes.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
@@ -132,6 +188,7 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   if (!sampleType) {
     throw new TerrainError('unsupported', `The GeoTIFF stores ${image.getBitsPerSample(0)}-bit samples of format ${image.getSampleFormat(0)}; Loftline reads 8/16/32-bit integers and 32/64-bit floats (gdal_translate -ot Float32).`);
   }
+  checkDeclaredSize(width, height, bands, sampleBytes(sampleType), bytes.byteLength);
   const compressionCode = ((await fd.loadValue('Compression')) as number | undefined) ?? 1;
   if (!(compressionCode in COMPRESSION_NAMES)) {
     throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);
@@ -142,13 +199,14 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   const pixelIsPoint = geoKeys?.GTRasterTypeGeoKey === 2;
   const transform = await geoTransformOf(fd as never, pixelIsPoint);
   const crs = crsFromGeoKeys(geoKeys);
+  checkPlacement(transform, crs, width, height);
   const tiled = image.isTiled as boolean;
   const blockWidth = image.getTileWidth();
   const blockHeight = image.getTileHeight();
   const blocksAcross = Math.ceil(width / blockWidth);
   const blocksDown = Math.ceil(height / blockHeight);
-  const offsets = (await fd.loadValue(tiled ? 'TileOffsets' : 'StripOffsets')) as ArrayLike<number>;
-  const byteCounts = (await fd.loadValue(tiled ? 'TileByteCounts' : 'StripByteCounts')) as ArrayLike<number>;
+  const offsets = (await loadTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', bytes.byteLength)) as ArrayLike<number>;
+  const byteCounts = (await loadTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', bytes.byteLength)) as ArrayLike<number>;
   const nBlocks = blocksAcross * blocksDown;
   if (!offsets || !byteCounts || offsets.length < nBlocks || byteCounts.length < nBlocks) {
     throw new TerrainError('truncated', `The TIFF lists ${offsets?.length ?? 0} data blocks where ${nBlocks} are needed; the file is damaged, so export it again.`);

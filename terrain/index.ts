@@ -32,5 +32,6 @@ export { estimateMission } from './estimates';
 export type { Estimate, EstimateInput } from './estimates';
 export { resolveMission, checkArea, ringAreaM2, MISSION_DEFAULTS, MISSION_RANGES, MAX_AREA_KM2 } from './mission';
 export type { Mission, MissionInput, AreaPolygon, NumberRange } from './mission';
+export { findRingCrossing, type RingCrossing } from './ring-crossings';
 export { analysePlan, missionBboxWgs84, autoStepM } from './plan';
 export type { PlanResult, PlanLine, PlanLeg, PlanStation, PlanSummary, PlanPoint, PlanWarning, AnalyseOptions } from './plan';

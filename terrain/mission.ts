@@ -3,6 +3,7 @@ import type { Camera } from './camera';
 import { checkCamera } from './camera';
 import type { AltitudeMode } from './altitude';
 import { TerrainError, check } from './errors';
+import { findRingCrossing } from './ring-crossings';
 
 /** A GeoJSON Polygon in WGS 84 longitude/latitude (outer ring first, then holes; rings closed). */
 export interface AreaPolygon {
@@ -120,11 +121,6 @@ export function ringAreaM2(ring: number[][]): number {
   return Math.abs((s * R * R) / 2);
 }
 
-function segmentsCross(a: number[], b: number[], c: number[], d: number[]): boolean {
-  const o = (p: number[], q: number[], r: number[]) => Math.sign((q[0] - p[0]) * (r[1] - p[1]) - (q[1] - p[1]) * (r[0] - p[0]));
-  return o(a, b, c) * o(a, b, d) < 0 && o(c, d, a) * o(c, d, b) < 0;
-}
-
 /** Throw `invalid-input` unless `area` is a closed, simple WGS 84 polygon of sensible size. */
 export function checkArea(area: unknown): AreaPolygon {
   const a = area as AreaPolygon;
@@ -132,17 +128,22 @@ export function checkArea(area: unknown): AreaPolygon {
     `area must be a GeoJSON Polygon ({ "type": "Polygon", "coordinates": [[[lon, lat], …]] }), got ${JSON.stringify(area)?.slice(0, 80)}.`);
   a.coordinates.forEach((ring, r) => {
     check(Array.isArray(ring) && ring.length >= 4, `area ring ${r} needs at least 4 positions (3 corners and the closing one), got ${Array.isArray(ring) ? ring.length : typeof ring}.`);
-    ring.forEach((p, i) => check(Array.isArray(p) && p.length >= 2 && Number.isFinite(p[0]) && Number.isFinite(p[1]) && Math.abs(p[0]) <= 180 && p[1] > -80 && p[1] < 84,
-      `area ring ${r} position ${i} must be [lon, lat] with lon in -180..180 and lat in -80..84 (UTM range), got ${JSON.stringify(p)}.`));
+    ring.forEach((p, i) => {
+      // the message is built only on failure: building it per position cost more than the whole crossing check
+      if (!(Array.isArray(p) && p.length >= 2 && Number.isFinite(p[0]) && Number.isFinite(p[1]) && Math.abs(p[0]) <= 180 && p[1] > -80 && p[1] < 84)) {
+        check(false, `area ring ${r} position ${i} must be [lon, lat] with lon in -180..180 and lat in -80..84 (UTM range), got ${JSON.stringify(p)}.`);
+      }
+    });
     const f = ring[0], l = ring[ring.length - 1];
     check(f[0] === l[0] && f[1] === l[1], `area ring ${r} must be closed: its last position must repeat the first ${JSON.stringify(f)}, got ${JSON.stringify(l)}.`);
-    for (let i = 0; i + 1 < ring.length; i++) {
-      for (let j = i + 2; j + 1 < ring.length; j++) {
-        if (i === 0 && j + 2 === ring.length) continue; // the closing edge touches the first
-        check(!segmentsCross(ring[i], ring[i + 1], ring[j], ring[j + 1]), `area ring ${r} crosses itself (edges ${i} and ${j}); draw the polygon without crossings.`);
-      }
-    }
   });
+  const x = findRingCrossing(a.coordinates);
+  if (x) {
+    const near = `near lon ${x.at[0].toFixed(5)}, lat ${x.at[1].toFixed(5)}`;
+    check(false, x.ringA === x.ringB
+      ? `area ring ${x.ringA} crosses itself (edges ${x.edgeA} and ${x.edgeB}, ${near}); draw the polygon without crossings.`
+      : `area ring ${x.ringA} crosses ring ${x.ringB} (edge ${x.edgeA} and edge ${x.edgeB}, ${near}); draw the rings without crossings.`);
+  }
   const km2 = ringAreaM2(a.coordinates[0]) / 1e6;
   check(km2 > 1e-6, 'area encloses no ground (all corners on one line).');
   check(km2 <= MAX_AREA_KM2, `area is ${km2.toFixed(1)} km², more than the ${MAX_AREA_KM2} km² one plan takes; split it into several plans.`);

@@ -1,6 +1,6 @@
 /** Client-side checks of a survey area before it is sent: enough corners, inside the grid, not crossing itself. */
-import { kinks, polygon as turfPolygon } from '@turf/turf';
 import type { Polygon } from 'geojson';
+import { findRingCrossing } from '../../terrain/ring-crossings';
 import { onImage, type ImageGeoref } from './image-georef';
 
 /** A longitude/latitude pair in degrees (WGS 84). */
@@ -64,10 +64,9 @@ export function checkArea(ring: readonly LonLat[], georef: ImageGeoref): AreaPro
       }
     }
   }
-  const poly = turfPolygon(ringToPolygon(corners).coordinates);
-  const crossings = kinks(poly).features;
-  if (crossings.length > 0) {
-    const at = crossings[0].geometry.coordinates as [number, number];
+  const crossing = findRingCrossing(ringToPolygon(corners).coordinates);
+  if (crossing) {
+    const at = crossing.at;
     return { code: 'crosses-itself', message: `The area's outline crosses itself near ${fmt(at)}. Move or remove corners so that no two edges cross.` };
   }
   // Shoelace area in image pixels: a zero area means every corner lies on one line.

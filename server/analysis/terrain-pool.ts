@@ -1,7 +1,9 @@
 /**
  * Runs the heavy terrain tasks off the main thread, so decoding a large DEM or analysing a big plan never stalls
- * the API: a small pool of worker threads started on first use, one task per thread at a time. `threads: 0`
- * runs the tasks inline (seed scripts, debugging).
+ * the API: a small pool of worker threads started on first use, one task per thread at a time, the rest waiting
+ * in a queue. A task that runs past its time limit has its thread terminated (the only way to stop synchronous
+ * decoding) and replaced, and its caller gets a TerrainTimeoutError. `threads: 0` runs the tasks inline (seed
+ * scripts, debugging), without a time limit.
  */
 import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
@@ -10,7 +12,7 @@ import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
 import { analyseMission, inspectDem, type DemInspection } from './terrain-tasks';
 
 export type ThreadTask =
-  | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: { maxSizePx?: number } }
+  | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
   | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown };
 
 export type ThreadReply =
@@ -18,9 +20,24 @@ export type ThreadReply =
   | { id: number; ok: true; value: unknown }
   | { id: number; ok: false; error: { name: string; code?: string; message: string; stack?: string } };
 
+/** Options of an upload's inspection: preview size, pixel limit, and a time limit for this task alone. */
+export interface InspectOptions {
+  maxSizePx?: number;
+  maxPixels?: number;
+  timeoutMs?: number;
+}
+
+/** A terrain task stopped because it ran past its time limit. */
+export class TerrainTimeoutError extends Error {
+  constructor(readonly limitMs: number) {
+    super(`The terrain work took longer than ${limitMs >= 1000 ? `${Math.round(limitMs / 1000)} s` : `${limitMs} ms`} and was stopped.`);
+    this.name = 'TerrainTimeoutError';
+  }
+}
+
 /** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
 export interface TerrainRunner {
-  inspect(bytes: Uint8Array, opts?: { maxSizePx?: number }): Promise<DemInspection>;
+  inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
   analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void): Promise<PlanResult>;
   close(): Promise<void>;
 }
@@ -30,6 +47,7 @@ type NewTask = ThreadTask extends infer T ? (T extends ThreadTask ? Omit<T, 'id'
 
 interface Pending {
   task: ThreadTask;
+  timeoutMs?: number;
   resolve: (v: unknown) => void;
   reject: (e: Error) => void;
   onProgress?: (pct: number) => void;
@@ -38,6 +56,7 @@ interface Pending {
 interface Slot {
   worker: Worker;
   busy: Pending | null;
+  timer?: ReturnType<typeof setTimeout>;
 }
 
 const bootFile = fileURLToPath(new URL('./terrain-thread-boot.mjs', import.meta.url));
@@ -64,7 +83,7 @@ export function createInlineTerrainRunner(): TerrainRunner {
 }
 
 /** A pool of `threads` terrain threads (0: inline). */
-export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
+export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number }): TerrainRunner {
   if (opts.threads <= 0) return createInlineTerrainRunner();
   const slots: Slot[] = [];
   const queue: Pending[] = [];
@@ -80,6 +99,7 @@ export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
       if (!p || p.task.id !== m.id) return;
       if ('progress' in m) return p.onProgress?.(m.progress);
       slot.busy = null;
+      clearTimeout(slot.timer);
       worker.unref();
       if (m.ok) p.resolve(m.value);
       else p.reject(rebuildError(m.error));
@@ -90,6 +110,7 @@ export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
       if (i >= 0) slots.splice(i, 1);
       const p = slot.busy;
       slot.busy = null;
+      clearTimeout(slot.timer);
       p?.reject(new Error(`The terrain thread stopped while working (${err.message}).`));
       dispatch();
     };
@@ -97,6 +118,18 @@ export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
     worker.on('exit', (code) => fail(new Error(`exit code ${code}`)));
     slots.push(slot);
     return slot;
+  }
+
+  /** Stop a thread whose task ran too long: its caller hears why, a fresh thread takes the queue on. */
+  function expire(slot: Slot, limitMs: number): void {
+    const p = slot.busy;
+    if (!p) return;
+    slot.busy = null;
+    const i = slots.indexOf(slot);
+    if (i >= 0) slots.splice(i, 1);
+    p.reject(new TerrainTimeoutError(limitMs));
+    void slot.worker.terminate();
+    dispatch();
   }
 
   function dispatch(): void {
@@ -107,21 +140,23 @@ export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
       const p = queue.shift()!;
       slot.busy = p;
       slot.worker.ref();
+      const limitMs = p.timeoutMs ?? opts.taskTimeoutMs;
+      if (limitMs !== undefined) slot.timer = setTimeout(() => expire(slot, limitMs), limitMs);
       slot.worker.postMessage(p.task, [p.task.bytes.buffer as ArrayBuffer]);
     }
   }
 
-  function run<T>(task: NewTask, onProgress?: (pct: number) => void): Promise<T> {
+  function run<T>(task: NewTask, onProgress?: (pct: number) => void, timeoutMs?: number): Promise<T> {
     if (closed) return Promise.reject(new Error('The terrain pool is closed.'));
     const full = { ...task, id: nextId++, bytes: ownBuffer(task.bytes) } as ThreadTask;
     return new Promise<T>((resolve, reject) => {
-      queue.push({ task: full, resolve: resolve as (v: unknown) => void, reject, onProgress });
+      queue.push({ task: full, resolve: resolve as (v: unknown) => void, reject, onProgress, timeoutMs });
       dispatch();
     });
   }
 
   return {
-    inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o }),
+    inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
     analyse: (bytes, mission, onProgress) => run<PlanResult>({ kind: 'analyse', bytes, mission }, onProgress),
     async close() {
       closed = true;

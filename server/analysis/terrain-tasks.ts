@@ -6,15 +6,24 @@ import { inflateSync } from 'node:zlib';
 import type { DemFileInfo, HillshadeInfo } from '../../contracts/sites';
 import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, readDemHeader, TerrainError, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
 
-/** Largest grid an upload may decode whole (2^28 pixels = 1 GiB of float32), and the largest analysis window. */
+/** Largest analysis window (2^28 pixels = 1 GiB of float32); whole uploads are bounded by DEM_MAX_PIXELS. */
 export const MAX_DEM_PIXELS = 2 ** 28;
 
-/** node:zlib's inflate (about 4x faster than geotiff.js's); a block that will not inflate is reported as damaged data. */
+/**
+ * node:zlib's inflate (about 4x faster than geotiff.js's), never producing more than the block's declared size:
+ * a 1 MB block that inflates to 1 GiB stops at the declared size instead of filling memory. A block that will
+ * not inflate, or inflates past its size, is reported as damaged data.
+ */
 export const nodeInflate: InflateFn = (data, expectedBytes) => {
+  // twice the declared size leaves room for writers that pad the last strip to a full block
+  const limit = expectedBytes > 0 ? 2 * expectedBytes + 1024 : undefined;
   try {
-    return inflateSync(data, { chunkSize: Math.max(1024, expectedBytes ?? 0) });
+    return inflateSync(data, { chunkSize: Math.max(1024, Math.min(expectedBytes ?? 0, 64 * 2 ** 20)), ...(limit ? { maxOutputLength: limit } : {}) });
   } catch (err) {
-    throw new TerrainError('truncated', `A compressed block of the GeoTIFF cannot be decoded (${(err as Error).message}); the file is damaged or cut short, so export it again.`);
+    const past = (err as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE';
+    throw new TerrainError('truncated', past
+      ? `A compressed block of the GeoTIFF inflates far past its declared ${expectedBytes} bytes; the file is damaged, so export it again.`
+      : `A compressed block of the GeoTIFF cannot be decoded (${(err as Error).message}); the file is damaged or cut short, so export it again.`);
   }
 };
 
@@ -26,15 +35,19 @@ export interface DemInspection {
 }
 
 /** Read the header only (a quick refusal of files that are not usable DEMs, before any pixel is decoded). */
-export async function inspectDemHeader(bytes: Uint8Array): Promise<DemFileInfo> {
+export async function inspectDemHeader(bytes: Uint8Array, opts: { maxPixels?: number } = {}): Promise<DemFileInfo> {
   const h = await readDemHeader(bytes);
+  const maxPixels = opts.maxPixels ?? MAX_DEM_PIXELS;
+  if (h.width * h.height > maxPixels) {
+    throw new TerrainError('too-large', `The grid is ${h.width} x ${h.height} = ${h.width * h.height} pixels, above this server's limit of ${maxPixels} (DEM_MAX_PIXELS); crop or resample it (gdal_translate -projwin / -tr) and upload it again.`);
+  }
   return { compression: h.compression, sampleType: h.sampleType, tiled: h.tiling.tiled, nodata: h.nodata, declaredVerticalDatum: h.verticalDatum };
 }
 
 /** Decode the whole grid: metadata and a hillshade preview (longest side `maxSizePx`, default 1024). */
-export async function inspectDem(bytes: Uint8Array, opts: { maxSizePx?: number } = {}): Promise<DemInspection> {
-  const file = await inspectDemHeader(bytes);
-  const grid = await readDem(bytes, { inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
+export async function inspectDem(bytes: Uint8Array, opts: { maxSizePx?: number; maxPixels?: number } = {}): Promise<DemInspection> {
+  const file = await inspectDemHeader(bytes, opts);
+  const grid = await readDem(bytes, { inflate: nodeInflate, maxPixels: opts.maxPixels ?? MAX_DEM_PIXELS });
   const metadata = describeGrid(grid);
   const hs = hillshadePng(grid, { maxSizePx: opts.maxSizePx ?? 1024 });
   return {

@@ -4,7 +4,8 @@ import { createTerrainRunner, type TerrainRunner } from './terrain-pool';
 
 /** Service factory: puts `terrain` on the services (TERRAIN_THREADS threads; 0 runs inline). */
 export const terrainFactory: ServiceFactory = async (services) => {
-  const runner = createTerrainRunner({ threads: services.config.env.TERRAIN_THREADS });
+  const { TERRAIN_THREADS, TERRAIN_TASK_SECONDS } = services.config.env;
+  const runner = createTerrainRunner({ threads: TERRAIN_THREADS, taskTimeoutMs: TERRAIN_TASK_SECONDS * 1000 });
   services.terrain = runner;
   return () => runner.close();
 };

@@ -3,7 +3,7 @@ import { sql } from 'drizzle-orm';
 import type { Router } from 'express';
 import { healthSchema } from '../../contracts/teams';
 import type { Db } from '../../db/client';
-import { AppError } from '../http/errors';
+import { AppError, DATABASE_RETRY_AFTER_S } from '../http/errors';
 import type { Guards } from '../http/guard';
 import { sendJson } from '../http/validate';
 
@@ -12,6 +12,7 @@ export function registerHealthRoutes(api: Router, deps: { guards: Guards; db: Db
     try {
       await deps.db.execute(sql`select 1`);
     } catch {
+      res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_S));
       throw new AppError(503, 'db_down', 'The database is not answering.');
     }
     sendJson(res, healthSchema, { ok: true, db: 'up' });

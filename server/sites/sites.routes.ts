@@ -1,7 +1,7 @@
 /** /api/teams/:teamId/projects/:projectId/sites: upload a DEM, list, read, hillshade preview, rename, delete. */
 import crypto from 'node:crypto';
 import type { NextFunction, Request, Response, Router } from 'express';
-import { duplicateSiteErrorSchema, siteListSchema, siteSchema, siteUpdateSchema, type DuplicateSiteError } from '../../contracts/sites';
+import { duplicateSiteErrorSchema, siteListSchema, siteSchema, siteUpdateSchema, type DuplicateSiteError, type Site, type UnreadableSite } from '../../contracts/sites';
 import { terrainOf } from '../analysis/terrain.service';
 import { AppError, errors } from '../http/errors';
 import { requireTeam, type Guards } from '../http/guard';
@@ -26,6 +26,7 @@ interface SiteRouteDeps {
 
 export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
   const { guards, projects, sites, usecases, storage } = deps;
+  const log = (err: unknown) => console.error(err);
   const base = '/teams/:teamId/projects/:projectId/sites';
 
   /** The project named by the route, in the caller's team. */
@@ -67,7 +68,24 @@ export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
   api.get(base, guards.permission('site:read'), async (req, res) => {
     const p = await projectOf(req);
     const rows = await sites.list(p.teamId, p.id);
-    sendJson(res, siteListSchema, { sites: rows.map(toSite) });
+    // one damaged record must not take the whole list down: it is listed apart, with the reason, for deletion
+    const good: Site[] = [];
+    const unreadable: UnreadableSite[] = [];
+    for (const row of rows) {
+      const parsed = (() => {
+        try {
+          return siteSchema.safeParse(toSite(row));
+        } catch (err) {
+          return { success: false as const, error: err as Error };
+        }
+      })();
+      if (parsed.success) good.push(parsed.data);
+      else {
+        log(new Error(`Site ${row.id} does not read as a site: ${parsed.error.message}`));
+        unreadable.push({ id: row.id, name: row.name, fileName: row.fileName, createdAt: row.createdAt.toISOString(), problem: 'Its stored description cannot be read; delete it and upload the file again.' });
+      }
+    }
+    sendJson(res, siteListSchema, { sites: good, unreadable });
   });
 
   async function siteOf(req: Request) {
@@ -141,7 +159,7 @@ export const siteRouteGroup: RouteGroup = (api, { guards, services }) => {
     guards,
     projects: createProjectsRepository({ db: services.db }),
     sites,
-    usecases: createSitesUsecases({ sites, storage, terrain: terrainOf(services) }),
+    usecases: createSitesUsecases({ sites, storage, terrain: terrainOf(services), maxPixels: services.config.env.DEM_MAX_PIXELS }),
     storage,
     uploadLimitBytes: services.config.uploadLimitBytes,
   });

@@ -1,10 +1,11 @@
 /** Turning a received upload into a site (or a clear refusal that leaves nothing behind), and deleting sites. */
 import type { Site } from '../../contracts/sites';
-import { siteUploadFieldsSchema } from '../../contracts/sites';
+import { siteSchema, siteUploadFieldsSchema } from '../../contracts/sites';
 import { TerrainError } from '../../terrain/errors';
-import type { TerrainRunner } from '../analysis/terrain-pool';
+import { TerrainTimeoutError, type TerrainRunner } from '../analysis/terrain-pool';
 import { inspectDemHeader } from '../analysis/terrain-tasks';
 import { AppError, errors } from '../http/errors';
+import { nulProblem } from '../http/text-guard';
 import { parseInput } from '../http/validate';
 import type { Storage } from '../storage/storage';
 import type { ReceivedFile } from './site-upload';
@@ -19,6 +20,10 @@ export const siteKeys = {
 /** The engine's reason as a 422 (error code = TerrainError code). */
 function refusal(err: unknown): unknown {
   if (err instanceof TerrainError) return new AppError(422, err.code, err.message, [{ path: 'file', message: err.message }]);
+  if (err instanceof TerrainTimeoutError) {
+    const message = `Reading the grid took longer than this server allows (${Math.round(err.limitMs / 1000)} s, TERRAIN_TASK_SECONDS) and was stopped; nothing was kept. Crop or resample the DEM (gdal_translate -projwin / -tr) and upload it again.`;
+    return new AppError(422, 'too-slow', message, [{ path: 'file', message }]);
+  }
   return err;
 }
 
@@ -30,8 +35,8 @@ export function cleanFileName(name: string | undefined): string {
 
 export type UploadOutcome = { site: Site } | { duplicateOf: string };
 
-export function createSitesUsecases(deps: { sites: SitesRepository; storage: Storage; terrain: TerrainRunner; log?: (err: unknown) => void }) {
-  const { sites, storage, terrain } = deps;
+export function createSitesUsecases(deps: { sites: SitesRepository; storage: Storage; terrain: TerrainRunner; maxPixels?: number; log?: (err: unknown) => void }) {
+  const { sites, storage, terrain, maxPixels } = deps;
   const log = deps.log ?? ((err: unknown) => console.error(err));
 
   return {
@@ -43,24 +48,26 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
       const { teamId, projectId, siteId, file } = ctx;
       const leftovers = [file.storageKey];
       try {
+        const nul = nulProblem(ctx.body);
+        if (nul) throw nul;
         const fields = parseInput(siteUploadFieldsSchema, ctx.body);
         const dup = await sites.findBySha(teamId, projectId, file.sha256);
         if (dup) return { duplicateOf: dup.id };
         const bytes = await storage.getBytes(file.storageKey);
-        const header = await inspectDemHeader(bytes).catch((e) => { throw refusal(e); });
+        const header = await inspectDemHeader(bytes, { maxPixels }).catch((e) => { throw refusal(e); });
         const verticalDatum = fields.verticalDatum ?? header.declaredVerticalDatum?.name;
         if (!verticalDatum) {
           throw errors.invalid('State the vertical datum of the heights: the file does not declare one.', [
             { path: 'verticalDatum', message: 'The GeoTIFF declares no vertical datum; state it (for example "EGM96" or a national height datum).' },
           ]);
         }
-        const inspection = await terrain.inspect(bytes).catch((e) => { throw refusal(e); });
+        const inspection = await terrain.inspect(bytes, { maxPixels }).catch((e) => { throw refusal(e); });
         const hillshadeKey = siteKeys.hillshade(teamId, siteId);
         leftovers.push(hillshadeKey);
         await storage.put(hillshadeKey, inspection.hillshade.png, { contentType: 'image/png' });
         const { png: _png, ...hillshade } = inspection.hillshade;
         const fileName = cleanFileName(file.originalname);
-        const row = await sites.insert({
+        const values = {
           id: siteId,
           teamId,
           projectId,
@@ -75,7 +82,15 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
           hillshadeKey,
           hillshade,
           createdBy: ctx.userId,
-        });
+        };
+        // the record must read back as a site before it is kept: a figure the API cannot send (an infinite
+        // bound, say) is refused now, instead of a saved site that fails every list
+        const readBack = siteSchema.safeParse(toSite({ ...values, planCount: 0, createdAt: new Date() } as Parameters<typeof toSite>[0]));
+        if (!readBack.success) {
+          const where = readBack.error.issues[0]?.path.join('.') ?? 'metadata';
+          throw new AppError(422, 'unreadable-grid', `The grid's description has a value Loftline cannot use (${where}); check the file's georeference and heights in your GIS and export it again.`, [{ path: 'file', message: `Unusable value at ${where}.` }]);
+        }
+        const row = await sites.insert(values);
         if (!row) {
           // the same file arrived twice at once: the other upload won the unique index
           const other = await sites.findBySha(teamId, projectId, file.sha256);

@@ -18,9 +18,9 @@ export interface TestServer extends RunningServer {
   stop: () => Promise<void>;
 }
 
-/** Boot a server on the test database; `env` overrides variables (e.g. a low sign-in limit). */
-export async function startTestServer(opts: { env?: Record<string, string>; web?: boolean } = {}): Promise<TestServer> {
-  const databaseUrl = process.env.LOFTLINE_TEST_DATABASE_URL;
+/** Boot a server on the test database (or `databaseUrl`, e.g. through a proxy); `env` overrides variables (e.g. a low sign-in limit). */
+export async function startTestServer(opts: { env?: Record<string, string>; web?: boolean; databaseUrl?: string } = {}): Promise<TestServer> {
+  const databaseUrl = opts.databaseUrl ?? process.env.LOFTLINE_TEST_DATABASE_URL;
   if (!databaseUrl) throw new Error('LOFTLINE_TEST_DATABASE_URL is not set: run the suites through `npm test`.');
   const port = await freePort();
   const env = parseEnv({ AUTH_SIGNIN_PER_MINUTE: '1000', ...process.env, ...opts.env, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}` });

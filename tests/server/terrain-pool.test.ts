@@ -1,0 +1,38 @@
+import fs from 'node:fs';
+import { deflateSync } from 'node:zlib';
+import { afterAll, describe, expect, it } from 'vitest';
+import { createTerrainRunner, TerrainTimeoutError } from '../../server/analysis/terrain-pool';
+import { nodeInflate } from '../../server/analysis/terrain-tasks';
+import { TerrainError } from '../../terrain/errors';
+
+const small = () => new Uint8Array(fs.readFileSync('tests/fixtures/dem/utm-f32-strips.tif'));
+const demo = () => new Uint8Array(fs.readFileSync('datasets/harrow-fell-dem.tif'));
+
+describe('nodeInflate', () => {
+  it('inflates a block of its declared size', () => {
+    const raw = new Uint8Array(4096).map((_, i) => i % 251);
+    expect(Array.from(nodeInflate(deflateSync(raw), 4096))).toEqual(Array.from(raw));
+  });
+
+  it('stops a block that inflates far past its declared size with a TerrainError', () => {
+    const bomb = deflateSync(Buffer.alloc(64 * 2 ** 20)); // 64 MiB of zeros in about 64 KB
+    expect(() => nodeInflate(bomb, 1024)).toThrow(TerrainError);
+    expect(() => nodeInflate(bomb, 1024)).toThrow(/inflates far past its declared 1024 bytes/);
+  });
+});
+
+describe('terrain pool time limit', () => {
+  const pool = createTerrainRunner({ threads: 1 });
+  afterAll(() => pool.close());
+
+  it('stops a task past its limit with a TerrainTimeoutError, replaces the thread and runs the next task', async () => {
+    // a first task starts the thread (its start-up is not what the limit is about)
+    expect((await pool.inspect(small())).metadata.width).toBe(9);
+    // decoding the 8 MB demo grid and drawing its hillshade takes far longer than 1 ms
+    const late = pool.inspect(demo(), { timeoutMs: 1 });
+    const next = pool.inspect(small());
+    await expect(late).rejects.toBeInstanceOf(TerrainTimeoutError);
+    await expect(late).rejects.toThrow(/took longer than 1 ms and was stopped/);
+    expect((await next).metadata.width).toBe(9);
+  });
+});
