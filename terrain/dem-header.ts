@@ -4,6 +4,7 @@ import type { GeoTransform, GridCrs, LengthUnit } from './grid';
 import { TerrainError } from './errors';
 import { crsFromGeoKeys, type GeoKeys, verticalDatumFromGeoKeys, verticalUnitFromGeoKeys } from './geokeys';
 import { COMPRESSION_NAMES, type SampleType } from './dem-decoders';
+import { checkBlocksInFile, damagedDirectory } from './dem-damage';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -104,8 +105,31 @@ async function geoTransformOf(fd: { loadValue(t: string): Promise<unknown> }, pi
   return gt;
 }
 
-/** Parse the first image of a GeoTIFF into a header and the block layout of band 1. */
+/**
+ * Parse the first image of a GeoTIFF into a header and the block layout of band 1. Anything that breaks while
+ * reading the directory (a value table past the end of the file, a bad entry) is reported as a damaged file.
+ */
 export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
+  try {
+    return await parseHeaderFields(bytes);
+  } catch (err) {
+    if (err instanceof TerrainError) throw err;
+    throw damagedDirectory('TIFF directory', `an entry cannot be read (${(err as Error)?.message ?? String(err)})`);
+  }
+}
+
+/** A block table (TileOffsets, StripByteCounts …): its values, or a damaged-file error naming the table. */
+async function blockTable(fd: { loadValue(t: string): Promise<unknown> }, tag: string, fileBytes: number): Promise<ArrayLike<number>> {
+  try {
+    return (await fd.loadValue(tag)) as ArrayLike<number>;
+  } catch (err) {
+    // geotiff.js reads past the end of the bytes with a DataView: a RangeError
+    const why = err instanceof RangeError ? `it lies past the end of the ${fileBytes}-byte file` : `it cannot be read (${(err as Error)?.message ?? String(err)})`;
+    throw damagedDirectory(`${tag} table`, why);
+  }
+}
+
+async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
   if (bytes.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${bytes.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
   const bom = (bytes[0] << 8) | bytes[1];
   const le = bom === 0x4949;
@@ -147,17 +171,13 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   const blockHeight = image.getTileHeight();
   const blocksAcross = Math.ceil(width / blockWidth);
   const blocksDown = Math.ceil(height / blockHeight);
-  const offsets = (await fd.loadValue(tiled ? 'TileOffsets' : 'StripOffsets')) as ArrayLike<number>;
-  const byteCounts = (await fd.loadValue(tiled ? 'TileByteCounts' : 'StripByteCounts')) as ArrayLike<number>;
+  const offsets = await blockTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', bytes.byteLength);
+  const byteCounts = await blockTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', bytes.byteLength);
   const nBlocks = blocksAcross * blocksDown;
   if (!offsets || !byteCounts || offsets.length < nBlocks || byteCounts.length < nBlocks) {
-    throw new TerrainError('truncated', `The TIFF lists ${offsets?.length ?? 0} data blocks where ${nBlocks} are needed; the file is damaged, so export it again.`);
+    throw new TerrainError('damaged', `The file is damaged: the TIFF lists ${Math.min(offsets?.length ?? 0, byteCounts?.length ?? 0)} data ${tiled ? 'tiles' : 'strips'} where ${nBlocks} are needed; re-export it from your GIS.`);
   }
-  let end = 0;
-  for (let i = 0; i < nBlocks; i++) end = Math.max(end, Number(offsets[i]) + Number(byteCounts[i]));
-  if (end > bytes.byteLength) {
-    throw new TerrainError('truncated', `The GeoTIFF is cut short: its data runs to byte ${end} but the file has ${bytes.byteLength} bytes; upload the complete file.`);
-  }
+  checkBlocksInFile(offsets, byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
   const gdalMeta = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
   const keysSayVertical = geoKeys != null && (geoKeys.VerticalUnitsGeoKey !== undefined || geoKeys.VerticalCSTypeGeoKey !== undefined);
   const vertical = keysSayVertical ? verticalUnitFromGeoKeys(geoKeys) : unitFromName(gdalMeta.UNITTYPE) ?? 'metre';

@@ -4,6 +4,7 @@ import { createGrid, mapToPixel } from './grid';
 import { TerrainError, check } from './errors';
 import { createTransform } from './crs';
 import { asBytes, type DemHeader, type DemLayout, parseDemHeader } from './dem-header';
+import { damagedBlock } from './dem-damage';
 import { blockDecoderFor, copyRows, float32PredictorRows, type InflateFn, sampleBytes, undoFloatPredictorBytes, undoIntegerPredictor } from './dem-decoders';
 
 export type { DemHeader } from './dem-header';
@@ -97,10 +98,17 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
     }
     const expected = bw * rowsInBlock * size;
     const raw = bytes.subarray(off, off + count);
-    let data = decode(raw, expected);
-    if (data instanceof Promise) data = await data;
+    let data: Uint8Array;
+    try {
+      const d = decode(raw, expected);
+      data = d instanceof Promise ? await d : d;
+    } catch (err) {
+      // the decoder's own words (zlib's "invalid block type", "unexpected end of file" …) after the block's name
+      const why = err instanceof TerrainError ? err.message : (err as Error)?.message ?? String(err);
+      throw damagedBlock(idx, header.tiling, header.height, `its ${header.compression.toUpperCase()} data does not decode (${why})`);
+    }
     if (data.byteLength < bw * rowTo * size) {
-      throw new TerrainError('truncated', `A data block of the GeoTIFF decodes to ${data.byteLength} bytes where ${expected} are needed; the file is damaged, so export it again.`);
+      throw damagedBlock(idx, header.tiling, header.height, `it decodes to ${data.byteLength} bytes where ${expected} are needed`);
     }
     stats.blocksDecoded++;
     stats.pixelsDecoded += bw * rowsInBlock;

@@ -9,14 +9,8 @@ import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, rea
 /** Largest grid an upload may decode whole (2^28 pixels = 1 GiB of float32), and the largest analysis window. */
 export const MAX_DEM_PIXELS = 2 ** 28;
 
-/** node:zlib's inflate (about 4x faster than geotiff.js's); a block that will not inflate is reported as damaged data. */
-export const nodeInflate: InflateFn = (data, expectedBytes) => {
-  try {
-    return inflateSync(data, { chunkSize: Math.max(1024, expectedBytes ?? 0) });
-  } catch (err) {
-    throw new TerrainError('truncated', `A compressed block of the GeoTIFF cannot be decoded (${(err as Error).message}); the file is damaged or cut short, so export it again.`);
-  }
-};
+/** node:zlib's inflate (about 4x faster than geotiff.js's); a block that will not inflate is named by the reader (TerrainError `damaged`). */
+export const nodeInflate: InflateFn = (data, expectedBytes) => inflateSync(data, { chunkSize: Math.max(1024, expectedBytes ?? 0) });
 
 /** What an upload yields: header facts, grid metadata and the hillshade preview. */
 export interface DemInspection {
