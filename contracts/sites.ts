@@ -109,4 +109,4 @@ export const duplicateSiteErrorSchema = apiErrorSchema.extend({
 export type DuplicateSiteError = z.infer<typeof duplicateSiteErrorSchema>;
 
 /** Terrain engine reasons a file is refused with 422 (TerrainError codes). */
-export const demRefusalCodes = ['not-tiff', 'truncated', 'damaged', 'unsupported', 'no-georeference', 'unknown-crs', 'too-large', 'all-nodata'] as const;
+export const demRefusalCodes = ['not-tiff', 'truncated', 'damaged', 'not-elevation', 'unsupported', 'no-georeference', 'unknown-crs', 'too-large', 'all-nodata'] as const;

@@ -5,6 +5,8 @@ import { TerrainError } from './errors';
 import { crsFromGeoKeys, type GeoKeys, verticalDatumFromGeoKeys, verticalUnitFromGeoKeys } from './geokeys';
 import { COMPRESSION_NAMES, type SampleType } from './dem-decoders';
 import { checkBlocksInFile, damagedDirectory } from './dem-damage';
+import { checkElevationContent, checkPlacement } from './dem-content';
+import { findInternalMask, type MaskLayout } from './dem-mask';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -23,6 +25,8 @@ export interface DemHeader {
   predictor: number;
   rasterType: 'pixel-is-area' | 'pixel-is-point';
   byteOrder: 'little-endian' | 'big-endian';
+  /** 'internal': a GDAL internal mask marks cells without data (they read as nodata). */
+  mask: 'internal' | 'none';
 }
 
 /** Where the blocks of band 1 live and how to decode them (internal to the reader). */
@@ -33,6 +37,8 @@ export interface DemLayout {
   byteCounts: ArrayLike<number>;
   /** Metres per stored height unit, and an additive offset in metres (GDAL scale/offset). */
   toMetres: { scale: number; offset: number };
+  /** GDAL's internal mask, on the same block grid as the heights, or null. */
+  mask: MaskLayout | null;
 }
 
 const METRES_PER: Record<LengthUnit, number> = { metre: 1, foot: 0.3048, 'us-survey-foot': 1200 / 3937, degree: NaN };
@@ -137,9 +143,9 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   if ((bom !== 0x4949 && bom !== 0x4d4d) || (magic !== 42 && magic !== 43)) {
     throw new TerrainError('not-tiff', 'The file is not a TIFF (it does not start with a TIFF signature); upload a GeoTIFF (.tif) DEM.');
   }
-  let image;
+  let image, tiff;
   try {
-    const tiff = await GeoTIFF.fromSource(bytesSource(bytes) as never);
+    tiff = await GeoTIFF.fromSource(bytesSource(bytes) as never);
     image = await tiff.getImage(0);
   } catch (err) {
     throw new TerrainError('truncated', `The TIFF's directory cannot be read (${(err as Error).message}); the file is probably cut short, so upload it again.`);
@@ -148,6 +154,13 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   const width = image.getWidth();
   const height = image.getHeight();
   const bands = image.getSamplesPerPixel();
+  const contentSampleType = sampleTypeOf(image.getSampleFormat(0) as number, image.getBitsPerSample(0));
+  checkElevationContent({
+    photometric: (await fd.loadValue('PhotometricInterpretation')) as number | undefined,
+    hasColorMap: (await fd.loadValue('ColorMap')) !== undefined,
+    sampleType: contentSampleType ?? 'float32',
+    predictor: ((await fd.loadValue('Predictor')) as number | undefined) ?? 1,
+  });
   const planar = ((await fd.loadValue('PlanarConfiguration')) as number | undefined) ?? 1;
   if (bands > 1 && planar !== 2) {
     throw new TerrainError('unsupported', `The GeoTIFF has ${bands} interleaved bands; a DEM needs one: extract the elevation band (gdal_translate -b 1 in.tif out.tif).`);
@@ -166,6 +179,7 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   const pixelIsPoint = geoKeys?.GTRasterTypeGeoKey === 2;
   const transform = await geoTransformOf(fd as never, pixelIsPoint);
   const crs = crsFromGeoKeys(geoKeys);
+  checkPlacement(transform, width, height, crs);
   const tiled = image.isTiled as boolean;
   const blockWidth = image.getTileWidth();
   const blockHeight = image.getTileHeight();
@@ -178,6 +192,8 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
     throw new TerrainError('damaged', `The file is damaged: the TIFF lists ${Math.min(offsets?.length ?? 0, byteCounts?.length ?? 0)} data ${tiled ? 'tiles' : 'strips'} where ${nBlocks} are needed; re-export it from your GIS.`);
   }
   checkBlocksInFile(offsets, byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
+  const mask = await findInternalMask(tiff as never, { width, height, tiled, blockWidth, blockHeight, blocks: nBlocks });
+  if (mask) checkBlocksInFile(mask.offsets, mask.byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
   const gdalMeta = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
   const keysSayVertical = geoKeys != null && (geoKeys.VerticalUnitsGeoKey !== undefined || geoKeys.VerticalCSTypeGeoKey !== undefined);
   const vertical = keysSayVertical ? verticalUnitFromGeoKeys(geoKeys) : unitFromName(gdalMeta.UNITTYPE) ?? 'metre';
@@ -199,6 +215,7 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
     predictor,
     rasterType: pixelIsPoint ? 'pixel-is-point' : 'pixel-is-area',
     byteOrder: le ? 'little-endian' : 'big-endian',
+    mask: mask ? 'internal' : 'none',
   };
   const m = metresPerUnit(vertical);
   const layout: DemLayout = {
@@ -207,6 +224,7 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
     offsets,
     byteCounts,
     toMetres: { scale: (Number.isFinite(scale) ? scale : 1) * m, offset: (Number.isFinite(offset) ? offset : 0) * m },
+    mask,
   };
   return { header, layout };
 }

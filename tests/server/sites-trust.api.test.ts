@@ -52,6 +52,8 @@ const refusals: Array<[string, string, RegExp]> = [
   ['strip-offsets-past-end.tif', 'damaged', /^The file is damaged in its StripOffsets table: it lies past the end/],
   ['tile-offset-beyond-file.tif', 'damaged', /^The file is damaged at tile 10 of 24 \(row 2, column 2\)/],
   ['cut-in-last-tile.tif', 'truncated', /^The file is cut short inside tile 24 of 24/],
+  ['palette.tif', 'not-elevation', /^The file is a palette \(colour-mapped\) image, not an elevation grid/],
+  ['rgb-band.tif', 'not-elevation', /^The file is an RGB colour image, not an elevation grid/],
 ];
 
 describe('uploading a file that is not a usable elevation grid', () => {
