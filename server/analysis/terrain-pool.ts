@@ -7,11 +7,11 @@ import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { PlanResult } from '../../terrain/index';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, inspectDem, type DemInspection } from './terrain-tasks';
+import { analyseMission, inspectDem, type AnalyseMissionOptions, type DemInspection } from './terrain-tasks';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: { maxSizePx?: number } }
-  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown };
+  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions };
 
 export type ThreadReply =
   | { id: number; progress: number }
@@ -21,7 +21,7 @@ export type ThreadReply =
 /** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
 export interface TerrainRunner {
   inspect(bytes: Uint8Array, opts?: { maxSizePx?: number }): Promise<DemInspection>;
-  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void): Promise<PlanResult>;
+  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<PlanResult>;
   close(): Promise<void>;
 }
 
@@ -58,7 +58,7 @@ function rebuildError(e: { name: string; code?: string; message: string; stack?:
 export function createInlineTerrainRunner(): TerrainRunner {
   return {
     inspect: (bytes, opts) => inspectDem(bytes, opts),
-    analyse: (bytes, mission, onProgress) => analyseMission(bytes, mission, onProgress),
+    analyse: (bytes, mission, onProgress, o) => analyseMission(bytes, mission, onProgress, o),
     close: async () => {},
   };
 }
@@ -122,7 +122,7 @@ export function createTerrainRunner(opts: { threads: number }): TerrainRunner {
 
   return {
     inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o }),
-    analyse: (bytes, mission, onProgress) => run<PlanResult>({ kind: 'analyse', bytes, mission }, onProgress),
+    analyse: (bytes, mission, onProgress, o) => run<PlanResult>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
     async close() {
       closed = true;
       for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));

@@ -4,7 +4,7 @@
  */
 import { inflateSync } from 'node:zlib';
 import type { DemFileInfo, HillshadeInfo } from '../../contracts/sites';
-import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, readDemHeader, TerrainError, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
+import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, readDemHeader, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
 
 /** Largest grid an upload may decode whole (2^28 pixels = 1 GiB of float32), and the largest analysis window. */
 export const MAX_DEM_PIXELS = 2 ** 28;
@@ -38,12 +38,31 @@ export async function inspectDem(bytes: Uint8Array, opts: { maxSizePx?: number }
   };
 }
 
-/** Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin). */
-export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}): Promise<PlanResult> {
+/** What the analysis needs to know beyond the file: the vertical datum the site states for its heights. */
+export interface AnalyseMissionOptions {
+  /** The site's vertical datum as stated at upload (the planner's words, or the file's own datum). */
+  siteVerticalDatum?: string | null;
+}
+
+/**
+ * The site's datum as the result states it: the file's own datum (with its EPSG code) when the site names the
+ * same one, else the site's words with an EPSG code only where they give one ("EGM96 (EPSG:5773)").
+ */
+export function analysisDatum(siteVerticalDatum: string | null | undefined, declared: { epsg: number | null; name: string } | null): { epsg: number | null; name: string } | null {
+  const name = siteVerticalDatum?.trim();
+  if (!name) return declared;
+  if (declared && declared.name === name) return declared;
+  const code = /\bEPSG\s*:\s*(\d{4,6})\b/i.exec(name);
+  return { epsg: code ? Number(code[1]) : null, name };
+}
+
+/** Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin), heights named by the site's datum. */
+export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}, opts: AnalyseMissionOptions = {}): Promise<PlanResult> {
   const bbox = missionBboxWgs84(mission);
+  const header = await readDemHeader(bytes);
   const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
   onProgress(40);
-  const result = analysePlan(grid, mission);
+  const result = analysePlan(grid, mission, { verticalDatum: analysisDatum(opts.siteVerticalDatum, header.verticalDatum) });
   onProgress(95);
   return result;
 }

@@ -8,7 +8,7 @@ import type { VersionRecord } from '../reviews/versions.repository';
 import { flightCautions } from './cautions';
 import { azimuthDeg } from './geodesy';
 import { fmt } from './format';
-import { noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
+import { heightDatumOf, noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
 
 /** The GSD band of the spec: target ± tolerance (a fraction of the target). */
@@ -145,7 +145,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       crs: { name: meta.crs.name, epsg: meta.crs.epsg },
       resolution: meta.resolution,
       resolutionUnit: unitOfProj4(meta.crs.proj4),
-      verticalDatum: v.siteVerticalDatum,
+      verticalDatum: heightDatumOf(v),
       surfaceKind,
       elevationRangeM: [meta.elevation.min, meta.elevation.max],
     },
@@ -164,11 +164,11 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       'GSD, footprint and overlaps are computed station by station from the ground under each photo in the elevation grid, not from flat-ground formulas.',
       `A station meets the GSD target when its GSD lies within ${fmt.gsdCm(band[0])} to ${fmt.gsdCm(band[1])} (target ${fmt.gsdCm(mission.targetGsdCm)} ± ${fmt.percent(mission.gsdTolerance)}); stations over unknown ground count as not meeting it.`,
       `Percentiles: ${percentileMethod}.`,
-      `Heights above the datum refer to the grid's vertical datum (${v.siteVerticalDatum}); altitudes for the pilot are above the takeoff point.`,
+      `Heights above the datum refer to the grid's vertical datum (${heightDatumOf(v)}); altitudes for the pilot are above the takeoff point.`,
       'The camera points straight down (no tilt, roll or wind crab) and the aircraft holds the planned track and speed.',
     ],
     warnings: planWarnings(view),
-    cautions: flightCautions({ surfaceKind, verticalDatum: v.siteVerticalDatum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
+    cautions: flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
     signOff: {
       state,
       signedOffBy: state === 'signed_off' ? (v.signedOffByName ?? '(former member)') : null,
