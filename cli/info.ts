@@ -23,6 +23,6 @@ export async function run(args: string[]): Promise<unknown> {
     nodataShare: m.nodataShare,
     verticalUnit: m.verticalUnit,
     verticalDatum: header.verticalDatum,
-    storage: { sampleType: header.sampleType, compression: header.compression, predictor: header.predictor, tiling: header.tiling, rasterType: header.rasterType },
+    storage: { sampleType: header.sampleType, compression: header.compression, predictor: header.predictor, tiling: header.tiling, rasterType: header.rasterType, mask: header.mask },
   };
 }

@@ -32,12 +32,36 @@ export async function readFileBytes(path: string | undefined, what = 'DEM'): Pro
   }
 }
 
-/** node:util parseArgs with our error wording (strict: unknown options are errors). */
+/** A value that starts with a minus sign and then a digit or a point: a number (a western or southern coordinate), not an option. */
+const NEGATIVE_NUMBER = /^-(\d|\.\d)/;
+
+/**
+ * `--name -121.7,45.3` as `--name=-121.7,45.3` for every option that takes a value. node:util parseArgs reads a
+ * value starting with "-" as a possible option and refuses it as ambiguous; a coordinate west of Greenwich or
+ * south of the equator always starts that way.
+ */
+export function joinNegativeValues(args: readonly string[], options: NonNullable<ParseArgsConfig['options']>): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    const next = args[i + 1];
+    if (a === '--') { out.push(...args.slice(i)); break; }
+    const name = a.startsWith('--') ? a.slice(2) : a.length === 2 && a[0] === '-' ? Object.keys(options).find((k) => options[k].short === a[1]) : undefined;
+    if (name !== undefined && options[name]?.type === 'string' && next !== undefined && NEGATIVE_NUMBER.test(next)) {
+      out.push(`--${name}=${next}`);
+      i++;
+    } else out.push(a);
+  }
+  return out;
+}
+
+/** node:util parseArgs with our error wording (strict: unknown options are errors); negative numbers are values. */
 export function parseCommandArgs<T extends NonNullable<ParseArgsConfig['options']>>(args: string[], options: T) {
   try {
-    return parseArgs({ args, options, allowPositionals: true, strict: true });
+    return parseArgs({ args: joinNegativeValues(args, options), options, allowPositionals: true, strict: true });
   } catch (err) {
-    throw new CliError((err as Error).message.split('\n')[0]);
+    // the whole message (node's hint included) on one line: reportError joins its lines
+    throw new CliError((err as Error).message);
   }
 }
 

@@ -123,4 +123,4 @@ export const duplicateSiteErrorSchema = apiErrorSchema.extend({
 export type DuplicateSiteError = z.infer<typeof duplicateSiteErrorSchema>;
 
 /** Reasons a file is refused with 422: the terrain engine's (TerrainError codes), a read that ran out of time, a description that does not read back. */
-export const demRefusalCodes = ['not-tiff', 'truncated', 'unsupported', 'no-georeference', 'unknown-crs', 'too-large', 'all-nodata', 'too-slow', 'unreadable-grid'] as const;
+export const demRefusalCodes = ['not-tiff', 'truncated', 'damaged', 'not-elevation', 'unsupported', 'no-georeference', 'unknown-crs', 'too-large', 'all-nodata', 'too-slow', 'unreadable-grid'] as const;

@@ -5,6 +5,9 @@ import { createTransform, WGS84 } from './crs';
 import { TerrainError } from './errors';
 import { crsFromGeoKeys, type GeoKeys, verticalDatumFromGeoKeys, verticalUnitFromGeoKeys } from './geokeys';
 import { COMPRESSION_NAMES, sampleBytes, type SampleType } from './dem-decoders';
+import { checkBlocksInFile, damagedDirectory } from './dem-damage';
+import { checkElevationContent, checkPlacement } from './dem-content';
+import { findInternalMask, type MaskLayout } from './dem-mask';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -23,6 +26,8 @@ export interface DemHeader {
   predictor: number;
   rasterType: 'pixel-is-area' | 'pixel-is-point';
   byteOrder: 'little-endian' | 'big-endian';
+  /** 'internal': a GDAL internal mask marks cells without data (they read as nodata). */
+  mask: 'internal' | 'none';
 }
 
 /** Where the blocks of band 1 live and how to decode them (internal to the reader). */
@@ -33,6 +38,8 @@ export interface DemLayout {
   byteCounts: ArrayLike<number>;
   /** Metres per stored height unit, and an additive offset in metres (GDAL scale/offset). */
   toMetres: { scale: number; offset: number };
+  /** GDAL's internal mask, on the same block grid as the heights, or null. */
+  mask: MaskLayout | null;
 }
 
 const METRES_PER: Record<LengthUnit, number> = { metre: 1, foot: 0.3048, 'us-survey-foot': 1200 / 3937, degree: NaN };
@@ -126,42 +133,30 @@ function checkDeclaredSize(width: number, height: number, bands: number, bytesPe
 }
 
 /**
- * Refuse a georeference that puts the grid nowhere on Earth: each corner must have finite coordinates and map to
- * a longitude within ±360° and a latitude within ±90°. (A tie point of 1e308 with a pixel size of 1e300 used to
- * pass, and every later figure of the site was infinite.)
+ * Parse the first image of a GeoTIFF into a header and the block layout of band 1. Anything that breaks while
+ * reading the directory (a value table past the end of the file, a bad entry) is reported as a damaged file.
  */
-function checkPlacement(t: GeoTransform, crs: GridCrs, width: number, height: number): void {
-  const tr = createTransform(crs, WGS84);
-  for (const [c, r] of [[0, 0], [width, 0], [0, height], [width, height]]) {
-    const [x, y] = pixelToMap(t, c, r);
-    let lonLat: [number, number] = [NaN, NaN];
-    if (Number.isFinite(x) && Number.isFinite(y)) {
-      try {
-        lonLat = tr.forward(x, y) as [number, number];
-      } catch {
-        // proj4 throws for some points outside a projection's domain: treated as off the Earth below
-      }
-    }
-    const [lon, lat] = lonLat;
-    if (!(Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lon) <= 360 && Math.abs(lat) <= 90)) {
-      throw new TerrainError('no-georeference',
-        `The GeoTIFF's georeference puts its corner (pixel ${c}, ${r}) at ${x}, ${y} in ${crs.name}, which is not a place on Earth ` +
-        `(origin ${t[0]}, ${t[3]}; pixel size ${t[1]} x ${t[5]}); fix the tie point and pixel size in your GIS and export it again.`);
-    }
-  }
-}
-
-/** Load one of the block tables; a table that lies (partly) past the end of the file is named in the refusal. */
-async function loadTable(fd: { loadValue(t: string): Promise<unknown> }, tag: string, fileBytes: number): Promise<unknown> {
-  try {
-    return await fd.loadValue(tag);
-  } catch (err) {
-    throw new TerrainError('truncated', `The TIFF's ${tag} table cannot be read (${(err as Error).message}); it points past the end of the ${fileBytes}-byte file or is damaged, so export the file again.`);
-  }
-}
-
-/** Parse the first image of a GeoTIFF into a header and the block layout of band 1. */
 export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
+  try {
+    return await parseHeaderFields(bytes);
+  } catch (err) {
+    if (err instanceof TerrainError) throw err;
+    throw damagedDirectory('TIFF directory', `an entry cannot be read (${(err as Error)?.message ?? String(err)})`);
+  }
+}
+
+/** A block table (TileOffsets, StripByteCounts …): its values, or a damaged-file error naming the table. */
+async function blockTable(fd: { loadValue(t: string): Promise<unknown> }, tag: string, fileBytes: number): Promise<ArrayLike<number>> {
+  try {
+    return (await fd.loadValue(tag)) as ArrayLike<number>;
+  } catch (err) {
+    // geotiff.js reads past the end of the bytes with a DataView: a RangeError
+    const why = err instanceof RangeError ? `it lies past the end of the ${fileBytes}-byte file` : `it cannot be read (${(err as Error)?.message ?? String(err)})`;
+    throw damagedDirectory(`${tag} table`, why);
+  }
+}
+
+async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
   if (bytes.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${bytes.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
   const bom = (bytes[0] << 8) | bytes[1];
   const le = bom === 0x4949;
@@ -169,9 +164,9 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   if ((bom !== 0x4949 && bom !== 0x4d4d) || (magic !== 42 && magic !== 43)) {
     throw new TerrainError('not-tiff', 'The file is not a TIFF (it does not start with a TIFF signature); upload a GeoTIFF (.tif) DEM.');
   }
-  let image;
+  let image, tiff;
   try {
-    const tiff = await GeoTIFF.fromSource(bytesSource(bytes) as never);
+    tiff = await GeoTIFF.fromSource(bytesSource(bytes) as never);
     image = await tiff.getImage(0);
   } catch (err) {
     throw new TerrainError('truncated', `The TIFF's directory cannot be read (${(err as Error).message}); the file is probably cut short, so upload it again.`);
@@ -180,6 +175,13 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   const width = image.getWidth();
   const height = image.getHeight();
   const bands = image.getSamplesPerPixel();
+  const contentSampleType = sampleTypeOf(image.getSampleFormat(0) as number, image.getBitsPerSample(0));
+  checkElevationContent({
+    photometric: (await fd.loadValue('PhotometricInterpretation')) as number | undefined,
+    hasColorMap: (await fd.loadValue('ColorMap')) !== undefined,
+    sampleType: contentSampleType ?? 'float32',
+    predictor: ((await fd.loadValue('Predictor')) as number | undefined) ?? 1,
+  });
   const planar = ((await fd.loadValue('PlanarConfiguration')) as number | undefined) ?? 1;
   if (bands > 1 && planar !== 2) {
     throw new TerrainError('unsupported', `The GeoTIFF has ${bands} interleaved bands; a DEM needs one: extract the elevation band (gdal_translate -b 1 in.tif out.tif).`);
@@ -199,23 +201,21 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
   const pixelIsPoint = geoKeys?.GTRasterTypeGeoKey === 2;
   const transform = await geoTransformOf(fd as never, pixelIsPoint);
   const crs = crsFromGeoKeys(geoKeys);
-  checkPlacement(transform, crs, width, height);
+  checkPlacement(transform, width, height, crs);
   const tiled = image.isTiled as boolean;
   const blockWidth = image.getTileWidth();
   const blockHeight = image.getTileHeight();
   const blocksAcross = Math.ceil(width / blockWidth);
   const blocksDown = Math.ceil(height / blockHeight);
-  const offsets = (await loadTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', bytes.byteLength)) as ArrayLike<number>;
-  const byteCounts = (await loadTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', bytes.byteLength)) as ArrayLike<number>;
+  const offsets = await blockTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', bytes.byteLength);
+  const byteCounts = await blockTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', bytes.byteLength);
   const nBlocks = blocksAcross * blocksDown;
   if (!offsets || !byteCounts || offsets.length < nBlocks || byteCounts.length < nBlocks) {
-    throw new TerrainError('truncated', `The TIFF lists ${offsets?.length ?? 0} data blocks where ${nBlocks} are needed; the file is damaged, so export it again.`);
+    throw new TerrainError('damaged', `The file is damaged: the TIFF lists ${Math.min(offsets?.length ?? 0, byteCounts?.length ?? 0)} data ${tiled ? 'tiles' : 'strips'} where ${nBlocks} are needed; re-export it from your GIS.`);
   }
-  let end = 0;
-  for (let i = 0; i < nBlocks; i++) end = Math.max(end, Number(offsets[i]) + Number(byteCounts[i]));
-  if (end > bytes.byteLength) {
-    throw new TerrainError('truncated', `The GeoTIFF is cut short: its data runs to byte ${end} but the file has ${bytes.byteLength} bytes; upload the complete file.`);
-  }
+  checkBlocksInFile(offsets, byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
+  const mask = await findInternalMask(tiff as never, { width, height, tiled, blockWidth, blockHeight, blocks: nBlocks });
+  if (mask) checkBlocksInFile(mask.offsets, mask.byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
   const gdalMeta = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
   const keysSayVertical = geoKeys != null && (geoKeys.VerticalUnitsGeoKey !== undefined || geoKeys.VerticalCSTypeGeoKey !== undefined);
   const vertical = keysSayVertical ? verticalUnitFromGeoKeys(geoKeys) : unitFromName(gdalMeta.UNITTYPE) ?? 'metre';
@@ -237,6 +237,7 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
     predictor,
     rasterType: pixelIsPoint ? 'pixel-is-point' : 'pixel-is-area',
     byteOrder: le ? 'little-endian' : 'big-endian',
+    mask: mask ? 'internal' : 'none',
   };
   const m = metresPerUnit(vertical);
   const layout: DemLayout = {
@@ -245,6 +246,7 @@ export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHe
     offsets,
     byteCounts,
     toMetres: { scale: (Number.isFinite(scale) ? scale : 1) * m, offset: (Number.isFinite(offset) ? offset : 0) * m },
+    mask,
   };
   return { header, layout };
 }

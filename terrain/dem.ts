@@ -4,6 +4,8 @@ import { createGrid, mapToPixel } from './grid';
 import { TerrainError, check } from './errors';
 import { createTransform } from './crs';
 import { asBytes, type DemHeader, type DemLayout, parseDemHeader } from './dem-header';
+import { damagedBlock } from './dem-damage';
+import { applyMaskRows, maskRowBytes } from './dem-mask';
 import { blockDecoderFor, copyRows, float32PredictorRows, type InflateFn, sampleBytes, undoFloatPredictorBytes, undoIntegerPredictor } from './dem-decoders';
 
 export type { DemHeader } from './dem-header';
@@ -77,6 +79,7 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
   const bytes = asBytes(input);
   const { header, layout } = await parseDemHeader(bytes);
   const decode = await blockDecoderFor(layout.compressionCode, opts.inflate);
+  const maskDecode = layout.mask ? await blockDecoderFor(layout.mask.compressionCode, opts.inflate) : null;
   const { tiled, blockWidth: bw, blockHeight: bh, blocksAcross } = header.tiling;
   const size = sampleBytes(header.sampleType);
   const f32pred = header.predictor === 3 && header.sampleType === 'float32';
@@ -97,23 +100,49 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
     }
     const expected = bw * rowsInBlock * size;
     const raw = bytes.subarray(off, off + count);
-    let data = decode(raw, expected);
-    if (data instanceof Promise) data = await data;
+    let data: Uint8Array;
+    try {
+      const d = decode(raw, expected);
+      data = d instanceof Promise ? await d : d;
+    } catch (err) {
+      // the decoder's own words (zlib's "invalid block type", "unexpected end of file" …) after the block's name
+      const why = err instanceof TerrainError ? err.message : (err as Error)?.message ?? String(err);
+      throw damagedBlock(idx, header.tiling, header.height, `its ${header.compression.toUpperCase()} data does not decode (${why})`);
+    }
     if (data.byteLength < bw * rowTo * size) {
-      throw new TerrainError('truncated', `A data block of the GeoTIFF decodes to ${data.byteLength} bytes where ${expected} are needed; the file is damaged, so export it again.`);
+      throw damagedBlock(idx, header.tiling, header.height, `it decodes to ${data.byteLength} bytes where ${expected} are needed`);
     }
     stats.blocksDecoded++;
     stats.pixelsDecoded += bw * rowsInBlock;
     if (data === raw && header.predictor !== 1) data = raw.slice(); // never change the caller's bytes
     if (f32pred) {
       float32PredictorRows(data, bw, rowsInBlock, new Uint32Array(dest.buffer, dest.byteOffset, dest.length), destOffset, destStride, colFrom, colTo, rowFrom, rowTo, nodataBits);
-      return;
+    } else {
+      if (header.predictor !== 1) {
+        if (header.predictor === 2) undoIntegerPredictor(data, header.sampleType, bw, rowsInBlock, layout.littleEndian);
+        else undoFloatPredictorBytes(data, size, bw, rowsInBlock, layout.littleEndian);
+      }
+      copyRows(data, header.sampleType, layout.littleEndian, bw, dest, destOffset, destStride, colFrom, colTo, rowFrom, rowTo, header.nodata);
     }
-    if (header.predictor !== 1) {
-      if (header.predictor === 2) undoIntegerPredictor(data, header.sampleType, bw, rowsInBlock, layout.littleEndian);
-      else undoFloatPredictorBytes(data, size, bw, rowsInBlock, layout.littleEndian);
+    if (layout.mask && maskDecode) await applyMask(idx, rowsInBlock, dest, destOffset, destStride, colFrom, colTo, rowFrom, rowTo);
+  }
+
+  /** Cells the internal mask marks as without data become NaN (GDAL's mask band reads them as 0 = no data). */
+  async function applyMask(idx: number, rowsInBlock: number, dest: Float32Array, destOffset: number, destStride: number, colFrom: number, colTo: number, rowFrom: number, rowTo: number): Promise<void> {
+    const m = layout.mask!;
+    const off = Number(m.offsets[idx]), count = Number(m.byteCounts[idx]);
+    let bits: Uint8Array | null = null;
+    if (count > 0) {
+      const expected = maskRowBytes(bw) * rowsInBlock;
+      try {
+        const d = maskDecode!(bytes.subarray(off, off + count), expected);
+        bits = d instanceof Promise ? await d : d;
+      } catch (err) {
+        throw damagedBlock(idx, header.tiling, header.height, `its internal mask does not decode (${(err as Error)?.message ?? String(err)})`);
+      }
+      if (bits.byteLength < maskRowBytes(bw) * rowTo) throw damagedBlock(idx, header.tiling, header.height, `its internal mask decodes to ${bits.byteLength} bytes where ${expected} are needed`);
     }
-    copyRows(data, header.sampleType, layout.littleEndian, bw, dest, destOffset, destStride, colFrom, colTo, rowFrom, rowTo, header.nodata);
+    applyMaskRows(bits, bw, dest, destOffset, destStride, colFrom, colTo, rowFrom, rowTo);
   }
 
   async function cachedBlock(idx: number): Promise<Float32Array> {

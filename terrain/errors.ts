@@ -3,6 +3,8 @@
 export type TerrainErrorCode =
   | 'not-tiff' // the bytes are not a TIFF at all
   | 'truncated' // a TIFF whose data ends early
+  | 'not-elevation' // a colour image (palette, RGB …), not heights
+  | 'damaged' // a TIFF with a block or directory entry that cannot be read (named in the message)
   | 'unsupported' // a TIFF feature we do not read (sample format, compression, bands)
   | 'no-georeference' // no tiepoint/scale or transformation
   | 'unknown-crs' // GeoKeys missing or naming a CRS we cannot resolve

@@ -51,12 +51,14 @@ export function pixelToMap(t: GeoTransform, col: number, row: number): [number, 
 /**
  * Bilinear height at map point (x, y) in the grid's CRS, between the four surrounding pixel centres.
  * Returns NaN outside the grid or when any of the four neighbours is nodata (never a silent 0).
- * Points within half a pixel of the edge use the edge pixels (clamped), as GDAL's sampler does.
+ * Points within half a pixel of the edge use the edge pixels (clamped), as GDAL's sampler does. A point is on the
+ * grid when 0 <= col < width and 0 <= row < height (GDAL 3.6.2 gdallocationinfo: the pixel is floor(col),
+ * floor(row)), so the left and top outer edges are on the grid and the right and bottom ones are off it.
  */
 export function sampleBilinear(grid: Grid, x: number, y: number): number {
   const [pc, pr] = mapToPixel(grid.transform, x, y);
   const { width, height, data } = grid;
-  if (!(pc >= 0 && pr >= 0 && pc <= width && pr <= height)) return NaN;
+  if (!(pc >= 0 && pr >= 0 && pc < width && pr < height)) return NaN;
   let fx = pc - 0.5;
   let fy = pr - 0.5;
   if (fx < 0) fx = 0; else if (fx > width - 1) fx = width - 1;
@@ -76,14 +78,12 @@ export function sampleBilinear(grid: Grid, x: number, y: number): number {
   return top + (bottom - top) * ty; // NaN propagates from any nodata neighbour
 }
 
-/** Nearest-pixel height at map point (x, y); NaN outside the grid or on nodata. */
+/** Nearest-pixel height at map point (x, y) (the pixel that contains it, as gdallocationinfo reads); NaN off the grid or on nodata. */
 export function sampleNearest(grid: Grid, x: number, y: number): number {
   const [pc, pr] = mapToPixel(grid.transform, x, y);
-  if (!(pc >= 0 && pr >= 0 && pc <= grid.width && pr <= grid.height)) return NaN;
-  // the far edges belong to the last pixel, so nearest and bilinear agree on what is inside the grid
-  const c = pc < grid.width ? Math.floor(pc) : grid.width - 1;
-  const r = pr < grid.height ? Math.floor(pr) : grid.height - 1;
-  return grid.data[r * grid.width + c];
+  // the same "on the grid" rule as sampleBilinear: the right and bottom outer edges are off it (GDAL)
+  if (!(pc >= 0 && pr >= 0 && pc < grid.width && pr < grid.height)) return NaN;
+  return grid.data[Math.floor(pr) * grid.width + Math.floor(pc)];
 }
 
 /** Build a grid from plain values (tests, synthetic demo terrain); validates sizes. */

@@ -94,14 +94,29 @@ export function evaluateHeading(
   };
 }
 
-function better(a: HeadingOption, b: HeadingOption): boolean {
-  // least spread; within 1 % (or 1 cm) of it, the shorter flight
-  const tol = Math.max(0.01, 0.01 * Math.min(a.aglSpreadM, b.aglSpreadM));
-  if (Math.abs(a.aglSpreadM - b.aglSpreadM) > tol) return a.aglSpreadM < b.aglSpreadM;
-  return a.flightDistanceM < b.flightDistanceM;
+/** Degrees between a layout heading and the first heading tried (0°), lines having no direction (mod 180°). */
+const fromFirstDeg = (h: number): number => Math.min(h % 180, 180 - (h % 180));
+
+/**
+ * The one order of heading options, used to choose and to list them: the smaller spread wins (spreads compared
+ * to the millimetre, so the order is total and rounding noise cannot flip it: a larger spread never beats a
+ * smaller one); on equal spread the shorter flight (to the metre: fewer lines on flat ground); then the
+ * heading nearer the first candidate (0°, mod 180°); then the smaller heading. Negative when `a` comes first.
+ */
+export function compareHeadingOptions(a: HeadingOption, b: HeadingOption): number {
+  const sa = Number.isFinite(a.aglSpreadM) ? Math.round(a.aglSpreadM * 1000) : Infinity;
+  const sb = Number.isFinite(b.aglSpreadM) ? Math.round(b.aglSpreadM * 1000) : Infinity;
+  if (sa !== sb) return sa < sb ? -1 : 1;
+  const fa = Math.round(a.flightDistanceM), fb = Math.round(b.flightDistanceM);
+  if (fa !== fb) return fa - fb;
+  const da = fromFirstDeg(a.headingDeg), db = fromFirstDeg(b.headingDeg);
+  if (da !== db) return da - db;
+  return a.headingDeg - b.headingDeg;
 }
 
-/** Try headings 0–179° (coarse, then 1° around the best) and recommend the least spread of height above ground. */
+const better = (a: HeadingOption, b: HeadingOption): boolean => compareHeadingOptions(a, b) < 0;
+
+/** Try headings 0–179° (coarse, then 1° around the best) and recommend the first in `compareHeadingOptions` order: the least spread of height above ground. */
 export function adviseHeading(
   area: LocalPolygon,
   sampleMany: (xs: Float64Array, ys: Float64Array, out: Float64Array) => number,
@@ -127,5 +142,7 @@ export function adviseHeading(
     if (r.aglSpreadM === r.aglSpreadM && better(r, best!)) best = r;
   }
   const options = [...seen.values()].sort((a, b) => a.headingDeg - b.headingDeg);
-  return { recommendedDeg: best!.headingDeg, options };
+  // the recommendation is the first of every heading tried in the one order (never one the list would rank lower)
+  const first = [...options].sort(compareHeadingOptions)[0];
+  return { recommendedDeg: first.headingDeg, options };
 }

@@ -105,7 +105,7 @@ export function bilinearSampler(grid: Grid): (x: number, y: number) => number {
   return (x, y) => {
     const pc = a0 + a1 * x + a2 * y;
     const pr = b0 + b1 * x + b2 * y;
-    if (!(pc >= 0 && pr >= 0 && pc <= width && pr <= height)) return NaN;
+    if (!(pc >= 0 && pr >= 0 && pc < width && pr < height)) return NaN; // far edges off the grid, as in GDAL
     let fx = pc - 0.5, fy = pr - 0.5;
     if (fx < 0) fx = 0; else if (fx > wMax) fx = wMax;
     if (fy < 0) fy = 0; else if (fy > hMax) fy = hMax;

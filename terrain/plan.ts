@@ -73,6 +73,27 @@ function profileDistances(line: FlightLine, stepM: number): { x: Float64Array; s
   return { x: xs, stationIdx };
 }
 
+/**
+ * A leg shorter than the shortest-leg setting is never shown without saying why: the line itself is that
+ * short, or the leg is a climb/descent at the gradient limit joining two levels, or a level stretch that the
+ * climbs and descents around it (bounded by clearance and the gradient limits) cut short.
+ */
+export function shortLegWarnings(lineIndex: number, lineLengthM: number, legs: ReadonlyArray<PlanLeg>, minLegLengthM: number): PlanWarning[] {
+  const out: PlanWarning[] = [];
+  legs.forEach((g, k) => {
+    const lengthM = g.end.distanceM - g.start.distanceM;
+    if (!(lengthM < minLegLengthM - 1e-3)) return;
+    const dz = g.altitudeEndM - g.altitudeStartM;
+    const why = lineLengthM < minLegLengthM - 1e-3
+      ? `the whole line is only ${round(lineLengthM, 1)} m long`
+      : Math.abs(dz) > 1e-6
+        ? `it is the ${dz > 0 ? 'climb' : 'descent'} of ${round(Math.abs(dz), 1)} m between two levels, at the ${dz > 0 ? 'climb' : 'descent'} limit; a longer one would leave the clearance or the GSD band`
+        : 'it is a level stretch between a climb and a descent that clearance and the climb/descent limits cannot move apart';
+    out.push({ code: 'short-leg', message: `Line ${lineIndex + 1}, leg ${k + 1} is ${round(lengthM, 1)} m long, shorter than the ${minLegLengthM} m shortest-leg setting: ${why}.` });
+  });
+  return out;
+}
+
 /** What the caller knows about the grid beyond the Grid itself (from the GeoTIFF header). */
 export interface AnalyseOptions {
   verticalDatum?: { epsg: number | null; name: string } | null;
@@ -178,7 +199,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
       gsdMaxCm: round(leg.aglMaxM * gsdPerM, 4),
       gradient: round(leg.gradient, 6),
     }));
-    const warnings: PlanWarning[] = [];
+    const warnings: PlanWarning[] = shortLegWarnings(li, line.lengthM, legs, mission.minLegLengthM);
     if (fit.unknownCount > 0) {
       warnings.push({ code: 'ground-unknown', message: `Line ${li + 1}: ${fit.unknownCount} of ${fit.groundM.length} ground samples have no elevation data; heights there were carried over from known neighbours.` });
     }
@@ -219,6 +240,9 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     descentM: Number.isFinite(lastAlt) ? Math.max(0, lastAlt - takeoffGroundM) : 0,
     climbMps: mission.climbMps, descentMps: mission.descentMps, enduranceMin: mission.enduranceMin, batteryReserve: mission.batteryReserve,
   });
+  // the flown profile between photos counts too: a dip between two stations can take the aircraft over the
+  // height limit, and the range shown must agree with the unmet stretch that says so
+  for (const l of outLines) for (const g of l.legs) if (Number.isFinite(g.aglMinM) && Number.isFinite(g.aglMaxM)) agls.push(g.aglMinM, g.aglMaxM);
   const unmetLengthM = outLines.reduce((s, l) => s + l.unmet.reduce((t, u) => t + (u.endM - u.startM), 0), 0);
   const summary: PlanSummary = {
     lineCount: lines.length,

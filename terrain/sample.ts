@@ -57,7 +57,8 @@ export function samplePoints(
 /**
  * The sampling hot loop: heights at grid-CRS coordinates into `out` (NaN = unknown); returns the unknown count.
  * Bilinear between the four surrounding pixel centres, edge pixels clamped within half a pixel of the border,
- * exactly as `sampleBilinear` in grid.ts (that function is the reference the tests compare this loop with).
+ * exactly as `sampleBilinear` in grid.ts (that function is the reference the tests compare this loop with);
+ * the right and bottom outer edges are off the grid, as GDAL says.
  */
 export function sampleGridCoords(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, out: Float64Array | Float32Array, method: SampleMethod = 'bilinear'): number {
   const t = grid.transform;
@@ -89,7 +90,7 @@ function bilinearLoop(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, 
       const v00 = data[o], v10 = data[o + 1], v01 = data[o + width], v11 = data[o + width + 1];
       const top = v00 + (v10 - v00) * tx;
       v = top + (v01 + (v11 - v01) * tx - top) * ty;
-    } else if (fx >= -0.5 && fy >= -0.5 && fx <= wMax + 0.5 && fy <= hMax + 0.5) {
+    } else if (fx >= -0.5 && fy >= -0.5 && fx < wMax + 0.5 && fy < hMax + 0.5) {
       // within half a pixel of the edge: clamp to the edge pixels
       if (fx < 0) fx = 0; else if (fx > wMax) fx = wMax;
       if (fy < 0) fy = 0; else if (fy > hMax) fy = hMax;
@@ -116,11 +117,7 @@ function nearestLoop(grid: Grid, xs: ArrayLike<number>, ys: ArrayLike<number>, o
     const pc = a0 + a1 * x + a2 * y;
     const pr = b0 + b1 * x + b2 * y;
     let v = NaN;
-    if (pc >= 0 && pr >= 0 && pc <= width && pr <= height) {
-      const c = pc < width ? pc | 0 : width - 1; // the far edge belongs to the last pixel
-      const r = pr < height ? pr | 0 : height - 1;
-      v = data[r * width + c];
-    }
+    if (pc >= 0 && pr >= 0 && pc < width && pr < height) v = data[(pr | 0) * width + (pc | 0)]; // GDAL: far edges are off
     out[i] = v;
     if (v !== v) unknown++;
   }

@@ -1,5 +1,6 @@
 /** Display units of a project: heights, lengths and speeds in metres or feet; values are stored in SI always. */
 import type { UnitSystem } from '../../contracts/projects';
+import { roundTowardFailing, type TargetBound } from '../../contracts/target-rounding';
 
 /** The international foot, exactly 0.3048 m (international yard and pound agreement, 1959). */
 export const metresPerFoot = 0.3048;
@@ -24,15 +25,17 @@ export function fromDisplayLength(value: number, units: UnitSystem): number {
   return units === 'imperial' ? value * metresPerFoot : value;
 }
 
-function fixed(v: number, digits: number): string {
+/** `bound`: the figure is shown against a target it must reach ('min') or stay under ('max'): rounded toward failing. */
+function fixed(v: number, digits: number, bound?: TargetBound): string {
   if (!Number.isFinite(v)) return '–';
-  return v.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
+  const shown = bound ? roundTowardFailing(v, digits, bound) : v;
+  return shown.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
 }
 
-/** "123 m" or "404 ft"; `digits` decimals (default 0); a dash for a missing value. */
-export function formatLength(metres: number | null | undefined, units: UnitSystem, digits = 0): string {
+/** "123 m" or "404 ft"; `digits` decimals (default 0); a dash for a missing value; `bound` for a figure against a target. */
+export function formatLength(metres: number | null | undefined, units: UnitSystem, digits = 0, bound?: TargetBound): string {
   if (metres === null || metres === undefined || !Number.isFinite(metres)) return '–';
-  return `${fixed(toDisplayLength(metres, units), digits)} ${lengthUnit(units)}`;
+  return `${fixed(toDisplayLength(metres, units), digits, bound)} ${lengthUnit(units)}`;
 }
 
 /** "10.0 m/s" or "32.8 ft/s". */
@@ -41,16 +44,16 @@ export function formatSpeed(mps: number | null | undefined, units: UnitSystem, d
   return `${fixed(toDisplayLength(mps, units), digits)} ${speedUnit(units)}`;
 }
 
-/** A fraction (0.75) as a percentage ("75 %"). */
-export function formatPercent(fraction: number | null | undefined, digits = 0): string {
+/** A fraction (0.75) as a percentage ("75 %"); `bound` for a figure against a target (an achieved overlap: 'min'). */
+export function formatPercent(fraction: number | null | undefined, digits = 0, bound?: TargetBound): string {
   if (fraction === null || fraction === undefined || !Number.isFinite(fraction)) return '–';
-  return `${fixed(fraction * 100, digits)} %`;
+  return `${fixed(fraction * 100, digits, bound)} %`;
 }
 
 /** GSD stays in centimetres in both systems: it is how survey specifications state it. */
-export function formatGsd(cm: number | null | undefined, digits = 2): string {
+export function formatGsd(cm: number | null | undefined, digits = 2, bound?: TargetBound): string {
   if (cm === null || cm === undefined || !Number.isFinite(cm)) return '–';
-  return `${fixed(cm, digits)} cm`;
+  return `${fixed(cm, digits, bound)} cm`;
 }
 
 /** Plain number with thousands separators. */

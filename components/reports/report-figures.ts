@@ -14,15 +14,16 @@ export function formatHeading(deg: number | null | undefined): string {
 /** The station figures every line and the whole plan share. */
 export function statsFigures(s: StationStats): Figure[] {
   return [
-    { key: 'share', label: 'Stations meeting the GSD target', value: formatPercent(s.shareMeetingGsd, 1) },
-    { key: 'gsd-min', label: 'GSD min', value: formatGsd(s.gsdCm.min) },
+    // figures against a target are rounded toward failing (contracts/target-rounding.ts)
+    { key: 'share', label: 'Stations meeting the GSD target', value: formatPercent(s.shareMeetingGsd, 1, 'min') },
+    { key: 'gsd-min', label: 'GSD min', value: formatGsd(s.gsdCm.min, 2, 'min') },
     { key: 'gsd-p5', label: 'GSD 5th percentile', value: formatGsd(s.gsdCm.p5) },
     { key: 'gsd-median', label: 'GSD median', value: formatGsd(s.gsdCm.median) },
-    { key: 'gsd-max', label: 'GSD max', value: formatGsd(s.gsdCm.max) },
-    { key: 'forward-min', label: 'Forward overlap min', value: formatPercent(s.forwardOverlapMin, 1) },
-    { key: 'side-min', label: 'Side overlap min', value: formatPercent(s.sideOverlapMin, 1) },
-    { key: 'agl-min', label: 'Height above ground min', value: formatLength(s.aglMinM, 'metric', 1) },
-    { key: 'agl-max', label: 'Height above ground max', value: formatLength(s.aglMaxM, 'metric', 1) },
+    { key: 'gsd-max', label: 'GSD max', value: formatGsd(s.gsdCm.max, 2, 'max') },
+    { key: 'forward-min', label: 'Forward overlap min', value: formatPercent(s.forwardOverlapMin, 1, 'min') },
+    { key: 'side-min', label: 'Side overlap min', value: formatPercent(s.sideOverlapMin, 1, 'min') },
+    { key: 'agl-min', label: 'Height above ground min', value: formatLength(s.aglMinM, 'metric', 1, 'min') },
+    { key: 'agl-max', label: 'Height above ground max', value: formatLength(s.aglMaxM, 'metric', 1, 'max') },
     {
       key: 'known',
       label: 'Stations with known ground',
@@ -49,14 +50,14 @@ export function lineFigures(l: ReportLine): Figure[] {
   const legs = `${formatCount(l.legCount)} ${l.legCount === 1 ? 'leg' : 'legs'}`;
   return [
     { key: 'line', label: 'Length · heading · legs', value: `${formatLength(l.lengthM, 'metric')} · ${formatHeading(l.headingDeg)} · ${legs}` },
-    { key: 'share', label: 'Stations meeting the GSD target', value: formatPercent(l.shareMeetingGsd, 1) },
+    { key: 'share', label: 'Stations meeting the GSD target', value: formatPercent(l.shareMeetingGsd, 1, 'min') },
     {
       key: 'gsd',
       label: 'GSD min / p5 / median / max',
-      value: `${slash([l.gsdCm.min, l.gsdCm.p5, l.gsdCm.median, l.gsdCm.max].map((v) => bare(formatGsd(v))))} cm`,
+      value: `${slash([formatGsd(l.gsdCm.min, 2, 'min'), formatGsd(l.gsdCm.p5), formatGsd(l.gsdCm.median), formatGsd(l.gsdCm.max, 2, 'max')].map(bare))} cm`,
     },
-    { key: 'overlap', label: 'Overlap min, forward / side', value: `${slash([l.forwardOverlapMin, l.sideOverlapMin].map((v) => bare(formatPercent(v, 1))))} %` },
-    { key: 'agl', label: 'Height above ground', value: `${bare(formatLength(l.aglMinM, 'metric', 1))} – ${formatLength(l.aglMaxM, 'metric', 1)}` },
+    { key: 'overlap', label: 'Overlap min, forward / side', value: `${slash([l.forwardOverlapMin, l.sideOverlapMin].map((v) => bare(formatPercent(v, 1, 'min'))))} %` },
+    { key: 'agl', label: 'Height above ground', value: `${bare(formatLength(l.aglMinM, 'metric', 1, 'min'))} – ${formatLength(l.aglMaxM, 'metric', 1, 'max')}` },
     { key: 'known', label: 'Stations with known ground', value: `${formatCount(l.knownCount)} of ${formatCount(l.stationCount)}` },
   ];
 }

@@ -2,6 +2,7 @@
 import { StyleSheet, View } from 'react-native';
 import type { UnitSystem } from '../../contracts/projects';
 import type { PlanResult } from '../../terrain/plan';
+import { compareHeadingOptions } from '../../terrain/heading';
 import { formatLength } from '../projects/units';
 import { layout, space } from '../theme';
 import { Card, Heading, Text } from '../ui';
@@ -10,7 +11,8 @@ import { Card, Heading, Text } from '../ui';
 const shown = 5;
 
 export function HeadingAdvice({ advice, units }: { advice: NonNullable<PlanResult['headingAdvice']>; units: UnitSystem }) {
-  const best = [...advice.options].sort((a, b) => a.aglSpreadM - b.aglSpreadM).slice(0, shown);
+  // the engine's own order (least spread; ties to the heading nearer 0°): the recommended heading is always the first row
+  const best = [...advice.options].sort(compareHeadingOptions).slice(0, shown);
   return (
     <Card testID="heading-advice">
       <Heading level={2}>Heading advice: {advice.recommendedDeg}°</Heading>

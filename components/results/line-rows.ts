@@ -51,7 +51,8 @@ export function lineRows(lines: readonly PlanLine[]): LineRow[] {
       gsdMaxCm: gsd.length ? gsd[gsd.length - 1] : null,
       forwardOverlapMin: minOf(line.stations.map((s) => s.forwardOverlap)),
       sideOverlapMin: minOf(line.stations.map((s) => s.sideOverlap)),
-      aglMinM: minOf(line.stations.map((s) => s.aglM)),
+      // the legs flown between photos too, as the report counts them
+      aglMinM: minOf([...line.stations.map((s) => s.aglM), ...line.legs.map((g) => g.aglMinM)]),
       legs: line.legs.length,
       flagged: line.stations.filter((s) => stationStatus(s) !== 'meets').length,
       worst: line.stations.reduce<StationStatus>((w, s) => {

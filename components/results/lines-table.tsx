@@ -27,12 +27,13 @@ const columns: Column[] = [
   { key: 'number', label: 'Line', cell: (r) => String(r.number), flex: 0.8 },
   { key: 'lengthM', label: 'Length', cell: (r, u) => formatLength(r.lengthM, u), flex: 1 },
   { key: 'photos', label: 'Photos', cell: (r) => String(r.photos), flex: 1 },
-  { key: 'gsdMinCm', label: 'GSD min', cell: (r) => formatGsd(r.gsdMinCm), flex: 1 },
+  { key: 'gsdMinCm', label: 'GSD min', cell: (r) => formatGsd(r.gsdMinCm, 2, 'min'), flex: 1 },
   { key: 'gsdMedianCm', label: 'GSD median', cell: (r) => formatGsd(r.gsdMedianCm), flex: 1 },
-  { key: 'gsdMaxCm', label: 'GSD max', cell: (r) => formatGsd(r.gsdMaxCm), flex: 1 },
-  { key: 'forwardOverlapMin', label: 'Forward min', cell: (r) => formatPercent(r.forwardOverlapMin), flex: 1 },
-  { key: 'sideOverlapMin', label: 'Side min', cell: (r) => formatPercent(r.sideOverlapMin), flex: 0.9 },
-  { key: 'aglMinM', label: 'AGL min', cell: (r, u) => formatLength(r.aglMinM, u), flex: 0.9 },
+  { key: 'gsdMaxCm', label: 'GSD max', cell: (r) => formatGsd(r.gsdMaxCm, 2, 'max'), flex: 1 },
+  // against the overlap targets: one decimal, rounded toward failing (79.8 % never shows as 80 %)
+  { key: 'forwardOverlapMin', label: 'Forward min', cell: (r) => formatPercent(r.forwardOverlapMin, 1, 'min'), flex: 1 },
+  { key: 'sideOverlapMin', label: 'Side min', cell: (r) => formatPercent(r.sideOverlapMin, 1, 'min'), flex: 0.9 },
+  { key: 'aglMinM', label: 'AGL min', cell: (r, u) => formatLength(r.aglMinM, u, 0, 'min'), flex: 0.9 },
   { key: 'legs', label: 'Legs', cell: (r) => String(r.legs), flex: 0.7 },
   { key: 'warningCount', label: 'Warnings', cell: (r) => (r.warnings.length ? String(r.warnings.length) : '–'), flex: 1.2 },
 ];
@@ -137,10 +138,10 @@ function LinesList(p: LinesTableProps) {
                 Line {r.number} · {formatLength(r.lengthM, p.units)} · {r.photos} photos · {r.legs} leg{r.legs === 1 ? '' : 's'}
               </Text>
               <Text variant="caption">
-                GSD {formatGsd(r.gsdMinCm)} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm)} (min / median / max)
+                GSD {formatGsd(r.gsdMinCm, 2, 'min')} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm, 2, 'max')} (min / median / max)
               </Text>
               <Text variant="caption">
-                Least overlap {formatPercent(r.forwardOverlapMin)} forward, {formatPercent(r.sideOverlapMin)} side · lowest {formatLength(r.aglMinM, p.units)} above ground
+                Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
               </Text>
               <FlaggedNote row={r} />
               {r.warnings.map((w, i) => (

@@ -25,10 +25,11 @@ export function SummaryFigures({ summary, units }: { summary: PlanSummary; units
       <Figure label="Photos" value={formatCount(s.photoCount)} note={`${s.lineCount} lines`} testID="summary-photos" />
       <Figure label="Flight time" value={formatDuration(s.flightTimeS)} note={`${formatLength(s.flightDistanceM, units)} flown`} testID="summary-time" />
       <Figure label="Batteries" value={formatCount(s.batteries)} note="with the reserve kept" testID="summary-batteries" />
-      <Figure label="Within the GSD target" value={formatPercent(s.shareWithinGsdTarget, 1)} note={`band ${formatGsd(s.gsdBandCm.min)} – ${formatGsd(s.gsdBandCm.max)}`} testID="summary-share" />
-      <Figure label="GSD min / median / max" value={`${formatGsd(s.gsdCm.min)} / ${formatGsd(s.gsdCm.median)} / ${formatGsd(s.gsdCm.max)}`} />
-      <Figure label="Least overlap forward / side" value={`${formatPercent(s.forwardOverlapMin)} / ${formatPercent(s.sideOverlapMin)}`} />
-      <Figure label="Height above ground" value={`${formatLength(s.aglMinM, units)} – ${formatLength(s.aglMaxM, units)}`} note={`planned ${formatLength(s.plannedHeightM, units)}`} />
+      {/* figures against a target are rounded toward failing (contracts/target-rounding.ts); overlaps with one decimal */}
+      <Figure label="Within the GSD target" value={formatPercent(s.shareWithinGsdTarget, 1, 'min')} note={`band ${formatGsd(s.gsdBandCm.min)} – ${formatGsd(s.gsdBandCm.max)}`} testID="summary-share" />
+      <Figure label="GSD min / median / max" value={`${formatGsd(s.gsdCm.min, 2, 'min')} / ${formatGsd(s.gsdCm.median)} / ${formatGsd(s.gsdCm.max, 2, 'max')}`} />
+      <Figure label="Least overlap forward / side" value={`${formatPercent(s.forwardOverlapMin, 1, 'min')} / ${formatPercent(s.sideOverlapMin, 1, 'min')}`} />
+      <Figure label="Height above ground" value={`${formatLength(s.aglMinM, units, 0, 'min')} – ${formatLength(s.aglMaxM, units, 0, 'max')}`} note={`planned ${formatLength(s.plannedHeightM, units)}`} />
       <Figure label="Photos off target" value={formatCount(s.flaggedStationCount)} note={s.unmetLengthM > 0 ? `band not held over ${formatLength(s.unmetLengthM, units)}` : 'band held on every line'} />
     </View>
   );

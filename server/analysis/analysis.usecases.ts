@@ -72,7 +72,7 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
   }
 
   async function compute(v: { id: string; teamId: string; siteId: string; input: unknown }) {
-    const [s] = await db.select({ storageKey: site.storageKey }).from(site).where(and(eq(site.id, v.siteId), eq(site.teamId, v.teamId))).limit(1);
+    const [s] = await db.select({ storageKey: site.storageKey, verticalDatum: site.verticalDatum }).from(site).where(and(eq(site.id, v.siteId), eq(site.teamId, v.teamId))).limit(1);
     if (!s) throw new FinalAnalysisError('The elevation grid of this version is gone.');
     let bytes: Buffer;
     try {
@@ -83,12 +83,13 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
     }
     await setProgress(v.id, 20);
     let last = 0;
+    // the site's datum goes into the result, so every stored height names its reference
     const result = await terrain.analyse(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), v.input, (pct) => {
       if (pct - last >= 5) {
         last = pct;
         setProgress(v.id, pct).catch(() => undefined);
       }
-    });
+    }, { siteVerticalDatum: s.verticalDatum });
     const checked = planResultSchema.safeParse(result);
     if (!checked.success) throw new FinalAnalysisError(`The analysis produced a result the server cannot store (${checked.error.issues[0]?.message}); this is a Loftline bug.`);
     return checked.data;

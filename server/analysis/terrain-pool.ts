@@ -9,11 +9,11 @@ import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { PlanResult } from '../../terrain/index';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, inspectDem, type DemInspection } from './terrain-tasks';
+import { analyseMission, inspectDem, type AnalyseMissionOptions, type DemInspection } from './terrain-tasks';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
-  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown };
+  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions };
 
 export type ThreadReply =
   | { id: number; progress: number }
@@ -38,7 +38,7 @@ export class TerrainTimeoutError extends Error {
 /** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
 export interface TerrainRunner {
   inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
-  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void): Promise<PlanResult>;
+  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<PlanResult>;
   close(): Promise<void>;
 }
 
@@ -77,7 +77,7 @@ function rebuildError(e: { name: string; code?: string; message: string; stack?:
 export function createInlineTerrainRunner(): TerrainRunner {
   return {
     inspect: (bytes, opts) => inspectDem(bytes, opts),
-    analyse: (bytes, mission, onProgress) => analyseMission(bytes, mission, onProgress),
+    analyse: (bytes, mission, onProgress, o) => analyseMission(bytes, mission, onProgress, o),
     close: async () => {},
   };
 }
@@ -157,7 +157,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
 
   return {
     inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
-    analyse: (bytes, mission, onProgress) => run<PlanResult>({ kind: 'analyse', bytes, mission }, onProgress),
+    analyse: (bytes, mission, onProgress, o) => run<PlanResult>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
     async close() {
       closed = true;
       for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));

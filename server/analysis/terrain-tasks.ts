@@ -11,8 +11,8 @@ export const MAX_DEM_PIXELS = 2 ** 28;
 
 /**
  * node:zlib's inflate (about 4x faster than geotiff.js's), never producing more than the block's declared size:
- * a 1 MB block that inflates to 1 GiB stops at the declared size instead of filling memory. A block that will
- * not inflate, or inflates past its size, is reported as damaged data.
+ * a 1 MB block that inflates to 1 GiB stops at the declared size instead of filling memory. A block that will not
+ * inflate, or inflates past its size, throws; the reader names the block (TerrainError `damaged`).
  */
 export const nodeInflate: InflateFn = (data, expectedBytes) => {
   // twice the declared size leaves room for writers that pad the last strip to a full block
@@ -20,10 +20,8 @@ export const nodeInflate: InflateFn = (data, expectedBytes) => {
   try {
     return inflateSync(data, { chunkSize: Math.max(1024, Math.min(expectedBytes ?? 0, 64 * 2 ** 20)), ...(limit ? { maxOutputLength: limit } : {}) });
   } catch (err) {
-    const past = (err as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE';
-    throw new TerrainError('truncated', past
-      ? `A compressed block of the GeoTIFF inflates far past its declared ${expectedBytes} bytes; the file is damaged, so export it again.`
-      : `A compressed block of the GeoTIFF cannot be decoded (${(err as Error).message}); the file is damaged or cut short, so export it again.`);
+    if ((err as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE') throw new TerrainError('damaged', `it inflates far past its declared ${expectedBytes} bytes`);
+    throw err;
   }
 };
 
@@ -57,12 +55,31 @@ export async function inspectDem(bytes: Uint8Array, opts: { maxSizePx?: number; 
   };
 }
 
-/** Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin). */
-export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}): Promise<PlanResult> {
+/** What the analysis needs to know beyond the file: the vertical datum the site states for its heights. */
+export interface AnalyseMissionOptions {
+  /** The site's vertical datum as stated at upload (the planner's words, or the file's own datum). */
+  siteVerticalDatum?: string | null;
+}
+
+/**
+ * The site's datum as the result states it: the file's own datum (with its EPSG code) when the site names the
+ * same one, else the site's words with an EPSG code only where they give one ("EGM96 (EPSG:5773)").
+ */
+export function analysisDatum(siteVerticalDatum: string | null | undefined, declared: { epsg: number | null; name: string } | null): { epsg: number | null; name: string } | null {
+  const name = siteVerticalDatum?.trim();
+  if (!name) return declared;
+  if (declared && declared.name === name) return declared;
+  const code = /\bEPSG\s*:\s*(\d{4,6})\b/i.exec(name);
+  return { epsg: code ? Number(code[1]) : null, name };
+}
+
+/** Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin), heights named by the site's datum. */
+export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}, opts: AnalyseMissionOptions = {}): Promise<PlanResult> {
   const bbox = missionBboxWgs84(mission);
+  const header = await readDemHeader(bytes);
   const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
   onProgress(40);
-  const result = analysePlan(grid, mission);
+  const result = analysePlan(grid, mission, { verticalDatum: analysisDatum(opts.siteVerticalDatum, header.verticalDatum) });
   onProgress(95);
   return result;
 }

@@ -13,7 +13,7 @@ port.on('message', async (task: ThreadTask) => {
       const r = await inspectDem(task.bytes, task.opts);
       reply({ id: task.id, ok: true, value: r }, [r.hillshade.png.buffer as ArrayBuffer]);
     } else {
-      const r = await analyseMission(task.bytes, task.mission, (pct) => reply({ id: task.id, progress: pct }));
+      const r = await analyseMission(task.bytes, task.mission, (pct) => reply({ id: task.id, progress: pct }), task.opts);
       reply({ id: task.id, ok: true, value: r });
     }
   } catch (err) {

@@ -1,7 +1,7 @@
 /** What every export of a version is written from: its lines and legs, waypoints, datum and cautions. */
 import { reviewStateSchema } from '../../contracts/reviews';
 import { buildLegSheet } from '../flights/leg-sheet.build';
-import { readResult } from '../reports/result-view';
+import { heightDatumOf, readResult } from '../reports/result-view';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { datumKindOf } from './datum';
 import { waypointsOf } from './waypoints';
@@ -9,7 +9,8 @@ import { waypointsOf } from './waypoints';
 export function exportContext(v: VersionRecord, now: Date = new Date()) {
   const view = readResult(v.result);
   const sheet = buildLegSheet(v, now);
-  const datum = { name: v.siteVerticalDatum, kind: datumKindOf(v.siteVerticalDatum) };
+  const datumName = heightDatumOf(v);
+  const datum = { name: datumName, kind: datumKindOf(datumName) };
   const waypoints = waypointsOf(view, datum);
   const state = reviewStateSchema.parse(v.reviewState);
   const title = `${v.planName} v${v.number} (${v.projectName})`;

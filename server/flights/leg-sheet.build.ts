@@ -5,7 +5,7 @@ import { flightCautions, notSignedOffCaution } from '../reports/cautions';
 import { fmt } from '../reports/format';
 import { azimuthDeg, distanceM } from '../reports/geodesy';
 import { lineHeadingDeg, lineLengthM } from '../reports/report.build';
-import { noteText, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../reports/result-view';
+import { heightDatumOf, noteText, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../reports/result-view';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { planBatteries } from './battery-plan';
 
@@ -63,7 +63,7 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
   const farthest = lines.length
     ? Math.max(...lines.flatMap((l) => l.legs.flatMap((g) => [distanceM(takeoff, g.start), distanceM(takeoff, g.end)])))
     : null;
-  const cautions = flightCautions({ surfaceKind, verticalDatum: v.siteVerticalDatum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM });
+  const cautions = flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM });
   if (!signedOff) cautions.unshift(notSignedOffCaution);
 
   const checklist: ChecklistItem[] = [
@@ -71,7 +71,7 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
     {
       id: 'takeoff-height',
       kind: 'check',
-      text: `Take off from ${takeoff.lat.toFixed(6)}, ${takeoff.lon.toFixed(6)}: the sheet assumes its ground is ${fmt.metres(groundM)} above ${v.siteVerticalDatum}. Check it on site; from another spot every altitude above takeoff shifts by the height difference.`,
+      text: `Take off from ${takeoff.lat.toFixed(6)}, ${takeoff.lon.toFixed(6)}: the sheet assumes its ground is ${fmt.metres(groundM)} above ${heightDatumOf(v)}. Check it on site; from another spot every altitude above takeoff shifts by the height difference.`,
     },
     { id: 'limits', kind: 'check', text: `Confirm the local altitude limit, airspace and permissions for this site; the plan's limit is ${fmt.metres(mission.maxAglM)} above ground.` },
     {
@@ -97,7 +97,7 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
       signedOffAt: signedOff && v.signedOffAt ? v.signedOffAt.toISOString() : null,
     },
     units: v.projectUnits === 'imperial' ? 'imperial' : 'metric',
-    datum: { name: v.siteVerticalDatum, takeoff: { lon: takeoff.lon, lat: takeoff.lat }, takeoffGroundM: groundM },
+    datum: { name: heightDatumOf(v), takeoff: { lon: takeoff.lon, lat: takeoff.lat }, takeoffGroundM: groundM },
     speedMps: mission.speedMps,
     altitudeMode: mission.mode,
     lines,

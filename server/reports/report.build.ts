@@ -8,7 +8,7 @@ import type { VersionRecord } from '../reviews/versions.repository';
 import { flightCautions } from './cautions';
 import { azimuthDeg } from './geodesy';
 import { fmt } from './format';
-import { noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
+import { heightDatumOf, noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
 
 /** The GSD band of the spec: target ± tolerance (a fraction of the target). */
@@ -16,8 +16,12 @@ export function gsdBandCm(m: Pick<Mission, 'targetGsdCm' | 'gsdTolerance'>): [nu
   return [m.targetGsdCm * (1 - m.gsdTolerance), m.targetGsdCm * (1 + m.gsdTolerance)];
 }
 
-/** Figures over a set of stations against the GSD band. */
-export function stationStats(stations: StationView[], band: [number, number]): StationStats {
+/**
+ * Figures over a set of stations against the GSD band. Heights above ground span the stations and the legs
+ * flown between them (each leg's least and greatest over its whole profile): a status such as "above the
+ * height limit" can come from ground between two photos, and the range beside it must include it.
+ */
+export function stationStats(stations: StationView[], band: [number, number], legs: ReadonlyArray<{ aglMinM: number | null; aglMaxM: number | null }> = []): StationStats {
   const gsd = stations.map((s) => s.gsdCm);
   return {
     stationCount: stations.length,
@@ -26,8 +30,8 @@ export function stationStats(stations: StationView[], band: [number, number]): S
     gsdCm: distribution(gsd),
     forwardOverlapMin: minKnown(stations.map((s) => s.forwardOverlap)),
     sideOverlapMin: minKnown(stations.map((s) => s.sideOverlap)),
-    aglMinM: minKnown(stations.map((s) => s.aglM)),
-    aglMaxM: maxKnown(stations.map((s) => s.aglM)),
+    aglMinM: minKnown([...stations.map((s) => s.aglM), ...legs.map((l) => l.aglMinM)]),
+    aglMaxM: maxKnown([...stations.map((s) => s.aglM), ...legs.map((l) => l.aglMaxM)]),
   };
 }
 
@@ -54,35 +58,35 @@ function specChecks(m: Mission, o: StationStats, lineCount: number, band: [numbe
       key: 'gsd-band',
       label: 'GSD within the target band',
       required: `${fmt.gsdCm(band[0])} to ${fmt.gsdCm(band[1])} at every station`,
-      achieved: `${fmt.percent(o.shareMeetingGsd)} of stations; GSD ${fmt.gsdCm(o.gsdCm.min)} to ${fmt.gsdCm(o.gsdCm.max)}`,
+      achieved: `${fmt.percent(o.shareMeetingGsd, 'min')} of stations; GSD ${fmt.gsdCm(o.gsdCm.min, 'min')} to ${fmt.gsdCm(o.gsdCm.max, 'max')}`,
       pass: o.shareMeetingGsd === 1,
     },
     {
       key: 'forward-overlap',
       label: 'Forward overlap',
       required: `at least ${fmt.percent(m.forwardOverlap)}`,
-      achieved: `minimum ${fmt.percent(o.forwardOverlapMin)}`,
+      achieved: `minimum ${fmt.percent(o.forwardOverlapMin, 'min')}`,
       pass: o.forwardOverlapMin !== null && o.forwardOverlapMin >= m.forwardOverlap - eps,
     },
     {
       key: 'side-overlap',
       label: 'Side overlap',
       required: `at least ${fmt.percent(m.sideOverlap)}`,
-      achieved: o.sideOverlapMin === null && lineCount <= 1 ? 'one line only: no side overlap' : `minimum ${fmt.percent(o.sideOverlapMin)}`,
+      achieved: o.sideOverlapMin === null && lineCount <= 1 ? 'one line only: no side overlap' : `minimum ${fmt.percent(o.sideOverlapMin, 'min')}`,
       pass: o.sideOverlapMin === null ? lineCount <= 1 : o.sideOverlapMin >= m.sideOverlap - eps,
     },
     {
       key: 'clearance',
       label: 'Clearance above ground',
       required: `at least ${fmt.metres(m.clearanceM + m.obstacleAllowanceM)} (clearance ${fmt.metres(m.clearanceM)} + obstacle allowance ${fmt.metres(m.obstacleAllowanceM)})`,
-      achieved: `minimum ${fmt.metres(o.aglMinM)}`,
+      achieved: `minimum ${fmt.metres(o.aglMinM, 'min')}`,
       pass: o.aglMinM !== null && o.aglMinM >= m.clearanceM + m.obstacleAllowanceM - eps,
     },
     {
       key: 'height-limit',
       label: 'Height limit above ground',
       required: `at most ${fmt.metres(m.maxAglM)}`,
-      achieved: `maximum ${fmt.metres(o.aglMaxM)}`,
+      achieved: `maximum ${fmt.metres(o.aglMaxM, 'max')}`,
       pass: o.aglMaxM !== null && o.aglMaxM <= m.maxAglM + eps,
     },
   ];
@@ -95,7 +99,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
   const meta = v.siteMetadata as GridMetadata;
   const band = gsdBandCm(mission);
   const all = view.lines.flatMap((l) => l.stations);
-  const overall = stationStats(all, band);
+  const overall = stationStats(all, band, view.lines.flatMap((l) => l.legs));
   const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
   const basis = overall.gsdCm.median;
   const state = reviewStateSchema.parse(v.reviewState);
@@ -132,7 +136,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
     checks: specChecks(mission, overall, view.lines.length, band),
     lines: view.lines.map((line, i) => ({
       number: i + 1,
-      ...stationStats(line.stations, band),
+      ...stationStats(line.stations, band, line.legs),
       lengthM: lineLengthM(line),
       headingDeg: lineHeadingDeg(line),
       legCount: line.legs.length,
@@ -145,7 +149,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       crs: { name: meta.crs.name, epsg: meta.crs.epsg },
       resolution: meta.resolution,
       resolutionUnit: unitOfProj4(meta.crs.proj4),
-      verticalDatum: v.siteVerticalDatum,
+      verticalDatum: heightDatumOf(v),
       surfaceKind,
       elevationRangeM: [meta.elevation.min, meta.elevation.max],
     },
@@ -164,11 +168,11 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       'GSD, footprint and overlaps are computed station by station from the ground under each photo in the elevation grid, not from flat-ground formulas.',
       `A station meets the GSD target when its GSD lies within ${fmt.gsdCm(band[0])} to ${fmt.gsdCm(band[1])} (target ${fmt.gsdCm(mission.targetGsdCm)} ± ${fmt.percent(mission.gsdTolerance)}); stations over unknown ground count as not meeting it.`,
       `Percentiles: ${percentileMethod}.`,
-      `Heights above the datum refer to the grid's vertical datum (${v.siteVerticalDatum}); altitudes for the pilot are above the takeoff point.`,
+      `Heights above the datum refer to the grid's vertical datum (${heightDatumOf(v)}); altitudes for the pilot are above the takeoff point.`,
       'The camera points straight down (no tilt, roll or wind crab) and the aircraft holds the planned track and speed.',
     ],
     warnings: planWarnings(view),
-    cautions: flightCautions({ surfaceKind, verticalDatum: v.siteVerticalDatum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
+    cautions: flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
     signOff: {
       state,
       signedOffBy: state === 'signed_off' ? (v.signedOffByName ?? '(former member)') : null,

@@ -130,6 +130,15 @@ export function takeoffGroundM(view: ResultView): number | null {
   return null;
 }
 
+/**
+ * The vertical datum every height of a version is above: the one its stored analysis names (the site's datum,
+ * passed to the analysis), else the site's as stated (results stored before the analysis carried it).
+ */
+export function heightDatumOf(v: { result: unknown; siteVerticalDatum: string }): string {
+  const named = (v.result as { heights?: { verticalDatum?: { name?: unknown } | null } } | null)?.heights?.verticalDatum?.name;
+  return typeof named === 'string' && named.trim() !== '' ? named : v.siteVerticalDatum;
+}
+
 /** A version can be reported on only once its analysis is done. */
 export function requireAnalysed(v: { analysisState: string; result: unknown; number: number }): void {
   if (v.analysisState !== 'done' || v.result === null || v.result === undefined) {

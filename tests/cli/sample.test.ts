@@ -45,5 +45,5 @@ describe('terrain sample', () => {
       expect(r.stderr.trim().split('\n'), args.join(' ')).toHaveLength(1);
       expect(r.stderr).toMatch(pattern);
     }
-  });
+  }, 120_000); // five runs of the command line: slow on a shared machine
 });

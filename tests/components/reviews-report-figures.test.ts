@@ -52,3 +52,11 @@ describe('compliance report figures', () => {
     expect(formatRangeCm(null)).toBe('–');
   });
 });
+
+describe('report figures against their targets', () => {
+  it('round toward failing: 79.96 % forward overlap is 79.9 %, never 80.0 %; a 120.04 m maximum is 120.1 m', () => {
+    const figures = Object.fromEntries(lineFigures({ ...line, forwardOverlapMin: 0.7996, aglMaxM: 120.04, aglMinM: 29.96 }).map((f) => [f.key, f.value]));
+    expect(figures.overlap).toBe('79.9 / 69.8 %');
+    expect(figures.agl).toBe('29.9 – 120.1 m');
+  });
+});

@@ -118,10 +118,11 @@ describe('the compliance report (PDF)', () => {
     const text = pdfText(pdf);
     const squash = (s: string) => s.replace(/\s+/g, ' ');
     const o = r.overall;
-    const overallRow = [String(o.stationCount), fmt.percent(o.shareMeetingGsd), fmt.gsdCm(o.gsdCm.min), fmt.gsdCm(o.gsdCm.p5), fmt.gsdCm(o.gsdCm.median), fmt.gsdCm(o.gsdCm.max), fmt.percent(o.forwardOverlapMin), fmt.percent(o.sideOverlapMin), fmt.metres(o.aglMinM)];
+    // figures against a target rounded toward failing, as printed (contracts/target-rounding.ts)
+    const overallRow = [String(o.stationCount), fmt.percent(o.shareMeetingGsd, 'min'), fmt.gsdCm(o.gsdCm.min, 'min'), fmt.gsdCm(o.gsdCm.p5), fmt.gsdCm(o.gsdCm.median), fmt.gsdCm(o.gsdCm.max, 'max'), fmt.percent(o.forwardOverlapMin, 'min'), fmt.percent(o.sideOverlapMin, 'min'), fmt.metres(o.aglMinM, 'min')];
     expect(squash(text)).toContain(overallRow.join(' '));
     for (const l of r.lines) {
-      const row = [String(l.number), fmt.metres(l.lengthM), fmt.percent(l.shareMeetingGsd), fmt.gsdCm(l.gsdCm.min), fmt.gsdCm(l.gsdCm.p5), fmt.gsdCm(l.gsdCm.median), fmt.gsdCm(l.gsdCm.max), fmt.percent(l.forwardOverlapMin), fmt.percent(l.sideOverlapMin), fmt.metres(l.aglMinM)];
+      const row = [String(l.number), fmt.metres(l.lengthM), fmt.percent(l.shareMeetingGsd, 'min'), fmt.gsdCm(l.gsdCm.min, 'min'), fmt.gsdCm(l.gsdCm.p5), fmt.gsdCm(l.gsdCm.median), fmt.gsdCm(l.gsdCm.max, 'max'), fmt.percent(l.forwardOverlapMin, 'min'), fmt.percent(l.sideOverlapMin, 'min'), fmt.metres(l.aglMinM, 'min')];
       expect(text.split('\n').some((line) => squash(line).trim() === row.join(' ')), `line ${l.number} row ${row.join(' ')}`).toBe(true);
       expect(text).toContain(`Line ${l.number} · ${fmt.metres(l.lengthM)} · heading ${fmt.degrees(l.headingDeg)}`);
     }

@@ -72,8 +72,9 @@ describe('analysis runs', () => {
     const v = (await w.c.get(`${w.plan}/versions/${run.body.id}`)).body;
     expect(planResultSchema.safeParse(v.result).success).toBe(true);
     expect(v.result.summary.photoCount).toBeGreaterThan(0);
-    // the worker's answer is the engine's answer for the snapshotted mission, not something else
-    const direct = await analyseMission(new Uint8Array(demBytes), v.input);
+    // the worker's answer is the engine's answer for the snapshotted mission and the site's datum, not something else
+    expect(v.result.heights.verticalDatum?.name).toBe(w.site.verticalDatum);
+    const direct = await analyseMission(new Uint8Array(demBytes), v.input, undefined, { siteVerticalDatum: w.site.verticalDatum });
     expect(v.result).toEqual(JSON.parse(JSON.stringify(direct)));
     expect(await auditActions(run.body.id)).toEqual(['version.created', 'analysis.done']);
     const plan = (await w.c.get(w.plan)).body;

@@ -99,7 +99,7 @@ describe('small files that declare a huge cost', () => {
     setInt(bytes, TAG.TileByteCounts, bomb.length, 0);
     const r = await uploadDem(c, base, bytes);
     expect(r.status).toBe(422);
-    expect(r.body.error.code).toBe('truncated');
+    expect(r.body.error.code).toBe('damaged');
     expect(r.body.error.message).toMatch(/inflates far past its declared 1024 bytes/);
     expect(filesUnder(path.join(storageDir, 'teams', teamId))).toEqual([]);
   });
@@ -129,7 +129,7 @@ describe('block tables past the end of the file', () => {
     setValuesPointer(bytes, tag, bytes.length + 4096);
     const r = await uploadDem(c, base, bytes);
     expect(r.status).toBe(422);
-    expect(r.body.error.code).toBe('truncated');
+    expect(r.body.error.code).toBe('damaged');
     expect(r.body.error.message).toContain(`${name} table`);
     expect(filesUnder(path.join(storageDir, 'teams', teamId))).toEqual([]);
   });
@@ -140,6 +140,7 @@ describe('block tables past the end of the file', () => {
     setInt(bytes, TAG.TileOffsets, bytes.length + 10_000, 3);
     const r = await uploadDem(c, base, bytes);
     expect(r.status).toBe(422);
-    expect(r.body.error.message).toMatch(/data runs to byte \d+ but the file has \d+ bytes/);
+    expect(r.body.error.code).toBe('damaged');
+    expect(r.body.error.message).toMatch(/tile 4 of \d+ .*its data is said to lie at bytes \d+-\d+, past the end of the \d+-byte file/);
   });
 });

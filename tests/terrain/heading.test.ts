@@ -61,3 +61,16 @@ describe('heading advice', () => {
     expect(() => adviseHeading(area, hs.sampleMany, { ...opts, stepDeg: 0 })).toThrow(/step/);
   });
 });
+
+describe('heading advice and its list agree', () => {
+  it('recommends the first of the tried headings in the order the list is shown in', async () => {
+    const { compareHeadingOptions } = await import('../../terrain/heading');
+    // an irregular hill: many headings with close spreads
+    const hs = heightsOf((x, y) => 150 + 30 * Math.sin(x / 170) * Math.cos(y / 230) + 0.05 * x);
+    const advice = adviseHeading(area, hs.sampleMany, opts);
+    const listed = [...advice.options].sort(compareHeadingOptions);
+    expect(listed[0].headingDeg).toBe(advice.recommendedDeg);
+    const best = advice.options.find((o) => o.headingDeg === advice.recommendedDeg)!;
+    for (const o of advice.options) expect(Math.round(o.aglSpreadM * 1000)).toBeGreaterThanOrEqual(Math.round(best.aglSpreadM * 1000));
+  });
+});
