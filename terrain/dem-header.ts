@@ -113,22 +113,44 @@ async function geoTransformOf(fd: { loadValue(t: string): Promise<unknown> }, pi
 }
 
 /**
- * Most decoded bytes a file may declare per stored byte. DEFLATE cannot pack more than about 1032 to 1 (RFC 1951:
- * a 258-byte match costs at least 2 bits), and real elevation grids pack 2-10 to 1; 1100 leaves DEFLATE's
- * ceiling in. A 9.5 KB file that declared 16384 x 16384 float32 samples (1 GiB) used to be decoded.
+ * Most decoded bytes a stored byte can hold, per compression. DEFLATE cannot pack more than about 1032 to 1
+ * (RFC 1951: a 258-byte match costs at least 2 bits); LZW's strings grow by one byte per code, so a constant block
+ * reaches about 1365 to 1 with 12-bit codes (TIFF 6.0, section 13); PackBits repeats a byte at most 128 times for 2
+ * bytes (TIFF 6.0, section 9); uncompressed blocks hold what they store. Real elevation grids pack 2-10 to 1. ZSTD
+ * and LERC have no such ceiling (a constant tile is a few bytes): their blocks are bounded by DEM_MAX_PIXELS and by
+ * the decoders' output limits instead. A 9.5 KB file that declared 16384 x 16384 float32 samples used to be decoded.
  */
-export const MAX_DECLARED_BYTES_PER_FILE_BYTE = 1100;
+export const MAX_BYTES_PER_STORED_BYTE: Readonly<Record<number, number>> = { 1: 1, 5: 1400, 8: 1100, 32946: 1100, 32773: 64 };
 
-/** Refuse a grid whose declared samples could not come out of a file of `fileBytes`. */
-function checkDeclaredSize(width: number, height: number, bands: number, bytesPerSample: number, fileBytes: number): void {
+/** Refuse a size that cannot be a grid, or a block table too long for the file to hold (before reading it). */
+function checkDeclaredShape(width: number, height: number, blocks: number, fileBytes: number): void {
   if (!(Number.isInteger(width) && Number.isInteger(height) && width > 0 && height > 0)) {
-    throw new TerrainError('truncated', `The TIFF declares a ${width} x ${height} grid; the file is damaged, so export it again.`);
+    throw new TerrainError('damaged', `The TIFF declares a ${width} x ${height} grid; the file is damaged, so export it again.`);
   }
-  const declared = width * height * bands * bytesPerSample;
-  if (declared > fileBytes * MAX_DECLARED_BYTES_PER_FILE_BYTE) {
+  // every block needs an offset and a byte count of at least 2 bytes each somewhere in the file
+  if (blocks * 4 > fileBytes) {
+    throw new TerrainError('too-large', `The GeoTIFF declares ${width} x ${height} pixels in ${blocks} blocks, more than a file of ${fileBytes} bytes can list; the file is damaged or not a real grid, so export it again.`);
+  }
+}
+
+/** Refuse blocks that declare more samples than their stored bytes could hold under their compression. */
+function checkDeclaredSize(h: { width: number; height: number; blockWidth: number; blockHeight: number; bytesPerSample: number; compressionCode: number }, byteCounts: ArrayLike<number>, blocks: number, fileBytes: number): void {
+  const ratio = MAX_BYTES_PER_STORED_BYTE[h.compressionCode];
+  if (ratio === undefined) return;
+  const blockBytes = h.blockWidth * h.blockHeight * h.bytesPerSample;
+  let stored = 0;
+  let declared = 0;
+  for (let i = 0; i < blocks; i++) {
+    const count = Number(byteCounts[i]);
+    if (count <= 0) continue; // a sparse block is nodata and decodes to nothing
+    stored += count;
+    declared += blockBytes;
+  }
+  // a little slack per block for headers and padding of the last row or column
+  if (declared > stored * ratio + blocks * 1024) {
     throw new TerrainError('too-large',
-      `The GeoTIFF declares ${width} x ${height} pixels (${Math.round(declared / 2 ** 20)} MiB of samples) in a file of ${fileBytes} bytes, ` +
-      `more than any supported compression can hold (at most ${MAX_DECLARED_BYTES_PER_FILE_BYTE} bytes per stored byte); the file is damaged or not a real grid, so export it again.`);
+      `The GeoTIFF declares ${h.width} x ${h.height} pixels (${Math.round(declared / 2 ** 20)} MiB of samples) in ${stored} stored bytes of a ${fileBytes}-byte file, ` +
+      `more than its compression can hold (at most ${ratio} bytes per stored byte); the file is damaged or not a real grid, so export it again.`);
   }
 }
 
@@ -190,7 +212,6 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   if (!sampleType) {
     throw new TerrainError('unsupported', `The GeoTIFF stores ${image.getBitsPerSample(0)}-bit samples of format ${image.getSampleFormat(0)}; Loftline reads 8/16/32-bit integers and 32/64-bit floats (gdal_translate -ot Float32).`);
   }
-  checkDeclaredSize(width, height, bands, sampleBytes(sampleType), bytes.byteLength);
   const compressionCode = ((await fd.loadValue('Compression')) as number | undefined) ?? 1;
   if (!(compressionCode in COMPRESSION_NAMES)) {
     throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);
@@ -207,13 +228,15 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   const blockHeight = image.getTileHeight();
   const blocksAcross = Math.ceil(width / blockWidth);
   const blocksDown = Math.ceil(height / blockHeight);
+  const nBlocks = blocksAcross * blocksDown;
+  checkDeclaredShape(width, height, nBlocks, bytes.byteLength);
   const offsets = await blockTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', bytes.byteLength);
   const byteCounts = await blockTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', bytes.byteLength);
-  const nBlocks = blocksAcross * blocksDown;
   if (!offsets || !byteCounts || offsets.length < nBlocks || byteCounts.length < nBlocks) {
     throw new TerrainError('damaged', `The file is damaged: the TIFF lists ${Math.min(offsets?.length ?? 0, byteCounts?.length ?? 0)} data ${tiled ? 'tiles' : 'strips'} where ${nBlocks} are needed; re-export it from your GIS.`);
   }
   checkBlocksInFile(offsets, byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
+  checkDeclaredSize({ width, height, blockWidth, blockHeight, bytesPerSample: sampleBytes(sampleType), compressionCode }, byteCounts, nBlocks, bytes.byteLength);
   const mask = await findInternalMask(tiff as never, { width, height, tiled, blockWidth, blockHeight, blocks: nBlocks });
   if (mask) checkBlocksInFile(mask.offsets, mask.byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
   const gdalMeta = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
