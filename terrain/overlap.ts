@@ -119,11 +119,13 @@ export function intervalOverlap(a0: number, a1: number, b0: number, b1: number):
 }
 
 /**
- * GSD, forward and side overlap and flags at every station of every line. Forward overlap is the share of the
- * photo's footprint area that the previous photo also covers: the along-track overlap of the left, centre and
- * right image columns, combined by the trapezoid rule (1 : 2 : 1); side overlap likewise over the front, centre
- * and back image rows against each neighbouring row's strip, the lesser of the two neighbours. Every figure
- * comes from the photos' ground extents over the real terrain.
+ * GSD, forward and side overlap and flags at every station of every line. Both overlaps are the least across
+ * the footprint, so a compliance figure is never optimistic: forward overlap is the lowest along-track overlap
+ * with the previous photo of the left, centre and right image columns; side overlap the lowest across-track
+ * overlap of the front, centre and back image rows against each neighbouring row's strip, the lesser of the two
+ * neighbours. (A mean over the columns overstated the shared ground on cross-slopes.) Every figure comes from the
+ * photos' ground extents over the real terrain; tests/terrain/overlap-footprints.test.ts checks it against
+ * shapely on a steep grid.
  */
 export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], layoutHeadingDeg: number, t: OverlapTargets): StationResult[][] {
   const ext = lines.map((l) => photoExtents(camera, heightAt, l, layoutHeadingDeg));
@@ -156,10 +158,11 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       for (let k = 0; k < STRIDE; k++) if (Number.isNaN(e[o + k])) complete = false;
       let forwardOverlap: number | null = null;
       if (s > 0) {
-        // share of the footprint area: trapezoid rule over the left, centre and right image columns
+        // the least overlap across the footprint: the lowest of the left, centre and right image columns (a
+        // weighted mean of them overstated the shared ground on cross-slopes; a compliance figure must not)
         const p = o - STRIDE;
         const col = (k: number) => intervalOverlap(e[p + k * 2], e[p + k * 2 + 1], e[o + k * 2], e[o + k * 2 + 1]);
-        const m = (col(0) + 2 * col(1) + col(2)) / 4;
+        const m = Math.min(col(0), col(1), col(2));
         forwardOverlap = Number.isNaN(m) ? null : m;
       }
       let sideOverlap: number | null = null;
@@ -193,14 +196,14 @@ function terrainWhy(aglM: number | null, plannedM: number): string {
 }
 
 /**
- * Across-track overlap of photo `o` with a neighbouring row: for each image row (front, centre, back)
+ * Least across-track overlap of photo `o` with a neighbouring row: for each image row (front, centre, back)
  * the neighbouring strip's across-track extent at that row's along-track position, interpolated between the
  * two neighbour photos around it (so the figure does not jump as the photos of the two rows slide past each
  * other); null where the neighbouring row does not reach this far (the area's edge).
  */
 function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: number; a: number }>, ext: Float64Array[]): number | null {
   if (list.length === 0) return null;
-  let m = 0;
+  let m = Infinity;
   let weight = 0;
   for (let r = 0; r < 3; r++) {
     const a = e[o + 12 + r];
@@ -222,9 +225,9 @@ function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: num
     const c1 = ep[bp + 9] + (eq[bq + 9] - ep[bp + 9]) * f;
     const v = intervalOverlap(e[o + 6 + r * 2], e[o + 7 + r * 2], c0, c1);
     if (Number.isNaN(v)) return null;
-    const w = r === 1 ? 2 : 1; // trapezoid rule over the front, centre and back image rows
-    m += w * v;
-    weight += w;
+    // the least over the front, centre and back image rows (never optimistic)
+    m = Math.min(m, v);
+    weight++;
   }
-  return weight > 0 ? m / weight : null;
+  return weight > 0 ? m : null;
 }
