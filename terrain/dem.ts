@@ -4,6 +4,7 @@ import { createGrid, mapToPixel } from './grid';
 import { TerrainError, check } from './errors';
 import { createTransform } from './crs';
 import { asBytes, type DemHeader, type DemLayout, parseDemHeader } from './dem-header';
+import { firstBand, undoFloatPredictorInterleaved, undoIntegerPredictorInterleaved } from './dem-bands';
 import { blockDecoderFor, copyRows, float32PredictorRows, type InflateFn, sampleBytes, undoFloatPredictorBytes, undoIntegerPredictor } from './dem-decoders';
 
 export type { DemHeader } from './dem-header';
@@ -76,10 +77,12 @@ function windowTransform(t: GeoTransform, c0: number, r0: number): GeoTransform 
 export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?: InflateFn; cacheBytes?: number } = {}): Promise<DemSource> {
   const bytes = asBytes(input);
   const { header, layout } = await parseDemHeader(bytes);
-  const decode = await blockDecoderFor(layout.compressionCode, opts.inflate);
+  const spp = layout.samplesPerPixel;
+  const maskFill = header.nodata ?? (header.sampleType.startsWith('float') ? NaN : null);
+  const decode = await blockDecoderFor(layout.compressionCode, opts.inflate, { extra: layout.lercExtra, type: header.sampleType, littleEndian: layout.littleEndian, maskFill });
   const { tiled, blockWidth: bw, blockHeight: bh, blocksAcross } = header.tiling;
   const size = sampleBytes(header.sampleType);
-  const f32pred = header.predictor === 3 && header.sampleType === 'float32';
+  const f32pred = header.predictor === 3 && header.sampleType === 'float32' && spp === 1;
   const nodataBits = header.nodata === null || Number.isNaN(header.nodata) ? null : new Uint32Array(new Float32Array([header.nodata]).buffer)[0];
   const stats = { blocksDecoded: 0, pixelsDecoded: 0 };
   const cacheLimit = opts.cacheBytes ?? 64 * 2 ** 20;
@@ -95,16 +98,24 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
       for (let r = rowFrom; r < rowTo; r++) dest.fill(NaN, destOffset + (r - rowFrom) * destStride, destOffset + (r - rowFrom) * destStride + colTo - colFrom);
       return;
     }
-    const expected = bw * rowsInBlock * size;
+    const expected = bw * rowsInBlock * size * spp;
     const raw = bytes.subarray(off, off + count);
     let data = decode(raw, expected);
     if (data instanceof Promise) data = await data;
-    if (data.byteLength < bw * rowTo * size) {
+    if (data.byteLength < bw * rowTo * size * spp) {
       throw new TerrainError('truncated', `A data block of the GeoTIFF decodes to ${data.byteLength} bytes where ${expected} are needed; the file is damaged, so export it again.`);
     }
     stats.blocksDecoded++;
     stats.pixelsDecoded += bw * rowsInBlock;
     if (data === raw && header.predictor !== 1) data = raw.slice(); // never change the caller's bytes
+    if (spp > 1) {
+      // pixel-interleaved bands: predictors run over whole interleaved rows; then keep band 1 only
+      if (header.predictor === 2) undoIntegerPredictorInterleaved(data, size, bw, rowsInBlock, spp, layout.littleEndian);
+      else if (header.predictor === 3) undoFloatPredictorInterleaved(data, size, bw, rowsInBlock, spp, layout.littleEndian);
+      data = firstBand(data, size, spp, bw * rowsInBlock);
+      copyRows(data, header.sampleType, layout.littleEndian, bw, dest, destOffset, destStride, colFrom, colTo, rowFrom, rowTo, header.nodata);
+      return;
+    }
     if (f32pred) {
       float32PredictorRows(data, bw, rowsInBlock, new Uint32Array(dest.buffer, dest.byteOffset, dest.length), destOffset, destStride, colFrom, colTo, rowFrom, rowTo, nodataBits);
       return;
