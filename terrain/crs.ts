@@ -2,7 +2,7 @@
 import proj4 from 'proj4';
 import type { GridCrs, LengthUnit } from './grid';
 import { TerrainError } from './errors';
-import { lookupEpsg } from './epsg-table';
+import { type DatumShift, type EpsgEntry, lookupEpsg, verticalCrsUnit } from './epsg-table';
 
 /** WGS 84 longitude/latitude (EPSG:4326), x = longitude, y = latitude, degrees. */
 export const WGS84: GridCrs = Object.freeze({
@@ -78,47 +78,62 @@ export function unitOfProj4(def: string): LengthUnit {
   throw new TerrainError('unknown-crs', `The CRS uses the length unit "${units}", which Loftline does not read; reproject the grid to metres or feet.`);
 }
 
-// OSGB36 -> WGS 84 seven-parameter Helmert, EPSG transformation 1314 (EPSG dataset; stated accuracy 2 m):
-// stands in for the OSTN15 grid that proj4 cannot load here.
-const OSGB36_TOWGS84 = '+towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489';
-
 /**
  * Drop datum-shift grid files proj4 cannot load here (they would make every transform fail). A CRS whose only
- * datum shift is such a grid is refused rather than silently shifted by up to hundreds of metres,
- * except OSGB36, which gets EPSG's Helmert fit.
+ * datum shift is such a grid is refused rather than silently shifted by up to hundreds of metres.
  */
 function withoutGridFiles(def: string, name: string): string {
   const grid = /\+nadgrids=(?!@null\b)(\S+)/.exec(def)?.[1];
-  let out = def
+  const out = def
     .replace(/\s*\+nadgrids=(?!@null\b)\S+/g, '')
     .replace(/\s*\+geoidgrids=\S+/g, '')
     .replace(/\s*\+type=crs\b/g, '')
     .trim();
   if (grid && !/\+towgs84=/.test(out) && !/\+datum=/.test(out)) {
-    if (/OSTN/i.test(grid)) out += ` ${OSGB36_TOWGS84}`;
-    else {
-      throw new TerrainError('unknown-crs', `${name} needs the datum-shift grid ${grid}, which Loftline cannot apply; reproject the DEM to WGS 84 or a UTM zone (gdalwarp -t_srs EPSG:326xx in.tif out.tif).`);
-    }
+    throw new TerrainError('unknown-crs', `${name} needs the datum-shift grid ${grid}, which Loftline cannot apply; reproject the DEM to WGS 84 or a UTM zone (gdalwarp -t_srs EPSG:326xx in.tif out.tif).`);
   }
   return out;
 }
 
-/** A CRS from a proj4 definition (user-defined GeoTIFF keys, tests). */
-export function crsFromProj4(def: string, name: string, epsg: number | null = null): GridCrs {
+// PROJ method names proj4js 2.22 implements (node_modules/proj4/lib/projections/*.js `names`)
+const PROJ4_METHODS = new Set(['longlat', 'latlong', 'lonlat', 'latlon', 'tmerc', 'etmerc', 'utm', 'merc', 'lcc', 'aea', 'stere', 'sterea', 'somerc', 'omerc', 'krovak', 'cass', 'laea', 'aeqd', 'eqc', 'eqdc', 'poly', 'nzmg', 'mill', 'sinu', 'moll', 'cea', 'gnom', 'ortho', 'robin', 'vandg', 'eqearth', 'bonne', 'geos', 'tpers', 'qsc', 'gstmerc', 'eck6', 'equi', 'gauss']);
+
+/** proj4 definitions built on an EPSG geographic CRS's datum (GeoKeys), with that CRS's code: they share its shifts. */
+const onDatumOf = new Map<string, number>();
+
+/**
+ * A CRS from a proj4 definition (user-defined GeoTIFF keys, tests). `datumOf`: the EPSG geographic CRS whose datum
+ * (and first shift) the definition carries, so that transforms pick among its shifts by place as PROJ does.
+ */
+export function crsFromProj4(def: string, name: string, epsg: number | null = null, datumOf: number | null = null): GridCrs {
   const clean = withoutGridFiles(def, name);
+  const method = /\+proj=(\w+)/.exec(clean)?.[1];
+  if (method && !PROJ4_METHODS.has(method)) {
+    throw new TerrainError('unknown-crs', `${name} uses the projection method "${method}", which Loftline's transform library (proj4js) does not implement; reproject the grid to WGS 84 or a UTM zone (gdalwarp -t_srs EPSG:326xx in.tif out.tif).`);
+  }
   try {
     proj4(WGS84.proj4, clean); // validate now rather than on first use
   } catch (err) {
-    throw new TerrainError('unknown-crs', `proj4 cannot use the CRS definition "${clean}" (${(err as Error).message}); reproject the grid to WGS 84 or UTM.`);
+    throw new TerrainError('unknown-crs', `proj4 cannot use the CRS definition "${clean}" of ${name} (${(err as Error)?.message ?? err}); reproject the grid to WGS 84 or UTM.`);
   }
   const geographic = /\+proj=(longlat|latlong|lonlat|latlon)\b/.test(clean);
+  if (datumOf !== null && epsg === null) onDatumOf.set(clean, datumOf);
   return { epsg, proj4: clean, geographic, horizontalUnit: unitOfProj4(clean), name };
 }
 
-const USABLE_KINDS = new Set(['CRS-PROJCRS', 'CRS-GEOGCRS', 'CRS-GEOG3DCRS', 'CRS-COMPOUNDCRS']);
 const cache = new Map<number, GridCrs>();
 
-/** A horizontal CRS from its EPSG code: 4326, 3857 and every WGS 84 UTM zone built in, the rest from epsg-index. */
+/** The proj4 definition of a table entry with its datum shift number `i` (PROJ's order). */
+function withShift(entry: EpsgEntry, i: number): string {
+  const shift = entry.shifts[i];
+  return shift ? `${entry.proj4} ${shift.towgs84}` : (entry.proj4 as string);
+}
+
+/**
+ * A horizontal CRS from its EPSG code: 4326, 3857 and every WGS 84 UTM zone built in, the rest as PROJ 9.1.1
+ * defines them (epsg-table.ts), with the datum shift to WGS 84 that PROJ itself uses (the first of its list;
+ * createTransform picks among several by the point's place, as PROJ does).
+ */
 export function crsFromEpsg(code: number): GridCrs {
   if (!Number.isInteger(code) || code <= 0) {
     throw new TerrainError('unknown-crs', `An EPSG code is a positive whole number, got ${code}.`);
@@ -132,12 +147,13 @@ export function crsFromEpsg(code: number): GridCrs {
   else {
     const entry = lookupEpsg(code);
     if (!entry) {
-      throw new TerrainError('unknown-crs', `EPSG:${code} is not in the EPSG index Loftline uses; reproject the grid to WGS 84 (EPSG:4326) or a UTM zone.`);
+      const what = verticalCrsUnit(code) !== undefined ? 'a vertical CRS (heights only)' : 'not a map or geographic CRS in the EPSG dataset of PROJ 9.1.1';
+      throw new TerrainError('unknown-crs', `EPSG:${code} is ${what}, so it cannot place a DEM; a DEM needs a horizontal CRS such as WGS 84 (EPSG:4326) or a UTM zone.`);
     }
-    if (!USABLE_KINDS.has(entry.kind) || !entry.proj4 || !/\+proj=/.test(entry.proj4)) {
-      throw new TerrainError('unknown-crs', `EPSG:${code} (${entry.name}) is not a horizontal map or geographic CRS; a DEM needs one such as EPSG:4326 or a UTM zone.`);
+    if (entry.refusal !== null || entry.proj4 === null) {
+      throw new TerrainError('unknown-crs', `EPSG:${code}: ${entry.refusal ?? entry.name}. Reproject the DEM to WGS 84 or a WGS 84 UTM zone (e.g. gdalwarp -t_srs EPSG:326xx in.tif out.tif).`);
     }
-    crs = crsFromProj4(entry.proj4, entry.name, code);
+    crs = crsFromProj4(withShift(entry, 0), entry.name, code);
   }
   cache.set(code, crs);
   return crs;
@@ -164,6 +180,73 @@ function sameCrs(a: GridCrs, b: GridCrs): boolean {
   return a === b || (a.epsg !== null && a.epsg === b.epsg) || a.proj4 === b.proj4;
 }
 
+/** One proj4 definition of a CRS per datum shift PROJ knows for it, with where PROJ uses each. */
+interface Variant {
+  proj4: string;
+  shift: DatumShift | null;
+  crsName?: string;
+}
+
+/** A shift that holds only in part of the world (EPSG area of use), so the point's place decides. */
+function regional(s: DatumShift): boolean {
+  return !(s.bbox[0] <= -180 && s.bbox[1] <= -90 && s.bbox[2] >= 180 && s.bbox[3] >= 90);
+}
+
+/** The CRS's definitions, one per datum shift, when PROJ chooses among several by place; else just its own. */
+function variantsOf(crs: GridCrs): Variant[] {
+  const own = [{ proj4: crs.proj4, shift: null }];
+  if (crs.epsg === null) {
+    // a user-defined CRS on an EPSG datum: the same definition with each of that datum's shifts
+    const base = onDatumOf.get(crs.proj4);
+    const entry = base === undefined ? undefined : lookupEpsg(base);
+    const first = entry?.shifts[0]?.towgs84;
+    if (!entry || !entry.shifts.some(regional) || !first || !crs.proj4.includes(first)) return own;
+    return entry.shifts.map((shift) => ({ proj4: crs.proj4.replace(first, shift.towgs84), shift, crsName: crs.name }));
+  }
+  const entry = lookupEpsg(crs.epsg);
+  // only a CRS built from the table (a caller may have made its own definition under this code)
+  if (!entry || entry.proj4 === null || crs.proj4 !== withShift(entry, 0) || !entry.shifts.some(regional)) return own;
+  return entry.shifts.map((shift, i) => ({ proj4: withShift(entry, i), shift, crsName: entry.name }));
+}
+
+function inArea(b: readonly [number, number, number, number], lon: number, lat: number): boolean {
+  if (!(lat >= b[1] && lat <= b[3])) return false;
+  return b[0] <= b[2] ? lon >= b[0] && lon <= b[2] : lon >= b[0] || lon <= b[2];
+}
+
+/**
+ * The variant PROJ uses at (lon, lat), as PROJ 9.1 proj_trans chooses among the operations of a CRS pair
+ * (src/4D_api.cpp, pj_get_suggested_operation): of those whose area holds the point and are not offshore, the
+ * one with the best known accuracy (an unknown accuracy yields to any known one; at equal accuracy the one whose
+ * area lies inside the other's). Where none holds the point PROJ would apply no shift at all: refused.
+ */
+function variantAt(vs: Variant[], lon: number, lat: number): number {
+  let best = -1;
+  let bestAcc = 0;
+  for (let i = 0; i < vs.length; i++) {
+    const s = vs[i].shift;
+    if (!s || !inArea(s.bbox, lon, lat)) continue;
+    if (best < 0) {
+      best = i;
+      bestAcc = s.accuracyM;
+      continue;
+    }
+    const b = (vs[best].shift as DatumShift).bbox;
+    const inside = s.bbox[0] > b[0] && s.bbox[1] > b[1] && s.bbox[2] < b[2] && s.bbox[3] < b[3];
+    const better = (s.accuracyM >= 0 && (s.accuracyM < bestAcc || (s.accuracyM === bestAcc && inside))) || bestAcc < 0;
+    if (better && !s.offshore) {
+      best = i;
+      bestAcc = s.accuracyM;
+    }
+  }
+  if (best < 0) {
+    // PROJ falls back to a ballpark (no shift) here, off by up to hundreds of metres: refuse instead
+    const names = [...new Set(vs.map((v) => v.shift?.name))].slice(0, 3).join('; ');
+    throw new TerrainError('unknown-crs', `${vs[0].crsName ?? 'The CRS'}: no EPSG transformation to WGS 84 covers ${lon.toFixed(5)}, ${lat.toFixed(5)} (those known hold elsewhere: ${names}); reproject the DEM to WGS 84 or a WGS 84 UTM zone with a tool that has the right datum shift for this place.`);
+  }
+  return best;
+}
+
 /** A transform from one CRS to another (proj4), built once and reused for every point. */
 export function createTransform(from: GridCrs, to: GridCrs): Transform {
   if (sameCrs(from, to)) {
@@ -174,13 +257,16 @@ export function createTransform(from: GridCrs, to: GridCrs): Transform {
       identity: true,
     };
   }
+  const fromV = variantsOf(from);
+  const toV = variantsOf(to);
+  if (fromV.some((v) => v.shift) || toV.some((v) => v.shift)) return placeDependentTransform(fromV, toV);
   const conv = proj4(from.proj4, to.proj4);
   const forward = (x: number, y: number): [number, number] => {
-    const r = conv.forward([x, y]);
+    const r = conv.forward([x, y], true);
     return [r[0], r[1]];
   };
   const inverse = (x: number, y: number): [number, number] => {
-    const r = conv.inverse([x, y]);
+    const r = conv.inverse([x, y], true);
     return [r[0], r[1]];
   };
   return {
@@ -191,7 +277,46 @@ export function createTransform(from: GridCrs, to: GridCrs): Transform {
       for (let i = 0; i < xs.length; i++) {
         p[0] = xs[i];
         p[1] = ys[i];
-        const r = conv.forward(p);
+        const r = conv.forward(p, true);
+        xs[i] = r[0];
+        ys[i] = r[1];
+      }
+    },
+    identity: false,
+  };
+}
+
+/**
+ * A transform through WGS 84 where either side has several datum shifts (e.g. ED50, NAD27): each point goes
+ * through the shift PROJ would use at its place, found from a first pass through the first shift.
+ */
+function placeDependentTransform(fromV: Variant[], toV: Variant[]): Transform {
+  const toWgs = fromV.map((v) => proj4(v.proj4, WGS84.proj4));
+  const fromWgs = toV.map((v) => proj4(WGS84.proj4, v.proj4));
+  const forward = (x: number, y: number): [number, number] => {
+    let ll = toWgs[0].forward([x, y], true);
+    if (fromV[0].shift) {
+      const i = variantAt(fromV, ll[0], ll[1]);
+      if (i > 0) ll = toWgs[i].forward([x, y], true);
+    }
+    const r = fromWgs[toV[0].shift ? variantAt(toV, ll[0], ll[1]) : 0].forward([ll[0], ll[1]], true);
+    return [r[0], r[1]];
+  };
+  const inverse = (x: number, y: number): [number, number] => {
+    let ll = fromWgs[0].inverse([x, y], true);
+    if (toV[0].shift) {
+      const i = variantAt(toV, ll[0], ll[1]);
+      if (i > 0) ll = fromWgs[i].inverse([x, y], true);
+    }
+    const r = toWgs[fromV[0].shift ? variantAt(fromV, ll[0], ll[1]) : 0].inverse([ll[0], ll[1]], true);
+    return [r[0], r[1]];
+  };
+  return {
+    forward,
+    inverse,
+    forwardArrays(xs, ys) {
+      for (let i = 0; i < xs.length; i++) {
+        const r = forward(xs[i], ys[i]);
         xs[i] = r[0];
         ys[i] = r[1];
       }

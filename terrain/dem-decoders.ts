@@ -1,15 +1,16 @@
 /** TIFF block decoding for DEMs: decompression, predictor undo and sample conversion into Float32 rows. */
 import { getDecoder } from 'geotiff';
 import { TerrainError } from './errors';
+import { LERC, type LercExtra, ZSTD, decodeLercBlob, decodeZstd, refusedCompression } from './dem-codecs';
 
 /** A function that inflates a zlib (DEFLATE) stream, told the size to expect; the server injects node:zlib's inflateSync. */
 export type InflateFn = (data: Uint8Array, expectedBytes: number) => Uint8Array;
 
 /** Sample types Loftline reads, as TIFF SampleFormat + BitsPerSample. */
-export type SampleType = 'uint8' | 'int8' | 'uint16' | 'int16' | 'uint32' | 'int32' | 'float32' | 'float64';
+export type SampleType = 'uint8' | 'int8' | 'uint16' | 'int16' | 'uint32' | 'int32' | 'float16' | 'float32' | 'float64';
 
 /** Compression names for TIFF Compression tag values Loftline reads. */
-export const COMPRESSION_NAMES: Record<number, string> = { 1: 'none', 5: 'lzw', 8: 'deflate', 32946: 'deflate', 32773: 'packbits' };
+export const COMPRESSION_NAMES: Record<number, string> = { 1: 'none', 5: 'lzw', 8: 'deflate', 32946: 'deflate', 32773: 'packbits', [ZSTD]: 'zstd', [LERC]: 'lerc' };
 
 /** Byte size of one sample. */
 export function sampleBytes(type: SampleType): number {
@@ -39,10 +40,50 @@ function unpackBits(src: Uint8Array, expected: number): Uint8Array {
 
 type BlockDecoder = (compressed: Uint8Array, expectedBytes: number) => Promise<Uint8Array> | Uint8Array;
 
+/** What a LERC block decoder needs beyond the bytes: its additional compression, sample type, byte order, mask fill. */
+export interface LercBlockInfo {
+  extra: LercExtra;
+  type: SampleType;
+  littleEndian: boolean;
+  /** Value for pixels the LERC mask leaves out: the nodata value, else NaN for floats, else null (refused). */
+  maskFill: number | null;
+}
+
+function typedArrayOf(type: SampleType, n: number) {
+  switch (type) {
+    case 'uint8': return new Uint8Array(n);
+    case 'int8': return new Int8Array(n);
+    case 'uint16': return new Uint16Array(n);
+    case 'int16': return new Int16Array(n);
+    case 'uint32': return new Uint32Array(n);
+    case 'int32': return new Int32Array(n);
+    case 'float32': return new Float32Array(n);
+    case 'float64': return new Float64Array(n);
+    case 'float16': throw new TerrainError('unsupported', 'LERC blocks of 16-bit floats are not valid; re-save the grid as Float32.');
+  }
+}
+
 /** A decoder for one TIFF compression code; DEFLATE uses the injected inflate when given, else geotiff.js's. */
-export async function blockDecoderFor(compression: number, inflate?: InflateFn): Promise<BlockDecoder> {
+export async function blockDecoderFor(compression: number, inflate?: InflateFn, lerc?: LercBlockInfo): Promise<BlockDecoder> {
   if (compression === 1) return (c) => c;
   if (compression === 32773) return unpackBits;
+  if (compression === ZSTD) return (c) => decodeZstd(c);
+  if (compression === LERC) {
+    if (!lerc) throw new TerrainError('unsupported', 'LERC blocks need the sample type to decode.');
+    if (!lerc.littleEndian) throw new TerrainError('unsupported', 'The GeoTIFF is big-endian with LERC compression, which Loftline does not read; re-save it little-endian (gdal_translate -co ENDIANNESS=LITTLE).');
+    const unzip = lerc.extra === 'none' ? null : lerc.extra === 'zstd' ? decodeZstd : await blockDecoderFor(8, inflate);
+    const size = sampleBytes(lerc.type);
+    return async (c, n) => {
+      let blob = c;
+      if (unzip) {
+        const u = unzip(c, n * 2);
+        blob = u instanceof Promise ? await u : u;
+      }
+      return decodeLercBlob(blob, typedArrayOf(lerc.type, n / size), lerc.maskFill);
+    };
+  }
+  const refused = refusedCompression(compression);
+  if (refused) throw new TerrainError('unsupported', refused);
   if ((compression === 8 || compression === 32946) && inflate) return (c, n) => inflate(c, n);
   if (compression === 5 || compression === 8 || compression === 32946) {
     // geotiff.js's own decoders; its predictor step is skipped (predictor 1) because ours is word-wise
@@ -222,7 +263,7 @@ export function copyRows(
       for (let i = 0; i < n; i++) dest[d + i] = readSample(dv, type, i * size, littleEndian);
     }
     if (nodata !== null) {
-      const nd = type === 'float32' ? Math.fround(nodata) : nodata;
+      const nd = type === 'float32' || type === 'float16' ? Math.fround(nodata) : nodata;
       for (let i = d, e = d + n; i < e; i++) if (dest[i] === nd) dest[i] = NaN;
     }
   }
@@ -239,7 +280,29 @@ function viewOf(bytes: Uint8Array, type: SampleType, px: number, n: number): Arr
     case 'int32': return new Int32Array(b, o + px * 4, n);
     case 'float32': return new Float32Array(b, o + px * 4, n);
     case 'float64': return new Float64Array(b, o + px * 8, n);
+    case 'float16': return halfView(new Uint16Array(b, o + px * 2, n));
   }
+}
+
+let HALF: Float32Array | null = null;
+
+/** IEEE 754 binary16 -> float32 for all 65536 bit patterns (subnormals, infinities and NaN included), built once. */
+function halfTable(): Float32Array {
+  if (HALF) return HALF;
+  const t = new Float32Array(65536);
+  for (let h = 0; h < 65536; h++) {
+    const s = h & 0x8000 ? -1 : 1, e = (h >> 10) & 31, m = h & 1023;
+    t[h] = e === 0 ? s * m * 2 ** -24 : e === 31 ? (m ? NaN : s * Infinity) : s * (1 + m / 1024) * 2 ** (e - 15);
+  }
+  return (HALF = t);
+}
+
+/** Float16 samples as float32 values. */
+function halfView(bits: Uint16Array): Float32Array {
+  const table = halfTable();
+  const out = new Float32Array(bits.length);
+  for (let i = 0; i < bits.length; i++) out[i] = table[bits[i]];
+  return out;
 }
 
 function readSample(dv: DataView, type: SampleType, p: number, le: boolean): number {
@@ -252,5 +315,6 @@ function readSample(dv: DataView, type: SampleType, p: number, le: boolean): num
     case 'int32': return dv.getInt32(p, le);
     case 'float32': return dv.getFloat32(p, le);
     case 'float64': return dv.getFloat64(p, le);
+    case 'float16': return halfTable()[dv.getUint16(p, le)];
   }
 }

@@ -8,6 +8,7 @@ import { COMPRESSION_NAMES, sampleBytes, type SampleType } from './dem-decoders'
 import { checkBlocksInFile, damagedDirectory } from './dem-damage';
 import { checkElevationContent, checkPlacement } from './dem-content';
 import { findInternalMask, type MaskLayout } from './dem-mask';
+import { LERC, type LercExtra, lercExtraOf, refusedCompression } from './dem-codecs';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -33,6 +34,10 @@ export interface DemHeader {
 /** Where the blocks of band 1 live and how to decode them (internal to the reader). */
 export interface DemLayout {
   compressionCode: number;
+  /** Samples in each pixel of a block: > 1 for pixel-interleaved bands, of which band 1 is read. */
+  samplesPerPixel: number;
+  /** LERC's additional compression (GDAL's LercParameters tag). */
+  lercExtra: LercExtra;
   littleEndian: boolean;
   offsets: ArrayLike<number>;
   byteCounts: ArrayLike<number>;
@@ -69,7 +74,7 @@ export function asBytes(input: ArrayBuffer | Uint8Array): Uint8Array {
 }
 
 function sampleTypeOf(format: number, bits: number): SampleType | null {
-  if (format === 3) return bits === 32 ? 'float32' : bits === 64 ? 'float64' : null;
+  if (format === 3) return bits === 16 ? 'float16' : bits === 32 ? 'float32' : bits === 64 ? 'float64' : null;
   if (format === 1 || format === 4) return bits === 8 ? 'uint8' : bits === 16 ? 'uint16' : bits === 32 ? 'uint32' : null;
   if (format === 2) return bits === 8 ? 'int8' : bits === 16 ? 'int16' : bits === 32 ? 'int32' : null;
   return null;
@@ -205,17 +210,21 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
     predictor: ((await fd.loadValue('Predictor')) as number | undefined) ?? 1,
   });
   const planar = ((await fd.loadValue('PlanarConfiguration')) as number | undefined) ?? 1;
-  if (bands > 1 && planar !== 2) {
-    throw new TerrainError('unsupported', `The GeoTIFF has ${bands} interleaved bands; a DEM needs one: extract the elevation band (gdal_translate -b 1 in.tif out.tif).`);
+  const photometric = (await fd.loadValue('PhotometricInterpretation')) as number | undefined;
+  if (bands > 1 && planar !== 2 && (photometric === 2 || photometric === 6)) {
+    throw new TerrainError('unsupported', `The GeoTIFF is a ${bands}-band colour image (RGB/YCbCr), not elevation; upload a single-band DEM.`);
   }
   const sampleType = sampleTypeOf(image.getSampleFormat(0) as number, image.getBitsPerSample(0));
   if (!sampleType) {
-    throw new TerrainError('unsupported', `The GeoTIFF stores ${image.getBitsPerSample(0)}-bit samples of format ${image.getSampleFormat(0)}; Loftline reads 8/16/32-bit integers and 32/64-bit floats (gdal_translate -ot Float32).`);
+    throw new TerrainError('unsupported', `The GeoTIFF stores ${image.getBitsPerSample(0)}-bit samples of format ${image.getSampleFormat(0)}; Loftline reads 8/16/32-bit integers and 16/32/64-bit floats (gdal_translate -ot Float32).`);
   }
   const compressionCode = ((await fd.loadValue('Compression')) as number | undefined) ?? 1;
+  const refused = refusedCompression(compressionCode);
+  if (refused) throw new TerrainError('unsupported', refused);
   if (!(compressionCode in COMPRESSION_NAMES)) {
-    throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);
+    throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, ZSTD, LERC, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);
   }
+  const lercExtra = compressionCode === LERC ? lercExtraOf((await fd.loadValue('LercParameters')) as ArrayLike<number> | undefined) : 'none';
   const predictor = ((await fd.loadValue('Predictor')) as number | undefined) ?? 1;
   if (predictor !== 1 && predictor !== 2 && predictor !== 3) throw new TerrainError('unsupported', `Unknown TIFF predictor ${predictor}; re-save the grid without a predictor.`);
   const geoKeys = image.getGeoKeys() as GeoKeys | null;
@@ -236,7 +245,7 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
     throw new TerrainError('damaged', `The file is damaged: the TIFF lists ${Math.min(offsets?.length ?? 0, byteCounts?.length ?? 0)} data ${tiled ? 'tiles' : 'strips'} where ${nBlocks} are needed; re-export it from your GIS.`);
   }
   checkBlocksInFile(offsets, byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
-  checkDeclaredSize({ width, height, blockWidth, blockHeight, bytesPerSample: sampleBytes(sampleType), compressionCode }, byteCounts, nBlocks, bytes.byteLength);
+  checkDeclaredSize({ width, height, blockWidth, blockHeight, bytesPerSample: sampleBytes(sampleType) * (planar === 1 ? bands : 1), compressionCode }, byteCounts, nBlocks, bytes.byteLength);
   const mask = await findInternalMask(tiff as never, { width, height, tiled, blockWidth, blockHeight, blocks: nBlocks });
   if (mask) checkBlocksInFile(mask.offsets, mask.byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
   const gdalMeta = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
@@ -265,6 +274,8 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   const m = metresPerUnit(vertical);
   const layout: DemLayout = {
     compressionCode,
+    samplesPerPixel: planar === 1 ? bands : 1,
+    lercExtra,
     littleEndian: le,
     offsets,
     byteCounts,

@@ -6,6 +6,7 @@ import { createTransform } from './crs';
 import { asBytes, type DemHeader, type DemLayout, parseDemHeader } from './dem-header';
 import { damagedBlock } from './dem-damage';
 import { applyMaskRows, maskRowBytes } from './dem-mask';
+import { firstBand, undoFloatPredictorInterleaved, undoIntegerPredictorInterleaved } from './dem-bands';
 import { blockDecoderFor, copyRows, float32PredictorRows, type InflateFn, sampleBytes, undoFloatPredictorBytes, undoIntegerPredictor } from './dem-decoders';
 
 export type { DemHeader } from './dem-header';
@@ -78,11 +79,13 @@ function windowTransform(t: GeoTransform, c0: number, r0: number): GeoTransform 
 export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?: InflateFn; cacheBytes?: number } = {}): Promise<DemSource> {
   const bytes = asBytes(input);
   const { header, layout } = await parseDemHeader(bytes);
-  const decode = await blockDecoderFor(layout.compressionCode, opts.inflate);
+  const spp = layout.samplesPerPixel;
+  const maskFill = header.nodata ?? (header.sampleType.startsWith('float') ? NaN : null);
+  const decode = await blockDecoderFor(layout.compressionCode, opts.inflate, { extra: layout.lercExtra, type: header.sampleType, littleEndian: layout.littleEndian, maskFill });
   const maskDecode = layout.mask ? await blockDecoderFor(layout.mask.compressionCode, opts.inflate) : null;
   const { tiled, blockWidth: bw, blockHeight: bh, blocksAcross } = header.tiling;
   const size = sampleBytes(header.sampleType);
-  const f32pred = header.predictor === 3 && header.sampleType === 'float32';
+  const f32pred = header.predictor === 3 && header.sampleType === 'float32' && spp === 1;
   const nodataBits = header.nodata === null || Number.isNaN(header.nodata) ? null : new Uint32Array(new Float32Array([header.nodata]).buffer)[0];
   const stats = { blocksDecoded: 0, pixelsDecoded: 0 };
   const cacheLimit = opts.cacheBytes ?? 64 * 2 ** 20;
@@ -98,7 +101,7 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
       for (let r = rowFrom; r < rowTo; r++) dest.fill(NaN, destOffset + (r - rowFrom) * destStride, destOffset + (r - rowFrom) * destStride + colTo - colFrom);
       return;
     }
-    const expected = bw * rowsInBlock * size;
+    const expected = bw * rowsInBlock * size * spp;
     const raw = bytes.subarray(off, off + count);
     let data: Uint8Array;
     try {
@@ -109,13 +112,19 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
       const why = err instanceof TerrainError ? err.message : (err as Error)?.message ?? String(err);
       throw damagedBlock(idx, header.tiling, header.height, `its ${header.compression.toUpperCase()} data does not decode (${why})`);
     }
-    if (data.byteLength < bw * rowTo * size) {
+    if (data.byteLength < bw * rowTo * size * spp) {
       throw damagedBlock(idx, header.tiling, header.height, `it decodes to ${data.byteLength} bytes where ${expected} are needed`);
     }
     stats.blocksDecoded++;
     stats.pixelsDecoded += bw * rowsInBlock;
     if (data === raw && header.predictor !== 1) data = raw.slice(); // never change the caller's bytes
-    if (f32pred) {
+    if (spp > 1) {
+      // pixel-interleaved bands: predictors run over whole interleaved rows; then keep band 1 only
+      if (header.predictor === 2) undoIntegerPredictorInterleaved(data, size, bw, rowsInBlock, spp, layout.littleEndian);
+      else if (header.predictor === 3) undoFloatPredictorInterleaved(data, size, bw, rowsInBlock, spp, layout.littleEndian);
+      data = firstBand(data, size, spp, bw * rowsInBlock);
+      copyRows(data, header.sampleType, layout.littleEndian, bw, dest, destOffset, destStride, colFrom, colTo, rowFrom, rowTo, header.nodata);
+    } else if (f32pred) {
       float32PredictorRows(data, bw, rowsInBlock, new Uint32Array(dest.buffer, dest.byteOffset, dest.length), destOffset, destStride, colFrom, colTo, rowFrom, rowTo, nodataBits);
     } else {
       if (header.predictor !== 1) {

@@ -17,15 +17,15 @@ describe('crsFromEpsg', () => {
     expect(crsFromEpsg(4326)).toBe(WGS84);
   });
 
-  it('resolves other codes through epsg-index, with their length units', () => {
+  it('resolves other codes through the table generated from PROJ 9.1.1, with their length units', () => {
     expect(crsFromEpsg(2263)).toMatchObject({ epsg: 2263, horizontalUnit: 'us-survey-foot', name: 'NAD83 / New York Long Island (ftUS)' });
     expect(crsFromEpsg(2056).name).toBe('CH1903+ / LV95');
     expect(crsFromEpsg(4258).geographic).toBe(true);
   });
 
   it('throws unknown-crs for codes that are missing or are not horizontal CRSs', () => {
-    expect(() => crsFromEpsg(999999)).toThrow(/not in the EPSG index/);
-    expect(() => crsFromEpsg(5703)).toThrow(/not a horizontal/); // NAVD88 height, a vertical CRS
+    expect(() => crsFromEpsg(999999)).toThrow(/not a map or geographic CRS in the EPSG dataset of PROJ 9\.1\.1/);
+    expect(() => crsFromEpsg(5703)).toThrow(/is a vertical CRS/); // NAVD88 height
     expect(() => crsFromEpsg(-1)).toThrow(TerrainError);
     try {
       crsFromEpsg(999999);
@@ -35,7 +35,8 @@ describe('crsFromEpsg', () => {
   });
 
   it('refuses a CRS whose only datum shift is a grid file it cannot apply', () => {
-    expect(() => crsFromEpsg(2009)).toThrow(/datum-shift grid CQ77NA83\.GSB/);
+    // PROJ 9.1.1 knows NAD27(CGQ77) -> WGS 84 only through a grid that Debian's proj-data does not ship
+    expect(() => crsFromEpsg(2009)).toThrow(/NAD27\(CGQ77\) \/ SCoPQ zone 3 .*datum-shift grid ca_que_mern_cq77na83\.tif/);
   });
 
   it('parses EPSG:<code> strings and rejects anything else', () => {
@@ -66,7 +67,7 @@ describe('utmCrsFor', () => {
 });
 
 describe('createTransform against PROJ cs2cs', () => {
-  it(`matches ${cs2cs.tool} within 1 mm for UTM north, UTM south, EPSG:3857 and epsg-index CRSs`, () => {
+  it(`matches ${cs2cs.tool} within 1 mm for UTM north, UTM south, EPSG:3857 and table CRSs`, () => {
     expect(cs2cs.points.length).toBeGreaterThan(15);
     for (const p of cs2cs.points) {
       const t = createTransform(WGS84, crsFromEpsg(p.epsg));

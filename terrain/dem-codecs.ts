@@ -1,0 +1,72 @@
+/**
+ * Block codecs beyond DEFLATE/LZW/PackBits for elevation GeoTIFFs: ZSTD (fzstd, pure JavaScript) and LERC (Esri's
+ * JavaScript decoder, npm `lerc` 3, Lerc2 codec 2.5: reads the LERC_VERSION 2.4 blobs GDAL 3.6 writes), plus the
+ * compressions refused with a reason. Both decoders are pure JS, so nothing needs injecting here.
+ */
+import { decompress as zstdDecompress } from 'fzstd';
+import Lerc from 'lerc';
+import { TerrainError } from './errors';
+
+/** TIFF Compression tag values (libtiff tiff.h; GDAL's GTiff driver). */
+export const ZSTD = 50000;
+export const LERC = 34887;
+export const LZMA = 34925;
+const JPEG_CODES = new Set([6, 7]);
+
+/** Why a compression is refused, or null when it is read. */
+export function refusedCompression(code: number): string | null {
+  if (code === LZMA) {
+    // no maintained pure-JavaScript xz (LZMA2) decoder on npm that runs inside terrain/ without native or wasm parts
+    return 'The GeoTIFF uses LZMA compression, which Loftline does not read (no maintained pure-JavaScript decoder); re-save it with ZSTD or DEFLATE (gdal_translate -co COMPRESS=ZSTD in.tif out.tif).';
+  }
+  if (JPEG_CODES.has(code)) {
+    // JPEG is lossy and 8-bit: its blocks shift heights by whole units and smear steps, so it is no elevation store
+    return 'The GeoTIFF uses JPEG compression, which is lossy and 8-bit, so its values are not trustworthy heights; export the DEM again without JPEG (gdal_translate -co COMPRESS=DEFLATE, or LERC for controlled loss).';
+  }
+  return null;
+}
+
+/** ZSTD frame to bytes. */
+export function decodeZstd(data: Uint8Array): Uint8Array {
+  return zstdDecompress(data);
+}
+
+/** LercParameters tag (GDAL): [Lerc version, additional compression 0 none / 1 DEFLATE / 2 ZSTD]. */
+export type LercExtra = 'none' | 'deflate' | 'zstd';
+
+export function lercExtraOf(params: ArrayLike<number> | undefined): LercExtra {
+  const extra = params && params.length > 1 ? params[1] : 0;
+  if (extra === 0) return 'none';
+  if (extra === 1) return 'deflate';
+  if (extra === 2) return 'zstd';
+  throw new TerrainError('unsupported', `The GeoTIFF's LERC blocks use an additional compression (${extra}) that Loftline does not know; re-save it with COMPRESS=LERC_DEFLATE or LERC_ZSTD.`);
+}
+
+type Typed = Float32Array | Float64Array | Int8Array | Uint8Array | Int16Array | Uint16Array | Int32Array | Uint32Array;
+
+/**
+ * Decode one LERC blob (after its additional compression) into little-endian samples of the file's type, masked
+ * pixels set to `maskFill` (the nodata value, or NaN for floats).
+ */
+export function decodeLercBlob(blob: Uint8Array, out: Typed, maskFill: number | null): Uint8Array {
+  // a copy unless the bytes fill their buffer (a Node Buffer may be a view into a shared pool; its slice() is no copy)
+  const buf = blob.byteOffset === 0 && blob.byteLength === blob.buffer.byteLength ? blob.buffer : Uint8Array.prototype.slice.call(blob).buffer;
+  const r = Lerc.decode(buf as ArrayBuffer, { returnPixelInterleavedDims: true }) as { width: number; height: number; pixels: ArrayLike<number>[]; mask?: Uint8Array | null };
+  const px = r.pixels[0];
+  if (!px || r.width * r.height !== out.length) {
+    throw new TerrainError('truncated', `A LERC block decodes to ${r.width} x ${r.height} pixels where ${out.length} are needed; the file is damaged, so export it again.`);
+  }
+  out.set(px as ArrayLike<number>);
+  const mask = r.mask;
+  if (mask) {
+    for (let i = 0; i < mask.length; i++) {
+      if (mask[i] === 0) {
+        if (maskFill === null) {
+          throw new TerrainError('unsupported', 'The GeoTIFF\'s LERC blocks mask out pixels but the file states no nodata value for integer heights; re-save it with a nodata value (gdal_translate -a_nodata -9999).');
+        }
+        out[i] = maskFill;
+      }
+    }
+  }
+  return new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
+}
