@@ -63,7 +63,7 @@ export function reviewRequestedMail(f: VersionFacts & { to: string[]; submitterN
 
 /** To the planner who made the version: signed off, with the compliance report attached. */
 export function signedOffMail(
-  f: VersionFacts & { to: string; signerName: string; signedOffAt: Date; comment?: string | null; pdf: Buffer; pdfName: string },
+  f: VersionFacts & { to: string; signerName: string; signedOffAt: Date; comment?: string | null; pdfName: string },
 ): OutgoingMail {
   return clean({
     to: [f.to],
@@ -74,7 +74,6 @@ export function signedOffMail(
       `\nThe compliance report is attached (${f.pdfName}). The version is now locked and visible to the team's pilots; ` +
       `a change to the plan makes a new version that needs its own review.\n${f.link}` +
       signature,
-    attachments: [{ filename: f.pdfName, content: f.pdf, contentType: 'application/pdf' }],
   });
 }
 
