@@ -1,5 +1,6 @@
 /** Shapes of the sign-in and sign-up forms, and the password rules the server's auth config must match. */
 import { z } from 'zod';
+import { userText } from './text';
 
 /** Password length rules (the server passes these to better-auth as minPasswordLength / maxPasswordLength). */
 export const passwordRules = { minLength: 10, maxLength: 128 } as const;
@@ -14,7 +15,7 @@ export const signInSchema = z.object({
 export type SignIn = z.infer<typeof signInSchema>;
 
 export const signUpSchema = z.object({
-  name: z.string().trim().min(1, 'Enter your name.').max(120, 'Keep the name under 120 characters.'),
+  name: userText().trim().min(1, 'Enter your name.').max(120, 'Keep the name under 120 characters.'),
   email,
   password: z
     .string()

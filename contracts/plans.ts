@@ -1,10 +1,11 @@
 /** Shapes of plans (what to fly over a site), their immutable versions and analysis runs. */
 import { z } from 'zod';
+import { userText } from './text';
 import { missionSchema } from './mission';
 import { planResultSchema } from './plan-result';
 import { reviewStateSchema } from './reviews';
 
-const planName = z.string().trim().min(1, 'Give the plan a name.').max(120, 'Keep the plan name under 120 characters.');
+const planName = userText().trim().min(1, 'Give the plan a name.').max(120, 'Keep the plan name under 120 characters.');
 
 /** POST /teams/:teamId/projects/:projectId/plans: a name, the site to fly over and the mission. */
 export const createPlanSchema = z.object({

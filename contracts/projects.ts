@@ -1,14 +1,15 @@
 /** Shapes of projects: one job for one client, with its display units. */
 import { z } from 'zod';
+import { userText } from './text';
 
 export const unitSystems = ['metric', 'imperial'] as const;
 /** Display units: metric, or imperial (feet for heights, and speeds in feet per second or knots on screen). */
 export const unitSystemSchema = z.enum(unitSystems);
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
 
-const name = z.string().trim().min(2, 'A project name needs at least 2 characters.').max(120, 'Keep the project name under 120 characters.');
-const client = z.string().trim().max(120, 'Keep the client name under 120 characters.');
-const notes = z.string().max(4000, 'Keep the notes under 4000 characters.');
+const name = userText().trim().min(2, 'A project name needs at least 2 characters.').max(120, 'Keep the project name under 120 characters.');
+const client = userText().trim().max(120, 'Keep the client name under 120 characters.');
+const notes = userText().max(4000, 'Keep the notes under 4000 characters.');
 
 export const createProjectSchema = z.object({
   name,

@@ -1,5 +1,6 @@
 /** Review states of a plan version, the transitions between them, and the audit trail: one table for server and client. */
 import { z } from 'zod';
+import { userText } from './text';
 import { can, type Permission, type Role } from './roles';
 
 export const reviewStates = ['draft', 'in_review', 'signed_off', 'returned'] as const;
@@ -45,14 +46,13 @@ export function isLocked(state: ReviewState): boolean {
 
 /** Body of POST .../submit and .../sign-off: an optional note kept in the audit trail. */
 export const reviewNoteSchema = z.object({
-  comment: z.string().trim().max(4000, 'Keep the note under 4000 characters.').optional(),
+  comment: userText().trim().max(4000, 'Keep the note under 4000 characters.').optional(),
 });
 export type ReviewNote = z.infer<typeof reviewNoteSchema>;
 
 /** Body of POST .../return: the surveyor must say what to change. */
 export const returnSchema = z.object({
-  comment: z
-    .string({ error: 'Say what the planner should change.' })
+  comment: userText({ error: 'Say what the planner should change.' })
     .trim()
     .min(1, 'Say what the planner should change.')
     .max(4000, 'Keep the comment under 4000 characters.'),

@@ -1,5 +1,6 @@
 /** Shapes of sites: an uploaded elevation grid (GeoTIFF DEM) of a project, its metadata and hillshade preview. */
 import { z } from 'zod';
+import { userText } from './text';
 import type { GridMetadata } from '../terrain/metadata';
 import { apiErrorSchema } from './errors';
 
@@ -19,9 +20,9 @@ export const surfaceKindLabels: Record<SurfaceKind, string> = {
  * `verticalDatum` may be left out when the GeoTIFF declares one (its GeoKeys); otherwise the planner must state it.
  */
 export const siteUploadFieldsSchema = z.object({
-  name: z.string().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
+  name: userText().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
   surfaceKind: surfaceKindSchema,
-  verticalDatum: z.string().trim().min(1, 'State the vertical datum of the heights (for example "EGM96").').max(80, 'Keep the datum under 80 characters.').optional(),
+  verticalDatum: userText().trim().min(1, 'State the vertical datum of the heights (for example "EGM96").').max(80, 'Keep the datum under 80 characters.').optional(),
 });
 export type SiteUploadFields = z.infer<typeof siteUploadFieldsSchema>;
 
@@ -30,9 +31,9 @@ export const siteFileField = 'file';
 
 export const siteUpdateSchema = z
   .object({
-    name: z.string().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
+    name: userText().trim().min(1, 'Give the site a name.').max(120, 'Keep the site name under 120 characters.').optional(),
     surfaceKind: surfaceKindSchema.optional(),
-    verticalDatum: z.string().trim().min(1, 'State the vertical datum of the heights.').max(80, 'Keep the datum under 80 characters.').optional(),
+    verticalDatum: userText().trim().min(1, 'State the vertical datum of the heights.').max(80, 'Keep the datum under 80 characters.').optional(),
   })
   .strict()
   .refine((v) => Object.keys(v).length > 0, { message: 'Send at least one field to change.' });

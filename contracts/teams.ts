@@ -1,5 +1,6 @@
 /** Shapes for the signed-in user, teams and members. */
 import { z } from 'zod';
+import { userText } from './text';
 import { roleSchema } from './roles';
 
 export const healthSchema = z.object({ ok: z.literal(true), db: z.literal('up') });
@@ -19,7 +20,7 @@ export const meSchema = z.object({
 export type Me = z.infer<typeof meSchema>;
 
 export const createTeamSchema = z.object({
-  name: z.string().trim().min(2, 'A team name needs at least 2 characters.').max(80, 'Keep the team name under 80 characters.'),
+  name: userText().trim().min(2, 'A team name needs at least 2 characters.').max(80, 'Keep the team name under 80 characters.'),
 });
 export type CreateTeam = z.infer<typeof createTeamSchema>;
 

@@ -32,6 +32,6 @@ export function plainText(s: string): string {
 }
 
 /** A field of user text: bidi controls removed as it is read (chain `.trim()`, `.min()`, `.max()` as the field needs). */
-export function userText() {
-  return z.string().overwrite(stripBidiControls);
+export function userText(params?: Parameters<typeof z.string>[0]) {
+  return z.string(params).overwrite(stripBidiControls);
 }
