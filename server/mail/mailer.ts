@@ -169,7 +169,14 @@ export async function createMailer(deps: {
     },
     idle,
     async close() {
-      if (workerId) await boss.offWork(queue);
+      if (workerId) {
+        await boss.offWork(queue);
+        // A send in progress finishes before its transport closes (at most 10 s; an unfinished one is retried).
+        const until = Date.now() + 10_000;
+        while (Date.now() < until && (await db.$client.query(`select 1 from pgboss.job where name = $1 and state = 'active'`, [queue])).rowCount) {
+          await new Promise((r) => setTimeout(r, 50));
+        }
+      }
       transport?.close();
       await fake?.close();
     },

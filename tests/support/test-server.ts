@@ -27,7 +27,7 @@ export async function startTestServer(opts: { env?: Record<string, string>; web?
   if (!databaseUrl) throw new Error('LOFTLINE_TEST_DATABASE_URL is not set: run the suites through `npm test`.');
   const port = await freePort();
   // A mail queue of its own unless told otherwise, so each server's fake SMTP receives the mail it queued.
-  const env = parseEnv({ AUTH_SIGNIN_PER_MINUTE: '1000', MAIL_QUEUE: `mail-test-${port}`, ...process.env, ...opts.env, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}` });
+  const env = parseEnv({ AUTH_SIGNIN_PER_MINUTE: '1000', MAIL_QUEUE: `mail-test-${process.pid}-${port}`, ...process.env, ...opts.env, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}` });
   const webDist = opts.web === false ? null : (process.env.LOFTLINE_WEB_DIST ?? null);
   const config = buildConfig(env, { databaseUrl, authSecret: testAuthSecret, webDist, port });
   const srv = await bootServer(config, { migrate: false });
