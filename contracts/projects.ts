@@ -9,7 +9,7 @@ export type UnitSystem = z.infer<typeof unitSystemSchema>;
 
 const name = userText().trim().min(2, 'A project name needs at least 2 characters.').max(120, 'Keep the project name under 120 characters.');
 const client = userText().trim().max(120, 'Keep the client name under 120 characters.');
-const notes = z.string().max(4000, 'Keep the notes under 4000 characters.');
+const notes = userText().max(4000, 'Keep the notes under 4000 characters.');
 
 export const createProjectSchema = z.object({
   name,

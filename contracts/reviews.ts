@@ -52,8 +52,7 @@ export type ReviewNote = z.infer<typeof reviewNoteSchema>;
 
 /** Body of POST .../return: the surveyor must say what to change. */
 export const returnSchema = z.object({
-  comment: z
-    .string({ error: 'Say what the planner should change.' })
+  comment: userText({ error: 'Say what the planner should change.' })
     .trim()
     .min(1, 'Say what the planner should change.')
     .max(4000, 'Keep the comment under 4000 characters.'),

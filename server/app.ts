@@ -9,6 +9,7 @@ import type { Auth } from './auth/auth';
 import { authHttpHandler } from './auth/auth-http';
 import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
+import { logServerError } from './http/error-log';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
 import { requireSameOrigin, trustedOriginsOf } from './http/origin';
@@ -89,6 +90,6 @@ export function createApp(deps: AppDeps) {
     // Single-page app: any other GET gets the shell and the router picks the screen.
     app.get('/{*any}', (_req, res) => res.sendFile(path.join(dist, 'index.html'), { cacheControl: false, headers: { 'Cache-Control': 'no-cache' } }));
   }
-  app.use(errorMiddleware(deps.log));
+  app.use(errorMiddleware(deps.log ?? logServerError));
   return { app, api, guards };
 }

@@ -49,6 +49,12 @@ const envSchema = z.object({
   /** Name of the analysis queue; processes that share a database but should not share work use different names. */
   ANALYSIS_QUEUE: z.string().regex(/^[a-z0-9][a-z0-9._-]{0,40}$/).default('plan-analysis'),
   DEV_OUTBOX: bool.optional(),
+  /** Name of the mail queue; like ANALYSIS_QUEUE, processes that should not share mail use different names. */
+  MAIL_QUEUE: z.string().regex(/^[a-z0-9][a-z0-9._-]{0,40}$/).default('mail'),
+  /** 0: this process queues mail but does not send it (another process on the same database does). */
+  MAIL_SEND: bool.optional(),
+  /** Retries of a mail whose send failed (backoff from 30 s). */
+  MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(5),
   NODE_ENV: z.string().default('development'),
 });
 

@@ -82,11 +82,14 @@ export const registerInvitationRoutes: RouteGroup = (api: Router, { guards, serv
     const link = links.invitation(config.publicUrl, row.id);
     const mailer = mailerOf(services);
     const teamName = await reviews.teamName(teamId);
-    mailer.enqueue({ kind: 'invitation', teamId, actorId: user.id }, async () =>
-      invitationMail({ to: body.email, teamName, inviterName: user.name, role: body.role, link, expiresAt }),
-    );
-    const notification =
-      mailer.mode === 'off'
+    // Queued (durably) once the invitation is stored; if that fails the invitation stands and the owner has its link.
+    const queued = await mailer
+      .enqueue({ ctx: { kind: 'invitation', teamId, actorId: user.id }, mail: invitationMail({ to: body.email, teamName, inviterName: user.name, role: body.role, link, expiresAt }) })
+      .then(() => true)
+      .catch((err: unknown) => (console.error(`loftline: queueing an invitation mail failed: ${err instanceof Error ? err.message : String(err)}`), false));
+    const notification = !queued
+      ? { status: 'skipped' as const, reason: 'The e-mail could not be queued: send the link yourself.', recipients: [body.email] }
+      : mailer.mode === 'off'
         ? { status: 'skipped' as const, reason: 'Mail is switched off on this server: send the link yourself.', recipients: [body.email] }
         : { status: 'queued' as const, recipients: [body.email] };
     sendJson(res, createdInvitationSchema, { ...view({ ...row, invitedBy: user.name }, now), notification }, 201);

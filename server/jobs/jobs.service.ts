@@ -2,6 +2,7 @@
  * The `jobs` service: pg-boss (a PostgreSQL job queue) on Loftline's own database, with the analysis queue.
  * Any number of processes may share it: each job goes to one worker, and a job whose worker died is retried.
  */
+import { sql, type SQL } from 'drizzle-orm';
 import PgBoss from 'pg-boss';
 import type { Config } from '../config';
 import type { ServiceFactory, Services } from '../services';
@@ -14,6 +15,20 @@ export interface AnalysisJobData {
 
 /** A pg-boss `db` option: run the queue's SQL on the caller's connection (to send inside a transaction). */
 export type JobsDb = PgBoss.Db;
+
+/**
+ * A pg-boss `db` over a Drizzle transaction: pg-boss's numbered placeholders ($1, $2…) become Drizzle parameters, so
+ * a job is inserted on the transaction's connection and commits (or rolls back) with it.
+ */
+export function jobsDbOf(tx: { execute: (query: SQL) => PromiseLike<unknown> }): JobsDb {
+  return {
+    async executeSql(text: string, values: unknown[] = []) {
+      const parts = text.split(/\$(\d+)/);
+      const chunks = parts.map((p, i) => (i % 2 === 0 ? sql.raw(p) : sql`${sql.param(values[Number(p) - 1])}`));
+      return (await tx.execute(sql.join(chunks))) as { rows: unknown[] };
+    },
+  } as JobsDb;
+}
 
 export interface Jobs {
   boss: PgBoss;

@@ -1,10 +1,21 @@
 /** The mail service factory for the boot sequence, and the typed way routes reach it. */
+import { createVersionsRepository } from '../reviews/versions.repository';
+import { createReportService } from '../reports/reports.service';
+import { jobsOf } from '../jobs/jobs.service';
 import type { ServiceFactory, Services } from '../services';
-import { createMailer, type Mailer } from './mailer';
+import { createMailer, type Mailer, type ReportAttachment } from './mailer';
 
 /** Boot hook: starts the mailer (and, with no SMTP_HOST, the fake SMTP server) as `services.mail`. */
 export const mailFactory: ServiceFactory = async (services) => {
-  const mailer = await createMailer({ db: services.db, config: services.config });
+  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }) });
+  // The report is rendered when the mail is sent, from the version as it is then (a signed-off version is locked).
+  const attachReport: ReportAttachment = async (ref) => {
+    const v = await createVersionsRepository({ db: services.db }).find({ ...ref, role: 'owner' });
+    if (!v) throw new Error(`version ${ref.versionId} no longer exists`);
+    const { pdf, fileName } = await reports.pdfOf(v);
+    return { filename: fileName, content: pdf, contentType: 'application/pdf' };
+  };
+  const mailer = await createMailer({ db: services.db, config: services.config, boss: jobsOf(services).boss, attachReport });
   services.mail = mailer;
   if (services.config.env.NODE_ENV !== 'test') {
     const where =
@@ -23,7 +34,7 @@ const noMail: Mailer = {
   mode: 'off',
   from: '',
   fake: null,
-  enqueue: () => undefined,
+  enqueue: async () => undefined,
   idle: async () => undefined,
   close: async () => undefined,
 };

@@ -1,11 +1,15 @@
 /**
  * The mail service: nodemailer over SMTP (SMTP_HOST...) or, with no host configured, over the in-process fake.
- * Sending runs in the background: a failure is logged and recorded in the audit trail, never thrown at the caller.
+ * Mail goes through the PostgreSQL job queue (pg-boss, queue MAIL_QUEUE): a review enqueues its mail in the same
+ * transaction as the state change, so a crash after the commit loses nothing: any server process on the database
+ * sends it. A failed send is logged, recorded in the audit trail and retried by the queue; it never fails the caller.
  */
 import nodemailer, { type Transporter } from 'nodemailer';
+import type PgBoss from 'pg-boss';
 import type { Db } from '../../db/client';
 import { auditEvent } from '../../db/schema';
 import type { Config } from '../config';
+import type { JobsDb } from '../jobs/jobs.service';
 import { startFakeSmtp, teamHeader, type FakeSmtp } from './fake-smtp';
 
 export type MailMode = 'smtp' | 'fake' | 'off';
@@ -28,17 +32,28 @@ export interface MailContext {
   actorId?: string | null;
 }
 
+/** What the queue stores for one mail: plain JSON; a report attachment is rendered when the mail is sent. */
+export interface MailJob {
+  ctx: MailContext;
+  mail: { to: string[]; subject: string; text: string };
+  /** Attach the compliance report PDF of this version. */
+  attachReportOf?: { teamId: string; versionId: string };
+}
+
+/** Renders the compliance report PDF of a version for a mail attachment (provided by the reports domain). */
+export type ReportAttachment = (ref: { teamId: string; versionId: string }) => Promise<{ filename: string; content: Buffer; contentType: string }>;
+
 export interface Mailer {
   mode: MailMode;
   from: string;
   /** Present in 'fake' mode: what the development server received. */
   fake: FakeSmtp | null;
   /**
-   * Build (e.g. render a PDF) and send in the background. `build` may return null when there is nothing to send.
+   * Queue a mail. With `db` (a transaction's connection) the job commits or rolls back with the caller's change.
    * The outcome lands in audit_event as 'mail.sent' or 'mail.failed'.
    */
-  enqueue: (ctx: MailContext, build: () => Promise<OutgoingMail | null>) => void;
-  /** Resolves when every queued send has finished (tests, graceful shutdown). */
+  enqueue: (job: MailJob, db?: JobsDb) => Promise<void>;
+  /** Resolves when no mail of this queue waits for a first attempt or is being sent (tests, graceful shutdown). */
   idle: () => Promise<void>;
   close: () => Promise<void>;
 }
@@ -49,13 +64,20 @@ export function mailModeOf(config: Config): MailMode {
   return config.env.DEV_OUTBOX === false ? 'off' : 'fake';
 }
 
-/** Create the mail service of one server process. */
-export async function createMailer(deps: { db: Db; config: Config; log?: (msg: string, err?: unknown) => void }): Promise<Mailer> {
-  const { db, config } = deps;
+/** Create the mail service of one server process: its queue, and (unless MAIL_SEND=0) the worker that sends. */
+export async function createMailer(deps: {
+  db: Db;
+  config: Config;
+  boss: PgBoss;
+  attachReport?: ReportAttachment;
+  log?: (msg: string, err?: unknown) => void;
+}): Promise<Mailer> {
+  const { db, config, boss } = deps;
   // One line per failure: the reason is what an operator needs; the full record is in the audit trail.
   const log = deps.log ?? ((msg: string, err?: unknown) => console.error(`loftline: ${msg}${err ? `: ${err instanceof Error ? err.message : String(err)}` : ''}`));
   const mode = mailModeOf(config);
   const env = config.env;
+  const queue = env.MAIL_QUEUE;
   let fake: FakeSmtp | null = null;
   let transport: Transporter | null = null;
   const timeouts = { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 };
@@ -74,7 +96,9 @@ export async function createMailer(deps: { db: Db; config: Config; log?: (msg: s
     });
   }
 
-  const pending = new Set<Promise<void>>();
+  // Retries with backoff from 30 s: a mail server that is down for a while still gets the mail later.
+  const retry = { retryLimit: env.MAIL_RETRY_LIMIT, retryDelay: 30, retryBackoff: true, expireInSeconds: 300 };
+  await boss.createQueue(queue, { name: queue, ...retry });
 
   async function record(ctx: MailContext, action: 'mail.sent' | 'mail.failed', comment: string) {
     await db.insert(auditEvent).values({
@@ -87,48 +111,72 @@ export async function createMailer(deps: { db: Db; config: Config; log?: (msg: s
     });
   }
 
-  async function run(ctx: MailContext, build: () => Promise<OutgoingMail | null>) {
-    let mail: OutgoingMail | null = null;
+  /** One attempt; throws (after recording why) so the queue retries. */
+  async function deliver(job: MailJob) {
+    const { ctx, mail } = job;
+    if (mail.to.length === 0) return;
+    if (!transport) {
+      await record(ctx, 'mail.failed', `${ctx.kind}: not sent to ${mail.to.join(', ')}: mail is switched off (DEV_OUTBOX=0 and no SMTP_HOST).`);
+      return;
+    }
     try {
-      mail = await build();
-      if (!mail || mail.to.length === 0) return;
-      if (!transport) {
-        await record(ctx, 'mail.failed', `${ctx.kind}: not sent to ${mail.to.join(', ')}: mail is switched off (DEV_OUTBOX=0 and no SMTP_HOST).`);
-        return;
-      }
+      const attachments = job.attachReportOf && deps.attachReport ? [await deps.attachReport(job.attachReportOf)] : [];
       await transport.sendMail({
         from: env.MAIL_FROM,
         to: mail.to,
         subject: mail.subject,
         text: mail.text,
-        attachments: mail.attachments,
+        attachments,
         headers: { [teamHeader]: ctx.teamId },
       });
-      const files = mail.attachments?.length ? ` (attached: ${mail.attachments.map((a) => a.filename).join(', ')})` : '';
+      const files = attachments.length ? ` (attached: ${attachments.map((a) => a.filename).join(', ')})` : '';
       await record(ctx, 'mail.sent', `${ctx.kind}: "${mail.subject}" to ${mail.to.join(', ')}${files}`);
     } catch (err) {
       log(`sending ${ctx.kind} mail failed`, err);
       const why = err instanceof Error ? err.message : String(err);
-      const to = mail ? ` to ${mail.to.join(', ')}` : '';
-      await record(ctx, 'mail.failed', `${ctx.kind}${to}: ${why}`).catch((e) => log('recording a mail failure failed', e));
+      await record(ctx, 'mail.failed', `${ctx.kind} to ${mail.to.join(', ')}: ${why}`).catch((e) => log('recording a mail failure failed', e));
+      throw err;
     }
   }
 
+  let workerId: string | null = null;
+  if (env.MAIL_SEND !== false) {
+    workerId = await boss.work<MailJob>(queue, { batchSize: 1, pollingIntervalSeconds: env.JOBS_POLL_SECONDS }, async ([job]) => deliver(job.data));
+  }
+  const wake = () => {
+    if (workerId) boss.notifyWorker(workerId);
+  };
+
+  async function waiting(): Promise<number> {
+    const r = await db.$client.query<{ n: number }>(`select count(*)::int as n from pgboss.job where name = $1 and state in ('created', 'active')`, [queue]);
+    return r.rows[0].n;
+  }
+
   async function idle() {
-    while (pending.size > 0) await Promise.allSettled([...pending]);
+    while ((await waiting()) > 0) {
+      wake();
+      await new Promise((r) => setTimeout(r, 50));
+    }
   }
 
   return {
     mode,
     from: env.MAIL_FROM,
     fake,
-    enqueue(ctx, build) {
-      const p = run(ctx, build).finally(() => pending.delete(p));
-      pending.add(p);
+    async enqueue(job, txDb) {
+      await boss.send(queue, job, { ...retry, ...(txDb ? { db: txDb } : {}) });
+      if (!txDb) wake(); // inside a transaction the job is not visible until the commit; the worker's poll finds it
     },
     idle,
     async close() {
-      await idle();
+      if (workerId) {
+        await boss.offWork(queue);
+        // A send in progress finishes before its transport closes (at most 10 s; an unfinished one is retried).
+        const until = Date.now() + 10_000;
+        while (Date.now() < until && (await db.$client.query(`select 1 from pgboss.job where name = $1 and state = 'active'`, [queue])).rowCount) {
+          await new Promise((r) => setTimeout(r, 50));
+        }
+      }
       transport?.close();
       await fake?.close();
     },

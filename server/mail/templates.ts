@@ -65,7 +65,7 @@ export function reviewRequestedMail(f: VersionFacts & { to: string[]; submitterN
 
 /** To the planner who made the version: signed off, with the compliance report attached. */
 export function signedOffMail(
-  f: VersionFacts & { to: string; signerName: string; signedOffAt: Date; comment?: string | null; pdf: Buffer; pdfName: string },
+  f: VersionFacts & { to: string; signerName: string; signedOffAt: Date; comment?: string | null; pdfName: string },
 ): OutgoingMail {
   return clean({
     to: [f.to],
@@ -77,7 +77,6 @@ export function signedOffMail(
       `a change to the plan makes a new version that needs its own review.\n${f.link}\n\n` +
       `Before anyone flies it:\n${generalCautions.map((c) => `- ${c}`).join('\n')}` +
       signature,
-    attachments: [{ filename: f.pdfName, content: f.pdf, contentType: 'application/pdf' }],
   });
 }
 

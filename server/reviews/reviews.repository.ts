@@ -2,6 +2,7 @@
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import { reviewStateSchema, reviewTransitions, transitionAllowed, type ReviewAction, type ReviewState } from '../../contracts/reviews';
 import type { Db } from '../../db/client';
+import { jobsDbOf, type JobsDb } from '../jobs/jobs.service';
 import { auditEvent, member, organization, planVersion, user } from '../../db/schema';
 
 /** Why a transition was refused, as data for the use case to word. */
@@ -15,9 +16,10 @@ export function createReviewsRepository({ db }: { db: Db }) {
   return {
     /**
      * Apply `action` to the version if its current state allows it. The row is locked first, so two reviewers
-     * acting at once cannot both pass the check; the audit entry commits with the change or not at all.
+     * acting at once cannot both pass the check; the audit entry commits with the change or not at all, and so does
+     * the mail job that `enqueue` adds (it gets the transaction's connection and the change's time).
      */
-    async transition(q: { teamId: string; versionId: string; action: ReviewAction; actorId: string; comment: string | null }) {
+    async transition(q: { teamId: string; versionId: string; action: ReviewAction; actorId: string; comment: string | null; enqueue?: (db: JobsDb, at: Date) => Promise<void> }) {
       return db.transaction(async (tx) => {
         const [row] = await tx
           .select({
@@ -69,6 +71,7 @@ export function createReviewsRepository({ db }: { db: Db }) {
           toState: t.to,
           comment: q.comment,
         }).returning({ at: auditEvent.createdAt });
+        if (q.enqueue) await q.enqueue(jobsDbOf(tx), entry.at);
         return { ok: true as const, from: state, to: t.to as ReviewState, at: entry.at };
       });
     },

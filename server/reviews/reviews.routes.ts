@@ -24,7 +24,8 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
     versions,
     reviews,
     // The mailer is looked up per request: the boot sequence adds it to `services` before routes run.
-    notify: (q) => createReviewNotifier({ mailer: mailerOf(services), reviews, config, renderReportPdf: reports.pdfOf })(q),
+    notify: (q) => createReviewNotifier({ mailer: mailerOf(services), reviews, config })(q),
+    mailer: () => mailerOf(services),
   });
 
   const target = (req: Request) => {

@@ -13,6 +13,8 @@ import {
 import type { Role } from '../../contracts/roles';
 import { AppError, errors } from '../http/errors';
 import type { SessionUser } from '../http/guard';
+import type { JobsDb } from '../jobs/jobs.service';
+import type { Mailer } from '../mail/mailer';
 import type { ReviewNotifier } from './reviews.notify';
 import type { ReviewsRepository, TransitionRefusal } from './reviews.repository';
 import type { VersionRecord, VersionsRepository } from './versions.repository';
@@ -44,7 +46,7 @@ export function refusalMessage(action: ReviewAction, refusal: Exclude<Transition
   return `Version ${number} is ${reviewStateLabels[state].toLowerCase()}. ${needs}. ${here}`;
 }
 
-export function createReviewsUsecases(deps: { versions: VersionsRepository; reviews: ReviewsRepository; notify: ReviewNotifier }) {
+export function createReviewsUsecases(deps: { versions: VersionsRepository; reviews: ReviewsRepository; notify: ReviewNotifier; mailer: () => Mailer }) {
   const { versions, reviews, notify } = deps;
 
   async function statusOf(v: VersionRecord, role: Role, actorId: string): Promise<VersionReview> {
@@ -75,18 +77,19 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
       return statusOf(await load(q), q.role, q.actor.id);
     },
 
-    /** Apply a review action; refused transitions are 409 with the reason. The e-mail is queued after the commit. */
+    /** Apply a review action; refused transitions are 409 with the reason. The e-mail is queued in the same transaction. */
     async transition(q: { teamId: string; planId: string; versionId: string; role: Role; actor: SessionUser; action: ReviewAction; comment: string | null }) {
-      await load(q);
-      const r = await reviews.transition({ teamId: q.teamId, versionId: q.versionId, action: q.action, actorId: q.actor.id, comment: q.comment });
+      const before = await load(q);
+      const prepared = await notify({ action: q.action, version: before, actor: q.actor, comment: q.comment });
+      const enqueue = prepared.job ? (db: JobsDb, at: Date) => deps.mailer().enqueue(prepared.job!(at), db) : undefined;
+      const r = await reviews.transition({ teamId: q.teamId, versionId: q.versionId, action: q.action, actorId: q.actor.id, comment: q.comment, enqueue });
       if (!r.ok) {
         if (r.refusal.reason === 'not_found') throw errors.notFound('Plan version');
         const code = r.refusal.reason === 'analysis' ? 'analysis_not_done' : r.refusal.reason === 'independence' ? 'not_independent' : 'invalid_transition';
         throw new AppError(409, code, refusalMessage(q.action, r.refusal));
       }
       const after = await load(q);
-      const notification = await notify({ action: q.action, version: after, actor: q.actor, comment: q.comment });
-      return { ...(await statusOf(after, q.role, q.actor.id)), notification };
+      return { ...(await statusOf(after, q.role, q.actor.id)), notification: prepared.notification };
     },
 
     /** The plan's audit trail. */

@@ -27,7 +27,7 @@ describe('safety cautions', () => {
   });
 
   it('go out with the sign-off mail', () => {
-    const mail = signedOffMail({ teamName: 'T', projectName: 'P', planName: 'N', versionNumber: 1, link: 'https://x.example/a', to: 'a@x.example', signerName: 'S', signedOffAt: new Date(0), pdf: Buffer.from('%PDF'), pdfName: 'r.pdf' });
+    const mail = signedOffMail({ teamName: 'T', projectName: 'P', planName: 'N', versionNumber: 1, link: 'https://x.example/a', to: 'a@x.example', signerName: 'S', signedOffAt: new Date(0), pdfName: 'r.pdf' });
     for (const c of generalCautions) expect(mail.text).toContain(c);
   });
 

@@ -56,7 +56,7 @@ describe('API errors are JSON with the right status', () => {
     const { app } = createApp({
       db: srv.db,
       auth: srv.auth,
-      config: { jsonLimit: '1kb', webDist: null } as never,
+      config: { jsonLimit: '1kb', webDist: null, publicUrl: 'http://127.0.0.1' } as never,
       log: (e) => logged.push(e),
       routes: [(api, { guards }) => api.get('/boom', guards.public(), () => { throw new Error('secret detail at /srv/x.ts:12'); })],
     });

@@ -27,7 +27,10 @@ export const viewports = {
   wide: { width: 1440, height: 900 },
 } as const;
 
-/** A fresh context (no cookies, empty localStorage) on `browser` that records uncaught page errors. */
+/**
+ * A fresh context (no cookies, empty localStorage) on `browser` that records uncaught page errors and, as errors
+ * too, whatever the server's Content-Security-Policy made the browser refuse (Chromium reports it on the console).
+ */
 export async function openPage(
   browser: Browser,
   viewport: { width: number; height: number },
@@ -36,5 +39,8 @@ export async function openPage(
   const page = await context.newPage();
   const pageErrors: string[] = [];
   page.on('pageerror', (e) => pageErrors.push(e.message));
+  page.on('console', (m) => {
+    if (m.type() === 'error' && /Content Security Policy/i.test(m.text())) pageErrors.push(`CSP: ${m.text()}`);
+  });
   return { context, page, pageErrors };
 }

@@ -14,6 +14,9 @@ export async function freePort(): Promise<number> {
   });
 }
 
+/** The auth secret of every test server, so a session made through one is valid on another (child processes too). */
+export const testAuthSecret = 'Xq7v2LmPz9RtY4wKc8NbF3hJd6SgA1eU0oIyTnMrWqE';
+
 export interface TestServer extends RunningServer {
   stop: () => Promise<void>;
 }
@@ -23,9 +26,10 @@ export async function startTestServer(opts: { env?: Record<string, string>; web?
   const databaseUrl = opts.databaseUrl ?? process.env.LOFTLINE_TEST_DATABASE_URL;
   if (!databaseUrl) throw new Error('LOFTLINE_TEST_DATABASE_URL is not set: run the suites through `npm test`.');
   const port = await freePort();
-  const env = parseEnv({ AUTH_SIGNIN_PER_MINUTE: '1000', ...process.env, ...opts.env, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}` });
+  // A mail queue of its own unless told otherwise, so each server's fake SMTP receives the mail it queued.
+  const env = parseEnv({ AUTH_SIGNIN_PER_MINUTE: '1000', MAIL_QUEUE: `mail-test-${process.pid}-${port}`, ...process.env, ...opts.env, PORT: String(port), HOST: '127.0.0.1', PUBLIC_URL: `http://127.0.0.1:${port}` });
   const webDist = opts.web === false ? null : (process.env.LOFTLINE_WEB_DIST ?? null);
-  const config = buildConfig(env, { databaseUrl, authSecret: 'Xq7v2LmPz9RtY4wKc8NbF3hJd6SgA1eU0oIyTnMrWqE', webDist, port });
+  const config = buildConfig(env, { databaseUrl, authSecret: testAuthSecret, webDist, port });
   const srv = await bootServer(config, { migrate: false });
   return { ...srv, stop: srv.close };
 }
