@@ -39,6 +39,10 @@ const envSchema = z.object({
   DEM_MAX_PIXELS: z.coerce.number().int().min(1).max(2 ** 30).default(2 ** 27),
   /** Longest one terrain task (reading an upload, one analysis) may run before its thread is stopped and replaced. */
   TERRAIN_TASK_SECONDS: z.coerce.number().positive().max(86_400).default(300),
+  /** Crash debris (partial uploads, stored grids without a site) older than this is removed. */
+  ORPHAN_GRACE_MINUTES: z.coerce.number().positive().max(10_080).default(60),
+  /** How often storage is swept for crash debris (also once at start). */
+  ORPHAN_SWEEP_MINUTES: z.coerce.number().positive().max(10_080).default(30),
   /** Retries of an analysis job that stopped without finishing (a crashed or killed worker). */
   ANALYSIS_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(3),
   /** An analysis job still active after this long is taken as lost and retried; keep it above the longest run. */

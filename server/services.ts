@@ -6,6 +6,7 @@ import type { Db } from '../db/client';
 import type { Auth } from './auth/auth';
 import type { Config } from './config';
 import { storageFactory } from './storage/storage.service';
+import { orphanSweepFactory } from './storage/orphan-sweep';
 import { terrainFactory } from './analysis/terrain.service';
 import { jobsFactory } from './jobs/jobs.service';
 import { mailFactory } from './mail/mail.service';
@@ -22,4 +23,4 @@ export interface Services {
 export type ServiceFactory = (services: Services) => Promise<(() => Promise<void>) | void>;
 
 /** Service factories in start-up order (storage before jobs, jobs before mail). */
-export const serviceFactories: ServiceFactory[] = [storageFactory, terrainFactory, jobsFactory, mailFactory];
+export const serviceFactories: ServiceFactory[] = [storageFactory, orphanSweepFactory, terrainFactory, jobsFactory, mailFactory];

@@ -32,9 +32,19 @@ export interface DemInspection {
   hillshade: HillshadeInfo & { png: Uint8Array };
 }
 
+/**
+ * An error of the TIFF library while reading an uploaded file, as the refusal it is: the file's structure is
+ * damaged in a way the engine's own checks did not name (found by fuzzing: a GeoKey directory pointing at a
+ * missing value). The engine's own TerrainErrors pass through unchanged.
+ */
+function asDamaged(err: unknown): never {
+  if (err instanceof TerrainError) throw err;
+  throw new TerrainError('truncated', `The GeoTIFF cannot be read (${(err as Error)?.message ?? String(err)}); its structure is damaged, so export it again.`);
+}
+
 /** Read the header only (a quick refusal of files that are not usable DEMs, before any pixel is decoded). */
 export async function inspectDemHeader(bytes: Uint8Array, opts: { maxPixels?: number } = {}): Promise<DemFileInfo> {
-  const h = await readDemHeader(bytes);
+  const h = await readDemHeader(bytes).catch(asDamaged);
   const maxPixels = opts.maxPixels ?? MAX_DEM_PIXELS;
   if (h.width * h.height > maxPixels) {
     throw new TerrainError('too-large', `The grid is ${h.width} x ${h.height} = ${h.width * h.height} pixels, above this server's limit of ${maxPixels} (DEM_MAX_PIXELS); crop or resample it (gdal_translate -projwin / -tr) and upload it again.`);
@@ -45,7 +55,7 @@ export async function inspectDemHeader(bytes: Uint8Array, opts: { maxPixels?: nu
 /** Decode the whole grid: metadata and a hillshade preview (longest side `maxSizePx`, default 1024). */
 export async function inspectDem(bytes: Uint8Array, opts: { maxSizePx?: number; maxPixels?: number } = {}): Promise<DemInspection> {
   const file = await inspectDemHeader(bytes, opts);
-  const grid = await readDem(bytes, { inflate: nodeInflate, maxPixels: opts.maxPixels ?? MAX_DEM_PIXELS });
+  const grid = await readDem(bytes, { inflate: nodeInflate, maxPixels: opts.maxPixels ?? MAX_DEM_PIXELS }).catch(asDamaged);
   const metadata = describeGrid(grid);
   const hs = hillshadePng(grid, { maxSizePx: opts.maxSizePx ?? 1024 });
   return {

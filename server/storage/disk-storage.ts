@@ -99,5 +99,31 @@ export function createDiskStorage(root: string): Storage {
       await walk(abs, '', out);
       return out.filter((k) => k.startsWith(prefix)).sort();
     },
+
+    async modifiedAt(key) {
+      try {
+        return (await fsp.stat(file(key))).mtime;
+      } catch (err) {
+        if ((err as NodeJS.ErrnoException).code === 'ENOENT') return null;
+        throw err;
+      }
+    },
+
+    async sweepPartial(olderThanMs) {
+      // .part files of puts that never finished: the process died between the first byte and the rename
+      const tmpDir = path.join(abs, TMP_DIR);
+      const names = await fsp.readdir(tmpDir).catch(() => [] as string[]);
+      const removed: string[] = [];
+      for (const name of names) {
+        if (!name.endsWith('.part')) continue;
+        const f = path.join(tmpDir, name);
+        const st = await fsp.stat(f).catch(() => null);
+        if (st && Date.now() - st.mtimeMs > olderThanMs) {
+          await fsp.rm(f, { force: true });
+          removed.push(`${TMP_DIR}/${name}`);
+        }
+      }
+      return removed;
+    },
   };
 }

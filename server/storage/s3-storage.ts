@@ -161,5 +161,19 @@ export function createS3Storage(cfg: S3StorageConfig): Storage {
       } while (ContinuationToken);
       return out.sort();
     },
+
+    async modifiedAt(key) {
+      try {
+        return (await client.send(new HeadObjectCommand({ Bucket, Key: full(key) }))).LastModified ?? null;
+      } catch (err) {
+        if (isMissing(err)) return null;
+        throw err;
+      }
+    },
+
+    async sweepPartial() {
+      // a single PUT is all or nothing in S3: a crash mid-upload leaves no object behind
+      return [];
+    },
   };
 }

@@ -28,6 +28,10 @@ export interface Storage {
   exists(key: string): Promise<boolean>;
   /** Keys under `prefix` (tests check that refused uploads left nothing behind). */
   list(prefix?: string): Promise<string[]>;
+  /** When `key` was last written, or null when it is missing. */
+  modifiedAt(key: string): Promise<Date | null>;
+  /** Remove partial writes older than `olderThanMs` that a crash left behind; returns what was removed. */
+  sweepPartial(olderThanMs: number): Promise<string[]>;
 }
 
 /** The upload went past its size limit; carries the limit for the error message. */
