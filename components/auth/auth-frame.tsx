@@ -8,7 +8,7 @@ import { Card, Heading, Screen, Text } from '../ui';
 /** A narrow centred column, the same on phones and desktops; `aside` sits below the link to the other form. */
 export function AuthFrame({ title, children, footer, aside }: { title: string; children: ReactNode; footer?: ReactNode; aside?: ReactNode }) {
   return (
-    <Screen width="form">
+    <Screen width="form" standalone documentTitle={title}>
       <View style={styles.brand}>
         <BrandMark size="large" />
         <Text tone="muted">Survey flight checks over real terrain: GSD, overlap and altitudes, line by line.</Text>

@@ -17,7 +17,7 @@ export type SignInPrefill = { email: string };
 export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
   const queryClient = useQueryClient();
   const [failure, setFailure] = useState<string | null>(null);
-  const { control, handleSubmit, setValue, formState } = useForm<SignIn>({
+  const { control, handleSubmit, setValue, setError, setFocus, formState } = useForm<SignIn>({
     resolver: zodResolver(signInSchema),
     defaultValues: { email: '', password: '' },
   });
@@ -33,6 +33,9 @@ export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
     const refused = authFailureFrom(error);
     if (refused) {
       setFailure(refused.message);
+      // Focus would otherwise fall to the page body when the busy button re-renders; keep the user at the field.
+      setError('password', { type: 'server', message: 'Not accepted: check the e-mail and password, then try again.' });
+      setFocus('password');
       return;
     }
     await queryClient.refetchQueries({ queryKey: meKeys.all });
@@ -40,7 +43,7 @@ export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
 
   return (
     <View style={styles.form}>
-      {failure ? <Banner tone="danger" message={failure} testID="sign-in-failure" /> : null}
+      {failure ? <Banner tone="danger" message={failure} testID="sign-in-failure" nativeID="sign-in-failure" /> : null}
       <FormTextField
         control={control}
         name="email"
@@ -59,6 +62,7 @@ export function SignInForm({ prefill }: { prefill?: SignInPrefill | null }) {
         secureTextEntry
         autoComplete="current-password"
         testID="sign-in-password"
+        describedBy={failure ? 'sign-in-failure' : undefined}
         onSubmitEditing={() => void submit()}
       />
       <Button label="Sign in" onPress={() => void submit()} busy={formState.isSubmitting} testID="sign-in-submit" />

@@ -12,7 +12,6 @@ export function FlightRow({ flight, last }: { flight: FlightSummary; last: boole
     <LinkPressable
       href={`/flights/${flight.versionId}`}
       testID={`flight-${flight.versionId}`}
-      accessibilityLabel={`${flight.planName}, version ${flight.number}, ${flight.projectName}: open the leg sheet`}
       style={(s) => [styles.row, !last && styles.divider, (s.hovered || s.pressed) && styles.hover]}
     >
       <View style={styles.texts}>

@@ -4,7 +4,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 import type { ChecklistItem } from '../../contracts/flights';
 import { colors, layout, radii, space } from '../theme';
 import { showFocusRing } from '../ui/focus-modality';
-import { Badge, Button, Card, Heading, Text, type WebPressState } from '../ui';
+import { Badge, Button, Card, Heading, List, Text, type WebPressState } from '../ui';
 
 /** Ticks live only while the page is open: a list ticked on another day should not look done today. */
 export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] }) {
@@ -23,7 +23,7 @@ export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] 
         <Heading level={2}>Pre-flight checklist</Heading>
         <Badge label={`${items.filter((i) => done.has(i.id)).length} of ${items.length} done`} tone={all ? 'success' : 'caution'} testID="checklist-count" />
       </View>
-      <View role="list" style={styles.list}>
+      <List label="Checks before take-off" style={styles.list}>
         {items.map((item) => {
           const checked = done.has(item.id);
           return (
@@ -52,7 +52,7 @@ export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] 
             </Pressable>
           );
         })}
-      </View>
+      </List>
       {done.size > 0 ? <Button label="Clear the ticks" variant="quiet" size="compact" onPress={() => setDone(new Set())} style={styles.clear} testID="checklist-clear" /> : null}
     </Card>
   );

@@ -7,10 +7,11 @@ import { EmptyState, Screen, TextLink } from '../ui';
 export function NotFoundScreen() {
   const pathname = usePathname();
   return (
-    <Screen testID="not-found-screen">
+    <Screen testID="not-found-screen" standalone documentTitle="Page not found">
       <BrandMark />
       <EmptyState
         title="Page not found"
+        level={1}
         message={`Nothing lives at ${pathname}. It may have moved, or the link was mistyped.`}
         action={<TextLink href="/" label="Go to Loftline" testID="not-found-home" />}
       />

@@ -14,7 +14,6 @@ export function TeamChip({ compact = false }: { compact?: boolean }) {
     <LinkPressable
       href="/teams"
       testID="team-switcher"
-      accessibilityLabel={team && role ? `Team ${teamName}, your role ${roleLabels[role]}. Switch team` : 'Choose or create a team'}
       style={(state: WebPressState) => [
         compact ? styles.compact : styles.block,
         (state.hovered || state.pressed) && styles.hovered,

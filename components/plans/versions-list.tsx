@@ -3,7 +3,7 @@ import { StyleSheet, View } from 'react-native';
 import { reviewStateLabels } from '../../contracts/reviews';
 import { formatDayTime } from '../projects/format-date';
 import { colors, layout, space } from '../theme';
-import { Badge, type BadgeTone, LinkPressable, Text } from '../ui';
+import { Badge, type BadgeTone, LinkPressable, List, Text } from '../ui';
 import { analysisStateLabels, type AnalysisState, type VersionSummary } from './plan-shape';
 
 const tones: Record<AnalysisState, BadgeTone> = { queued: 'neutral', running: 'info', done: 'success', failed: 'danger' };
@@ -18,13 +18,12 @@ export function VersionsList({ projectId, versions }: { projectId: string; versi
     return <Text tone="muted">No runs yet. Run the analysis to make version 1.</Text>;
   }
   return (
-    <View role="list" aria-label="Versions" testID="versions-list">
+    <List label="Versions" testID="versions-list">
       {versions.map((v, i) => (
         <LinkPressable
           key={v.id}
           href={`/projects/${projectId}/plans/${v.planId}/versions/${v.id}`}
           testID={`version-${v.number}`}
-          accessibilityLabel={`Version ${v.number}, ${analysisLabels[v.analysisState].label}`}
           style={(s) => [styles.row, i < versions.length - 1 && styles.divider, (s.hovered || s.pressed) && styles.hover]}
         >
           <Text variant="bodyStrong" tone="primary">Version {v.number}</Text>
@@ -33,7 +32,7 @@ export function VersionsList({ projectId, versions }: { projectId: string; versi
           <Text variant="caption" tone="muted">{formatDayTime(v.createdAt)}</Text>
         </LinkPressable>
       ))}
-    </View>
+    </List>
   );
 }
 

@@ -24,7 +24,6 @@ export function ProjectRow({ project, mayWrite, busy, last, onRename, onArchive 
       <LinkPressable
         href={`/projects/${project.id}`}
         testID={`project-link-${project.name}`}
-        accessibilityLabel={`Open project ${project.name}`}
         style={(s) => [styles.link, (s.hovered || s.pressed) && styles.linkHover, s.focused && styles.focused]}
       >
         <View style={styles.nameLine}>

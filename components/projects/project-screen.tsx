@@ -12,14 +12,14 @@ import { useSites } from '../sites/sites.queries';
 import { RequirePermission } from '../team/require-permission';
 import { useCurrentTeam } from '../team/current-team-context';
 import { colors, layout, space } from '../theme';
-import { Badge, Banner, Button, Card, Heading, LinkPressable, Loading, Screen, Text, TextLink } from '../ui';
+import { Badge, Banner, Button, Card, Heading, LinkPressable, List, Loading, Screen, Text, TextLink } from '../ui';
 import { formatDay } from './format-date';
 import { ProjectForm } from './project-form';
 import { useProject, useUpdateProject } from './projects.queries';
 
 function ListLink({ href, title, detail, badges, testID, last }: { href: string; title: string; detail: string; badges?: ReactNode; testID: string; last: boolean }) {
   return (
-    <LinkPressable href={href} testID={testID} accessibilityLabel={`Open ${title}`} style={(s) => [styles.item, !last && styles.divider, (s.hovered || s.pressed) && styles.hover, s.focused && styles.focused]}>
+    <LinkPressable href={href} testID={testID} style={(s) => [styles.item, !last && styles.divider, (s.hovered || s.pressed) && styles.hover, s.focused && styles.focused]}>
       <View style={styles.itemTitle}>
         <Text variant="bodyStrong" tone="primary">{title}</Text>
         {badges}
@@ -83,7 +83,7 @@ export function ProjectScreen() {
               {sites.isPending ? <Loading label="Loading the grids…" /> : null}
               {sites.isError ? <Banner tone="danger" message={errorMessage(sites.error)} /> : null}
               {sites.data?.length === 0 ? <Text tone="muted">No elevation grid yet. Plans are made over an uploaded GeoTIFF DEM.</Text> : null}
-              <View role="list">
+              <List label="Elevation grids">
                 {(sites.data ?? []).map((s, i) => (
                   <ListLink
                     key={s.id}
@@ -95,7 +95,7 @@ export function ProjectScreen() {
                     last={i === (sites.data?.length ?? 0) - 1}
                   />
                 ))}
-              </View>
+              </List>
             </Card>
             <Card testID="project-plans">
               <View style={styles.head}>
@@ -106,7 +106,7 @@ export function ProjectScreen() {
               </View>
               {plans.isError ? <Banner tone="danger" message={errorMessage(plans.error)} /> : null}
               {plans.data?.length === 0 ? <Text tone="muted">No plans yet.</Text> : null}
-              <View role="list">
+              <List label="Plans">
                 {(plans.data ?? []).map((pl, i) => (
                   <ListLink
                     key={pl.id}
@@ -118,7 +118,7 @@ export function ProjectScreen() {
                     last={i === (plans.data?.length ?? 0) - 1}
                   />
                 ))}
-              </View>
+              </List>
             </Card>
           </>
         ) : null}

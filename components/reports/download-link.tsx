@@ -19,7 +19,6 @@ export function DownloadLink({ href, label, detail, testID }: DownloadLinkProps)
       role="link"
       {...anchor}
       testID={testID}
-      aria-label={detail ? `${label}: ${detail}` : label}
       style={(s: WebPressState) => [styles.box, (s.hovered || s.pressed) && styles.hover, showFocusRing(s.focused) && styles.focused]}
     >
       <View style={styles.texts}>

@@ -20,12 +20,21 @@ export function HeadingAdvice({ advice, units }: { advice: NonNullable<PlanResul
         Of the headings tried (0–179°), flying at {advice.recommendedDeg}° keeps the height above ground steadiest if each line were flown at one altitude: lines run along the contours.
       </Text>
       <View role="table" aria-label="Headings compared" style={styles.table}>
+        <View role="row" style={styles.row}>
+          {['Heading (true)', 'Lines', 'Flight distance', 'Height above ground spread (std. dev.)'].map((h) => (
+            <Text key={h} role="columnheader" variant="label" tone="muted" style={styles.cell}>
+              {h}
+            </Text>
+          ))}
+        </View>
         {best.map((o) => (
           <View key={o.headingDeg} role="row" style={styles.row}>
-            <Text variant={o.headingDeg === advice.recommendedDeg ? 'bodyStrong' : 'body'} style={styles.cell}>{o.headingDeg}°</Text>
-            <Text variant="caption" style={styles.cell}>{o.lineCount} lines</Text>
-            <Text variant="caption" style={styles.cell}>{formatLength(o.flightDistanceM, units)}</Text>
-            <Text variant="caption" style={styles.cell}>spread (std. dev.) {formatLength(o.aglSpreadM, units, 1)}</Text>
+            <Text role="rowheader" variant={o.headingDeg === advice.recommendedDeg ? 'bodyStrong' : 'body'} style={styles.cell}>
+              {o.headingDeg}°{o.headingDeg === advice.recommendedDeg ? ' (recommended)' : ''}
+            </Text>
+            <Text role="cell" variant="caption" style={styles.cell}>{o.lineCount}</Text>
+            <Text role="cell" variant="caption" style={styles.cell}>{formatLength(o.flightDistanceM, units)}</Text>
+            <Text role="cell" variant="caption" style={styles.cell}>{formatLength(o.aglSpreadM, units, 1)}</Text>
           </View>
         ))}
       </View>
@@ -36,5 +45,5 @@ export function HeadingAdvice({ advice, units }: { advice: NonNullable<PlanResul
 const styles = StyleSheet.create({
   table: { gap: space.xxs },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
-  cell: { minWidth: layout.inlineLabelPx },
+  cell: { minWidth: layout.inlineLabelPx, flexShrink: 1 },
 });

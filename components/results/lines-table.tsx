@@ -121,7 +121,7 @@ function LinesList(p: LinesTableProps) {
       <View style={styles.sortRow} role="group" aria-label="Sort lines">
         <Text variant="caption" tone="muted">Sort:</Text>
         {sortChoices.map((c) => (
-          <Pressable key={c.key} role="button" onPress={() => p.onSort(c.key)} testID={`lines-sort-${c.key}`} style={[styles.chip, p.sortKey === c.key && styles.chipOn]}>
+          <Pressable key={c.key} role="button" aria-pressed={p.sortKey === c.key} onPress={() => p.onSort(c.key)} testID={`lines-sort-${c.key}`} style={[styles.chip, p.sortKey === c.key && styles.chipOn]}>
             <Text variant="caption" tone={p.sortKey === c.key ? 'inverse' : 'default'}>
               {c.label}
               {p.sortKey === c.key ? (p.sortDir === 'asc' ? ' ▲' : ' ▼') : ''}
@@ -133,7 +133,9 @@ function LinesList(p: LinesTableProps) {
         {p.rows.map((r) => {
           const selected = r.index === p.selected;
           return (
-            <Pressable key={r.index} role="listitem" aria-selected={selected} onPress={() => p.onSelect(r.index)} testID={`line-row-${r.number}`} style={[styles.card, selected && styles.selected]}>
+            // A list item holding a toggle button: the card is a control, and its pressed state says which line the chart shows.
+            <View key={r.index} role="listitem">
+            <Pressable role="button" aria-pressed={selected} onPress={() => p.onSelect(r.index)} testID={`line-row-${r.number}`} style={[styles.card, selected && styles.selected]}>
               <Text variant="bodyStrong">
                 Line {r.number} · {formatLength(r.lengthM, p.units)} · {r.photos} photos · {r.legs} leg{r.legs === 1 ? '' : 's'}
               </Text>
@@ -150,6 +152,7 @@ function LinesList(p: LinesTableProps) {
                 </Text>
               ))}
             </Pressable>
+            </View>
           );
         })}
       </View>

@@ -13,13 +13,14 @@ const look: Record<BannerTone, { fill: string; edge: string; ink: TextTone }> = 
   success: { fill: colors.successSoft, edge: colors.success, ink: 'success' },
 };
 
-export type BannerProps = { tone: BannerTone; title?: string; message?: string; children?: ReactNode; testID?: string };
+export type BannerProps = { tone: BannerTone; title?: string; message?: string; children?: ReactNode; testID?: string; nativeID?: string };
 
 /** Errors are announced at once (role "alert"); the other tones are polite status messages. */
-export function Banner({ tone, title, message, children, testID }: BannerProps) {
+export function Banner({ tone, title, message, children, testID, nativeID }: BannerProps) {
   return (
     <View
       testID={testID}
+      nativeID={nativeID}
       role={tone === 'danger' ? 'alert' : 'status'}
       style={[styles.box, { backgroundColor: look[tone].fill, borderLeftColor: look[tone].edge }]}
     >

@@ -52,7 +52,7 @@ export function Button({ label, onPress, variant = 'primary', disabled, busy, ac
       ]}
     >
       <View style={styles.row}>
-        {busy ? <ActivityIndicator size="small" color={variant === 'primary' ? colors.inkInverse : colors.primary} /> : null}
+        {busy ? <ActivityIndicator aria-hidden size="small" color={variant === 'primary' ? colors.inkInverse : colors.primary} /> : null}
         <Text variant="label" tone={inactive ? 'muted' : look.ink} style={styles.label}>
           {label}
         </Text>

@@ -4,13 +4,14 @@ import { StyleSheet, View } from 'react-native';
 import { colors, layout, radii, space } from '../theme';
 import { Heading, Text } from './text';
 
-export type EmptyStateProps = { title: string; message?: string; action?: ReactNode; testID?: string };
+/** `level` 1 where the panel is the whole screen (no other main heading). */
+export type EmptyStateProps = { title: string; message?: string; action?: ReactNode; testID?: string; level?: 1 | 2 };
 
 /** A dashed panel with a title, one explaining sentence and an optional action. */
-export function EmptyState({ title, message, action, testID }: EmptyStateProps) {
+export function EmptyState({ title, message, action, testID, level = 2 }: EmptyStateProps) {
   return (
     <View testID={testID} style={styles.box}>
-      <Heading level={2} style={styles.centre}>
+      <Heading level={level} style={styles.centre}>
         {title}
       </Heading>
       {message ? (

@@ -5,6 +5,7 @@ export { Button, type ButtonVariant } from './button';
 export { Card } from './card';
 export { ChoiceGroup, type Choice } from './choice-group';
 export { EmptyState } from './empty-state';
+export { List } from './list';
 export { Loading } from './loading';
 export { Screen } from './screen';
 export { TextField } from './text-field';

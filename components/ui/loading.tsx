@@ -7,7 +7,7 @@ import { Text } from './text';
 export function Loading({ label = 'Loading…', fill = false }: { label?: string; fill?: boolean }) {
   return (
     <View role="status" aria-label={label} style={[styles.row, fill && styles.fill]}>
-      <ActivityIndicator color={colors.primary} />
+      <ActivityIndicator color={colors.primary} aria-hidden />
       <Text tone="muted">{label}</Text>
     </View>
   );

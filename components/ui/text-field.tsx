@@ -1,5 +1,5 @@
 /** Text input atom with a visible label, an optional hint and the field's error text beneath it. */
-import { forwardRef, useState } from 'react';
+import { forwardRef, useId, useState } from 'react';
 import { StyleSheet, TextInput, View, type TextInputProps } from 'react-native';
 import { colors, layout, radii, space, typeScale } from '../theme';
 import { Text } from './text';
@@ -8,16 +8,23 @@ export type TextFieldProps = Omit<TextInputProps, 'style' | 'placeholderTextColo
   label: string;
   hint?: string;
   error?: string;
+  /** Ids of further elements that describe the field (e.g. a form-level refusal banner). */
+  describedBy?: string;
 };
 
 /** A labelled input; with `error` it turns red, says it is invalid and shows the message under the box. */
-export const TextField = forwardRef<TextInput, TextFieldProps>(function TextField({ label, hint, error, testID, onFocus, onBlur, ...rest }, ref) {
+export const TextField = forwardRef<TextInput, TextFieldProps>(function TextField({ label, hint, error, describedBy, testID, onFocus, onBlur, ...rest }, ref) {
   const [focused, setFocused] = useState(false);
+  // Screen readers read the hint and the error when the field takes focus, not only sighted users below it.
+  const id = useId().replace(/:/g, '');
+  const hintId = `${id}-hint`;
+  const errorId = `${id}-error`;
+  const described = [hint ? hintId : null, error ? errorId : null, describedBy ?? null].filter(Boolean).join(' ') || undefined;
   return (
     <View style={styles.wrap}>
       <Text variant="label">{label}</Text>
       {hint ? (
-        <Text variant="caption" tone="muted">
+        <Text variant="caption" tone="muted" nativeID={hintId}>
           {hint}
         </Text>
       ) : null}
@@ -27,6 +34,7 @@ export const TextField = forwardRef<TextInput, TextFieldProps>(function TextFiel
         testID={testID}
         aria-label={label}
         aria-invalid={Boolean(error)}
+        aria-describedby={described}
         placeholderTextColor={colors.inkMuted}
         onFocus={(e) => {
           setFocused(true);
@@ -39,7 +47,7 @@ export const TextField = forwardRef<TextInput, TextFieldProps>(function TextFiel
         style={[styles.input, focused && styles.focused, error ? styles.invalid : null]}
       />
       {error ? (
-        <Text variant="caption" tone="danger" testID={testID ? `${testID}-error` : undefined}>
+        <Text variant="caption" tone="danger" nativeID={errorId} testID={testID ? `${testID}-error` : undefined}>
           {error}
         </Text>
       ) : null}

@@ -1,4 +1,5 @@
 /** Typography atom: every piece of text in the app goes through one of the theme's type variants. */
+import type { Ref } from 'react';
 import { Text as RNText, StyleSheet, type TextProps as RNTextProps } from 'react-native';
 import { colors, typeScale, type TypeVariant } from '../theme';
 
@@ -15,7 +16,8 @@ const toneColor: Record<TextTone, string> = {
   inverse: colors.inkInverse,
 };
 
-export type TextProps = RNTextProps & { variant?: TypeVariant; tone?: TextTone };
+/** `ref` is an ordinary prop in React 19; `tabIndex` is react-native-web's (-1: focusable by script only). */
+export type TextProps = RNTextProps & { variant?: TypeVariant; tone?: TextTone; ref?: Ref<RNText>; tabIndex?: 0 | -1 };
 
 /** Text in a theme variant and tone; extra styles come last so layouts can add margins. */
 export function Text({ variant = 'body', tone = 'default', style, ...rest }: TextProps) {
