@@ -1,5 +1,9 @@
 /** Flight lines over a survey polygon: spacing, clipping (turf, local metric frame), run-in/run-out, flying order, exposure stations. */
-import { booleanPointInPolygon, lineIntersect, lineString, point, polygon as turfPolygon } from '@turf/turf';
+// The three turf packages, not the @turf/turf umbrella: the web app bundles this file (heading advice), and the
+// umbrella would carry every turf module (and JSTS) into the first screen's JavaScript.
+import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
+import { lineString, point, polygon as turfPolygon } from '@turf/helpers';
+import { lineIntersect } from '@turf/line-intersect';
 import type { Polygon } from 'geojson';
 import { check } from './errors';
 

@@ -22,7 +22,6 @@ export function DemoAccounts({ onPick }: { onPick: (email: string) => void }) {
         <Pressable
           key={account.role}
           role="button"
-          aria-label={`Fill in the demo ${roleLabels[account.role]} account`}
           testID={`demo-${account.role}`}
           onPress={() => onPick(account.email)}
           style={styles.row}

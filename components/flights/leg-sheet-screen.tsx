@@ -27,6 +27,7 @@ export function LegSheetScreen() {
   return (
     <Screen
       title="Leg sheet"
+      documentTitle={sheet ? `Leg sheet — ${sheet.version.planName} v${sheet.version.number}` : 'Leg sheet'}
       subtitle={sheet ? `${sheet.version.planName} · version ${sheet.version.number} · ${sheet.version.projectName}` : undefined}
       testID="leg-sheet-screen"
     >

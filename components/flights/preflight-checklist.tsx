@@ -5,6 +5,7 @@ import type { ChecklistItem } from '../../contracts/flights';
 import { colors, layout, radii, space } from '../theme';
 import { showFocusRing } from '../ui/focus-modality';
 import { Badge, Button, Card, Heading, List, Text, type WebPressState } from '../ui';
+import { spaceActivates, webKeyProps } from '../ui/keys';
 
 /** Ticks live only while the page is open: a list ticked on another day should not look done today. */
 export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] }) {
@@ -34,6 +35,7 @@ export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] 
               aria-label={item.text}
               testID={`checklist-${item.id}`}
               onPress={() => toggle(item.id)}
+              {...webKeyProps({ onKeyDown: spaceActivates(() => toggle(item.id)) })}
               style={(s: WebPressState) => [styles.item, checked && styles.itemDone, (s.hovered || s.pressed) && styles.hover, showFocusRing(s.focused) && styles.focused]}
             >
               <View style={[styles.box, checked && styles.boxChecked]}>

@@ -5,6 +5,7 @@ import { Pressable, StyleSheet, View, type PressableStateCallbackType } from 're
 import { CAMERA_PRESETS, type Camera } from '../../terrain/camera';
 import { colors, layout, radii, space } from '../theme';
 import { ChoiceGroup, Text } from '../ui';
+import { spaceActivates, webKeyProps } from '../ui/keys';
 import { FieldCell, FormSection } from './form-section';
 import { NumberField } from './number-field';
 import { fieldMessage, type PlanFormIn } from './plan-form-schema';
@@ -45,6 +46,7 @@ export function CameraFields({ control, setValue, readOnly }: { control: Control
               aria-checked={selected}
               disabled={readOnly}
               onPress={() => choose(o.id)}
+              {...webKeyProps({ onKeyDown: spaceActivates(() => !readOnly && choose(o.id)) })}
               testID={`camera-preset-${o.id}`}
               style={(s: WebPressState) => [styles.option, selected && styles.selected, (s.hovered || s.pressed) && !selected && styles.hovered, s.focused && styles.focused]}
             >

@@ -25,6 +25,7 @@ export function ReportScreen() {
   return (
     <Screen
       title="Compliance report"
+      documentTitle={r ? `Compliance report — ${r.plan.name} v${r.version.number}` : 'Compliance report'}
       subtitle={r ? `${r.plan.name} · version ${r.version.number} · ${r.project.name} for ${r.project.client}` : undefined}
       testID="report-screen"
     >

@@ -45,6 +45,7 @@ export function VersionScreen() {
     <Screen
       title={plan.data ? `${plan.data.name}, version ${st?.number ?? '…'}` : 'Analysis'}
       subtitle={project.data?.name}
+      documentTitle={plan.data ? `Results — ${plan.data.name} v${st?.number ?? '…'}` : 'Results'}
       width="full"
       testID="version-screen"
       actions={st ? <Badge label={analysisLabels[st.analysisState].label} tone={analysisLabels[st.analysisState].tone} testID="version-state" /> : null}

@@ -76,6 +76,8 @@ export function ReviewPanel({ projectId, planId, versionId, analysisDone = true,
                 error={p.commentError ?? undefined}
                 multiline
                 numberOfLines={4}
+                // The button that opened the form is gone; the note is where the user goes next.
+                autoFocus
                 testID="review-comment"
               />
               <View style={styles.buttons}>

@@ -39,9 +39,12 @@ function useFocusOnArrival(ready: boolean) {
     if (Platform.OS !== 'web' || !ready || done.current) return;
     done.current = true;
     const el = heading.current as unknown as HTMLElement | null;
-    // Leave focus alone when the user already put it somewhere inside the page (e.g. a field that auto-focuses).
+    // Leave focus alone when it is already inside the new screen (a field that focuses itself); a link in the
+    // navigation that stays on screen, the body, or a removed element of the old screen all hand over.
     const active = document.activeElement;
-    if (el && (!active || active === document.body || !document.body.contains(active))) el.focus({ preventScroll: true });
+    const main = el?.closest('[role="main"]');
+    const insideNewScreen = active && active !== document.body && document.body.contains(active) && main?.contains(active);
+    if (el && !insideNewScreen) el.focus({ preventScroll: true });
   }, [ready]);
   return heading;
 }
