@@ -8,6 +8,7 @@ import { authClient, authFailureFrom } from '../auth/auth-client';
 import { homeFor } from '../navigation/nav-items';
 import { rememberTeam } from '../team/team-storage';
 import { useAcceptInvitation, useInvitationPreview } from './invitations.queries';
+import { forgetDeviceQueries } from '../api/device-queries';
 
 export type InviteStage = 'checking' | 'signed-out' | 'session-failed' | 'signed-in';
 
@@ -53,6 +54,7 @@ export function useInviteAccept() {
       return;
     }
     rememberTeam(null);
+    forgetDeviceQueries(); // the next person on this device must not open as this user offline
     await queryClient.resetQueries();
   };
 

@@ -10,6 +10,7 @@ import { rememberTeam } from '../team/team-storage';
 import { useCurrentTeam } from '../team/current-team-context';
 import { colors, layout, space } from '../theme';
 import { Badge, Banner, Button, Card, Heading, Screen, Text, TextLink } from '../ui';
+import { forgetDeviceQueries } from '../api/device-queries';
 
 /** Sign-out also forgets the remembered team and every cached answer, so the next user on this device starts clean. */
 export function ProfileScreen() {
@@ -30,6 +31,7 @@ export function ProfileScreen() {
       return;
     }
     rememberTeam(null);
+    forgetDeviceQueries(); // the next person on this device must not open as this user offline
     queryClient.clear();
     router.replace('/sign-in');
   };

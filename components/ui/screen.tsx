@@ -99,6 +99,6 @@ const styles = StyleSheet.create({
   headerStacked: { flexDirection: 'column', alignItems: 'stretch' },
   titles: { flexShrink: 1, gap: space.xs },
   // Focus lands on the heading by script only (never by Tab), so it draws no ring.
-  heading: { outlineWidth: 0 },
+  heading: { outlineWidth: 0, outlineColor: 'transparent' },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
 });

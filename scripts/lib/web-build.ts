@@ -4,9 +4,10 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { distDir, projectRoot } from './paths';
+import { writeServiceWorker } from './service-worker';
 import { injectFontTags, writeWebFonts } from './web-fonts';
 
-const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'package-lock.json', 'tsconfig.json', 'scripts/lib/web-fonts.ts'];
+const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'package-lock.json', 'tsconfig.json', 'scripts/lib/web-fonts.ts', 'scripts/lib/service-worker.ts'];
 
 function hashInputs(): string {
   const h = crypto.createHash('sha256');
@@ -50,6 +51,8 @@ export async function ensureWebBuild(opts: { force?: boolean } = {}): Promise<st
   // Fonts as WOFF2 subsets declared with font-display: swap (scripts/lib/web-fonts.ts); the page never waits for them.
   const indexFile = path.join(staging, 'index.html');
   fs.writeFileSync(indexFile, injectFontTags(fs.readFileSync(indexFile, 'utf8'), await writeWebFonts(staging)));
+  const sw = await writeServiceWorker(staging);
+  console.log(`loftline: service worker keeps ${sw.count} files (${(sw.sizeBytes / 1024).toFixed(0)} KiB) for offline starts`);
   fs.writeFileSync(path.join(staging, '.source-hash'), hash);
   const old = `${distDir}.old-${process.pid}`;
   if (fs.existsSync(distDir)) fs.renameSync(distDir, old);
