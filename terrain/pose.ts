@@ -43,13 +43,13 @@ export function imageModel(camera: Camera): ImageModel {
  * the point is behind the camera (u, v are then NaN). Allocates nothing: it runs once per cell and photo.
  */
 export function projectPoint(
-  m: ImageModel, rot: Float64Array, ox: number, oy: number, oz: number, x: number, y: number, z: number, out: Float64Array,
+  m: ImageModel, rot: Float64Array, ox: number, oy: number, oz: number, x: number, y: number, z: number, out: Float64Array, at = 0,
 ): boolean {
   const dx = x - ox, dy = y - oy, dz = z - oz;
-  // camera coordinates = rotᵀ · d
-  const qx = rot[0] * dx + rot[3] * dy + rot[6] * dz;
-  const qy = rot[1] * dx + rot[4] * dy + rot[7] * dz;
-  const qz = rot[2] * dx + rot[5] * dy + rot[8] * dz;
+  // camera coordinates = rotᵀ · d (rot read from index `at`, so many rotations can share one array)
+  const qx = rot[at] * dx + rot[at + 3] * dy + rot[at + 6] * dz;
+  const qy = rot[at + 1] * dx + rot[at + 4] * dy + rot[at + 7] * dz;
+  const qz = rot[at + 2] * dx + rot[at + 5] * dy + rot[at + 8] * dz;
   if (!(qz > 0)) { out[0] = NaN; out[1] = NaN; return false; }
   let xn = qx / qz, yn = qy / qz;
   if (m.distorted) {

@@ -1,0 +1,245 @@
+/** The coverage raster: for every ground cell of the survey area, the photos that see it and what they give (views, finest GSD, ray angles, advisory precision). */
+import type { Camera } from './camera';
+import { checkCamera, pixelRay } from './camera';
+import type { Grid } from './grid';
+import type { AreaPolygon } from './mission';
+import type { LocalFrame } from './local-frame';
+import { localHeights } from './local-frame';
+import type { CameraPose } from './footprint';
+import { cameraToLocal } from './footprint';
+import { imageModel, insideImage, projectPoint } from './pose';
+import { viewGsdCm } from './view-gsd';
+import { addView, sigmaFromNormal } from './ray-intersection';
+import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
+import { heightLattice, latticeHeight, occluded, type HeightLattice } from './occlusion';
+import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
+import { check } from './errors';
+
+/** One photo: its planned pose in the local frame, and the crab angle the attitude envelope allows on its line. */
+export interface CoveragePhoto extends CameraPose {
+  /** Crab angle of the photo's line in the envelope's wind (degrees; 0 without wind or for aircraft that do not crab). */
+  crabDeg?: number;
+}
+
+/** Settings of one coverage computation. */
+export interface CoverageOptions {
+  /** Cell side, metres. */
+  cellM: number;
+  maxCells?: number;
+  /** GSD the spec asks for at most (cm): views at or below it are counted. */
+  specGsdCm: number;
+  /** Image measurement error for the predicted precision, pixels (default 0.5). */
+  imageErrorPx?: number;
+  /** When given, a view counts only if the point stays in the image at every attitude of the envelope. */
+  envelope?: AttitudeEnvelope | null;
+  /** Test terrain occlusion along every viewing ray (default true). */
+  occlusion?: boolean;
+  /** Terrain must rise this far above a ray to hide the point (default 0.2 m: the height lattice differs from the grid's own interpolation by centimetres to decimetres on rough ground). */
+  occlusionToleranceM?: number;
+  /** Spacing of the height lattice the occlusion march runs on (default: the finer of the cell and the grid's pixel, at most 16 million nodes). */
+  latticeStepM?: number;
+}
+
+/** The coverage raster: the cell lattice and one Float32 value per cell and measure (NaN outside the area or where there is no value). */
+export interface CoverageRaster {
+  cells: CoverageCells;
+  /** Views that count (guaranteed ones when an envelope is given). */
+  views: Float32Array;
+  /** Views as planned (inside the image at the planned attitude and not hidden). */
+  viewsPlanned: Float32Array;
+  finestGsdCm: Float32Array;
+  viewsAtSpecGsd: Float32Array;
+  maxRayAngleDeg: Float32Array;
+  sigmaVerticalM: Float32Array;
+  sigmaHorizontalM: Float32Array;
+  /** Whether `views` and the figures from them are the guaranteed ones. */
+  guaranteed: boolean;
+  /** Safety margin the envelope test keeps from the image edges, pixels (0 without an envelope). */
+  envelopeMarginPx: number;
+  imageErrorPx: number;
+}
+
+const TILE = 32;
+/** A surface seen at less than about 1.1° (cos of the incidence below 0.02) is treated as unseen: back-facing or grazing. */
+const MIN_COS_INCIDENCE = 0.02;
+
+/** Horizontal bounding box of everything a photo can see between the lowest and highest ground (border rays through distortion). */
+function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: number, zHigh: number): [number, number, number, number] {
+  let x0 = pose.xM, x1 = pose.xM, y0 = pose.yM, y1 = pose.yM;
+  const W = camera.imageWidthPx, H = camera.imageHeightPx;
+  const N = 16;
+  for (let k = 0; k <= N; k++) {
+    for (const [u, v] of [[(W * k) / N, 0], [(W * k) / N, H], [0, (H * k) / N], [W, (H * k) / N]]) {
+      const [xn, yn] = pixelRay(camera, u, v);
+      const dx = rot[0] * xn + rot[1] * yn + rot[2], dy = rot[3] * xn + rot[4] * yn + rot[5], dz = rot[6] * xn + rot[7] * yn + rot[8];
+      if (!(dz < -1e-9)) return [-Infinity, -Infinity, Infinity, Infinity];
+      for (const z of [zLow, Math.min(zHigh, pose.altitudeM)]) {
+        const t = (z - pose.altitudeM) / dz;
+        const x = pose.xM + t * dx, y = pose.yM + t * dy;
+        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+      }
+    }
+  }
+  return [x0, y0, x1, y1];
+}
+
+/** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
+function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  const n = cells.x.length;
+  for (let i = 0; i < n; i++) {
+    if (!cells.inside[i]) continue;
+    const x = cells.x[i], y = cells.y[i];
+    if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+  }
+  for (const p of photos) { x0 = Math.min(x0, p.xM); x1 = Math.max(x1, p.xM); y0 = Math.min(y0, p.yM); y1 = Math.max(y1, p.yM); }
+  let step = stepM;
+  const span = (x1 - x0 + 4 * step) * (y1 - y0 + 4 * step);
+  if (span / (step * step) > 16_000_000) step = Math.sqrt(span / 16_000_000);
+  x0 -= 2 * step; y0 -= 2 * step;
+  const nx = Math.ceil((x1 + 2 * step - x0) / step) + 1, ny = Math.ceil((y1 + 2 * step - y0) / step) + 1;
+  const xs = new Float64Array(nx * ny), ys = new Float64Array(nx * ny), hs = new Float64Array(nx * ny);
+  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) { xs[j * nx + i] = x0 + i * step; ys[j * nx + i] = y0 + j * step; }
+  localHeights(grid, frame).sampleMany(xs, ys, hs);
+  return heightLattice(x0, y0, step, nx, ny, Float32Array.from(hs));
+}
+
+/**
+ * The coverage raster of `photos` over `area`: for each cell's ground point, the photos whose image holds it
+ * (after distortion) and whose ray to it no terrain hides; from those the view count, the finest GSD and the
+ * number of views at or below the spec's GSD (`view-gsd.ts`), the largest angle between two viewing rays and the
+ * advisory precision of a least-squares intersection of the rays (`ray-intersection.ts`). With an envelope only
+ * the views that hold at every attitude in it count (`attitude-envelope.ts`). Work is bounded by each photo's
+ * ground box: cells are visited tile by tile against the photos whose box meets the tile.
+ */
+export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon, camera: Camera, photos: readonly CoveragePhoto[], opts: CoverageOptions): CoverageRaster {
+  checkCamera(camera);
+  const sigmaPx = opts.imageErrorPx ?? 0.5;
+  check(Number.isFinite(sigmaPx) && sigmaPx > 0 && sigmaPx <= 100, `the image measurement error must be a number of pixels in (0, 100], got ${opts.imageErrorPx}.`);
+  check(Number.isFinite(opts.specGsdCm) && opts.specGsdCm > 0, `the spec's GSD must be a positive number of centimetres, got ${opts.specGsdCm}.`);
+  const cells = coverageCells(grid, frame, area, opts.cellM, opts.maxCells);
+  const { width, height, inside } = cells;
+  const n = width * height;
+  const tol = opts.occlusionToleranceM ?? 0.2;
+  const useOcclusion = opts.occlusion ?? true;
+  const lat = area.coordinates[0][0][1];
+  const lattice = buildLattice(grid, frame, cells, photos, opts.latticeStepM ?? Math.min(opts.cellM, gridCellM(grid, lat)));
+  const model = imageModel(camera);
+  const env = opts.envelope ?? null;
+  // per photo: rotation, position, ground box, envelope rotations
+  const P = photos.length;
+  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), envRots: Float64Array[] = [], envCount = new Int32Array(P);
+  let marginPx = 0;
+  for (let j = 0; j < P; j++) {
+    const p = photos[j];
+    check(Number.isFinite(p.xM) && Number.isFinite(p.yM) && Number.isFinite(p.altitudeM) && Number.isFinite(p.yawDeg), `photo ${j + 1} needs a finite position, altitude and yaw, got ${JSON.stringify(p)}.`);
+    const rot = cameraToLocal(camera, p);
+    rots.push(rot);
+    const b = photoBox(camera, p, rot, lattice.minM, lattice.maxM);
+    const pad = 2 * opts.cellM;
+    boxes[j * 4] = b[0] - pad; boxes[j * 4 + 1] = b[1] - pad; boxes[j * 4 + 2] = b[2] + pad; boxes[j * 4 + 3] = b[3] + pad;
+    if (env) {
+      const s = envelopeSamples(camera, p, env, p.crabDeg ?? 0);
+      envRots.push(s.rotations); envCount[j] = s.count; marginPx = Math.max(marginPx, s.marginPx);
+    }
+  }
+  // tiles of cells and the photos whose box meets each tile
+  const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
+  const tileLists: Int32Array[] = [];
+  let longest = 0;
+  for (let ty = 0; ty < th; ty++) {
+    for (let tx = 0; tx < tw; tx++) {
+      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+      for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
+        for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
+          const i = r * width + c;
+          if (!inside[i]) continue;
+          const x = cells.x[i], y = cells.y[i];
+          if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+        }
+      }
+      const list: number[] = [];
+      if (x0 <= x1) for (let j = 0; j < P; j++) if (boxes[j * 4] <= x1 && boxes[j * 4 + 2] >= x0 && boxes[j * 4 + 1] <= y1 && boxes[j * 4 + 3] >= y0) list.push(j);
+      tileLists.push(Int32Array.from(list));
+      if (list.length > longest) longest = list.length;
+    }
+  }
+  const nan = () => new Float32Array(n).fill(NaN);
+  const views = nan(), viewsPlanned = nan(), finestGsdCm = nan(), viewsAtSpecGsd = nan(), maxRayAngleDeg = nan(), sigmaVerticalM = nan(), sigmaHorizontalM = nan();
+  // scratch, allocated once: unit rays from the point to each camera that counts, normal matrix, outputs
+  const rays = new Float64Array(3 * Math.max(1, longest));
+  const N = new Float64Array(6);
+  const uv = new Float64Array(2);
+  const sig = new Float64Array(2);
+  const spec = opts.specGsdCm * (1 + 1e-9);
+  const hStep = lattice.stepM;
+  for (let ty = 0; ty < th; ty++) {
+    for (let tx = 0; tx < tw; tx++) {
+      const list = tileLists[ty * tw + tx];
+      for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
+        for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
+          const i = r * width + c;
+          if (!inside[i]) continue;
+          const px = cells.x[i], py = cells.y[i], pz = cells.z[i];
+          if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; continue; }
+          // ground normal from the lattice (central differences); level where unknown
+          let gx = (latticeHeight(lattice, px + hStep, py) - latticeHeight(lattice, px - hStep, py)) / (2 * hStep);
+          let gy = (latticeHeight(lattice, px, py + hStep) - latticeHeight(lattice, px, py - hStep)) / (2 * hStep);
+          if (!(gx === gx)) gx = 0;
+          if (!(gy === gy)) gy = 0;
+          const nl = Math.sqrt(gx * gx + gy * gy + 1);
+          const nx = -gx / nl, ny = -gy / nl, nz = 1 / nl;
+          let planned = 0, k = 0, atSpec = 0, finest = Infinity;
+          N.fill(0);
+          for (let li = 0; li < list.length; li++) {
+            const j = list[li];
+            const b = j * 4;
+            if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) continue;
+            const p = photos[j];
+            const rot = rots[j];
+            if (!projectPoint(model, rot, p.xM, p.yM, p.altitudeM, px, py, pz, uv) || !insideImage(model, uv[0], uv[1])) continue;
+            const dx = px - p.xM, dy = py - p.yM, dz = pz - p.altitudeM;
+            const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
+            const rx = dx / R, ry = dy / R, rz = dz / R;
+            if (-(nx * rx + ny * ry + nz * rz) < MIN_COS_INCIDENCE) continue;
+            if (useOcclusion && occluded(lattice, px, py, pz, p.xM, p.yM, p.altitudeM, tol)) continue;
+            planned++;
+            if (env) {
+              const er = envRots[j];
+              let ok = true;
+              for (let s = 0; s < envCount[j] && ok; s++) {
+                ok = projectPoint(model, er, p.xM, p.yM, p.altitudeM, px, py, pz, uv, s * 9) && insideImage(model, uv[0], uv[1], marginPx);
+              }
+              if (!ok) continue;
+            }
+            const g = viewGsdCm(rot, model.fxPx, model.fyPx, R, rx, ry, rz, nx, ny, nz);
+            if (g < finest) finest = g;
+            if (g <= spec) atSpec++;
+            rays[k * 3] = -rx; rays[k * 3 + 1] = -ry; rays[k * 3 + 2] = -rz;
+            addView(N, 0, rot, model.fxPx, model.fyPx, dx, dy, dz, sigmaPx);
+            k++;
+          }
+          views[i] = k;
+          viewsPlanned[i] = planned;
+          viewsAtSpecGsd[i] = atSpec;
+          if (k > 0) finestGsdCm[i] = finest;
+          if (k > 1) {
+            let minDot = 1;
+            for (let a = 0; a < k; a++) {
+              const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
+              for (let bI = a + 1; bI < k; bI++) {
+                const d = ax * rays[bI * 3] + ay * rays[bI * 3 + 1] + az * rays[bI * 3 + 2];
+                if (d < minDot) minDot = d;
+              }
+            }
+            maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
+            sigmaFromNormal(N, 0, sig);
+            sigmaHorizontalM[i] = sig[0];
+            sigmaVerticalM[i] = sig[1];
+          }
+        }
+      }
+    }
+  }
+  return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+}
