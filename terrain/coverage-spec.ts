@@ -3,6 +3,7 @@ import type { Mission } from './mission';
 import { ENVELOPE_PRESETS, type AttitudeEnvelope, type EnvelopePresetId } from './attitude-envelope';
 import type { CoverageRaster } from './coverage';
 import { check } from './errors';
+import { DEFAULT_MAX_COVERAGE_CELLS } from './coverage-grid';
 
 /** What the client asks of every ground cell; each item one-sided. */
 export interface CoverageSpec {
@@ -94,7 +95,7 @@ export function resolveCoverageInput(input: unknown, mission: Mission): { spec: 
   }
   const c = objectOf(m, 'coverage');
   check(c.occlusion === undefined || typeof c.occlusion === 'boolean', `coverage.occlusion must be true or false, got ${JSON.stringify(c.occlusion)}.`);
-  const maxCells = num(c, 'coverage', 'maxCells', 'maxCells', 4_000_000);
+  const maxCells = num(c, 'coverage', 'maxCells', 'maxCells', DEFAULT_MAX_COVERAGE_CELLS);
   const settings: CoverageSettings = {
     cellM: num(c, 'coverage', 'cellM', 'cellM', null),
     maxCells: Math.floor(maxCells),

@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runTerrainCli } from './run-cli';
 import { generalCautions } from '../../contracts/cautions';
+import { coverageComplianceSchema, missionCoverageFieldsSchema } from '../../contracts/coverage';
 
 const DEM = 'datasets/harrow-fell-dem.tif';
 const tmp = mkdtempSync(join(tmpdir(), 'loftline-coverage-'));
@@ -31,6 +32,8 @@ describe('terrain coverage', () => {
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const doc = JSON.parse(r.stdout);
+    coverageComplianceSchema.parse(doc);
+    expect(missionCoverageFieldsSchema.safeParse(JSON.parse(readFileSync(mission, 'utf8'))).success).toBe(true);
     expect(doc.cautions).toEqual([...generalCautions]);
     expect(doc.spec.basis).toMatch(/^guaranteed/);
     expect(doc.envelope.rollDeg).toBe(5);
