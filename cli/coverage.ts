@@ -4,10 +4,9 @@ import { openDem } from '../terrain/dem';
 import { WGS84, createTransform } from '../terrain/crs';
 import { analysePlan, missionBboxWgs84 } from '../terrain/plan';
 import { resolveMission } from '../terrain/mission';
-import { localFrameFor } from '../terrain/local-frame';
-import { crabAngleDeg } from '../terrain/attitude-envelope';
-import { computeCoverage, type CoveragePhoto } from '../terrain/coverage';
-import { gridCellM } from '../terrain/coverage-grid';
+import { coverageFrame, planPhotos } from '../terrain/coverage-photos';
+import { computeCoverage } from '../terrain/coverage';
+import { coverageLayout, gridCellM } from '../terrain/coverage-grid';
 import { coverageCompliance, resolveCoverageInput } from '../terrain/coverage-spec';
 import { coverageBandNames, coverageGeoTiff, COVERAGE_NODATA } from '../terrain/coverage-raster-file';
 import { generalCautions } from '../contracts/cautions';
@@ -20,10 +19,13 @@ const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v
 
 /** Cells meeting a figure, for the summary: min/median/max of a band over the area's cells with a value. */
 function spread(band: Float32Array, inside: Uint8Array, digits: number): { min: number | null; median: number | null; max: number | null } {
-  const vals: number[] = [];
-  for (let i = 0; i < band.length; i++) if (inside[i] && band[i] === band[i]) vals.push(band[i]);
-  if (vals.length === 0) return { min: null, median: null, max: null };
-  const s = Float64Array.from(vals).sort();
+  let n = 0;
+  for (let i = 0; i < band.length; i++) if (inside[i] && band[i] === band[i]) n++;
+  if (n === 0) return { min: null, median: null, max: null };
+  const s = new Float32Array(n);
+  n = 0;
+  for (let i = 0; i < band.length; i++) if (inside[i] && band[i] === band[i]) s[n++] = band[i];
+  s.sort();
   return { min: round(s[0], digits), median: round(s[s.length >> 1], digits), max: round(s[s.length - 1], digits) };
 }
 
@@ -45,25 +47,16 @@ export async function run(args: string[]): Promise<unknown> {
   const dem = await openDem(await readFileBytes(positionals[0]), { inflate: nodeInflate });
   const grid = await dem.read({ window: { bbox, crs: WGS84, marginPx: 2 } });
   if (grid.crs.epsg === null) throw new CliError(`The grid's CRS (${grid.crs.name}) has no EPSG code, so the coverage raster cannot name it; reproject the grid to an EPSG CRS (gdalwarp -t_srs EPSG:…).`, 1);
+  const ring = mission.area.coordinates[0];
+  const meanLat = ring.slice(0, -1).reduce((t, p) => t + p[1], 0) / (ring.length - 1);
+  const cellM = cellArg ?? settings.cellM ?? gridCellM(grid, meanLat);
+  coverageLayout(grid, mission.area, cellM, settings.maxCells); // refuses an oversized raster before the plan is analysed
   const t0 = performance.now();
   const plan = analysePlan(grid, input, { verticalDatum: dem.header.verticalDatum });
   const t1 = performance.now();
-  // photos as planned: each station's position and altitude, yaw along its line, no roll or pitch
-  const ring = mission.area.coordinates[0];
-  let cx = 0, cy = 0;
-  for (let i = 0; i < ring.length - 1; i++) { cx += ring[i][0]; cy += ring[i][1]; }
-  const frame = localFrameFor(cx / (ring.length - 1), cy / (ring.length - 1));
-  const photos: CoveragePhoto[] = [];
-  const crabs: Array<{ line: number; headingDeg: number; crabDeg: number }> = [];
-  for (const line of plan.lines) {
-    const crabDeg = envelope && envelope.crabs ? crabAngleDeg(line.headingDeg, envelope.windMps, envelope.windFromDeg, envelope.airspeedMps) : 0;
-    crabs.push({ line: line.index + 1, headingDeg: line.headingDeg, crabDeg: round(crabDeg, 3) });
-    for (const s of line.stations) {
-      const [x, y] = frame.toLocal(s.lon, s.lat);
-      photos.push({ xM: x, yM: y, altitudeM: s.altitudeM, yawDeg: line.headingDeg, crabDeg });
-    }
-  }
-  const cellM = cellArg ?? settings.cellM ?? gridCellM(grid, cy / (ring.length - 1));
+  const frame = coverageFrame(mission.area);
+  const { photos, lines: crabLines } = planPhotos(plan, frame, envelope);
+  const crabs = crabLines.map((l) => ({ ...l, crabDeg: round(l.crabDeg, 3) }));
   const raster = computeCoverage(grid, frame, mission.area, mission.camera, photos, {
     cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
   });

@@ -49,7 +49,7 @@ export function gridCellM(grid: Grid, latDeg: number): number {
  * at most `maxCells` cells over the area's bounding box; beyond that a `too-large` error names the limit and
  * the smallest cell size that fits.
  */
-export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells = DEFAULT_MAX_COVERAGE_CELLS): CoverageCells {
+export function coverageLayout(grid: Grid, area: AreaPolygon, cellM: number, maxCells = DEFAULT_MAX_COVERAGE_CELLS): { width: number; height: number; transform: GeoTransform; rings: Array<Array<[number, number]>> } {
   const t = grid.transform;
   check(t[2] === 0 && t[4] === 0, 'The elevation grid is rotated (its geotransform has rotation terms); coverage rasters need a north-up grid. Warp it north up (gdalwarp) and upload it again.');
   check(Number.isFinite(cellM) && cellM > 0, `the coverage cell size must be a positive number of metres, got ${cellM}.`);
@@ -73,7 +73,15 @@ export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, 
     const fit = Math.ceil(cellM * Math.sqrt(n / maxCells) * 100) / 100;
     throw new TerrainError('too-large', `The coverage raster would have ${thousands(n)} cells (${width} x ${height} at ${cellM} m), more than the limit of ${thousands(maxCells)}; use a cell size of at least ${fit} m or a smaller area.`);
   }
-  const transform: GeoTransform = [x0, sx, 0, yTop, 0, -sy];
+  return { width, height, transform: [x0, sx, 0, yTop, 0, -sy], rings };
+}
+
+/** The cells of `coverageLayout` with the area mask and each cell's ground point in the local frame. */
+export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells = DEFAULT_MAX_COVERAGE_CELLS): CoverageCells {
+  const { width, height, transform, rings } = coverageLayout(grid, area, cellM, maxCells);
+  const n = width * height;
+  const [x0, sx, , yTop, , negSy] = transform;
+  const sy = -negSy;
   // area mask by scanlines at the cell centres (even-odd rule over every ring, so holes stay out)
   const inside = new Uint8Array(n);
   const xs: number[] = [];

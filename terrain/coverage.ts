@@ -36,7 +36,12 @@ export interface CoverageOptions {
   occlusion?: boolean;
   /** Terrain must rise this far above a ray to hide the point (default 0.2 m: the height lattice differs from the grid's own interpolation by centimetres to decimetres on rough ground). */
   occlusionToleranceM?: number;
-  /** Spacing of the height lattice the occlusion march runs on (default: the finer of the cell and the grid's pixel, at most 16 million nodes). */
+  /**
+   * Count views only (inside the image, at the planned attitude and under the envelope): no occlusion, slope,
+   * GSD, angle or σ; what a rasterisation of the footprints gives, for comparing with one.
+   */
+  viewsOnly?: boolean;
+  /** Spacing of the height lattice the occlusion march runs on (default: the grid's pixel, at most 16 million nodes). */
   latticeStepM?: number;
 }
 
@@ -83,6 +88,21 @@ function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: num
   return [x0, y0, x1, y1];
 }
 
+/** Lowest and highest known lattice height inside a local box (block maxima for the high end; nodes for the low end). */
+function latticeRange(L: HeightLattice, box: [number, number, number, number]): [number, number] {
+  const i0 = Math.max(0, Math.floor((box[0] - L.x0) / L.stepM)), i1 = Math.min(L.nx - 1, Math.ceil((box[2] - L.x0) / L.stepM));
+  const j0 = Math.max(0, Math.floor((box[1] - L.y0) / L.stepM)), j1 = Math.min(L.ny - 1, Math.ceil((box[3] - L.y0) / L.stepM));
+  let lo = Infinity, hi = -Infinity;
+  for (let j = j0; j <= j1; j++) {
+    for (let i = i0; i <= i1; i++) {
+      const h = L.heights[j * L.nx + i];
+      if (h < lo) lo = h;
+      if (h > hi) hi = h;
+    }
+  }
+  return [lo, hi];
+}
+
 /** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
 function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
@@ -121,9 +141,10 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const { width, height, inside } = cells;
   const n = width * height;
   const tol = opts.occlusionToleranceM ?? 0.2;
-  const useOcclusion = opts.occlusion ?? true;
+  const viewsOnly = opts.viewsOnly ?? false;
+  const useOcclusion = !viewsOnly && (opts.occlusion ?? true);
   const lat = area.coordinates[0][0][1];
-  const lattice = buildLattice(grid, frame, cells, photos, opts.latticeStepM ?? Math.min(opts.cellM, gridCellM(grid, lat)));
+  const lattice = buildLattice(grid, frame, cells, photos, opts.latticeStepM ?? gridCellM(grid, lat));
   const model = imageModel(camera);
   const env = opts.envelope ?? null;
   // per photo: rotation, position, ground box, envelope rotations
@@ -135,7 +156,14 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     check(Number.isFinite(p.xM) && Number.isFinite(p.yM) && Number.isFinite(p.altitudeM) && Number.isFinite(p.yawDeg), `photo ${j + 1} needs a finite position, altitude and yaw, got ${JSON.stringify(p)}.`);
     const rot = cameraToLocal(camera, p);
     rots.push(rot);
-    const b = photoBox(camera, p, rot, lattice.minM, lattice.maxM);
+    // the box between the lowest and highest ground of the whole lattice, then again between the lowest and
+    // highest ground inside that box (tighter where the relief is in another part of the area)
+    let b = photoBox(camera, p, rot, lattice.minM, lattice.maxM);
+    for (let pass = 0; pass < 2 && Number.isFinite(b[0]); pass++) {
+      const [lo, hi] = latticeRange(lattice, b);
+      if (!(lo <= hi)) break;
+      b = photoBox(camera, p, rot, lo, hi);
+    }
     const pad = 2 * opts.cellM;
     boxes[j * 4] = b[0] - pad; boxes[j * 4 + 1] = b[1] - pad; boxes[j * 4 + 2] = b[2] + pad; boxes[j * 4 + 3] = b[3] + pad;
     if (env) {
@@ -182,6 +210,24 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
           if (!inside[i]) continue;
           const px = cells.x[i], py = cells.y[i], pz = cells.z[i];
           if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; continue; }
+          if (viewsOnly) {
+            let count = 0;
+            for (let li = 0; li < list.length; li++) {
+              const j = list[li];
+              const b = j * 4;
+              if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) continue;
+              const p = photos[j];
+              if (!projectPoint(model, rots[j], p.xM, p.yM, p.altitudeM, px, py, pz, uv) || !insideImage(model, uv[0], uv[1])) continue;
+              if (env) {
+                let ok = true;
+                for (let s = 0; s < envCount[j] && ok; s++) ok = projectPoint(model, envRots[j], p.xM, p.yM, p.altitudeM, px, py, pz, uv, s * 9) && insideImage(model, uv[0], uv[1], marginPx);
+                if (!ok) continue;
+              }
+              count++;
+            }
+            views[i] = count;
+            continue;
+          }
           // ground normal from the lattice (central differences); level where unknown
           let gx = (latticeHeight(lattice, px + hStep, py) - latticeHeight(lattice, px - hStep, py)) / (2 * hStep);
           let gy = (latticeHeight(lattice, px, py + hStep) - latticeHeight(lattice, px, py - hStep)) / (2 * hStep);

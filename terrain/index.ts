@@ -43,9 +43,10 @@ export { ENVELOPE_PRESETS, crabAngleDeg, envelopeSamples } from './attitude-enve
 export type { AttitudeEnvelope, EnvelopePresetId, EnvelopeSamples } from './attitude-envelope';
 export { heightLattice, latticeHeight, occluded } from './occlusion';
 export type { HeightLattice } from './occlusion';
-export { coverageCells, gridCellM, DEFAULT_MAX_COVERAGE_CELLS } from './coverage-grid';
+export { coverageCells, coverageLayout, gridCellM, DEFAULT_MAX_COVERAGE_CELLS } from './coverage-grid';
 export type { CoverageCells } from './coverage-grid';
 export { computeCoverage } from './coverage';
+export { coverageFrame, planPhotos } from './coverage-photos';
 export type { CoverageOptions, CoveragePhoto, CoverageRaster } from './coverage';
 export { resolveCoverageInput, coverageCompliance, COVERAGE_RANGES } from './coverage-spec';
 export type { CoverageSpec, CoverageSettings, Compliance, ComplianceItem, FailingPatch, CoverageFailure } from './coverage-spec';
