@@ -7,7 +7,7 @@ import type { LocalFrame } from './local-frame';
 import { localHeights } from './local-frame';
 import type { CameraPose } from './footprint';
 import { cameraToLocal } from './footprint';
-import { imageModel, insideImage, projectPoint } from './pose';
+import { imageModel, insideImage, projectPoint, type ImageModel } from './pose';
 import { viewGsdCm } from './view-gsd';
 import { addView, sigmaFromNormal } from './ray-intersection';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
@@ -64,28 +64,43 @@ export interface CoverageRaster {
   imageErrorPx: number;
 }
 
-const TILE = 32;
+const TILE = 16;
 /** A surface seen at less than about 1.1° (cos of the incidence below 0.02) is treated as unseen: back-facing or grazing. */
 const MIN_COS_INCIDENCE = 0.02;
 
 /** Horizontal bounding box of everything a photo can see between the lowest and highest ground (border rays through distortion). */
-function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: number, zHigh: number): [number, number, number, number] {
+function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: number, zHigh: number, oriented?: Float64Array, at = 0): [number, number, number, number] {
   let x0 = pose.xM, x1 = pose.xM, y0 = pose.yM, y1 = pose.yM;
+  // the same box in the photo's heading frame (along = sin ψ·dx + cos ψ·dy, across = cos ψ·dx − sin ψ·dy, from the camera)
+  const sp = Math.sin((pose.yawDeg * Math.PI) / 180), cp = Math.cos((pose.yawDeg * Math.PI) / 180);
+  let a0 = 0, a1 = 0, c0 = 0, c1 = 0;
   const W = camera.imageWidthPx, H = camera.imageHeightPx;
   const N = 16;
   for (let k = 0; k <= N; k++) {
     for (const [u, v] of [[(W * k) / N, 0], [(W * k) / N, H], [0, (H * k) / N], [W, (H * k) / N]]) {
       const [xn, yn] = pixelRay(camera, u, v);
       const dx = rot[0] * xn + rot[1] * yn + rot[2], dy = rot[3] * xn + rot[4] * yn + rot[5], dz = rot[6] * xn + rot[7] * yn + rot[8];
-      if (!(dz < -1e-9)) return [-Infinity, -Infinity, Infinity, Infinity];
+      if (!(dz < -1e-9)) {
+        if (oriented) oriented.set([0, 1, -Infinity, Infinity, -Infinity, Infinity], at);
+        return [-Infinity, -Infinity, Infinity, Infinity];
+      }
       for (const z of [zLow, Math.min(zHigh, pose.altitudeM)]) {
         const t = (z - pose.altitudeM) / dz;
         const x = pose.xM + t * dx, y = pose.yM + t * dy;
         if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+        const a = sp * t * dx + cp * t * dy, c = cp * t * dx - sp * t * dy;
+        if (a < a0) a0 = a; if (a > a1) a1 = a; if (c < c0) c0 = c; if (c > c1) c1 = c;
       }
     }
   }
+  if (oriented) oriented.set([sp, cp, a0, a1, c0, c1], at);
   return [x0, y0, x1, y1];
+}
+
+/** Whether the offset (dx, dy) from a camera lies in its box in the heading frame (6 numbers from `at`: sin ψ, cos ψ, along and across bounds). */
+function inOrientedBox(o: Float64Array, at: number, dx: number, dy: number): boolean {
+  const a = o[at] * dx + o[at + 1] * dy, c = o[at + 1] * dx - o[at] * dy;
+  return a >= o[at + 2] && a <= o[at + 3] && c >= o[at + 4] && c <= o[at + 5];
 }
 
 /** Lowest and highest known lattice height inside a local box (block maxima for the high end; nodes for the low end). */
@@ -149,7 +164,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const env = opts.envelope ?? null;
   // per photo: rotation, position, ground box, envelope rotations
   const P = photos.length;
-  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), envRots: Float64Array[] = [], envCount = new Int32Array(P);
+  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), envRots: Float64Array[] = [], envCount = new Int32Array(P);
   let marginPx = 0;
   for (let j = 0; j < P; j++) {
     const p = photos[j];
@@ -164,6 +179,11 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
       if (!(lo <= hi)) break;
       b = photoBox(camera, p, rot, lo, hi);
     }
+    const [oLo, oHi] = Number.isFinite(b[0]) ? latticeRange(lattice, b) : [lattice.minM, lattice.maxM];
+    photoBox(camera, p, rot, oLo, oHi, obox, j * 6);
+    const padO = 2 * opts.cellM;
+    obox[j * 6 + 2] -= padO; obox[j * 6 + 3] += padO; obox[j * 6 + 4] -= padO; obox[j * 6 + 5] += padO;
+    pos[j * 3] = p.xM; pos[j * 3 + 1] = p.yM; pos[j * 3 + 2] = p.altitudeM;
     const pad = 2 * opts.cellM;
     boxes[j * 4] = b[0] - pad; boxes[j * 4 + 1] = b[1] - pad; boxes[j * 4 + 2] = b[2] + pad; boxes[j * 4 + 3] = b[3] + pad;
     if (env) {
@@ -187,7 +207,20 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
         }
       }
       const list: number[] = [];
-      if (x0 <= x1) for (let j = 0; j < P; j++) if (boxes[j * 4] <= x1 && boxes[j * 4 + 2] >= x0 && boxes[j * 4 + 1] <= y1 && boxes[j * 4 + 3] >= y0) list.push(j);
+      if (x0 <= x1) {
+        for (let j = 0; j < P; j++) {
+          if (!(boxes[j * 4] <= x1 && boxes[j * 4 + 2] >= x0 && boxes[j * 4 + 1] <= y1 && boxes[j * 4 + 3] >= y0)) continue;
+          // and the tile's corners, turned into the photo's heading frame, against its oriented box
+          const o = j * 6, sp = obox[o], cp = obox[o + 1];
+          let a0 = Infinity, a1 = -Infinity, c0 = Infinity, c1 = -Infinity;
+          for (const [x, y] of [[x0, y0], [x1, y0], [x0, y1], [x1, y1]]) {
+            const dx = x - pos[j * 3], dy = y - pos[j * 3 + 1];
+            const a = sp * dx + cp * dy, c = cp * dx - sp * dy;
+            if (a < a0) a0 = a; if (a > a1) a1 = a; if (c < c0) c0 = c; if (c > c1) c1 = c;
+          }
+          if (a0 <= obox[o + 3] && a1 >= obox[o + 2] && c0 <= obox[o + 5] && c1 >= obox[o + 4]) list.push(j);
+        }
+      }
       tileLists.push(Int32Array.from(list));
       if (list.length > longest) longest = list.length;
     }
@@ -201,6 +234,23 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const sig = new Float64Array(2);
   const spec = opts.specGsdCm * (1 + 1e-9);
   const hStep = lattice.stepM;
+  fillCells({ th, tw, tileLists, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
+  return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+}
+
+/** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
+interface CellPass {
+  th: number; tw: number; tileLists: Int32Array[]; width: number; height: number; inside: Uint8Array; cells: CoverageCells;
+  views: Float32Array; viewsPlanned: Float32Array; viewsAtSpecGsd: Float32Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
+  sigmaHorizontalM: Float32Array; sigmaVerticalM: Float32Array; viewsOnly: boolean; boxes: Float64Array; obox: Float64Array; pos: Float64Array;
+  photos: readonly CoveragePhoto[]; model: ImageModel; rots: Float64Array[]; uv: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
+  envRots: Float64Array[]; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
+  rays: Float64Array; sigmaPx: number; sig: Float64Array;
+}
+
+/** The per-cell pass over the tiles: views and the figures from them. */
+function fillCells(c: CellPass): void {
+  const { th, tw, tileLists, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
       const list = tileLists[ty * tw + tx];
@@ -216,6 +266,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
               const j = list[li];
               const b = j * 4;
               if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) continue;
+              if (!inOrientedBox(obox, j * 6, px - pos[j * 3], py - pos[j * 3 + 1])) continue;
               const p = photos[j];
               if (!projectPoint(model, rots[j], p.xM, p.yM, p.altitudeM, px, py, pz, uv) || !insideImage(model, uv[0], uv[1])) continue;
               if (env) {
@@ -241,6 +292,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
             const j = list[li];
             const b = j * 4;
             if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) continue;
+            if (!inOrientedBox(obox, j * 6, px - pos[j * 3], py - pos[j * 3 + 1])) continue;
             const p = photos[j];
             const rot = rots[j];
             if (!projectPoint(model, rot, p.xM, p.yM, p.altitudeM, px, py, pz, uv) || !insideImage(model, uv[0], uv[1])) continue;
@@ -287,5 +339,4 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
       }
     }
   }
-  return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
 }
