@@ -74,7 +74,7 @@ export async function benchCoverage(rounds = 3): Promise<string[]> {
   }
   if (last) {
     const c = last;
-    // what the finished raster holds (cell positions, heights, mask and seven bands) against the five bands it writes
+    // what the finished raster holds (cell positions, heights, mask, counts and figures) against the five Float32 bands it writes
     held = c.cells.x.byteLength + c.cells.y.byteLength + c.cells.z.byteLength + c.cells.inside.byteLength
       + [c.views, c.viewsPlanned, c.finestGsdCm, c.viewsAtSpecGsd, c.maxRayAngleDeg, c.sigmaVerticalM, c.sigmaHorizontalM].reduce((s, b) => s + b.byteLength, 0);
     rasterBytes = 5 * 4 * c.cells.width * c.cells.height;
@@ -83,7 +83,7 @@ export async function benchCoverage(rounds = 3): Promise<string[]> {
   const f = (ms: number) => `${(ms / 1000).toFixed(2)} s`;
   console.log(`| coverage view counts, demo plan (${photos.length} photos) at 1 m (${cells}) | ${f(median(views))} | ${f(median(gdal))} (gdal_rasterize -add) | ${(median(views) / median(gdal)).toFixed(2)} |`);
   console.log(`| coverage with occlusion, GSD, ray angles and σ | ${f(median(full))} | ${f(median(gdal))} | ${(median(full) / median(gdal)).toFixed(2)} |`);
-  console.log(`| coverage memory held (positions, mask, seven bands) | ${(held / 2 ** 20).toFixed(0)} MiB | ${(rasterBytes / 2 ** 20).toFixed(0)} MiB (five Float32 bands) | ${(held / rasterBytes).toFixed(2)} |`);
+  console.log(`| coverage memory held (positions, mask, three count and four figure bands) | ${(held / 2 ** 20).toFixed(0)} MiB | ${(rasterBytes / 2 ** 20).toFixed(0)} MiB (five Float32 bands) | ${(held / rasterBytes).toFixed(2)} |`);
   return [
     `ratio coverage-views-vs-gdal-rasterize = ${(median(views) / median(gdal)).toFixed(2)} (target 1.0)`,
     `ratio coverage-full-vs-gdal-rasterize = ${(median(full) / median(gdal)).toFixed(2)} (target 3.0)`,

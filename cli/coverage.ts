@@ -18,7 +18,7 @@ export const usage = 'usage: npm run -s terrain -- coverage DEM.tif --mission mi
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
 
 /** Cells meeting a figure, for the summary: min/median/max of a band over the area's cells with a value. */
-function spread(band: Float32Array, inside: Uint8Array, digits: number): { min: number | null; median: number | null; max: number | null } {
+function spread(band: ArrayLike<number>, inside: Uint8Array, digits: number): { min: number | null; median: number | null; max: number | null } {
   let n = 0;
   for (let i = 0; i < band.length; i++) if (inside[i] && band[i] === band[i]) n++;
   if (n === 0) return { min: null, median: null, max: null };

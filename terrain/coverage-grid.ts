@@ -23,10 +23,13 @@ export interface CoverageCells {
   cellAreaM2: number;
   /** 1 where the cell centre lies inside the survey area. */
   inside: Uint8Array;
-  /** Cell centre in the local frame (x east, y north, metres) and the grid's ground height there (NaN unknown). */
-  x: Float64Array;
-  y: Float64Array;
-  z: Float64Array;
+  /**
+   * Cell centre in the local frame (x east, y north, metres) and the grid's ground height there (NaN unknown);
+   * Float32 (0.5 mm steps within 5 km of the frame's origin) to keep the raster's memory near its bands'.
+   */
+  x: Float32Array;
+  y: Float32Array;
+  z: Float32Array;
   insideCount: number;
 }
 
@@ -105,19 +108,20 @@ export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, 
   // cell centres: grid heights in the grid CRS, positions in the local frame
   const gx = new Float64Array(n), gy = new Float64Array(n);
   for (let r = 0; r < height; r++) for (let c = 0; c < width; c++) { gx[r * width + c] = x0 + (c + 0.5) * sx; gy[r * width + c] = yTop - (r + 0.5) * sy; }
-  const z = new Float64Array(n);
+  const z = new Float32Array(n);
   sampleGridCoords(grid, gx, gy, z);
   const toFrame = createTransform(grid.crs, frame.crs);
   toFrame.forwardArrays(gx, gy);
   const k = frame.scale;
-  for (let i = 0; i < n; i++) { gx[i] = (gx[i] - frame.originE) / k; gy[i] = (gy[i] - frame.originN) / k; }
+  const x = new Float32Array(n), y = new Float32Array(n);
+  for (let i = 0; i < n; i++) { x[i] = (gx[i] - frame.originE) / k; y[i] = (gy[i] - frame.originN) / k; }
   // one cell's ground area from the local positions of its neighbours near the area's middle
   const mid = Math.floor(height / 2) * width + Math.floor(width / 2);
   const right = width > 1 ? mid + 1 : mid, down = height > 1 ? mid + width : mid;
   let cellAreaM2 = cellM * cellM;
   if (right !== mid && down !== mid) {
-    const ax = gx[right] - gx[mid], ay = gy[right] - gy[mid], bx = gx[down] - gx[mid], by = gy[down] - gy[mid];
+    const ax = x[right] - x[mid], ay = y[right] - y[mid], bx = x[down] - x[mid], by = y[down] - y[mid];
     cellAreaM2 = Math.abs(ax * by - ay * bx);
   }
-  return { width, height, transform, crs: grid.crs, cellM, cellAreaM2, inside, x: gx, y: gy, z, insideCount };
+  return { width, height, transform, crs: grid.crs, cellM, cellAreaM2, inside, x, y, z, insideCount };
 }

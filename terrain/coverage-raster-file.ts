@@ -26,7 +26,8 @@ export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
   const { cells } = r;
   check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
   const n = cells.width * cells.height;
-  const bands = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM].map((b) => {
+  const measures: ArrayLike<number>[] = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM];
+  const bands = measures.map((b) => {
     const out = new Float32Array(n);
     for (let i = 0; i < n; i++) out[i] = cells.inside[i] ? b[i] : COVERAGE_NODATA;
     return out;

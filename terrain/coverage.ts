@@ -45,15 +45,15 @@ export interface CoverageOptions {
   latticeStepM?: number;
 }
 
-/** The coverage raster: the cell lattice and one Float32 value per cell and measure (NaN outside the area or where there is no value). */
+/** The coverage raster: the cell lattice and one value per cell and measure (counts 0 and figures NaN outside the area; NaN inside where a figure has no value). */
 export interface CoverageRaster {
   cells: CoverageCells;
   /** Views that count (guaranteed ones when an envelope is given). */
-  views: Float32Array;
+  views: Uint16Array;
   /** Views as planned (inside the image at the planned attitude and not hidden). */
-  viewsPlanned: Float32Array;
+  viewsPlanned: Uint16Array;
   finestGsdCm: Float32Array;
-  viewsAtSpecGsd: Float32Array;
+  viewsAtSpecGsd: Uint16Array;
   maxRayAngleDeg: Float32Array;
   sigmaVerticalM: Float32Array;
   sigmaHorizontalM: Float32Array;
@@ -226,7 +226,9 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     }
   }
   const nan = () => new Float32Array(n).fill(NaN);
-  const views = nan(), viewsPlanned = nan(), finestGsdCm = nan(), viewsAtSpecGsd = nan(), maxRayAngleDeg = nan(), sigmaVerticalM = nan(), sigmaHorizontalM = nan();
+  // counts are whole numbers (0 outside the area: the mask says where the area is)
+  const views = new Uint16Array(n), viewsPlanned = new Uint16Array(n), viewsAtSpecGsd = new Uint16Array(n);
+  const finestGsdCm = nan(), maxRayAngleDeg = nan(), sigmaVerticalM = nan(), sigmaHorizontalM = nan();
   // scratch, allocated once: unit rays from the point to each camera that counts, normal matrix, outputs
   const rays = new Float64Array(3 * Math.max(1, longest));
   const N = new Float64Array(6);
@@ -241,7 +243,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
 /** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
 interface CellPass {
   th: number; tw: number; tileLists: Int32Array[]; width: number; height: number; inside: Uint8Array; cells: CoverageCells;
-  views: Float32Array; viewsPlanned: Float32Array; viewsAtSpecGsd: Float32Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
+  views: Uint16Array; viewsPlanned: Uint16Array; viewsAtSpecGsd: Uint16Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
   sigmaHorizontalM: Float32Array; sigmaVerticalM: Float32Array; viewsOnly: boolean; boxes: Float64Array; obox: Float64Array; pos: Float64Array;
   photos: readonly CoveragePhoto[]; model: ImageModel; rots: Float64Array[]; uv: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
   envRots: Float64Array[]; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;

@@ -17,7 +17,7 @@ const hills = (x: number, y: number) => 15 * Math.sin(x / 60) + 10 * Math.cos(y 
  * drawn from the envelope box (its 8 corners, a 5 x 5 x 5 lattice and 300 uniform random draws, fixed seed).
  * A sample can miss the worst attitude, so this count is an upper bound of the true guaranteed count.
  */
-function bruteForce(photos: CoveragePhoto[], env: AttitudeEnvelope, xs: Float64Array, ys: Float64Array, zs: Float64Array, inside: Uint8Array): Int32Array {
+function bruteForce(photos: CoveragePhoto[], env: AttitudeEnvelope, xs: ArrayLike<number>, ys: ArrayLike<number>, zs: ArrayLike<number>, inside: Uint8Array): Int32Array {
   const m = imageModel(camera);
   let s = 7;
   const rnd = () => { s = (s * 16807) % 2147483647; return s / 2147483647; };
