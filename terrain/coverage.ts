@@ -164,7 +164,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const env = opts.envelope ?? null;
   // per photo: rotation, position, ground box, envelope rotations
   const P = photos.length;
-  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), envRots: Float64Array[] = [], envCount = new Int32Array(P);
+  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), boxTop = new Float64Array(P), envRots: Float64Array[] = [], envCount = new Int32Array(P);
   let marginPx = 0;
   for (let j = 0; j < P; j++) {
     const p = photos[j];
@@ -181,6 +181,9 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     }
     const [oLo, oHi] = Number.isFinite(b[0]) ? latticeRange(lattice, b) : [lattice.minM, lattice.maxM];
     photoBox(camera, p, rot, oLo, oHi, obox, j * 6);
+    // the highest ground in the box: a ray from a point in it to the camera (also in it) never meets higher ground
+    const pb = 4 * Math.max(opts.cellM, lattice.stepM);
+    boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
     const padO = 2 * opts.cellM;
     obox[j * 6 + 2] -= padO; obox[j * 6 + 3] += padO; obox[j * 6 + 4] -= padO; obox[j * 6 + 5] += padO;
     pos[j * 3] = p.xM; pos[j * 3 + 1] = p.yM; pos[j * 3 + 2] = p.altitudeM;
@@ -236,7 +239,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const sig = new Float64Array(2);
   const spec = opts.specGsdCm * (1 + 1e-9);
   const hStep = lattice.stepM;
-  fillCells({ th, tw, tileLists, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
+  fillCells({ th, tw, tileLists, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
   return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
 }
 
@@ -246,7 +249,7 @@ interface CellPass {
   views: Uint16Array; viewsPlanned: Uint16Array; viewsAtSpecGsd: Uint16Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
   sigmaHorizontalM: Float32Array; sigmaVerticalM: Float32Array; viewsOnly: boolean; boxes: Float64Array; obox: Float64Array; pos: Float64Array;
   photos: readonly CoveragePhoto[]; model: ImageModel; rots: Float64Array[]; uv: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
-  envRots: Float64Array[]; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
+  envRots: Float64Array[]; boxTop: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
   rays: Float64Array; sigmaPx: number; sig: Float64Array;
 }
 
@@ -268,7 +271,7 @@ function fillCells(c: CellPass): void {
 
 /** One cell: the photos of its tile that see its ground point, and the figures from them (small, so it is optimised early). */
 function visitCell(c: CellPass, list: Int32Array, i: number): void {
-  const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
+  const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
   const px = cells.x[i], py = cells.y[i], pz = cells.z[i];
   if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
   if (viewsOnly) {
@@ -311,7 +314,7 @@ function visitCell(c: CellPass, list: Int32Array, i: number): void {
     const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
     const rx = dx / R, ry = dy / R, rz = dz / R;
     if (-(nx * rx + ny * ry + nz * rz) < MIN_COS_INCIDENCE) continue;
-    if (useOcclusion && occluded(lattice, px, py, pz, p.xM, p.yM, p.altitudeM, tol)) continue;
+    if (useOcclusion && occluded(lattice, px, py, pz, p.xM, p.yM, p.altitudeM, tol, boxTop[j])) continue;
     planned++;
     if (env) {
       const er = envRots[j];

@@ -65,10 +65,11 @@ export function latticeHeight(L: HeightLattice, x: number, y: number): number {
  * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
  * (ox, oy, oz) by more than `toleranceM` anywhere between (a ray march on the lattice: fixed steps of the
  * lattice spacing, from one step away from the point, stopping once the ray is above every height of the
- * lattice; where the ray is above a block's highest height it jumps to the block's far side). Unknown heights
- * never hide a point.
+ * lattice, or above `maxM` when the caller knows the highest ground around the whole ray (e.g. under a photo's
+ * box, which holds the point and the camera and so the ray); where the ray is above a block's highest height it
+ * jumps to the block's far side). Unknown heights never hide a point.
  */
-export function occluded(L: HeightLattice, px: number, py: number, pz: number, ox: number, oy: number, oz: number, toleranceM: number): boolean {
+export function occluded(L: HeightLattice, px: number, py: number, pz: number, ox: number, oy: number, oz: number, toleranceM: number, maxM = L.maxM): boolean {
   const hx = ox - px, hy = oy - py;
   const lenH = Math.sqrt(hx * hx + hy * hy);
   if (lenH < L.stepM) return false;
@@ -79,7 +80,7 @@ export function occluded(L: HeightLattice, px: number, py: number, pz: number, o
   let s = step;
   while (s < lenH) {
     const z = pz + s * rise;
-    if (z - toleranceM > L.maxM) return false;
+    if (z - toleranceM > maxM) return false;
     const x = px + s * ux, y = py + s * uy;
     const fi = (x - L.x0) / step, fj = (y - L.y0) / step;
     if (!(fi >= 0 && fj >= 0 && fi < L.nx - 1 && fj < L.ny - 1)) return false; // off the lattice: nothing known to hide it
