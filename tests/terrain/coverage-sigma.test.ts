@@ -30,6 +30,9 @@ describe('advisory point precision from the least-squares intersection of rays',
       const out = new Float64Array(2);
       sigmaFromNormal(N, 0, out);
       expect(out[1]).toBeCloseTo(normalCaseSigmaZ(H, B, 8.8, 0.5 * pitchMm), 9);
+      // planimetry of the same intersection: each photo fixes X and Y to (H/c)·σx (the scale relation); two
+      // independent photos average to (H/c)·σx/√2 in each (derived here, no textbook figure)
+      expect(out[0]).toBeCloseTo(((H / 8.8) * 0.5 * pitchMm) / Math.SQRT2, 9);
     }
   });
 
