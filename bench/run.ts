@@ -13,6 +13,7 @@ import { sampleAlongLine, sampleGridCoords } from '../terrain/sample';
 import { WGS84, createTransform } from '../terrain/crs';
 import { createParallelDecoder } from './parallel-decode';
 import { benchPlan } from './plan-bench';
+import { benchCoverage } from './coverage-bench';
 import { nodeInflate } from '../cli/io';
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
@@ -24,12 +25,13 @@ const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 5);
 const inflate = nodeInflate;
 
 function ensureReferenceTools(): void {
-  if (spawnSync(PY, ['-c', 'import osgeo, scipy, numpy'], { stdio: 'ignore' }).status === 0) return;
-  console.log('bench: installing python3-gdal python3-numpy python3-scipy (Debian)');
+  const haveRasterize = spawnSync('gdal_rasterize', ['--version'], { stdio: 'ignore' }).status === 0; // the coverage figures' reference
+  if (haveRasterize && spawnSync(PY, ['-c', 'import osgeo, scipy, numpy'], { stdio: 'ignore' }).status === 0) return;
+  console.log('bench: installing gdal-bin python3-gdal python3-numpy python3-scipy (Debian)');
   const sudo = process.getuid?.() === 0 ? [] : ['sudo'];
   const run = (args: string[]) => execFileSync(sudo[0] ?? args[0], sudo.length ? args : args.slice(1), { stdio: 'inherit', env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' } });
   run(['apt-get', 'update', '-qq']);
-  run(['apt-get', 'install', '-y', '-qq', '--no-install-recommends', 'python3-gdal', 'python3-numpy', 'python3-scipy']);
+  run(['apt-get', 'install', '-y', '-qq', '--no-install-recommends', 'gdal-bin', 'python3-gdal', 'python3-numpy', 'python3-scipy']);
 }
 
 function ensureDems(): void {
@@ -169,6 +171,7 @@ async function main(): Promise<void> {
   console.log(`| peak memory, full decode (working set beyond the file bytes) | ${(memFull.workBytes / 2 ** 20).toFixed(0)} MiB for ${(memFull.decodedBytes / 2 ** 20).toFixed(0)} MiB decoded | GDAL ${(memGdal.peakBytes / 2 ** 20).toFixed(0)} MiB | ${(memFull.workBytes / memFull.decodedBytes).toFixed(2)} (GDAL ${(memGdal.peakBytes / memGdal.decodedBytes).toFixed(2)}) |`);
   console.log(`| peak memory, 100 line windows (64 MiB block cache) | ${(memLines.workBytes / 2 ** 20).toFixed(0)} MiB for ${(memLines.decodedBytes / 2 ** 20).toFixed(0)} MiB decoded | - | ${(memLines.workBytes / memLines.decodedBytes).toFixed(2)} |`);
   console.log(`| plan, 2 km2 at 2 cm GSD | ${plan.seconds === null ? 'TODO' : fmt(plan.seconds * 1000)} | - | ${plan.note} |`);
+  const coverageRatios = await benchCoverage(Math.min(ROUNDS, 3));
   console.log(`check: max |Loftline - map_coordinates| over 1000 samples = ${maxDiff.toExponential(2)} m; decoded pixel equals GDAL's`);
   console.log('');
   const memoryRatio = Math.max(memFull.workBytes / memFull.decodedBytes, memLines.workBytes / memLines.decodedBytes);
@@ -178,6 +181,7 @@ async function main(): Promise<void> {
   console.log(`ratio lines-vs-gdal = ${ratio['windows under 100 flight lines (read only those tiles)'].toFixed(2)} (target 1.5)`);
   console.log(`ratio memory-vs-decoded = ${memoryRatio.toFixed(2)} (target 1.5)`);
   console.log(plan.seconds === null ? `ratio plan-2km2-seconds = TODO (absolute seconds, no reference): ${plan.note}` : `ratio plan-2km2-seconds = ${plan.seconds.toFixed(2)} (absolute seconds, no reference; ${plan.note})`);
+  for (const line of coverageRatios) console.log(line);
 }
 
 main().catch((err) => {

@@ -8,7 +8,8 @@ import { CliError, nodeInflate, parseCommandArgs, readFileBytes } from './io';
 
 export const usage = 'usage: npm run -s terrain -- plan DEM.tif --mission mission.json';
 
-async function readMission(path: string | undefined): Promise<unknown> {
+/** The mission file as JSON, or a CliError naming the file and what is wrong. */
+export async function readMission(path: string | undefined): Promise<unknown> {
   if (!path) throw new CliError(`plan needs --mission mission.json. ${usage}`);
   let text: string;
   try {

@@ -13,6 +13,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   sample: () => import('./sample'),
   gsd: () => import('./gsd'),
   plan: () => import('./plan'),
+  coverage: () => import('./coverage'),
 };
 
 async function main(argv: string[]): Promise<void> {

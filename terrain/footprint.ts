@@ -20,6 +20,11 @@ export interface CameraPose {
   yawDeg: number;
   pitchDeg?: number;
   rollDeg?: number;
+  /**
+   * Tilt of the camera on its mount (gimbal pitch) from straight down towards the aircraft's nose, degrees:
+   * 0 looks straight down, 30 looks 30° ahead of nadir (oblique capture), negative values look back.
+   */
+  mountTiltDeg?: number;
 }
 
 /** Options of the ray–terrain intersection. */
@@ -53,7 +58,15 @@ export function cameraToLocal(camera: Camera, pose: CameraPose): Float64Array {
   ];
   // camera -> body: image width across track puts image x to the right and image y aft;
   // image width along track puts image x forward and image y to the right.
-  const camToBody = camera.alongTrackSide === 'width' ? [1, 0, 0, 0, 1, 0, 0, 0, 1] : [0, -1, 0, 1, 0, 0, 0, 0, 1];
+  const camToBody0 = camera.alongTrackSide === 'width' ? [1, 0, 0, 0, 1, 0, 0, 0, 1] : [0, -1, 0, 1, 0, 0, 0, 0, 1];
+  // mount tilt: a rotation about the body's right axis that turns the optical axis (body down) towards the nose
+  const tl = (pose.mountTiltDeg ?? 0) * DEG;
+  const ct = Math.cos(tl), st = Math.sin(tl);
+  const tilt = [ct, 0, st, 0, 1, 0, -st, 0, ct];
+  const camToBody = new Array<number>(9);
+  for (let r = 0; r < 3; r++) {
+    for (let c = 0; c < 3; c++) camToBody[r * 3 + c] = tilt[r * 3] * camToBody0[c] + tilt[r * 3 + 1] * camToBody0[3 + c] + tilt[r * 3 + 2] * camToBody0[6 + c];
+  }
   const m = new Float64Array(9);
   for (let r = 0; r < 3; r++) {
     for (let c = 0; c < 3; c++) {
@@ -198,6 +211,7 @@ export interface GeoCameraPose {
   yawDeg: number;
   pitchDeg?: number;
   rollDeg?: number;
+  mountTiltDeg?: number;
 }
 
 /** A footprint ground point in WGS 84 with the grid height there. */
@@ -216,7 +230,7 @@ export function footprintOnGrid(
   const frame = localFrameFor(pose.lon, pose.lat);
   const { heightAt } = localHeights(grid, frame);
   const [x, y] = frame.toLocal(pose.lon, pose.lat);
-  const fp = photoFootprint(camera, { xM: x, yM: y, altitudeM: pose.altitudeM, yawDeg: pose.yawDeg, pitchDeg: pose.pitchDeg, rollDeg: pose.rollDeg }, heightAt, opts);
+  const fp = photoFootprint(camera, { xM: x, yM: y, altitudeM: pose.altitudeM, yawDeg: pose.yawDeg, pitchDeg: pose.pitchDeg, rollDeg: pose.rollDeg, mountTiltDeg: pose.mountTiltDeg }, heightAt, opts);
   const geo = (p: GroundPoint | null): GeoGroundPoint | null => {
     if (!p) return null;
     const [lon, lat] = frame.toLonLat(p[0], p[1]);

@@ -1,0 +1,127 @@
+/** The coverage raster's cells: a north-up lattice in the elevation grid's CRS over the survey area, its area mask, and each cell's ground point in the local frame. */
+import type { GeoTransform, Grid, GridCrs } from './grid';
+import type { AreaPolygon } from './mission';
+import type { LocalFrame } from './local-frame';
+import { WGS84, createTransform } from './crs';
+import { metresPerUnit } from './dem-header';
+import { sampleGridCoords } from './sample';
+import { TerrainError, check } from './errors';
+
+/** Default most cells one coverage raster may have (80 MB of five Float32 bands). */
+export const DEFAULT_MAX_COVERAGE_CELLS = 4_000_000;
+
+/** The cell lattice of a coverage raster and each cell's ground point. */
+export interface CoverageCells {
+  width: number;
+  height: number;
+  /** GDAL geotransform of the raster, in the grid's CRS (north up). */
+  transform: GeoTransform;
+  crs: GridCrs;
+  /** Cell side in metres as asked (the CRS unit size may differ for geographic or foot grids). */
+  cellM: number;
+  /** Ground area of one cell, m² (horizontal, in the local frame). */
+  cellAreaM2: number;
+  /** 1 where the cell centre lies inside the survey area. */
+  inside: Uint8Array;
+  /**
+   * Cell centre in the local frame (x east, y north, metres) and the grid's ground height there (NaN unknown);
+   * Float32 (0.5 mm steps within 5 km of the frame's origin) to keep the raster's memory near its bands'.
+   */
+  x: Float32Array;
+  y: Float32Array;
+  z: Float32Array;
+  insideCount: number;
+}
+
+/** 12345 -> "12,345". */
+function thousands(n: number): string {
+  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+}
+
+/** The cell size of the grid itself in metres (the smaller pixel side; for geographic grids at latitude `latDeg`). */
+export function gridCellM(grid: Grid, latDeg: number): number {
+  const t = grid.transform;
+  let dx = Math.abs(t[1]), dy = Math.abs(t[5]);
+  if (grid.crs.geographic) { dx *= 111_320 * Math.cos((latDeg * Math.PI) / 180); dy *= 110_574; }
+  else { const k = metresPerUnit(grid.crs.horizontalUnit); dx *= k; dy *= k; }
+  return Math.min(dx, dy);
+}
+
+/**
+ * The cells over `area` (WGS 84), aligned with the grid's pixel edges where the cell size is the grid's own,
+ * at most `maxCells` cells over the area's bounding box; beyond that a `too-large` error names the limit and
+ * the smallest cell size that fits.
+ */
+export function coverageLayout(grid: Grid, area: AreaPolygon, cellM: number, maxCells = DEFAULT_MAX_COVERAGE_CELLS): { width: number; height: number; transform: GeoTransform; rings: Array<Array<[number, number]>> } {
+  const t = grid.transform;
+  check(t[2] === 0 && t[4] === 0, 'The elevation grid is rotated (its geotransform has rotation terms); coverage rasters need a north-up grid. Warp it north up (gdalwarp) and upload it again.');
+  check(Number.isFinite(cellM) && cellM > 0, `the coverage cell size must be a positive number of metres, got ${cellM}.`);
+  const toGrid = createTransform(WGS84, grid.crs);
+  const rings = area.coordinates.map((ring) => ring.map(([lon, lat]) => toGrid.forward(lon, lat)));
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity, latSum = 0;
+  for (const [x, y] of rings[0]) { minX = Math.min(minX, x); maxX = Math.max(maxX, x); minY = Math.min(minY, y); maxY = Math.max(maxY, y); }
+  for (const p of area.coordinates[0]) latSum += p[1];
+  const lat = latSum / area.coordinates[0].length;
+  // cell size in CRS units
+  let sx: number, sy: number;
+  if (grid.crs.geographic) { sx = cellM / (111_320 * Math.cos((lat * Math.PI) / 180)); sy = cellM / 110_574; }
+  else { const k = metresPerUnit(grid.crs.horizontalUnit); sx = cellM / k; sy = sx; }
+  // snap the raster's corner to the grid's pixel edges (a multiple of the cell size away from the grid origin)
+  const x0 = t[0] + Math.floor((minX - t[0]) / sx) * sx;
+  const yTop = t[3] - Math.floor((t[3] - maxY) / sy) * sy;
+  const width = Math.max(1, Math.ceil((maxX - x0) / sx - 1e-9));
+  const height = Math.max(1, Math.ceil((yTop - minY) / sy - 1e-9));
+  const n = width * height;
+  if (n > maxCells) {
+    const fit = Math.ceil(cellM * Math.sqrt(n / maxCells) * 100) / 100;
+    throw new TerrainError('too-large', `The coverage raster would have ${thousands(n)} cells (${width} x ${height} at ${cellM} m), more than the limit of ${thousands(maxCells)}; use a cell size of at least ${fit} m or a smaller area.`);
+  }
+  return { width, height, transform: [x0, sx, 0, yTop, 0, -sy], rings };
+}
+
+/** The cells of `coverageLayout` with the area mask and each cell's ground point in the local frame. */
+export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells = DEFAULT_MAX_COVERAGE_CELLS): CoverageCells {
+  const { width, height, transform, rings } = coverageLayout(grid, area, cellM, maxCells);
+  const n = width * height;
+  const [x0, sx, , yTop, , negSy] = transform;
+  const sy = -negSy;
+  // area mask by scanlines at the cell centres (even-odd rule over every ring, so holes stay out)
+  const inside = new Uint8Array(n);
+  const xs: number[] = [];
+  let insideCount = 0;
+  for (let r = 0; r < height; r++) {
+    const yc = yTop - (r + 0.5) * sy;
+    xs.length = 0;
+    for (const ring of rings) {
+      for (let i = 0; i + 1 < ring.length; i++) {
+        const [ax, ay] = ring[i], [bx, by] = ring[i + 1];
+        if ((ay > yc) !== (by > yc)) xs.push(ax + ((yc - ay) * (bx - ax)) / (by - ay));
+      }
+    }
+    xs.sort((a, b) => a - b);
+    for (let k = 0; k + 1 < xs.length; k += 2) {
+      const c0 = Math.max(0, Math.ceil((xs[k] - x0) / sx - 0.5));
+      const c1 = Math.min(width - 1, Math.floor((xs[k + 1] - x0) / sx - 0.5));
+      for (let c = c0; c <= c1; c++) { if (!inside[r * width + c]) insideCount++; inside[r * width + c] = 1; }
+    }
+  }
+  // cell centres: grid heights in the grid CRS, positions in the local frame
+  const gx = new Float64Array(n), gy = new Float64Array(n);
+  for (let r = 0; r < height; r++) for (let c = 0; c < width; c++) { gx[r * width + c] = x0 + (c + 0.5) * sx; gy[r * width + c] = yTop - (r + 0.5) * sy; }
+  const z = new Float32Array(n);
+  sampleGridCoords(grid, gx, gy, z);
+  const toFrame = createTransform(grid.crs, frame.crs);
+  toFrame.forwardArrays(gx, gy);
+  const k = frame.scale;
+  const x = new Float32Array(n), y = new Float32Array(n);
+  for (let i = 0; i < n; i++) { x[i] = (gx[i] - frame.originE) / k; y[i] = (gy[i] - frame.originN) / k; }
+  // one cell's ground area from the local positions of its neighbours near the area's middle
+  const mid = Math.floor(height / 2) * width + Math.floor(width / 2);
+  const right = width > 1 ? mid + 1 : mid, down = height > 1 ? mid + width : mid;
+  let cellAreaM2 = cellM * cellM;
+  if (right !== mid && down !== mid) {
+    const ax = x[right] - x[mid], ay = y[right] - y[mid], bx = x[down] - x[mid], by = y[down] - y[mid];
+    cellAreaM2 = Math.abs(ax * by - ay * bx);
+  }
+  return { width, height, transform, crs: grid.crs, cellM, cellAreaM2, inside, x, y, z, insideCount };
+}

@@ -1,0 +1,39 @@
+/** The coverage raster as a GeoTIFF: five Float32 bands in the grid's CRS, nodata outside the area. */
+import type { CoverageRaster } from './coverage';
+import { writeFloat32GeoTiff } from './geotiff-write';
+import { check } from './errors';
+
+/** Nodata value of the file's cells outside the survey area. */
+export const COVERAGE_NODATA = -9999;
+
+/** The band descriptions, in band order. */
+export function coverageBandNames(r: CoverageRaster): string[] {
+  const basis = r.guaranteed ? 'guaranteed' : 'planned';
+  return [
+    `views (${basis})`,
+    'finest GSD, cm',
+    'views at or below the spec GSD',
+    'largest angle between viewing rays, degrees',
+    `predicted vertical sigma, m (advisory, ${r.imageErrorPx} px image error)`,
+  ];
+}
+
+/**
+ * Band 1 views, 2 finest GSD (cm), 3 views at or below the spec's GSD, 4 largest angle between rays (degrees),
+ * 5 predicted vertical σ (m); -9999 outside the area, NaN inside where a measure has no value.
+ */
+export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
+  const { cells } = r;
+  check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
+  const n = cells.width * cells.height;
+  const measures: ArrayLike<number>[] = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM];
+  const bands = measures.map((b) => {
+    const out = new Float32Array(n);
+    for (let i = 0; i < n; i++) out[i] = cells.inside[i] ? b[i] : COVERAGE_NODATA;
+    return out;
+  });
+  return writeFloat32GeoTiff({
+    width: cells.width, height: cells.height, bands, bandNames: coverageBandNames(r), transform: cells.transform,
+    epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
+  });
+}

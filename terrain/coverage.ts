@@ -1,0 +1,235 @@
+/** The coverage raster: for every ground cell of the survey area, the photos that see it and what they give (views, finest GSD, ray angles, advisory precision). */
+import type { Camera } from './camera';
+import { checkCamera, pixelRay } from './camera';
+import type { Grid } from './grid';
+import type { AreaPolygon } from './mission';
+import type { LocalFrame } from './local-frame';
+import { localHeights } from './local-frame';
+import type { CameraPose } from './footprint';
+import { cameraToLocal } from './footprint';
+import { imageModel } from './pose';
+import { fillCells, TILE } from './coverage-pass';
+import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
+import { heightLattice, type HeightLattice } from './occlusion';
+import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
+import { check } from './errors';
+
+/** One photo: its planned pose in the local frame, and the crab angle the attitude envelope allows on its line. */
+export interface CoveragePhoto extends CameraPose {
+  /** Crab angle of the photo's line in the envelope's wind (degrees; 0 without wind or for aircraft that do not crab). */
+  crabDeg?: number;
+}
+
+/** Settings of one coverage computation. */
+export interface CoverageOptions {
+  /** Cell side, metres. */
+  cellM: number;
+  maxCells?: number;
+  /** GSD the spec asks for at most (cm): views at or below it are counted. */
+  specGsdCm: number;
+  /** Image measurement error for the predicted precision, pixels (default 0.5). */
+  imageErrorPx?: number;
+  /** When given, a view counts only if the point stays in the image at every attitude of the envelope. */
+  envelope?: AttitudeEnvelope | null;
+  /** Test terrain occlusion along every viewing ray (default true). */
+  occlusion?: boolean;
+  /** Terrain must rise this far above a ray to hide the point (default 0.2 m: the height lattice differs from the grid's own interpolation by centimetres to decimetres on rough ground). */
+  occlusionToleranceM?: number;
+  /**
+   * Count views only (inside the image, at the planned attitude and under the envelope): no occlusion, slope,
+   * GSD, angle or σ; what a rasterisation of the footprints gives, for comparing with one.
+   */
+  viewsOnly?: boolean;
+  /** Spacing of the height lattice the occlusion march runs on (default: the grid's pixel, at most 16 million nodes). */
+  latticeStepM?: number;
+}
+
+/** The coverage raster: the cell lattice and one value per cell and measure (counts 0 and figures NaN outside the area; NaN inside where a figure has no value). */
+export interface CoverageRaster {
+  cells: CoverageCells;
+  /** Views that count (guaranteed ones when an envelope is given). */
+  views: Uint16Array;
+  /** Views as planned (inside the image at the planned attitude and not hidden). */
+  viewsPlanned: Uint16Array;
+  finestGsdCm: Float32Array;
+  viewsAtSpecGsd: Uint16Array;
+  maxRayAngleDeg: Float32Array;
+  sigmaVerticalM: Float32Array;
+  sigmaHorizontalM: Float32Array;
+  /** Whether `views` and the figures from them are the guaranteed ones. */
+  guaranteed: boolean;
+  /** Safety margin the envelope test keeps from the image edges, pixels (0 without an envelope). */
+  envelopeMarginPx: number;
+  imageErrorPx: number;
+}
+
+
+/** Horizontal bounding box of everything a photo can see between the lowest and highest ground (border rays through distortion). */
+function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: number, zHigh: number, oriented?: Float64Array, at = 0): [number, number, number, number] {
+  let x0 = pose.xM, x1 = pose.xM, y0 = pose.yM, y1 = pose.yM;
+  // the same box in the photo's heading frame (along = sin ψ·dx + cos ψ·dy, across = cos ψ·dx − sin ψ·dy, from the camera)
+  const sp = Math.sin((pose.yawDeg * Math.PI) / 180), cp = Math.cos((pose.yawDeg * Math.PI) / 180);
+  let a0 = 0, a1 = 0, c0 = 0, c1 = 0;
+  const W = camera.imageWidthPx, H = camera.imageHeightPx;
+  const N = 16;
+  for (let k = 0; k <= N; k++) {
+    for (const [u, v] of [[(W * k) / N, 0], [(W * k) / N, H], [0, (H * k) / N], [W, (H * k) / N]]) {
+      const [xn, yn] = pixelRay(camera, u, v);
+      const dx = rot[0] * xn + rot[1] * yn + rot[2], dy = rot[3] * xn + rot[4] * yn + rot[5], dz = rot[6] * xn + rot[7] * yn + rot[8];
+      if (!(dz < -1e-9)) {
+        if (oriented) oriented.set([0, 1, -Infinity, Infinity, -Infinity, Infinity], at);
+        return [-Infinity, -Infinity, Infinity, Infinity];
+      }
+      for (const z of [zLow, Math.min(zHigh, pose.altitudeM)]) {
+        const t = (z - pose.altitudeM) / dz;
+        const x = pose.xM + t * dx, y = pose.yM + t * dy;
+        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+        const a = sp * t * dx + cp * t * dy, c = cp * t * dx - sp * t * dy;
+        if (a < a0) a0 = a; if (a > a1) a1 = a; if (c < c0) c0 = c; if (c > c1) c1 = c;
+      }
+    }
+  }
+  if (oriented) oriented.set([sp, cp, a0, a1, c0, c1], at);
+  return [x0, y0, x1, y1];
+}
+
+/** Lowest and highest known lattice height inside a local box (block maxima for the high end; nodes for the low end). */
+function latticeRange(L: HeightLattice, box: [number, number, number, number]): [number, number] {
+  const i0 = Math.max(0, Math.floor((box[0] - L.x0) / L.stepM)), i1 = Math.min(L.nx - 1, Math.ceil((box[2] - L.x0) / L.stepM));
+  const j0 = Math.max(0, Math.floor((box[1] - L.y0) / L.stepM)), j1 = Math.min(L.ny - 1, Math.ceil((box[3] - L.y0) / L.stepM));
+  let lo = Infinity, hi = -Infinity;
+  for (let j = j0; j <= j1; j++) {
+    for (let i = i0; i <= i1; i++) {
+      const h = L.heights[j * L.nx + i];
+      if (h < lo) lo = h;
+      if (h > hi) hi = h;
+    }
+  }
+  return [lo, hi];
+}
+
+/** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
+function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  const n = cells.x.length;
+  for (let i = 0; i < n; i++) {
+    if (!cells.inside[i]) continue;
+    const x = cells.x[i], y = cells.y[i];
+    if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+  }
+  for (const p of photos) { x0 = Math.min(x0, p.xM); x1 = Math.max(x1, p.xM); y0 = Math.min(y0, p.yM); y1 = Math.max(y1, p.yM); }
+  let step = stepM;
+  const span = (x1 - x0 + 4 * step) * (y1 - y0 + 4 * step);
+  if (span / (step * step) > 16_000_000) step = Math.sqrt(span / 16_000_000);
+  x0 -= 2 * step; y0 -= 2 * step;
+  const nx = Math.ceil((x1 + 2 * step - x0) / step) + 1, ny = Math.ceil((y1 + 2 * step - y0) / step) + 1;
+  const xs = new Float64Array(nx * ny), ys = new Float64Array(nx * ny), hs = new Float64Array(nx * ny);
+  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) { xs[j * nx + i] = x0 + i * step; ys[j * nx + i] = y0 + j * step; }
+  localHeights(grid, frame).sampleMany(xs, ys, hs);
+  return heightLattice(x0, y0, step, nx, ny, Float32Array.from(hs));
+}
+
+/**
+ * The coverage raster of `photos` over `area`: for each cell's ground point, the photos whose image holds it
+ * (after distortion) and whose ray to it no terrain hides; from those the view count, the finest GSD and the
+ * number of views at or below the spec's GSD (`view-gsd.ts`), the largest angle between two viewing rays and the
+ * advisory precision of a least-squares intersection of the rays (`ray-intersection.ts`). With an envelope only
+ * the views that hold at every attitude in it count (`attitude-envelope.ts`). Work is bounded by each photo's
+ * ground box: cells are visited tile by tile against the photos whose box meets the tile.
+ */
+export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon, camera: Camera, photos: readonly CoveragePhoto[], opts: CoverageOptions): CoverageRaster {
+  checkCamera(camera);
+  const sigmaPx = opts.imageErrorPx ?? 0.5;
+  check(Number.isFinite(sigmaPx) && sigmaPx > 0 && sigmaPx <= 100, `the image measurement error must be a number of pixels in (0, 100], got ${opts.imageErrorPx}.`);
+  check(Number.isFinite(opts.specGsdCm) && opts.specGsdCm > 0, `the spec's GSD must be a positive number of centimetres, got ${opts.specGsdCm}.`);
+  const cells = coverageCells(grid, frame, area, opts.cellM, opts.maxCells);
+  const { width, height, inside } = cells;
+  const n = width * height;
+  const tol = opts.occlusionToleranceM ?? 0.2;
+  const viewsOnly = opts.viewsOnly ?? false;
+  const useOcclusion = !viewsOnly && (opts.occlusion ?? true);
+  const lat = area.coordinates[0][0][1];
+  const lattice = buildLattice(grid, frame, cells, photos, opts.latticeStepM ?? gridCellM(grid, lat));
+  const model = imageModel(camera);
+  const env = opts.envelope ?? null;
+  // per photo: rotation, position, ground box, envelope rotations
+  const P = photos.length;
+  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), boxTop = new Float64Array(P), envRots: Float64Array[] = [], envCount = new Int32Array(P);
+  let marginPx = 0;
+  for (let j = 0; j < P; j++) {
+    const p = photos[j];
+    check(Number.isFinite(p.xM) && Number.isFinite(p.yM) && Number.isFinite(p.altitudeM) && Number.isFinite(p.yawDeg), `photo ${j + 1} needs a finite position, altitude and yaw, got ${JSON.stringify(p)}.`);
+    const rot = cameraToLocal(camera, p);
+    rots.push(rot);
+    // the box between the lowest and highest ground of the whole lattice, then again between the lowest and
+    // highest ground inside that box (tighter where the relief is in another part of the area)
+    let b = photoBox(camera, p, rot, lattice.minM, lattice.maxM);
+    for (let pass = 0; pass < 2 && Number.isFinite(b[0]); pass++) {
+      const [lo, hi] = latticeRange(lattice, b);
+      if (!(lo <= hi)) break;
+      b = photoBox(camera, p, rot, lo, hi);
+    }
+    const [oLo, oHi] = Number.isFinite(b[0]) ? latticeRange(lattice, b) : [lattice.minM, lattice.maxM];
+    photoBox(camera, p, rot, oLo, oHi, obox, j * 6);
+    // the highest ground in the box: a ray from a point in it to the camera (also in it) never meets higher ground
+    const pb = 4 * Math.max(opts.cellM, lattice.stepM);
+    boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
+    const padO = 2 * opts.cellM;
+    obox[j * 6 + 2] -= padO; obox[j * 6 + 3] += padO; obox[j * 6 + 4] -= padO; obox[j * 6 + 5] += padO;
+    pos[j * 3] = p.xM; pos[j * 3 + 1] = p.yM; pos[j * 3 + 2] = p.altitudeM;
+    const pad = 2 * opts.cellM;
+    boxes[j * 4] = b[0] - pad; boxes[j * 4 + 1] = b[1] - pad; boxes[j * 4 + 2] = b[2] + pad; boxes[j * 4 + 3] = b[3] + pad;
+    if (env) {
+      const s = envelopeSamples(camera, p, env, p.crabDeg ?? 0);
+      envRots.push(s.rotations); envCount[j] = s.count; marginPx = Math.max(marginPx, s.marginPx);
+    }
+  }
+  // tiles of cells and the photos whose box meets each tile
+  const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
+  const tileLists: Int32Array[] = [];
+  let longest = 0;
+  for (let ty = 0; ty < th; ty++) {
+    for (let tx = 0; tx < tw; tx++) {
+      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+      for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
+        for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
+          const i = r * width + c;
+          if (!inside[i]) continue;
+          const x = cells.x[i], y = cells.y[i];
+          if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+        }
+      }
+      const list: number[] = [];
+      if (x0 <= x1) {
+        for (let j = 0; j < P; j++) {
+          if (!(boxes[j * 4] <= x1 && boxes[j * 4 + 2] >= x0 && boxes[j * 4 + 1] <= y1 && boxes[j * 4 + 3] >= y0)) continue;
+          // and the tile's corners, turned into the photo's heading frame, against its oriented box
+          const o = j * 6, sp = obox[o], cp = obox[o + 1];
+          let a0 = Infinity, a1 = -Infinity, c0 = Infinity, c1 = -Infinity;
+          for (const [x, y] of [[x0, y0], [x1, y0], [x0, y1], [x1, y1]]) {
+            const dx = x - pos[j * 3], dy = y - pos[j * 3 + 1];
+            const a = sp * dx + cp * dy, c = cp * dx - sp * dy;
+            if (a < a0) a0 = a; if (a > a1) a1 = a; if (c < c0) c0 = c; if (c > c1) c1 = c;
+          }
+          if (a0 <= obox[o + 3] && a1 >= obox[o + 2] && c0 <= obox[o + 5] && c1 >= obox[o + 4]) list.push(j);
+        }
+      }
+      tileLists.push(Int32Array.from(list));
+      if (list.length > longest) longest = list.length;
+    }
+  }
+  const nan = () => new Float32Array(n).fill(NaN);
+  // counts are whole numbers (0 outside the area: the mask says where the area is)
+  const views = new Uint16Array(n), viewsPlanned = new Uint16Array(n), viewsAtSpecGsd = new Uint16Array(n);
+  const finestGsdCm = nan(), maxRayAngleDeg = nan(), sigmaVerticalM = nan(), sigmaHorizontalM = nan();
+  // scratch, allocated once: unit rays from the point to each camera that counts, normal matrix, outputs
+  const rays = new Float64Array(3 * Math.max(1, longest));
+  const N = new Float64Array(6);
+  const uv = new Float64Array(2);
+  const sig = new Float64Array(2);
+  const spec = opts.specGsdCm * (1 + 1e-9);
+  const hStep = lattice.stepM;
+  fillCells({ th, tw, tileLists, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
+  return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+}
+

@@ -1,0 +1,102 @@
+/** Terrain occlusion along viewing rays: a height lattice in the local frame, block maxima, and a march from the ground point towards the camera. */
+
+/** Heights on a regular lattice of the local frame (node i, j at x0 + i·step, y0 + j·step), with block maxima for skipping clear air. */
+export interface HeightLattice {
+  x0: number;
+  y0: number;
+  stepM: number;
+  nx: number;
+  ny: number;
+  /** Row-major heights (index j * nx + i), NaN where unknown. */
+  heights: Float32Array;
+  /** Highest known height of the lattice. */
+  maxM: number;
+  minM: number;
+  block: number;
+  bnx: number;
+  bny: number;
+  /** Highest height of each block of `block` x `block` cells (its nodes and the next row/column), -Infinity when none is known. */
+  blockMax: Float32Array;
+}
+
+const BLOCK = 8;
+
+/** Build a lattice from heights already sampled at its nodes (block maxima worked out here). */
+export function heightLattice(x0: number, y0: number, stepM: number, nx: number, ny: number, heights: Float32Array): HeightLattice {
+  let maxM = -Infinity, minM = Infinity;
+  for (let i = 0; i < heights.length; i++) { const h = heights[i]; if (h > maxM) maxM = h; if (h < minM) minM = h; }
+  const bnx = Math.ceil(nx / BLOCK), bny = Math.ceil(ny / BLOCK);
+  const blockMax = new Float32Array(bnx * bny).fill(-Infinity);
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const h = heights[j * nx + i];
+      if (!(h === h)) continue;
+      // a node bounds the cells on both sides of it: it counts for the block it starts and the one it ends
+      const bi = Math.floor(i / BLOCK), bj = Math.floor(j / BLOCK);
+      for (let dj = 0; dj <= (j % BLOCK === 0 && bj > 0 ? 1 : 0); dj++) {
+        for (let di = 0; di <= (i % BLOCK === 0 && bi > 0 ? 1 : 0); di++) {
+          const b = (bj - dj) * bnx + (bi - di);
+          if (h > blockMax[b]) blockMax[b] = h;
+        }
+      }
+    }
+  }
+  return { x0, y0, stepM, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax };
+}
+
+/** Bilinear height of the lattice at local (x, y); NaN off the lattice or beside unknown nodes. */
+export function latticeHeight(L: HeightLattice, x: number, y: number): number {
+  const fx = (x - L.x0) / L.stepM, fy = (y - L.y0) / L.stepM;
+  if (!(fx >= 0 && fy >= 0 && fx <= L.nx - 1 && fy <= L.ny - 1)) return NaN;
+  let i = Math.floor(fx), j = Math.floor(fy);
+  if (i > L.nx - 2) i = L.nx - 2;
+  if (j > L.ny - 2) j = L.ny - 2;
+  if (i < 0) i = 0;
+  if (j < 0) j = 0;
+  const tx = fx - i, ty = fy - j;
+  const o = j * L.nx + i;
+  const h = L.heights;
+  const a = h[o], b = h[o + 1 < h.length ? o + 1 : o], c = h[o + L.nx < h.length ? o + L.nx : o], d = h[o + L.nx + 1 < h.length ? o + L.nx + 1 : o];
+  const top = a + (b - a) * tx;
+  return top + (c + (d - c) * tx - top) * ty;
+}
+
+/**
+ * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
+ * (ox, oy, oz) by more than `toleranceM` anywhere between (a ray march on the lattice: fixed steps of the
+ * lattice spacing, from one step away from the point, stopping once the ray is above every height of the
+ * lattice, or above `maxM` when the caller knows the highest ground around the whole ray (e.g. under a photo's
+ * box, which holds the point and the camera and so the ray); where the ray is above a block's highest height it
+ * jumps to the block's far side). Unknown heights never hide a point.
+ */
+export function occluded(L: HeightLattice, px: number, py: number, pz: number, ox: number, oy: number, oz: number, toleranceM: number, maxM = L.maxM): boolean {
+  const hx = ox - px, hy = oy - py;
+  const lenH = Math.sqrt(hx * hx + hy * hy);
+  if (lenH < L.stepM) return false;
+  const ux = hx / lenH, uy = hy / lenH;
+  const rise = (oz - pz) / lenH; // metres up per metre along the ground
+  const step = L.stepM;
+  const cellsPerBlock = L.block * step;
+  let s = step;
+  while (s < lenH) {
+    const z = pz + s * rise;
+    if (z - toleranceM > maxM) return false;
+    const x = px + s * ux, y = py + s * uy;
+    const fi = (x - L.x0) / step, fj = (y - L.y0) / step;
+    if (!(fi >= 0 && fj >= 0 && fi < L.nx - 1 && fj < L.ny - 1)) return false; // off the lattice: nothing known to hide it
+    const bi = Math.floor(fi / L.block), bj = Math.floor(fj / L.block);
+    if (z - toleranceM > L.blockMax[bj * L.bnx + bi]) {
+      // clear above this block: go to where the ray leaves it (slab method on the block's edges), plus a hair
+      const bx0 = L.x0 + bi * cellsPerBlock, by0 = L.y0 + bj * cellsPerBlock;
+      const tx = ux > 0 ? (bx0 + cellsPerBlock - x) / ux : ux < 0 ? (bx0 - x) / ux : Infinity;
+      const ty = uy > 0 ? (by0 + cellsPerBlock - y) / uy : uy < 0 ? (by0 - y) / uy : Infinity;
+      const jump = Math.min(tx, ty);
+      s += (jump > 0 ? jump : 0) + 1e-6 * step;
+      continue;
+    }
+    const h = latticeHeight(L, x, y);
+    if (h - toleranceM > z) return true;
+    s += step;
+  }
+  return false;
+}
