@@ -1,0 +1,69 @@
+/**
+ * `npm run link -- …`: hand a signed-off plan version to an aircraft over MAVLink. Prints the cautions first, signs in
+ * to Loftline, fetches the version's mission items (an unsigned version is refused), uploads them with the mission
+ * protocol, reads them back, compares item by item, and only then says READY. Exit 0 when ready, 1 when anything
+ * failed (nothing is ready), 2 for bad options.
+ */
+import { parseLinkArgs, usage, UsageError, type LinkOptions } from './link/args';
+import { fetchMissionItems, LinkError, signIn } from './link/loftline-client';
+import { MavlinkChannel } from './link/mavlink-channel';
+import { compareMission, downloadMission, uploadMission } from './link/mission-transfer';
+import { openTransport } from './link/transport';
+import { generalCautions } from '../contracts/cautions';
+
+const out = (line: string) => process.stdout.write(`${line}\n`);
+
+async function run(o: LinkOptions): Promise<void> {
+  // The general cautions before anything else, then the plan's own once it is known.
+  out('CAUTIONS');
+  for (const c of generalCautions) out(`  - ${c}`);
+  out(`Signing in to ${o.server} as ${o.email}`);
+  const session = await signIn(o.server, o.email, o.password);
+  const doc = await fetchMissionItems(session, o.versionId);
+  out(`Version ${doc.version.number} of "${doc.version.planName}" (${doc.version.projectName}), signed off by ${doc.version.signedOffBy}${doc.version.signedOffAt ? ` on ${doc.version.signedOffAt}` : ''}`);
+  out('CAUTIONS FOR THIS PLAN');
+  for (const c of doc.cautions) out(`  - ${c}`);
+  out(`Altitudes: ${doc.altitude.frameName} (frame ${doc.altitude.frame}), ${doc.altitude.reference}`);
+  for (const l of doc.lines) out(`  line ${l.number}: items ${l.firstSeq}-${l.lastSeq}, ${l.photoCount} photos every ${l.triggerDistanceM} m at ${l.speedMps} m/s ground speed`);
+  out(`${doc.items.length} mission items`);
+
+  const transport = await openTransport(o.connection);
+  const ch = new MavlinkChannel(transport);
+  try {
+    ch.startHeartbeat();
+    out(`Waiting for the aircraft's heartbeat on ${transport.label}`);
+    const target = await ch.findAircraft(Math.max(5000, o.timeoutMs * (o.retries + 1)));
+    if (!target) throw new LinkError(`No MAVLink heartbeat from an aircraft on ${transport.label}; check the connection, the port and the baud rate. Nothing was uploaded.`);
+    out(`Aircraft: system ${target.sysid}, component ${target.compid}, MAVLink ${target.version}`);
+    const log = (line: string) => out(`  ${line}`);
+    const up = await uploadMission(ch, doc.items, { timeoutMs: o.timeoutMs, retries: o.retries, log });
+    out(`Uploaded ${doc.items.length} items; the aircraft acknowledged them (MAV_MISSION_ACCEPTED)${up.resent ? `, ${up.resent} messages sent again after timeouts` : ''}`);
+    out('Reading the mission back');
+    const held = await downloadMission(ch, { timeoutMs: o.timeoutMs, retries: o.retries, log });
+    const diffs = compareMission(doc.items, held);
+    if (diffs.length) {
+      for (const d of diffs.slice(0, 20)) out(`  MISMATCH ${d}`);
+      throw new LinkError(`The mission read back from the aircraft differs from version ${doc.version.number} in ${diffs.length} places: NOT ready. Clear the mission on the aircraft and run the link again.`);
+    }
+    out(`Read back ${held.length} items, each equal to what was sent.`);
+    out(`READY: version ${doc.version.number} of "${doc.version.planName}" is on the aircraft (${held.length} items, altitudes above the takeoff point).`);
+  } finally {
+    ch.stop();
+    await transport.close();
+  }
+}
+
+let options: LinkOptions;
+try {
+  options = parseLinkArgs(process.argv.slice(2), process.env);
+} catch (err) {
+  if (!(err instanceof UsageError)) throw err;
+  process.stderr.write(`${err.message}\n${usage}\n`);
+  process.exit(2);
+}
+run(options)
+  .then(() => process.exit(0))
+  .catch((err: unknown) => {
+    process.stderr.write(`${err instanceof LinkError ? err.message : `The link failed: ${(err as Error)?.stack ?? String(err)}`}\n`);
+    process.exit(1);
+  });
