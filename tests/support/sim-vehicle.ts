@@ -23,11 +23,21 @@ const Mavlink = require('mavlink') as typeof MavlinkType;
 const here = path.dirname(fileURLToPath(import.meta.url));
 const extraXml = path.join(here, '../fixtures/mavlink/mission-int');
 
-/** The package reads definitions by name from its own folder, so ours is named relative to it. */
+/**
+ * The package reads definitions by name from its own folder, so ours is named relative to it. It loads the files of
+ * one call side by side and the last one read wins an id, and its common.xml still has id 51 for an older message;
+ * so common.xml is loaded first and ours after it, overriding that id.
+ */
 async function codec(sysid: number, compid: number): Promise<MavlinkType> {
   const defsDir = path.join(path.dirname(require.resolve('mavlink')), 'mavlink/message_definitions/v1.0');
-  const m = new Mavlink(sysid, compid, 'v1.0', ['common', path.relative(defsDir, extraXml)]);
+  const m = new Mavlink(sysid, compid, 'v1.0', ['common']);
   await new Promise((resolve) => m.once('ready', resolve));
+  const loader = m as unknown as { definitions: string[]; loadDefinitions(): void };
+  loader.definitions = [path.relative(defsDir, extraXml)];
+  const more = new Promise((resolve) => m.once('ready', resolve));
+  loader.loadDefinitions();
+  await more;
+  if (m.getMessageName(51) !== 'MISSION_REQUEST_INT' || m.getMessageName(73) !== 'MISSION_ITEM_INT') throw new Error('independent MAVLink definitions did not load in order');
   return m;
 }
 
@@ -49,7 +59,7 @@ export interface SimVehicle {
   /** Items as the independent codec decoded them, by seq. */
   items: Array<Record<string, number>>;
   /** Every message received, by MAVLink name, in order. */
-  received: Array<{ name: string; fields: Record<string, number> }>;
+  received: Array<{ name: string; fields: Record<string, number>; payloadLength: number }>;
   /** Messages the vehicle sent, by name. */
   sent: string[];
   codec: MavlinkType;
@@ -83,7 +93,7 @@ export async function startSimVehicle(o: SimVehicleOptions = {}): Promise<SimVeh
     const name = rx.getMessageName(msg.id);
     if (!name) return;
     const f = rx.decodeMessage(msg) as Record<string, number>;
-    v.received.push({ name, fields: f });
+    v.received.push({ name, fields: f, payloadLength: msg.length });
     gcs = { sysid: msg.system, compid: msg.component };
     if ('target_system' in f && (f.target_system !== sysid || f.target_component !== compid)) return;
     switch (name) {
@@ -123,7 +133,10 @@ export async function startSimVehicle(o: SimVehicleOptions = {}): Promise<SimVeh
     // MAV_TYPE_QUADROTOR 2, MAV_AUTOPILOT_GENERIC 0, MAV_STATE_STANDBY 3 (common.xml).
     if (peer) send('HEARTBEAT', { type: 2, autopilot: 0, base_mode: 0, custom_mode: 0, system_status: 3, mavlink_version: 3 });
   }, 200);
+  let stopped = false;
   v.stop = async () => {
+    if (stopped) return;
+    stopped = true;
     clearInterval(beat);
     await new Promise<void>((resolve) => sock.close(() => resolve()));
   };
