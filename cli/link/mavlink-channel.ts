@@ -88,6 +88,16 @@ export class MavlinkChannel {
     });
   }
 
+  /**
+   * Send `msg` and wait for the answer `match` accepts (null after `timeoutMs`). The listener is in place before the
+   * message leaves, so an answer that comes back while a slow link (a serial port draining) is still sending is kept.
+   */
+  async request<T extends MavLinkData>(msg: MavLinkData, match: (m: Incoming) => T | null, timeoutMs: number): Promise<T | null> {
+    const answer = this.waitFor(match, timeoutMs);
+    await this.send(msg);
+    return answer;
+  }
+
   /** Send GCS heartbeats once a second until `stop`. */
   startHeartbeat(): void {
     const beat = () => {

@@ -54,8 +54,7 @@ export async function uploadMission(ch: MavlinkChannel, items: MissionItem[], o:
   let lastWhat = 'MISSION_COUNT';
   let resent = 0;
   let tries = 0;
-  await ch.send(count);
-  o.log(`MISSION_COUNT ${items.length} sent`);
+  o.log(`sending MISSION_COUNT ${items.length}`);
   type Answer = { kind: 'request'; seq: number } | { kind: 'ack'; type: number };
   const answer = (m: Incoming): Answer | null => {
     if (m.msg instanceof MissionRequestInt || m.msg instanceof MissionRequest) {
@@ -65,13 +64,13 @@ export async function uploadMission(ch: MavlinkChannel, items: MissionItem[], o:
     return null;
   };
   for (;;) {
-    const a = await ch.waitFor((m) => answer(m) as never, o.timeoutMs) as Answer | null;
+    // Each turn sends the last message (the count, the requested item, or either again after a timeout) and waits.
+    const a = (await ch.request(last, (m) => answer(m) as never, o.timeoutMs)) as Answer | null;
     if (!a) {
       if (tries >= o.retries) throw new LinkError(`The aircraft stopped answering after ${lastWhat} (${o.retries} retries of ${o.timeoutMs} ms); nothing is ready. Check the telemetry link and run the link again.`);
       tries++;
       resent++;
       o.log(`no answer to ${lastWhat} within ${o.timeoutMs} ms: sending it again (retry ${tries} of ${o.retries})`);
-      await ch.send(last);
       continue;
     }
     if (a.kind === 'ack') {
@@ -83,7 +82,6 @@ export async function uploadMission(ch: MavlinkChannel, items: MissionItem[], o:
     tries = 0;
     last = toMessage(items[a.seq], target);
     lastWhat = `MISSION_ITEM_INT ${a.seq}`;
-    await ch.send(last);
   }
 }
 
@@ -93,8 +91,7 @@ export async function downloadMission(ch: MavlinkChannel, o: TransferOptions): P
   const ask = async <T>(msg: Parameters<MavlinkChannel['send']>[0], what: string, match: (m: Incoming) => T | null): Promise<T> => {
     for (let attempt = 0; attempt <= o.retries; attempt++) {
       if (attempt > 0) o.log(`no answer to ${what} within ${o.timeoutMs} ms: sending it again (retry ${attempt} of ${o.retries})`);
-      await ch.send(msg);
-      const got = await ch.waitFor((m) => match(m) as never, o.timeoutMs);
+      const got = await ch.request(msg, (m) => match(m) as never, o.timeoutMs);
       if (got) return got as T;
     }
     throw new LinkError(`The aircraft did not answer ${what} (${o.retries} retries of ${o.timeoutMs} ms); the mission could not be read back, so it is NOT ready.`);

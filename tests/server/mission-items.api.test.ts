@@ -2,7 +2,8 @@
  * MAVLink hand-off end to end: the mission-items route, the link's upload and read-back against a simulated aircraft
  * built on the independent `mavlink` npm package (tests/support/sim-vehicle.ts), and `npm run link` as a crew runs it.
  */
-import { execFile } from 'node:child_process';
+import { execFile, spawn } from 'node:child_process';
+import readline from 'node:readline';
 import { fileURLToPath } from 'node:url';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { LegSheet } from '../../contracts/flights';
@@ -165,6 +166,21 @@ describe('npm run link', () => {
     expect(r.stdout).toMatch(new RegExp(`Read back ${doc.items.length} items, each equal to what was sent`));
     expect(lines.at(-1)).toMatch(/^READY: version 1 of "Scar edge" is on the aircraft/);
     expect(r.stdout.indexOf('CAUTIONS FOR THIS PLAN')).toBeLessThan(r.stdout.indexOf('Uploaded'));
+    expect(sim.items).toHaveLength(doc.items.length);
+  });
+
+  it('uploads over a serial port (a pseudo-terminal bridged to the simulated aircraft) with the serialport package', async () => {
+    const sim = await startSimVehicle();
+    open.push(sim);
+    // Debian's python3 makes the terminal (tests/support/pty-udp-bridge.py); the link opens it as a serial port.
+    const bridge = spawn('/usr/bin/python3', [fileURLToPath(new URL('../support/pty-udp-bridge.py', import.meta.url)), String(sim.port)], { stdio: ['ignore', 'pipe', 'inherit'] });
+    open.push({ stop: () => bridge.kill() });
+    const tty: string = await new Promise((resolve) => readline.createInterface({ input: bridge.stdout! }).once('line', resolve));
+    expect(tty).toMatch(/^\/dev\/pts\/\d+$/);
+    const r = await runLink(['--server', srv.url, '--email', team.users.pilot.email, '--password', fixturePassword, '--version', signed.versionId, '--serial', tty, '--baud', '57600']);
+    expect(r.code, r.stderr + r.stdout).toBe(0);
+    expect(r.stdout).toMatch(new RegExp(`Waiting for the aircraft's heartbeat on serial ${tty} at 57600 baud`));
+    expect(r.stdout.trim().split('\n').at(-1)).toMatch(/^READY: version 1 of "Scar edge" is on the aircraft/);
     expect(sim.items).toHaveLength(doc.items.length);
   });
 
