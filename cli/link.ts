@@ -7,6 +7,7 @@
 import { parseLinkArgs, usage, UsageError, type LinkOptions } from './link/args';
 import { fetchMissionItems, LinkError, signIn } from './link/loftline-client';
 import { MavlinkChannel } from './link/mavlink-channel';
+import { followFlight } from './link/follow-flight';
 import { compareMission, downloadMission, uploadMission } from './link/mission-transfer';
 import { openTransport } from './link/transport';
 import { generalCautions } from '../contracts/cautions';
@@ -19,7 +20,7 @@ async function run(o: LinkOptions): Promise<void> {
   for (const c of generalCautions) out(`  - ${c}`);
   out(`Signing in to ${o.server} as ${o.email}`);
   const session = await signIn(o.server, o.email, o.password);
-  const doc = await fetchMissionItems(session, o.versionId);
+  const { doc, teamId } = await fetchMissionItems(session, o.versionId);
   out(`Version ${doc.version.number} of "${doc.version.planName}" (${doc.version.projectName}), signed off by ${doc.version.signedOffBy}${doc.version.signedOffAt ? ` on ${doc.version.signedOffAt}` : ''}`);
   out('CAUTIONS FOR THIS PLAN');
   for (const c of doc.cautions) out(`  - ${c}`);
@@ -47,6 +48,12 @@ async function run(o: LinkOptions): Promise<void> {
     }
     out(`Read back ${held.length} items, each equal to what was sent.`);
     out(`READY: version ${doc.version.number} of "${doc.version.planName}" is on the aircraft (${held.length} items, altitudes above the takeoff point).`);
+    if (o.follow) {
+      const stop = new AbortController();
+      process.once('SIGINT', () => stop.abort());
+      const n = await followFlight(ch, session, teamId, doc, log, stop.signal);
+      out(`Flight followed: ${n} photos recorded in Loftline.`);
+    }
   } finally {
     ch.stop();
     await transport.close();

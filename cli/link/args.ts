@@ -11,9 +11,11 @@ export interface LinkOptions {
   timeoutMs: number;
   /** Retries of one step before giving up. */
   retries: number;
+  /** After READY, stay and forward every photo the aircraft reports to Loftline until it has returned to launch. */
+  follow: boolean;
 }
 
-export const usage = `usage: npm run link -- --server URL --email E --password P --version ID (--udp HOST:PORT | --tcp HOST:PORT | --serial PATH [--baud N]) [--timeout-ms 1500] [--retries 5]
+export const usage = `usage: npm run link -- --server URL --email E --password P --version ID (--udp HOST:PORT | --tcp HOST:PORT | --serial PATH [--baud N]) [--timeout-ms 1500] [--retries 5] [--follow]
   The password may come from LOFTLINE_PASSWORD instead of --password.`;
 
 /** An option error, printed with the usage. */
@@ -29,8 +31,13 @@ function hostPort(flag: string, v: string): { host: string; port: number } {
 /** Parse argv (after `--`); `env` supplies LOFTLINE_PASSWORD. */
 export function parseLinkArgs(argv: string[], env: Record<string, string | undefined> = {}): LinkOptions {
   const values = new Map<string, string>();
+  let follow = false;
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
+    if (a === '--follow') {
+      follow = true;
+      continue;
+    }
     if (!a.startsWith('--')) throw new UsageError(`Unexpected argument "${a}".`);
     const eq = a.indexOf('=');
     const key = eq > 0 ? a.slice(2, eq) : a.slice(2);
@@ -66,5 +73,5 @@ export function parseLinkArgs(argv: string[], env: Record<string, string | undef
     if (!Number.isInteger(v) || v < min || v > max) throw new UsageError(`--${k} needs a whole number from ${min} to ${max}, got "${values.get(k)}".`);
     return v;
   };
-  return { server, email: need('email'), password, versionId: need('version'), connection, timeoutMs: int('timeout-ms', 1500, 50, 60_000), retries: int('retries', 5, 0, 50) };
+  return { server, email: need('email'), password, versionId: need('version'), connection, timeoutMs: int('timeout-ms', 1500, 50, 60_000), retries: int('retries', 5, 0, 50), follow };
 }

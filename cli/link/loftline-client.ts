@@ -1,10 +1,11 @@
 /** The link's side of the Loftline API: sign in with e-mail and password, then fetch a signed-off version's mission items. */
+import { recordedTriggersSchema, type FlightTrigger } from '../../contracts/flight-triggers';
 import { missionItemsSchema, type MissionItems } from '../../contracts/mission-items';
 
 /** A refusal or failure to show the crew as it is (one line). */
 export class LinkError extends Error {}
 
-interface Session {
+export interface Session {
   server: string;
   cookie: string;
 }
@@ -44,7 +45,7 @@ export async function signIn(server: string, email: string, password: string): P
  * The mission items of `versionId`, looked for in every team of the signed-in person. A version that is not signed off
  * is refused (409 for planners and surveyors; pilots never see it, so for them it is "not found").
  */
-export async function fetchMissionItems(s: Session, versionId: string): Promise<MissionItems> {
+export async function fetchMissionItems(s: Session, versionId: string): Promise<{ doc: MissionItems; teamId: string }> {
   const me = await call(s, 'GET', '/api/me');
   if (me.status !== 200) throw new LinkError(`Loftline did not answer who is signed in (${me.status}): ${errorText(me.body, me.status)}`);
   const teams = ((me.body as { teams?: Array<{ id: string }> }).teams ?? []).map((t) => t.id);
@@ -53,10 +54,17 @@ export async function fetchMissionItems(s: Session, versionId: string): Promise<
     if (r.status === 200) {
       const parsed = missionItemsSchema.safeParse(r.body);
       if (!parsed.success) throw new LinkError(`Loftline's mission items do not have the expected shape: ${parsed.error.message}`);
-      return parsed.data;
+      return { doc: parsed.data, teamId };
     }
     if (r.status === 409) throw new LinkError(`Refused: ${errorText(r.body, r.status)}`);
     if (r.status !== 404 && r.status !== 403) throw new LinkError(`Loftline refused the mission items (${r.status}): ${errorText(r.body, r.status)}`);
   }
   throw new LinkError(`Refused: no signed-off version ${versionId} in your teams. Only signed-off versions go to an aircraft; check the version id and that a surveyor has signed it off.`);
+}
+
+/** Send a batch of photos as flown; resolves with the sortie's total, throws LinkError when Loftline refuses it. */
+export async function recordTriggers(s: Session, teamId: string, versionId: string, sortie: string, triggers: FlightTrigger[]): Promise<{ stored: number; sortieTotal: number }> {
+  const r = await call(s, 'POST', `/api/teams/${encodeURIComponent(teamId)}/flights/${encodeURIComponent(versionId)}/triggers`, { sortie, triggers });
+  if (r.status !== 201) throw new LinkError(`Loftline did not take ${triggers.length} photos (${r.status}): ${errorText(r.body, r.status)}`);
+  return recordedTriggersSchema.parse(r.body);
 }

@@ -4,10 +4,10 @@
  * the link sends its own GCS heartbeat once a second in MAVLink 1 (which every MAVLink system reads), so a UDP peer
  * learns where to answer.
  */
-import { common, minimal, MavLinkPacketParser, MavLinkPacketSplitter, MavLinkProtocolV1, MavLinkProtocolV2, type MavLinkData, type MavLinkPacket, type MavLinkPacketRegistry, x25crc } from 'node-mavlink';
+import { ardupilotmega, common, minimal, MavLinkPacketParser, MavLinkPacketSplitter, MavLinkProtocolV1, MavLinkProtocolV2, type MavLinkData, type MavLinkPacket, type MavLinkPacketRegistry, x25crc } from 'node-mavlink';
 import type { Transport } from './transport';
 
-const REGISTRY: MavLinkPacketRegistry = { ...minimal.REGISTRY, ...common.REGISTRY };
+const REGISTRY: MavLinkPacketRegistry = { ...minimal.REGISTRY, ...common.REGISTRY, ...ardupilotmega.REGISTRY };
 
 /** A ground station's ids (255 / MAV_COMP_ID_MISSIONPLANNER 190: common practice for ground software). */
 export const GCS_SYSID = 255;
@@ -96,6 +96,15 @@ export class MavlinkChannel {
     const answer = this.waitFor(match, timeoutMs);
     await this.send(msg);
     return answer;
+  }
+
+  /** Every message from the aircraft, until the returned function is called. */
+  listen(cb: (m: Incoming) => void): () => void {
+    const l = (m: Incoming) => {
+      if (!this.target || (m.sysid === this.target.sysid && m.compid === this.target.compid)) cb(m);
+    };
+    this.listeners.add(l);
+    return () => this.listeners.delete(l);
   }
 
   /** Send GCS heartbeats once a second until `stop`. */
