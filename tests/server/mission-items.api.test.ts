@@ -4,6 +4,8 @@
  */
 import { execFile, spawn } from 'node:child_process';
 import crypto from 'node:crypto';
+import dgram from 'node:dgram';
+import net from 'node:net';
 import readline from 'node:readline';
 import { fileURLToPath } from 'node:url';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
@@ -182,6 +184,27 @@ describe('npm run link', () => {
     expect(r.code, r.stderr + r.stdout).toBe(0);
     expect(r.stdout).toMatch(new RegExp(`Waiting for the aircraft's heartbeat on serial ${tty} at 57600 baud`));
     expect(r.stdout.trim().split('\n').at(-1)).toMatch(/^READY: version 1 of "Scar edge" is on the aircraft/);
+    expect(sim.items).toHaveLength(doc.items.length);
+  });
+
+  it('uploads over TCP (a byte stream relayed to the simulated aircraft)', async () => {
+    const sim = await startSimVehicle();
+    open.push(sim);
+    // A TCP telemetry bridge: each connection gets a UDP socket of its own towards the aircraft.
+    const relay = net.createServer((conn) => {
+      const udp = dgram.createSocket('udp4');
+      udp.on('message', (b) => conn.write(b));
+      conn.on('data', (b) => udp.send(b, sim.port, '127.0.0.1'));
+      conn.on('close', () => udp.close());
+      conn.on('error', () => undefined);
+    });
+    await new Promise<void>((resolve) => relay.listen(0, '127.0.0.1', resolve));
+    open.push({ stop: () => new Promise<void>((resolve) => relay.close(() => resolve())) });
+    const port = (relay.address() as net.AddressInfo).port;
+    const r = await runLink(['--server', srv.url, '--email', team.users.pilot.email, '--password', fixturePassword, '--version', signed.versionId, '--tcp', `127.0.0.1:${port}`]);
+    expect(r.code, r.stderr + r.stdout).toBe(0);
+    expect(r.stdout).toMatch(new RegExp(`heartbeat on tcp 127\\.0\\.0\\.1:${port}`));
+    expect(r.stdout.trim().split('\n').at(-1)).toMatch(/^READY: /);
     expect(sim.items).toHaveLength(doc.items.length);
   });
 
