@@ -4,11 +4,12 @@ import type { UnitSystem } from '../../contracts/projects';
 import { formatLength, formatSpeed } from '../projects/units';
 import { BulletList } from '../reports/bullet-list';
 import { DownloadLink } from '../reports/download-link';
+import { formatDayTime } from '../projects/format-date';
 import { space } from '../theme';
 import { Banner, Card, Heading, Loading, Text } from '../ui';
 import { useMissionItems } from './use-mission-items';
 
-/** testIDs mission-items, mission-items-count, mission-items-line-N, mission-items-download. */
+/** testIDs mission-items, mission-items-count, mission-items-line-N, mission-items-recorded, mission-items-download. */
 export function MissionItemsCard(p: { teamId: string | undefined; versionId: string; signedOff: boolean; offline: boolean; units: UnitSystem }) {
   const h = useMissionItems(p.teamId, p.versionId, p.signedOff, p.offline);
   return (
@@ -29,6 +30,13 @@ export function MissionItemsCard(p: { teamId: string | undefined; versionId: str
               </Text>
             ))}
           </View>
+          <Text testID="mission-items-recorded">
+            {h.recorded === null
+              ? 'Photos recorded as flown: not known yet.'
+              : h.recorded.count === 0
+                ? 'No photos recorded as flown yet: run the link with --follow while the aircraft flies.'
+                : `Photos recorded as flown: ${h.recorded.count}, the last at ${formatDayTime(h.recorded.lastAt)}.`}
+          </Text>
           <Banner tone="caution" title="Before you upload">
             <BulletList items={h.cautions} tone="caution" />
           </Banner>

@@ -1,5 +1,6 @@
 /** A signed-off version's MAVLink mission items (GET /api/teams/:teamId/flights/:versionId/mission-items). */
 import { useQuery } from '@tanstack/react-query';
+import { triggerListSchema } from '../../contracts/flight-triggers';
 import { missionItemsSchema } from '../../contracts/mission-items';
 import { apiFetch } from '../api/api-fetch';
 import { flightKeys } from './flights.queries';
@@ -16,5 +17,15 @@ export function useMissionItemsQuery(teamId: string | undefined, versionId: stri
     enabled: Boolean(teamId) && enabled,
     // Items change only with their version.
     staleTime: Infinity,
+  });
+}
+
+/** Photos recorded as flown (the link's --follow), asked for again every 15 s while the sheet is open and online. */
+export function useFlightTriggersQuery(teamId: string | undefined, versionId: string, enabled: boolean) {
+  return useQuery({
+    queryKey: [...flightKeys.team(teamId ?? ''), 'triggers', versionId] as const,
+    queryFn: ({ signal }) => apiFetch(`/api/teams/${encodeURIComponent(teamId!)}/flights/${encodeURIComponent(versionId)}/triggers`, { schema: triggerListSchema, signal }),
+    enabled: Boolean(teamId) && enabled,
+    refetchInterval: enabled ? 15_000 : false,
   });
 }

@@ -1,7 +1,8 @@
-/** What the leg sheet's hand-off card shows: item count, altitude frame, trigger distance and speed per line, the download. */
+/** What the leg sheet's hand-off card shows: item count, altitude frame, trigger distance and speed per line, the download, photos recorded. */
 import type { MissionItems } from '../../contracts/mission-items';
+import type { FlightTrigger } from '../../contracts/flight-triggers';
 import { errorMessage } from '../api/api-error';
-import { missionItemsPath, useMissionItemsQuery } from './mission-items.queries';
+import { missionItemsPath, useFlightTriggersQuery, useMissionItemsQuery } from './mission-items.queries';
 
 export type MissionHandoff =
   | { kind: 'unavailable'; reason: string }
@@ -15,10 +16,12 @@ export type MissionHandoff =
       lines: MissionItems['lines'];
       cautions: string[];
       downloadHref: string;
+      /** Photos the link has recorded as flown (null until known). */
+      recorded: { count: number; lastAt: string | null } | null;
     };
 
 /** Pure: the card's state from the sheet's facts and the query's. */
-export function missionHandoffOf(q: { signedOff: boolean; offline: boolean; teamId: string | undefined; versionId: string; data?: MissionItems; error?: unknown; loading: boolean }): MissionHandoff {
+export function missionHandoffOf(q: { signedOff: boolean; offline: boolean; teamId: string | undefined; versionId: string; data?: MissionItems; error?: unknown; loading: boolean; triggers?: FlightTrigger[] }): MissionHandoff {
   if (!q.signedOff) return { kind: 'unavailable', reason: 'Mission items are made from signed-off versions only.' };
   if (q.data && q.teamId) {
     return {
@@ -29,6 +32,7 @@ export function missionHandoffOf(q: { signedOff: boolean; offline: boolean; team
       lines: q.data.lines,
       cautions: q.data.cautions,
       downloadHref: missionItemsPath(q.teamId, q.versionId, true),
+      recorded: q.triggers ? { count: q.triggers.length, lastAt: q.triggers.reduce<string | null>((a, t) => (a === null || t.capturedAt > a ? t.capturedAt : a), null) } : null,
     };
   }
   if (q.offline) return { kind: 'unavailable', reason: 'Mission items need the connection back.' };
@@ -39,5 +43,6 @@ export function missionHandoffOf(q: { signedOff: boolean; offline: boolean; team
 /** The hand-off card's state for one version of the sheet. */
 export function useMissionItems(teamId: string | undefined, versionId: string, signedOff: boolean, offline: boolean): MissionHandoff {
   const q = useMissionItemsQuery(teamId, versionId, signedOff && !offline);
-  return missionHandoffOf({ signedOff, offline, teamId, versionId, data: q.data, error: q.error, loading: q.isLoading });
+  const t = useFlightTriggersQuery(teamId, versionId, signedOff && !offline);
+  return missionHandoffOf({ signedOff, offline, teamId, versionId, data: q.data, error: q.error, loading: q.isLoading, triggers: t.data?.triggers });
 }

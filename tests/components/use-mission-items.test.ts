@@ -17,6 +17,13 @@ describe('the leg sheet hand-off card state', () => {
     expect(h).toMatchObject({ kind: 'ready', itemCount: 3, frameName: 'MAV_FRAME_GLOBAL_RELATIVE_ALT_INT', downloadHref: '/api/teams/t1/flights/v%201/mission-items?download=1' });
   });
 
+  it('counts the photos recorded as flown and names the latest', () => {
+    const t = (capturedAt: string) => ({ imageIndex: 0, lat: 0, lon: 0, altitudeAboveTakeoffM: 0, altitudeMslM: 0, rollDeg: 0, pitchDeg: 0, yawDeg: 0, capturedAt });
+    const h = missionHandoffOf({ ...base, data, triggers: [t('2026-12-02T10:00:05Z'), t('2026-12-02T10:00:09Z'), t('2026-12-02T10:00:01Z')] });
+    expect(h).toMatchObject({ recorded: { count: 3, lastAt: '2026-12-02T10:00:09Z' } });
+    expect(missionHandoffOf({ ...base, data })).toMatchObject({ recorded: null });
+  });
+
   it('offers nothing for a version that is not signed off, even with data at hand', () => {
     expect(missionHandoffOf({ ...base, signedOff: false, data }).kind).toBe('unavailable');
   });
