@@ -8,7 +8,7 @@ import { parseLinkArgs, usage, UsageError, type LinkOptions } from './link/args'
 import { fetchMissionItems, LinkError, signIn } from './link/loftline-client';
 import { MavlinkChannel } from './link/mavlink-channel';
 import { followFlight } from './link/follow-flight';
-import { compareMission, downloadMission, uploadMission } from './link/mission-transfer';
+import { compareMission, downloadMission, uploadMission, withHomeItem } from './link/mission-transfer';
 import { openTransport } from './link/transport';
 import { generalCautions } from '../contracts/cautions';
 
@@ -37,21 +37,24 @@ async function run(o: LinkOptions): Promise<void> {
     if (!target) throw new LinkError(`No MAVLink heartbeat from an aircraft on ${transport.label}; check the connection, the port and the baud rate. Nothing was uploaded.`);
     out(`Aircraft: system ${target.sysid}, component ${target.compid}, MAVLink ${target.version}`);
     const log = (line: string) => out(`  ${line}`);
-    const up = await uploadMission(ch, doc.items, { timeoutMs: o.timeoutMs, retries: o.retries, log });
-    out(`Uploaded ${doc.items.length} items; the aircraft acknowledged them (MAV_MISSION_ACCEPTED)${up.resent ? `, ${up.resent} messages sent again after timeouts` : ''}`);
+    const items = o.homeItem ? withHomeItem(doc.items, doc.altitude.takeoff) : doc.items;
+    if (o.homeItem) out('Item 0 is a placeholder for the autopilot\'s home position (--home-item); the plan starts at item 1.');
+    const up = await uploadMission(ch, items, { timeoutMs: o.timeoutMs, retries: o.retries, log });
+    out(`Uploaded ${items.length} items; the aircraft acknowledged them (MAV_MISSION_ACCEPTED)${up.resent ? `, ${up.resent} messages sent again after timeouts` : ''}`);
     out('Reading the mission back');
     const held = await downloadMission(ch, { timeoutMs: o.timeoutMs, retries: o.retries, log });
-    const diffs = compareMission(doc.items, held);
+    const diffs = compareMission(items, held, o.homeItem ? 1 : 0);
     if (diffs.length) {
       for (const d of diffs.slice(0, 20)) out(`  MISMATCH ${d}`);
-      throw new LinkError(`The mission read back from the aircraft differs from version ${doc.version.number} in ${diffs.length} places: NOT ready. Clear the mission on the aircraft and run the link again.`);
+      const hint = !o.homeItem && diffs.some((d) => d.startsWith('item 0 ')) ? ' If the autopilot keeps its home position as item 0 (ArduPilot does), run the link again with --home-item.' : '';
+      throw new LinkError(`The mission read back from the aircraft differs from version ${doc.version.number} in ${diffs.length} places: NOT ready. Clear the mission on the aircraft and run the link again.${hint}`);
     }
-    out(`Read back ${held.length} items, each equal to what was sent.`);
+    out(`Read back ${held.length} items, each equal to what was sent${o.homeItem ? ' (item 0 is the autopilot\'s home)' : ''}.`);
     out(`READY: version ${doc.version.number} of "${doc.version.planName}" is on the aircraft (${held.length} items, altitudes above the takeoff point).`);
     if (o.follow) {
       const stop = new AbortController();
       process.once('SIGINT', () => stop.abort());
-      const n = await followFlight(ch, session, teamId, doc, log, stop.signal);
+      const n = await followFlight(ch, session, teamId, doc, items.length - 1, log, stop.signal);
       out(`Flight followed: ${n} photos recorded in Loftline.`);
     }
   } finally {

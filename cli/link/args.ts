@@ -13,9 +13,11 @@ export interface LinkOptions {
   retries: number;
   /** After READY, stay and forward every photo the aircraft reports to Loftline until it has returned to launch. */
   follow: boolean;
+  /** The autopilot keeps its home position as item 0 (ArduPilot's convention): send a placeholder there. */
+  homeItem: boolean;
 }
 
-export const usage = `usage: npm run link -- --server URL --email E --password P --version ID (--udp HOST:PORT | --tcp HOST:PORT | --serial PATH [--baud N]) [--timeout-ms 1500] [--retries 5] [--follow]
+export const usage = `usage: npm run link -- --server URL --email E --password P --version ID (--udp HOST:PORT | --tcp HOST:PORT | --serial PATH [--baud N]) [--timeout-ms 1500] [--retries 5] [--follow] [--home-item]
   The password may come from LOFTLINE_PASSWORD instead of --password.`;
 
 /** An option error, printed with the usage. */
@@ -32,10 +34,12 @@ function hostPort(flag: string, v: string): { host: string; port: number } {
 export function parseLinkArgs(argv: string[], env: Record<string, string | undefined> = {}): LinkOptions {
   const values = new Map<string, string>();
   let follow = false;
+  let homeItem = false;
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
-    if (a === '--follow') {
-      follow = true;
+    if (a === '--follow' || a === '--home-item') {
+      if (a === '--follow') follow = true;
+      else homeItem = true;
       continue;
     }
     if (!a.startsWith('--')) throw new UsageError(`Unexpected argument "${a}".`);
@@ -73,5 +77,5 @@ export function parseLinkArgs(argv: string[], env: Record<string, string | undef
     if (!Number.isInteger(v) || v < min || v > max) throw new UsageError(`--${k} needs a whole number from ${min} to ${max}, got "${values.get(k)}".`);
     return v;
   };
-  return { server, email: need('email'), password, versionId: need('version'), connection, timeoutMs: int('timeout-ms', 1500, 50, 60_000), retries: int('retries', 5, 0, 50), follow };
+  return { server, email: need('email'), password, versionId: need('version'), connection, timeoutMs: int('timeout-ms', 1500, 50, 60_000), retries: int('retries', 5, 0, 50), follow, homeItem };
 }

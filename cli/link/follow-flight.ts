@@ -27,9 +27,8 @@ export function triggerOf(m: InstanceType<typeof ardupilotmega.CameraFeedback>, 
   };
 }
 
-export async function followFlight(ch: MavlinkChannel, s: Session, teamId: string, doc: MissionItems, log: (line: string) => void, signal?: AbortSignal): Promise<number> {
+export async function followFlight(ch: MavlinkChannel, s: Session, teamId: string, doc: MissionItems, lastSeq: number, log: (line: string) => void, signal?: AbortSignal): Promise<number> {
   const sortie = crypto.randomUUID();
-  const lastSeq = doc.items.length - 1;
   const queue: FlightTrigger[] = [];
   let recorded = 0;
   let landed = false;

@@ -119,15 +119,41 @@ export async function downloadMission(ch: MavlinkChannel, o: TransferOptions): P
   return out;
 }
 
-/** Differences between what was meant and what the aircraft holds (floats compared as the float32 they travel as). */
-export function compareMission(want: MissionItem[], got: InstanceType<typeof MissionItemInt>[]): string[] {
+/**
+ * The items with a placeholder for the home position in front (seq 0, at the takeoff point, 0 m above it), for
+ * autopilots that keep home as item 0 and overwrite whatever is sent there (ArduPilot's convention).
+ */
+export function withHomeItem(items: MissionItem[], takeoff: { lon: number; lat: number }): MissionItem[] {
+  const first = items[0];
+  const home: MissionItem = {
+    ...first,
+    seq: 0,
+    command: common.MavCmd.NAV_WAYPOINT,
+    frame: common.MavFrame.GLOBAL_RELATIVE_ALT_INT,
+    param1: 0,
+    param2: 0,
+    param3: 0,
+    param4: null,
+    x: Math.round(takeoff.lat * 1e7),
+    y: Math.round(takeoff.lon * 1e7),
+    z: 0,
+    about: { kind: 'home', commandName: 'MAV_CMD_NAV_WAYPOINT', frameName: 'MAV_FRAME_GLOBAL_RELATIVE_ALT_INT', line: null, leg: null },
+  };
+  return [home, ...items.map((i) => ({ ...i, seq: i.seq + 1 }))];
+}
+
+/**
+ * Differences between what was meant and what the aircraft holds (floats compared as the float32 they travel as).
+ * `from` skips leading items the autopilot owns (its home position as item 0).
+ */
+export function compareMission(want: MissionItem[], got: InstanceType<typeof MissionItemInt>[], from = 0): string[] {
   const diffs: string[] = [];
   if (got.length !== want.length) diffs.push(`the aircraft holds ${got.length} items, ${want.length} were sent`);
   const f32 = (v: number) => Math.fround(v);
   const same = (a: number, b: number) => (Number.isNaN(a) && Number.isNaN(b)) || a === b;
   want.forEach((w, i) => {
     const g = got[i];
-    if (!g) return;
+    if (!g || i < from) return;
     const fields: Array<[string, number, number]> = [
       ['seq', w.seq, g.seq],
       ['frame', w.frame, g.frame],

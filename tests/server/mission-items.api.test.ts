@@ -266,6 +266,28 @@ describe('npm run link', () => {
     expect(bad.body.error.message).toMatch(/^triggers\.0\.lat/);
   });
 
+  it('knows autopilots that keep home as item 0: the read-back names the mismatch, and --home-item sends a placeholder there', async () => {
+    const takeoff = doc.altitude.takeoff;
+    const homeAtZero = { lat: takeoff.lat + 2e-5, lon: takeoff.lon, altMslM: 211.4 };
+    const plain = await startSimVehicle({ homeAtZero });
+    open.push(plain);
+    const args = (port: number) => ['--server', srv.url, '--email', team.users.pilot.email, '--password', fixturePassword, '--version', signed.versionId, '--udp', `127.0.0.1:${port}`];
+    const refused = await runLink(args(plain.port));
+    expect(refused.code).toBe(1);
+    expect(refused.stdout).toMatch(/MISMATCH item 0 frame: sent 6, the aircraft holds 0/);
+    expect(refused.stderr).toMatch(/differs from version 1 in \d+ places: NOT ready\..*run the link again with --home-item\./);
+    expect(refused.stdout).not.toMatch(/READY/);
+
+    const sim = await startSimVehicle({ homeAtZero });
+    open.push(sim);
+    const r = await runLink([...args(sim.port), '--home-item']);
+    expect(r.code, r.stderr + r.stdout).toBe(0);
+    expect(r.stdout).toMatch(/Read back \d+ items, each equal to what was sent \(item 0 is the autopilot's home\)\./);
+    expect(sim.items).toHaveLength(doc.items.length + 1);
+    expect(sim.items[1].command).toBe(enumValue(sim.codec, 'MAV_CMD_NAV_TAKEOFF'));
+    expect(sim.items.slice(1).map((i) => [i.command, i.x, i.y])).toEqual(doc.items.map((i) => [i.command, i.x, i.y]));
+  });
+
   it('refuses a version that is not signed off and uploads nothing', async () => {
     const sim = await startSimVehicle();
     open.push(sim);

@@ -52,6 +52,11 @@ export interface SimVehicleOptions {
   compid?: number;
   /** Ignore the first MISSION_ITEM_INT with each of these seq numbers (as if it were lost on the way). */
   dropItemsOnce?: number[];
+  /**
+   * Keep the home position as item 0 whatever is sent there, as ArduPilot does: item 0 is stored as a NAV_WAYPOINT in
+   * MAV_FRAME_GLOBAL at this place and height above mean sea level, and flying starts at item 1.
+   */
+  homeAtZero?: { lat: number; lon: number; altMslM: number };
 }
 
 export interface SimVehicle {
@@ -122,7 +127,7 @@ export async function startSimVehicle(o: SimVehicleOptions = {}): Promise<SimVeh
           break;
         }
         if (f.seq !== expected) break;
-        v.items[f.seq] = f;
+        v.items[f.seq] = f.seq === 0 && o.homeAtZero ? { ...f, frame: 0, command: 16, x: Math.round(o.homeAtZero.lat * 1e7), y: Math.round(o.homeAtZero.lon * 1e7), z: o.homeAtZero.altMslM } : f;
         expected++;
         if (expected < uploadCount) requestItem(expected);
         else send('MISSION_ACK', { target_system: gcs.sysid, target_component: gcs.compid, type: 0 });
@@ -145,7 +150,7 @@ export async function startSimVehicle(o: SimVehicleOptions = {}): Promise<SimVeh
     // MAV_TYPE_QUADROTOR 2, MAV_AUTOPILOT_GENERIC 0, MAV_STATE_STANDBY 3 (common.xml).
     if (peer) send('HEARTBEAT', { type: 2, autopilot: 0, base_mode: 0, custom_mode: 0, system_status: 3, mavlink_version: 3 });
   }, 200);
-  v.fly = (f = {}) => flyMission(v, send, rx, f);
+  v.fly = (f = {}) => flyMission(v, send, rx, f, o.homeAtZero ? 1 : 0);
   let stopped = false;
   v.stop = async () => {
     if (stopped) return;
@@ -177,7 +182,7 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
  * GLOBAL_POSITION_INT and ATTITUDE, each photo CAMERA_FEEDBACK, each NAV item reached MISSION_ITEM_REACHED. The
  * reported position carries a steady wind drift off the track, and the yaw a crab angle.
  */
-async function flyMission(v: SimVehicle, send: (name: string, data: Record<string, unknown>) => void, codec: MavlinkType, f: FlightOptions): Promise<void> {
+async function flyMission(v: SimVehicle, send: (name: string, data: Record<string, unknown>) => void, codec: MavlinkType, f: FlightOptions, firstSeq: number): Promise<void> {
   const cmd = (name: string) => enumValue(codec, name);
   const home = { lat: v.items[0].x / 1e7, lon: v.items[0].y / 1e7 };
   const mPerDeg = metresPerDeg(home.lat);
@@ -238,7 +243,7 @@ async function flyMission(v: SimVehicle, send: (name: string, data: Record<strin
     alt = toAlt;
   };
   try {
-    for (const item of v.items) {
+    for (const item of v.items.slice(firstSeq)) {
       if (item.command === cmd('MAV_CMD_NAV_TAKEOFF')) {
         alt = item.z;
         await tick();
