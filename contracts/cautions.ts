@@ -41,3 +41,18 @@ export function flightCautions(f: CautionFacts): string[] {
 
 /** One line to stamp on exports and sheets that are not signed off. */
 export const notSignedOffCaution = 'NOT SIGNED OFF: this version has not been signed off by a surveyor and is not for flight.';
+
+/**
+ * Cautions for a plan handed to an autopilot as MAVLink mission items: the plan's own, then what the hand-off adds
+ * (the autopilot's home as the altitude reference, unplanned transits), ending with the same closing rule.
+ */
+export function missionCautions(f: CautionFacts): string[] {
+  const plan = flightCautions(f).filter((c) => c !== regulationsCaution);
+  return [
+    ...plan,
+    'Mission item altitudes are relative to the home position the autopilot records when it arms (MAV_FRAME_GLOBAL_RELATIVE_ALT_INT): arm at the planned takeoff point, or every altitude shifts by the height difference between the two spots.',
+    'From takeoff to the first line, between lines and on the return the aircraft flies straight at the altitude of the item it heads for; the plan checks the ground under its lines only, not under these transits.',
+    'Check the uploaded mission on the autopilot (its count, the first and last waypoints) before arming; the link reads it back but cannot see what the autopilot does with it.',
+    regulationsCaution,
+  ];
+}

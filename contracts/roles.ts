@@ -23,6 +23,8 @@ export const permissionTable = {
   'report:read': ['owner', 'planner', 'surveyor'],
   /** Signed-off versions, their leg sheets and exports: the only thing a pilot sees. */
   'flight:read': ['owner', 'planner', 'surveyor', 'pilot'],
+  /** Photos as flown, sent by the link from the aircraft (the crew flying it). */
+  'flight:record': ['owner', 'pilot'],
   'outbox:read': ['owner'],
 } as const satisfies Record<string, readonly Role[]>;
 

@@ -7,6 +7,7 @@ import { siteRouteGroup } from './sites/sites.routes';
 import { planRouteGroup } from './plans/plans.routes';
 import { registerExportRoutes } from './exports/exports.routes';
 import { registerFlightRoutes } from './flights/flights.routes';
+import { registerMissionItemRoutes } from './mission-items/mission-items.routes';
 import { registerInvitationRoutes } from './invitations/invitations.routes';
 import { registerOutboxRoutes } from './mail/outbox.routes';
 import { registerReportRoutes } from './reports/reports.routes';
@@ -25,4 +26,5 @@ export const routeGroups: RouteGroup[] = [
   registerInvitationRoutes,
   registerFlightRoutes,
   registerExportRoutes,
+  registerMissionItemRoutes,
 ];

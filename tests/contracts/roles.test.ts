@@ -26,9 +26,9 @@ describe('role rules', () => {
     for (const p of ['project:write', 'site:write', 'plan:write', 'plan:run'] as const) expect(can('surveyor', p)).toBe(false);
   });
 
-  it('gives pilots only signed-off flights and the team name', () => {
+  it('gives pilots only signed-off flights, the photos they record flying them, and the team name', () => {
     const pilotCan = permissions.filter((p) => can('pilot', p));
-    expect(pilotCan.sort()).toEqual(['flight:read', 'team:read']);
+    expect(pilotCan.sort()).toEqual(['flight:read', 'flight:record', 'team:read']);
   });
 
   it('refuses a missing role', () => {

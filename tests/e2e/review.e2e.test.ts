@@ -188,6 +188,13 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
       for (const f of ['geojson', 'kml', 'gpx', 'csv']) {
         await expect(page.getByTestId(`export-${f}`).getAttribute('href')).resolves.toBe(`/api/teams/${teamId}/plans/${version.planId}/versions/${version.versionId}/export.${f}`);
       }
+      // The autopilot hand-off card: the item count of the mission-items route, trigger distance and speed per line, the JSON.
+      const mission = (await clients.pilot.get(`/api/teams/${teamId}/flights/${version.versionId}/mission-items`)).body;
+      await page.getByTestId('mission-items-count').waitFor();
+      await expect(page.getByTestId('mission-items-count').textContent()).resolves.toContain(`${mission.items.length} items. Altitudes in MAV_FRAME_GLOBAL_RELATIVE_ALT_INT`);
+      await expect(page.getByTestId('mission-items-line-1').textContent()).resolves.toMatch(/^Line 1: a photo every .+ at .+ \(\d+ photos, items \d+–\d+\)$/);
+      await page.getByTestId('mission-items-recorded').filter({ hasText: 'No photos recorded as flown yet' }).waitFor();
+      await expect(page.getByTestId('mission-items-download').getAttribute('href')).resolves.toBe(`/api/teams/${teamId}/flights/${version.versionId}/mission-items?download=1`);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
       await shootWhole(page, 'phone-leg-sheet.png');
 
