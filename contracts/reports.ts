@@ -98,6 +98,8 @@ export const complianceReportSchema = z.object({
     signedOffBy: z.string().nullable(),
     signedOffAt: z.string().nullable(),
     statement: z.string(),
+    /** Requirements unmet at sign-off, each with the surveyor's reason (empty when all were met). */
+    reasons: z.array(z.object({ key: z.string(), label: z.string(), required: z.string(), achieved: z.string(), reason: z.string() })),
   }),
   /** How the 5th percentile and median are computed. */
   percentileMethod: z.string(),

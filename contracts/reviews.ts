@@ -50,6 +50,26 @@ export const reviewNoteSchema = z.object({
 });
 export type ReviewNote = z.infer<typeof reviewNoteSchema>;
 
+/** One unmet requirement of the client's spec, as the compliance report words it (key as in the report's checks). */
+export const unmetRequirementSchema = z.object({ key: z.string(), label: z.string(), required: z.string(), achieved: z.string() });
+export type UnmetRequirement = z.infer<typeof unmetRequirementSchema>;
+
+/** The surveyor's reason for signing off although one requirement is unmet; printed in the report and its PDF. */
+export const signOffReasonSchema = z.object({
+  key: z.string().trim().min(1).max(40),
+  reason: userText({ error: 'Say why this version may fly although the requirement is unmet.' })
+    .trim()
+    .min(10, 'Give a reason of at least 10 characters: it is printed in the report under your name.')
+    .max(1000, 'Keep each reason under 1000 characters.'),
+});
+export type SignOffReason = z.infer<typeof signOffReasonSchema>;
+
+/** Body of POST .../sign-off: the optional note, and a reason for each requirement the version does not meet. */
+export const signOffSchema = reviewNoteSchema.extend({
+  reasons: z.array(signOffReasonSchema).max(20).optional(),
+});
+export type SignOffBody = z.infer<typeof signOffSchema>;
+
 /** Body of POST .../return: the surveyor must say what to change. */
 export const returnSchema = z.object({
   comment: userText({ error: 'Say what the planner should change.' })
@@ -81,6 +101,10 @@ export const versionReviewSchema = z.object({
   signedOffAt: z.string().nullable(),
   /** The actions the caller's role may take next. */
   allowedActions: z.array(reviewActionSchema),
+  /** While in review: the spec's requirements the version does not meet (signing off needs a reason for each). */
+  unmet: z.array(unmetRequirementSchema),
+  /** Once signed off: the reasons given for the unmet requirements. */
+  signOffReasons: z.array(signOffReasonSchema.extend({ label: z.string() })),
   notification: notificationSchema.optional(),
 });
 export type VersionReview = z.infer<typeof versionReviewSchema>;

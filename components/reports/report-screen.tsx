@@ -8,7 +8,7 @@ import { ReviewPanel } from '../reviews/review-panel';
 import { reviewStateTones } from '../reviews/review-state';
 import { RequirePermission } from '../team/require-permission';
 import { space } from '../theme';
-import { Badge, Banner, Card, Heading, Loading, Screen, Text, TextLink } from '../ui';
+import { Badge, Banner, Card, Heading, List, Loading, Screen, Text, TextLink } from '../ui';
 import { BulletList } from './bullet-list';
 import { DownloadLink } from './download-link';
 import { FigureGrid } from './figure-grid';
@@ -119,6 +119,23 @@ function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref:
           testID="sign-off"
         />
         <Text>{r.signOff.statement}</Text>
+        {r.signOff.reasons.length ? (
+          <View style={styles.reasons} testID="sign-off-reasons">
+            <Text variant="bodyStrong" tone="caution">
+              Signed off although these requirements are unmet — the surveyor's reasons:
+            </Text>
+            <List label="Reasons for unmet requirements">
+              {r.signOff.reasons.map((x) => (
+                <View key={x.key} testID={`sign-off-reason-${x.key}`}>
+                  <Text variant="bodyStrong">
+                    {x.label} (required {x.required}; achieved {x.achieved})
+                  </Text>
+                  <Text>{x.reason}</Text>
+                </View>
+              ))}
+            </List>
+          </View>
+        ) : null}
         <Text variant="label" tone="muted">
           Report generated {formatDayTime(r.generatedAt)}.
         </Text>
@@ -135,4 +152,5 @@ function withSource(rule: string, source: string): string {
 const styles = StyleSheet.create({
   topLine: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
   section: { gap: space.md },
+  reasons: { gap: space.sm },
 });

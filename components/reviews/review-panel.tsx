@@ -80,6 +80,28 @@ export function ReviewPanel({ projectId, planId, versionId, analysisDone = true,
                 autoFocus
                 testID="review-comment"
               />
+              {p.unmet.length ? (
+                <View style={styles.form} testID="review-reasons">
+                  <Banner
+                    tone="caution"
+                    title={`This version does not meet ${p.unmet.length === 1 ? 'one requirement' : `${p.unmet.length} requirements`} of the spec`}
+                    message="Signing off anyway needs a reason for each, printed in the report and its PDF under your name. Otherwise, return the version to the planner."
+                  />
+                  {p.unmet.map((u) => (
+                    <TextField
+                      key={u.key}
+                      label={`Reason: ${u.label}`}
+                      hint={`Required ${u.required}; achieved ${u.achieved}.`}
+                      value={p.reasons[u.key] ?? ''}
+                      onChangeText={(t) => p.setReason(u.key, t)}
+                      error={p.reasonErrors[u.key]}
+                      multiline
+                      numberOfLines={2}
+                      testID={`review-reason-${u.key}`}
+                    />
+                  ))}
+                </View>
+              ) : null}
               <View style={styles.buttons}>
                 <Button
                   label={commentLabels[p.open].confirm}

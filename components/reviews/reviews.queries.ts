@@ -1,6 +1,6 @@
 /** Review status of a plan version, the plan's audit trail, and the review actions (submit, sign off, return). */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { auditTrailSchema, versionReviewSchema, type ReviewAction, type VersionReview } from '../../contracts/reviews';
+import { auditTrailSchema, versionReviewSchema, type ReviewAction, type VersionReview, type SignOffReason } from '../../contracts/reviews';
 import { apiFetch } from '../api/api-fetch';
 
 /** Query keys for reviews, per team. */
@@ -39,10 +39,10 @@ export function useAuditTrail(teamId: string | undefined, planId: string | undef
 export function useReviewAction(teamId: string, planId: string, versionId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ action, comment }: { action: ReviewAction; comment?: string }) =>
+    mutationFn: ({ action, comment, reasons }: { action: ReviewAction; comment?: string; reasons?: SignOffReason[] }) =>
       apiFetch(`${versionApiPath(teamId, planId, versionId)}/${action}`, {
         method: 'POST',
-        body: comment ? { comment } : {},
+        body: { ...(comment ? { comment } : {}), ...(reasons?.length ? { reasons } : {}) },
         schema: versionReviewSchema,
       }),
     onSuccess: (review: VersionReview) => {

@@ -1,6 +1,6 @@
 /** State of the review panel: the version's status and trail, which action form is open, and sending the action. */
 import { useState } from 'react';
-import { returnSchema, reviewNoteSchema, type Notification, type ReviewAction } from '../../contracts/reviews';
+import { returnSchema, reviewNoteSchema, signOffReasonSchema, type Notification, type ReviewAction } from '../../contracts/reviews';
 import { errorMessage } from '../api/api-error';
 import { useCurrentTeam } from '../team/current-team-context';
 import { useAuditTrail, useReviewAction, useVersionReview } from './reviews.queries';
@@ -17,6 +17,10 @@ export function useReviewPanel({ planId, versionId }: ReviewPanelIds) {
   const [open, setOpen] = useState<ReviewAction | null>(null);
   const [comment, setComment] = useState('');
   const [commentError, setCommentError] = useState<string | null>(null);
+  // One reason per unmet requirement (keyed by the report's check key), required before a failing version is signed off.
+  const [reasons, setReasons] = useState<Record<string, string>>({});
+  const [reasonErrors, setReasonErrors] = useState<Record<string, string>>({});
+  const unmet = open === 'sign-off' ? (status.data?.unmet ?? []) : [];
   const [refusal, setRefusal] = useState<string | null>(null);
   const [notification, setNotification] = useState<Notification | null>(null);
 
@@ -24,6 +28,8 @@ export function useReviewPanel({ planId, versionId }: ReviewPanelIds) {
     setOpen(action);
     setComment('');
     setCommentError(null);
+    setReasons({});
+    setReasonErrors({});
     setRefusal(null);
     setNotification(null);
   };
@@ -42,9 +48,20 @@ export function useReviewPanel({ planId, versionId }: ReviewPanelIds) {
       return;
     }
     setCommentError(null);
+    const errorsByKey: Record<string, string> = {};
+    for (const u of unmet) {
+      const r = signOffReasonSchema.safeParse({ key: u.key, reason: reasons[u.key] ?? '' });
+      if (!r.success) errorsByKey[u.key] = r.error.issues[0]?.message ?? 'Give a reason.';
+    }
+    setReasonErrors(errorsByKey);
+    if (Object.keys(errorsByKey).length) return;
     setRefusal(null);
     try {
-      const out = await act.mutateAsync({ action: open, comment: parsed.data.comment || undefined });
+      const out = await act.mutateAsync({
+        action: open,
+        comment: parsed.data.comment || undefined,
+        reasons: unmet.map((u) => ({ key: u.key, reason: reasons[u.key]!.trim() })),
+      });
       setNotification(out.notification ?? null);
       setOpen(null);
       setComment('');
@@ -63,6 +80,10 @@ export function useReviewPanel({ planId, versionId }: ReviewPanelIds) {
     comment,
     setComment,
     commentError,
+    unmet,
+    reasons,
+    setReason: (key: string, text: string) => setReasons((r) => ({ ...r, [key]: text })),
+    reasonErrors,
     refusal,
     notification,
     busy: act.isPending,

@@ -109,6 +109,8 @@ export const planVersion = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     signedOffBy: text('signed_off_by').references(() => user.id, { onDelete: 'set null' }),
     signedOffAt: timestamp('signed_off_at', { withTimezone: true }),
+    /** Why the surveyor signed off although requirements were unmet: one reason per unmet requirement (check key). */
+    signOffReasons: jsonb('sign_off_reasons').$type<{ key: string; reason: string }[]>(),
   },
   (t) => [uniqueIndex('plan_version_number_uq').on(t.planId, t.number), index('plan_version_team_idx').on(t.teamId, t.reviewState)],
 );

@@ -92,6 +92,23 @@ function specChecks(m: Mission, o: StationStats, lineCount: number, band: [numbe
   ];
 }
 
+/** The spec's requirements as checked against an analysed version's results (the report's "Spec against results"). */
+export function requirementChecks(v: VersionRecord): SpecCheck[] {
+  const mission = readMission(v.input);
+  const view = readResult(v.result);
+  const band = gsdBandCm(mission);
+  const overall = stationStats(view.lines.flatMap((l) => l.stations), band, view.lines.flatMap((l) => l.legs));
+  return specChecks(mission, overall, view.lines.length, band);
+}
+
+/** The reasons stored with a sign-off, each beside the requirement it answers. */
+function signOffReasons(v: VersionRecord, checks: SpecCheck[]): ComplianceReport['signOff']['reasons'] {
+  return (v.signOffReasons ?? []).map((r) => {
+    const c = checks.find((x) => x.key === r.key);
+    return { key: r.key, label: c?.label ?? r.key, required: c?.required ?? '', achieved: c?.achieved ?? '', reason: r.reason };
+  });
+}
+
 /** The whole report; `now` is injected so the document can be reproduced. */
 export function buildReport(v: VersionRecord, now: Date = new Date()): ComplianceReport {
   const mission = readMission(v.input);
@@ -100,6 +117,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
   const band = gsdBandCm(mission);
   const all = view.lines.flatMap((l) => l.stations);
   const overall = stationStats(all, band, view.lines.flatMap((l) => l.legs));
+  const checks = specChecks(mission, overall, view.lines.length, band);
   const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
   const basis = overall.gsdCm.median;
   const state = reviewStateSchema.parse(v.reviewState);
@@ -133,7 +151,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       photoCount: view.summary.photoCount ?? all.length,
       flightTimeS: view.summary.flightTimeS ?? null,
     },
-    checks: specChecks(mission, overall, view.lines.length, band),
+    checks,
     lines: view.lines.map((line, i) => ({
       number: i + 1,
       ...stationStats(line.stations, band, line.legs),
@@ -181,6 +199,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
         state === 'signed_off'
           ? `Signed off by ${v.signedOffByName ?? '(former member)'} on ${fmt.utc(signedAt)}. Version ${v.number} is locked.`
           : `Not signed off (state: ${state.replace('_', ' ')}). This report is for review only.`,
+      reasons: state === 'signed_off' ? signOffReasons(v, checks) : [],
     },
     percentileMethod,
     generatedAt: now.toISOString(),

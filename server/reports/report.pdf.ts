@@ -88,6 +88,14 @@ export async function renderReportPdf(r: ComplianceReport): Promise<Buffer> {
   doc.font('Inter-Bold').fontSize(10).fillColor(r.signOff.state === 'signed_off' ? '#1f5130' : '#8a4b00').text(r.signOff.statement);
   doc.font('Inter').fontSize(9).fillColor('#1b1e21');
   doc.text(`Signed off by: ${r.signOff.signedOffBy ?? '–'}    Date: ${fmt.utc(r.signOff.signedOffAt)}    Version: ${r.version.number}`);
+  if (r.signOff.reasons.length) {
+    // A client reading "DOES NOT MEET" under a signature sees, beside it, why the surveyor let the plan fly.
+    doc.moveDown(0.3).font('Inter-Bold').fontSize(9.5).fillColor('#8a4b00').text('Signed off although these requirements are unmet — the surveyor’s reasons:');
+    for (const x of r.signOff.reasons) {
+      doc.font('Inter-Bold').fontSize(9).fillColor('#1b1e21').text(`${x.label} (required ${x.required}; achieved ${x.achieved})`, { indent: 10 });
+      doc.font('Inter').fontSize(9).text(x.reason, { indent: 20 });
+    }
+  }
 
   heading(doc, 'The client’s spec against the plan');
   table(doc, [['Requirement', 'Required', 'Achieved', 'Result'], ...r.checks.map((c) => [c.label, c.required, c.achieved, c.pass ? 'meets' : 'DOES NOT MEET'])], [2.2, 3, 3, 1.2]);

@@ -19,7 +19,16 @@ export function createReviewsRepository({ db }: { db: Db }) {
      * acting at once cannot both pass the check; the audit entry commits with the change or not at all, and so does
      * the mail job that `enqueue` adds (it gets the transaction's connection and the change's time).
      */
-    async transition(q: { teamId: string; versionId: string; action: ReviewAction; actorId: string; comment: string | null; enqueue?: (db: JobsDb, at: Date) => Promise<void> }) {
+    async transition(q: {
+      teamId: string;
+      versionId: string;
+      action: ReviewAction;
+      actorId: string;
+      comment: string | null;
+      /** Sign-off only: the reasons for unmet requirements, stored with the sign-off. */
+      reasons?: { key: string; reason: string }[];
+      enqueue?: (db: JobsDb, at: Date) => Promise<void>;
+    }) {
       return db.transaction(async (tx) => {
         const [row] = await tx
           .select({
@@ -59,7 +68,7 @@ export function createReviewsRepository({ db }: { db: Db }) {
         // now() is the transaction's start time: the sign-off time and its audit entry agree to the microsecond.
         await tx
           .update(planVersion)
-          .set(q.action === 'sign-off' ? { reviewState: t.to, signedOffBy: q.actorId, signedOffAt: sql`now()` } : { reviewState: t.to })
+          .set(q.action === 'sign-off' ? { reviewState: t.to, signedOffBy: q.actorId, signedOffAt: sql`now()`, signOffReasons: q.reasons?.length ? q.reasons : null } : { reviewState: t.to })
           .where(eq(planVersion.id, q.versionId));
         const [entry] = await tx.insert(auditEvent).values({
           teamId: q.teamId,

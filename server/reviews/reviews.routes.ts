@@ -1,6 +1,6 @@
 /** Review transitions of a plan version (submit, sign-off, return), its review status, and the plan's audit trail. */
 import type { Request, Router } from 'express';
-import { auditTrailSchema, returnSchema, reviewActions, reviewNoteSchema, reviewTransitions, versionReviewSchema } from '../../contracts/reviews';
+import { auditTrailSchema, returnSchema, reviewActions, reviewNoteSchema, reviewTransitions, signOffSchema, versionReviewSchema } from '../../contracts/reviews';
 import { requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { mailerOf } from '../mail/mail.service';
@@ -40,6 +40,11 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
   for (const action of reviewActions) {
     const { permission } = reviewTransitions[action];
     api.post(`${version}/${action}`, guards.permission(permission), async (req, res) => {
+      if (action === 'sign-off') {
+        const body = parseInput(signOffSchema, req.body ?? {});
+        sendJson(res, versionReviewSchema, await usecases.transition({ ...target(req), action, comment: body.comment || null, reasons: body.reasons }));
+        return;
+      }
       const body = parseInput(action === 'return' ? returnSchema : reviewNoteSchema, req.body ?? {});
       const out = await usecases.transition({ ...target(req), action, comment: body.comment || null });
       sendJson(res, versionReviewSchema, out);

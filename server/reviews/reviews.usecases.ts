@@ -8,8 +8,11 @@ import {
   type AuditTrail,
   type ReviewAction,
   type ReviewState,
+  type SignOffReason,
+  type UnmetRequirement,
   type VersionReview,
 } from '../../contracts/reviews';
+import { requirementChecks } from '../reports/report.build';
 import type { Role } from '../../contracts/roles';
 import { AppError, errors } from '../http/errors';
 import type { SessionUser } from '../http/guard';
@@ -49,8 +52,17 @@ export function refusalMessage(action: ReviewAction, refusal: Exclude<Transition
 export function createReviewsUsecases(deps: { versions: VersionsRepository; reviews: ReviewsRepository; notify: ReviewNotifier; mailer: () => Mailer }) {
   const { versions, reviews, notify } = deps;
 
+  /** The requirements an analysed version does not meet, worded as in its report (none before analysis). */
+  function unmetOf(v: VersionRecord): UnmetRequirement[] {
+    if (v.analysisState !== 'done' || v.result == null) return [];
+    return requirementChecks(v)
+      .filter((c) => !c.pass)
+      .map(({ key, label, required, achieved }) => ({ key, label, required, achieved }));
+  }
+
   async function statusOf(v: VersionRecord, role: Role, actorId: string): Promise<VersionReview> {
     const state = reviewStateSchema.parse(v.reviewState);
+    const unmet = state === 'in_review' || state === 'signed_off' ? unmetOf(v) : [];
     // Offer sign-off only to someone who neither ran the version nor sent it (the transition checks it again).
     const involved = v.createdById === actorId || (state === 'in_review' && (await reviews.lastSubmitterOf(v.id)) === actorId);
     return {
@@ -62,7 +74,29 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
       signedOffBy: v.signedOffById ? { id: v.signedOffById, name: v.signedOffByName ?? '(former member)' } : null,
       signedOffAt: v.signedOffAt ? v.signedOffAt.toISOString() : null,
       allowedActions: actionsFrom(state, role).filter((a) => !(a === 'sign-off' && involved)),
+      unmet: state === 'in_review' ? unmet : [],
+      signOffReasons: (v.signOffReasons ?? []).map((r) => ({ ...r, label: unmet.find((u) => u.key === r.key)?.label ?? r.key })),
     };
+  }
+
+  /**
+   * Signing off a version that misses part of the spec is allowed only with a reason for each unmet requirement
+   * (the surveyor answers for it in the report); reasons for requirements that are met are not kept.
+   */
+  function reasonsFor(v: VersionRecord, given: SignOffReason[]): SignOffReason[] {
+    const unmet = unmetOf(v);
+    const missing = unmet.filter((u) => !given.some((g) => g.key === u.key && g.reason.trim().length > 0));
+    if (missing.length) {
+      throw new AppError(
+        422,
+        'reasons_required',
+        `Version ${v.number} does not meet ${missing.length === 1 ? 'one requirement' : `${missing.length} requirements`} of the spec (${missing
+          .map((m) => `${m.label}: required ${m.required}, achieved ${m.achieved}`)
+          .join('; ')}). Give a reason for signing off despite each, or return the version to the planner.`,
+        missing.map((m) => ({ path: `reasons.${m.key}`, message: `Say why the version may fly although "${m.label}" is unmet (required ${m.required}; achieved ${m.achieved}).` })),
+      );
+    }
+    return unmet.map((u) => given.find((g) => g.key === u.key)!).map(({ key, reason }) => ({ key, reason }));
   }
 
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
@@ -78,11 +112,12 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
     },
 
     /** Apply a review action; refused transitions are 409 with the reason. The e-mail is queued in the same transaction. */
-    async transition(q: { teamId: string; planId: string; versionId: string; role: Role; actor: SessionUser; action: ReviewAction; comment: string | null }) {
+    async transition(q: { teamId: string; planId: string; versionId: string; role: Role; actor: SessionUser; action: ReviewAction; comment: string | null; reasons?: SignOffReason[] }) {
       const before = await load(q);
+      const reasons = q.action === 'sign-off' && reviewStateSchema.parse(before.reviewState) === 'in_review' ? reasonsFor(before, q.reasons ?? []) : undefined;
       const prepared = await notify({ action: q.action, version: before, actor: q.actor, comment: q.comment });
       const enqueue = prepared.job ? (db: JobsDb, at: Date) => deps.mailer().enqueue(prepared.job!(at), db) : undefined;
-      const r = await reviews.transition({ teamId: q.teamId, versionId: q.versionId, action: q.action, actorId: q.actor.id, comment: q.comment, enqueue });
+      const r = await reviews.transition({ teamId: q.teamId, versionId: q.versionId, action: q.action, actorId: q.actor.id, comment: q.comment, reasons, enqueue });
       if (!r.ok) {
         if (r.refusal.reason === 'not_found') throw errors.notFound('Plan version');
         const code = r.refusal.reason === 'analysis' ? 'analysis_not_done' : r.refusal.reason === 'independence' ? 'not_independent' : 'invalid_transition';

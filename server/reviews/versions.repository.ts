@@ -34,6 +34,7 @@ function selection() {
     signedOffById: planVersion.signedOffBy,
     signedOffByName: signer.name,
     signedOffAt: planVersion.signedOffAt,
+    signOffReasons: planVersion.signOffReasons,
     planName: plan.name,
     projectId: project.id,
     projectName: project.name,

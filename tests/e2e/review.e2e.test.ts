@@ -138,9 +138,23 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
       await page.getByTestId('review-cancel').click();
 
       await page.getByTestId('review-sign-off').click();
-      await page.getByTestId('review-comment').fill('Checked against the client spec; GSD band and overlaps met.');
+      await page.getByTestId('review-comment').fill('Checked against the client spec on site with the client.');
+      // Every requirement the version misses gets a reason box; confirming with any left empty is refused in place.
+      const { unmet } = (await clients.surveyor.get(`${version.path}/review`)).body as { unmet: { key: string; label: string }[] };
+      for (const u of unmet) await page.getByTestId(`review-reason-${u.key}`).waitFor();
+      if (unmet.length) {
+        await page.getByTestId('review-confirm').click();
+        await page.getByTestId(`review-reason-${unmet[0].key}-error`).waitFor();
+        await expect(page.getByTestId('review-state').textContent()).resolves.toBe('In review');
+        await shootWhole(page, 'wide-report-sign-off-reasons.png');
+        for (const u of unmet) await page.getByTestId(`review-reason-${u.key}`).fill(`Client accepted on site: ${u.label.toLowerCase()} as planned.`);
+      }
       await page.getByTestId('review-confirm').click();
       await page.getByTestId('review-locked').waitFor();
+      for (const u of unmet) {
+        await eventually(async () => (await page.getByTestId(`sign-off-reason-${u.key}`).count()) > 0, 10_000, `the reason for ${u.key} in the report`);
+        await expect(page.getByTestId(`sign-off-reason-${u.key}`).textContent()).resolves.toContain('Client accepted on site');
+      }
       await expect(page.getByTestId('review-state').textContent()).resolves.toBe('Signed off');
       await page.getByTestId('audit-review.signed_off').waitFor();
       await eventually(async () => (await page.getByTestId('sign-off-by').textContent())?.includes(demo('surveyor').name), 10_000, 'the sign-off block');

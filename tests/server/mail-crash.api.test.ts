@@ -8,6 +8,7 @@ import type { Mailer } from '../../server/mail/mailer';
 import { pdfText } from '../reports/pdf-text';
 import { createVersion, eventually, freshTeam } from '../support/fixtures';
 import { freePort, startTestServer, type TestServer } from '../support/test-server';
+import { signOffBody } from '../support/review-helpers';
 
 const queue = 'mail-crash-test';
 let srv: TestServer;
@@ -47,7 +48,7 @@ describe('mail through the job queue', () => {
     const team = await freshTeam({ ...srv, url: a.url } as TestServer, 'mail-crash');
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review', planName: 'Crash bench' });
 
-    const res = await team.clients.surveyor.post(`${v.path}/sign-off`, { comment: 'Fine.' });
+    const res = await team.clients.surveyor.post(`${v.path}/sign-off`, await signOffBody(team.clients.surveyor, v.path, { comment: 'Fine.' }));
     expect(res.status, a.output()).toBe(200);
     expect(res.body.notification).toEqual({ status: 'queued', recipients: [team.users.planner.email] });
     // Committed together: the version is signed off and its mail waits in the queue.

@@ -6,6 +6,7 @@ import type { Mailer } from '../../server/mail/mailer';
 import { pdfText } from '../reports/pdf-text';
 import { createVersion, freshTeam, type FreshTeam } from '../support/fixtures';
 import { freePort, startTestServer, type TestServer } from '../support/test-server';
+import { signOffBody } from '../support/review-helpers';
 
 let srv: TestServer;
 let team: FreshTeam;
@@ -25,7 +26,7 @@ describe('e-mail through the fake SMTP server', () => {
 
   it('delivers the sign-off to the planner with the compliance PDF attached', async () => {
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review', planName: 'East terrace' });
-    const res = await team.clients.surveyor.post(`${v.path}/sign-off`, { comment: 'Good to fly.' });
+    const res = await team.clients.surveyor.post(`${v.path}/sign-off`, await signOffBody(team.clients.surveyor, v.path, { comment: 'Good to fly.' }));
     expect(res.status).toBe(200);
     expect(res.body.notification).toEqual({ status: 'queued', recipients: [team.users.planner.email] });
     await mailer().idle();
@@ -75,7 +76,7 @@ describe('e-mail through the fake SMTP server', () => {
   it('shows the owner only their own team\'s mail in the development outbox', async () => {
     const other = await freshTeam(srv, 'mail-other');
     const v = await createVersion(srv, { teamId: other.teamId, createdBy: other.users.planner.id, reviewState: 'in_review', planName: 'Other team plan' });
-    await other.clients.surveyor.post(`${v.path}/sign-off`, {});
+    await other.clients.surveyor.post(`${v.path}/sign-off`, await signOffBody(other.clients.surveyor, v.path, {}));
     await mailer().idle();
     const mine = await team.clients.owner.get(`/api/teams/${team.teamId}/dev/outbox`);
     expect(mine.status).toBe(200);

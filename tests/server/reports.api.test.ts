@@ -4,6 +4,7 @@ import { fmt } from '../../server/reports/format';
 import { analysedResult, createVersion, fixtureHole, freshTeam, syntheticGrid, type FreshTeam } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { numpyFigures, pdfFonts, pdfText } from '../reports/pdf-text';
+import { signOffBody } from '../support/review-helpers';
 
 let srv: TestServer;
 let team: FreshTeam;
@@ -107,7 +108,7 @@ describe('the compliance report (JSON)', () => {
 describe('the compliance report (PDF)', () => {
   it('parses, embeds its fonts, and prints the figures the API reports for that version', async () => {
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review', result: analysedResult(syntheticGrid({ hole: fixtureHole })) });
-    expect((await team.clients.surveyor.post(`${v.path}/sign-off`, {})).status).toBe(200);
+    expect((await team.clients.surveyor.post(`${v.path}/sign-off`, await signOffBody(team.clients.surveyor, v.path, {}))).status).toBe(200);
     const r: ComplianceReport = (await team.clients.surveyor.get(`${v.path}/report`)).body;
     const pdf = await pdfOf(v.path);
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');

@@ -5,6 +5,7 @@ import { can, roles, type Role } from '../../contracts/roles';
 import { auditEvent, planVersion } from '../../db/schema';
 import { createVersion, freshTeam, type FreshTeam } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { signOffBody } from '../support/review-helpers';
 
 let srv: TestServer;
 let team: FreshTeam;
@@ -47,7 +48,7 @@ describe('the review state machine, every transition for every role', () => {
   it.each(cases)('$role: $action from $state', async ({ state, action, role }) => {
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: state });
     const body = action === 'return' ? { comment: 'Raise line 2 over the hill.' } : {};
-    const res = await team.clients[role].post(`${v.path}/${action}`, body);
+    const res = await team.clients[role].post(`${v.path}/${action}`, action === 'sign-off' ? await signOffBody(team.clients[role], v.path, body) : body);
     const want = expectedStatus(role, action, state);
     expect(res.status, JSON.stringify(res.body)).toBe(want);
     const after = await stateOf(v.versionId);
@@ -113,7 +114,7 @@ describe('a signed-off version is locked', () => {
   it('records the signer and the time, and refuses every further action saying why', async () => {
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review' });
     const before = Date.now();
-    const res = await team.clients.surveyor.post(`${v.path}/sign-off`, { comment: 'Meets the spec.' });
+    const res = await team.clients.surveyor.post(`${v.path}/sign-off`, await signOffBody(team.clients.surveyor, v.path, { comment: 'Meets the spec.' }));
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ reviewState: 'signed_off', locked: true, signedOffBy: { id: team.users.surveyor.id, name: team.users.surveyor.name }, allowedActions: [] });
     const at = Date.parse(res.body.signedOffAt);
@@ -123,7 +124,7 @@ describe('a signed-off version is locked', () => {
     expect(row.signedOffBy).toBe(team.users.surveyor.id);
 
     for (const [role, action] of [['planner', 'submit'], ['surveyor', 'sign-off'], ['owner', 'return']] as const) {
-      const again = await team.clients[role].post(`${v.path}/${action}`, { comment: 'again' });
+      const again = await team.clients[role].post(`${v.path}/${action}`, action === 'sign-off' ? await signOffBody(team.clients[role], v.path, { comment: 'again' }) : { comment: 'again' });
       expect(again.status).toBe(409);
       expect(again.body.error.message).toMatch(/is signed off.*locked/);
     }
@@ -132,7 +133,7 @@ describe('a signed-off version is locked', () => {
 
   it('is refused by the database itself when code tries to change it', async () => {
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review' });
-    expect((await team.clients.surveyor.post(`${v.path}/sign-off`, {})).status).toBe(200);
+    expect((await team.clients.surveyor.post(`${v.path}/sign-off`, await signOffBody(team.clients.surveyor, v.path, {}))).status).toBe(200);
     // drizzle wraps the PostgreSQL error; the trigger's message is on its cause.
     const refusal = (p: Promise<unknown>) => p.then(() => 'no error', (e: { cause?: { message?: string } }) => String(e.cause?.message));
     expect(await refusal(srv.db.update(planVersion).set({ reviewState: 'draft' }).where(eq(planVersion.id, v.versionId)))).toMatch(/signed off and locked/);
@@ -151,7 +152,7 @@ describe('the audit trail', () => {
       ['owner', 'sign-off', 'Approved for the client.'],
     ];
     for (const [role, action, comment] of steps) {
-      const r = await team.clients[role].post(`${v.path}/${action}`, comment ? { comment } : {});
+      const r = await team.clients[role].post(`${v.path}/${action}`, action === 'sign-off' ? await signOffBody(team.clients[role], v.path, comment ? { comment } : {}) : comment ? { comment } : {});
       expect(r.status, `${role} ${action}`).toBe(200);
     }
     const trail = await team.clients.surveyor.get(`/api/teams/${team.teamId}/plans/${v.planId}/audit`);

@@ -1,0 +1,1 @@
+ALTER TABLE "plan_version" ADD COLUMN "sign_off_reasons" jsonb;
