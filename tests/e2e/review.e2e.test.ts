@@ -146,7 +146,7 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
         await page.getByTestId('review-confirm').click();
         await page.getByTestId(`review-reason-${unmet[0].key}-error`).waitFor();
         await expect(page.getByTestId('review-state').textContent()).resolves.toBe('In review');
-        await shootWhole(page, 'wide-report-sign-off-reasons.png');
+        await page.getByTestId('review-panel').screenshot({ path: path.join(shotDir, 'wide-review-panel-reasons.png') });
         for (const u of unmet) await page.getByTestId(`review-reason-${u.key}`).fill(`Client accepted on site: ${u.label.toLowerCase()} as planned.`);
       }
       await page.getByTestId('review-confirm').click();
@@ -155,6 +155,7 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
         await eventually(async () => (await page.getByTestId(`sign-off-reason-${u.key}`).count()) > 0, 10_000, `the reason for ${u.key} in the report`);
         await expect(page.getByTestId(`sign-off-reason-${u.key}`).textContent()).resolves.toContain('Client accepted on site');
       }
+      if (unmet.length) await page.getByTestId('report-sign-off').screenshot({ path: path.join(shotDir, 'wide-report-sign-off-block.png') });
       await expect(page.getByTestId('review-state').textContent()).resolves.toBe('Signed off');
       await page.getByTestId('audit-review.signed_off').waitFor();
       await eventually(async () => (await page.getByTestId('sign-off-by').textContent())?.includes(demo('surveyor').name), 10_000, 'the sign-off block');
