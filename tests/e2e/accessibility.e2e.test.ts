@@ -11,11 +11,9 @@ import { demoUsers } from '../../contracts/demo-team';
 import type { Role } from '../../contracts/roles';
 import { demoPassword } from '../../server/seed/demo-password';
 import { launchBrowser, openPage, viewports } from '../support/browser';
-import { demoTeamId } from '../support/demo';
-import { createVersion, type VersionFixture } from '../support/fixtures';
+import { demoTeamVersions } from '../support/demo';
+import type { VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
-import { eq } from 'drizzle-orm';
-import { user } from '../../db/schema';
 
 const skipWeb = process.env.LOFTLINE_SKIP_WEB === '1';
 const axeSource = fs.readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
@@ -30,10 +28,10 @@ beforeAll(async () => {
   if (skipWeb) return;
   srv = await startTestServer();
   browser = await launchBrowser();
-  const teamId = await demoTeamId(srv);
-  const [planner] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, demoUsers.find((u) => u.role === 'planner')!.email));
-  signedOff = await createVersion(srv, { teamId, createdBy: planner!.id, reviewState: 'signed_off', planName: 'Scan: signed-off bench' });
-  draft = await createVersion(srv, { teamId, createdBy: planner!.id, reviewState: 'in_review', planName: 'Scan: bench in review' });
+  [signedOff, draft] = await demoTeamVersions(srv, [
+    { reviewState: 'signed_off', planName: 'Scan: signed-off bench' },
+    { reviewState: 'in_review', planName: 'Scan: bench in review' },
+  ]);
 });
 afterAll(async () => {
   await browser?.close();

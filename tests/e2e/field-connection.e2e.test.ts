@@ -7,14 +7,11 @@
  * 4.9–5.4 s on this machine, the first screen's JavaScript (about 610 KB gzipped, 3 s at this rate) being most of it.
  */
 import path from 'node:path';
-import { eq } from 'drizzle-orm';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoUsers } from '../../contracts/demo-team';
-import { user } from '../../db/schema';
 import { launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
-import { demoClients, demoTeamId } from '../support/demo';
-import { createVersion, type VersionFixture } from '../support/fixtures';
+import { demoClients, demoTeamVersions } from '../support/demo';
+import type { VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const skipWeb = process.env.LOFTLINE_SKIP_WEB === '1';
@@ -32,9 +29,7 @@ beforeAll(async () => {
   if (skipWeb) return;
   srv = await startTestServer();
   browser = await launchBrowser();
-  const teamId = await demoTeamId(srv);
-  const [planner] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, demoUsers.find((u) => u.role === 'planner')!.email));
-  version = await createVersion(srv, { teamId, createdBy: planner!.id, reviewState: 'signed_off', planName: 'Field: ridge line signed off' });
+  [version] = await demoTeamVersions(srv, [{ reviewState: 'signed_off', planName: 'Field: ridge line signed off' }]);
   pilotCookie = (await demoClients(srv)).pilot.cookieHeader();
 });
 afterAll(async () => {

@@ -3,16 +3,14 @@
  * where focus lands after every change of screen: on the new screen's main heading, never on the page body. A
  * refused sign-in keeps focus on the password field, marks it invalid and ties the reason to it.
  */
-import { eq } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import type { Role } from '../../contracts/roles';
-import { user } from '../../db/schema';
 import { demoPassword } from '../../server/seed/demo-password';
 import { launchBrowser, openPage, viewports } from '../support/browser';
-import { demoTeamId } from '../support/demo';
-import { createVersion, type VersionFixture } from '../support/fixtures';
+import { demoTeamVersions } from '../support/demo';
+import type { VersionFixture } from '../support/fixtures';
 import { uniqueEmail } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -26,10 +24,10 @@ beforeAll(async () => {
   if (skipWeb) return;
   srv = await startTestServer();
   browser = await launchBrowser();
-  const teamId = await demoTeamId(srv);
-  const [planner] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, demoUsers.find((u) => u.role === 'planner')!.email));
-  inReview = await createVersion(srv, { teamId, createdBy: planner!.id, reviewState: 'in_review', planName: 'Keys: west bench in review' });
-  signedOff = await createVersion(srv, { teamId, createdBy: planner!.id, reviewState: 'signed_off', planName: 'Keys: east bench signed off' });
+  [inReview, signedOff] = await demoTeamVersions(srv, [
+    { reviewState: 'in_review', planName: 'Keys: west bench in review' },
+    { reviewState: 'signed_off', planName: 'Keys: east bench signed off' },
+  ]);
 });
 afterAll(async () => {
   await browser?.close();

@@ -1,6 +1,8 @@
 /** Signed-in clients for the seeded demo users, and the demo team id. */
 import { eq } from 'drizzle-orm';
-import { organization } from '../../db/schema';
+import { organization, user } from '../../db/schema';
+import type { ReviewState } from '../../contracts/reviews';
+import { createVersion, type VersionFixture } from './fixtures';
 import type { Role } from '../../contracts/roles';
 import { demoTeam, demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from '../../server/seed/demo-password';
@@ -21,5 +23,14 @@ export async function demoClients(srv: TestServer): Promise<Record<Role, ApiClie
     if (r.status !== 200) throw new Error(`Demo ${u.role} could not sign in: ${r.status}`);
     out[u.role] = c;
   }
+  return out;
+}
+
+/** Fixture versions in the demo team made by the demo planner (for browser tests that sign in as demo users). */
+export async function demoTeamVersions(srv: TestServer, wanted: { reviewState: ReviewState; planName: string }[]): Promise<VersionFixture[]> {
+  const teamId = await demoTeamId(srv);
+  const [planner] = await srv.db.select({ id: user.id }).from(user).where(eq(user.email, demoUsers.find((u) => u.role === 'planner')!.email));
+  const out: VersionFixture[] = [];
+  for (const w of wanted) out.push(await createVersion(srv, { teamId, createdBy: planner!.id, ...w }));
   return out;
 }
