@@ -4,7 +4,9 @@ import { useState, type ReactNode } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { can } from '../../contracts/roles';
 import { errorMessage } from '../api/api-error';
+import { reviewStateLabels } from '../../contracts/reviews';
 import { analysisLabels } from '../plans/versions-list';
+import { reviewStateTones } from '../reviews/review-state';
 import { usePlans } from '../plans/plans.queries';
 import { horizontalUnitOf } from '../sites/site-facts';
 import { surfaceKindInfo } from '../sites/site-shape';
@@ -113,7 +115,17 @@ export function ProjectScreen() {
                     href={`/projects/${p.id}/plans/${pl.id}`}
                     title={pl.name}
                     detail={`Over ${siteName(pl.siteId)} · updated ${formatDay(pl.updatedAt)}`}
-                    badges={pl.latestVersion ? <Badge label={`v${pl.latestVersion.number} ${analysisLabels[pl.latestVersion.analysisState].label.toLowerCase()}`} tone={analysisLabels[pl.latestVersion.analysisState].tone} /> : <Badge label="Not run yet" />}
+                    badges={
+                      pl.latestVersion ? (
+                        // The review state beside the analysis state, so a surveyor sees the work waiting without opening each plan.
+                        <>
+                          <Badge label={`v${pl.latestVersion.number} ${analysisLabels[pl.latestVersion.analysisState].label.toLowerCase()}`} tone={analysisLabels[pl.latestVersion.analysisState].tone} />
+                          <Badge label={reviewStateLabels[pl.latestVersion.reviewState]} tone={reviewStateTones[pl.latestVersion.reviewState]} testID={`plan-review-${pl.name}`} />
+                        </>
+                      ) : (
+                        <Badge label="Not run yet" />
+                      )
+                    }
                     testID={`plan-link-${pl.name}`}
                     last={i === (plans.data?.length ?? 0) - 1}
                   />

@@ -124,6 +124,9 @@ describe.skipIf(skipWeb)('keyboard-only paths', () => {
     try {
       await signInByKeys(page, 'surveyor');
       await expectFocusOnHeading(page, /^Projects$/);
+      // The project's plan list says which plan waits for review, without opening it.
+      await page.goto(`${srv.url}/projects/${inReview.projectId}`);
+      await expect.poll(() => page.getByTestId('plan-review-Keys: west bench in review').textContent()).toBe('In review');
       await page.goto(`${srv.url}/projects/${inReview.projectId}/plans/${inReview.planId}/versions/${inReview.versionId}/report`);
       await expectFocusOnHeading(page, /.+/);
       await expect.poll(() => page.title()).toMatch(/^Compliance report — Keys: west bench in review v1 · Loftline$/);
