@@ -83,7 +83,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
           ]}
         />
       </Card>
-      <PreflightChecklist items={sheet.checklist} />
+      <PreflightChecklist items={sheet.checklist} versionId={sheet.version.id} />
       <BatteryPlanCard plan={sheet.batteries} />
       <View style={styles.lines}>
         {sheet.lines.map((line) => (

@@ -1,22 +1,15 @@
 /** The pre-flight checklist: the sheet's cautions and checks as items the pilot ticks off, with the count done. */
-import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 import type { ChecklistItem } from '../../contracts/flights';
 import { colors, layout, radii, space } from '../theme';
 import { showFocusRing } from '../ui/focus-modality';
 import { Badge, Button, Card, Heading, List, Text, type WebPressState } from '../ui';
 import { spaceActivates, webKeyProps } from '../ui/keys';
+import { useKeptTicks } from './use-kept-ticks';
 
-/** Ticks live only while the page is open: a list ticked on another day should not look done today. */
-export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] }) {
-  const [done, setDone] = useState<ReadonlySet<string>>(new Set());
-  const toggle = (id: string) =>
-    setDone((prev) => {
-      const next = new Set(prev);
-      if (next.has(id)) next.delete(id);
-      else next.add(id);
-      return next;
-    });
+/** Ticks are kept on the device for the day (use-kept-ticks.ts): a reload keeps them, another day starts afresh. */
+export function PreflightChecklist({ items, versionId }: { items: readonly ChecklistItem[]; versionId: string }) {
+  const { done, toggle, clear } = useKeptTicks(versionId);
   const all = items.length > 0 && items.every((i) => done.has(i.id));
   return (
     <Card testID="preflight-checklist">
@@ -55,7 +48,7 @@ export function PreflightChecklist({ items }: { items: readonly ChecklistItem[] 
           );
         })}
       </List>
-      {done.size > 0 ? <Button label="Clear the ticks" variant="quiet" size="compact" onPress={() => setDone(new Set())} style={styles.clear} testID="checklist-clear" /> : null}
+      {done.size > 0 ? <Button label="Clear the ticks" variant="quiet" size="compact" onPress={clear} style={styles.clear} testID="checklist-clear" /> : null}
     </Card>
   );
 }

@@ -219,6 +219,8 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
       await page.getByTestId('offline-notice').waitFor();
       await expect(page.getByTestId('offline-notice').textContent()).resolves.toContain('Offline copy, loaded at');
       await expect(page.getByTestId('leg-1-1-altitude').textContent()).resolves.toBe(shown);
+      // The tick made before the reload is still there (kept on the device for the day).
+      await expect.poll(() => page.getByTestId('checklist-wind').getAttribute('aria-checked')).toBe('true');
       await page.getByTestId('offline-retry').waitFor({ timeout: 15_000 });
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
       await page.screenshot({ path: path.join(shotDir, 'phone-leg-sheet-offline.png') });
