@@ -1,6 +1,7 @@
 /** Review states and audit entries in words: badge tones, entry titles and the notice a state carries. */
 import { reviewStateLabels, reviewStateSchema, type AuditEvent, type ReviewState } from '../../contracts/reviews';
 import type { BadgeTone } from '../ui/badge';
+import { analysisStateLabels } from '../../contracts/plans';
 
 /** Badge tone per state: only a signed-off version looks "done"; a returned one asks for attention. */
 export const reviewStateTones: Record<ReviewState, BadgeTone> = {
@@ -43,11 +44,15 @@ export function auditTitle(action: string): string {
   return words ? words[0]!.toUpperCase() + words.slice(1) : 'Change';
 }
 
-/** A state name from the audit trail in our words ("in_review" → "In review"); unknown names pass through. */
+/**
+ * A state name from the audit trail in our words ("in_review" → "In review", the analysis's "done" → "Analysed");
+ * unknown names pass through.
+ */
 export function stateLabel(state: string | null): string | null {
   if (state === null) return null;
   const parsed = reviewStateSchema.safeParse(state);
-  return parsed.success ? reviewStateLabels[parsed.data] : state;
+  if (parsed.success) return reviewStateLabels[parsed.data];
+  return state in analysisStateLabels ? analysisStateLabels[state as keyof typeof analysisStateLabels] : state;
 }
 
 /** One line under an audit entry's title: version, state change, who. */

@@ -12,6 +12,14 @@ import type { Config } from '../config';
 import type { JobsDb } from '../jobs/jobs.service';
 import { startFakeSmtp, teamHeader, type FakeSmtp } from './fake-smtp';
 
+/** The kinds of mail the code sends, as people read them in the audit trail. */
+const mailKindWords: Record<string, string> = {
+  'review.submit': 'Review request',
+  'review.sign-off': 'Sign-off notice',
+  'review.return': 'Returned-version notice',
+  invitation: 'Invitation',
+};
+
 export type MailMode = 'smtp' | 'fake' | 'off';
 
 /** A message ready to send. */
@@ -100,6 +108,9 @@ export async function createMailer(deps: {
   const retry = { retryLimit: env.MAIL_RETRY_LIMIT, retryDelay: 30, retryBackoff: true, expireInSeconds: 300 };
   await boss.createQueue(queue, { name: queue, ...retry });
 
+  /** What a mail was, in the audit trail's words (the job's kind is a code). */
+  const kindWords = (kind: string) => mailKindWords[kind] ?? 'Mail';
+
   async function record(ctx: MailContext, action: 'mail.sent' | 'mail.failed', comment: string) {
     await db.insert(auditEvent).values({
       teamId: ctx.teamId,
@@ -116,7 +127,7 @@ export async function createMailer(deps: {
     const { ctx, mail } = job;
     if (mail.to.length === 0) return;
     if (!transport) {
-      await record(ctx, 'mail.failed', `${ctx.kind}: not sent to ${mail.to.join(', ')}: mail is switched off (DEV_OUTBOX=0 and no SMTP_HOST).`);
+      await record(ctx, 'mail.failed', `${kindWords(ctx.kind)}: not sent to ${mail.to.join(', ')}: mail is switched off (DEV_OUTBOX=0 and no SMTP_HOST).`);
       return;
     }
     try {
@@ -130,11 +141,11 @@ export async function createMailer(deps: {
         headers: { [teamHeader]: ctx.teamId },
       });
       const files = attachments.length ? ` (attached: ${attachments.map((a) => a.filename).join(', ')})` : '';
-      await record(ctx, 'mail.sent', `${ctx.kind}: "${mail.subject}" to ${mail.to.join(', ')}${files}`);
+      await record(ctx, 'mail.sent', `${kindWords(ctx.kind)}: "${mail.subject}" to ${mail.to.join(', ')}${files}`);
     } catch (err) {
       log(`sending ${ctx.kind} mail failed`, err);
       const why = err instanceof Error ? err.message : String(err);
-      await record(ctx, 'mail.failed', `${ctx.kind} to ${mail.to.join(', ')}: ${why}`).catch((e) => log('recording a mail failure failed', e));
+      await record(ctx, 'mail.failed', `${kindWords(ctx.kind)} to ${mail.to.join(', ')}: ${why}`).catch((e) => log('recording a mail failure failed', e));
       throw err;
     }
   }

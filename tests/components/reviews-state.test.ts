@@ -33,6 +33,7 @@ describe('review states on screen', () => {
   it('names states in our words and passes unknown ones through', () => {
     expect(stateLabel('in_review')).toBe('In review');
     expect(stateLabel('archived')).toBe('archived');
+    expect(stateLabel('done')).toBe('Analysed');
     expect(stateLabel(null)).toBeNull();
   });
 });

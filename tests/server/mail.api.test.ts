@@ -109,7 +109,7 @@ describe('when mail cannot be sent', () => {
     const trail = await t.clients.planner.get(`/api/teams/${t.teamId}/plans/${v.planId}/audit`);
     const failed = trail.body.events.find((e: { action: string }) => e.action === 'mail.failed');
     expect(failed, JSON.stringify(trail.body.events)).toBeDefined();
-    expect(failed.comment).toMatch(/review\.return to .*ECONNREFUSED/);
+    expect(failed.comment).toMatch(/^Returned-version notice to .*ECONNREFUSED/);
   });
 
   it('has no development outbox', async () => {
