@@ -14,6 +14,8 @@ if [ "$mode" = "--test" ]; then
   command -v pdftotext >/dev/null || apt_pkgs+=(poppler-utils)
   # ogrinfo reads the CSV export back as GDAL/OGR's CSV driver sees it.
   command -v ogrinfo >/dev/null || apt_pkgs+=(gdal-bin)
+  # GDAL's Python samples validate the coverage raster as a Cloud-Optimised GeoTIFF (tests/terrain/coverage-cog.test.ts).
+  /usr/bin/python3 -c 'from osgeo_utils.samples import validate_cloud_optimized_geotiff' >/dev/null 2>&1 || apt_pkgs+=(python3-gdal)
   # numpy recomputes the report's percentiles as an outside reference (tests/reports/pdf-text.ts).
   /usr/bin/python3 -c 'import numpy' >/dev/null 2>&1 || apt_pkgs+=(python3-numpy)
 fi

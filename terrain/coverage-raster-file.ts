@@ -1,6 +1,7 @@
 /** The coverage raster as a GeoTIFF: five Float32 bands in the grid's CRS, nodata outside the area. */
 import type { CoverageRaster } from './coverage';
-import { writeFloat32GeoTiff } from './geotiff-write';
+import { writeFloat32GeoTiff, type Float32GeoTiff } from './geotiff-write';
+import { writeCloudOptimisedGeoTiff } from './geotiff-cog';
 import { check } from './errors';
 
 /** Nodata value of the file's cells outside the survey area. */
@@ -22,7 +23,7 @@ export function coverageBandNames(r: CoverageRaster): string[] {
  * Band 1 views, 2 finest GSD (cm), 3 views at or below the spec's GSD, 4 largest angle between rays (degrees),
  * 5 predicted vertical σ (m); -9999 outside the area, NaN inside where a measure has no value.
  */
-export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
+function coverageBands(r: CoverageRaster): Float32GeoTiff {
   const { cells } = r;
   check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
   const n = cells.width * cells.height;
@@ -32,8 +33,17 @@ export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
     for (let i = 0; i < n; i++) out[i] = cells.inside[i] ? b[i] : COVERAGE_NODATA;
     return out;
   });
-  return writeFloat32GeoTiff({
+  return {
     width: cells.width, height: cells.height, bands, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
-  });
+  };
+}
+
+export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
+  return writeFloat32GeoTiff(coverageBands(r));
+}
+
+/** The same bands as a Cloud-Optimised GeoTIFF (tiled, with overviews), for downloads a GIS may read in parts. */
+export function coverageCog(r: CoverageRaster): Uint8Array {
+  return writeCloudOptimisedGeoTiff(coverageBands(r));
 }

@@ -1,0 +1,60 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { computeCoverage, type CoveragePhoto } from '../../terrain/coverage';
+import { coverageCog, coverageGeoTiff, COVERAGE_NODATA } from '../../terrain/coverage-raster-file';
+import type { Camera } from '../../terrain/camera';
+import { syntheticSite } from './coverage-site';
+
+const camera: Camera = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
+
+/** A raster wider than two tiles (so it is tiled and has overviews), with cells outside the area. */
+function raster() {
+  const site = syntheticSite(700, 2, (x, y) => 20 * Math.sin(x / 90) + 15 * Math.cos(y / 60));
+  const photos: CoveragePhoto[] = [];
+  for (let line = 0; line < 5; line++) for (let k = 0; k < 12; k++) photos.push({ xM: -500 + line * 250, yM: -550 + k * 100, altitudeM: 200, yawDeg: 0 });
+  return computeCoverage(site.grid, site.frame, site.area(-600, -640, 600, 600), camera, photos, { cellM: 2, specGsdCm: 5 });
+}
+
+describe('coverage raster as a Cloud-Optimised GeoTIFF', () => {
+  const r = raster();
+  const dir = mkdtempSync(join(tmpdir(), 'loftline-cog-'));
+  const cogPath = join(dir, 'coverage.cog.tif');
+  writeFileSync(cogPath, coverageCog(r));
+
+  it('passes GDAL\'s COG validator', () => {
+    // Reference: GDAL 3.6.2's validate_cloud_optimized_geotiff.py (Debian python3-gdal, osgeo_utils.samples);
+    // it exits 0 and prints "is a valid cloud optimized GeoTIFF" only when no layout rule is broken.
+    const out = execFileSync('/usr/bin/python3', ['-m', 'osgeo_utils.samples.validate_cloud_optimized_geotiff', '--full-check=yes', cogPath], { encoding: 'utf8' });
+    expect(out).toContain('is a valid cloud optimized GeoTIFF');
+    expect(r.cells.width).toBeGreaterThan(512);
+  });
+
+  it('holds, as gdalinfo and gdallocationinfo read it, the same bands, overviews and values as the strip GeoTIFF', () => {
+    // Reference: gdalinfo -json and gdallocationinfo -valonly from GDAL 3.6.2 (Debian gdal-bin).
+    const info = JSON.parse(execFileSync('gdalinfo', ['-json', cogPath], { encoding: 'utf8' }));
+    expect(info.size).toEqual([r.cells.width, r.cells.height]);
+    expect(info.bands).toHaveLength(5);
+    expect(info.bands[0].block).toEqual([256, 256]);
+    expect(info.bands[0].noDataValue).toBe(COVERAGE_NODATA);
+    expect(info.bands[0].overviews.length).toBeGreaterThanOrEqual(2);
+    expect(info.bands[0].description).toMatch(/^views/);
+    expect(info.geoTransform).toEqual([...r.cells.transform]);
+    const stripPath = join(dir, 'coverage.strip.tif');
+    writeFileSync(stripPath, coverageGeoTiff(r));
+    const { width, height } = r.cells;
+    const probes: Array<[number, number]> = [[0, 0], [width - 1, height - 1], [300, 257], [511, 20], [width >> 1, height >> 1], [257, height - 3]];
+    for (const [c, row] of probes) {
+      for (const b of [1, 2, 5]) {
+        const a = execFileSync('gdallocationinfo', ['-valonly', '-b', String(b), cogPath, String(c), String(row)], { encoding: 'utf8' }).trim();
+        const s = execFileSync('gdallocationinfo', ['-valonly', '-b', String(b), stripPath, String(c), String(row)], { encoding: 'utf8' }).trim();
+        expect(a).toBe(s);
+      }
+      const i = row * width + c;
+      const views = execFileSync('gdallocationinfo', ['-valonly', '-b', '1', cogPath, String(c), String(row)], { encoding: 'utf8' }).trim();
+      expect(Number(views)).toBe(r.cells.inside[i] ? r.views[i] : COVERAGE_NODATA);
+    }
+  });
+});
