@@ -1,5 +1,6 @@
 /** The mission input of a plan (CLI, API, plan form): zod schema with the terrain core's ranges and defaults. */
 import { z } from 'zod';
+import { missionCoverageFieldsSchema } from './coverage';
 import { MISSION_DEFAULTS, MISSION_RANGES, checkArea, type NumberRange } from '../terrain/mission';
 
 /** A number in a mission range, with a message that says the range. */
@@ -133,6 +134,8 @@ const missionFields = z.object({
   batteryReserve: ranged('batteryReserve', R.batteryReserve).default(D.batteryReserve),
   turnTimeS: ranged('turnTimeS', R.turnTimeS).default(D.turnTimeS),
   stationStepM: ranged('stationStepM', R.stationStepM).nullable().default(D.stationStepM),
+  /** The client's spec for every ground cell, the attitude envelope and the coverage raster's settings (all optional). */
+  ...missionCoverageFieldsSchema.shape,
 });
 
 /** The mission: required area, camera, target GSD and takeoff; everything else has a default. */

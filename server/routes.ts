@@ -8,6 +8,7 @@ import { planRouteGroup } from './plans/plans.routes';
 import { registerExportRoutes } from './exports/exports.routes';
 import { registerFlightRoutes } from './flights/flights.routes';
 import { registerMissionItemRoutes } from './mission-items/mission-items.routes';
+import { registerCoverageRoutes } from './coverage/coverage.routes';
 import { registerInvitationRoutes } from './invitations/invitations.routes';
 import { registerOutboxRoutes } from './mail/outbox.routes';
 import { registerReportRoutes } from './reports/reports.routes';
@@ -27,4 +28,5 @@ export const routeGroups: RouteGroup[] = [
   registerFlightRoutes,
   registerExportRoutes,
   registerMissionItemRoutes,
+  registerCoverageRoutes,
 ];

@@ -4,6 +4,7 @@ import { ENVELOPE_PRESETS, type AttitudeEnvelope, type EnvelopePresetId } from '
 import type { CoverageRaster } from './coverage';
 import { check } from './errors';
 import { DEFAULT_MAX_COVERAGE_CELLS } from './coverage-grid';
+import { COVERAGE_RANGES } from './coverage-ranges';
 
 /** What the client asks of every ground cell; each item one-sided. */
 export interface CoverageSpec {
@@ -25,21 +26,7 @@ export interface CoverageSettings {
   occlusion: boolean;
 }
 
-/** Ranges of the coverage fields of a mission (inclusive; the zod contract uses the same figures). */
-export const COVERAGE_RANGES = Object.freeze({
-  maxGsdCm: { min: 0.1, max: 100 },
-  minViews: { min: 1, max: 100 },
-  maxSigmaM: { min: 0.001, max: 100 },
-  rollDeg: { min: 0, max: 45 },
-  pitchDeg: { min: 0, max: 45 },
-  windMps: { min: 0, max: 40 },
-  windFromDeg: { min: 0, max: 360 },
-  airspeedMps: { min: 1, max: 100 },
-  stepDeg: { min: 0.25, max: 10 },
-  cellM: { min: 0.1, max: 100 },
-  maxCells: { min: 1, max: 50_000_000 },
-  imageErrorPx: { min: 0.01, max: 100 },
-});
+export { COVERAGE_RANGES } from './coverage-ranges';
 
 type R = keyof typeof COVERAGE_RANGES;
 

@@ -104,6 +104,8 @@ export const planVersion = pgTable(
     /** Progress of a running analysis in percent. */
     analysisProgress: integer('analysis_progress_pct').notNull().default(0),
     result: jsonb('result'),
+    /** The coverage run of the analysis (contracts/coverage.ts storedCoverageSchema); its raster and images are stored files. */
+    coverage: jsonb('coverage'),
     analysedAt: timestamp('analysed_at', { withTimezone: true }),
     createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),

@@ -10,6 +10,10 @@ import { auditEvent, planVersion, site } from '../../db/schema';
 import { TerrainError } from '../../terrain/errors';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 import type { TerrainRunner } from './terrain-pool';
+import type { CoverageFiles } from './terrain-tasks';
+import { storedCoverageSchema, type StoredCoverage } from '../../contracts/coverage';
+import { coverageKeys } from '../coverage/coverage-keys';
+import type { CoverageMeasure } from '../../terrain/coverage-measures';
 
 /** What one attempt ended with. */
 export type AnalysisOutcome = 'done' | 'failed' | 'skipped';
@@ -46,14 +50,14 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
   }
 
   /** Write the final state once (never over a done version) with its audit event. */
-  async function settle(v: { id: string; teamId: string; planId: string }, outcome: { result: unknown } | { error: string }): Promise<boolean> {
+  async function settle(v: { id: string; teamId: string; planId: string }, outcome: { result: unknown; coverage: StoredCoverage } | { error: string }): Promise<boolean> {
     return db.transaction(async (tx) => {
       const done = 'result' in outcome;
       const rows = await tx
         .update(planVersion)
         .set(
           done
-            ? { analysisState: 'done', result: outcome.result, analysisProgress: 100, analysisError: null, analysedAt: sql`now()` }
+            ? { analysisState: 'done', result: outcome.result, coverage: outcome.coverage, analysisProgress: 100, analysisError: null, analysedAt: sql`now()` }
             : { analysisState: 'failed', analysisError: outcome.error, analysedAt: sql`now()` },
         )
         .where(and(eq(planVersion.id, v.id), ne(planVersion.analysisState, 'done')))
@@ -84,15 +88,27 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
     await setProgress(v.id, 20);
     let last = 0;
     // the site's datum goes into the result, so every stored height names its reference
-    const result = await terrain.analyse(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), v.input, (pct) => {
+    const analysis = await terrain.analyse(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), v.input, (pct) => {
       if (pct - last >= 5) {
         last = pct;
         setProgress(v.id, pct).catch(() => undefined);
       }
     }, { siteVerticalDatum: s.verticalDatum });
-    const checked = planResultSchema.safeParse(result);
+    const checked = planResultSchema.safeParse(analysis.result);
     if (!checked.success) throw new FinalAnalysisError(`The analysis produced a result the server cannot store (${checked.error.issues[0]?.message}); this is a Loftline bug.`);
-    return checked.data;
+    const coverage = storedCoverageSchema.safeParse(analysis.coverage);
+    if (!coverage.success) throw new FinalAnalysisError(`The coverage run produced a document the server cannot store (${coverage.error.issues[0]?.message}); this is a Loftline bug.`);
+    // the files go in before the row says done, so a reader never finds a ready coverage without its files
+    if (analysis.files) await storeCoverageFiles(v, analysis.files);
+    return { result: checked.data, coverage: coverage.data };
+  }
+
+  async function storeCoverageFiles(v: { id: string; teamId: string }, files: CoverageFiles) {
+    await storage.put(coverageKeys.raster(v.teamId, v.id), files.raster, { contentType: 'image/tiff' });
+    for (const [measure, png] of Object.entries(files.layers)) {
+      await storage.put(coverageKeys.layer(v.teamId, v.id, measure as CoverageMeasure), png, { contentType: 'image/png' });
+    }
+    await storage.put(coverageKeys.failing(v.teamId, v.id), files.failing, { contentType: 'image/png' });
   }
 
   return {
@@ -104,8 +120,7 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
         return 'skipped';
       }
       try {
-        const result = await compute(v);
-        const wrote = await settle(v, { result });
+        const wrote = await settle(v, await compute(v));
         log(`analysis ${versionId}: ${wrote ? 'done' : 'finished by another worker first'}`);
         return wrote ? 'done' : 'skipped';
       } catch (err) {

@@ -7,9 +7,8 @@
  */
 import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import type { PlanResult } from '../../terrain/index';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, inspectDem, type AnalyseMissionOptions, type DemInspection } from './terrain-tasks';
+import { analyseMission, inspectDem, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
@@ -38,7 +37,7 @@ export class TerrainTimeoutError extends Error {
 /** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
 export interface TerrainRunner {
   inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
-  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<PlanResult>;
+  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
   close(): Promise<void>;
 }
 
@@ -157,7 +156,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
 
   return {
     inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
-    analyse: (bytes, mission, onProgress, o) => run<PlanResult>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
+    analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
     async close() {
       closed = true;
       for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));

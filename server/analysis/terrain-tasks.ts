@@ -5,6 +5,12 @@
 import { inflateSync } from 'node:zlib';
 import type { DemFileInfo, HillshadeInfo } from '../../contracts/sites';
 import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, readDemHeader, TerrainError, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
+import { resolveMission } from '../../terrain/mission';
+import { runCoverage } from '../../terrain/coverage-document';
+import { coverageCog } from '../../terrain/coverage-raster-file';
+import { coverageLayers } from '../../terrain/coverage-layer';
+import type { CoverageMeasure } from '../../terrain/coverage-measures';
+import type { StoredCoverage } from '../../contracts/coverage';
 
 /** Largest analysis window (2^28 pixels = 1 GiB of float32); whole uploads are bounded by DEM_MAX_PIXELS. */
 export const MAX_DEM_PIXELS = 2 ** 28;
@@ -83,13 +89,52 @@ export function analysisDatum(siteVerticalDatum: string | null | undefined, decl
   return { epsg: code ? Number(code[1]) : null, name };
 }
 
-/** Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin), heights named by the site's datum. */
-export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}, opts: AnalyseMissionOptions = {}): Promise<PlanResult> {
+/** The coverage run's files: the raster (COG), one colour image per measure and the failing mask. */
+export interface CoverageFiles {
+  raster: Uint8Array;
+  layers: Record<CoverageMeasure, Uint8Array>;
+  failing: Uint8Array;
+}
+
+/** What an analysis gives: the plan's result and its coverage run (refused with a reason when it cannot be made). */
+export interface MissionAnalysis {
+  result: PlanResult;
+  coverage: StoredCoverage;
+  files: CoverageFiles | null;
+}
+
+/** The byte buffers of an analysis, to move (not copy) them from a terrain thread. */
+export function analysisTransfer(a: MissionAnalysis): ArrayBuffer[] {
+  if (!a.files) return [];
+  return [a.files.raster, a.files.failing, ...Object.values(a.files.layers)].map((b) => b.buffer as ArrayBuffer);
+}
+
+/**
+ * Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin), heights named by
+ * the site's datum; then the coverage of every ground cell under the mission's spec and attitude envelope. A
+ * coverage run the engine refuses (too many cells, a CRS without an EPSG code) leaves the plan's analysis standing
+ * and says why.
+ */
+export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}, opts: AnalyseMissionOptions = {}): Promise<MissionAnalysis> {
   const bbox = missionBboxWgs84(mission);
   const header = await readDemHeader(bytes);
   const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
   onProgress(40);
   const result = analysePlan(grid, mission, { verticalDatum: analysisDatum(opts.siteVerticalDatum, header.verticalDatum) });
-  onProgress(95);
-  return result;
+  onProgress(60);
+  try {
+    const run = runCoverage(grid, mission, resolveMission(mission), result);
+    const { layers, failingPng } = coverageLayers(run.raster, run.spec);
+    const files: CoverageFiles = {
+      raster: coverageCog(run.raster),
+      layers: Object.fromEntries(layers.map((l) => [l.measure, l.png])) as Record<CoverageMeasure, Uint8Array>,
+      failing: failingPng,
+    };
+    onProgress(95);
+    return { result, coverage: { state: 'ready', document: run.document, layers: layers.map(({ png: _png, ...info }) => info) }, files };
+  } catch (err) {
+    if (!(err instanceof TerrainError)) throw err;
+    onProgress(95);
+    return { result, coverage: { state: 'refused', reason: err.message }, files: null };
+  }
 }

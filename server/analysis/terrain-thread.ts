@@ -1,6 +1,6 @@
 /** Entry of a terrain thread: runs the tasks of terrain-tasks.ts on messages from terrain-pool.ts. */
 import { parentPort } from 'node:worker_threads';
-import { analyseMission, inspectDem } from './terrain-tasks';
+import { analyseMission, analysisTransfer, inspectDem } from './terrain-tasks';
 import type { ThreadReply, ThreadTask } from './terrain-pool';
 
 const port = parentPort;
@@ -14,7 +14,7 @@ port.on('message', async (task: ThreadTask) => {
       reply({ id: task.id, ok: true, value: r }, [r.hillshade.png.buffer as ArrayBuffer]);
     } else {
       const r = await analyseMission(task.bytes, task.mission, (pct) => reply({ id: task.id, progress: pct }), task.opts);
-      reply({ id: task.id, ok: true, value: r });
+      reply({ id: task.id, ok: true, value: r }, analysisTransfer(r));
     }
   } catch (err) {
     const e = err as Error & { code?: string };

@@ -5,7 +5,8 @@
  */
 import { inArray } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { site } from '../../db/schema';
+import { planVersion, site } from '../../db/schema';
+import { versionObjectKey } from '../coverage/coverage-keys';
 import type { ServiceFactory } from '../services';
 import { storageOf } from './storage.service';
 import type { Storage } from './storage';
@@ -19,23 +20,34 @@ export interface SweepResult {
   orphans: string[];
 }
 
-/** Remove partial writes and site objects without a site row, older than `graceMs`. */
+/**
+ * Remove partial writes, site objects without a site row and version files (coverage rasters and images)
+ * without a version row (its plan was deleted), older than `graceMs`.
+ */
 export async function sweepOrphans(deps: { storage: Storage; db: Db; graceMs: number }): Promise<SweepResult> {
   const { storage, db, graceMs } = deps;
   const partial = await storage.sweepPartial(graceMs);
   const bySite = new Map<string, string[]>();
+  const byVersion = new Map<string, string[]>();
   for (const key of await storage.list('teams/')) {
     const m = siteObjectKey.exec(key);
     if (m) bySite.set(m[1], [...(bySite.get(m[1]) ?? []), key]);
+    const v = versionObjectKey.exec(key);
+    if (v) byVersion.set(v[1], [...(byVersion.get(v[1]) ?? []), key]);
   }
-  const ids = [...bySite.keys()];
   const known = new Set<string>();
-  for (let i = 0; i < ids.length; i += 500) {
-    const rows = await db.select({ id: site.id }).from(site).where(inArray(site.id, ids.slice(i, i + 500)));
+  const siteIds = [...bySite.keys()];
+  for (let i = 0; i < siteIds.length; i += 500) {
+    const rows = await db.select({ id: site.id }).from(site).where(inArray(site.id, siteIds.slice(i, i + 500)));
+    for (const r of rows) known.add(r.id);
+  }
+  const versionIds = [...byVersion.keys()];
+  for (let i = 0; i < versionIds.length; i += 500) {
+    const rows = await db.select({ id: planVersion.id }).from(planVersion).where(inArray(planVersion.id, versionIds.slice(i, i + 500)));
     for (const r of rows) known.add(r.id);
   }
   const orphans: string[] = [];
-  for (const [id, keys] of bySite) {
+  for (const [id, keys] of [...bySite, ...byVersion]) {
     if (known.has(id)) continue;
     for (const key of keys) {
       const at = await storage.modifiedAt(key);

@@ -75,7 +75,7 @@ describe('analysis runs', () => {
     // the worker's answer is the engine's answer for the snapshotted mission and the site's datum, not something else
     expect(v.result.heights.verticalDatum?.name).toBe(w.site.verticalDatum);
     const direct = await analyseMission(new Uint8Array(demBytes), v.input, undefined, { siteVerticalDatum: w.site.verticalDatum });
-    expect(v.result).toEqual(JSON.parse(JSON.stringify(direct)));
+    expect(v.result).toEqual(JSON.parse(JSON.stringify(direct.result)));
     expect(await auditActions(run.body.id)).toEqual(['version.created', 'analysis.done']);
     const plan = (await w.c.get(w.plan)).body;
     expect(plan).toMatchObject({ versionCount: 1, latestVersion: { id: run.body.id, analysisState: 'done' } });
