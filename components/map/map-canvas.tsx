@@ -1,6 +1,6 @@
 /** Native builds draw no map yet (Loftline ships for the web; see map-canvas.web.tsx). */
 import { EmptyState } from '../ui';
-import type { MapShape } from './map-shapes';
+import type { MapImageLayer, MapShape } from './map-shapes';
 
 export type MapCanvasProps = {
   imageUrl: string;
@@ -12,6 +12,7 @@ export type MapCanvasProps = {
   testID?: string;
   crosshair?: boolean;
   view?: readonly [number, number, number, number];
+  layers?: MapImageLayer[];
 };
 
 /** Says where the map can be used instead. */

@@ -1,8 +1,8 @@
 /** The hillshade with shapes drawn over it (one SVG: the image and the overlay share image-pixel coordinates). */
-import { useState } from 'react';
+import { useId, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { colors, layout, radii } from '../theme';
-import { markerPath, type MapShape } from './map-shapes';
+import { markerPath, type MapImageLayer, type MapShape } from './map-shapes';
 
 export type MapCanvasProps = {
   imageUrl: string;
@@ -17,13 +17,16 @@ export type MapCanvasProps = {
   crosshair?: boolean;
   /** The part of the image to show, [x0, y0, x1, y1] in image pixels (default: all of it). */
   view?: readonly [number, number, number, number];
+  /** Images over the hillshade and under the shapes (a coverage layer, hatching through a mask). */
+  layers?: MapImageLayer[];
 };
 
 const strokeScreenPx = 2;
 const markerScreenPx = 11;
 
 /** Sizes are given in screen pixels and scaled into image pixels, so markers stay readable at any zoom. */
-export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, label, testID, crosshair, view }: MapCanvasProps) {
+export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, label, testID, crosshair, view, layers = [] }: MapCanvasProps) {
+  const uid = useId().replace(/[^a-zA-Z0-9_-]/g, '');
   const [x0, y0, x1, y1] = view ?? [0, 0, widthPx, heightPx];
   const vw = x1 - x0;
   const vh = y1 - y0;
@@ -55,9 +58,28 @@ export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, label, t
             <rect width={8 * k} height={8 * k} fill={colors.surfaceSunken} />
             <line x1={0} y1={0} x2={0} y2={8 * k} stroke={colors.lineStrong} strokeWidth={1.5 * k} />
           </pattern>
+          {/* Hatching over cells short of the spec: dark and light strokes read on every colour of the layer below. */}
+          <pattern id={`short-hatch-${uid}`} width={7 * k} height={7 * k} patternUnits="userSpaceOnUse" patternTransform="rotate(-45)">
+            <line x1={0} y1={0} x2={0} y2={7 * k} stroke={colors.surface} strokeWidth={3.2 * k} />
+            <line x1={0} y1={0} x2={0} y2={7 * k} stroke={colors.ink} strokeWidth={1.6 * k} />
+          </pattern>
+          {layers.map((l, i) =>
+            l.kind === 'hatch' ? (
+              <mask key={`m${i}`} id={`layer-mask-${uid}-${i}`} maskUnits="userSpaceOnUse" x={l.rect[0]} y={l.rect[1]} width={l.rect[2]} height={l.rect[3]}>
+                <image href={l.href} x={l.rect[0]} y={l.rect[1]} width={l.rect[2]} height={l.rect[3]} preserveAspectRatio="none" style={{ imageRendering: 'pixelated' }} />
+              </mask>
+            ) : null,
+          )}
         </defs>
         <rect x={0} y={0} width={widthPx} height={heightPx} fill="url(#nodata-hatch)" />
         <image href={imageUrl} x={0} y={0} width={widthPx} height={heightPx} preserveAspectRatio="none" />
+        {layers.map((l, i) =>
+          l.kind === 'hatch' ? (
+            <rect key={`l${i}`} x={l.rect[0]} y={l.rect[1]} width={l.rect[2]} height={l.rect[3]} fill={`url(#short-hatch-${uid})`} mask={`url(#layer-mask-${uid}-${i})`} opacity={l.opacity ?? 1} data-testid={l.testID} />
+          ) : (
+            <image key={`l${i}`} href={l.href} x={l.rect[0]} y={l.rect[1]} width={l.rect[2]} height={l.rect[3]} preserveAspectRatio="none" opacity={l.opacity ?? 1} style={{ imageRendering: 'pixelated' }} data-testid={l.testID} />
+          ),
+        )}
         {shapes.map((s) => {
           if (s.kind === 'marker') {
             const r = ((s.sizePx ?? markerScreenPx) / 2) * k;

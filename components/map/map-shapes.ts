@@ -9,6 +9,12 @@ export type MapShape =
   | { kind: 'marker'; id: string; at: PxPoint; shape: MarkerShape; fill: string; stroke: string; sizePx?: number; label?: string; opacity?: number };
 
 /** SVG path of a marker shape of `r` (half the size) centred on (x, y); the cross is drawn as a stroked path. */
+/**
+ * An image laid over the map at `rect` ([x, y, width, height] in map image pixels): `image` draws it as it is
+ * (pixels kept square when enlarged), `hatch` uses it as a mask (white shows) for a hatch pattern.
+ */
+export type MapImageLayer = { kind: 'image' | 'hatch'; href: string; rect: readonly [number, number, number, number]; opacity?: number; testID?: string };
+
 export function markerPath(shape: MarkerShape, x: number, y: number, r: number): string {
   switch (shape) {
     case 'circle':

@@ -8,6 +8,8 @@ import type { ImageGeoref } from '../map/image-georef';
 import { MapCanvas } from '../map/map-canvas';
 import { space } from '../theme';
 import { Banner, Card, Heading, Text } from '../ui';
+import { CoverageCard } from '../coverage/coverage-card';
+import type { HillshadeInfo } from '../../contracts/sites';
 import { HeadingAdvice } from './heading-advice';
 import { LinesTable } from './lines-table';
 import { StatusLegend } from './status-legend';
@@ -22,12 +24,14 @@ export type ResultsViewProps = {
   units: UnitSystem;
   clearanceTotalM: number;
   datum: string;
+  /** The version whose coverage of every ground cell is shown (with the site's hillshade placement). */
+  coverage?: { teamId: string | undefined; planId: string; versionId: string; hillshade: HillshadeInfo };
 };
 
 /** Standing cautions are shown once by FlightCautions; the rest of the engine's warnings are listed in its words. */
 const standingCodes = new Set(['bare-earth', 'local-rules', 'wind']);
 
-export function ResultsView({ result, area, georef, hillshadeUrl, units, clearanceTotalM, datum }: ResultsViewProps) {
+export function ResultsView({ result, area, georef, hillshadeUrl, units, clearanceTotalM, datum, coverage }: ResultsViewProps) {
   const v = useResultsView(result, area, georef);
   const breakpoint = useBreakpoint();
   const wide = breakpoint === 'wide';
@@ -43,6 +47,9 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
       <StatusLegend counts={v.counts} compact={!wide} />
     </Card>
   );
+  const proof = coverage ? (
+    <CoverageCard {...coverage} georef={georef} hillshadeUrl={hillshadeUrl} baseShapes={v.shapes} view={v.view} />
+  ) : null;
   const chart = v.selectedLine ? (
     <Card testID="results-chart">
       <ProfileChart line={v.selectedLine} clearanceTotalM={clearanceTotalM} units={units} datum={datum} heightPx={wide ? 300 : 240} />
@@ -76,6 +83,7 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
         <View style={styles.row}>
           <View style={styles.left}>
             {overview}
+            {proof}
             {extras}
           </View>
           <View style={styles.right}>
@@ -86,6 +94,7 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
       ) : (
         <>
           {overview}
+          {proof}
           {chart}
           {table}
           {extras}

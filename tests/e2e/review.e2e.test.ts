@@ -14,7 +14,7 @@ import { demoPassword } from '../../server/seed/demo-password';
 import type { Role } from '../../contracts/roles';
 import { plan, planVersion, project, user } from '../../db/schema';
 import { demoProject } from '../../server/seed/demo-project';
-import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
+import { growToContent, launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
 import { demoClients, demoTeamId } from '../support/demo';
 import { createVersion, eventually, type VersionFixture } from '../support/fixtures';
 import type { ApiClient } from '../support/http-client';
@@ -78,21 +78,9 @@ async function signIn(page: Page, email: string, password = demoPassword): Promi
  * made as tall as the content for the shot (Chromium's limit is 16384 px) and restored after.
  */
 async function shootWhole(page: Page, name: string): Promise<void> {
-  const size = page.viewportSize()!;
-  const contentPx = await page.evaluate(() => {
-    let most = document.documentElement.scrollHeight;
-    for (const el of Array.from(document.querySelectorAll<HTMLElement>('*'))) {
-      const overflow = getComputedStyle(el).overflowY;
-      if ((overflow === 'auto' || overflow === 'scroll') && el.scrollHeight > el.clientHeight + 1) {
-        most = Math.max(most, el.scrollHeight + (window.innerHeight - el.clientHeight));
-      }
-    }
-    return most;
-  });
-  await page.setViewportSize({ width: size.width, height: Math.min(16_000, Math.max(size.height, contentPx)) });
-  await page.waitForTimeout(300);
+  const restore = await growToContent(page);
   await page.screenshot({ path: path.join(shotDir, name) });
-  await page.setViewportSize(size);
+  await restore();
 }
 
 /** The page's width beyond the window: 0 means nothing scrolls sideways. */

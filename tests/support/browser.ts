@@ -44,3 +44,24 @@ export async function openPage(
   });
   return { context, page, pageErrors };
 }
+
+/**
+ * Make the window as tall as the screen's content (the app scrolls inside its own container, not the document;
+ * Chromium's limit is 16384 px) so a screenshot shows all of it; returns the function that restores the size.
+ */
+export async function growToContent(page: Page): Promise<() => Promise<void>> {
+  const size = page.viewportSize()!;
+  const contentPx = await page.evaluate(() => {
+    let most = document.documentElement.scrollHeight;
+    for (const el of Array.from(document.querySelectorAll<HTMLElement>('*'))) {
+      const overflow = getComputedStyle(el).overflowY;
+      if ((overflow === 'auto' || overflow === 'scroll') && el.scrollHeight > el.clientHeight + 1) {
+        most = Math.max(most, el.scrollHeight + (window.innerHeight - el.clientHeight));
+      }
+    }
+    return most;
+  });
+  await page.setViewportSize({ width: size.width, height: Math.min(16_000, Math.max(size.height, contentPx)) });
+  await page.waitForTimeout(300);
+  return () => page.setViewportSize(size);
+}
