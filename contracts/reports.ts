@@ -22,7 +22,7 @@ export type StationStats = z.infer<typeof stationStatsSchema>;
 
 /** One requirement of the spec against what the plan achieves. */
 export const specCheckSchema = z.object({
-  key: z.enum(['gsd-band', 'forward-overlap', 'side-overlap', 'clearance', 'height-limit']),
+  key: z.enum(['gsd-band', 'forward-overlap', 'side-overlap', 'clearance', 'height-limit', 'cells', 'cells-gsd', 'cells-views', 'cells-sigma-vertical', 'cells-sigma-horizontal', 'cells-ground-unknown']),
   label: z.string(),
   required: z.string(),
   achieved: z.string(),
@@ -41,6 +41,21 @@ export const reportLineSchema = stationStatsSchema.extend({
   gsdSeries: z.array(z.object({ distanceM: num, gsdCm: nullableNum })),
 });
 export type ReportLine = z.infer<typeof reportLineSchema>;
+
+export const reportCoverageSchema = z.object({
+  state: z.enum(['ready', 'refused', 'none']),
+  /** How views were counted (ready), or why there is no coverage. */
+  note: z.string(),
+  spec: z.string().nullable(),
+  cellM: nullableNum,
+  areaM2: nullableNum,
+  items: z.array(z.object({ item: z.string(), title: z.string(), share: num, failingAreaM2: num })),
+  shareAll: nullableNum,
+  patchCount: z.number().int(),
+  /** The largest patches short of the spec (at most 10). */
+  patches: z.array(z.object({ message: z.string(), areaM2: num, lon: num, lat: num })),
+});
+export type ReportCoverage = z.infer<typeof reportCoverageSchema>;
 
 export const complianceReportSchema = z.object({
   version: z.object({
@@ -68,6 +83,8 @@ export const complianceReportSchema = z.object({
   }),
   overall: stationStatsSchema.extend({ lineCount: z.number().int(), photoCount: z.number().int(), flightTimeS: nullableNum }),
   checks: z.array(specCheckSchema),
+  /** The spec checked in every ground cell (the coverage run), or why it was not. */
+  coverage: reportCoverageSchema,
   lines: z.array(reportLineSchema),
   dem: z.object({
     siteName: z.string(),

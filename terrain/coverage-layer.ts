@@ -38,6 +38,8 @@ export interface CoverageLayers {
   layers: CoverageLayer[];
   /** White, opaque where a cell fails any spec item; transparent elsewhere. */
   failingPng: Uint8Array;
+  /** For printed reports: the GSD layer enlarged, with the failing cells' hatching drawn in (no mask needed). */
+  printPng: Uint8Array;
 }
 
 function encode(width: number, height: number, rgba: Uint8Array): Uint8Array {
@@ -116,5 +118,37 @@ export function coverageLayers(r: CoverageRaster, spec: CoverageSpec): CoverageL
     const o = i * 4;
     mask[o] = mask[o + 1] = mask[o + 2] = mask[o + 3] = 255;
   }
-  return { width, height, layers, failingPng: encode(width, height, mask) };
+  return { width, height, layers, failingPng: encode(width, height, mask), printPng: printImage(r, spec, layers[0]) };
+}
+
+/** Longest side of the printed map image, pixels (a page width at about 150 dpi). */
+const PRINT_PX = 1100;
+
+/**
+ * The GSD layer for paper: each cell enlarged to whole pixels, cells short of the spec striped with dark
+ * diagonals every 6 pixels (readable in black and white), white outside the area.
+ */
+function printImage(r: CoverageRaster, spec: CoverageSpec, gsd: CoverageLayer): Uint8Array {
+  const { width, height, inside } = r.cells;
+  const k = Math.max(1, Math.floor(PRINT_PX / Math.max(width, height)));
+  const w = width * k, h = height * k;
+  const rgba = new Uint8Array(w * h * 4).fill(255);
+  const span = gsd.max - gsd.min || 1;
+  for (let row = 0; row < height; row++) {
+    for (let col = 0; col < width; col++) {
+      const i = row * width + col;
+      if (!inside[i]) continue;
+      const v = r.finestGsdCm[i];
+      const [cr, cg, cb] = v === v ? paletteAt((v - gsd.min) / span, 'low') : [235, 235, 235];
+      const fails = cellFails(r, spec, i);
+      for (let y = row * k; y < (row + 1) * k; y++) {
+        for (let x = col * k; x < (col + 1) * k; x++) {
+          const o = (y * w + x) * 4;
+          const stripe = fails && (x + y) % 6 < 2;
+          rgba[o] = stripe ? 20 : cr; rgba[o + 1] = stripe ? 32 : cg; rgba[o + 2] = stripe ? 42 : cb;
+        }
+      }
+    }
+  }
+  return encode(w, h, rgba);
 }

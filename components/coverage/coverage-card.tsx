@@ -14,7 +14,7 @@ import { DownloadLink } from '../reports/download-link';
 import { colors, layout, radii, space } from '../theme';
 import { Banner, Button, Card, ChoiceGroup, Heading, List, Loading, Text } from '../ui';
 import { CoverageLegend } from './coverage-legend';
-import { areaWords, basisWords, itemTitle, shareWords, specWords } from './coverage-words';
+import { areaWords, basisWords, itemTitle, shareWords, specWords } from '../../contracts/coverage-words';
 import { useCoverageView } from './use-coverage-view';
 
 export type CoverageCardProps = {

@@ -6,7 +6,7 @@ import type { ImageGeoref } from '../map/image-georef';
 import type { MapImageLayer, MapShape } from '../map/map-shapes';
 import { colors } from '../theme';
 import { useCoverageCell, useVersionCoverage } from './coverage.queries';
-import { rasterRect } from './coverage-words';
+import { rasterRect } from './coverage-placement';
 
 export interface CoverageViewArgs {
   teamId: string | undefined;

@@ -14,6 +14,7 @@ import { DownloadLink } from './download-link';
 import { FigureGrid } from './figure-grid';
 import { demFigures, formatRangeCm, overallFigures, specFigures } from './report-figures';
 import { ReportLineCard } from './report-line-card';
+import { ReportCoverageCard } from './report-coverage-card';
 import { SpecChecks } from './spec-checks';
 import { useReportScreen } from './use-report-screen';
 
@@ -62,6 +63,8 @@ function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref:
         <Heading level={3}>The client's spec</Heading>
         <FigureGrid figures={specFigures(r.spec)} testID="spec" />
       </Card>
+
+      <ReportCoverageCard coverage={r.coverage} />
 
       <Card testID="report-overall">
         <Heading level={2}>All lines together</Heading>

@@ -109,6 +109,7 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
       await storage.put(coverageKeys.layer(v.teamId, v.id, measure as CoverageMeasure), png, { contentType: 'image/png' });
     }
     await storage.put(coverageKeys.failing(v.teamId, v.id), files.failing, { contentType: 'image/png' });
+    await storage.put(coverageKeys.print(v.teamId, v.id), files.print, { contentType: 'image/png' });
   }
 
   return {

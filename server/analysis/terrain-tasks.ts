@@ -94,6 +94,8 @@ export interface CoverageFiles {
   raster: Uint8Array;
   layers: Record<CoverageMeasure, Uint8Array>;
   failing: Uint8Array;
+  /** The GSD map with the shortfall hatched in, for the printed report. */
+  print: Uint8Array;
 }
 
 /** What an analysis gives: the plan's result and its coverage run (refused with a reason when it cannot be made). */
@@ -106,7 +108,7 @@ export interface MissionAnalysis {
 /** The byte buffers of an analysis, to move (not copy) them from a terrain thread. */
 export function analysisTransfer(a: MissionAnalysis): ArrayBuffer[] {
   if (!a.files) return [];
-  return [a.files.raster, a.files.failing, ...Object.values(a.files.layers)].map((b) => b.buffer as ArrayBuffer);
+  return [a.files.raster, a.files.failing, a.files.print, ...Object.values(a.files.layers)].map((b) => b.buffer as ArrayBuffer);
 }
 
 /**
@@ -124,11 +126,12 @@ export async function analyseMission(bytes: Uint8Array, mission: unknown, onProg
   onProgress(60);
   try {
     const run = runCoverage(grid, mission, resolveMission(mission), result);
-    const { layers, failingPng } = coverageLayers(run.raster, run.spec);
+    const { layers, failingPng, printPng } = coverageLayers(run.raster, run.spec);
     const files: CoverageFiles = {
       raster: coverageCog(run.raster),
       layers: Object.fromEntries(layers.map((l) => [l.measure, l.png])) as Record<CoverageMeasure, Uint8Array>,
       failing: failingPng,
+      print: printPng,
     };
     onProgress(95);
     return { result, coverage: { state: 'ready', document: run.document, layers: layers.map(({ png: _png, ...info }) => info) }, files };

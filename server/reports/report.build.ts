@@ -6,6 +6,7 @@ import type { GridMetadata } from '../../terrain/metadata';
 import type { Mission } from '../../terrain/mission';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { flightCautions } from './cautions';
+import { coverageChecks, reportCoverage } from './report.coverage';
 import { azimuthDeg } from './geodesy';
 import { fmt } from './format';
 import { heightDatumOf, noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
@@ -98,7 +99,7 @@ export function requirementChecks(v: VersionRecord): SpecCheck[] {
   const view = readResult(v.result);
   const band = gsdBandCm(mission);
   const overall = stationStats(view.lines.flatMap((l) => l.stations), band, view.lines.flatMap((l) => l.legs));
-  return specChecks(mission, overall, view.lines.length, band);
+  return [...specChecks(mission, overall, view.lines.length, band), ...coverageChecks(v.coverage)];
 }
 
 /** The reasons stored with a sign-off, each beside the requirement it answers. */
@@ -117,7 +118,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
   const band = gsdBandCm(mission);
   const all = view.lines.flatMap((l) => l.stations);
   const overall = stationStats(all, band, view.lines.flatMap((l) => l.legs));
-  const checks = specChecks(mission, overall, view.lines.length, band);
+  const checks = [...specChecks(mission, overall, view.lines.length, band), ...coverageChecks(v.coverage)];
   const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
   const basis = overall.gsdCm.median;
   const state = reviewStateSchema.parse(v.reviewState);
@@ -152,6 +153,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       flightTimeS: view.summary.flightTimeS ?? null,
     },
     checks,
+    coverage: reportCoverage(v.coverage),
     lines: view.lines.map((line, i) => ({
       number: i + 1,
       ...stationStats(line.stations, band, line.legs),
@@ -187,7 +189,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
       `A station meets the GSD target when its GSD lies within ${fmt.gsdCm(band[0])} to ${fmt.gsdCm(band[1])} (target ${fmt.gsdCm(mission.targetGsdCm)} ± ${fmt.percent(mission.gsdTolerance)}); stations over unknown ground count as not meeting it.`,
       `Percentiles: ${percentileMethod}.`,
       `Heights above the datum refer to the grid's vertical datum (${heightDatumOf(v)}); altitudes for the pilot are above the takeoff point.`,
-      'The camera points straight down (no tilt, roll or wind crab) and the aircraft holds the planned track and speed.',
+      'Station figures (GSD, overlaps, heights) take the camera pointing straight down (no tilt, roll or wind crab) and the aircraft holding the planned track and speed; the ground proof counts views per cell under the attitude envelope the mission states, if any.',
     ],
     warnings: planWarnings(view),
     cautions: flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),

@@ -4,6 +4,7 @@ import PDFDocument from 'pdfkit';
 import type { ComplianceReport } from '../../contracts/reports';
 import { drawGsdChart } from './report.chart';
 import { fmt } from './format';
+import { areaWords, shareWords } from '../../contracts/coverage-words';
 
 const require = createRequire(import.meta.url);
 /** Font files from the @expo-google-fonts/inter package (SIL Open Font License), embedded as subsets. */
@@ -58,8 +59,39 @@ function paragraphs(doc: Doc, items: string[], bullet = '•'): void {
   for (const t of items) doc.text(`${bullet} ${t}`, page.margin, doc.y, { width: page.width }).moveDown(0.2);
 }
 
-/** Render the report to PDF bytes. */
-export async function renderReportPdf(r: ComplianceReport): Promise<Buffer> {
+/** The ground proof: the spec in every cell, per item, the printed map with its legend in words, the largest shortfalls. */
+function groundProof(doc: Doc, r: ComplianceReport, map: Buffer | null): void {
+  const c = r.coverage;
+  heading(doc, 'Ground proof: the spec in every ground cell');
+  if (c.state !== 'ready') {
+    doc.font('Inter-Bold').fontSize(9).fillColor('#8a4b00').text(c.note, page.margin, doc.y, { width: page.width });
+    return;
+  }
+  doc.font('Inter').fontSize(9).fillColor('#1b1e21').text(`Spec: ${c.spec} (${c.cellM} m cells over ${areaWords(c.areaM2 ?? 0)}).`, page.margin, doc.y, { width: page.width });
+  doc.fontSize(8.5).fillColor(grey).text(c.note, { width: page.width }).moveDown(0.3);
+  table(doc, [['Item', 'Share of the area', 'Short'], ...c.items.map((it) => [it.title, shareWords(it.share), it.failingAreaM2 > 0 ? areaWords(it.failingAreaM2) : 'none'])], [3, 1.3, 1.3]);
+  doc.moveDown(0.3).font('Inter-Bold').fontSize(9).fillColor('#1b1e21').text(`Every item met on ${shareWords(c.shareAll ?? 0)} of the area.`, page.margin);
+  if (map) {
+    const h = 300;
+    if (doc.y + h + 40 > pageBottom(doc)) doc.addPage();
+    const y = doc.y + 6;
+    doc.image(map, page.margin, y, { fit: [page.width, h], align: 'center' });
+    doc.y = y + h + 4;
+    doc.x = page.margin;
+    doc.font('Inter').fontSize(8).fillColor(grey).text(
+      'Map: finest GSD among the views of each cell, light yellow finest to dark purple coarsest (viridis, from 0 to twice the spec). Dark diagonal stripes: cells short of the spec on at least one item. White: outside the survey area. North up.',
+      { width: page.width },
+    );
+  }
+  if (c.patches.length) {
+    doc.moveDown(0.4);
+    table(doc, [['Largest shortfalls', 'Area', 'Centre (WGS 84)'], ...c.patches.map((p) => [p.message, areaWords(p.areaM2), `${p.lat.toFixed(5)}, ${p.lon.toFixed(5)}`])], [4, 1, 1.6]);
+    if (c.patchCount > c.patches.length) doc.font('Inter').fontSize(8).fillColor(grey).text(`${c.patchCount - c.patches.length} smaller patches are in the coverage raster (downloadable as a GeoTIFF).`, page.margin);
+  }
+}
+
+/** Render the report to PDF bytes; `coverageMap` is the printed coverage map of a ready coverage run. */
+export async function renderReportPdf(r: ComplianceReport, extras: { coverageMap?: Buffer | null } = {}): Promise<Buffer> {
   const doc = new PDFDocument({
     size: 'A4',
     margin: page.margin,
@@ -101,6 +133,8 @@ export async function renderReportPdf(r: ComplianceReport): Promise<Buffer> {
   table(doc, [['Requirement', 'Required', 'Achieved', 'Result'], ...r.checks.map((c) => [c.label, c.required, c.achieved, c.pass ? 'meets' : 'DOES NOT MEET'])], [2.2, 3, 3, 1.2]);
   doc.moveDown(0.4).font('Inter').fontSize(8.5).fillColor(grey);
   doc.text(`Target GSD ${fmt.gsdCm(r.spec.targetGsdCm)} ± ${fmt.percent(r.spec.gsdTolerance)}; altitude mode ${r.spec.altitudeMode}.`, page.margin);
+
+  groundProof(doc, r, extras.coverageMap ?? null);
 
   heading(doc, 'Results overall');
   const o = r.overall;

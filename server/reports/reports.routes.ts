@@ -3,6 +3,7 @@ import type { Request, Router } from 'express';
 import { complianceReportSchema } from '../../contracts/reports';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
+import { storageOf } from '../storage/storage.service';
 import type { RouteGroup } from '../routes';
 import { createVersionsRepository } from '../reviews/versions.repository';
 import { createReportService } from './reports.service';
@@ -11,7 +12,7 @@ const base = '/teams/:teamId/plans/:planId/versions/:versionId';
 
 /** Route group: compliance reports (report:read; pilots read leg sheets instead). */
 export const registerReportRoutes: RouteGroup = (api: Router, { guards, services }) => {
-  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }) });
+  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }) , storage: () => storageOf(services) });
   const ids = (req: Request) => {
     const { teamId, role } = requireTeam(req);
     return { teamId, role, planId: String(req.params.planId), versionId: String(req.params.versionId) };

@@ -6,9 +6,22 @@ import type { VersionRecord, VersionsRepository } from '../reviews/versions.repo
 import { buildReport } from './report.build';
 import { renderReportPdf, reportFileName } from './report.pdf';
 import { requireAnalysed } from './result-view';
+import { coverageKeys } from '../coverage/coverage-keys';
+import { StorageNotFoundError, type Storage } from '../storage/storage';
 
-export function createReportService(deps: { versions: VersionsRepository; now?: () => Date }) {
+export function createReportService(deps: { versions: VersionsRepository; now?: () => Date; storage?: () => Storage }) {
   const now = deps.now ?? (() => new Date());
+
+  /** The printed coverage map of a version with a ready coverage run (null without one). */
+  async function coverageMap(v: VersionRecord): Promise<Buffer | null> {
+    if (!deps.storage || (v.coverage as { state?: string } | null)?.state !== 'ready') return null;
+    try {
+      return await deps.storage().getBytes(coverageKeys.print(v.teamId, v.id));
+    } catch (err) {
+      if (err instanceof StorageNotFoundError) return null; // versions stored before the printed map existed
+      throw err;
+    }
+  }
 
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
     const v = await deps.versions.find(q);
@@ -21,7 +34,7 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
   async function pdfOf(v: VersionRecord): Promise<{ pdf: Buffer; fileName: string; report: ComplianceReport }> {
     requireAnalysed(v);
     const report = buildReport(v, now());
-    return { pdf: await renderReportPdf(report), fileName: reportFileName(report), report };
+    return { pdf: await renderReportPdf(report, { coverageMap: await coverageMap(v) }), fileName: reportFileName(report), report };
   }
 
   return {

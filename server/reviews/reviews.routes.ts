@@ -5,6 +5,7 @@ import { requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { mailerOf } from '../mail/mail.service';
 import { createReportService } from '../reports/reports.service';
+import { storageOf } from '../storage/storage.service';
 import type { RouteGroup } from '../routes';
 import { createReviewNotifier } from './reviews.notify';
 import { createReviewsRepository } from './reviews.repository';
@@ -19,7 +20,7 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
   const { db, config } = services;
   const versions = createVersionsRepository({ db });
   const reviews = createReviewsRepository({ db });
-  const reports = createReportService({ versions });
+  const reports = createReportService({ versions , storage: () => storageOf(services) });
   const usecases = createReviewsUsecases({
     versions,
     reviews,

@@ -26,6 +26,7 @@ function selection() {
     analysisState: planVersion.analysisState,
     analysisError: planVersion.analysisError,
     result: planVersion.result,
+    coverage: planVersion.coverage,
     analysedAt: planVersion.analysedAt,
     createdAt: planVersion.createdAt,
     createdById: planVersion.createdBy,
@@ -95,7 +96,7 @@ export function createVersionsRepository({ db }: { db: Db }) {
     async stamp(q: { teamId: string; versionId: string; planId?: string; role: Role }): Promise<string | null> {
       const where = conditions(q);
       if (!where) return null;
-      const { input: _i, result: _r, siteMetadata: _m, ...light } = selection();
+      const { input: _i, result: _r, coverage: _c, siteMetadata: _m, ...light } = selection();
       const rows = await db
         .select(light)
         .from(planVersion)

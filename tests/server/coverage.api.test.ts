@@ -10,6 +10,9 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import pngjs from 'pngjs';
+import { complianceReportSchema } from '../../contracts/reports';
+import { shareWords } from '../../contracts/coverage-words';
+import { pdfText } from '../reports/pdf-text';
 import { coverageCellSchema, versionCoverageSchema, type VersionCoverage } from '../../contracts/coverage';
 import { run as runCoverageCli } from '../../cli/coverage';
 import type { Role } from '../../contracts/roles';
@@ -158,6 +161,30 @@ describe('coverage of the demo version', () => {
     let failing = 0;
     for (let i = 3; i < mask.data.length; i += 4) if (mask.data[i] === 255) failing++;
     expect(failing / d.compliance.cellsInArea).toBeCloseTo(1 - d.compliance.shareAll, 5);
+  });
+
+  it('puts the ground proof in the compliance report and its PDF, one requirement per item, with the printed map', async () => {
+    const report = complianceReportSchema.parse((await clients.surveyor.get(`${versionPath}/report`)).body);
+    const d = coverage.document;
+    expect(report.coverage.state).toBe('ready');
+    expect(report.coverage.items.map((i) => [i.item, i.share])).toEqual(d.compliance.items.map((i) => [i.item, i.share]));
+    const cells = report.checks.filter((c) => c.key.startsWith('cells-'));
+    expect(cells.map((c) => c.key)).toEqual(d.compliance.items.map((i) => `cells-${i.item}`));
+    for (const c of cells) {
+      const it = d.compliance.items.find((i) => `cells-${i.item}` === c.key)!;
+      expect(c.pass).toBe(it.share >= 1);
+      expect(c.achieved).toContain(shareWords(it.share));
+    }
+    const pdf = await clients.surveyor.getBytes(`${versionPath}/report.pdf`);
+    expect(pdf.status).toBe(200);
+    const file = path.join(dir, 'report.pdf');
+    fs.writeFileSync(file, pdf.bytes);
+    // pdftotext and pdfimages from Debian's poppler-utils read the PDF back
+    const text = pdfText(pdf.bytes);
+    expect(text).toContain('Ground proof: the spec in every ground cell');
+    expect(text).toContain(`${shareWords(d.compliance.shareAll)} of the area`);
+    const images = execFileSync('pdfimages', ['-list', file], { encoding: 'utf8' }).trim().split('\n').slice(2);
+    expect(images.length).toBeGreaterThanOrEqual(1);
   });
 
   it('lets every role that reads plans see it, and no one outside the team', async () => {

@@ -1,6 +1,5 @@
-/** The coverage document in words and placements for the screens: the spec, each item, areas, and where the raster lies on the hillshade. */
-import type { CoverageDocument } from '../../contracts/coverage';
-import { mapToPixel, type GeoTransform } from '../../terrain/grid';
+/** The coverage document in words, shared by the screens, the report and its PDF: the spec, how views were counted, each item, areas and shares. */
+import type { CoverageDocument } from './coverage';
 
 type Item = CoverageDocument['compliance']['items'][number];
 
@@ -42,17 +41,4 @@ export function shareWords(share: number): string {
   if (share < 1 && pct > 99.9) return '> 99.9 %';
   if (share > 0 && pct < 0.1) return '< 0.1 %';
   return `${pct.toFixed(1)} %`;
-}
-
-/**
- * Where the raster lies on the hillshade image, [x, y, width, height] in image pixels: both geotransforms are in
- * the grid's CRS, so the corners map linearly. Null when the hillshade has no geotransform (older sites).
- */
-export function rasterRect(rasterTransform: readonly number[], width: number, height: number, hillshadeTransform: readonly number[] | null | undefined): [number, number, number, number] | null {
-  if (!hillshadeTransform || hillshadeTransform.length !== 6) return null;
-  const hs = hillshadeTransform as unknown as GeoTransform;
-  const t = rasterTransform;
-  const [x0, y0] = mapToPixel(hs, t[0], t[3]);
-  const [x1, y1] = mapToPixel(hs, t[0] + width * t[1], t[3] + height * t[5]);
-  return [Math.min(x0, x1), Math.min(y0, y1), Math.abs(x1 - x0), Math.abs(y1 - y0)];
 }
