@@ -17,6 +17,7 @@ import { coverageCellSchema, versionCoverageSchema, type VersionCoverage } from 
 import { run as runCoverageCli } from '../../cli/coverage';
 import type { Role } from '../../contracts/roles';
 import { demoClients, demoTeamId } from '../support/demo';
+import { demoProject } from '../../server/seed/demo-project';
 import type { ApiClient } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -35,12 +36,13 @@ beforeAll(async () => {
   clients = await demoClients(srv);
   const teamId = await demoTeamId(srv);
   const projects = (await clients.surveyor.get(`/api/teams/${teamId}/projects`)).body.projects;
-  projectId = projects[0].id as string;
-  siteId = ((await clients.surveyor.get(`/api/teams/${teamId}/projects/${projectId}/sites`)).body.sites[0].id) as string;
+  // Other suites add projects and plans to the demo team; pick the seeded ones by name.
+  projectId = projects.find((p: { name: string }) => p.name === demoProject.name).id as string;
   team = teamId;
-  const plan = (await clients.surveyor.get(`/api/teams/${teamId}/projects/${projectId}/plans`)).body.plans[0];
+  const plan = (await clients.surveyor.get(`/api/teams/${teamId}/projects/${projectId}/plans`)).body.plans.find((p: { name: string }) => p.name === demoProject.planName);
   const versions = (await clients.surveyor.get(`/api/teams/${teamId}/plans/${plan.id}/versions`)).body.versions;
-  const first = versions[versions.length - 1];
+  siteId = plan.siteId as string;
+  const first = versions.find((v: { number: number }) => v.number === 1);
   versionPath = `/api/teams/${teamId}/plans/${plan.id}/versions/${first.id}`;
   input = (await clients.surveyor.get(versionPath)).body.input;
   const r = await clients.surveyor.get(`${versionPath}/coverage`);

@@ -146,6 +146,7 @@ export async function createVersion(
   },
 ): Promise<VersionFixture> {
   const grid = syntheticGrid();
+  const meta = describeGrid(grid);
   const analysed = (q.analysisState ?? 'done') === 'done';
   const [p] = await srv.db
     .insert(project)
@@ -163,9 +164,11 @@ export async function createVersion(
       sha256: crypto.randomBytes(32).toString('hex'),
       surfaceKind: q.surfaceKind ?? 'bare-earth',
       verticalDatum: 'EGM96 geoid',
-      metadata: describeGrid(grid),
+      // A complete description (as an upload stores it) so that site reads answer with a valid shape; the hillshade
+      // PNG itself is not stored, so only its description is.
+      metadata: { ...meta, file: { compression: 'none', sampleType: 'float32', tiled: false, nodata: null, declaredVerticalDatum: null } },
       hillshadeKey: `fixtures/${crypto.randomUUID()}.png`,
-      hillshade: {},
+      hillshade: { width: grid.width, height: grid.height, boundsWgs84: meta.boundsWgs84, transform: grid.transform },
       createdBy: q.createdBy,
     })
     .returning({ id: site.id });
