@@ -104,6 +104,8 @@ export interface AnalyseOptions {
   lines?: FlightLine[];
   /** Altitude limits of one line instead of the mission's (e.g. its own GSD height and slower, steeper legs). */
   limitsFor?: (line: FlightLine, missionLimits: AltitudeLimits) => AltitudeLimits;
+  /** Ground the GSD band of a line is measured from at its sample distances (e.g. the lowest its photos reach); default the ground under it. */
+  bandGroundFor?: (line: FlightLine, x: Float64Array) => Float64Array | undefined;
 }
 
 /** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
@@ -148,7 +150,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     const xs = new Float64Array(x.length), ys = new Float64Array(x.length), g = new Float64Array(x.length);
     for (let i = 0; i < x.length; i++) { const p = pointAlong(line, x[i]); xs[i] = p[0]; ys[i] = p[1]; }
     heights.sampleMany(xs, ys, g);
-    return { x, stationIdx, fit: fitAltitudes(x, g, mission.mode, opts.limitsFor ? opts.limitsFor(line, lim) : lim) };
+    return { x, stationIdx, fit: fitAltitudes(x, g, mission.mode, opts.limitsFor ? opts.limitsFor(line, lim) : lim, opts.bandGroundFor?.(line, x)) };
   });
   // A line with no known ground at all has no safe altitude: it is left out of the flight and reported.
   const plannable = laidProfiles.map((p) => p.fit.unknownCount < p.x.length);

@@ -110,7 +110,7 @@ export function layoutRows(ctx: LineContext, heightFactorAt: (cM: number) => num
   const nominalHalf = ctx.geometry.specHeightM * heightFactorAt((cMin + cMax) / 2) * ctx.geometry.tanAcross;
   const nominalS = Math.max(1, 2 * nominalHalf * (1 - sideFloor));
   const trig = Math.max(5, nominalHalf);
-  const fitRow = (c: number, below: number, above: number) => layRow(ctx, c, below, above, trig).map((l) => fitAtBestSpeed(ctx, l, heightFactorAt(c)));
+  const fitRow = (c: number, below: number, above: number) => layRow(ctx, c, below, above, trig).map((l) => fitAtBestSpeed(ctx, l, heightFactorAt(c), { belowM: below, aboveM: above }));
   // first row: its own guaranteed reach must get to the area's edge
   let c0 = Math.min(cMin + 0.9 * nominalHalf, (cMin + cMax) / 2);
   let row0 = fitRow(c0, Math.max(1, c0 - cMin), nominalS / 2);

@@ -10,7 +10,7 @@ import type { AltitudeLimits } from './altitude';
 import type { PlanResult } from './plan-result';
 import { resolveSolveOptions, type SolvePattern } from './solve-options';
 import { forwardOverlapForViews, viewGeometry } from './solve-geometry';
-import { fitAtBestSpeed, type LineContext } from './solve-line';
+import { fitAtBestSpeed, stripLowM, type LineContext, type Strip } from './solve-line';
 import { layoutRows, rotated, type LayoutRow } from './solve-layout';
 import { placeTriggers } from './solve-triggers';
 import { flightTimeWithLegSpeedsS, legSpeedMps } from './solve-speed';
@@ -110,24 +110,31 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     const offsets = rows.map((r) => r.offsetM);
     const laid = planFlightLines(area, { headingDeg, lineSpacingM: nominalS, triggerDistanceM: Math.max(5, baseHalf), runInM: mission.runInM, offsetsM: offsets, takeoff: takeoffXY });
     const limitsBy = new Map<FlightLine, AltitudeLimits>();
+    const stripBy = new Map<FlightLine, Strip>();
     const info: Array<{ line: FlightLine; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean }> = [];
     const lines = laid.map((l) => {
       const row = offsets.findIndex((c) => Math.abs(c - l.offsetM) < 1e-6);
       const factor = factorAt(l.offsetM);
-      const fitted = fitAtBestSpeed(ctx, l, factor);
-      const belowM = row > 0 ? (offsets[row] - offsets[row - 1]) / 2 : baseHalf;
-      const aboveM = row + 1 < offsets.length ? (offsets[row + 1] - offsets[row]) / 2 : baseHalf;
+      // strip sides in the flying direction: a line flown against the layout heading has its neighbours swapped
+      const lower = row > 0 ? (offsets[row] - offsets[row - 1]) / 2 : baseHalf;
+      const upper = row + 1 < offsets.length ? (offsets[row + 1] - offsets[row]) / 2 : baseHalf;
+      const d = (((l.headingDeg - headingDeg) % 360) + 360) % 360;
+      const along = d < 90 || d > 270;
+      const belowM = along ? lower : upper, aboveM = along ? upper : lower;
+      const fitted = fitAtBestSpeed(ctx, l, factor, { belowM, aboveM });
       const views = viewsAt(l.offsetM);
       const fwd = forwardOverlapForViews(views, so.minForwardOverlap);
       const trig = placeTriggers(l, fitted.x, fitted.fit.altitudeM, heights, { belowM, aboveM }, geometry.tanAlong, fwd, 2 * geometry.specHeightM * factor * geometry.tanAlong);
       const line: FlightLine = { ...l, stationsM: trig.stationsM };
       limitsBy.set(line, fitted.limits);
+      stripBy.set(line, { belowM, aboveM });
       info.push({ line, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length });
       return line;
     });
     // the analysed mission's GSD band is the spec's (finer is never a fault), so station flags speak of the spec
     const plan = analysePlan(grid, { ...inputObj, headingDeg, mode: 'follow', targetGsdCm: spec.maxGsdCm / 1.5, gsdTolerance: 0.5, forwardOverlap: Math.min(0.95, forwardOverlapForViews(spec.minViews, so.minForwardOverlap)), sideOverlap: so.minSideOverlap }, {
       verticalDatum: opts.verticalDatum, lines, limitsFor: (line, lim) => limitsBy.get(line) ?? lim,
+      bandGroundFor: (line, x) => { const s = stripBy.get(line); const lim = limitsBy.get(line); return s && lim ? stripLowM(ctx, line, x, s, lim.bandHighM) : undefined; },
     });
     const kept = info.filter((i) => i.plannable);
     const choices: LineChoice[] = plan.lines.map((pl, li) => {
