@@ -126,20 +126,30 @@ export function layoutRows(ctx: LineContext, heightFactorAt: (cM: number) => num
     const prev = rows[rows.length - 1];
     const reach = pairBound(ctx, prev.pieces, prev.offsetM, null, cMax, sideFloor).bound;
     if (prev.offsetM + reach >= cMax - 1e-6 || prev.offsetM >= cMax) break;
-    let S = lastS, grown = false;
+    // start from the last spacing; when it holds with room, grow to the bound and bisect back if the grown place fails
+    let S = lastS;
     let accepted: { row: FittedLine[]; S: number; r: ReturnType<typeof pairBound>; held: boolean } | null = null;
-    for (let k = 0; k < 7; k++) {
+    let failedS = Infinity;
+    for (let k = 0; k < 8; k++) {
       const c1 = prev.offsetM + S;
       const row = fitRow(c1, S / 2, nominalS / 2);
       const r = pairBound(ctx, prev.pieces, prev.offsetM, row.length ? row : null, c1, sideFloor);
       if (S <= r.bound + 1e-6) {
         accepted = { row, S, r, held: true };
-        if (!grown && r.bound > 1.08 * S && Number.isFinite(r.bound)) { grown = true; S = Math.min(0.97 * r.bound, 3 * nominalS); continue; }
-        break;
+        const next = Number.isFinite(failedS) ? (S + failedS) / 2 : Math.min(0.97 * r.bound, 3 * nominalS);
+        if (!Number.isFinite(r.bound) || next < 1.04 * S) break;
+        S = next;
+        continue;
       }
-      if (accepted) break; // the grown try failed: keep the one that held
+      failedS = Math.min(failedS, S);
+      if (accepted) {
+        const mid = (accepted.S + failedS) / 2;
+        if (mid < 1.04 * accepted.S) break;
+        S = mid;
+        continue;
+      }
       S = Math.max(0.1 * nominalS, 0.97 * r.bound);
-      if (k === 6) accepted = { row, S, r, held: false };
+      if (k === 7) accepted = { row, S, r, held: false };
     }
     if (!accepted) break;
     const c1 = prev.offsetM + accepted.S;
