@@ -74,7 +74,7 @@ function benchSite(name: string, grid: Grid, input: Record<string, unknown>, dat
   const ratio = best ? solved.summary.flightTimeS / best.flightTimeS : null;
   return [
     ratio === null
-      ? `ratio solve-${name}-vs-best-uniform = n/a (target 0.85): no uniform setting of the sweep meets the spec on every reachable cell (closest ${pct(closest.shareReachable ?? 0)}, ${setting(closest)}); the solved plan ${solved.proof.meets ? 'meets it' : `meets it on ${pct(solved.proof.shareReachableMeeting)}`}`
+      ? `ratio solve-${name}-vs-best-uniform = n/a (target 0.85): no uniform setting of the sweep meets the spec on every reachable cell (closest ${pct(closest.shareReachable ?? 0)}, ${setting(closest)}); the solved plan ${solved.proof.meets ? 'meets it' : `meets it on ${pct(solved.proof.shareReachableMeeting)}`} in ${(solved.summary.flightTimeS / closest.flightTimeS).toFixed(2)}x the closest setting's time`
       : `ratio solve-${name}-vs-best-uniform = ${ratio.toFixed(2)} (target 0.85; best uniform: ${setting(best!)}; solved ${solved.proof.meets ? 'meets the spec' : `meets the spec on ${pct(solved.proof.shareReachableMeeting)} only`})`,
     `ratio solve-${name}-seconds = ${solveS.toFixed(2)} (target 10, absolute seconds)`,
   ];

@@ -205,11 +205,17 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict };
   }
   ({ built, verdict } = best);
-  // 3. the yardstick: the mission's own uniform setting (and any the caller adds); fall back when one is faster and meets the spec
+  // 3. the yardstick: uniform settings; fall back when one meets the spec in no more time (or the solved plan does not meet it)
   const own: UniformSetting = { forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, mode: mission.mode, headingDeg: typeof mission.headingDeg === 'number' ? mission.headingDeg : headingDeg };
-  const uni = bestUniform(grid, inputObj, [own, ...(opts.uniform ?? [])], verifier, opts, Infinity);
-  const checkedUniform = uni.outcomes;
-  for (const o of checkedUniform) if (o.meets === null) { const v = verifier.check(o.plan); o.meets = v.meets; o.shareReachable = v.compliance.shareAll; }
+  // the mission's own overlaps in each altitude mode, and any settings the caller adds
+  const modes = (['hold', 'steps', 'follow'] as const).filter((m) => m !== own.mode).map((mode) => ({ ...own, mode }));
+  // analysed all; rasters only for those that could win (no slower than the solved plan, or all when it falls short)
+  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, opts, 0).outcomes;
+  for (const o of checkedUniform) {
+    if (verdict.meets && o.flightTimeS > built.flightTimeS) continue;
+    const v = verifier.check(o.plan);
+    o.meets = v.meets; o.shareReachable = v.compliance.shareAll;
+  }
   const meetingUniform = checkedUniform.filter((o) => o.meets).sort((a, b) => a.flightTimeS - b.flightTimeS)[0] ?? null;
   let plan = built.plan;
   let flightTimeS = built.flightTimeS;
