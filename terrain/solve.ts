@@ -39,6 +39,16 @@ export interface UnreachableGroup {
   centroid: { lon: number; lat: number };
 }
 
+/** Reachable cells the solved plan still leaves short, by spec item. */
+export interface ShortGroup {
+  item: 'gsd' | 'views' | 'other';
+  cells: number;
+  areaM2: number;
+  slopeDeg: { min: number; max: number };
+  centroid: { lon: number; lat: number };
+  message: string;
+}
+
 /** What the solver adds to the plan document. */
 export interface SolveReport {
   pattern: SolvePattern;
@@ -49,6 +59,8 @@ export interface SolveReport {
     items: Array<{ item: string; asks: string; share: number }>;
     /** Reachable cells still short after the repair rounds (0 when the plan meets the spec). */
     shortCells: number;
+    /** Those cells by spec item, with the slopes they lie on and why the solver could not close them. */
+    short: ShortGroup[];
     basis: string;
   };
   comparison: { uniform: Array<{ setting: UniformSetting; flightTimeS: number; shareReachable: number | null; meets: boolean | null }>; bestUniformFlightTimeS: number | null; solvedFlightTimeS: number; ratio: number | null };
@@ -253,6 +265,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       shareReachableMeeting: round(verdict.compliance.shareAll, 6), meets: verdict.meets,
       items: verdict.compliance.items.map((it) => ({ item: it.item, asks: it.asks, share: round(it.share, 6) })),
       shortCells: verdict.failing.length,
+      short: shortGroups(verifier, verdict, spec.maxGsdCm, rounds),
       basis: envelope ? 'coverage raster of the solved plan, guaranteed under the attitude envelope' : 'coverage raster of the solved plan, as planned (no attitude envelope in the mission)',
     },
     comparison: {
@@ -263,6 +276,35 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     },
     rounds,
   };
+}
+
+/** Short cells grouped by item, with the slopes under them. */
+function shortGroups(v: Verifier, verdict: Verdict, maxGsdCm: number, rounds: number): ShortGroup[] {
+  const out: ShortGroup[] = [];
+  for (const item of ['gsd', 'views', 'other'] as const) {
+    const cells = verdict.failing.filter((f) => f.item === item).map((f) => f.cell);
+    if (cells.length === 0) continue;
+    let sx = 0, sy = 0, lo = Infinity, hi = -Infinity, worst = 0;
+    for (const i of cells) {
+      sx += v.cells.x[i]; sy += v.cells.y[i];
+      const b = v.reach.slopeDeg[i];
+      if (b < lo) lo = b;
+      if (b > hi) hi = b;
+      const g = verdict.raster.finestGsdCm[i];
+      worst = Number.isFinite(g) ? Math.max(worst, g) : Infinity;
+    }
+    const [lon, lat] = v.frame.toLonLat(sx / cells.length, sy / cells.length);
+    const steep = lo >= 30;
+    out.push({
+      item, cells: cells.length, areaM2: round(cells.length * v.cells.cellAreaM2, 1), slopeDeg: { min: round(lo, 1), max: round(hi, 1) },
+      centroid: { lon: round(lon, 7), lat: round(lat, 7) },
+      message: item === 'gsd'
+        ? `no view at or finer than ${maxGsdCm} cm after ${rounds} tightening rounds (finest there up to ${Number.isFinite(worst) ? `${round(worst, 2)} cm` : 'none'}) on ground sloping ${round(lo, 0)}–${round(hi, 0)}°${steep ? ': steep faces that nadir photos from lines beside them see too obliquely; a line straight over the face or a tilted camera is needed' : ''}.`
+        : item === 'views' ? `fewer views than the spec asks after ${rounds} tightening rounds (terrain hides them, or the strip edges under the envelope).`
+          : `the advisory σ items are not met here after ${rounds} rounds (the solver does not steer by them).`,
+    });
+  }
+  return out;
 }
 
 /** Unreachable cells grouped by reason, with a message naming the numbers. */
