@@ -249,7 +249,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const bestUni = meetingUniform ? meetingUniform.flightTimeS : null;
   return {
     ...plan,
-    pattern: so.pattern,
+    pattern: 'furrow', // the only pattern built so far; choices.pattern says so when lattice was asked for
     choices: {
       headingDeg,
       heading: `${headingDeg}° flies fastest of ${headingWhy}: ${tried.join(', ')}.`,
