@@ -75,7 +75,12 @@ export function placeTriggers(
     if (d >= line.lengthM - 1e-9) break;
     const s = stepFrom(d);
     if (d >= line.areaEndM + s / 2 - 1e-9) break;
-    if (s < minM) { minM = s; tightestAtM = d; tightestGroundM = high[idx(d)]; }
+    if (s < minM) {
+      // the highest ground the step spans set it
+      let g = -Infinity;
+      for (let i = idx(d); i < n && x[i] <= d + s; i++) if (high[i] > g) g = high[i];
+      minM = s; tightestAtM = d; tightestGroundM = g;
+    }
     if (s > maxM) maxM = s;
     d = Math.min(line.lengthM, d + s);
   }
