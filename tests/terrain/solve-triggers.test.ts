@@ -7,7 +7,7 @@ import type { LocalHeights } from '../../terrain/local-frame';
 function heightsOf(h: (x: number, y: number) => number): LocalHeights {
   return {
     heightAt: h,
-    sampleMany: (xs, ys, out) => { for (let i = 0; i < xs.length; i++) out[i] = h(xs[i], ys[i]); return xs.length; },
+    sampleMany: (xs: Float64Array, ys: Float64Array, out: Float64Array) => { for (let i = 0; i < xs.length; i++) out[i] = h(xs[i], ys[i]); return xs.length; },
   } as unknown as LocalHeights;
 }
 
