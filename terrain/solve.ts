@@ -52,7 +52,7 @@ export interface ShortGroup {
 /** What the solver adds to the plan document. */
 export interface SolveReport {
   pattern: SolvePattern;
-  choices: { headingDeg: number; heading: string; pattern: string; lines: LineChoice[]; fallback: string | null };
+  choices: { headingDeg: number; heading: string; pattern: string; lines: LineChoice[]; fallback: string | null; summary: string };
   unreachable: UnreachableGroup[];
   proof: {
     cellM: number; cellsInArea: number; reachableCells: number; shareReachableMeeting: number; meets: boolean;
@@ -242,6 +242,14 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     choiceLines = [];
   }
   plan.summary.flightTimeS = round(flightTimeS, 1);
+  if (!fallback && choiceLines.length > 0) {
+    // spacing and photo spacing vary by line: the summary gives the tightest of each (every line's own in choices),
+    // and the height the bands are topped at
+    const gaps = choiceLines.map((c) => c.spacingToNextM).filter((v): v is number => v !== null);
+    if (gaps.length) plan.summary.lineSpacingM = Math.min(...gaps);
+    plan.summary.triggerDistanceM = Math.min(...choiceLines.map((c) => c.triggerDistanceM.min));
+    plan.summary.plannedHeightM = round(geometry.specHeightM * 0.97, 3);
+  }
   const usable = mission.enduranceMin * 60 * (1 - mission.batteryReserve);
   plan.summary.batteries = Math.max(1, Math.ceil(flightTimeS / usable - 1e-9));
   const unreachable = unreachableGroups(verifier, spec.maxGsdCm, mission);
@@ -258,6 +266,9 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         : 'lattice was asked for, but only the furrow pattern (one set of parallel lines) is built so far: this is a furrow plan.',
       lines: choiceLines,
       fallback,
+      summary: fallback
+        ? 'the summary is the uniform plan\'s own.'
+        : 'summary.lineSpacingM and summary.triggerDistanceM are the tightest line spacing and photo spacing (each line\'s own are in choices.lines); summary.plannedHeightM is the height above ground the GSD bands are topped at; the GSD band is the spec\'s (finer is never a fault); overlaps are checked against the solver\'s floors.',
     },
     unreachable,
     proof: {
