@@ -14,6 +14,7 @@ import { WGS84, createTransform } from '../terrain/crs';
 import { createParallelDecoder } from './parallel-decode';
 import { benchPlan } from './plan-bench';
 import { benchCoverage } from './coverage-bench';
+import { benchSolve } from './solve-bench';
 import { nodeInflate } from '../cli/io';
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
@@ -172,6 +173,7 @@ async function main(): Promise<void> {
   console.log(`| peak memory, 100 line windows (64 MiB block cache) | ${(memLines.workBytes / 2 ** 20).toFixed(0)} MiB for ${(memLines.decodedBytes / 2 ** 20).toFixed(0)} MiB decoded | - | ${(memLines.workBytes / memLines.decodedBytes).toFixed(2)} |`);
   console.log(`| plan, 2 km2 at 2 cm GSD | ${plan.seconds === null ? 'TODO' : fmt(plan.seconds * 1000)} | - | ${plan.note} |`);
   const coverageRatios = await benchCoverage(Math.min(ROUNDS, 3));
+  const solveRatios = await benchSolve();
   console.log(`check: max |Loftline - map_coordinates| over 1000 samples = ${maxDiff.toExponential(2)} m; decoded pixel equals GDAL's`);
   console.log('');
   const memoryRatio = Math.max(memFull.workBytes / memFull.decodedBytes, memLines.workBytes / memLines.decodedBytes);
@@ -182,6 +184,7 @@ async function main(): Promise<void> {
   console.log(`ratio memory-vs-decoded = ${memoryRatio.toFixed(2)} (target 1.5)`);
   console.log(plan.seconds === null ? `ratio plan-2km2-seconds = TODO (absolute seconds, no reference): ${plan.note}` : `ratio plan-2km2-seconds = ${plan.seconds.toFixed(2)} (absolute seconds, no reference; ${plan.note})`);
   for (const line of coverageRatios) console.log(line);
+  for (const line of solveRatios) console.log(line);
 }
 
 main().catch((err) => {

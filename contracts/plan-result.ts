@@ -27,6 +27,8 @@ export const planLegSchema = z.object({
   start: planPointSchema, end: planPointSchema,
   altitudeStartM: n, altitudeEndM: n, altitudeStartAboveTakeoffM: n, altitudeEndAboveTakeoffM: n,
   aglMinM: n, aglMaxM: n, gsdMinCm: n, gsdMaxCm: n, gradient: n,
+  // solved plans only: ground speed and photo spacing per leg
+  speedMps: n.optional(), triggerDistanceM: z.object({ min: n, max: n }).optional(),
 });
 
 export const unmetStretchSchema = z.object({ startM: n, endM: n, reason: z.enum(unmetReasons), message: z.string() });

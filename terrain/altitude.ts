@@ -155,7 +155,7 @@ function evaluate(bp: Breakpoints, x: Float64Array): Float64Array {
  * sample (nor at a neighbouring sample: the floor is the highest of three), keeps climbs and descents within
  * their gradients, and reports every stretch outside the GSD band or the height cap with its reason.
  */
-export function fitAltitudes(x: Float64Array, ground: Float64Array, mode: AltitudeMode, lim: AltitudeLimits): AltitudeProfile {
+export function fitAltitudes(x: Float64Array, ground: Float64Array, mode: AltitudeMode, lim: AltitudeLimits, bandGround?: Float64Array): AltitudeProfile {
   checkAltitudeLimits(lim);
   check(mode === 'hold' || mode === 'steps' || mode === 'follow', `mode must be "hold", "steps" or "follow", got ${JSON.stringify(mode)}.`);
   const n = x.length;
@@ -169,7 +169,15 @@ export function fitAltitudes(x: Float64Array, ground: Float64Array, mode: Altitu
   const floor = new Float64Array(n);
   for (let i = 0; i < n; i++) floor[i] = Math.max(h[i], h[i > 0 ? i - 1 : i], h[i < n - 1 ? i + 1 : i]) + lim.clearanceM;
   const { safe, forward } = safeProfile(x, floor, lim.climbGradient, lim.descentGradient);
-  const { c, b } = corridor(x, h, floor, safe, lim);
+  // the GSD band may be measured from lower ground than the line's own (the lowest ground its photos must reach);
+  // clearance and the height limit stay with the ground under the aircraft
+  let bg = h;
+  if (bandGround) {
+    check(bandGround.length === n, `band ground needs one height per sample, got ${bandGround.length} for ${n}.`);
+    bg = new Float64Array(n);
+    for (let i = 0; i < n; i++) bg[i] = bandGround[i] === bandGround[i] ? Math.min(bandGround[i], h[i]) : h[i];
+  }
+  const { c, b } = corridor(x, h, floor, safe, lim, bg);
   const g = { climb: lim.climbGradient, descent: lim.descentGradient };
   const lengthM = x[n - 1] - x[0];
   const fit = (minLeg: number): Breakpoints => {
@@ -204,7 +212,7 @@ export function fitAltitudes(x: Float64Array, ground: Float64Array, mode: Altitu
     }
     legs.push({ startM: x0, endM: x1, altitudeStartM: bp.z[k], altitudeEndM: bp.z[k + 1], gradient: (bp.z[k + 1] - bp.z[k]) / (x1 - x0), aglMinM: aMin, aglMaxM: aMax });
   }
-  const unmet = classify(x, h, z, unknown, c, b, forward, mode, limitedByLegs, lim);
+  const unmet = classify(x, h, z, unknown, c, b, forward, mode, limitedByLegs, lim, bg);
   return { legs, altitudeM: z, groundM: h, safeFloorM: safe, unmet, unknownCount };
 }
 
@@ -226,16 +234,16 @@ interface Bounds {
  * under the band and the cap. Where the two cross (the band cannot be held within the gradients) the corridor
  * is the lower edge and a little room above it. The safe profile is never given up.
  */
-function corridor(x: Float64Array, h: Float64Array, floor: Float64Array, safe: Float64Array, lim: AltitudeLimits): { c: Corridor; b: Bounds } {
+function corridor(x: Float64Array, h: Float64Array, floor: Float64Array, safe: Float64Array, lim: AltitudeLimits, bg: Float64Array = h): { c: Corridor; b: Bounds } {
   const n = x.length;
   const mk = () => new Float64Array(n);
   const c: Corridor = { x, lo: mk(), hi: mk(), hardLo: safe, floor, target: mk(), bandLo: mk(), bandHi: mk(), cap: mk(), capHigh: mk() };
   const { climbGradient: gc, descentGradient: gd } = lim;
   for (let i = 0; i < n; i++) {
     c.cap[i] = h[i] + lim.maxAglM;
-    c.bandLo[i] = h[i] + lim.bandLowM;
-    c.bandHi[i] = h[i] + lim.bandHighM;
-    c.target[i] = h[i] + lim.targetHeightM;
+    c.bandLo[i] = bg[i] + lim.bandLowM;
+    c.bandHi[i] = bg[i] + lim.bandHighM;
+    c.target[i] = bg[i] + lim.targetHeightM;
   }
   const capHigh = ceilingProfile(x, c.cap, gc, gd).high;
   for (let i = 0; i < n; i++) capHigh[i] = Math.max(capHigh[i], safe[i]);
@@ -269,7 +277,7 @@ const fmt = (v: number) => (Math.round(v * 10) / 10).toString();
 /** Per-sample reason for leaving the band, merged into stretches with messages. */
 function classify(
   x: Float64Array, h: Float64Array, z: Float64Array, unknown: Uint8Array, c: Corridor, b: Bounds, safeForward: Float64Array,
-  mode: AltitudeMode, limitedByLegs: boolean, lim: AltitudeLimits,
+  mode: AltitudeMode, limitedByLegs: boolean, lim: AltitudeLimits, bg: Float64Array = h,
 ): UnmetStretch[] {
   const n = x.length;
   const eps = 1e-6;
@@ -277,20 +285,20 @@ function classify(
   const byMode = new Uint8Array(n); // above the cap by the mode's choice, not forced by clearance and gradients
   for (let i = 0; i < n; i++) {
     const agl = z[i] - h[i];
-    const top = Math.min(lim.bandHighM, lim.maxAglM);
+    const aglB = z[i] - bg[i]; // height above the ground the band is measured from (the line's own unless given)
     if (unknown[i]) { reasons[i] = 'ground-unknown'; continue; }
-    if (agl >= lim.bandLowM - eps && agl <= top + eps) continue;
+    if (aglB >= lim.bandLowM - eps && aglB <= lim.bandHighM + eps && agl <= lim.maxAglM + eps) continue;
     if (lim.bandLowM > lim.maxAglM) { reasons[i] = 'band-above-max-agl'; continue; }
     if (agl > lim.maxAglM + eps) { reasons[i] = 'above-max-agl'; byMode[i] = c.hardLo[i] <= c.cap[i] + eps ? 1 : 0; continue; }
     const safe = c.hardLo[i];
-    if (agl > top && safe > c.bandHi[i] + eps) {
+    if (aglB > lim.bandHighM && safe > c.bandHi[i] + eps) {
       reasons[i] = lim.clearanceM > lim.bandHighM + eps ? 'clearance-above-band' : safe > safeForward[i] + eps ? 'climb-limit' : 'descent-limit';
       continue;
     }
-    if (agl < lim.bandLowM && b.capHigh[i] < c.bandLo[i] - eps) { reasons[i] = 'max-agl-ahead'; continue; }
+    if (aglB < lim.bandLowM && b.capHigh[i] < c.bandLo[i] - eps) { reasons[i] = 'max-agl-ahead'; continue; }
     if (b.bandLow[i] > b.bandHigh[i] + eps) {
       // the band cannot be held within the gradients here: which limit bent the edge the profile left by?
-      if (agl > top) reasons[i] = b.bandLow[i] > b.bandLowForward[i] + eps ? 'climb-limit' : 'descent-limit';
+      if (aglB > lim.bandHighM) reasons[i] = b.bandLow[i] > b.bandLowForward[i] + eps ? 'climb-limit' : 'descent-limit';
       else reasons[i] = b.bandHigh[i] < b.bandHighForward[i] - eps ? 'descent-limit' : 'climb-limit';
       continue;
     }

@@ -25,6 +25,12 @@ export interface FlightLineOptions {
   maxLines?: number;
   /** Clip each line to the polygon within its whole strip (default) or only where its centre line crosses (quick estimates). */
   clip?: 'strip' | 'centre';
+  /**
+   * Cross-track positions of the lines (metres to the right of the layout heading, measured from the local
+   * origin: c = x cos θ − y sin θ), ascending, instead of lines every `lineSpacingM`: spacing that varies line by
+   * line. Each line's strip then reaches half way to its neighbours (`lineSpacingM` wide for a lone line).
+   */
+  offsetsM?: number[];
 }
 
 /** One straight flight line in the local frame, with its exposure stations. */
@@ -119,21 +125,28 @@ export function planFlightLines(area: LocalPolygon, opts: FlightLineOptions): Fl
     if (c > cMax) cMax = c;
   }
   const widthM = cMax - cMin;
-  const count = Math.max(1, Math.ceil(widthM / S - 1e-9));
+  const given = opts.offsetsM;
+  if (given) {
+    check(given.length > 0 && given.every((v, i) => Number.isFinite(v) && (i === 0 || v > given[i - 1])), 'line offsets must be finite numbers in ascending order.');
+  }
+  const count = given ? given.length : Math.max(1, Math.ceil(widthM / S - 1e-9));
   check(count <= (opts.maxLines ?? 2000), `The layout needs ${count} flight lines (spacing ${S.toFixed(1)} m over ${widthM.toFixed(0)} m); fly higher, lower the side overlap or split the area.`);
   const rotated = turfPolygon(rotatedRings);
   const cMid = (cMin + cMax) / 2;
   type Piece = { c: number; a0: number; a1: number };
   const rows: Piece[][] = [];
   for (let k = 0; k < count; k++) {
-    const c = cMid + (k - (count - 1) / 2) * S;
+    const c = given ? given[k] : cMid + (k - (count - 1) / 2) * S;
+    // strip edges: half a spacing either side, or half way to the neighbouring lines when their places are given
+    const below = given ? (k > 0 ? (c - given[k - 1]) / 2 : k + 1 < count ? (given[k + 1] - c) / 2 : S / 2) : S / 2;
+    const above = given ? (k + 1 < count ? (given[k + 1] - c) / 2 : below) : S / 2;
     // The line photographs the strip c ± S/2: fly it over the polygon's whole extent within that strip
     // (probes across the strip plus the corners inside it), not only where the centre line crosses.
     const inside = (v: number) => Math.min(Math.max(v, cMin + 1e-7 * (1 + Math.abs(cMin))), cMax - 1e-7 * (1 + Math.abs(cMax)));
     const spans: Array<[number, number]> = [];
-    const probes = opts.clip === 'centre' ? [0] : [-0.5, -0.25, 0, 0.25, 0.5];
-    for (const f of probes) spans.push(...clipAtOffset(rotated, inside(c + f * S), aMin, aMax));
-    if (opts.clip !== 'centre') for (const ring of rotatedRings) for (const [va, vc] of ring) if (Math.abs(vc - c) <= S / 2) spans.push([va, va]);
+    const probes = opts.clip === 'centre' ? [0] : [-1, -0.5, 0, 0.5, 1];
+    for (const f of probes) spans.push(...clipAtOffset(rotated, inside(c + (f < 0 ? f * below : f * above)), aMin, aMax));
+    if (opts.clip !== 'centre') for (const ring of rotatedRings) for (const [va, vc] of ring) if (vc >= c - below && vc <= c + above) spans.push([va, va]);
     spans.sort((p, q) => p[0] - q[0]);
     const merged: Array<[number, number]> = [];
     for (const sp of spans) {

@@ -41,6 +41,10 @@ export interface PlanLeg {
   gsdMaxCm: number;
   /** Rise over run in the flying direction (climb positive). */
   gradient: number;
+  /** Ground speed on this leg when it differs by leg (solved plans; otherwise the mission's speed), m/s. */
+  speedMps?: number;
+  /** Distance between photos on this leg when it varies along the line (solved plans), metres: smallest and largest. */
+  triggerDistanceM?: { min: number; max: number };
 }
 
 /** One flight line with its stations and legs. */

@@ -1,6 +1,6 @@
 /** The whole mission analysis over a grid: lines, stations, overlaps, altitude legs, estimates and warnings (CLI `plan`, worker and API). */
 import type { Grid } from './grid';
-import { TerrainError } from './errors';
+import { TerrainError, check } from './errors';
 import { footprintM, heightForGsdM, airBaseM, lineSpacingM } from './gsd';
 import { pixelPitchMm } from './camera';
 import { resolveMission } from './mission';
@@ -55,7 +55,7 @@ function centroid(ring: number[][]): [number, number] {
 }
 
 /** Distances along a line: every `stepM` plus the stations, sorted; with each station's index in it. */
-function profileDistances(line: FlightLine, stepM: number): { x: Float64Array; stationIdx: Int32Array } {
+export function profileDistances(line: FlightLine, stepM: number): { x: Float64Array; stationIdx: Int32Array } {
   const n = Math.max(2, Math.ceil(line.lengthM / stepM) + 1);
   const all: number[] = [];
   for (let i = 0; i < n; i++) all.push(Math.min(line.lengthM, (line.lengthM * i) / (n - 1)));
@@ -97,6 +97,15 @@ export function shortLegWarnings(lineIndex: number, lineLengthM: number, legs: R
 /** What the caller knows about the grid beyond the Grid itself (from the GeoTIFF header). */
 export interface AnalyseOptions {
   verticalDatum?: { epsg: number | null; name: string } | null;
+  /**
+   * Lines laid out by the caller (local frame of `localFrameFor` at the area's corner mean, flying order, stations
+   * placed) instead of the uniform layout; the mission's heading must then be a number (their layout heading).
+   */
+  lines?: FlightLine[];
+  /** Altitude limits of one line instead of the mission's (e.g. its own GSD height and slower, steeper legs). */
+  limitsFor?: (line: FlightLine, missionLimits: AltitudeLimits) => AltitudeLimits;
+  /** Ground the GSD band of a line is measured from at its sample distances (e.g. the lowest its photos reach); default the ground under it. */
+  bandGroundFor?: (line: FlightLine, x: Float64Array) => Float64Array | undefined;
 }
 
 /** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
@@ -117,11 +126,12 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
   if (!Number.isFinite(takeoffGroundM)) {
     throw new TerrainError('outside-grid', `The takeoff point (${mission.takeoff.lon}, ${mission.takeoff.lat}) is off the elevation grid or over nodata, so altitudes above takeoff cannot be given; move it onto the grid.`);
   }
-  const headingAdvice = mission.headingDeg === 'advise'
+  const headingAdvice = mission.headingDeg === 'advise' && !opts.lines
     ? adviseHeading(area, heights.sampleMany, { lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, sampleStepM: Math.max(stepM, 10) })
     : null;
   const headingDeg = headingAdvice ? headingAdvice.recommendedDeg : (mission.headingDeg as number);
-  const laidLines = planFlightLines(area, { headingDeg, lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, takeoff: takeoffXY });
+  if (opts.lines) check(typeof mission.headingDeg === 'number' && opts.lines.length > 0, 'laid-out lines need the layout heading as a number and at least one line.');
+  const laidLines = opts.lines ?? planFlightLines(area, { headingDeg, lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, takeoff: takeoffXY });
   const lim: AltitudeLimits = {
     targetHeightM: H,
     bandLowM: H * (1 - mission.gsdTolerance),
@@ -140,7 +150,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     const xs = new Float64Array(x.length), ys = new Float64Array(x.length), g = new Float64Array(x.length);
     for (let i = 0; i < x.length; i++) { const p = pointAlong(line, x[i]); xs[i] = p[0]; ys[i] = p[1]; }
     heights.sampleMany(xs, ys, g);
-    return { x, stationIdx, fit: fitAltitudes(x, g, mission.mode, lim) };
+    return { x, stationIdx, fit: fitAltitudes(x, g, mission.mode, opts.limitsFor ? opts.limitsFor(line, lim) : lim, opts.bandGroundFor?.(line, x)) };
   });
   // A line with no known ground at all has no safe altitude: it is left out of the flight and reported.
   const plannable = laidProfiles.map((p) => p.fit.unknownCount < p.x.length);

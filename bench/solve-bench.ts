@@ -1,0 +1,95 @@
+/**
+ * The solver figures of `npm run bench` (also runnable alone: `npx tsx bench/solve-bench.ts`): for the demo site and
+ * a steep synthetic grid, the solved plan's flight time against the best uniform plan that meets the same spec
+ * (forward and side overlaps 60–90 % in 5 % steps, the three altitude modes, the advised heading; fastest first
+ * until one meets it on every reachable cell), and the solve time.
+ */
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { openDem } from '../terrain/dem';
+import { WGS84, utmCrs } from '../terrain/crs';
+import { createGrid, type Grid } from '../terrain/grid';
+import { analysePlan, missionBboxWgs84 } from '../terrain/plan';
+import { resolveMission } from '../terrain/mission';
+import { resolveCoverageInput } from '../terrain/coverage-spec';
+import { localFrameFor } from '../terrain/local-frame';
+import { solvePlan } from '../terrain/solve';
+import { viewGeometry } from '../terrain/solve-geometry';
+import { makeVerifier } from '../terrain/solve-verify';
+import { bestUniform, uniformSweep } from '../terrain/solve-uniform';
+import { nodeInflate } from '../cli/io';
+
+const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
+
+/** A steep synthetic site (invented ground): a 1.4 km square of 2 m pixels with a ridge, a valley and a 40 m near-vertical face. */
+function steepSite(): { grid: Grid; input: Record<string, unknown> } {
+  const frame = localFrameFor(4.48, 46.77);
+  const k = frame.scale, half = 700, px = 2;
+  const e0 = Math.floor(frame.originE - half * k), n0 = Math.ceil(frame.originN + half * k);
+  const size = Math.ceil((2 * half * k) / px);
+  const data = new Float32Array(size * size);
+  const h = (x: number, y: number) => 400 + 0.12 * y + 90 * Math.exp(-(((x + 150) * 0.8 + (y - 100) * 0.6) ** 2) / 140 ** 2)
+    + 25 * Math.sin(x / 110) * Math.cos(y / 160) - 50 * Math.exp(-((y + 250) ** 2) / 90 ** 2) + (x > 220 ? 40 * Math.min(1, (x - 220) / 5) : 0);
+  for (let r = 0; r < size; r++) for (let c = 0; c < size; c++) data[r * size + c] = h((e0 + (c + 0.5) * px - frame.originE) / k, (n0 - (r + 0.5) * px - frame.originN) / k);
+  const grid = createGrid({ width: size, height: size, data, transform: [e0, px, 0, n0, 0, -px], crs: utmCrs(31, false) });
+  const ring = [[-500, -500], [500, -500], [500, 500], [-500, 500], [-500, -500]].map(([x, y]) => frame.toLonLat(x, y));
+  const [tLon, tLat] = frame.toLonLat(-560, -560);
+  return {
+    grid,
+    input: {
+      area: { type: 'Polygon', coordinates: [ring] },
+      camera: { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 },
+      targetGsdCm: 2.5, gsdTolerance: 0.1, forwardOverlap: 0.8, sideOverlap: 0.7, headingDeg: 'advise', mode: 'follow',
+      clearanceM: 30, obstacleAllowanceM: 0, maxAglM: 120, speedMps: 8, climbMps: 3, descentMps: 2, takeoff: { lon: tLon, lat: tLat },
+      envelope: { preset: 'multirotor' },
+    },
+  };
+}
+
+async function demoSite(): Promise<{ grid: Grid; input: Record<string, unknown>; datum: { epsg: number | null; name: string } | null }> {
+  const input = { ...JSON.parse(readFileSync(here('../datasets/example-mission.json'), 'utf8')), envelope: { preset: 'multirotor' } };
+  const dem = await openDem(new Uint8Array(readFileSync(here('../datasets/harrow-fell-dem.tif'))), { inflate: nodeInflate });
+  const grid = await dem.read({ window: { bbox: missionBboxWgs84(input), crs: WGS84, marginPx: 2 } });
+  return { grid, input, datum: dem.header.verticalDatum };
+}
+
+/** One site's figures: prints its rows and returns its `ratio` lines. */
+function benchSite(name: string, grid: Grid, input: Record<string, unknown>, datum: { epsg: number | null; name: string } | null): string[] {
+  const t0 = performance.now();
+  const solved = solvePlan(grid, input, { verticalDatum: datum });
+  const solveS = (performance.now() - t0) / 1000;
+  const mission = resolveMission(input);
+  const { spec, envelope, settings } = resolveCoverageInput(input, mission);
+  const verifier = makeVerifier(grid, mission, spec, envelope, settings, viewGeometry(mission.camera, spec, envelope).gsdPerM);
+  const advised = analysePlan(grid, input).headingAdvice?.recommendedDeg ?? 0;
+  const t1 = performance.now();
+  const sweep = bestUniform(grid, input, uniformSweep(advised), verifier, { verticalDatum: datum });
+  const sweepS = (performance.now() - t1) / 1000;
+  const best = sweep.best;
+  const closest = [...sweep.outcomes].filter((o) => o.shareReachable !== null).sort((a, b) => (b.shareReachable ?? 0) - (a.shareReachable ?? 0))[0];
+  const pct = (v: number) => `${(v * 100).toFixed(2)} %`;
+  const setting = (o: typeof closest) => `forward ${Math.round(o.setting.forwardOverlap * 100)} %, side ${Math.round(o.setting.sideOverlap * 100)} %, ${o.setting.mode}, ${o.setting.headingDeg}°: ${o.flightTimeS.toFixed(0)} s, ${o.lineCount} lines`;
+  console.log(`| solve, ${name}: solved plan | ${solved.summary.flightTimeS.toFixed(0)} s, ${solved.summary.lineCount} lines, ${solved.summary.photoCount} photos | meets the spec on ${pct(solved.proof.shareReachableMeeting)} of ${solved.proof.reachableCells} reachable cells (${solved.proof.cellM} m; ${solved.proof.cellsInArea - solved.proof.reachableCells} unreachable)${solved.choices.fallback ? '; fell back to a uniform setting' : ''} | solve ${solveS.toFixed(2)} s |`);
+  console.log(`| solve, ${name}: best uniform plan (sweep of ${sweep.outcomes.length} settings, ${sweep.checked} rasters, ${sweepS.toFixed(0)} s) | ${best ? setting(best) : 'none meets the spec'} | ${best ? 'meets the spec on every reachable cell' : `closest: ${setting(closest)}, ${pct(closest.shareReachable ?? 0)} of reachable cells`} | - |`);
+  const ratio = best ? solved.summary.flightTimeS / best.flightTimeS : null;
+  return [
+    ratio === null
+      ? `ratio solve-${name}-vs-best-uniform = n/a (target 0.85): no uniform setting of the sweep meets the spec on every reachable cell (closest ${pct(closest.shareReachable ?? 0)}, ${setting(closest)}); the solved plan ${solved.proof.meets ? 'meets it' : `meets it on ${pct(solved.proof.shareReachableMeeting)}`} in ${(solved.summary.flightTimeS / closest.flightTimeS).toFixed(2)}x the closest setting's time`
+      : `ratio solve-${name}-vs-best-uniform = ${ratio.toFixed(2)} (target 0.85; best uniform: ${setting(best!)}; solved ${solved.proof.meets ? 'meets the spec' : `meets the spec on ${pct(solved.proof.shareReachableMeeting)} only`})`,
+    `ratio solve-${name}-seconds = ${solveS.toFixed(2)} (target 10, absolute seconds)`,
+  ];
+}
+
+/** The solver figures for both sites; prints table rows, returns the `ratio` lines. */
+export async function benchSolve(): Promise<string[]> {
+  const demo = await demoSite();
+  const steep = steepSite();
+  return [...benchSite('demo', demo.grid, demo.input, demo.datum), ...benchSite('steep', steep.grid, steep.input, null)];
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  benchSolve().then((lines) => { for (const l of lines) console.log(l); }).catch((err) => {
+    console.error(`solve bench failed: ${err instanceof Error ? err.stack : err}`);
+    process.exitCode = 1;
+  });
+}

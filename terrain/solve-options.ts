@@ -1,0 +1,53 @@
+/** What the solver may choose within: its pattern, the slowest leg speed, the overlap floors, and how hard it works (mission field `solve`, all optional). */
+import type { Mission } from './mission';
+import { check } from './errors';
+
+/**
+ * Loftline's names for the patterns: `furrow`, one set of parallel lines (mapping); `lattice`, a second set
+ * across the first, for specs that ask for views from several directions (3D).
+ */
+export type SolvePattern = 'furrow' | 'lattice';
+
+/** The solver's settings. */
+export interface SolveOptions {
+  pattern: SolvePattern;
+  /** Slowest ground speed a leg may be flown at to follow steep ground within the vertical-speed limits, m/s. */
+  minSpeedMps: number;
+  /** Side overlap every pair of neighbouring lines keeps over the highest ground between them, under the attitude envelope (fraction). */
+  minSideOverlap: number;
+  /** Forward overlap floor along every line (fraction); the view count may ask for more. */
+  minForwardOverlap: number;
+  /** Heading candidates tried (the best ones of the heading advice). */
+  headingCandidates: number;
+  /** Rounds of checking the coverage raster and tightening where cells fall short. */
+  repairRounds: number;
+}
+
+function numberIn(o: Record<string, unknown>, key: string, def: number, lo: number, hi: number): number {
+  const v = o[key] === undefined ? def : o[key];
+  check(typeof v === 'number' && Number.isFinite(v) && v >= lo && v <= hi, `solve.${key} must be a number from ${lo} to ${hi}, got ${JSON.stringify(v)}.`);
+  return v as number;
+}
+
+/**
+ * The `solve` settings of a mission written by a user. Defaults (our choices, common practice rather than any
+ * standard): legs may slow to a quarter of the mission's speed (at least 1 m/s); neighbouring strips overlap by
+ * at least 10 % so they join under the envelope's roll; the forward floor is what the spec's view count needs.
+ */
+export function resolveSolveOptions(input: unknown, mission: Mission): SolveOptions {
+  const raw = (input as Record<string, unknown>).solve;
+  check(raw === undefined || (raw !== null && typeof raw === 'object' && !Array.isArray(raw)), `solve must be an object, got ${JSON.stringify(raw)}.`);
+  const o = (raw ?? {}) as Record<string, unknown>;
+  const pattern = (o.pattern ?? 'furrow') as SolvePattern;
+  check(pattern === 'furrow' || pattern === 'lattice', `solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (two sets across each other), got ${JSON.stringify(o.pattern)}.`);
+  const minSpeedMps = numberIn(o, 'minSpeedMps', Math.min(mission.speedMps, Math.max(1, mission.speedMps / 4)), 0.5, mission.speedMps);
+  return {
+    pattern,
+    minSpeedMps,
+    minSideOverlap: numberIn(o, 'minSideOverlap', 0.1, 0, 0.9),
+    // v views along a line need each point in v photos: a photo spacing of at most 1/v of the footprint
+    minForwardOverlap: numberIn(o, 'minForwardOverlap', 0, 0, 0.95),
+    headingCandidates: numberIn(o, 'headingCandidates', 3, 1, 12),
+    repairRounds: numberIn(o, 'repairRounds', 4, 0, 12),
+  };
+}

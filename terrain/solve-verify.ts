@@ -1,0 +1,68 @@
+/** The proof of a plan: its own coverage raster (computeCoverage) and compliance (coverageCompliance) over the cells a plan can reach. */
+import type { Grid } from './grid';
+import type { Mission } from './mission';
+import type { PlanResult } from './plan-result';
+import type { AttitudeEnvelope } from './attitude-envelope';
+import type { LocalFrame } from './local-frame';
+import { computeCoverage, type CoverageRaster } from './coverage';
+import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
+import { coverageCompliance, type Compliance, type CoverageSpec, type CoverageSettings } from './coverage-spec';
+import { coverageFrame, planPhotos } from './coverage-photos';
+import { reachability, reachableOnly, type Reach } from './solve-reach';
+
+/** A plan's verdict over the reachable cells. */
+export interface Verdict {
+  raster: CoverageRaster;
+  /** Compliance over the reachable cells only. */
+  compliance: Compliance;
+  meets: boolean;
+  /** Reachable cells that fail some item (indices into the raster's cells) with the first item they fail. */
+  failing: Array<{ cell: number; item: 'gsd' | 'views' | 'other' }>;
+}
+
+/** Checks plans over one site with one spec. */
+export interface Verifier {
+  frame: LocalFrame;
+  cells: CoverageCells;
+  cellM: number;
+  reach: Reach;
+  check(plan: PlanResult): Verdict;
+}
+
+/**
+ * The cell size the solver proves plans on: the mission's `coverage.cellM`, else the grid's own cell but at least
+ * 4 m (a 4 m raster of the demo takes half a second; the whole solve makes a dozen).
+ */
+export function solverCellM(grid: Grid, mission: Mission, settings: CoverageSettings): number {
+  const ring = mission.area.coordinates[0];
+  const lat = ring.slice(0, -1).reduce((t, p) => t + p[1], 0) / (ring.length - 1);
+  return settings.cellM ?? Math.max(4, gridCellM(grid, lat));
+}
+
+export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, envelope: AttitudeEnvelope | null, settings: CoverageSettings, gsdPerM: number): Verifier {
+  const frame = coverageFrame(mission.area);
+  const cellM = solverCellM(grid, mission, settings);
+  const cells = coverageCells(grid, frame, mission.area, cellM, settings.maxCells);
+  const reach = reachability(cells, spec, mission.clearanceM + mission.obstacleAllowanceM, gsdPerM);
+  return {
+    frame, cells, cellM, reach,
+    check(plan) {
+      const { photos } = planPhotos(plan, frame, envelope);
+      const raster = computeCoverage(grid, frame, mission.area, mission.camera, photos, {
+        cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
+      });
+      const compliance = coverageCompliance(reachableOnly(raster, reach), spec);
+      const failing: Verdict['failing'] = [];
+      const { inside } = raster.cells;
+      for (let i = 0; i < inside.length; i++) {
+        if (!inside[i] || reach.code[i]) continue;
+        const gsd = !(raster.finestGsdCm[i] <= spec.maxGsdCm);
+        const views = raster.views[i] < spec.minViews;
+        const sv = spec.maxSigmaVerticalM !== null && !(raster.sigmaVerticalM[i] <= spec.maxSigmaVerticalM);
+        const sh = spec.maxSigmaHorizontalM !== null && !(raster.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM);
+        if (gsd || views || sv || sh) failing.push({ cell: i, item: gsd ? 'gsd' : views ? 'views' : 'other' });
+      }
+      return { raster, compliance, meets: failing.length === 0, failing };
+    },
+  };
+}

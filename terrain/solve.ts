@@ -1,0 +1,345 @@
+/** Spec in, plan out: the plan that meets the coverage spec on every reachable cell in the least flight time found, every choice explained, proved by its own coverage raster. */
+import type { Grid } from './grid';
+import { resolveMission, type Mission } from './mission';
+import { resolveCoverageInput } from './coverage-spec';
+import { localHeights } from './local-frame';
+import { planFlightLines, polygonToLocal, type FlightLine } from './lines';
+import { adviseHeading, compareHeadingOptions } from './heading';
+import { analysePlan, autoStepM, type AnalyseOptions } from './plan';
+import type { AltitudeLimits } from './altitude';
+import type { PlanResult } from './plan-result';
+import { resolveSolveOptions, type SolvePattern } from './solve-options';
+import { forwardOverlapForViews, viewGeometry } from './solve-geometry';
+import { fitAtBestSpeed, stripLowM, type LineContext, type Strip } from './solve-line';
+import { layoutRows, rotated, type LayoutRow } from './solve-layout';
+import { placeTriggers } from './solve-triggers';
+import { flightTimeWithLegSpeedsS, legSpeedMps } from './solve-speed';
+import { makeVerifier, type Verdict, type Verifier } from './solve-verify';
+import { bestUniform, type UniformOutcome, type UniformSetting } from './solve-uniform';
+
+const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
+
+/** Why one line is where it is and flies as it does. */
+export interface LineChoice {
+  line: number;
+  offsetM: number;
+  spacingToNextM: number | null;
+  speedMps: { min: number; max: number };
+  triggerDistanceM: { min: number; max: number };
+  legs: number;
+  reasons: string[];
+}
+
+/** A group of cells no plan of the pattern can meet within the limits. */
+export interface UnreachableGroup {
+  reason: 'ground-unknown' | 'slope-gsd';
+  message: string;
+  cells: number;
+  areaM2: number;
+  centroid: { lon: number; lat: number };
+}
+
+/** Reachable cells the solved plan still leaves short, by spec item. */
+export interface ShortGroup {
+  item: 'gsd' | 'views' | 'other';
+  cells: number;
+  areaM2: number;
+  slopeDeg: { min: number; max: number };
+  centroid: { lon: number; lat: number };
+  message: string;
+}
+
+/** What the solver adds to the plan document. */
+export interface SolveReport {
+  pattern: SolvePattern;
+  choices: { headingDeg: number; heading: string; pattern: string; lines: LineChoice[]; fallback: string | null; summary: string };
+  unreachable: UnreachableGroup[];
+  proof: {
+    cellM: number; cellsInArea: number; reachableCells: number; shareReachableMeeting: number; meets: boolean;
+    items: Array<{ item: string; asks: string; share: number }>;
+    /** Reachable cells still short after the repair rounds (0 when the plan meets the spec). */
+    shortCells: number;
+    /** Those cells by spec item, with the slopes they lie on and why the solver could not close them. */
+    short: ShortGroup[];
+    basis: string;
+  };
+  comparison: { uniform: Array<{ setting: UniformSetting; flightTimeS: number; shareReachable: number | null; meets: boolean | null }>; bestUniformFlightTimeS: number | null; solvedFlightTimeS: number; ratio: number | null };
+  rounds: number;
+}
+
+export type SolvedPlan = PlanResult & SolveReport;
+
+/** Options of one solve. */
+export interface SolveOptionsArg extends AnalyseOptions {
+  /** Uniform settings to compare with besides the mission's own (the bench passes the sweep's best). */
+  uniform?: UniformSetting[];
+}
+
+interface Built { plan: PlanResult; rows: LayoutRow[]; choices: LineChoice[]; flightTimeS: number }
+
+/** Repairs found by checking the raster: places (cross-track) that need a lower line or more photos along. */
+interface Repairs { lower: number[]; views: number[] }
+
+export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}): SolvedPlan {
+  const mission = resolveMission(input);
+  const { spec, envelope, settings } = resolveCoverageInput(input, mission);
+  const so = resolveSolveOptions(input, mission);
+  const geometry = viewGeometry(mission.camera, spec, envelope);
+  const verifier = makeVerifier(grid, mission, spec, envelope, settings, geometry.gsdPerM);
+  const frame = verifier.frame;
+  const heights = localHeights(grid, frame);
+  const area = polygonToLocal(mission.area as never, frame.toLocal);
+  const ring = mission.area.coordinates[0];
+  const lat = ring.slice(0, -1).reduce((t, p) => t + p[1], 0) / (ring.length - 1);
+  const stepM = mission.stationStepM ?? autoStepM(grid, lat);
+  const takeoffXY = frame.toLocal(mission.takeoff.lon, mission.takeoff.lat);
+  const datum = opts.verticalDatum ? opts.verticalDatum.name : "the grid's vertical datum";
+  const inputObj = input as Record<string, unknown>;
+  const baseHalf = geometry.specHeightM * geometry.tanAcross;
+  const nominalS = 2 * baseHalf * (1 - so.minSideOverlap);
+  // heading candidates: the advice's best headings under the solver's nominal spacing
+  let headings: number[];
+  let headingWhy: string;
+  if (typeof mission.headingDeg === 'number') {
+    headings = [mission.headingDeg];
+    headingWhy = `the mission sets the heading to ${mission.headingDeg}°`;
+  } else {
+    const advice = adviseHeading(area, heights.sampleMany, { lineSpacingM: nominalS, triggerDistanceM: baseHalf, runInM: mission.runInM, sampleStepM: Math.max(stepM, 10) });
+    const ranked = [...advice.options].sort(compareHeadingOptions);
+    headings = [];
+    for (const o of ranked) {
+      if (headings.every((h) => Math.min(Math.abs(h - o.headingDeg), 180 - Math.abs(h - o.headingDeg)) >= 10)) headings.push(o.headingDeg);
+      if (headings.length >= so.headingCandidates) break;
+    }
+    headingWhy = `candidates ${headings.map((h) => `${h}°`).join(', ')} (the least spread of height above ground in the heading advice)`;
+  }
+  const build = (headingDeg: number, rep: Repairs): Built => {
+    const ctx: LineContext = { area, headingDeg, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
+    const near = (list: number[], c: number) => list.filter((v) => Math.abs(v - c) <= nominalS / 2).length;
+    const factorAt = (c: number) => 0.97 * 0.92 ** near(rep.lower, c);
+    const viewsAt = (c: number) => Math.max(1, spec.minViews) + near(rep.views, c);
+    const rows = layoutRows(ctx, factorAt, so.minSideOverlap);
+    const offsets = rows.map((r) => r.offsetM);
+    const laid = planFlightLines(area, { headingDeg, lineSpacingM: nominalS, triggerDistanceM: Math.max(5, baseHalf), runInM: mission.runInM, offsetsM: offsets, takeoff: takeoffXY });
+    const limitsBy = new Map<FlightLine, AltitudeLimits>();
+    const stripBy = new Map<FlightLine, Strip>();
+    const info: Array<{ line: FlightLine; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean }> = [];
+    const lines = laid.map((l) => {
+      const row = offsets.findIndex((c) => Math.abs(c - l.offsetM) < 1e-6);
+      const factor = factorAt(l.offsetM);
+      // strip sides in the flying direction: a line flown against the layout heading has its neighbours swapped
+      const lower = row > 0 ? (offsets[row] - offsets[row - 1]) / 2 : baseHalf;
+      const upper = row + 1 < offsets.length ? (offsets[row + 1] - offsets[row]) / 2 : baseHalf;
+      const d = (((l.headingDeg - headingDeg) % 360) + 360) % 360;
+      const along = d < 90 || d > 270;
+      const belowM = along ? lower : upper, aboveM = along ? upper : lower;
+      const fitted = fitAtBestSpeed(ctx, l, factor, { belowM, aboveM });
+      const views = viewsAt(l.offsetM);
+      const fwd = forwardOverlapForViews(views, so.minForwardOverlap);
+      const trig = placeTriggers(l, fitted.x, fitted.fit.altitudeM, heights, { belowM, aboveM }, geometry.tanAlong, fwd, 2 * geometry.specHeightM * factor * geometry.tanAlong);
+      const line: FlightLine = { ...l, stationsM: trig.stationsM };
+      limitsBy.set(line, fitted.limits);
+      stripBy.set(line, { belowM, aboveM });
+      info.push({ line, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length });
+      return line;
+    });
+    // the analysed mission's GSD band is the spec's (finer is never a fault), so station flags speak of the spec
+    const plan = analysePlan(grid, { ...inputObj, headingDeg, mode: 'follow', targetGsdCm: spec.maxGsdCm / 1.5, gsdTolerance: 0.5, forwardOverlap: Math.min(0.95, forwardOverlapForViews(spec.minViews, so.minForwardOverlap)), sideOverlap: so.minSideOverlap }, {
+      verticalDatum: opts.verticalDatum, lines, limitsFor: (line, lim) => limitsBy.get(line) ?? lim,
+      bandGroundFor: (line, x) => { const s = stripBy.get(line); const lim = limitsBy.get(line); return s && lim ? stripLowM(ctx, line, x, s, lim.bandHighM) : undefined; },
+    });
+    const kept = info.filter((i) => i.plannable);
+    const choices: LineChoice[] = plan.lines.map((pl, li) => {
+      const it = kept[li];
+      let vMin = Infinity, vMax = 0;
+      for (const g of pl.legs) {
+        const v = round(legSpeedMps(mission, g.gradient), 2);
+        g.speedMps = v;
+        vMin = Math.min(vMin, v); vMax = Math.max(vMax, v);
+        const st = pl.stations.filter((s) => s.distanceM >= g.start.distanceM - 1e-6 && s.distanceM <= g.end.distanceM + 1e-6).map((s) => s.distanceM);
+        const d = st.slice(1).map((v2, k) => v2 - st[k]);
+        if (d.length) g.triggerDistanceM = { min: round(Math.min(...d), 2), max: round(Math.max(...d), 2) };
+      }
+      const row = it ? rows[it.row] : undefined;
+      const reasons: string[] = [];
+      if (it && row) {
+        const nx = row.next;
+        const rowNo = (r: number) => { const k = kept.findIndex((q) => q.row === r); return k >= 0 ? k + 1 : null; };
+        if (nx) {
+          const [lon, lat2] = frame.toLonLat(nx.atX, nx.atY);
+          reasons.push(`ground at ${round(nx.groundM, 1)} m above ${datum} between lines ${li + 1} and ${rowNo(it.row + 1) ?? '?'} (lon ${round(lon, 5)}, lat ${round(lat2, 5)}) leaves ${round(nx.halfLeftM, 1)} m and ${round(nx.halfRightM, 1)} m of footprint either side under the ${geometry.rollDeg}° roll: ${round(nx.spacingM, 1)} m spacing keeps the ${round(so.minSideOverlap * 100, 0)} % side overlap floor${nx.held ? '' : ' (not held after 7 tries: the raster check decides)'}.`);
+        } else reasons.push('last line of the layout: its footprint reaches the area\'s far edge.');
+        reasons.push(`altitude legs under ${round(it.factor * geometry.specHeightM, 1)} m above ground (${round(it.factor * 100, 0)} % of the ${round(geometry.specHeightM, 1)} m that gives the spec's ${spec.maxGsdCm} cm GSD), never below the ${mission.clearanceM + mission.obstacleAllowanceM} m clearance and allowance, under the ${mission.maxAglM} m height limit.`);
+        if (it.fitSpeed < mission.speedMps - 1e-9) reasons.push(`at ${mission.speedMps} m/s the climb/descent limits (${mission.climbMps}/${mission.descentMps} m/s) miss the GSD band over ${round(it.slowedForM, 0)} m of this line; legs were fitted for ${round(it.fitSpeed, 2)} m/s (gradients ${round(mission.climbMps / it.fitSpeed, 3)} up, ${round(mission.descentMps / it.fitSpeed, 3)} down) and each flies as fast as its own gradient allows (${round(vMin, 2)}–${round(vMax, 2)} m/s).`);
+        else reasons.push(`every leg at the mission's ${mission.speedMps} m/s: the climb/descent limits hold the band without slowing.`);
+        reasons.push(`photos every ${round(it.trig.minM, 1)}–${round(it.trig.maxM, 1)} m: ${round(it.fwd * 100, 0)} % forward overlap (${it.views} views along the line) over the highest ground under each photo; the tightest where ground reaches ${round(it.trig.tightestGroundM, 1)} m above ${datum}, ${round(it.trig.tightestAtM, 0)} m along.`);
+      }
+      return {
+        line: li + 1, offsetM: it ? round(it.line.offsetM, 2) : NaN, spacingToNextM: row?.next ? round(row.next.spacingM, 2) : null,
+        speedMps: { min: round(vMin, 2), max: round(vMax, 2) },
+        triggerDistanceM: { min: it ? round(it.trig.minM, 2) : 0, max: it ? round(it.trig.maxM, 2) : 0 },
+        legs: pl.legs.length, reasons,
+      };
+    });
+    const flightTimeS = flightTimeWithLegSpeedsS(plan, mission);
+    return { plan, rows, choices, flightTimeS };
+  };
+  // 1. heading: the candidate whose layout flies fastest
+  const none: Repairs = { lower: [], views: [] };
+  let headingDeg = headings[0];
+  let built = build(headingDeg, none);
+  const tried: string[] = [`${headingDeg}°: ${round(built.flightTimeS, 0)} s`];
+  for (const h of headings.slice(1)) {
+    const b = build(h, none);
+    tried.push(`${h}°: ${round(b.flightTimeS, 0)} s`);
+    if (b.flightTimeS < built.flightTimeS) { built = b; headingDeg = h; }
+  }
+  // 2. prove, and tighten where reachable cells fall short
+  const rot = rotated(headingDeg);
+  const rep: Repairs = { lower: [], views: [] };
+  let verdict: Verdict = verifier.check(built.plan);
+  let rounds = 0;
+  let best = { built, verdict };
+  while (!verdict.meets && rounds < so.repairRounds) {
+    rounds++;
+    const offsets = built.rows.map((r) => r.offsetM);
+    const hitLower = new Set<number>(), hitViews = new Set<number>();
+    for (const f of verdict.failing) {
+      const c = rot.c(verifier.cells.x[f.cell], verifier.cells.y[f.cell]);
+      let k = 0;
+      for (let j = 1; j < offsets.length; j++) if (Math.abs(offsets[j] - c) < Math.abs(offsets[k] - c)) k = j;
+      (f.item === 'gsd' ? hitLower : hitViews).add(k);
+    }
+    for (const k of hitLower) rep.lower.push(offsets[k]);
+    for (const k of hitViews) rep.views.push(offsets[k]);
+    built = build(headingDeg, rep);
+    verdict = verifier.check(built.plan);
+    if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict };
+  }
+  ({ built, verdict } = best);
+  // 3. the yardstick: uniform settings; fall back when one meets the spec in no more time (or the solved plan does not meet it)
+  const own: UniformSetting = { forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, mode: mission.mode, headingDeg: typeof mission.headingDeg === 'number' ? mission.headingDeg : headingDeg };
+  // the mission's own overlaps in each altitude mode, and any settings the caller adds
+  const modes = (['hold', 'steps', 'follow'] as const).filter((m) => m !== own.mode).map((mode) => ({ ...own, mode }));
+  // analysed all; rasters only for those that could win (no slower than the solved plan, or all when it falls short)
+  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, opts, 0).outcomes;
+  for (const o of checkedUniform) {
+    if (verdict.meets && o.flightTimeS > built.flightTimeS) continue;
+    const v = verifier.check(o.plan);
+    o.meets = v.meets; o.shareReachable = v.compliance.shareAll;
+  }
+  const meetingUniform = checkedUniform.filter((o) => o.meets).sort((a, b) => a.flightTimeS - b.flightTimeS)[0] ?? null;
+  let plan = built.plan;
+  let flightTimeS = built.flightTimeS;
+  let fallback: string | null = null;
+  let choiceLines = built.choices;
+  if (meetingUniform && (!verdict.meets || meetingUniform.flightTimeS <= flightTimeS)) {
+    const u: UniformOutcome = meetingUniform;
+    fallback = `the uniform setting (forward ${round(u.setting.forwardOverlap * 100, 0)} %, side ${round(u.setting.sideOverlap * 100, 0)} %, ${u.setting.mode}, ${u.setting.headingDeg}°) meets the spec in ${round(u.flightTimeS, 0)} s, ${verdict.meets ? `no more than the solved layout's ${round(flightTimeS, 0)} s` : 'and the solved layout does not meet it'}: it is returned instead.`;
+    plan = u.plan;
+    flightTimeS = u.flightTimeS;
+    verdict = verifier.check(plan);
+    choiceLines = [];
+  }
+  plan.summary.flightTimeS = round(flightTimeS, 1);
+  if (!fallback && choiceLines.length > 0) {
+    // spacing and photo spacing vary by line: the summary gives the tightest of each (every line's own in choices),
+    // and the height the bands are topped at
+    const gaps = choiceLines.map((c) => c.spacingToNextM).filter((v): v is number => v !== null);
+    if (gaps.length) plan.summary.lineSpacingM = Math.min(...gaps);
+    plan.summary.triggerDistanceM = Math.min(...choiceLines.map((c) => c.triggerDistanceM.min));
+    plan.summary.plannedHeightM = round(geometry.specHeightM * 0.97, 3);
+  }
+  const usable = mission.enduranceMin * 60 * (1 - mission.batteryReserve);
+  plan.summary.batteries = Math.max(1, Math.ceil(flightTimeS / usable - 1e-9));
+  const unreachable = unreachableGroups(verifier, spec.maxGsdCm, mission);
+  const reachableCells = verifier.cells.insideCount - unreachable.reduce((t, g) => t + g.cells, 0);
+  const bestUni = meetingUniform ? meetingUniform.flightTimeS : null;
+  return {
+    ...plan,
+    pattern: 'furrow', // the only pattern built so far; choices.pattern says so when lattice was asked for
+    choices: {
+      headingDeg,
+      heading: `${headingDeg}° flies fastest of ${headingWhy}: ${tried.join(', ')}.`,
+      pattern: so.pattern === 'furrow'
+        ? 'furrow: one set of parallel lines, nadir camera (mapping).'
+        : 'lattice was asked for, but only the furrow pattern (one set of parallel lines) is built so far: this is a furrow plan.',
+      lines: choiceLines,
+      fallback,
+      summary: fallback
+        ? 'the summary is the uniform plan\'s own.'
+        : 'summary.lineSpacingM and summary.triggerDistanceM are the tightest line spacing and photo spacing (each line\'s own are in choices.lines); summary.plannedHeightM is the height above ground the GSD bands are topped at; the GSD band is the spec\'s (finer is never a fault); overlaps are checked against the solver\'s floors.',
+    },
+    unreachable,
+    proof: {
+      cellM: round(verifier.cellM, 3), cellsInArea: verifier.cells.insideCount, reachableCells,
+      shareReachableMeeting: round(verdict.compliance.shareAll, 6), meets: verdict.meets,
+      items: verdict.compliance.items.map((it) => ({ item: it.item, asks: it.asks, share: round(it.share, 6) })),
+      shortCells: verdict.failing.length,
+      short: shortGroups(verifier, verdict, spec.maxGsdCm, rounds),
+      basis: envelope ? 'coverage raster of the solved plan, guaranteed under the attitude envelope' : 'coverage raster of the solved plan, as planned (no attitude envelope in the mission)',
+    },
+    comparison: {
+      uniform: checkedUniform.map((o) => ({ setting: o.setting, flightTimeS: o.flightTimeS, shareReachable: o.shareReachable === null ? null : round(o.shareReachable, 6), meets: o.meets })),
+      bestUniformFlightTimeS: bestUni,
+      solvedFlightTimeS: round(flightTimeS, 1),
+      ratio: bestUni ? round(flightTimeS / bestUni, 4) : null,
+    },
+    rounds,
+  };
+}
+
+/** Short cells grouped by item, with the slopes under them. */
+function shortGroups(v: Verifier, verdict: Verdict, maxGsdCm: number, rounds: number): ShortGroup[] {
+  const out: ShortGroup[] = [];
+  for (const item of ['gsd', 'views', 'other'] as const) {
+    const cells = verdict.failing.filter((f) => f.item === item).map((f) => f.cell);
+    if (cells.length === 0) continue;
+    let sx = 0, sy = 0, lo = Infinity, hi = -Infinity, worst = 0;
+    for (const i of cells) {
+      sx += v.cells.x[i]; sy += v.cells.y[i];
+      const b = v.reach.slopeDeg[i];
+      if (b < lo) lo = b;
+      if (b > hi) hi = b;
+      const g = verdict.raster.finestGsdCm[i];
+      worst = Number.isFinite(g) ? Math.max(worst, g) : Infinity;
+    }
+    const [lon, lat] = v.frame.toLonLat(sx / cells.length, sy / cells.length);
+    const steep = lo >= 30;
+    out.push({
+      item, cells: cells.length, areaM2: round(cells.length * v.cells.cellAreaM2, 1), slopeDeg: { min: round(lo, 1), max: round(hi, 1) },
+      centroid: { lon: round(lon, 7), lat: round(lat, 7) },
+      message: item === 'gsd'
+        ? `no view at or finer than ${maxGsdCm} cm after ${rounds} tightening rounds (finest there up to ${Number.isFinite(worst) ? `${round(worst, 2)} cm` : 'none'}) on ground sloping ${round(lo, 0)}–${round(hi, 0)}°${steep ? ': steep faces that nadir photos from lines beside them see too obliquely; a line straight over the face or a tilted camera is needed' : ''}.`
+        : item === 'views' ? `fewer views than the spec asks after ${rounds} tightening rounds (terrain hides them, or the strip edges under the envelope).`
+          : `the advisory σ items are not met here after ${rounds} rounds (the solver does not steer by them).`,
+    });
+  }
+  return out;
+}
+
+/** Unreachable cells grouped by reason, with a message naming the numbers. */
+function unreachableGroups(v: Verifier, maxGsdCm: number, m: Mission): UnreachableGroup[] {
+  const out: UnreachableGroup[] = [];
+  const { cells, reach, frame } = v;
+  for (const code of [1, 2] as const) {
+    let n = 0, sx = 0, sy = 0, slopeMax = 0;
+    for (let i = 0; i < reach.code.length; i++) {
+      if (!cells.inside[i] || reach.code[i] !== code) continue;
+      n++; sx += cells.x[i]; sy += cells.y[i];
+      if (code === 2 && reach.slopeDeg[i] > slopeMax) slopeMax = reach.slopeDeg[i];
+    }
+    if (n === 0) continue;
+    const [lon, lat] = frame.toLonLat(sx / n, sy / n);
+    const low = m.clearanceM + m.obstacleAllowanceM;
+    out.push({
+      reason: code === 1 ? 'ground-unknown' : 'slope-gsd',
+      message: code === 1
+        ? 'the elevation grid has no height here: no altitude can be proven safe and no GSD computed.'
+        : `ground sloping up to ${round(slopeMax, 1)}°: even a photo straight above at the ${low} m clearance and allowance gives a GSD coarser than the spec's ${maxGsdCm} cm along the slope; the clearance forbids flying lower (a tilted camera would be needed).`,
+      cells: n, areaM2: round(n * cells.cellAreaM2, 1), centroid: { lon: round(lon, 7), lat: round(lat, 7) },
+    });
+  }
+  return out;
+}
+
