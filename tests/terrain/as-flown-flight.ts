@@ -1,0 +1,111 @@
+/**
+ * A simulated flight of a plan over a synthetic site, for the as-flown tests: wind pushes every line a few metres
+ * downwind (one line much further), the aircraft crabs into the wind, rolls and pitches a little, altitudes
+ * scatter, some triggers are skipped, and two photos are taken off the lines (one on the ground at takeoff, one
+ * in a turn). Everything is deterministic: what the flight left out is known in advance.
+ */
+import { syntheticSite, type Site } from './coverage-site';
+import { analysePlan } from '../../terrain/plan';
+import { resolveMission, type Mission } from '../../terrain/mission';
+import { coverageFrame } from '../../terrain/coverage-photos';
+import type { PlanResult } from '../../terrain/plan-result';
+import type { LocalFrame } from '../../terrain/local-frame';
+import type { CoveragePhoto } from '../../terrain/coverage';
+import type { FlownPhoto } from '../../terrain/as-flown-match';
+
+export const CAMERA = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
+
+/** Rolling hills: 25 m of relief over a few hundred metres. */
+export const hills = (x: number, y: number) => 200 + 15 * Math.sin(x / 80) + 10 * Math.cos(y / 60) + 0.02 * x;
+
+export interface SimulatedFlight {
+  site: Site;
+  missionInput: Record<string, unknown>;
+  mission: Mission;
+  plan: PlanResult;
+  frame: LocalFrame;
+  /** The photo log as the camera wrote it (in flight order). */
+  photos: FlownPhoto[];
+  /** Skipped triggers, 1-based line and station. */
+  skipped: Array<{ line: number; station: number }>;
+  /** Indices in `photos` of the two photos off the lines. */
+  extraPhotos: number[];
+  /** Cross-track drift of each line, metres to the right of its flying direction. */
+  driftM: number[];
+  /** Mean altitude bias of the flight, metres (the barometer reads high). */
+  altitudeBiasM: number;
+  /** Every planned station's pose as it would have been flown (skipped ones included), and which were skipped. */
+  allPoses: CoveragePhoto[];
+  skippedPose: boolean[];
+}
+
+/** Deterministic scatter in [-1, 1] (a fixed sine hash: no random source, the same flight every run). */
+const jitter = (k: number, salt: number) => Math.sin(k * 12.9898 + salt * 78.233) * 0.5 + Math.sin(k * 3.17 + salt) * 0.5;
+
+/** The site, the mission over a 300 m x 200 m block (east–west lines) and its plan. */
+export function simulatedSite(): { site: Site; missionInput: Record<string, unknown>; mission: Mission; plan: PlanResult; frame: LocalFrame } {
+  const site = syntheticSite(400, 2, hills);
+  const area = site.area(-150, -100, 150, 100);
+  const [tlon, tlat] = site.frame.toLonLat(-170, -120);
+  const missionInput: Record<string, unknown> = {
+    name: 'Synthetic block (test)', area, camera: { ...CAMERA }, targetGsdCm: 2.5, gsdTolerance: 0.1, forwardOverlap: 0.8, sideOverlap: 0.7,
+    headingDeg: 90, mode: 'follow', clearanceM: 30, takeoff: { lon: tlon, lat: tlat }, speedMps: 8, spec: { minViews: 9 },
+  };
+  const mission = resolveMission(missionInput);
+  const plan = analysePlan(site.grid, missionInput);
+  return { site, missionInput, mission, plan, frame: coverageFrame(mission.area) };
+}
+
+/**
+ * Flies the plan: line k is pushed `driftM[k]` to the right of its direction (wind from the north pushes
+ * east-bound lines right and west-bound ones left), the camera crabs 4° into the wind, rolls and pitches up to
+ * about 2°, altitudes read `altitudeBiasM` high with ±0.5 m scatter, photos fall up to ±1.5 m along from the
+ * station; the triggers in `skip` are not taken.
+ */
+export function simulateFlight(skip: Array<{ line: number; station: number }>): SimulatedFlight {
+  const { site, missionInput, mission, plan, frame } = simulatedSite();
+  const driftM = plan.lines.map((l, k) => (k === 2 ? 12 : 3.5) * (Math.sin((l.headingDeg * Math.PI) / 180) > 0 ? 1 : -1));
+  const altitudeBiasM = 1.2;
+  const skipSet = new Set(skip.map((s) => `${s.line}/${s.station}`));
+  const photos: FlownPhoto[] = [];
+  const allPoses: CoveragePhoto[] = [];
+  const skippedPose: boolean[] = [];
+  const extraPhotos: number[] = [];
+  const t0 = Date.UTC(2026, 4, 14, 9, 30, 0);
+  let tS = 60, k = 0;
+  const iso = (s: number) => new Date(t0 + Math.round(s) * 1000).toISOString().replace('.000Z', 'Z');
+  // a test shot on the ground at the takeoff point before the flight
+  extraPhotos.push(photos.length);
+  photos.push({ file: 'IMG_0000.JPG', lon: plan.takeoff.lon, lat: plan.takeoff.lat, altitudeM: plan.takeoff.groundM + 1.5, altitudeRef: 'datum', yawDeg: 0, pitchDeg: 0, rollDeg: 0, time: iso(0), focalLengthMm: 8.8, cameraModel: 'Survey Cam S20' });
+  plan.lines.forEach((line, li) => {
+    const h = (line.headingDeg * Math.PI) / 180;
+    const ux = Math.sin(h), uy = Math.cos(h); // along; right of it is (uy, -ux)
+    line.stations.forEach((s, si) => {
+      k++;
+      const [x, y] = frame.toLocal(s.lon, s.lat);
+      const along = 1.5 * jitter(k, 1), across = driftM[li] + 0.4 * jitter(k, 2);
+      const [lonRaw, latRaw] = frame.toLonLat(x + along * ux + across * uy, y + along * uy - across * ux);
+      const lon = Math.round(lonRaw * 1e9) / 1e9, lat = Math.round(latRaw * 1e9) / 1e9;
+      const altitudeM = Math.round((s.altitudeM + altitudeBiasM + 0.5 * jitter(k, 3)) * 100) / 100;
+      const yawDeg = Math.round(((line.headingDeg + (driftM[li] > 0 ? -4 : 4) + 360) % 360) * 100) / 100;
+      const pitchDeg = Math.round(1.5 * jitter(k, 4) * 100) / 100, rollDeg = Math.round(2 * jitter(k, 5) * 100) / 100;
+      const skipped = skipSet.has(`${li + 1}/${si + 1}`);
+      // the pose exactly as the log records it, so the flown raster can be rebuilt from the simulation alone
+      const [px, py] = frame.toLocal(lon, lat);
+      allPoses.push({ xM: px, yM: py, altitudeM, yawDeg, rollDeg, mountTiltDeg: pitchDeg });
+      skippedPose.push(skipped);
+      tS += plan.summary.triggerDistanceM / 8;
+      if (skipped) return;
+      photos.push({ file: `IMG_${String(k).padStart(4, '0')}.JPG`, lon, lat, altitudeM, altitudeRef: 'datum', yawDeg, pitchDeg, rollDeg, time: iso(tS), focalLengthMm: 8.8, cameraModel: 'Survey Cam S20' });
+    });
+    tS += 15;
+    if (li === 1) {
+      // a photo in the turn after line 2, 40 m beyond its end
+      const [ex, ey] = frame.toLocal(line.end.lon, line.end.lat);
+      const [lon, lat] = frame.toLonLat(ex + 40 * ux, ey + 40 * uy);
+      extraPhotos.push(photos.length);
+      photos.push({ file: 'IMG_9001.JPG', lon: Math.round(lon * 1e9) / 1e9, lat: Math.round(lat * 1e9) / 1e9, altitudeM: line.stations[line.stations.length - 1].altitudeM, altitudeRef: 'datum', yawDeg: null, pitchDeg: null, rollDeg: null, time: iso(tS), focalLengthMm: 8.8, cameraModel: 'Survey Cam S20' });
+    }
+  });
+  return { site, missionInput, mission, plan, frame, photos, skipped: skip, extraPhotos, driftM, altitudeBiasM, allPoses, skippedPose };
+}
