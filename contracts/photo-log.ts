@@ -115,8 +115,12 @@ export function parsePhotoLogCsv(text: string): PhotoRecord[] {
     if (!(altitudeRefs as readonly string[]).includes(cell('altitudeRef'))) rowProblems.push(`altitudeRef ${shown(cell('altitudeRef'))} is not one of ${altitudeRefs.join(', ')}`);
     if (rowProblems.length === 0) {
       const ok = photoRecordSchema.safeParse(rec);
-      if (!ok.success) for (const issue of ok.error.issues) rowProblems.push(`${issue.path.join('.') || 'row'}: ${issue.message}${issue.path[0] === 'time' ? ` (got ${shown(cell('time'))})` : ''}`);
-      else {
+      if (!ok.success) {
+        for (const issue of ok.error.issues) {
+          const name = issue.path.join('.') || 'row';
+          rowProblems.push(`${issue.message.startsWith(name) ? '' : `${name}: `}${issue.message}${name === 'time' ? ` (got ${shown(cell('time'))})` : ''}`);
+        }
+      } else {
         const prev = seen.get(ok.data.file);
         if (prev !== undefined) rowProblems.push(`file ${shown(ok.data.file)} is listed again (first in row ${prev})`);
         else { seen.set(ok.data.file, rowNo); out.push(ok.data); }
