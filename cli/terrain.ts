@@ -14,6 +14,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   gsd: () => import('./gsd'),
   plan: () => import('./plan'),
   coverage: () => import('./coverage'),
+  'as-flown': () => import('./as-flown'),
 };
 
 async function main(argv: string[]): Promise<void> {

@@ -89,7 +89,9 @@ export interface AsFlown {
   plan: PlanResult;
   frame: LocalFrame;
   match: PhotoMatch;
+  /** Every photo's pose (log order); those in `farAway` (0-based) lie too far from the area to see it and are left out of the raster. */
   poses: CoveragePhoto[];
+  farAway: number[];
   assumedAttitude: number[];
   planned: CoverageRaster;
   flown: CoverageRaster;
@@ -107,9 +109,22 @@ export function analyseAsFlown(grid: Grid, mission: Mission, plan: PlanResult, p
   const frame = coverageFrame(mission.area);
   const match = matchPhotos(plan, frame, photos, mission.camera);
   const { poses, assumed } = flownPoses(photos, match, plan);
+  // a stray photo far from the area sees none of it, but would stretch the height lattice over the gap
+  const reachM = plan.summary.footprintAcrossM + plan.summary.footprintAlongM;
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  for (const [lon, lat] of mission.area.coordinates[0]) {
+    const [x, y] = frame.toLocal(lon, lat);
+    x0 = Math.min(x0, x); x1 = Math.max(x1, x); y0 = Math.min(y0, y); y1 = Math.max(y1, y);
+  }
+  const farAway: number[] = [];
+  const near = poses.filter((p, k) => {
+    const ok = p.xM > x0 - reachM && p.xM < x1 + reachM && p.yM > y0 - reachM && p.yM < y1 + reachM;
+    if (!ok) farAway.push(k);
+    return ok;
+  });
   const opts = { cellM: settings.cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion };
   const planned = computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, null).photos, opts);
-  const flown = computeCoverage(grid, frame, mission.area, mission.camera, poses, opts);
+  const flown = computeCoverage(grid, frame, mission.area, mission.camera, near, opts);
   const { width, height, inside, cellAreaM2 } = flown.cells;
   const n = width * height;
   const lost = new Uint8Array(n);
@@ -122,7 +137,7 @@ export function analyseAsFlown(grid: Grid, mission: Mission, plan: PlanResult, p
     else if (!p && !f) failingAsPlannedCells++;
   }
   return {
-    plan, frame, match, poses, assumedAttitude: assumed, planned, flown,
+    plan, frame, match, poses, farAway, assumedAttitude: assumed, planned, flown,
     compliance: { planned: coverageCompliance(planned, spec), flown: coverageCompliance(flown, spec) },
     difference: { lost, lostCells, lostAreaM2: lostCells * cellAreaM2, gainedCells, gainedAreaM2: gainedCells * cellAreaM2, lostPatches: maskPatches(lost, width, height), failingAsPlannedCells },
   };

@@ -56,14 +56,24 @@ export function simulatedSite(): { site: Site; missionInput: Record<string, unkn
   return { site, missionInput, mission, plan, frame: coverageFrame(mission.area) };
 }
 
+/** What a simulated flight of a plan gives: the photo log and what is known about it in advance. */
+export interface FlownLog {
+  photos: FlownPhoto[];
+  extraPhotos: number[];
+  driftM: number[];
+  altitudeBiasM: number;
+  allPoses: CoveragePhoto[];
+  skippedPose: boolean[];
+}
+
 /**
- * Flies the plan: line k is pushed `driftM[k]` to the right of its direction (wind from the north pushes
- * east-bound lines right and west-bound ones left), the camera crabs 4° into the wind, rolls and pitches up to
- * about 2°, altitudes read `altitudeBiasM` high with ±0.5 m scatter, photos fall up to ±1.5 m along from the
- * station; the triggers in `skip` are not taken.
+ * Flies a plan: line k is pushed `driftM[k]` to the right of its direction (3.5 m, and 12 m on line 3: wind
+ * from the north pushes east-bound lines right and west-bound ones left), the camera crabs 4° into the wind,
+ * rolls and pitches up to about 2°, altitudes read 1.2 m high with ±0.5 m scatter, photos fall up to ±1.5 m
+ * along from the station; the triggers in `skip` are not taken. Before the flight a test shot is taken on the
+ * ground at takeoff, and one photo in the turn after line 2, 40 m beyond its end, without attitude.
  */
-export function simulateFlight(skip: Array<{ line: number; station: number }>): SimulatedFlight {
-  const { site, missionInput, mission, plan, frame } = simulatedSite();
+export function flyPlan(plan: PlanResult, frame: LocalFrame, skip: Array<{ line: number; station: number }>): FlownLog {
   const driftM = plan.lines.map((l, k) => (k === 2 ? 12 : 3.5) * (Math.sin((l.headingDeg * Math.PI) / 180) > 0 ? 1 : -1));
   const altitudeBiasM = 1.2;
   const skipSet = new Set(skip.map((s) => `${s.line}/${s.station}`));
@@ -74,7 +84,6 @@ export function simulateFlight(skip: Array<{ line: number; station: number }>): 
   const t0 = Date.UTC(2026, 4, 14, 9, 30, 0);
   let tS = 60, k = 0;
   const iso = (s: number) => new Date(t0 + Math.round(s) * 1000).toISOString().replace('.000Z', 'Z');
-  // a test shot on the ground at the takeoff point before the flight
   extraPhotos.push(photos.length);
   photos.push({ file: 'IMG_0000.JPG', lon: plan.takeoff.lon, lat: plan.takeoff.lat, altitudeM: plan.takeoff.groundM + 1.5, altitudeRef: 'datum', yawDeg: 0, pitchDeg: 0, rollDeg: 0, time: iso(0), focalLengthMm: 8.8, cameraModel: 'Survey Cam S20' });
   plan.lines.forEach((line, li) => {
@@ -100,12 +109,17 @@ export function simulateFlight(skip: Array<{ line: number; station: number }>): 
     });
     tS += 15;
     if (li === 1) {
-      // a photo in the turn after line 2, 40 m beyond its end
       const [ex, ey] = frame.toLocal(line.end.lon, line.end.lat);
       const [lon, lat] = frame.toLonLat(ex + 40 * ux, ey + 40 * uy);
       extraPhotos.push(photos.length);
       photos.push({ file: 'IMG_9001.JPG', lon: Math.round(lon * 1e9) / 1e9, lat: Math.round(lat * 1e9) / 1e9, altitudeM: line.stations[line.stations.length - 1].altitudeM, altitudeRef: 'datum', yawDeg: null, pitchDeg: null, rollDeg: null, time: iso(tS), focalLengthMm: 8.8, cameraModel: 'Survey Cam S20' });
     }
   });
-  return { site, missionInput, mission, plan, frame, photos, skipped: skip, extraPhotos, driftM, altitudeBiasM, allPoses, skippedPose };
+  return { photos, extraPhotos, driftM, altitudeBiasM, allPoses, skippedPose };
+}
+
+/** The synthetic site's plan flown with `skip` left out (see `flyPlan`). */
+export function simulateFlight(skip: Array<{ line: number; station: number }>): SimulatedFlight {
+  const base = simulatedSite();
+  return { ...base, ...flyPlan(base.plan, base.frame, skip), skipped: skip };
 }
