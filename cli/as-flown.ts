@@ -128,7 +128,7 @@ export async function run(args: string[]): Promise<unknown> {
       smallPatches: `${reflight.smallPatchCells} lost cells lie in patches smaller than ${MIN_REFLIGHT_PATCH_SHARE} of one station's ground (air base × line spacing) and are not re-flown; they are listed under difference.patches.`,
       areas: reflight.areas.map((ar) => ({ patches: ar.patches, cells: ar.cells, areaM2: round(ar.areaM2, 1), alongM: round(ar.alongM, 1), acrossM: round(ar.acrossM, 1), polygon: ar.polygon })),
       missions: reflight.missions,
-      lines: reflight.plans.map((p) => p.lines.map((l) => ({ start: l.start, end: l.end, lengthM: l.lengthM, headingDeg: l.headingDeg, photos: l.stations.length, legs: l.legs.map((g) => ({ altitudeStartAboveTakeoffM: g.altitudeStartAboveTakeoffM, altitudeEndAboveTakeoffM: g.altitudeEndAboveTakeoffM, startDistanceM: g.start.distanceM, endDistanceM: g.end.distanceM })) }))),
+      lines: reflight.plans.map((p) => p.lines.map((l) => ({ start: l.start, end: l.end, lengthM: l.lengthM, headingDeg: l.headingDeg, photos: l.stations.length, legs: l.legs.map((g) => ({ startDistanceM: g.start.distanceM, endDistanceM: g.end.distanceM, altitudeStartAboveTakeoffM: g.altitudeStartAboveTakeoffM, altitudeEndAboveTakeoffM: g.altitudeEndAboveTakeoffM, altitudeStartM: g.altitudeStartM, altitudeEndM: g.altitudeEndM })) }))),
     },
     timingMs: { plan: round(t1 - t0, 1), asFlown: round(t2 - t1, 1), reflight: round(t3 - t2, 1) },
     cautions: [...generalCautions],
