@@ -19,6 +19,14 @@
 import exifr from 'exifr';
 import { photoRecordSchema, type PhotoRecord } from '../../contracts/photo-log';
 
+/**
+ * How much of a JPEG to read: EXIF and XMP sit in APP1 segments of at most 64 KiB each at the start of the
+ * file (JPEG/JFIF, ITU-T T.81 marker segments; EXIF 2.32 §4.5.4), so a device reads this head of each photo
+ * (`file.slice(0, PHOTO_HEAD_BYTES)`) instead of megabytes of image data. TIFF photos may keep their tags
+ * anywhere: read them whole.
+ */
+export const PHOTO_HEAD_BYTES = 256 * 1024;
+
 /** What one photo says, and what had to be assumed because it does not say. */
 export interface PhotoReading {
   record: PhotoRecord;

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { simulateFlight, type SimulatedFlight } from './as-flown-flight';
-import { readPhotoMetadata, PhotoMetadataError, type PhotoReading } from '../../components/photos/read-photo-metadata';
+import { readPhotoMetadata, PhotoMetadataError, PHOTO_HEAD_BYTES, type PhotoReading } from '../../components/photos/read-photo-metadata';
 import { parsePhotoLogCsv, photoLogToCsv, type PhotoRecord } from '../../contracts/photo-log';
 import { analyseAsFlown } from '../../terrain/as-flown';
 import { resolveCoverageInput } from '../../terrain/coverage-spec';
@@ -110,6 +110,22 @@ describe('photo metadata read on the device', () => {
     await expect(readPhotoMetadata(new Uint8Array(readFileSync(BLANK)), 'blank.jpg')).rejects.toThrow(/blank.jpg: no GPS position \(EXIF GPSLatitude\/GPSLongitude\)/);
     await expect(readPhotoMetadata(new TextEncoder().encode('not a photo'), 'notes.txt')).rejects.toThrow(/notes.txt: /);
   });
+});
+
+describe('reading only the head of a large photo', () => {
+  it('gives the same record as reading the whole file', async () => {
+    // a 4000 x 3000 JPEG (GDAL 3.6.2 gdal_translate, as the fixture) with a photo's tags written by exiftool
+    const big = join(dir, 'big.jpg');
+    execFileSync('gdal_translate', ['-q', '-of', 'JPEG', '-ot', 'Byte', '-scale', '-outsize', '4000', '3000', '-co', 'QUALITY=95', 'datasets/harrow-fell-dem.tif', big], { env: { ...process.env, GDAL_PAM_ENABLED: 'NO' }, stdio: 'ignore' });
+    const p = sim.photos[3];
+    execFileSync('exiftool', ['-q', ...exiftoolArgs(p, big).slice(0, -1)]);
+    const bytes = new Uint8Array(readFileSync(big));
+    expect(bytes.length).toBeGreaterThan(2 * PHOTO_HEAD_BYTES);
+    const whole = await readPhotoMetadata(bytes, p.file);
+    const head = await readPhotoMetadata(bytes.subarray(0, PHOTO_HEAD_BYTES), p.file);
+    expect(head).toEqual(whole);
+    expect(whole.record.altitudeM).toBe(p.altitudeM);
+  }, 60_000);
 });
 
 describe('CSV photo log and photos of the same flight', () => {
