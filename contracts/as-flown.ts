@@ -9,7 +9,7 @@ const nullableM = z.number().nullable();
 export const lineFlownSchema = z.object({
   line: z.number().int().min(1), stations: z.number().int(), photos: z.number().int(), missed: z.number().int(),
   crossTrackMeanM: nullableM, crossTrackMaxAbsM: nullableM, crossTrackRmsM: nullableM,
-  altitudeErrorMeanM: nullableM, altitudeErrorMaxAbsM: nullableM, offTrack: z.boolean(),
+  altitudeErrorMeanM: nullableM, altitudeErrorMaxAbsM: nullableM, offTrack: z.boolean(), outOfOrder: z.number().int(),
 });
 
 export const photoMatchSchema = z.object({

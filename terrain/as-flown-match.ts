@@ -76,6 +76,8 @@ export interface LineFlown {
   altitudeErrorMaxAbsM: number | null;
   /** Some photo lies further across than the off-track limit. */
   offTrack: boolean;
+  /** Matched photos whose capture time runs against the flying order (a camera clock or a log out of order). */
+  outOfOrder: number;
 }
 
 /** The whole matching. */
@@ -201,12 +203,17 @@ export function matchPhotos(plan: PlanResult, frame: LocalFrame, photos: readonl
     const pairs = alignLine(list.map((p) => p.a), st.map((s) => s.distanceM), gateM);
     const got = new Uint8Array(st.length);
     const cs: number[] = [], alts: number[] = [];
+    let outOfOrder = 0, lastT = -Infinity;
     for (const [pi, si] of pairs) {
       const p = list[pi];
       taken[p.photo] = 1; got[si] = 1;
       const altErr = altitudeDatumM[p.photo] - plannedAltitudeAtM(g.line, p.a);
       matched.push({ photo: p.photo, file: photos[p.photo].file, line: li + 1, station: si + 1, alongErrorM: round(p.a - st[si].distanceM, 3), crossTrackM: round(p.c, 3), altitudeErrorM: round(altErr, 3) });
       cs.push(p.c); alts.push(altErr);
+      // pairs run in station order, i.e. in the flying direction: capture times should rise along them
+      const t = Date.parse(photos[p.photo].time);
+      if (t < lastT) outOfOrder++;
+      if (Number.isFinite(t)) lastT = Math.max(lastT, t);
     }
     st.forEach((s, si) => { if (!got[si]) missed.push({ line: li + 1, station: si + 1, lon: s.lon, lat: s.lat, distanceM: s.distanceM }); });
     const mean = (v: number[]) => (v.length ? v.reduce((t, u) => t + u, 0) / v.length : null);
@@ -218,6 +225,7 @@ export function matchPhotos(plan: PlanResult, frame: LocalFrame, photos: readonl
       crossTrackRmsM: cs.length ? round(Math.sqrt(mean(cs.map((c) => c * c))!), 3) : null,
       altitudeErrorMeanM: alts.length ? round(mean(alts)!, 3) : null, altitudeErrorMaxAbsM: alts.length ? round(maxAbs(alts)!, 3) : null,
       offTrack: cMax !== null && cMax > offTrackM,
+      outOfOrder,
     });
   });
   for (let k = 0; k < P; k++) {

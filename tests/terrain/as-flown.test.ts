@@ -66,6 +66,23 @@ describe('as-flown matching of photos to planned stations', () => {
     expect(a.matched.map((q) => q.altitudeErrorM)).toEqual(flight().asFlown.match.matched.map((q) => q.altitudeErrorM));
   });
 
+  it('takes one photo per station: a second trigger at a station is an extra photo, and a clock out of order is counted', () => {
+    // ground truth: the duplicate and the swapped times made here
+    const { sim, asFlown } = flight();
+    const k = 20;
+    const dup = { ...sim.photos[k], file: 'IMG_DUP.JPG', lon: sim.photos[k].lon + 1e-6 };
+    const swapped = sim.photos.map((p, i) => (i === 40 ? { ...p, time: sim.photos[41].time } : i === 41 ? { ...p, time: sim.photos[40].time } : p));
+    const m = matchPhotos(sim.plan, asFlown.frame, [...swapped, dup], sim.mission.camera);
+    expect(m.missed).toEqual(asFlown.match.missed);
+    const extra = m.extra.find((e) => e.reason === 'no-station-near')!;
+    expect([sim.photos[k].file, 'IMG_DUP.JPG']).toContain(extra.file);
+    expect(m.extra).toHaveLength(3);
+    const line40 = asFlown.match.matched.find((q) => q.photo === 40)!.line;
+    expect(asFlown.match.matched.find((q) => q.photo === 41)!.line).toBe(line40);
+    expect(m.lines.map((l) => l.outOfOrder)).toEqual(m.lines.map((l) => (l.line === line40 ? 1 : 0)));
+    expect(asFlown.match.lines.every((l) => l.outOfOrder === 0)).toBe(true);
+  });
+
   it('reads the planned altitude along a line from its legs', () => {
     // reference: the plan's own station altitudes (sampled from the same legs by analysePlan)
     const { sim } = flight();
