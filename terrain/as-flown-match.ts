@@ -183,17 +183,19 @@ export function matchPhotos(plan: PlanResult, frame: LocalFrame, photos: readonl
     [x[k], y[k]] = frame.toLocal(p.lon, p.lat);
     altitudeDatumM[k] = altitudeInGridDatumM(p, plan.takeoff.groundM);
     let best: { line: number; a: number; c: number } | null = null;
-    geoms.forEach((g, li) => {
+    for (let li = 0; li < geoms.length; li++) {
+      const g = geoms[li];
       const dx = x[k] - g.sx, dy = y[k] - g.sy;
       const a = dx * g.ux + dy * g.uy;
       const c = dx * g.uy - dy * g.ux; // to the right of the flying direction
-      if (a < -gateM || a > g.lengthM + gateM) return;
+      if (a < -gateM || a > g.lengthM + gateM) continue;
       if (!best || Math.abs(c) < Math.abs(best.c)) best = { line: li, a, c };
-    });
+    }
     nearest.push(best);
-    const b = best as { line: number; a: number; c: number } | null;
-    if (b && Math.abs(b.c) <= lineReachM) { onLine[b.line].push({ photo: k, a: b.a, c: b.c }); lineOfPhoto[k] = b.line; }
-    else if (b) lineOfPhoto[k] = b.line;
+    if (best) {
+      lineOfPhoto[k] = best.line;
+      if (Math.abs(best.c) <= lineReachM) onLine[best.line].push({ photo: k, a: best.a, c: best.c });
+    }
   }
   const matched: MatchedPhoto[] = [], missed: MissedTrigger[] = [], extra: ExtraPhoto[] = [], lines: LineFlown[] = [];
   const taken = new Uint8Array(P);
