@@ -7,39 +7,36 @@ import { generalCautions } from '../../contracts/cautions';
 import { asFlownDocSchema } from '../../contracts/as-flown';
 import { missionSchema } from '../../contracts/mission';
 import { photoLogToCsv } from '../../contracts/photo-log';
-import { openDem } from '../../terrain/dem';
-import { WGS84 } from '../../terrain/crs';
-import { analysePlan, missionBboxWgs84 } from '../../terrain/plan';
-import { resolveMission } from '../../terrain/mission';
-import { coverageFrame } from '../../terrain/coverage-photos';
 import type { PlanResult } from '../../terrain/plan-result';
-import { nodeInflate } from '../../cli/io';
-import { flyPlan, type FlownLog } from '../terrain/as-flown-flight';
+import type { FlownLog } from '../../datasets/simulated-flight';
+import { EXAMPLE_SKIPPED, exampleFlight } from '../../datasets/make-example-photo-log';
 
 const DEM = 'datasets/harrow-fell-dem.tif';
 const MISSION = 'datasets/example-mission.json';
+const LOG = 'datasets/example-photo-log.csv';
 const tmp = mkdtempSync(join(tmpdir(), 'loftline-as-flown-'));
-// six triggers in a row skipped on line 5 of the demo plan, one on line 9
-const SKIP = [10, 11, 12, 13, 14, 15].map((station) => ({ line: 5, station })).concat([{ line: 9, station: 9 }]);
+// the example flight skips six triggers in a row on line 5 of the demo plan and one on line 9
+const SKIP = EXAMPLE_SKIPPED;
 
 let plan: PlanResult;
 let log: FlownLog;
-let logPath: string;
+let csv: string;
 
 beforeAll(async () => {
-  // the demo plan flown in the simulation (tests/terrain/as-flown-flight.ts): drift, crab, attitude, skipped triggers
-  const input = JSON.parse(readFileSync(MISSION, 'utf8'));
-  const dem = await openDem(new Uint8Array(readFileSync(DEM)), { inflate: nodeInflate });
-  const grid = await dem.read({ window: { bbox: missionBboxWgs84(input), crs: WGS84, marginPx: 2 } });
-  plan = analysePlan(grid, input, { verticalDatum: dem.header.verticalDatum });
-  log = flyPlan(plan, coverageFrame(resolveMission(input).area), SKIP);
-  logPath = join(tmp, 'photos.csv');
-  writeFileSync(logPath, photoLogToCsv(log.photos));
+  // the demo plan flown in the simulation (datasets/simulated-flight.ts): drift, crab, attitude, skipped triggers
+  const flight = await exampleFlight();
+  plan = flight.plan;
+  log = flight.log;
+  csv = flight.csv;
 });
 
 describe('terrain as-flown', () => {
+  it('reads the committed example photo log, which is what datasets/make-example-photo-log.ts makes', () => {
+    expect(readFileSync(LOG, 'utf8')).toBe(csv);
+  });
+
   it('prints the matching, the as-flown figures, the failing patches and re-flight missions the plan command takes', async () => {
-    const r = await runTerrainCli(['as-flown', DEM, '--mission', MISSION, '--photos', logPath, '--cell-m', '3']);
+    const r = await runTerrainCli(['as-flown', DEM, '--mission', MISSION, '--photos', LOG, '--cell-m', '3']);
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const doc = asFlownDocSchema.parse(JSON.parse(r.stdout));

@@ -96,7 +96,7 @@ describe('as-flown matching of photos to planned stations', () => {
     const photos = sim.photos.map((p, k) => (k === 10 ? { ...p, focalLengthMm: 10.3, cameraModel: 'Other Cam' } : p));
     const m = matchPhotos(sim.plan, asFlown.frame, photos, sim.mission.camera);
     expect(m.camera.focalMismatch.map((f) => f.photo)).toEqual([10]);
-    expect(m.camera.models).toEqual(['Other Cam', 'Survey Cam S20']);
+    expect(m.camera.models).toEqual(['Other Cam', 'Synthetic Survey Camera']);
     expect(m.camera.messages.join(' ')).toMatch(/1 photo was taken at a focal length other than the plan's 8.8 mm \(10.3 mm\).*2 camera models/);
   });
 });
