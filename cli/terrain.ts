@@ -15,6 +15,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   plan: () => import('./plan'),
   coverage: () => import('./coverage'),
   solve: () => import('./solve'),
+  'as-flown': () => import('./as-flown'),
 };
 
 async function main(argv: string[]): Promise<void> {

@@ -18,6 +18,8 @@ if [ "$mode" = "--test" ]; then
   /usr/bin/python3 -c 'from osgeo_utils.samples import validate_cloud_optimized_geotiff' >/dev/null 2>&1 || apt_pkgs+=(python3-gdal)
   # numpy recomputes the report's percentiles as an outside reference (tests/reports/pdf-text.ts).
   /usr/bin/python3 -c 'import numpy' >/dev/null 2>&1 || apt_pkgs+=(python3-numpy)
+  # exiftool writes the synthetic photos' EXIF/XMP that the photo reader must read back (as-flown tests).
+  command -v exiftool >/dev/null || apt_pkgs+=(libimage-exiftool-perl)
 fi
 if [ "${#apt_pkgs[@]}" -gt 0 ]; then
   echo "loftline: installing Debian packages: ${apt_pkgs[*]}"

@@ -53,3 +53,9 @@ export type { CoverageSpec, CoverageSettings, Compliance, ComplianceItem, Failin
 export { writeFloat32GeoTiff } from './geotiff-write';
 export type { Float32GeoTiff } from './geotiff-write';
 export { coverageGeoTiff, coverageBandNames, COVERAGE_NODATA } from './coverage-raster-file';
+export { matchPhotos, altitudeInGridDatumM, plannedAltitudeAtM } from './as-flown-match';
+export type { FlownPhoto, FlownAltitudeRef, PhotoMatch, MatchedPhoto, MissedTrigger, ExtraPhoto, LineFlown } from './as-flown-match';
+export { analyseAsFlown, flownPoses, cellMeetsSpec, maskPatches } from './as-flown';
+export type { AsFlown, AsFlownSettings, CoverageDifference } from './as-flown';
+export { planReflight, reflightAreas, MIN_REFLIGHT_PATCH_SHARE } from './reflight';
+export type { Reflight, ReflightArea } from './reflight';

@@ -1,0 +1,61 @@
+/** The as-flown document (`terrain as-flown`, and what an import of photos reports): matching, as-flown and planned compliance, the planned-vs-flown difference and the re-flight. */
+import { z } from 'zod';
+import { coverageFailureSchema } from './coverage';
+
+const lonLat = z.object({ lon: z.number(), lat: z.number() });
+const nullableM = z.number().nullable();
+
+/** How one line was flown: photos against stations, drift across the line, altitude error against its legs. */
+export const lineFlownSchema = z.object({
+  line: z.number().int().min(1), stations: z.number().int(), photos: z.number().int(), missed: z.number().int(),
+  crossTrackMeanM: nullableM, crossTrackMaxAbsM: nullableM, crossTrackRmsM: nullableM,
+  altitudeErrorMeanM: nullableM, altitudeErrorMaxAbsM: nullableM, offTrack: z.boolean(), outOfOrder: z.number().int(),
+});
+
+export const photoMatchSchema = z.object({
+  limits: z.object({ gateM: z.number(), lineReachM: z.number(), offTrackM: z.number(), focalToleranceMm: z.number() }),
+  matched: z.number().int(),
+  missed: z.array(z.object({ line: z.number().int(), station: z.number().int(), lon: z.number(), lat: z.number(), distanceM: z.number() })),
+  extra: z.array(z.object({ photo: z.number().int(), file: z.string(), reason: z.enum(['off-lines', 'no-station-near']), nearestLine: z.number().int().nullable(), crossTrackM: nullableM })),
+  lines: z.array(lineFlownSchema),
+  camera: z.object({
+    plannedFocalLengthMm: z.number(), focalLengthsMm: z.array(z.number()), models: z.array(z.string()),
+    focalMismatch: z.array(z.object({ photo: z.number().int(), file: z.string(), focalLengthMm: z.number() })), messages: z.array(z.string()),
+  }),
+  photos: z.array(z.object({
+    photo: z.number().int(), file: z.string(), line: z.number().int(), station: z.number().int(),
+    alongErrorM: z.number(), crossTrackM: z.number(), altitudeErrorM: z.number(),
+  })),
+});
+
+const complianceSchema = z.object({
+  cellsInArea: z.number().int(), areaM2: z.number(), shareAll: z.number().min(0).max(1),
+  items: z.array(z.object({ item: coverageFailureSchema, asks: z.string(), share: z.number().min(0).max(1), failingAreaM2: z.number() })),
+});
+
+export const asFlownDocSchema = z.object({
+  heights: z.object({ reference: z.string(), conversions: z.string() }),
+  photos: z.object({ count: z.number().int(), attitudeAssumed: z.array(z.string()), attitudeNote: z.string().nullable(), leftOutFarAway: z.array(z.string()) }),
+  matching: photoMatchSchema,
+  planned: complianceSchema,
+  flown: complianceSchema,
+  patchCount: z.number().int(),
+  patches: z.array(z.object({ reason: coverageFailureSchema, message: z.string(), cells: z.number().int(), areaM2: z.number(), centroid: lonLat, worst: z.number().nullable() })),
+  difference: z.object({
+    lostCells: z.number().int(), lostAreaM2: z.number(), gainedCells: z.number().int(), gainedAreaM2: z.number(), failingAsPlannedCells: z.number().int(), note: z.string(),
+    patches: z.array(z.object({ cells: z.number().int(), areaM2: z.number(), centroid: lonLat })),
+  }),
+  reflight: z.object({
+    covers: z.string(), targetCells: z.number().int(), coveredCells: z.number().int(), shareAllAfter: z.number().min(0).max(1),
+    lineCount: z.number().int(), photoCount: z.number().int(), lineLengthM: z.number(), flightTimeS: z.number(),
+    extraLinesEachSide: z.array(z.number().int()), smallPatchCells: z.number().int(), smallPatches: z.string(),
+    areas: z.array(z.object({ patches: z.number().int(), cells: z.number().int(), areaM2: z.number(), alongM: z.number(), acrossM: z.number(), polygon: z.object({ type: z.literal('Polygon'), coordinates: z.array(z.array(z.array(z.number()))) }) })),
+    missions: z.array(z.record(z.string(), z.unknown())),
+    lines: z.array(z.array(z.object({
+      start: lonLat, end: lonLat, lengthM: z.number(), headingDeg: z.number(), photos: z.number().int(),
+      legs: z.array(z.object({ startDistanceM: z.number(), endDistanceM: z.number(), altitudeStartAboveTakeoffM: z.number(), altitudeEndAboveTakeoffM: z.number(), altitudeStartM: z.number(), altitudeEndM: z.number() })),
+    }))),
+  }).nullable(),
+  cautions: z.array(z.string()),
+});
+export type AsFlownDoc = z.infer<typeof asFlownDocSchema>;
