@@ -1,6 +1,7 @@
 /** The as-flown document (`terrain as-flown`, and what an import of photos reports): matching, as-flown and planned compliance, the planned-vs-flown difference and the re-flight. */
 import { z } from 'zod';
 import { coverageFailureSchema } from './coverage';
+import { photoLogSchema } from './photo-log';
 
 const lonLat = z.object({ lon: z.number(), lat: z.number() });
 const nullableM = z.number().nullable();
@@ -37,6 +38,10 @@ export const asFlownDocSchema = z.object({
   heights: z.object({ reference: z.string(), conversions: z.string() }),
   photos: z.object({ count: z.number().int(), attitudeAssumed: z.array(z.string()), attitudeNote: z.string().nullable(), leftOutFarAway: z.array(z.string()) }),
   matching: photoMatchSchema,
+  spec: z.object({
+    maxGsdCm: z.number(), minViews: z.number().int(), maxSigmaVerticalM: z.number().nullable(), maxSigmaHorizontalM: z.number().nullable(), basis: z.string(),
+  }),
+  raster: z.object({ width: z.number().int(), height: z.number().int(), cellM: z.number(), cellAreaM2: z.number(), crs: z.object({ epsg: z.number().int().nullable(), name: z.string() }) }),
   planned: complianceSchema,
   flown: complianceSchema,
   patchCount: z.number().int(),
@@ -56,6 +61,40 @@ export const asFlownDocSchema = z.object({
       legs: z.array(z.object({ startDistanceM: z.number(), endDistanceM: z.number(), altitudeStartAboveTakeoffM: z.number(), altitudeEndAboveTakeoffM: z.number(), altitudeStartM: z.number(), altitudeEndM: z.number() })),
     }))),
   }).nullable(),
+  timingMs: z.object({ plan: z.number(), asFlown: z.number(), reflight: z.number() }),
   cautions: z.array(z.string()),
 });
 export type AsFlownDoc = z.infer<typeof asFlownDocSchema>;
+
+/** Where a check's photo log came from: the photos' EXIF/XMP read on the device, or a CSV photo log. */
+export const asFlownSources = ['photos', 'csv'] as const;
+
+/** POST …/flights/:versionId/as-flown-checks: only the photos' metadata travels, never the photos. */
+export const newAsFlownCheckSchema = z.object({
+  source: z.enum(asFlownSources, { error: 'source must be "photos" or "csv".' }),
+  label: z.string().trim().min(1, { error: 'label must say where the photos came from (a file or folder name).' }).max(200, { error: 'label must be at most 200 characters.' }),
+  photos: photoLogSchema,
+});
+export type NewAsFlownCheck = z.infer<typeof newAsFlownCheckSchema>;
+
+/** A check in lists: who ran it, when, on how many photos, and its headline figures. */
+export const asFlownCheckSummarySchema = z.object({
+  id: z.uuid(),
+  versionId: z.uuid(),
+  source: z.enum(asFlownSources),
+  label: z.string(),
+  photoCount: z.number().int(),
+  createdAt: z.string(),
+  createdBy: z.object({ id: z.string(), name: z.string() }).nullable(),
+  /** Share of the area meeting the whole spec as flown, and as planned on the same cells. */
+  shareAllFlown: z.number().min(0).max(1),
+  shareAllPlanned: z.number().min(0).max(1),
+  missedTriggers: z.number().int(),
+  lostAreaM2: z.number(),
+});
+export type AsFlownCheckSummary = z.infer<typeof asFlownCheckSummarySchema>;
+
+export const asFlownCheckSchema = asFlownCheckSummarySchema.extend({ document: asFlownDocSchema });
+export type AsFlownCheck = z.infer<typeof asFlownCheckSchema>;
+
+export const asFlownCheckListSchema = z.object({ checks: z.array(asFlownCheckSummarySchema) });

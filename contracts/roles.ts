@@ -25,6 +25,8 @@ export const permissionTable = {
   'flight:read': ['owner', 'planner', 'surveyor', 'pilot'],
   /** Photos as flown, sent by the link from the aircraft (the crew flying it). */
   'flight:record': ['owner', 'pilot'],
+  /** Checking photos as flown against the plan (a photo log from the device or a CSV); pilots on signed-off versions only. */
+  'flight:check': ['owner', 'planner', 'pilot'],
   'outbox:read': ['owner'],
 } as const satisfies Record<string, readonly Role[]>;
 

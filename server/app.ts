@@ -17,6 +17,7 @@ import { securityHeaders } from './http/security-headers';
 import { refuseNulInBody, refuseNulInPath } from './http/text-guard';
 import type { RouteGroup } from './routes';
 import type { Services } from './services';
+import { asFlownChecksPath, PHOTO_LOG_JSON_LIMIT } from './http/body-limits';
 import { createTeamsRepository } from './teams/teams.repository';
 import { registerTeamRoutes } from './teams/teams.routes';
 
@@ -75,7 +76,10 @@ export function createApp(deps: AppDeps) {
   api.use(requireSameOrigin(trustedOriginsOf(config.publicUrl))); // first: a cross-site request is refused unread
   api.use(refuseNulInPath);
   api.use(requireJsonBody);
-  api.use(express.json({ limit: config.jsonLimit }));
+  // Photo logs (metadata of thousands of photos, never the photos) get a larger body limit than other requests.
+  const json = express.json({ limit: config.jsonLimit });
+  const photoLogJson = express.json({ limit: PHOTO_LOG_JSON_LIMIT });
+  api.use((req, res, next) => (req.method === 'POST' && asFlownChecksPath.test(req.path) ? photoLogJson : json)(req, res, next));
   api.use(refuseNulInBody);
   registerHealthRoutes(api, { guards, db });
   registerTeamRoutes(api, { guards, teams: createTeamsRepository({ db }) });

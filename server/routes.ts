@@ -8,6 +8,7 @@ import { planRouteGroup } from './plans/plans.routes';
 import { registerExportRoutes } from './exports/exports.routes';
 import { registerFlightRoutes } from './flights/flights.routes';
 import { registerMissionItemRoutes } from './mission-items/mission-items.routes';
+import { registerAsFlownRoutes } from './as-flown/as-flown.routes';
 import { registerCoverageRoutes } from './coverage/coverage.routes';
 import { registerInvitationRoutes } from './invitations/invitations.routes';
 import { registerOutboxRoutes } from './mail/outbox.routes';
@@ -28,5 +29,6 @@ export const routeGroups: RouteGroup[] = [
   registerFlightRoutes,
   registerExportRoutes,
   registerMissionItemRoutes,
+  registerAsFlownRoutes,
   registerCoverageRoutes,
 ];

@@ -11,6 +11,7 @@ import { FlightCautions } from '../safety/flight-cautions';
 import { RequirePermission } from '../team/require-permission';
 import { space } from '../theme';
 import { Badge, Banner, Card, Heading, Loading, Screen, Text, TextLink } from '../ui';
+import { AsFlownCard } from '../as-flown/as-flown-card';
 import { BatteryPlanCard } from './battery-plan-card';
 import { ExportLinks } from './export-links';
 import { formatLatLon } from './leg-format';
@@ -91,6 +92,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
         ))}
       </View>
       <MissionItemsCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
+      <AsFlownCard versionId={sheet.version.id} offline={offline} />
       {teamId ? <ExportLinks teamId={teamId} planId={sheet.version.planId} versionId={sheet.version.id} offline={offline} /> : null}
       <Text variant="label" tone="muted">
         Sheet generated {formatDayTime(sheet.generatedAt)}. Heights in {u === 'imperial' ? 'feet' : 'metres'}.

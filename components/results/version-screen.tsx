@@ -15,6 +15,7 @@ import { useCurrentTeam } from '../team/current-team-context';
 import { Badge, Banner, Card, Loading, Screen, Text, TextLink } from '../ui';
 import { ReviewPanel } from '../reviews/review-panel';
 import { ResultsView } from './results-view';
+import { AsFlownCard } from '../as-flown/as-flown-card';
 
 type MissionSnapshot = { area?: { coordinates: number[][][] }; clearanceM?: number; obstacleAllowanceM?: number };
 
@@ -81,6 +82,7 @@ export function VersionScreen() {
           />
         ) : null}
         {v?.analysisState === 'done' && !v.result ? <Banner tone="danger" message="This version is marked done but carries no result." /> : null}
+        {v?.analysisState === 'done' && v.result ? <AsFlownCard versionId={String(versionId)} offline={false} /> : null}
         {st ? <ReviewPanel projectId={projectId} planId={planId} versionId={versionId} analysisDone={st.analysisState === 'done'} /> : null}
       </RequirePermission>
     </Screen>

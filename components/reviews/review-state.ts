@@ -34,6 +34,7 @@ const actionTitles: Record<string, string> = {
   'version.created': 'Version created',
   'analysis.done': 'Analysis finished',
   'analysis.failed': 'Analysis failed',
+  'as-flown.checked': 'Photos checked as flown',
 };
 
 /** A title for an audit action; actions written by other domains fall back to their own name in words. */

@@ -5,6 +5,9 @@ export type FilePickerProps = {
   label: string;
   accept: string;
   onPick: (file: File) => void;
+  /** With `multiple`, every chosen file at once (a folder's photos); `onPick` then is not called. */
+  multiple?: boolean;
+  onPickMany?: (files: File[]) => void;
   disabled?: boolean;
   variant?: ButtonVariant;
   size?: 'regular' | 'compact';

@@ -7,6 +7,9 @@ export type FilePickerProps = {
   /** The input's accept list, e.g. ".tif,.tiff,image/tiff". */
   accept: string;
   onPick: (file: File) => void;
+  /** With `multiple`, every chosen file at once (a folder's photos); `onPick` then is not called. */
+  multiple?: boolean;
+  onPickMany?: (files: File[]) => void;
   disabled?: boolean;
   variant?: ButtonVariant;
   size?: 'regular' | 'compact';
@@ -15,7 +18,7 @@ export type FilePickerProps = {
 };
 
 /** The input is reset after each pick, so choosing the same file again still reports it. */
-export function FilePicker({ label, accept, onPick, disabled, variant = 'secondary', size, testID }: FilePickerProps) {
+export function FilePicker({ label, accept, onPick, multiple, onPickMany, disabled, variant = 'secondary', size, testID }: FilePickerProps) {
   const input = useRef<HTMLInputElement | null>(null);
   return (
     <>
@@ -24,14 +27,17 @@ export function FilePicker({ label, accept, onPick, disabled, variant = 'seconda
         ref={input}
         type="file"
         accept={accept}
+        multiple={multiple}
         hidden
         aria-hidden
         tabIndex={-1}
         data-testid={testID ? `${testID}-input` : undefined}
         onChange={(e) => {
-          const file = e.currentTarget.files?.[0];
+          const files = Array.from(e.currentTarget.files ?? []);
           e.currentTarget.value = '';
-          if (file) onPick(file);
+          if (multiple && onPickMany) {
+            if (files.length) onPickMany(files);
+          } else if (files[0]) onPick(files[0]);
         }}
       />
     </>

@@ -1,5 +1,5 @@
-/** What the aircraft reported while flying a signed-off version: one row per photo (MAVLink CAMERA_FEEDBACK). */
-import { doublePrecision, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+/** What was flown on a version: the photos the aircraft reported (MAVLink CAMERA_FEEDBACK) and as-flown checks of photo logs. */
+import { doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { organization, user } from './auth';
 import { planVersion } from './projects';
 
@@ -32,4 +32,32 @@ export const flightTrigger = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('flight_trigger_photo_uq').on(t.planVersionId, t.sortie, t.imageIndex), index('flight_trigger_team_idx').on(t.teamId, t.planVersionId)],
+);
+
+/**
+ * An as-flown check: a photo log (read from the photos on the device, or a CSV log) checked against the version's
+ * plan. The document holds the matching, the coverage as flown next to the plan's and the re-flight; the photos'
+ * metadata is kept so the check can be explained (or run again) later. Never changed once written.
+ */
+export const asFlownCheck = pgTable(
+  'as_flown_check',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    teamId: text('team_id')
+      .notNull()
+      .references(() => organization.id, { onDelete: 'cascade' }),
+    planVersionId: uuid('plan_version_id')
+      .notNull()
+      .references(() => planVersion.id, { onDelete: 'cascade' }),
+    /** `photos` (EXIF/XMP read on the device) or `csv` (a photo log file). */
+    source: text('source').notNull(),
+    /** The CSV's file name, or a description of the photos picked ("894 photos from DCIM/100"). */
+    label: text('label').notNull(),
+    photoCount: integer('photo_count').notNull(),
+    photos: jsonb('photos').notNull(),
+    document: jsonb('document').notNull(),
+    createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('as_flown_check_version_idx').on(t.teamId, t.planVersionId, t.createdAt)],
 );

@@ -8,11 +8,14 @@
 import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, inspectDem, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import { analyseMission, checkAsFlown, inspectDem, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import type { AsFlownCheckDocument } from '../../terrain/as-flown-document';
+import type { FlownPhoto } from '../../terrain/as-flown-match';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
-  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions };
+  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions }
+  | { id: number; kind: 'as-flown'; bytes: Uint8Array; mission: unknown; photos: readonly FlownPhoto[]; opts?: AnalyseMissionOptions };
 
 export type ThreadReply =
   | { id: number; progress: number }
@@ -38,6 +41,8 @@ export class TerrainTimeoutError extends Error {
 export interface TerrainRunner {
   inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
   analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
+  /** A photo log checked against the plan of `mission` (terrain/as-flown-document.ts). */
+  asFlown(bytes: Uint8Array, mission: unknown, photos: readonly FlownPhoto[], opts?: AnalyseMissionOptions): Promise<AsFlownCheckDocument>;
   close(): Promise<void>;
 }
 
@@ -77,6 +82,7 @@ export function createInlineTerrainRunner(): TerrainRunner {
   return {
     inspect: (bytes, opts) => inspectDem(bytes, opts),
     analyse: (bytes, mission, onProgress, o) => analyseMission(bytes, mission, onProgress, o),
+    asFlown: (bytes, mission, photos, o) => checkAsFlown(bytes, mission, photos, o),
     close: async () => {},
   };
 }
@@ -157,6 +163,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   return {
     inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
     analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
+    asFlown: (bytes, mission, photos, o) => run<AsFlownCheckDocument>({ kind: 'as-flown', bytes, mission, photos, opts: o }),
     async close() {
       closed = true;
       for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));

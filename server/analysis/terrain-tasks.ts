@@ -11,6 +11,8 @@ import { coverageCog } from '../../terrain/coverage-raster-file';
 import { coverageLayers } from '../../terrain/coverage-layer';
 import type { CoverageMeasure } from '../../terrain/coverage-measures';
 import type { StoredCoverage } from '../../contracts/coverage';
+import { runAsFlownCheck, type AsFlownCheckDocument } from '../../terrain/as-flown-document';
+import type { FlownPhoto } from '../../terrain/as-flown-match';
 
 /** Largest analysis window (2^28 pixels = 1 GiB of float32); whole uploads are bounded by DEM_MAX_PIXELS. */
 export const MAX_DEM_PIXELS = 2 ** 28;
@@ -140,4 +142,15 @@ export async function analyseMission(bytes: Uint8Array, mission: unknown, onProg
     onProgress(95);
     return { result, coverage: { state: 'refused', reason: err.message }, files: null };
   }
+}
+
+/**
+ * Check a photo log against the plan of `mission` over the window of the DEM the mission needs (the same window the
+ * analysis reads, so the plan the photos are matched to is the version's): matching, as-flown coverage, re-flight.
+ */
+export async function checkAsFlown(bytes: Uint8Array, mission: unknown, photos: readonly FlownPhoto[], opts: AnalyseMissionOptions = {}): Promise<AsFlownCheckDocument> {
+  const bbox = missionBboxWgs84(mission);
+  const header = await readDemHeader(bytes);
+  const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
+  return runAsFlownCheck(grid, mission as Record<string, unknown>, photos, { verticalDatum: analysisDatum(opts.siteVerticalDatum, header.verticalDatum) });
 }

@@ -1,6 +1,6 @@
 /** Entry of a terrain thread: runs the tasks of terrain-tasks.ts on messages from terrain-pool.ts. */
 import { parentPort } from 'node:worker_threads';
-import { analyseMission, analysisTransfer, inspectDem } from './terrain-tasks';
+import { analyseMission, analysisTransfer, checkAsFlown, inspectDem } from './terrain-tasks';
 import type { ThreadReply, ThreadTask } from './terrain-pool';
 
 const port = parentPort;
@@ -12,6 +12,8 @@ port.on('message', async (task: ThreadTask) => {
     if (task.kind === 'inspect') {
       const r = await inspectDem(task.bytes, task.opts);
       reply({ id: task.id, ok: true, value: r }, [r.hillshade.png.buffer as ArrayBuffer]);
+    } else if (task.kind === 'as-flown') {
+      reply({ id: task.id, ok: true, value: await checkAsFlown(task.bytes, task.mission, task.photos, task.opts) });
     } else {
       const r = await analyseMission(task.bytes, task.mission, (pct) => reply({ id: task.id, progress: pct }), task.opts);
       reply({ id: task.id, ok: true, value: r }, analysisTransfer(r));

@@ -26,9 +26,12 @@ describe('role rules', () => {
     for (const p of ['project:write', 'site:write', 'plan:write', 'plan:run'] as const) expect(can('surveyor', p)).toBe(false);
   });
 
-  it('gives pilots only signed-off flights, the photos they record flying them, and the team name', () => {
+  it('gives pilots only signed-off flights, the photos they record or check flying them, and the team name', () => {
     const pilotCan = permissions.filter((p) => can('pilot', p));
-    expect(pilotCan.sort()).toEqual(['flight:read', 'flight:record', 'team:read']);
+    expect(pilotCan.sort()).toEqual(['flight:check', 'flight:read', 'flight:record', 'team:read']);
+    // surveyors read checks of photos as flown but do not run them (common practice: the crew that flew checks)
+    expect(can('surveyor', 'flight:check')).toBe(false);
+    expect(can('planner', 'flight:check')).toBe(true);
   });
 
   it('refuses a missing role', () => {

@@ -4,43 +4,20 @@
  * log of the same flight.
  */
 import { execFileSync } from 'node:child_process';
-import { copyFileSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { simulateFlight, type SimulatedFlight } from './as-flown-flight';
+import { BLANK_JPEG as BLANK, exiftoolArgs, writePhotoJpegs } from '../support/photo-jpegs';
 import { readPhotoMetadata, PhotoMetadataError, PHOTO_HEAD_BYTES, type PhotoReading } from '../../components/photos/read-photo-metadata';
 import { parsePhotoLogCsv, photoLogToCsv, type PhotoRecord } from '../../contracts/photo-log';
 import { analyseAsFlown } from '../../terrain/as-flown';
 import { resolveCoverageInput } from '../../terrain/coverage-spec';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 
-const BLANK = new URL('../fixtures/photos/blank-16x12.jpg', import.meta.url);
 const SKIP = [7, 8, 9, 10, 11, 12].map((station) => ({ line: 2, station })).concat([{ line: 4, station: 6 }]);
 const dir = mkdtempSync(join(tmpdir(), 'loftline-photos-'));
-
-/** "2026-05-14T09:31:07Z" as an EXIF date "2026:05:14 09:31:07" (EXIF 2.32 DateTimeOriginal format). */
-const exifDate = (iso: string) => iso.slice(0, 19).replace(/-/g, ':').replace('T', ' ');
-
-/**
- * exiftool arguments writing one photo record: EXIF GPS position, altitude and image direction, capture time
- * with its offset, focal length and model, and the camera attitude as XMP GPano pose (pitch as the image
- * centre's elevation above the horizon: −90 is straight down).
- */
-function exiftoolArgs(p: FlownPhoto, path: string): string[] {
-  const a = [
-    '-overwrite_original', '-n',
-    `-EXIF:GPSLatitude=${Math.abs(p.lat)}`, `-EXIF:GPSLatitudeRef=${p.lat >= 0 ? 'N' : 'S'}`,
-    `-EXIF:GPSLongitude=${Math.abs(p.lon)}`, `-EXIF:GPSLongitudeRef=${p.lon >= 0 ? 'E' : 'W'}`,
-    `-EXIF:GPSAltitude=${Math.abs(p.altitudeM)}`, `-EXIF:GPSAltitudeRef=${p.altitudeM >= 0 ? 0 : 1}`,
-    `-EXIF:DateTimeOriginal=${exifDate(p.time)}`, '-EXIF:OffsetTimeOriginal=+00:00',
-    `-EXIF:FocalLength=${p.focalLengthMm}`, `-EXIF:Model=${p.cameraModel}`,
-  ];
-  if (p.yawDeg !== null) a.push(`-EXIF:GPSImgDirection=${p.yawDeg}`, '-EXIF:GPSImgDirectionRef=T', `-XMP-GPano:PoseHeadingDegrees=${p.yawDeg}`);
-  if (p.pitchDeg !== null) a.push(`-XMP-GPano:PosePitchDegrees=${p.pitchDeg - 90}`);
-  if (p.rollDeg !== null) a.push(`-XMP-GPano:PoseRollDegrees=${p.rollDeg}`);
-  return [...a, path, '-execute'];
-}
 
 let sim: SimulatedFlight;
 let readings: PhotoReading[];
@@ -49,15 +26,7 @@ let exiftoolRead: Array<Record<string, unknown>>;
 
 beforeAll(async () => {
   sim = simulateFlight(SKIP);
-  const args: string[] = [];
-  for (const p of sim.photos) {
-    const path = join(dir, p.file);
-    copyFileSync(BLANK, path);
-    args.push(...exiftoolArgs(p, path));
-  }
-  writeFileSync(join(dir, 'args.txt'), `${args.join('\n')}\n`);
-  // one exiftool process writes every photo (-@ argument file, one -execute per photo)
-  execFileSync('exiftool', ['-q', '-@', join(dir, 'args.txt')]);
+  writePhotoJpegs(sim.photos, dir);
   exiftoolRead = JSON.parse(execFileSync('exiftool', ['-json', '-n', '-G1', ...sim.photos.map((p) => join(dir, p.file))], { encoding: 'utf8', maxBuffer: 32 << 20 }));
   readings = [];
   for (const p of sim.photos) readings.push(await readPhotoMetadata(new Uint8Array(readFileSync(join(dir, p.file))), p.file));
