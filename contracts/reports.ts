@@ -57,6 +57,28 @@ export const reportCoverageSchema = z.object({
 });
 export type ReportCoverage = z.infer<typeof reportCoverageSchema>;
 
+/** The latest check of the photos as flown (when one was made): the spec as flown next to as planned. */
+export const reportAsFlownSchema = z.object({
+  checkedAt: z.string(),
+  checkedBy: z.string().nullable(),
+  label: z.string(),
+  photoCount: z.number().int(),
+  /** Checks made of this version in all (the report shows the latest). */
+  checkCount: z.number().int(),
+  shareAllFlown: num,
+  shareAllPlanned: num,
+  items: z.array(z.object({ item: z.string(), title: z.string(), flown: num, planned: num })),
+  matched: z.number().int(),
+  missedTriggers: z.number().int(),
+  missedRuns: z.array(z.string()),
+  extraPhotos: z.number().int(),
+  offTrack: z.array(z.string()),
+  lostAreaM2: num,
+  reflight: z.string(),
+  heights: z.string(),
+});
+export type ReportAsFlown = z.infer<typeof reportAsFlownSchema>;
+
 export const complianceReportSchema = z.object({
   version: z.object({
     id: z.string(),
@@ -85,6 +107,8 @@ export const complianceReportSchema = z.object({
   checks: z.array(specCheckSchema),
   /** The spec checked in every ground cell (the coverage run), or why it was not. */
   coverage: reportCoverageSchema,
+  /** The latest check of the photos as flown, or null before any. */
+  asFlown: reportAsFlownSchema.nullable(),
   lines: z.array(reportLineSchema),
   dem: z.object({
     siteName: z.string(),

@@ -7,19 +7,21 @@ import { StyleSheet, View } from 'react-native';
 import type { AsFlownCheck } from '../../contracts/as-flown';
 import { areaWords, itemTitle, shareWords } from '../../contracts/coverage-words';
 import { PHOTO_LOG_COLUMNS } from '../../contracts/photo-log';
-import { formatDayTime } from '../projects/format-date';
+import { formatDay, formatDayTime } from '../projects/format-date';
 import { formatDuration } from '../projects/units';
 import { BulletList } from '../reports/bullet-list';
 import { FigureGrid } from '../reports/figure-grid';
 import { FilePicker } from '../sites/file-picker';
 import { space } from '../theme';
-import { Badge, Banner, Button, Card, Heading, Loading, Text } from '../ui';
-import { missedRuns, offTrackLines } from './as-flown-words';
+import { Badge, Banner, Button, Card, Heading, Loading, Text, TextLink } from '../ui';
+import { missedRuns, offTrackLines } from '../../contracts/as-flown-words';
 import { useAsFlownCheck, type AsFlownCardState } from './use-as-flown-check';
+import { useReflightPlans, type ReflightOrigin } from './use-reflight-plans';
 
 /** testIDs as-flown, as-flown-photos(-input), as-flown-csv(-input), as-flown-progress, as-flown-result, as-flown-check-N. */
-export function AsFlownCard(p: { versionId: string; offline: boolean }) {
+export function AsFlownCard(p: { versionId: string; offline: boolean; origin?: ReflightOrigin }) {
   const s = useAsFlownCheck(p.versionId, { offline: p.offline });
+  const reflight = useReflightPlans(p.origin);
   const busy = s.phase.kind === 'reading' || s.phase.kind === 'sending';
   return (
     <Card testID="as-flown">
@@ -49,7 +51,7 @@ export function AsFlownCard(p: { versionId: string; offline: boolean }) {
       {s.listError ? <Banner tone="danger" title="Could not load the checks" message={s.listError} /> : null}
       {s.checks && s.checks.length === 0 && !busy ? <Text testID="as-flown-none">No photos checked for this version yet.</Text> : null}
       {s.shownLoading ? <Loading label="Loading the check…" /> : null}
-      {s.shown ? <CheckResult check={s.shown} /> : null}
+      {s.shown ? <CheckResult check={s.shown} reflight={reflight} /> : null}
       {s.checks && s.checks.length > 1 ? (
         <View style={styles.history}>
           <Heading level={3}>Earlier checks</Heading>
@@ -77,7 +79,7 @@ function Progress({ state: s }: { state: AsFlownCardState }) {
   return null;
 }
 
-function CheckResult({ check }: { check: AsFlownCheck }) {
+function CheckResult({ check, reflight }: { check: AsFlownCheck; reflight: ReturnType<typeof useReflightPlans> }) {
   const d = check.document;
   const runs = missedRuns(d.matching.missed);
   const off = offTrackLines(d.matching.lines);
@@ -146,7 +148,12 @@ function CheckResult({ check }: { check: AsFlownCheck }) {
                 ]}
               />
             ) : null}
-            {rf.smallPatchCells > 0 ? <Text tone="muted">{rf.smallPatches}</Text> : null}
+            {reflight.mayMake && rf.missions.length > 0 ? <ReflightAction check={check} reflight={reflight} /> : null}
+            {rf.smallPatchCells > 0 ? (
+              <Text tone="muted">
+                {rf.smallPatchCells} lost cells lie in patches too small to be worth a re-flight (under a quarter of one photo&apos;s ground) and are left out.
+              </Text>
+            ) : null}
           </>
         )}
       </View>
@@ -154,6 +161,29 @@ function CheckResult({ check }: { check: AsFlownCheck }) {
       <Banner tone="caution" title="Before any re-flight">
         <BulletList items={d.cautions} tone="caution" />
       </Banner>
+    </View>
+  );
+}
+
+function ReflightAction({ check, reflight }: { check: AsFlownCheck; reflight: ReturnType<typeof useReflightPlans> }) {
+  const st = reflight.state;
+  const n = check.document.reflight?.missions.length ?? 0;
+  return (
+    <View style={styles.block} testID="as-flown-reflight-plans">
+      {st.kind === 'saved' ? (
+        <>
+          <Text>Saved as {st.plans.length} new plan{st.plans.length === 1 ? '' : 's'} of this project. Run each, send it for review, and fly it once signed off:</Text>
+          {st.plans.map((pl) => <TextLink key={pl.id} href={pl.href} label={pl.name} />)}
+        </>
+      ) : (
+        <Button
+          label={st.kind === 'saving' ? `Saving re-flight plan ${st.done + 1} of ${st.total}…` : `Save the re-flight as ${n} new plan${n === 1 ? '' : 's'}`}
+          disabled={st.kind === 'saving'}
+          onPress={() => reflight.save(check, formatDay(check.createdAt))}
+          testID="as-flown-reflight-save"
+        />
+      )}
+      {st.kind === 'failed' ? <Banner tone="danger" title="The re-flight plans could not all be saved" message={st.message} /> : null}
     </View>
   );
 }

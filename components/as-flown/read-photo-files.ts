@@ -74,5 +74,5 @@ export async function readPhotoFiles(files: readonly File[], onProgress: (done: 
   const photos = out.filter((r): r is PhotoRecord => r !== null);
   if (photos.length === 0) throw new PhotoPickError(`No picked photo could be placed: ${skipped.slice(0, 3).join('; ')}${skipped.length > 3 ? ` (and ${skipped.length - 3} more)` : ''}.`);
   const folder = folderOf(picked);
-  return { source: 'photos', label: `${photos.length} photos${folder ? ` from ${folder}` : ''}`, photos, skipped, assumedCount };
+  return { source: 'photos', label: folder ? `photos from ${folder}` : 'photos picked on the device', photos, skipped, assumedCount };
 }

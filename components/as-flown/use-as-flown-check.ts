@@ -48,7 +48,15 @@ export function useAsFlownCheck(versionId: string, opts: { offline: boolean }): 
     try {
       // the EXIF reader loads only when photos are picked, not with the sheet
       const { readPhotoFiles } = await import('./read-photo-files');
-      const reading = await readPhotoFiles(files, (done, total) => setPhase({ kind: 'reading', done, total }));
+      // the count on screen moves at most ten times a second: a render per photo would slow the reading down
+      let shownAt = 0;
+      const reading = await readPhotoFiles(files, (done, total) => {
+        const now = Date.now();
+        if (done === total || now - shownAt >= 100) {
+          shownAt = now;
+          setPhase({ kind: 'reading', done, total });
+        }
+      });
       const notes = [...reading.skipped];
       if (reading.assumedCount) notes.push(`${reading.assumedCount} photo${reading.assumedCount === 1 ? ' states' : 's state'} no full camera attitude: looking straight down along the line is assumed for ${reading.assumedCount === 1 ? 'it' : 'them'}.`);
       setReadNotes(notes);

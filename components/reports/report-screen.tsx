@@ -15,6 +15,7 @@ import { FigureGrid } from './figure-grid';
 import { demFigures, formatRangeCm, overallFigures, specFigures } from './report-figures';
 import { ReportLineCard } from './report-line-card';
 import { ReportCoverageCard } from './report-coverage-card';
+import { ReportAsFlownCard } from './report-as-flown-card';
 import { SpecChecks } from './spec-checks';
 import { useReportScreen } from './use-report-screen';
 
@@ -65,6 +66,7 @@ function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref:
       </Card>
 
       <ReportCoverageCard coverage={r.coverage} />
+      <ReportAsFlownCard asFlown={r.asFlown} />
 
       <Card testID="report-overall">
         <Heading level={2}>All lines together</Heading>

@@ -82,7 +82,13 @@ export function VersionScreen() {
           />
         ) : null}
         {v?.analysisState === 'done' && !v.result ? <Banner tone="danger" message="This version is marked done but carries no result." /> : null}
-        {v?.analysisState === 'done' && v.result ? <AsFlownCard versionId={String(versionId)} offline={false} /> : null}
+        {v?.analysisState === 'done' && v.result ? (
+          <AsFlownCard
+            versionId={String(versionId)}
+            offline={false}
+            origin={plan.data && st ? { projectId: String(projectId), siteId: v.siteId, planName: plan.data.name, versionNumber: st.number } : undefined}
+          />
+        ) : null}
         {st ? <ReviewPanel projectId={projectId} planId={planId} versionId={versionId} analysisDone={st.analysisState === 'done'} /> : null}
       </RequirePermission>
     </Screen>

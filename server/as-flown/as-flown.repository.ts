@@ -1,10 +1,11 @@
 /** As-flown checks (as_flown_check rows), each written with its audit entry in one transaction; never changed after. */
-import { and, desc, eq } from 'drizzle-orm';
+import { and, count, desc, eq, sql } from 'drizzle-orm';
 import type { AsFlownCheck, AsFlownCheckSummary, AsFlownDoc, NewAsFlownCheck } from '../../contracts/as-flown';
 import type { Db } from '../../db/client';
 import { asFlownCheck, auditEvent, user } from '../../db/schema';
 import { isUuid } from '../http/ids';
 
+// The headline figures are read out of the stored document by PostgreSQL: a list never loads whole documents.
 const summaryColumns = {
   id: asFlownCheck.id,
   versionId: asFlownCheck.planVersionId,
@@ -14,13 +15,15 @@ const summaryColumns = {
   createdAt: asFlownCheck.createdAt,
   createdById: asFlownCheck.createdBy,
   createdByName: user.name,
-  document: asFlownCheck.document,
+  shareAllFlown: sql<number>`(${asFlownCheck.document}->'flown'->>'shareAll')::float8`,
+  shareAllPlanned: sql<number>`(${asFlownCheck.document}->'planned'->>'shareAll')::float8`,
+  missedTriggers: sql<number>`jsonb_array_length(${asFlownCheck.document}->'matching'->'missed')`,
+  lostAreaM2: sql<number>`(${asFlownCheck.document}->'difference'->>'lostAreaM2')::float8`,
 };
 
-type Row = { [K in keyof typeof summaryColumns]: unknown } & { document: unknown };
+type Row = { [K in keyof typeof summaryColumns]: unknown };
 
 function summaryOf(r: Row): AsFlownCheckSummary {
-  const d = r.document as AsFlownDoc;
   return {
     id: r.id as string,
     versionId: r.versionId as string,
@@ -29,10 +32,10 @@ function summaryOf(r: Row): AsFlownCheckSummary {
     photoCount: r.photoCount as number,
     createdAt: (r.createdAt as Date).toISOString(),
     createdBy: r.createdById ? { id: r.createdById as string, name: (r.createdByName as string | null) ?? 'A former member' } : null,
-    shareAllFlown: d.flown.shareAll,
-    shareAllPlanned: d.planned.shareAll,
-    missedTriggers: d.matching.missed.length,
-    lostAreaM2: d.difference.lostAreaM2,
+    shareAllFlown: Number(r.shareAllFlown),
+    shareAllPlanned: Number(r.shareAllPlanned),
+    missedTriggers: Number(r.missedTriggers),
+    lostAreaM2: Number(r.lostAreaM2),
   };
 }
 
@@ -40,6 +43,10 @@ function summaryOf(r: Row): AsFlownCheckSummary {
 export function createAsFlownRepository({ db }: { db: Db }) {
   function select() {
     return db.select(summaryColumns).from(asFlownCheck).leftJoin(user, eq(user.id, asFlownCheck.createdBy));
+  }
+
+  function selectWhole() {
+    return db.select({ ...summaryColumns, document: asFlownCheck.document }).from(asFlownCheck).leftJoin(user, eq(user.id, asFlownCheck.createdBy));
   }
 
   return {
@@ -69,9 +76,17 @@ export function createAsFlownRepository({ db }: { db: Db }) {
       return rows.map(summaryOf);
     },
 
+    /** The newest check of the version and how many there are (for the report). */
+    async latest(teamId: string, versionId: string): Promise<{ check: AsFlownCheck | null; count: number }> {
+      const where = and(eq(asFlownCheck.teamId, teamId), eq(asFlownCheck.planVersionId, versionId));
+      const [first] = await selectWhole().where(where).orderBy(desc(asFlownCheck.createdAt)).limit(1);
+      const [n] = await db.select({ n: count() }).from(asFlownCheck).where(where);
+      return { check: first ? { ...summaryOf(first), document: first.document as AsFlownDoc } : null, count: Number(n.n) };
+    },
+
     async find(teamId: string, versionId: string, checkId: string): Promise<AsFlownCheck | null> {
       if (!isUuid(checkId)) return null;
-      const [r] = await select().where(and(eq(asFlownCheck.teamId, teamId), eq(asFlownCheck.planVersionId, versionId), eq(asFlownCheck.id, checkId))).limit(1);
+      const [r] = await selectWhole().where(and(eq(asFlownCheck.teamId, teamId), eq(asFlownCheck.planVersionId, versionId), eq(asFlownCheck.id, checkId))).limit(1);
       return r ? { ...summaryOf(r), document: r.document as AsFlownDoc } : null;
     },
   };

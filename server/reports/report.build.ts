@@ -7,6 +7,7 @@ import type { Mission } from '../../terrain/mission';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { flightCautions } from './cautions';
 import { coverageChecks, reportCoverage } from './report.coverage';
+import type { ReportAsFlown } from '../../contracts/reports';
 import { azimuthDeg } from './geodesy';
 import { fmt } from './format';
 import { heightDatumOf, noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
@@ -110,8 +111,8 @@ function signOffReasons(v: VersionRecord, checks: SpecCheck[]): ComplianceReport
   });
 }
 
-/** The whole report; `now` is injected so the document can be reproduced. */
-export function buildReport(v: VersionRecord, now: Date = new Date()): ComplianceReport {
+/** The whole report; `now` is injected so the document can be reproduced; `extras.asFlown` the latest photo check's section. */
+export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { asFlown?: ReportAsFlown | null } = {}): ComplianceReport {
   const mission = readMission(v.input);
   const view = readResult(v.result);
   const meta = v.siteMetadata as GridMetadata;
@@ -154,6 +155,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date()): Complianc
     },
     checks,
     coverage: reportCoverage(v.coverage),
+    asFlown: extras.asFlown ?? null,
     lines: view.lines.map((line, i) => ({
       number: i + 1,
       ...stationStats(line.stations, band, line.legs),

@@ -90,6 +90,28 @@ function groundProof(doc: Doc, r: ComplianceReport, map: Buffer | null): void {
   }
 }
 
+/** The latest check of the photos as flown, next to the plan's figures; a line saying none was made otherwise. */
+function asFlownSection(doc: Doc, r: ComplianceReport): void {
+  const a = r.asFlown;
+  heading(doc, 'As flown: what the photos covered');
+  if (!a) {
+    doc.font('Inter').fontSize(9).fillColor(grey).text('No photos of this version have been checked as flown yet; the figures above are the plan\'s.', page.margin, doc.y, { width: page.width });
+    return;
+  }
+  doc.font('Inter').fontSize(8.5).fillColor(grey).text(`Latest of ${a.checkCount} check${a.checkCount === 1 ? '' : 's'}: ${a.label}, ${a.photoCount} photos, checked by ${a.checkedBy ?? 'a former member'} on ${fmt.utc(a.checkedAt)}.`, page.margin, doc.y, { width: page.width });
+  doc.moveDown(0.3).font('Inter-Bold').fontSize(9).fillColor('#1b1e21').text(`Whole spec met on ${shareWords(a.shareAllFlown)} of the area as flown (${shareWords(a.shareAllPlanned)} as planned).`, page.margin);
+  doc.moveDown(0.3);
+  table(doc, [['Item', 'As flown', 'As planned'], ...a.items.map((it) => [it.title, shareWords(it.flown), shareWords(it.planned)])], [3, 1.3, 1.3]);
+  doc.moveDown(0.3);
+  paragraphs(doc, [
+    `${a.matched} photos on planned stations; ${a.missedTriggers} missed trigger${a.missedTriggers === 1 ? '' : 's'}${a.missedRuns.length ? ` (${a.missedRuns.join('; ')})` : ''}; ${a.extraPhotos} extra photos.`,
+    ...(a.offTrack.length ? [`Flown off track: ${a.offTrack.join('; ')}.`] : []),
+    `Ground that met the spec as planned but not as flown: ${areaWords(a.lostAreaM2)}.`,
+    a.reflight,
+  ]);
+  doc.font('Inter').fontSize(8).fillColor(grey).text(a.heights, page.margin, doc.y, { width: page.width });
+}
+
 /** Render the report to PDF bytes; `coverageMap` is the printed coverage map of a ready coverage run. */
 export async function renderReportPdf(r: ComplianceReport, extras: { coverageMap?: Buffer | null } = {}): Promise<Buffer> {
   const doc = new PDFDocument({
@@ -135,6 +157,7 @@ export async function renderReportPdf(r: ComplianceReport, extras: { coverageMap
   doc.text(`Target GSD ${fmt.gsdCm(r.spec.targetGsdCm)} ± ${fmt.percent(r.spec.gsdTolerance)}; altitude mode ${r.spec.altitudeMode}.`, page.margin);
 
   groundProof(doc, r, extras.coverageMap ?? null);
+  asFlownSection(doc, r);
 
   heading(doc, 'Results overall');
   const o = r.overall;

@@ -4,12 +4,19 @@ import type { Role } from '../../contracts/roles';
 import { errors } from '../http/errors';
 import type { VersionRecord, VersionsRepository } from '../reviews/versions.repository';
 import { buildReport } from './report.build';
+import { reportAsFlown } from './report.as-flown';
+import type { AsFlownCheck } from '../../contracts/as-flown';
 import { renderReportPdf, reportFileName } from './report.pdf';
 import { requireAnalysed } from './result-view';
 import { coverageKeys } from '../coverage/coverage-keys';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 
-export function createReportService(deps: { versions: VersionsRepository; now?: () => Date; storage?: () => Storage }) {
+/** The as-flown checks a report reads (server/as-flown/as-flown.repository.ts). */
+export interface AsFlownSource {
+  latest(teamId: string, versionId: string): Promise<{ check: AsFlownCheck | null; count: number }>;
+}
+
+export function createReportService(deps: { versions: VersionsRepository; now?: () => Date; storage?: () => Storage; asFlown?: AsFlownSource }) {
   const now = deps.now ?? (() => new Date());
 
   /** The printed coverage map of a version with a ready coverage run (null without one). */
@@ -23,6 +30,13 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
     }
   }
 
+  /** The report's as-flown section: the latest check of the version's photos (null without the source or a check). */
+  async function asFlownOf(v: VersionRecord) {
+    if (!deps.asFlown) return null;
+    const { check, count } = await deps.asFlown.latest(v.teamId, v.id);
+    return reportAsFlown(check, count);
+  }
+
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
     const v = await deps.versions.find(q);
     if (!v) throw errors.notFound('Plan version');
@@ -33,14 +47,15 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
   /** The PDF of a version the caller already holds (used by the sign-off e-mail). */
   async function pdfOf(v: VersionRecord): Promise<{ pdf: Buffer; fileName: string; report: ComplianceReport }> {
     requireAnalysed(v);
-    const report = buildReport(v, now());
+    const report = buildReport(v, now(), { asFlown: await asFlownOf(v) });
     return { pdf: await renderReportPdf(report, { coverageMap: await coverageMap(v) }), fileName: reportFileName(report), report };
   }
 
   return {
     /** The report of a version (409 until its analysis is done). */
     async report(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<ComplianceReport> {
-      return buildReport(await load(q), now());
+      const v = await load(q);
+      return buildReport(v, now(), { asFlown: await asFlownOf(v) });
     },
     pdfOf,
     /** The PDF of a version the caller may see. */

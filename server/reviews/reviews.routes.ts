@@ -11,6 +11,7 @@ import { createReviewNotifier } from './reviews.notify';
 import { createReviewsRepository } from './reviews.repository';
 import { createReviewsUsecases } from './reviews.usecases';
 import { createVersionsRepository } from './versions.repository';
+import { createAsFlownRepository } from '../as-flown/as-flown.repository';
 
 const plans = '/teams/:teamId/plans/:planId';
 const version = `${plans}/versions/:versionId`;
@@ -20,7 +21,7 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
   const { db, config } = services;
   const versions = createVersionsRepository({ db });
   const reviews = createReviewsRepository({ db });
-  const reports = createReportService({ versions , storage: () => storageOf(services) });
+  const reports = createReportService({ versions, storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }) });
   const usecases = createReviewsUsecases({
     versions,
     reviews,

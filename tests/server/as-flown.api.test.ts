@@ -12,15 +12,18 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { asFlownCheckListSchema, asFlownCheckSchema, type AsFlownCheck } from '../../contracts/as-flown';
 import { generalCautions } from '../../contracts/cautions';
+import { shareWords } from '../../contracts/coverage-words';
+import { complianceReportSchema } from '../../contracts/reports';
+import { pdfText } from '../reports/pdf-text';
 import { parsePhotoLogCsv, type PhotoRecord } from '../../contracts/photo-log';
 import { planVersion } from '../../db/schema';
 import { runTerrainCli } from '../cli/run-cli';
 import { EXAMPLE_SKIPPED } from '../../datasets/make-example-photo-log';
 import { freshTeam, type FreshTeam } from '../support/fixtures';
+import { analysedExampleVersion, EXAMPLE_MISSION as MISSION } from '../support/analysed-version';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const LOG = 'datasets/example-photo-log.csv';
-const MISSION = 'datasets/example-mission.json';
 let srv: TestServer;
 let team: FreshTeam;
 let versionId: string;
@@ -29,36 +32,10 @@ let checks: string;
 let photos: PhotoRecord[];
 let first: AsFlownCheck;
 
-/** Upload the demo grid, plan the example mission and analyse it as the planner of `t`; the version's id. */
-async function analysedVersion(t: FreshTeam): Promise<{ versionId: string; planId: string }> {
-  const c = t.clients.planner;
-  const projectId = (await c.post(`/api/teams/${t.teamId}/projects`, { name: 'Harrow Fell as flown' })).body.id as string;
-  const f = new FormData();
-  f.append('surfaceKind', 'bare-earth');
-  f.append('verticalDatum', 'EGM96 (EPSG:5773)');
-  f.append('file', new Blob([new Uint8Array(fs.readFileSync('datasets/harrow-fell-dem.tif'))]), 'harrow-fell-dem.tif');
-  const site = await c.request('POST', `/api/teams/${t.teamId}/projects/${projectId}/sites`, { body: f });
-  expect(site.status).toBe(201);
-  const input = JSON.parse(fs.readFileSync(MISSION, 'utf8'));
-  const p = await c.post(`/api/teams/${t.teamId}/projects/${projectId}/plans`, { name: 'Face and heap', siteId: site.body.id, input });
-  expect(p.status).toBe(201);
-  const plan = `/api/teams/${t.teamId}/plans/${p.body.id}`;
-  const run = await c.post(`${plan}/runs`, {});
-  expect(run.status).toBe(202);
-  const t0 = Date.now();
-  for (;;) {
-    const s = await c.get(`${plan}/versions/${run.body.id}/status`);
-    if (s.body.analysisState === 'done') break;
-    if (s.body.analysisState === 'failed' || Date.now() - t0 > 90_000) throw new Error(`analysis did not finish: ${JSON.stringify(s.body)}`);
-    await new Promise((r) => setTimeout(r, 300));
-  }
-  return { versionId: run.body.id as string, planId: p.body.id as string };
-}
-
 beforeAll(async () => {
   srv = await startTestServer({ web: false, env: { WORKERS: '1', JOBS_POLL_SECONDS: '0.5' } });
   team = await freshTeam(srv, 'as-flown');
-  ({ versionId, planId } = await analysedVersion(team));
+  ({ versionId, planId } = await analysedExampleVersion(team));
   checks = `/api/teams/${team.teamId}/flights/${versionId}/as-flown-checks`;
   photos = parsePhotoLogCsv(fs.readFileSync(LOG, 'utf8'));
 });
@@ -113,6 +90,22 @@ describe('as-flown checks', () => {
     expect(r.rows[0].actor_id).toBe(team.users.planner.id);
     expect(r.rows[0].comment).toContain(`${photos.length} photos (CSV photo log: example-photo-log.csv)`);
     expect(r.rows[0].comment).toContain(`${EXAMPLE_SKIPPED.length} missed triggers`);
+  });
+
+  it('puts the latest check in the compliance report and its PDF, as flown next to as planned', async () => {
+    const versionPath = `/api/teams/${team.teamId}/plans/${planId}/versions/${versionId}`;
+    const report = complianceReportSchema.parse((await team.clients.surveyor.get(`${versionPath}/report`)).body);
+    const a = report.asFlown!;
+    expect(a).toMatchObject({ photoCount: photos.length, checkCount: 1, label: 'example-photo-log.csv', checkedBy: team.users.planner.name, missedTriggers: EXAMPLE_SKIPPED.length });
+    expect(a.shareAllFlown).toBe(first.document.flown.shareAll);
+    expect(a.items.map((i) => [i.item, i.flown, i.planned])).toEqual(first.document.flown.items.map((i) => [i.item, i.share, first.document.planned.items.find((x) => x.item === i.item)!.share]));
+    const pdf = await team.clients.surveyor.getBytes(`${versionPath}/report.pdf`);
+    expect(pdf.status).toBe(200);
+    // pdftotext (Debian poppler-utils) reads the PDF back
+    const text = pdfText(pdf.bytes).replace(/\s+/g, ' ');
+    expect(text).toContain('As flown: what the photos covered');
+    expect(text).toContain(`Whole spec met on ${shareWords(first.document.flown.shareAll)} of the area as flown (${shareWords(first.document.planned.shareAll)} as planned)`);
+    expect(text).toContain(`${EXAMPLE_SKIPPED.length} missed triggers`);
   });
 
   it('refuses a bad photo log naming the photo and the field, and stores nothing', async () => {

@@ -1,5 +1,5 @@
 /** The as-flown check in the crew's words: missed triggers as runs of stations per line, lines off track. */
-import type { AsFlownDoc } from '../../contracts/as-flown';
+import type { AsFlownDoc } from './as-flown';
 
 /** [{line 5, station 12}, {5, 13}, {5, 14}, {9, 3}] → ["line 5, stations 12–14", "line 9, station 3"]. */
 export function missedRuns(missed: AsFlownDoc['matching']['missed']): string[] {

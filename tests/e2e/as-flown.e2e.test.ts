@@ -1,0 +1,142 @@
+/**
+ * Photos as flown in Chromium against the real web build and API: the pilot, on a 390x844 phone, picks the 894
+ * photos of the example mission's simulated flight (JPEGs whose metadata exiftool wrote from
+ * datasets/example-photo-log.csv); the browser reads their metadata (only that is sent), and the leg sheet shows
+ * the share of the area meeting the spec as flown against as planned, the missed triggers the simulation skipped
+ * on purpose, and the re-flight. The surveyor, at 1440x900, reads the same check on the version screen with no
+ * control to run one. Screenshots go to .artifacts/screenshots/as-flown/.
+ */
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { eq } from 'drizzle-orm';
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { parsePhotoLogCsv } from '../../contracts/photo-log';
+import { planVersion } from '../../db/schema';
+import { EXAMPLE_SKIPPED } from '../../datasets/make-example-photo-log';
+import { analysedExampleVersion } from '../support/analysed-version';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { fixturePassword, freshTeam, type FreshTeam } from '../support/fixtures';
+import { writePhotoJpegs } from '../support/photo-jpegs';
+import { startTestServer, type TestServer } from '../support/test-server';
+
+const shotDir = path.join(screenshotDir, 'as-flown');
+let srv: TestServer;
+let browser: Browser;
+let team: FreshTeam;
+let ids: { projectId: string; planId: string; versionId: string };
+let jpegs: string[];
+
+beforeAll(async () => {
+  if (!process.env.LOFTLINE_WEB_DIST) throw new Error('LOFTLINE_WEB_DIST is not set: run the browser tests through `npm test`.');
+  fs.mkdirSync(shotDir, { recursive: true });
+  srv = await startTestServer({ env: { WORKERS: '1', JOBS_POLL_SECONDS: '0.5' } });
+  browser = await launchBrowser();
+  team = await freshTeam(srv, 'as-flown-e2e');
+  ids = await analysedExampleVersion(team, { plan: 'Face and spoil heap' });
+  // a signed-off version is what a pilot flies (the review itself is tested elsewhere)
+  await srv.db.update(planVersion).set({ reviewState: 'signed_off', signedOffBy: team.users.surveyor.id, signedOffAt: new Date() }).where(eq(planVersion.id, ids.versionId));
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'loftline-as-flown-e2e-'));
+  jpegs = writePhotoJpegs(parsePhotoLogCsv(fs.readFileSync('datasets/example-photo-log.csv', 'utf8')), dir);
+}, 240_000);
+afterAll(async () => {
+  await browser?.close();
+  await srv?.stop();
+});
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${srv.url}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(email);
+  await page.getByTestId('sign-in-password').fill(fixturePassword);
+  await page.getByTestId('sign-in-submit').click();
+  await page.getByTestId('nav-profile').waitFor();
+}
+
+/** "line 5, stations 12–17" runs of the simulation's skipped triggers, as the card words them. */
+function skippedRuns(): string[] {
+  const out: string[] = [];
+  for (const s of EXAMPLE_SKIPPED) {
+    const last = out.length ? out[out.length - 1] : null;
+    const m = last ? /^line (\d+), stations? (\d+)(?:–(\d+))?$/.exec(last) : null;
+    if (m && Number(m[1]) === s.line && Number(m[3] ?? m[2]) === s.station - 1) out[out.length - 1] = `line ${s.line}, stations ${m[2]}–${s.station}`;
+    else out.push(`line ${s.line}, station ${s.station}`);
+  }
+  return out;
+}
+
+describe('photos as flown', () => {
+  it('lets the pilot check the flight\'s photos on a phone and see what is short, where, and the re-flight', async () => {
+    const { page, context, pageErrors } = await openPage(browser, viewports.phone);
+    await signIn(page, team.users.pilot.email);
+    await page.goto(`${srv.url}/flights/${ids.versionId}`);
+    const card = page.getByTestId('as-flown');
+    await card.scrollIntoViewIfNeeded();
+    await expect(card.getByTestId('as-flown-none').textContent()).resolves.toContain('No photos checked');
+    const t0 = Date.now();
+    await page.getByTestId('as-flown-photos-input').setInputFiles(jpegs);
+    await page.getByText(/Checking \d+ photos against the plan/).waitFor({ timeout: 60_000 });
+    const readMs = Date.now() - t0;
+    await card.getByTestId('as-flown-result').waitFor({ timeout: 120_000 });
+    console.info(`as-flown in Chromium: ${jpegs.length} photos' metadata read on the device in ${readMs} ms; result after ${Date.now() - t0} ms`);
+    const text = (await card.getByTestId('as-flown-result').textContent()) ?? '';
+    expect(text).toContain(`${jpegs.length} photos`);
+    expect(text).toMatch(/Whole spec met on [\d.]+ % of the area as flown \([\d.]+ % as planned\)/);
+    for (const run of skippedRuns()) expect(await card.getByTestId('as-flown-missed').textContent()).toContain(run);
+    await expect(card.getByTestId('as-flown-verdict').textContent()).resolves.toBe('Short of the plan');
+    expect(await card.getByTestId('as-flown-reflight').textContent()).toMatch(/Lines\d+Photos\d+/);
+    expect(text).toContain('EGM96');
+    const restore = await growToContent(page);
+    await card.screenshot({ path: path.join(shotDir, 'pilot-phone.png') });
+    await restore();
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 240_000);
+
+  it('shows the surveyor the check on the version screen, without a control to run one', async () => {
+    const { page, context, pageErrors } = await openPage(browser, viewports.wide);
+    await signIn(page, team.users.surveyor.email);
+    await page.goto(`${srv.url}/projects/${ids.projectId}/plans/${ids.planId}/versions/${ids.versionId}`);
+    const card = page.getByTestId('as-flown');
+    await card.getByTestId('as-flown-result').waitFor({ timeout: 60_000 });
+    expect(await card.getByTestId('as-flown-photos').count()).toBe(0);
+    expect(await card.textContent()).toContain(`checked by ${team.users.pilot.name}`);
+    const restore = await growToContent(page);
+    await card.screenshot({ path: path.join(shotDir, 'surveyor-wide.png') });
+    await restore();
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 120_000);
+
+  it('lets the planner save the re-flight as new plans of the project, which analyse over the same grid', async () => {
+    const { page, context, pageErrors } = await openPage(browser, viewports.wide);
+    await signIn(page, team.users.planner.email);
+    await page.goto(`${srv.url}/projects/${ids.projectId}/plans/${ids.planId}/versions/${ids.versionId}`);
+    const save = page.getByTestId('as-flown-reflight-save');
+    await save.waitFor({ timeout: 60_000 });
+    const label = (await save.textContent()) ?? '';
+    const n = Number(/as (\d+) new plan/.exec(label)?.[1]);
+    expect(n).toBeGreaterThan(0);
+    await save.click();
+    const saved = page.getByTestId('as-flown-reflight-plans');
+    await saved.getByText(/Saved as \d+ new plan/).waitFor({ timeout: 30_000 });
+    const plans = (await team.clients.planner.get(`/api/teams/${team.teamId}/projects/${ids.projectId}/plans`)).body.plans as Array<{ id: string; name: string }>;
+    const reflights = plans.filter((pl) => pl.name.startsWith('Re-flight '));
+    expect(reflights.map((pl) => pl.name).sort()).toEqual(Array.from({ length: n }, (_, k) => expect.stringContaining(`Re-flight ${k + 1} of ${n} for Face and spoil heap v1`)));
+    const restore = await growToContent(page);
+    await saved.screenshot({ path: path.join(shotDir, 'planner-reflight-wide.png') });
+    await restore();
+    // the first re-flight runs like any plan: analysed over the same grid, its lines inside the version's area
+    const planPath = `/api/teams/${team.teamId}/plans/${reflights.find((pl) => pl.name.startsWith(`Re-flight 1 of`))!.id}`;
+    const run = await team.clients.planner.post(`${planPath}/runs`, {});
+    expect(run.status).toBe(202);
+    let state = '';
+    for (let i = 0; i < 300 && state !== 'done' && state !== 'failed'; i++) {
+      await new Promise((r) => setTimeout(r, 300));
+      state = (await team.clients.planner.get(`${planPath}/versions/${run.body.id}/status`)).body.analysisState;
+    }
+    expect(state).toBe('done');
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 180_000);
+});
