@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { missionCoverageFieldsSchema } from './coverage';
 import { MISSION_DEFAULTS, MISSION_RANGES, checkArea, type NumberRange } from '../terrain/mission';
+import { layoutBySchema, solveSettingsSchema } from './solve';
 
 /** A number in a mission range, with a message that says the range. */
 function ranged(name: string, r: NumberRange) {
@@ -136,6 +137,9 @@ const missionFields = z.object({
   stationStepM: ranged('stationStepM', R.stationStepM).nullable().default(D.stationStepM),
   /** The client's spec for every ground cell, the attitude envelope and the coverage raster's settings (all optional). */
   ...missionCoverageFieldsSchema.shape,
+  /** Who lays the lines out (default `settings`); with `solver`, the solver's own settings. */
+  layoutBy: layoutBySchema.optional(),
+  solve: solveSettingsSchema.optional(),
 });
 
 /** The mission: required area, camera, target GSD and takeoff; everything else has a default. */

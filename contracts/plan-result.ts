@@ -1,6 +1,7 @@
 /** The plan analysis result (CLI `plan`, worker, API): zod schema of what `analysePlan` returns. */
 import { z } from 'zod';
 import { altitudeModeSchema } from './mission';
+import { solveReportSchema } from './solve';
 
 const n = z.number();
 const nn = z.number().nullable();
@@ -61,6 +62,8 @@ export const planResultSchema = z.object({
   heights: z.object({ datum: z.string(), aboveTakeoff: z.string(), verticalDatum: z.object({ epsg: z.number().int().nullable(), name: z.string() }).nullable() }),
   headingAdvice: z.object({ recommendedDeg: n, options: z.array(headingOptionSchema) }).nullable(),
   frame: z.object({ crs: z.string(), epsg: z.number().int().nullable() }),
+  /** Present when the solver laid the lines out (mission `layoutBy: "solver"`): why, and its proof. */
+  solved: solveReportSchema.optional(),
 });
 
 export type PlanResultData = z.infer<typeof planResultSchema>;

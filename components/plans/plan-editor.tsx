@@ -11,6 +11,7 @@ import { Banner, Button, Card, Heading, Text, TextField } from '../ui';
 import { CameraFields } from './camera-fields';
 import { DerivedPanel } from './derived-panel';
 import { AircraftFields, AltitudeFields, MoreFields, TargetFields } from './mission-fields';
+import { SpecFields } from './spec-fields';
 import type { Plan } from './plan-shape';
 import { usePlanEditor } from './use-plan-editor';
 
@@ -66,6 +67,7 @@ export function PlanEditor({ project, site, plan }: { project: Project; site: Si
       <CameraFields control={e.form.control} setValue={e.form.setValue} readOnly={readOnly} />
       <TargetFields {...fieldProps} />
       <DerivedPanel control={e.form.control} units={e.units} />
+      <SpecFields {...fieldProps} />
       <AltitudeFields {...fieldProps} />
       <AircraftFields {...fieldProps} />
       <MoreFields {...fieldProps} />

@@ -16,6 +16,7 @@ import { Badge, Banner, Card, Loading, Screen, Text, TextLink } from '../ui';
 import { ReviewPanel } from '../reviews/review-panel';
 import { ResultsView } from './results-view';
 import { AsFlownCard } from '../as-flown/as-flown-card';
+import { SolvedCard } from './solved-card';
 
 type MissionSnapshot = { area?: { coordinates: number[][][] }; clearanceM?: number; obstacleAllowanceM?: number };
 
@@ -82,6 +83,7 @@ export function VersionScreen() {
           />
         ) : null}
         {v?.analysisState === 'done' && !v.result ? <Banner tone="danger" message="This version is marked done but carries no result." /> : null}
+        {v?.analysisState === 'done' && v.result?.solved ? <SolvedCard solved={v.result.solved} /> : null}
         {v?.analysisState === 'done' && v.result ? (
           <AsFlownCard
             versionId={String(versionId)}

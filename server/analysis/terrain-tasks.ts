@@ -11,6 +11,10 @@ import { coverageCog } from '../../terrain/coverage-raster-file';
 import { coverageLayers } from '../../terrain/coverage-layer';
 import type { CoverageMeasure } from '../../terrain/coverage-measures';
 import type { StoredCoverage } from '../../contracts/coverage';
+import { SOLVE_REPORT_KEYS } from '../../contracts/solve';
+import { solvePlan } from '../../terrain/solve';
+import type { Grid } from '../../terrain/grid';
+import type { AnalyseOptions } from '../../terrain/plan';
 import { runAsFlownCheck, type AsFlownCheckDocument } from '../../terrain/as-flown-document';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 
@@ -114,6 +118,21 @@ export function analysisTransfer(a: MissionAnalysis): ArrayBuffer[] {
 }
 
 /**
+ * The solver's plan as a stored result: the plan itself, with the solver's report (choices, proof, comparison)
+ * under `solved`, so every screen that reads a result reads a solved one the same way.
+ */
+function solvedResult(grid: Grid, mission: unknown, verticalDatum: AnalyseOptions['verticalDatum']): PlanResult {
+  const solved = solvePlan(grid, mission, { verticalDatum });
+  const plan: Record<string, unknown> = { ...solved };
+  const report: Record<string, unknown> = {};
+  for (const k of SOLVE_REPORT_KEYS) {
+    report[k] = plan[k];
+    delete plan[k];
+  }
+  return { ...(plan as unknown as PlanResult), solved: report } as PlanResult;
+}
+
+/**
  * Analyse `mission` over the window of the DEM that it needs (its area and takeoff, with margin), heights named by
  * the site's datum; then the coverage of every ground cell under the mission's spec and attitude envelope. A
  * coverage run the engine refuses (too many cells, a CRS without an EPSG code) leaves the plan's analysis standing
@@ -124,7 +143,8 @@ export async function analyseMission(bytes: Uint8Array, mission: unknown, onProg
   const header = await readDemHeader(bytes);
   const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
   onProgress(40);
-  const result = analysePlan(grid, mission, { verticalDatum: analysisDatum(opts.siteVerticalDatum, header.verticalDatum) });
+  const verticalDatum = analysisDatum(opts.siteVerticalDatum, header.verticalDatum);
+  const result = (mission as { layoutBy?: string }).layoutBy === 'solver' ? solvedResult(grid, mission, verticalDatum) : analysePlan(grid, mission, { verticalDatum });
   onProgress(60);
   try {
     const run = runCoverage(grid, mission, resolveMission(mission), result);

@@ -9,6 +9,17 @@ import { altitudeFrame, buildMissionItems, protocolUsed, type BuilderLine } from
 
 const finite = (x: unknown): number | undefined => (typeof x === 'number' && Number.isFinite(x) ? x : undefined);
 
+/** The smallest photo spacing any leg of a line states (solved plans), or undefined when none does. */
+function tightestLegTrigger(legs: readonly unknown[]): number | undefined {
+  let best: number | undefined;
+  for (const g of legs) {
+    const t = (g as { triggerDistanceM?: { min?: unknown } }).triggerDistanceM;
+    const v = finite(t?.min);
+    if (v !== undefined && v > 0 && (best === undefined || v < best)) best = v;
+  }
+  return best;
+}
+
 /** 409 unless the version is signed off: an aircraft gets nothing a surveyor has not signed. */
 export function requireSignedOff(v: Pick<VersionRecord, 'reviewState' | 'number'>): void {
   const state = reviewStateSchema.parse(v.reviewState);
@@ -27,7 +38,9 @@ export function missionItemsOf(v: VersionRecord, now: Date = new Date()): Missio
   if (planTrigger === undefined || planTrigger <= 0) throw new Error(`Stored analysis of version ${v.number} has no trigger distance.`);
   const lines: BuilderLine[] = view.lines.map((l) => ({
     // A line or leg may state its own trigger distance or speed (passed through from the analysis); else the plan's.
-    triggerDistanceM: finite((l as Record<string, unknown>).triggerDistanceM) ?? planTrigger,
+    // A solved plan states photo spacing per leg (a range along it); one distance per line keeps the tightest of them,
+    // so no stretch of the line gets fewer photos than it was proven with.
+    triggerDistanceM: finite((l as Record<string, unknown>).triggerDistanceM) ?? tightestLegTrigger(l.legs) ?? planTrigger,
     speedMps: finite((l as Record<string, unknown>).speedMps) ?? mission.speedMps,
     stations: l.stations.map((s) => ({ lon: s.lon, lat: s.lat, distanceM: s.distanceM })),
     legs: l.legs.map((g) => ({

@@ -1,0 +1,60 @@
+/**
+ * Letting Loftline lay the lines out: the mission's `layoutBy` and `solve` settings, and what the solver adds to a
+ * stored result (why each line is where it is, the proof over the reachable cells, the comparison with uniform
+ * settings). The terrain core (terrain/solve*.ts) checks the same ranges.
+ */
+import { z } from 'zod';
+
+/** Who lays the lines out: the mission's own overlaps and heading (`settings`), or the solver (`solver`). */
+export const layoutBySchema = z.enum(['settings', 'solver'], { error: 'layoutBy must be "settings" or "solver".' });
+
+const ranged = (name: string, lo: number, hi: number) => {
+  const msg = `solve.${name} must be a number from ${lo} to ${hi}.`;
+  return z.number({ error: msg }).gte(lo, { error: msg }).lte(hi, { error: msg });
+};
+
+/** The solver's settings (all optional; terrain/solve-options.ts has the defaults and why). */
+export const solveSettingsSchema = z.object({
+  // `lattice` (a second set of lines across the first, for 3D) is named but not built yet: refused, not ignored
+  pattern: z.enum(['furrow'], { error: 'solve.pattern must be "furrow" (one set of parallel lines); "lattice" is not available yet.' }).optional(),
+  minSpeedMps: ranged('minSpeedMps', 0.5, 30).optional(),
+  minSideOverlap: ranged('minSideOverlap', 0, 0.9).optional(),
+  minForwardOverlap: ranged('minForwardOverlap', 0, 0.95).optional(),
+  headingCandidates: ranged('headingCandidates', 1, 12).int({ error: 'solve.headingCandidates must be a whole number.' }).optional(),
+  repairRounds: ranged('repairRounds', 0, 12).int({ error: 'solve.repairRounds must be a whole number.' }).optional(),
+});
+
+const n = z.number();
+const lonLat = z.object({ lon: n, lat: n });
+
+/** What the solver adds to a stored result. */
+export const solveReportSchema = z.object({
+  pattern: z.string(),
+  choices: z.object({
+    headingDeg: n, heading: z.string(), pattern: z.string(), fallback: z.string().nullable(), summary: z.string(),
+    lines: z.array(z.object({
+      line: z.number().int(), offsetM: n, spacingToNextM: n.nullable(),
+      speedMps: z.object({ min: n, max: n }), triggerDistanceM: z.object({ min: n, max: n }), legs: z.number().int(), reasons: z.array(z.string()),
+    })),
+  }),
+  unreachable: z.array(z.object({ reason: z.string(), message: z.string(), cells: z.number().int(), areaM2: n, centroid: lonLat })),
+  proof: z.object({
+    cellM: n, cellsInArea: z.number().int(), reachableCells: z.number().int(), shareReachableMeeting: n, meets: z.boolean(),
+    items: z.array(z.object({ item: z.string(), asks: z.string(), share: n })),
+    shortCells: z.number().int(),
+    short: z.array(z.object({ item: z.string(), cells: z.number().int(), areaM2: n, slopeDeg: z.object({ min: n, max: n }), centroid: lonLat, message: z.string() })),
+    basis: z.string(),
+  }),
+  comparison: z.object({
+    uniform: z.array(z.object({
+      setting: z.object({ forwardOverlap: n, sideOverlap: n, mode: z.string(), headingDeg: n }),
+      flightTimeS: n, shareReachable: n.nullable(), meets: z.boolean().nullable(),
+    })),
+    bestUniformFlightTimeS: n.nullable(), solvedFlightTimeS: n, ratio: n.nullable(),
+  }),
+  rounds: z.number().int(),
+});
+export type SolveReportData = z.infer<typeof solveReportSchema>;
+
+/** The solver's part of a solved plan (the rest is an ordinary plan result). */
+export const SOLVE_REPORT_KEYS = ['pattern', 'choices', 'unreachable', 'proof', 'comparison', 'rounds'] as const;
