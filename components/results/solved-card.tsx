@@ -28,7 +28,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
           {shareWords(s.proof.shareReachableMeeting)} of the reachable cells meet every item ({s.proof.reachableCells} of {s.proof.cellsInArea} cells of {s.proof.cellM} m are reachable).
         </Text>
       </View>
-      <Text tone="muted">{s.proof.basis}</Text>
+      <Text tone="muted">Proof: {s.proof.basis}.</Text>
       <FigureGrid
         testID="solved-comparison"
         figures={[
@@ -38,7 +38,8 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
           { key: 'lines', label: 'Lines', value: String(s.choices.lines.length) },
         ]}
       />
-      <Text>{s.choices.summary}</Text>
+      <Text testID="solved-heading">Heading: {s.choices.heading}</Text>
+      <Text>Pattern: {s.choices.pattern}</Text>
       {s.choices.fallback ? <Text tone="caution">{s.choices.fallback}</Text> : null}
       {s.unreachable.length ? (
         <View style={styles.block} testID="solved-unreachable">
