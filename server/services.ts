@@ -8,7 +8,7 @@ import type { Config } from './config';
 import { storageFactory } from './storage/storage.service';
 import { orphanSweepFactory } from './storage/orphan-sweep';
 import { terrainFactory } from './analysis/terrain.service';
-import { jobsFactory } from './jobs/jobs.service';
+import { jobsFactory } from './jobs/jobs.factory';
 import { mailFactory } from './mail/mail.service';
 
 export interface Services {

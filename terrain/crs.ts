@@ -325,4 +325,3 @@ function placeDependentTransform(fromV: Variant[], toV: Variant[]): Transform {
   };
 }
 
-export { crsFromGeoKeys } from './geokeys';

@@ -1,7 +1,8 @@
 /** The public API of Loftline's terrain core: re-exports only (append new modules at the end). */
 export * from './grid';
 export * from './errors';
-export { WGS84, WEB_MERCATOR, utmCrs, utmCrsFor, crsFromEpsg, crsFromString, crsFromProj4, crsFromGeoKeys, createTransform, unitOfProj4 } from './crs';
+export { WGS84, WEB_MERCATOR, utmCrs, utmCrsFor, crsFromEpsg, crsFromString, crsFromProj4, createTransform, unitOfProj4 } from './crs';
+export { crsFromGeoKeys } from './geokeys';
 export type { Transform } from './crs';
 export { readDem, readDemHeader, openDem, windowToPixels } from './dem';
 export type { DemHeader, DemSource, DemWindow, ReadDemOptions, InflateFn } from './dem';

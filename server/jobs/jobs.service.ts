@@ -5,7 +5,7 @@
 import { sql, type SQL } from 'drizzle-orm';
 import PgBoss from 'pg-boss';
 import type { Config } from '../config';
-import type { ServiceFactory, Services } from '../services';
+import type { Services } from '../services';
 
 
 export interface AnalysisJobData {
@@ -77,16 +77,3 @@ export function jobsOf(services: Services): Jobs {
   if (!j) throw new Error('The jobs service is not set up: jobsFactory must run before the routes that use it.');
   return j;
 }
-
-/**
- * Service factory: puts `jobs` on the services and starts WORKERS analysis workers in this process
- * (WORKERS=0: this process only queues; scripts/worker.ts or another server does the work).
- */
-export const jobsFactory: ServiceFactory = async (services) => {
-  const jobs = await startJobs(services.config);
-  services.jobs = jobs;
-  const { startAnalysisWorkers } = await import('../analysis/analysis.worker');
-  const quiet = services.config.env.NODE_ENV === 'test';
-  await startAnalysisWorkers(services, services.config.env.WORKERS, quiet ? undefined : (m) => console.log(`loftline worker: ${m}`));
-  return () => jobs.stop();
-};

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { WGS84, createTransform, crsFromEpsg, crsFromGeoKeys, crsFromString, utmCrsFor } from '../../terrain/crs';
+import { WGS84, createTransform, crsFromEpsg, crsFromString, utmCrsFor } from '../../terrain/crs';
+import { crsFromGeoKeys } from '../../terrain/geokeys';
 import { TerrainError } from '../../terrain/errors';
 
 // Reference coordinates from PROJ cs2cs 9.1.1 (Debian proj-bin), made by tests/fixtures/crs/make-references.sh

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { WGS84, createTransform, crsFromEpsg, crsFromGeoKeys } from '../../terrain/crs';
+import { WGS84, createTransform, crsFromEpsg } from '../../terrain/crs';
+import { crsFromGeoKeys } from '../../terrain/geokeys';
 import { readDemHeader } from '../../terrain/dem';
 import { pixelToMap } from '../../terrain/grid';
 
