@@ -18,6 +18,9 @@ import { createSitesRepository } from '../sites/sites.repository';
 import { createSitesUsecases, siteKeys } from '../sites/sites.usecases';
 import type { Storage } from '../storage/storage';
 import type { SeedStep } from './seed';
+import { requirementChecks } from '../reports/report.build';
+import { createReviewsRepository } from '../reviews/reviews.repository';
+import { createVersionsRepository } from '../reviews/versions.repository';
 
 const datasets = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..', 'datasets');
 
@@ -30,7 +33,12 @@ export const demoProject = {
   siteName: 'Harrow Fell quarry, 2 m bare-earth grid',
   demFile: 'harrow-fell-dem.tif',
   planName: 'Face and spoil heap, 2.5 cm GSD',
+  /** A second, smaller plan, reviewed and signed off, so the demo pilot has a flight from the first sign-in. */
+  flightPlanName: 'Spoil heap top-up check, 3 cm GSD',
 } as const;
+
+/** The spoil heap's west end (inside the survey area of datasets/example-mission.json; invented like the rest). */
+const spoilHeapArea = { type: 'Polygon', coordinates: [[[4.4802, 46.7657], [4.486, 46.7658], [4.4862, 46.769], [4.4801, 46.769], [4.4802, 46.7657]]] };
 
 /** The demo DEM's bytes, made by the committed generator if the file is missing. */
 async function demoDemBytes(): Promise<Buffer> {
@@ -43,7 +51,7 @@ async function demoDemBytes(): Promise<Buffer> {
 }
 
 /** Seed the demo project into the demo team (the team is new, so nothing is there yet). */
-export async function seedDemoProject(ctx: { db: Db; storage: Storage; teamId: string; plannerId: string }): Promise<{ projectId: string; siteId: string; planId: string; versionId: string }> {
+export async function seedDemoProject(ctx: { db: Db; storage: Storage; teamId: string; plannerId: string; surveyorId?: string }): Promise<{ projectId: string; siteId: string; planId: string; versionId: string }> {
   const { db, storage, teamId, plannerId } = ctx;
   const terrain = createInlineTerrainRunner();
   const projects = createProjectsRepository({ db });
@@ -78,12 +86,39 @@ export async function seedDemoProject(ctx: { db: Db; storage: Storage; teamId: s
     const failed = await plans.status(teamId, plan.id, version.id);
     throw new Error(`The demo plan did not analyse: ${failed?.analysisError ?? analysed}`);
   }
+  if (ctx.surveyorId) await seedSignedOffPlan({ db, storage, terrain, teamId, plannerId, surveyorId: ctx.surveyorId, projectId: project.id, siteId, mission, usecases });
   return { projectId: project.id, siteId, planId: plan.id, versionId: version.id };
+}
+
+/**
+ * The demo's flight: a smaller plan over the spoil heap, analysed, sent for review by the planner and signed off by
+ * the surveyor through the same review transitions the API uses (no mail is queued at seed time). It misses part
+ * of its spec, as real plans do, so each unmet requirement carries the surveyor's reason, printed in its report.
+ */
+async function seedSignedOffPlan(q: {
+  db: Db; storage: Storage; terrain: ReturnType<typeof createInlineTerrainRunner>; teamId: string; plannerId: string; surveyorId: string;
+  projectId: string; siteId: string; mission: Record<string, unknown>; usecases: ReturnType<typeof createPlansUsecases>;
+}): Promise<void> {
+  const input = { ...q.mission, name: undefined, area: spoilHeapArea, targetGsdCm: 3, spec: { maxGsdCm: 3.3, minViews: 4 } };
+  const actor = { teamId: q.teamId, userId: q.plannerId };
+  const plan = await q.usecases.create(actor, q.projectId, { name: demoProject.flightPlanName, siteId: q.siteId, input });
+  const version = await q.usecases.run(actor, plan.id);
+  if ((await createAnalysisUsecases({ db: q.db, storage: q.storage, terrain: q.terrain }).analyseVersion(version.id)) !== 'done') throw new Error('The demo flight plan did not analyse.');
+  const reviews = createReviewsRepository({ db: q.db });
+  const submitted = await reviews.transition({ teamId: q.teamId, versionId: version.id, action: 'submit', actorId: q.plannerId, comment: 'Top-up check of the spoil heap before the quarterly volume survey.' });
+  if (!submitted.ok) throw new Error(`The demo flight plan could not be sent for review: ${submitted.refusal.reason}`);
+  const v = await createVersionsRepository({ db: q.db }).find({ teamId: q.teamId, versionId: version.id, role: 'surveyor' });
+  if (!v) throw new Error('The demo flight plan vanished before its sign-off.');
+  const reasons = requirementChecks(v)
+    .filter((c) => !c.pass)
+    .map((c) => ({ key: c.key, reason: `Demo: accepted for the top-up check only; ${c.label.toLowerCase()} is short on the heap's steep flank, which the quarterly survey covers.` }));
+  const signed = await reviews.transition({ teamId: q.teamId, versionId: version.id, action: 'sign-off', actorId: q.surveyorId, comment: 'Fit to fly for the top-up check (demo).', reasons });
+  if (!signed.ok) throw new Error(`The demo flight plan could not be signed off: ${signed.refusal.reason}`);
 }
 
 /** The seed step for seedDemo's `steps`. */
 export function demoProjectStep(deps: { storage: Storage }): SeedStep {
   return async ({ db, teamId, userIds }) => {
-    await seedDemoProject({ db, storage: deps.storage, teamId, plannerId: userIds.planner });
+    await seedDemoProject({ db, storage: deps.storage, teamId, plannerId: userIds.planner, surveyorId: userIds.surveyor });
   };
 }

@@ -35,7 +35,7 @@ beforeAll(async () => {
     .from(planVersion)
     .innerJoin(plan, eq(plan.id, planVersion.planId))
     .innerJoin(project, eq(project.id, plan.projectId))
-    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(planVersion.number, 1)));
+    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(plan.name, demoProject.planName), eq(planVersion.number, 1)));
   pagePath = `/projects/${row.projectId}/plans/${row.planId}/versions/${row.versionId}`;
   apiPath = `/api/teams/${teamId}/plans/${row.planId}/versions/${row.versionId}`;
 });

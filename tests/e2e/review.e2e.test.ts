@@ -49,7 +49,7 @@ async function seededDemoVersion(): Promise<VersionFixture | null> {
     .from(planVersion)
     .innerJoin(plan, eq(plan.id, planVersion.planId))
     .innerJoin(project, eq(project.id, plan.projectId))
-    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(planVersion.number, 1)));
+    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(plan.name, demoProject.planName), eq(planVersion.number, 1)));
   if (!row) return null;
   return { ...row, path: `/api/teams/${teamId}/plans/${row.planId}/versions/${row.versionId}` };
 }
