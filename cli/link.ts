@@ -11,6 +11,7 @@ import { followFlight } from './link/follow-flight';
 import { compareMission, downloadMission, uploadMission, withHomeItem } from './link/mission-transfer';
 import { openTransport } from './link/transport';
 import { generalCautions } from '../contracts/cautions';
+import { lineSettingRanges } from '../contracts/mission-items';
 
 const out = (line: string) => process.stdout.write(`${line}\n`);
 
@@ -25,7 +26,12 @@ async function run(o: LinkOptions): Promise<void> {
   out('CAUTIONS FOR THIS PLAN');
   for (const c of doc.cautions) out(`  - ${c}`);
   out(`Altitudes: ${doc.altitude.frameName} (frame ${doc.altitude.frame}), ${doc.altitude.reference}`);
-  for (const l of doc.lines) out(`  line ${l.number}: items ${l.firstSeq}-${l.lastSeq}, ${l.photoCount} photos every ${l.triggerDistanceM} m at ${l.speedMps} m/s ground speed`);
+  const span = (r: { min: number; max: number }) => (r.min === r.max ? `${r.min}` : `${r.min}-${r.max}`);
+  for (const l of doc.lines) {
+    const r = lineSettingRanges(l);
+    const varies = r.triggerDistanceM.min !== r.triggerDistanceM.max || r.speedMps.min !== r.speedMps.max;
+    out(`  line ${l.number}: items ${l.firstSeq}-${l.lastSeq}, ${l.photoCount} photos every ${span(r.triggerDistanceM)} m at ${span(r.speedMps)} m/s ground speed${varies ? ' (set per leg)' : ''}`);
+  }
   out(`${doc.items.length} mission items`);
 
   const transport = await openTransport(o.connection);
