@@ -8,11 +8,15 @@
 import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, inspectDem, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import { analyseMission, inspectDem, nodeInflate, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import { analyseLiveCoverage, type LiveAnalysis } from '../mission-items/live-coverage.task';
+import type { FlownPhoto } from '../../terrain/as-flown-match';
+import type { PlanResult } from '../../terrain/index';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
-  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions };
+  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions }
+  | { id: number; kind: 'live-coverage'; bytes: Uint8Array; mission: unknown; plan: PlanResult; photos: FlownPhoto[] };
 
 export type ThreadReply =
   | { id: number; progress: number }
@@ -38,6 +42,8 @@ export class TerrainTimeoutError extends Error {
 export interface TerrainRunner {
   inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
   analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
+  /** Photos as flown so far against a stored plan (live coverage). */
+  liveCoverage(bytes: Uint8Array, mission: unknown, plan: PlanResult, photos: FlownPhoto[]): Promise<LiveAnalysis>;
   close(): Promise<void>;
 }
 
@@ -77,6 +83,7 @@ export function createInlineTerrainRunner(): TerrainRunner {
   return {
     inspect: (bytes, opts) => inspectDem(bytes, opts),
     analyse: (bytes, mission, onProgress, o) => analyseMission(bytes, mission, onProgress, o),
+    liveCoverage: (bytes, mission, plan, photos) => analyseLiveCoverage(bytes, mission, plan, photos, nodeInflate),
     close: async () => {},
   };
 }
@@ -157,6 +164,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   return {
     inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
     analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
+    liveCoverage: (bytes, mission, plan, photos) => run<LiveAnalysis>({ kind: 'live-coverage', bytes, mission, plan, photos }),
     async close() {
       closed = true;
       for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));

@@ -5,13 +5,17 @@
  */
 import type { Router } from 'express';
 import { recordedTriggersSchema, recordTriggersSchema, triggerListSchema } from '../../contracts/flight-triggers';
+import { liveCoverageSchema } from '../../contracts/live-coverage';
 import { missionItemsSchema } from '../../contracts/mission-items';
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import type { RouteGroup } from '../routes';
 import { createVersionsRepository } from '../reviews/versions.repository';
+import { terrainOf } from '../analysis/terrain.service';
+import { storageOf } from '../storage/storage.service';
 import { createFlightTriggersRepository } from './flight-triggers.repository';
+import { createLiveCoverageHub } from './live-coverage.service';
 import { missionItemsOf, requireSignedOff } from './mission-items.view';
 
 /** Route group: mission items for the link and the pilot. */
@@ -31,6 +35,13 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
   });
 
   const triggers = createFlightTriggersRepository({ db: services.db });
+  const live = createLiveCoverageHub({
+    db: services.db,
+    storage: storageOf(services),
+    terrain: terrainOf(services),
+    throttleMs: services.config.env.LIVE_COVERAGE_SECONDS * 1000,
+    log: (m) => console.error(m),
+  });
 
   /** POST: photos as flown, forwarded by the link while the aircraft flies a signed-off version (batches of up to 1000). */
   api.post('/teams/:teamId/flights/:versionId/triggers', guards.permission('flight:record'), async (req, res) => {
@@ -39,7 +50,29 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
     const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
     if (!v) throw errors.notFound('Flight');
     requireSignedOff(v);
-    sendJson(res, recordedTriggersSchema, await triggers.record({ teamId, versionId: v.id, sortie: body.sortie, userId: user.id, triggers: body.triggers }), 201);
+    const recorded = await triggers.record({ teamId, versionId: v.id, sortie: body.sortie, userId: user.id, triggers: body.triggers });
+    if (recorded.stored > 0) live.notify(v.id);
+    sendJson(res, recordedTriggersSchema, recorded, 201);
+  });
+
+  /**
+   * GET .../flights/:versionId/live: server-sent events, one `coverage` event (a LiveCoverage document) at once and
+   * after every recomputation while photos arrive; a comment every 15 s keeps proxies from closing the stream.
+   */
+  api.get('/teams/:teamId/flights/:versionId/live', guards.permission('flight:read'), async (req, res) => {
+    const { teamId, role } = requireTeam(req);
+    const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
+    if (!v) throw errors.notFound('Flight');
+    requireSignedOff(v);
+    // no-transform: the compression middleware leaves the stream alone, so each event leaves at once.
+    res.writeHead(200, { 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'private, no-cache, no-transform', Connection: 'keep-alive', 'X-Accel-Buffering': 'no' });
+    res.write('retry: 5000\n\n');
+    const unsubscribe = live.subscribe(teamId, v.id, (doc) => res.write(`event: coverage\ndata: ${JSON.stringify(liveCoverageSchema.parse(doc))}\n\n`));
+    const beat = setInterval(() => res.write(': still here\n\n'), 15_000);
+    req.on('close', () => {
+      clearInterval(beat);
+      unsubscribe();
+    });
   });
 
   api.get('/teams/:teamId/flights/:versionId/triggers', guards.permission('flight:read'), async (req, res) => {
