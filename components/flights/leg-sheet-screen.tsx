@@ -14,6 +14,7 @@ import { Badge, Banner, Card, Heading, Loading, Screen, Text, TextLink } from '.
 import { BatteryPlanCard } from './battery-plan-card';
 import { ExportLinks } from './export-links';
 import { formatLatLon } from './leg-format';
+import { LiveCoverageCard } from './live-coverage-card';
 import { MissionItemsCard } from './mission-items-card';
 import { OfflineNotice } from './offline-notice';
 import { PreflightChecklist } from './preflight-checklist';
@@ -91,6 +92,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
         ))}
       </View>
       <MissionItemsCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
+      <LiveCoverageCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
       {teamId ? <ExportLinks teamId={teamId} planId={sheet.version.planId} versionId={sheet.version.id} offline={offline} /> : null}
       <Text variant="label" tone="muted">
         Sheet generated {formatDayTime(sheet.generatedAt)}. Heights in {u === 'imperial' ? 'feet' : 'metres'}.

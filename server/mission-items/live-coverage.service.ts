@@ -4,7 +4,7 @@
  * to every open stream of that version. Nothing is kept for a version nobody is watching.
  */
 import { eq } from 'drizzle-orm';
-import { generalCautions } from '../../contracts/cautions';
+import { flightCautions } from '../../contracts/cautions';
 import type { FlightTrigger } from '../../contracts/flight-triggers';
 import type { LiveCoverage } from '../../contracts/live-coverage';
 import type { Db } from '../../db/client';
@@ -12,7 +12,7 @@ import { site } from '../../db/schema';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import type { PlanResult } from '../../terrain/index';
 import type { TerrainRunner } from '../analysis/terrain-pool';
-import { heightDatumOf } from '../reports/result-view';
+import { heightDatumOf, readMission } from '../reports/result-view';
 import { createVersionsRepository } from '../reviews/versions.repository';
 import type { Storage } from '../storage/storage';
 import { createFlightTriggersRepository } from './flight-triggers.repository';
@@ -55,10 +55,11 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
     if (!v) throw new Error(`version ${versionId} is gone`);
     const rows = await triggers.list(teamId, versionId);
     const datum = heightDatumOf(v);
+    const mission = readMission(v.input);
     const base = {
       versionId,
       heights: `Photo heights are the autopilot's, above its home (the takeoff point), placed on the plan's takeoff ground height above ${datum}; arm elsewhere and every height is off by the difference.`,
-      cautions: [...generalCautions],
+      cautions: flightCautions({ surfaceKind: v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth', verticalDatum: datum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
       computedAt: new Date().toISOString(),
     };
     const none = { photoCount: rows.length, matched: 0, extra: 0, missedSoFar: 0, progress: null, raster: null, spec: null, flown: null, passed: null };

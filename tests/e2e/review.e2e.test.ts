@@ -202,6 +202,8 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
       await expect(page.getByTestId('mission-items-list').getByRole('listitem').first().textContent()).resolves.toMatch(/^0 NAV_TAKEOFF · .+ above takeoff$/);
       await page.getByTestId('mission-items-toggle').click();
       await page.getByTestId('mission-items-recorded').filter({ hasText: 'No photos recorded as flown yet' }).waitFor();
+      // Live coverage over server-sent events: nothing flown yet.
+      await page.getByTestId('live-coverage-headline').filter({ hasText: 'No photos recorded yet' }).waitFor();
       await expect(page.getByTestId('mission-items-download').getAttribute('href')).resolves.toBe(`/api/teams/${teamId}/flights/${version.versionId}/mission-items?download=1`);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
       await shootWhole(page, 'phone-leg-sheet.png');
