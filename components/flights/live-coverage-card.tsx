@@ -34,9 +34,11 @@ export function LiveCoverageCard(p: { teamId: string | undefined; versionId: str
             </Banner>
           ) : null}
           <Text tone="muted">{s.doc.heights}</Text>
-          <Banner tone="caution" title="While you fly">
-            <BulletList items={s.doc.cautions} tone="caution" />
-          </Banner>
+          {s.doc.state === 'ready' ? (
+            <Banner tone="caution" title="While you fly">
+              <BulletList items={s.doc.cautions} tone="caution" />
+            </Banner>
+          ) : null}
         </View>
       ) : null}
     </Card>

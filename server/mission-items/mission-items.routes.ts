@@ -1,5 +1,6 @@
 /**
- * GET/POST .../flights/:versionId/triggers: photos as flown. GET /teams/:teamId/flights/:versionId/mission-items: the MAVLink mission items of a signed-off version as JSON
+ * GET/POST .../flights/:versionId/triggers: photos as flown. GET /teams/:teamId/flights/:versionId/mission-items (and
+ * .../plans/:planId/versions/:versionId/mission-items beside the exports): the MAVLink mission items of a signed-off version as JSON
  * (`?download=1` answers it as a file). Pilots reach signed-off versions only (404 otherwise, as for the leg sheet);
  * other roles get 409 `not_signed_off` for a version not signed off.
  */
@@ -21,18 +22,22 @@ import { missionItemsOf, requireSignedOff } from './mission-items.view';
 /** Route group: mission items for the link and the pilot. */
 export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, services }) => {
   const versions = createVersionsRepository({ db: services.db });
-  api.get('/teams/:teamId/flights/:versionId/mission-items', guards.permission('flight:read'), async (req, res) => {
-    const { teamId, role } = requireTeam(req);
-    const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
-    if (!v) throw errors.notFound('Flight');
-    const doc = missionItemsOf(v);
-    res.setHeader('Cache-Control', 'private, no-store');
-    if (req.query.download === '1') {
-      const slug = v.planName.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'plan';
-      res.setHeader('Content-Disposition', `attachment; filename="${slug}-v${v.number}-mission-items.json"`);
-    }
-    sendJson(res, missionItemsSchema, doc);
-  });
+  // The same list beside the flight exports (.../plans/:planId/versions/:versionId/export.*), found the same way.
+  for (const path of ['/teams/:teamId/flights/:versionId/mission-items', '/teams/:teamId/plans/:planId/versions/:versionId/mission-items']) {
+    api.get(path, guards.permission('flight:read'), async (req, res) => {
+      const { teamId, role } = requireTeam(req);
+      const planId = req.params.planId === undefined ? undefined : String(req.params.planId);
+      const v = await versions.find({ teamId, role, planId, versionId: String(req.params.versionId) });
+      if (!v) throw errors.notFound(planId === undefined ? 'Flight' : 'Plan version');
+      const doc = missionItemsOf(v);
+      res.setHeader('Cache-Control', 'private, no-store');
+      if (req.query.download === '1') {
+        const slug = v.planName.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'plan';
+        res.setHeader('Content-Disposition', `attachment; filename="${slug}-v${v.number}-mission-items.json"`);
+      }
+      sendJson(res, missionItemsSchema, doc);
+    });
+  }
 
   const triggers = createFlightTriggersRepository({ db: services.db });
   const live = createLiveCoverageHub({

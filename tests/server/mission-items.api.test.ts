@@ -73,6 +73,17 @@ describe('mission items of a version', () => {
     expect(r.headers.get('content-disposition')).toBe('attachment; filename="scar-edge-v1-mission-items.json"');
   });
 
+  it('is also beside the flight exports, under the plan and version, with the same answers', async () => {
+    const beside = (v: VersionFixture) => `${v.path}/mission-items`;
+    const r = await team.clients.pilot.get(beside(signed));
+    expect(r.status).toBe(200);
+    expect({ ...r.body, generatedAt: null }).toEqual({ ...doc, generatedAt: null });
+    expect((await team.clients.planner.get(beside(draft))).status).toBe(409);
+    expect((await team.clients.pilot.get(beside(draft))).status).toBe(404);
+    // A version under another plan's path is not found.
+    expect((await team.clients.pilot.get(`/api/teams/${team.teamId}/plans/${draft.planId}/versions/${signed.versionId}/mission-items`)).status).toBe(404);
+  });
+
   it('refuses a version that is not signed off: 409 for the planner, not found for the pilot', async () => {
     const p = await team.clients.planner.get(itemsPath(draft));
     expect(p.status).toBe(409);
