@@ -33,6 +33,14 @@ export const liveCoverageSchema = z.object({
   passed: z
     .object({ cells: z.number().int(), areaM2: n, shortCells: z.number().int(), shortAreaM2: n, patches: z.array(livePatchSchema) })
     .nullable(),
+  /**
+   * Map images of the raster (one pixel per cell, PNG as base64) and where they lie: `geotransform` (GDAL order) in
+   * the grid's CRS, like the version's coverage raster. `views` colours the views so far (viridis, `viewsMax` at the
+   * light end); `short` is white where passed ground falls short.
+   */
+  map: z
+    .object({ geotransform: z.array(n).length(6), width: z.number().int(), height: z.number().int(), viewsPngBase64: z.string(), viewsMax: n, shortPngBase64: z.string() })
+    .nullable(),
   /** How the photos' heights were read, named. */
   heights: z.string(),
   cautions: z.array(z.string()),

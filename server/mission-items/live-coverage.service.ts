@@ -62,7 +62,7 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
       cautions: flightCautions({ surfaceKind: v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth', verticalDatum: datum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
       computedAt: new Date().toISOString(),
     };
-    const none = { photoCount: rows.length, matched: 0, extra: 0, missedSoFar: 0, progress: null, raster: null, spec: null, flown: null, passed: null };
+    const none = { photoCount: rows.length, matched: 0, extra: 0, missedSoFar: 0, progress: null, raster: null, spec: null, flown: null, passed: null, map: null };
     if (rows.length === 0) return { ...base, ...none, state: 'empty', reason: null };
     const [s] = await deps.db.select({ storageKey: site.storageKey }).from(site).where(eq(site.id, v.siteId)).limit(1);
     if (!s) throw new Error(`site of version ${versionId} is gone`);

@@ -8,6 +8,7 @@ import { coverageLayout, gridCellM } from '../../terrain/coverage-grid';
 import { planPhotos } from '../../terrain/coverage-photos';
 import { resolveCoverageInput } from '../../terrain/coverage-spec';
 import { cellMeetsSpec } from '../../terrain/as-flown';
+import { coverageLayers, maskPng } from '../../terrain/coverage-layer';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import { missionBboxWgs84, readDem, WGS84, type PlanResult } from '../../terrain/index';
 import { resolveMission } from '../../terrain/mission';
@@ -58,6 +59,8 @@ export async function analyseLiveCoverage(bytes: Uint8Array, input: unknown, pla
     const [lon, lat] = a.frame.toLonLat(sx / p.length, sy / p.length);
     return { cells: p.length, areaM2: round(p.length * cells.cellAreaM2, 1), centroid: { lon: round(lon, 7), lat: round(lat, 7) } };
   });
+  const views = coverageLayers(a.flown, spec).layers.find((l) => l.measure === 'views')!;
+  const b64 = (png: Uint8Array) => Buffer.from(png.buffer, png.byteOffset, png.byteLength).toString('base64');
   return {
     photoCount: photos.length,
     matched: m.matched.length,
@@ -67,6 +70,7 @@ export async function analyseLiveCoverage(bytes: Uint8Array, input: unknown, pla
     raster: { width: cells.width, height: cells.height, cellM: round(cells.cellM, 4) },
     spec: { maxGsdCm: spec.maxGsdCm, minViews: spec.minViews },
     flown: { shareAll: round(a.compliance.flown.shareAll, 6), items: a.compliance.flown.items.map((it) => ({ item: it.item, asks: it.asks, share: round(it.share, 6) })) },
+    map: { geotransform: [...cells.transform], width: cells.width, height: cells.height, viewsPngBase64: b64(views.png), viewsMax: views.max, shortPngBase64: b64(maskPng(cells.width, cells.height, short)) },
     passed: { cells: passedCells, areaM2: round(passedCells * cells.cellAreaM2, 1), shortCells, shortAreaM2: round(shortCells * cells.cellAreaM2, 1), patches },
   };
 }

@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import type { LiveCoverage } from '../../contracts/live-coverage';
 import { liveCoveragePath, liveStateOf, liveViewOf } from '../../components/flights/use-live-coverage';
+import { liveLayersOf } from '../../components/coverage/live-coverage-layers';
 
 const base: LiveCoverage = {
   versionId: 'v1', state: 'ready', reason: null, photoCount: 120, matched: 118, extra: 2, missedSoFar: 3,
   progress: { line: 3, station: 14 }, raster: { width: 100, height: 80, cellM: 5 }, spec: { maxGsdCm: 3.3, minViews: 2 },
   flown: { shareAll: 0.41234, items: [{ item: 'gsd', asks: 'a view with GSD at most 3.3 cm', share: 0.5 }, { item: 'views', asks: 'at least 2 views', share: 0.4125 }] },
   passed: { cells: 3000, areaM2: 75000, shortCells: 50, shortAreaM2: 1250, patches: [{ cells: 40, areaM2: 1000, centroid: { lon: -2.5, lat: 54.25 } }, { cells: 10, areaM2: 250, centroid: { lon: -2.51, lat: 54.26 } }] },
-  heights: 'Photo heights are the autopilot\'s, above its home.', cautions: ['Wind moves the aircraft off the plan.'], computedAt: '2026-12-02T10:00:00Z',
+  map: null, heights: 'Photo heights are the autopilot\'s, above its home.', cautions: ['Wind moves the aircraft off the plan.'], computedAt: '2026-12-02T10:00:00Z',
 };
 
 describe('the leg sheet\'s live coverage', () => {
@@ -36,5 +37,19 @@ describe('the leg sheet\'s live coverage', () => {
     expect(liveStateOf({ ...q, offline: true })).toEqual({ kind: 'unavailable', reason: 'Live coverage needs the connection back.' });
     expect(liveStateOf({ ...q, offline: true, doc: base, connected: true })).toEqual({ kind: 'live', doc: base, connected: false });
     expect(liveCoveragePath('t 1', 'v/1')).toBe('/api/teams/t%201/flights/v%2F1/live');
+  });
+});
+
+describe('the live coverage map layers', () => {
+  it('place the views image and the short-ground hatching on the hillshade, by the two geotransforms', () => {
+    // Raster of 100 x 80 cells of 5 m from (1000, 2000) south-east; hillshade pixels of 10 m from (500, 2500).
+    const doc = { ...base, map: { geotransform: [1000, 5, 0, 2000, 0, -5], width: 100, height: 80, viewsPngBase64: 'AAA', viewsMax: 4, shortPngBase64: 'BBB' } };
+    const layers = liveLayersOf(doc, [500, 10, 0, 2500, 0, -10]);
+    expect(layers.map((l) => [l.kind, l.href, l.rect])).toEqual([
+      ['image', 'data:image/png;base64,AAA', [50, 50, 50, 40]],
+      ['hatch', 'data:image/png;base64,BBB', [50, 50, 50, 40]],
+    ]);
+    expect(liveLayersOf(doc, null)).toEqual([]);
+    expect(liveLayersOf(base, [500, 10, 0, 2500, 0, -10])).toEqual([]);
   });
 });

@@ -4,6 +4,7 @@
  * directly on the same poses, and on ground passed so far with photos left out on purpose.
  */
 import crypto from 'node:crypto';
+import { PNG } from 'pngjs';
 import { spawn } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { eq } from 'drizzle-orm';
@@ -188,6 +189,12 @@ describe('live coverage while the aircraft flies', () => {
       const m = metresPerDeg(p.centroid.lat);
       const distToLine1 = Math.min(...line1.slice(gap[0], gap[1]).map((s) => Math.hypot((s.lon - p.centroid.lon) * m.lon, (s.lat - p.centroid.lat) * m.lat)));
       expect(distToLine1).toBeLessThan(plan.summary.lineSpacingM);
+      // The map's hatching is exactly the short cells: one opaque pixel per cell, on the raster's lattice.
+      const mask = PNG.sync.read(Buffer.from(doc.map!.shortPngBase64, 'base64'));
+      expect([mask.width, mask.height]).toEqual([doc.raster!.width, doc.raster!.height]);
+      let opaque = 0;
+      for (let i = 3; i < mask.data.length; i += 4) if (mask.data[i] === 255) opaque++;
+      expect(opaque).toBe(doc.passed!.shortCells);
       // Ground under line 2 onwards is not passed yet: the passed area is less than half the area's cells.
       expect(doc.passed!.cells).toBeLessThan(doc.raster!.width * doc.raster!.height / 2);
       expect(doc.flown!.shareAll).toBeLessThan(0.5);
