@@ -5,16 +5,21 @@ import { BulletList } from '../reports/bullet-list';
 import { formatDayTime } from '../projects/format-date';
 import { space } from '../theme';
 import { Banner, Card, Heading, Loading, Text } from '../ui';
-import { liveViewOf, useLiveCoverage } from './use-live-coverage';
+import { linkLineOf, liveViewOf, useLiveCoverage } from './use-live-coverage';
 
-/** testIDs live-coverage, live-coverage-headline, live-coverage-items, live-coverage-patches, live-coverage-state. */
+/** testIDs live-coverage, live-link, live-coverage-headline, live-coverage-items, live-coverage-patches, live-coverage-state. */
 export function LiveCoverageCard(p: { teamId: string | undefined; versionId: string; signedOff: boolean; offline: boolean; units: UnitSystem }) {
-  const s = useLiveCoverage(p.teamId, p.versionId, p.signedOff, p.offline);
+  const { live: s, link } = useLiveCoverage(p.teamId, p.versionId, p.signedOff, p.offline);
   const v = s.kind === 'live' ? liveViewOf(s.doc, p.units) : null;
   return (
     <Card testID="live-coverage">
       <Heading level={2}>Live coverage (photos as flown)</Heading>
       {s.kind === 'unavailable' ? <Text tone="muted">{s.reason}</Text> : null}
+      {link ? (
+        <Text testID="live-link" tone={link.step === 'not-ready' ? 'danger' : undefined}>
+          {linkLineOf(link)}
+        </Text>
+      ) : null}
       {s.kind === 'waiting' ? <Loading label="Connecting to the live coverage…" /> : null}
       {s.kind === 'live' && v ? (
         <View style={styles.body}>

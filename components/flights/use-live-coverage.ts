@@ -1,6 +1,8 @@
 /** The leg sheet's live coverage: the server's LiveCoverage events (GET …/flights/:versionId/live, server-sent events) and what the card says of them. */
 import { useEffect, useState } from 'react';
+import { linkStateSchema, type LinkState } from '../../contracts/link-state';
 import { liveCoverageSchema, type LiveCoverage } from '../../contracts/live-coverage';
+import { formatDayTime } from '../projects/format-date';
 import type { UnitSystem } from '../../contracts/projects';
 import { formatPercent } from '../projects/units';
 import { formatLatLon } from './leg-format';
@@ -48,9 +50,26 @@ export function liveStateOf(q: { signedOff: boolean; offline: boolean; teamId: s
   return { kind: 'waiting' };
 }
 
-/** Subscribe to the version's live coverage while the sheet is open, online and signed off. */
-export function useLiveCoverage(teamId: string | undefined, versionId: string, signedOff: boolean, offline: boolean): LiveState {
+const stepWords: Record<LinkState['step'], string> = {
+  connecting: 'connecting to the aircraft',
+  uploading: 'uploading the mission',
+  verifying: 'reading the mission back',
+  ready: 'ready: the mission on the aircraft matches this version',
+  following: 'following the flight',
+  finished: 'flight followed to the end',
+  'not-ready': 'NOT ready',
+};
+
+/** Pure: the link's latest report in one line (step, aircraft, connection, when and by whom). */
+export function linkLineOf(l: LinkState): string {
+  const aircraft = l.aircraft ? `aircraft ${l.aircraft.sysid}/${l.aircraft.compid} (MAVLink ${l.aircraft.mavlink}) ` : '';
+  return `Link: ${stepWords[l.step]}. ${l.message} ${aircraft}over ${l.connection}; reported ${formatDayTime(l.reportedAt)} by ${l.reportedBy}.`;
+}
+
+/** Subscribe to the version's live coverage and its link's reports while the sheet is open, online and signed off. */
+export function useLiveCoverage(teamId: string | undefined, versionId: string, signedOff: boolean, offline: boolean): { live: LiveState; link: LinkState | null } {
   const [doc, setDoc] = useState<LiveCoverage | null>(null);
+  const [link, setLink] = useState<LinkState | null>(null);
   const [connected, setConnected] = useState(false);
   const canStream = typeof EventSource !== 'undefined';
   useEffect(() => {
@@ -63,7 +82,11 @@ export function useLiveCoverage(teamId: string | undefined, versionId: string, s
       const parsed = liveCoverageSchema.safeParse(JSON.parse((e as MessageEvent<string>).data));
       if (parsed.success) setDoc(parsed.data);
     });
+    es.addEventListener('link', (e) => {
+      const parsed = linkStateSchema.safeParse(JSON.parse((e as MessageEvent<string>).data));
+      if (parsed.success) setLink(parsed.data);
+    });
     return () => es.close();
   }, [teamId, versionId, signedOff, offline, canStream]);
-  return liveStateOf({ signedOff, offline, teamId, canStream, doc, connected });
+  return { live: liveStateOf({ signedOff, offline, teamId, canStream, doc, connected }), link };
 }

@@ -6,6 +6,7 @@
 import { eq } from 'drizzle-orm';
 import { flightCautions } from '../../contracts/cautions';
 import type { FlightTrigger } from '../../contracts/flight-triggers';
+import type { LinkState } from '../../contracts/link-state';
 import type { LiveCoverage } from '../../contracts/live-coverage';
 import type { Db } from '../../db/client';
 import { site } from '../../db/schema';
@@ -17,7 +18,15 @@ import { createVersionsRepository } from '../reviews/versions.repository';
 import type { Storage } from '../storage/storage';
 import { createFlightTriggersRepository } from './flight-triggers.repository';
 
-type Listener = (doc: LiveCoverage) => void;
+/** A watcher of one version: its coverage documents and its link's reports. */
+export interface LiveListener {
+  coverage: (doc: LiveCoverage) => void;
+  link: (state: LinkState) => void;
+}
+type Listener = LiveListener;
+
+/** Link reports kept, newest versions first (a bound, so a long-running server never grows with old flights). */
+const LINK_STATES_KEPT = 500;
 
 interface VersionState {
   teamId: string;
@@ -49,6 +58,7 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
   const versions = createVersionsRepository({ db: deps.db });
   const triggers = createFlightTriggersRepository({ db: deps.db });
   const states = new Map<string, VersionState>();
+  const links = new Map<string, LinkState>();
 
   async function analyse(teamId: string, versionId: string): Promise<LiveCoverage> {
     const v = await versions.find({ teamId, versionId, role: 'owner' });
@@ -95,7 +105,7 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
     st.lastStartMs = Date.now();
     try {
       st.doc = await analyse(st.teamId, versionId);
-      for (const l of st.listeners) l(st.doc);
+      for (const l of st.listeners) l.coverage(st.doc);
     } catch (err) {
       deps.log?.(`live coverage of ${versionId} failed: ${(err as Error).stack ?? String(err)}`);
     } finally {
@@ -114,8 +124,10 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
         states.set(versionId, st);
       }
       st.listeners.add(listener);
-      if (st.doc) listener(st.doc);
+      if (st.doc) listener.coverage(st.doc);
       else schedule(versionId);
+      const link = links.get(versionId);
+      if (link) listener.link(link);
       const own = st;
       return () => {
         own.listeners.delete(listener);
@@ -124,6 +136,13 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
           states.delete(versionId);
         }
       };
+    },
+    /** The link reported a step: kept as the version's latest and passed to its watchers. */
+    reportLink(versionId: string, state: LinkState): void {
+      links.delete(versionId);
+      links.set(versionId, state);
+      if (links.size > LINK_STATES_KEPT) links.delete(links.keys().next().value!);
+      for (const l of states.get(versionId)?.listeners ?? []) l.link(state);
     },
     /** New photos were stored for a version: recompute for its watchers (throttled). */
     notify(versionId: string): void {

@@ -6,6 +6,7 @@
  */
 import type { Router } from 'express';
 import { recordedTriggersSchema, recordTriggersSchema, triggerListSchema } from '../../contracts/flight-triggers';
+import { linkStateSchema, reportLinkStateSchema } from '../../contracts/link-state';
 import { liveCoverageSchema } from '../../contracts/live-coverage';
 import { missionItemsSchema } from '../../contracts/mission-items';
 import { errors } from '../http/errors';
@@ -60,9 +61,22 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
     sendJson(res, recordedTriggersSchema, recorded, 201);
   });
 
+  /** POST .../flights/:versionId/link-state: the link says which step it is at (shown on the leg sheet over the live stream). */
+  api.post('/teams/:teamId/flights/:versionId/link-state', guards.permission('flight:record'), async (req, res) => {
+    const { teamId, role, user } = requireTeam(req);
+    const body = parseInput(reportLinkStateSchema, req.body);
+    const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
+    if (!v) throw errors.notFound('Flight');
+    requireSignedOff(v);
+    const state = { ...body, reportedAt: new Date().toISOString(), reportedBy: user.name ?? user.email };
+    live.reportLink(v.id, state);
+    sendJson(res, linkStateSchema, state, 201);
+  });
+
   /**
    * GET .../flights/:versionId/live: server-sent events, one `coverage` event (a LiveCoverage document) at once and
-   * after every recomputation while photos arrive; a comment every 15 s keeps proxies from closing the stream.
+   * after every recomputation while photos arrive, and a `link` event (the link's latest step) at once when there is
+   * one and at each report; a comment every 15 s keeps proxies from closing the stream.
    */
   api.get('/teams/:teamId/flights/:versionId/live', guards.permission('flight:read'), async (req, res) => {
     const { teamId, role } = requireTeam(req);
@@ -72,7 +86,10 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
     // no-transform: the compression middleware leaves the stream alone, so each event leaves at once.
     res.writeHead(200, { 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'private, no-cache, no-transform', Connection: 'keep-alive', 'X-Accel-Buffering': 'no' });
     res.write('retry: 5000\n\n');
-    const unsubscribe = live.subscribe(teamId, v.id, (doc) => res.write(`event: coverage\ndata: ${JSON.stringify(liveCoverageSchema.parse(doc))}\n\n`));
+    const unsubscribe = live.subscribe(teamId, v.id, {
+      coverage: (doc) => res.write(`event: coverage\ndata: ${JSON.stringify(liveCoverageSchema.parse(doc))}\n\n`),
+      link: (state) => res.write(`event: link\ndata: ${JSON.stringify(linkStateSchema.parse(state))}\n\n`),
+    });
     const beat = setInterval(() => res.write(': still here\n\n'), 15_000);
     req.on('close', () => {
       clearInterval(beat);

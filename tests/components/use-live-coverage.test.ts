@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { LiveCoverage } from '../../contracts/live-coverage';
-import { liveCoveragePath, liveStateOf, liveViewOf } from '../../components/flights/use-live-coverage';
+import { linkLineOf, liveCoveragePath, liveStateOf, liveViewOf } from '../../components/flights/use-live-coverage';
 import { liveLayersOf } from '../../components/coverage/live-coverage-layers';
 
 const base: LiveCoverage = {
@@ -51,5 +51,13 @@ describe('the live coverage map layers', () => {
     ]);
     expect(liveLayersOf(doc, null)).toEqual([]);
     expect(liveLayersOf(base, [500, 10, 0, 2500, 0, -10])).toEqual([]);
+  });
+});
+
+describe('the link\'s state on the leg sheet', () => {
+  it('says the step, the aircraft and the connection, and when and by whom it was reported', () => {
+    const line = linkLineOf({ run: '00000000-0000-4000-8000-000000000000', step: 'ready', message: 'Version 2 is on the aircraft: 120 items read back.', connection: 'udp 127.0.0.1:14550', aircraft: { sysid: 1, compid: 1, mavlink: 2 }, reportedAt: '2026-12-02T10:00:00Z', reportedBy: 'Jory Marsh' });
+    expect(line).toMatch(/^Link: ready: the mission on the aircraft matches this version\. Version 2 is on the aircraft: 120 items read back\. aircraft 1\/1 \(MAVLink 2\) over udp 127\.0\.0\.1:14550; reported .+ by Jory Marsh\.$/);
+    expect(linkLineOf({ run: '00000000-0000-4000-8000-000000000000', step: 'not-ready', message: 'No heartbeat.', connection: 'serial /dev/ttyUSB0 at 57600 baud', aircraft: null, reportedAt: '2026-12-02T10:00:00Z', reportedBy: 'A' })).toMatch(/^Link: NOT ready\. No heartbeat\. over serial/);
   });
 });

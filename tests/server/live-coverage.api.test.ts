@@ -9,6 +9,7 @@ import { spawn } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { LinkState } from '../../contracts/link-state';
 import type { LiveCoverage } from '../../contracts/live-coverage';
 import { site } from '../../db/schema';
 import { nodeInflate } from '../../server/analysis/terrain-tasks';
@@ -44,6 +45,7 @@ async function openLive(path: string) {
   const ctrl = new AbortController();
   const res = await fetch(srv.url + path, { headers: { Cookie: c.cookieHeader(), Origin: srv.url }, signal: ctrl.signal });
   const events: LiveCoverage[] = [];
+  const links: LinkState[] = [];
   const waiters: Array<{ ok: (d: LiveCoverage) => boolean; resolve: (d: LiveCoverage) => void }> = [];
   if (res.ok && res.body) {
     void (async () => {
@@ -59,6 +61,7 @@ async function openLive(path: string) {
             const block = buf.slice(0, k);
             buf = buf.slice(k + 2);
             const data = /^data: (.*)$/m.exec(block);
+            if (/^event: link$/m.test(block) && data) links.push(JSON.parse(data[1]) as LinkState);
             if (!/^event: coverage$/m.test(block) || !data) continue;
             const doc = JSON.parse(data[1]) as LiveCoverage;
             events.push(doc);
@@ -73,6 +76,7 @@ async function openLive(path: string) {
   return {
     res,
     events,
+    links,
     next: (ok: (d: LiveCoverage) => boolean, timeoutMs = 45_000) =>
       new Promise<LiveCoverage>((resolve, reject) => {
         const hit = events.find(ok);
@@ -135,6 +139,11 @@ describe('live coverage while the aircraft flies', () => {
       } finally {
         await sim.stop();
       }
+      // The link's steps reached the stream as it went (README: the leg sheet shows the latest), with the aircraft named.
+      expect(live.links.map((l) => l.step)).toEqual(['connecting', 'uploading', 'verifying', 'ready', 'following', 'finished']);
+      expect(live.links.at(-1)).toMatchObject({ aircraft: { sysid: 1, compid: 1, mavlink: 1 }, reportedBy: expect.any(String) });
+      expect(live.links.at(-1)!.connection).toMatch(/^udp 127\.0\.0\.1:\d+$/);
+      expect(new Set(live.links.map((l) => l.run)).size).toBe(1);
       const total = sim.photos.length;
       const last = await live.next((d) => d.photoCount === total && d.state === 'ready');
       // Counts never go down while the flight is followed, and the coverage was pushed while it was still being flown.
@@ -198,6 +207,27 @@ describe('live coverage while the aircraft flies', () => {
       // Ground under line 2 onwards is not passed yet: the passed area is less than half the area's cells.
       expect(doc.passed!.cells).toBeLessThan(doc.raster!.width * doc.raster!.height / 2);
       expect(doc.flown!.shareAll).toBeLessThan(0.5);
+    } finally {
+      live.close();
+    }
+  });
+
+  it('takes link reports from those who record flights, for signed-off versions, and gives the latest to a new watcher', async () => {
+    const v = await flyableVersion('Scar edge link');
+    const path = `/api/teams/${team.teamId}/flights/${v.versionId}/link-state`;
+    const body = { run: crypto.randomUUID(), step: 'not-ready', message: 'No heartbeat from an aircraft.', connection: 'serial /dev/ttyUSB0 at 57600 baud', aircraft: null };
+    expect((await team.clients.surveyor.post(path, body)).status).toBe(403);
+    const bad = await team.clients.pilot.post(path, { ...body, step: 'flying' });
+    expect(bad.status).toBe(422);
+    expect(bad.body.error.message).toMatch(/^step/);
+    expect((await team.clients.pilot.post(path, body)).status).toBe(201);
+    const draft = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review', planName: 'Scar edge link draft' });
+    expect((await team.clients.owner.post(`/api/teams/${team.teamId}/flights/${draft.versionId}/link-state`, body)).status).toBe(409);
+    const live = await openLive(`/api/teams/${team.teamId}/flights/${v.versionId}/live`);
+    try {
+      await live.next((d) => d.state === 'empty');
+      await expect.poll(() => live.links.length).toBe(1);
+      expect(live.links[0]).toMatchObject({ step: 'not-ready', connection: 'serial /dev/ttyUSB0 at 57600 baud', aircraft: null });
     } finally {
       live.close();
     }
