@@ -11,6 +11,7 @@ import { liveCoverageSchema } from '../../contracts/live-coverage';
 import { missionItemsSchema } from '../../contracts/mission-items';
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
+import { openStreamsOf } from '../http/open-streams';
 import { parseInput, sendJson } from '../http/validate';
 import type { RouteGroup } from '../routes';
 import { createVersionsRepository } from '../reviews/versions.repository';
@@ -91,9 +92,12 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
       link: (state) => res.write(`event: link\ndata: ${JSON.stringify(linkStateSchema.parse(state))}\n\n`),
     });
     const beat = setInterval(() => res.write(': still here\n\n'), 15_000);
+    const streams = openStreamsOf(services);
+    streams.add(res);
     req.on('close', () => {
       clearInterval(beat);
       unsubscribe();
+      streams.delete(res);
     });
   });
 

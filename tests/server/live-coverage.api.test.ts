@@ -233,6 +233,19 @@ describe('live coverage while the aircraft flies', () => {
     }
   });
 
+  it('ends its open streams when the server stops, so stopping never waits on a watcher', async () => {
+    const v = await flyableVersion('Scar edge shutdown');
+    const other = await startTestServer({ web: false });
+    const res = await fetch(`${other.url}/api/teams/${team.teamId}/flights/${v.versionId}/live`, { headers: { Cookie: team.clients.pilot.cookieHeader(), Origin: other.url } });
+    expect(res.status).toBe(200);
+    const reader = res.body!.getReader();
+    await reader.read(); // the stream is open
+    const t0 = Date.now();
+    await other.stop();
+    for (;;) if ((await reader.read()).done) break;
+    expect(Date.now() - t0).toBeLessThan(5000);
+  });
+
   it('streams signed-off versions only: 409 for a planner on a draft, not found for a pilot', async () => {
     const draft = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review', planName: 'Scar edge draft' });
     const path = `/api/teams/${team.teamId}/flights/${draft.versionId}/live`;
