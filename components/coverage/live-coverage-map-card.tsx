@@ -25,7 +25,7 @@ export type LiveCoverageMapCardProps = {
 
 /** testIDs live-map-card, live-map-headline, live-map, live-map-patches. Shown for signed-off versions only. */
 export function LiveCoverageMapCard(p: LiveCoverageMapCardProps) {
-  const { live: s } = useLiveCoverage(p.teamId, p.versionId, true, false);
+  const { live: s } = useLiveCoverage(p.teamId, p.versionId, true, false, { map: true });
   const doc = s.kind === 'live' ? s.doc : null;
   const layers = useMemo(() => liveLayersOf(doc, p.hillshade.transform), [doc, p.hillshade.transform]);
   const outline = useMemo(() => p.baseShapes.filter((x) => x.kind === 'polygon'), [p.baseShapes]);

@@ -8,7 +8,7 @@ import { formatPercent } from '../projects/units';
 import { formatLatLon } from './leg-format';
 
 /** API path of a version's live coverage stream. */
-export const liveCoveragePath = (teamId: string, versionId: string) => `/api/teams/${encodeURIComponent(teamId)}/flights/${encodeURIComponent(versionId)}/live`;
+export const liveCoveragePath = (teamId: string, versionId: string, map = false) => `/api/teams/${encodeURIComponent(teamId)}/flights/${encodeURIComponent(versionId)}/live${map ? '?map=1' : ''}`;
 
 export type LiveState =
   | { kind: 'unavailable'; reason: string }
@@ -67,7 +67,8 @@ export function linkLineOf(l: LinkState): string {
 }
 
 /** Subscribe to the version's live coverage and its link's reports while the sheet is open, online and signed off. */
-export function useLiveCoverage(teamId: string | undefined, versionId: string, signedOff: boolean, offline: boolean): { live: LiveState; link: LinkState | null } {
+export function useLiveCoverage(teamId: string | undefined, versionId: string, signedOff: boolean, offline: boolean, opts: { map?: boolean } = {}): { live: LiveState; link: LinkState | null } {
+  const map = opts.map ?? false;
   const [doc, setDoc] = useState<LiveCoverage | null>(null);
   const [link, setLink] = useState<LinkState | null>(null);
   const [connected, setConnected] = useState(false);
@@ -75,7 +76,7 @@ export function useLiveCoverage(teamId: string | undefined, versionId: string, s
   useEffect(() => {
     if (!teamId || !signedOff || offline || !canStream) return;
     // Same origin: the session cookie goes with the request; EventSource reconnects by itself after a drop.
-    const es = new EventSource(liveCoveragePath(teamId, versionId));
+    const es = new EventSource(liveCoveragePath(teamId, versionId, map));
     es.onopen = () => setConnected(true);
     es.onerror = () => setConnected(false);
     es.addEventListener('coverage', (e) => {
@@ -87,6 +88,6 @@ export function useLiveCoverage(teamId: string | undefined, versionId: string, s
       if (parsed.success) setLink(parsed.data);
     });
     return () => es.close();
-  }, [teamId, versionId, signedOff, offline, canStream]);
+  }, [teamId, versionId, signedOff, offline, canStream, map]);
   return { live: liveStateOf({ signedOff, offline, teamId, canStream, doc, connected }), link };
 }

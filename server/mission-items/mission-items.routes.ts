@@ -76,7 +76,7 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
 
   /**
    * GET .../flights/:versionId/live: server-sent events, one `coverage` event (a LiveCoverage document) at once and
-   * after every recomputation while photos arrive, and a `link` event (the link's latest step) at once when there is
+   * after every recomputation while photos arrive (its map images only with `?map=1`), and a `link` event (the link's latest step) at once when there is
    * one and at each report; a comment every 15 s keeps proxies from closing the stream.
    */
   api.get('/teams/:teamId/flights/:versionId/live', guards.permission('flight:read'), async (req, res) => {
@@ -87,8 +87,10 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
     // no-transform: the compression middleware leaves the stream alone, so each event leaves at once.
     res.writeHead(200, { 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'private, no-cache, no-transform', Connection: 'keep-alive', 'X-Accel-Buffering': 'no' });
     res.write('retry: 5000\n\n');
+    // The map images (a few hundred kB on a large site) go only to those who draw the map: `?map=1`.
+    const withMap = req.query.map === '1';
     const unsubscribe = live.subscribe(teamId, v.id, {
-      coverage: (doc) => res.write(`event: coverage\ndata: ${JSON.stringify(liveCoverageSchema.parse(doc))}\n\n`),
+      coverage: (doc) => res.write(`event: coverage\ndata: ${JSON.stringify(liveCoverageSchema.parse(withMap ? doc : { ...doc, map: null }))}\n\n`),
       link: (state) => res.write(`event: link\ndata: ${JSON.stringify(linkStateSchema.parse(state))}\n\n`),
     });
     const beat = setInterval(() => res.write(': still here\n\n'), 15_000);

@@ -37,6 +37,7 @@ describe('the leg sheet\'s live coverage', () => {
     expect(liveStateOf({ ...q, offline: true })).toEqual({ kind: 'unavailable', reason: 'Live coverage needs the connection back.' });
     expect(liveStateOf({ ...q, offline: true, doc: base, connected: true })).toEqual({ kind: 'live', doc: base, connected: false });
     expect(liveCoveragePath('t 1', 'v/1')).toBe('/api/teams/t%201/flights/v%2F1/live');
+    expect(liveCoveragePath('t1', 'v1', true)).toBe('/api/teams/t1/flights/v1/live?map=1');
   });
 });
 

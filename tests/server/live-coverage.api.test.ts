@@ -177,7 +177,8 @@ describe('live coverage while the aircraft flies', () => {
 
   it('highlights ground already passed that the photos leave short, and only once the aircraft has passed it', async () => {
     const v = await flyableVersion('Scar edge gap');
-    const live = await openLive(`/api/teams/${team.teamId}/flights/${v.versionId}/live`);
+    const live = await openLive(`/api/teams/${team.teamId}/flights/${v.versionId}/live?map=1`);
+    const lean = await openLive(`/api/teams/${team.teamId}/flights/${v.versionId}/live`);
     try {
       await live.next((d) => d.state === 'empty');
       const plan = analysedResult();
@@ -204,11 +205,15 @@ describe('live coverage while the aircraft flies', () => {
       let opaque = 0;
       for (let i = 3; i < mask.data.length; i += 4) if (mask.data[i] === 255) opaque++;
       expect(opaque).toBe(doc.passed!.shortCells);
+      // Without ?map=1 the same document comes without its images.
+      const leanDoc = await lean.next((d) => d.state === 'ready' && d.photoCount === triggers.length);
+      expect(leanDoc).toEqual({ ...doc, map: null });
       // Ground under line 2 onwards is not passed yet: the passed area is less than half the area's cells.
       expect(doc.passed!.cells).toBeLessThan(doc.raster!.width * doc.raster!.height / 2);
       expect(doc.flown!.shareAll).toBeLessThan(0.5);
     } finally {
       live.close();
+      lean.close();
     }
   });
 
