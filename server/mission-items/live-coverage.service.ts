@@ -1,6 +1,8 @@
 /**
  * Live coverage hub: per version, the latest as-flown analysis of the photos the link has recorded, recomputed on
- * a terrain thread when new photos arrive (at most once per `throttleMs`, one run at a time per version) and pushed
+ * a terrain thread when new photos arrive (at most once per `throttleMs`, and no sooner than three times the last run's
+ * length after it began, so a large site never holds the terrain thread more than a third of the time; one run at a
+ * time per version) and pushed
  * to every open stream of that version. Nothing is kept for a version nobody is watching.
  */
 import { eq } from 'drizzle-orm';
@@ -36,6 +38,8 @@ interface VersionState {
   dirty: boolean;
   timer: ReturnType<typeof setTimeout> | null;
   lastStartMs: number;
+  /** How long the last run took: the next starts no sooner than three times that after it began, so live runs hold the terrain thread a third of the time at most. */
+  lastRunMs: number;
 }
 
 /** A recorded photo as the as-flown engine reads it: its height above the takeoff point, as the autopilot measured it. */
@@ -91,7 +95,7 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
     if (!st) return;
     if (st.running) { st.dirty = true; return; }
     if (st.timer) return;
-    const waitMs = Math.max(0, st.lastStartMs + deps.throttleMs - Date.now());
+    const waitMs = Math.max(0, st.lastStartMs + Math.max(deps.throttleMs, 3 * st.lastRunMs) - Date.now());
     st.timer = setTimeout(() => void run(versionId), waitMs);
     (st.timer as unknown as { unref?: () => void }).unref?.(); // a pending run never keeps the process alive
   }
@@ -109,6 +113,7 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
     } catch (err) {
       deps.log?.(`live coverage of ${versionId} failed: ${(err as Error).stack ?? String(err)}`);
     } finally {
+      st.lastRunMs = Date.now() - st.lastStartMs;
       st.running = false;
       if (st.listeners.size === 0) states.delete(versionId);
       else if (st.dirty) schedule(versionId);
@@ -120,7 +125,7 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
     subscribe(teamId: string, versionId: string, listener: Listener): () => void {
       let st = states.get(versionId);
       if (!st) {
-        st = { teamId, listeners: new Set(), doc: null, running: false, dirty: false, timer: null, lastStartMs: 0 };
+        st = { teamId, listeners: new Set(), doc: null, running: false, dirty: false, timer: null, lastStartMs: 0, lastRunMs: 0 };
         states.set(versionId, st);
       }
       st.listeners.add(listener);
