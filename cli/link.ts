@@ -5,12 +5,15 @@
  * failed (nothing is ready), 2 for bad options.
  */
 import { parseLinkArgs, usage, UsageError, type LinkOptions } from './link/args';
-import { fetchMissionItems, LinkError, signIn } from './link/loftline-client';
+import crypto from 'node:crypto';
+import { fetchMissionItems, LinkError, reportLinkState, signIn } from './link/loftline-client';
+import type { LinkStep, ReportLinkState } from '../contracts/link-state';
 import { MavlinkChannel } from './link/mavlink-channel';
 import { followFlight } from './link/follow-flight';
 import { compareMission, downloadMission, uploadMission, withHomeItem } from './link/mission-transfer';
 import { openTransport } from './link/transport';
 import { generalCautions } from '../contracts/cautions';
+import { lineSettingRanges } from '../contracts/mission-items';
 
 const out = (line: string) => process.stdout.write(`${line}\n`);
 
@@ -25,23 +28,36 @@ async function run(o: LinkOptions): Promise<void> {
   out('CAUTIONS FOR THIS PLAN');
   for (const c of doc.cautions) out(`  - ${c}`);
   out(`Altitudes: ${doc.altitude.frameName} (frame ${doc.altitude.frame}), ${doc.altitude.reference}`);
-  for (const l of doc.lines) out(`  line ${l.number}: items ${l.firstSeq}-${l.lastSeq}, ${l.photoCount} photos every ${l.triggerDistanceM} m at ${l.speedMps} m/s ground speed`);
+  const span = (r: { min: number; max: number }) => (r.min === r.max ? `${r.min}` : `${r.min}-${r.max}`);
+  for (const l of doc.lines) {
+    const r = lineSettingRanges(l);
+    const varies = r.triggerDistanceM.min !== r.triggerDistanceM.max || r.speedMps.min !== r.speedMps.max;
+    out(`  line ${l.number}: items ${l.firstSeq}-${l.lastSeq}, ${l.photoCount} photos every ${span(r.triggerDistanceM)} m at ${span(r.speedMps)} m/s ground speed${varies ? ' (set per leg)' : ''}`);
+  }
   out(`${doc.items.length} mission items`);
 
   const transport = await openTransport(o.connection);
   const ch = new MavlinkChannel(transport);
+  // The leg sheet shows the link's step; reports are best effort and never stop the link.
+  const run = crypto.randomUUID();
+  let aircraft: ReportLinkState['aircraft'] = null;
+  const report = (step: LinkStep, message: string) => reportLinkState(session, teamId, doc.version.id, { run, step, message, connection: transport.label, aircraft });
   try {
     ch.startHeartbeat();
     out(`Waiting for the aircraft's heartbeat on ${transport.label}`);
+    await report('connecting', `Waiting for the aircraft's heartbeat on ${transport.label}.`);
     const target = await ch.findAircraft(Math.max(5000, o.timeoutMs * (o.retries + 1)));
     if (!target) throw new LinkError(`No MAVLink heartbeat from an aircraft on ${transport.label}; check the connection, the port and the baud rate. Nothing was uploaded.`);
+    aircraft = { sysid: target.sysid, compid: target.compid, mavlink: target.version };
     out(`Aircraft: system ${target.sysid}, component ${target.compid}, MAVLink ${target.version}`);
+    await report('uploading', `Uploading ${doc.items.length} mission items.`);
     const log = (line: string) => out(`  ${line}`);
     const items = o.homeItem ? withHomeItem(doc.items, doc.altitude.takeoff) : doc.items;
     if (o.homeItem) out('Item 0 is a placeholder for the autopilot\'s home position (--home-item); the plan starts at item 1.');
     const up = await uploadMission(ch, items, { timeoutMs: o.timeoutMs, retries: o.retries, log });
     out(`Uploaded ${items.length} items; the aircraft acknowledged them (MAV_MISSION_ACCEPTED)${up.resent ? `, ${up.resent} messages sent again after timeouts` : ''}`);
     out('Reading the mission back');
+    await report('verifying', 'Reading the mission back and comparing it item by item.');
     const held = await downloadMission(ch, { timeoutMs: o.timeoutMs, retries: o.retries, log });
     const diffs = compareMission(items, held, o.homeItem ? 1 : 0);
     if (diffs.length) {
@@ -51,12 +67,18 @@ async function run(o: LinkOptions): Promise<void> {
     }
     out(`Read back ${held.length} items, each equal to what was sent${o.homeItem ? ' (item 0 is the autopilot\'s home)' : ''}.`);
     out(`READY: version ${doc.version.number} of "${doc.version.planName}" is on the aircraft (${held.length} items, altitudes above the takeoff point).`);
+    await report('ready', `Version ${doc.version.number} is on the aircraft: ${held.length} items read back, each equal to what was sent.`);
     if (o.follow) {
       const stop = new AbortController();
       process.once('SIGINT', () => stop.abort());
+      await report('following', 'Following the flight: photos go to Loftline as the aircraft reports them.');
       const n = await followFlight(ch, session, teamId, doc, items.length - 1, log, stop.signal);
       out(`Flight followed: ${n} photos recorded in Loftline.`);
+      await report('finished', `Flight followed: ${n} photos recorded.`);
     }
+  } catch (err) {
+    await report('not-ready', (err instanceof Error ? err.message : String(err)).slice(0, 500));
+    throw err;
   } finally {
     ch.stop();
     await transport.close();

@@ -11,7 +11,7 @@ const param = z.number().nullable();
 const int32 = z.number().int().min(-2147483648).max(2147483647);
 
 /** What an item does in the plan (our names); `home` is the placeholder the link adds for autopilots that keep home as item 0. */
-export const missionItemKinds = ['home', 'takeoff', 'line-start', 'speed', 'first-photo', 'camera-on', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
+export const missionItemKinds = ['home', 'takeoff', 'line-start', 'speed', 'first-photo', 'camera-on', 'camera-spacing', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
 export const missionItemKindSchema = z.enum(missionItemKinds);
 export type MissionItemKind = z.infer<typeof missionItemKindSchema>;
 
@@ -48,13 +48,25 @@ export const missionItemSchema = z.object({
 });
 export type MissionItem = z.infer<typeof missionItemSchema>;
 
+/** Per leg of a line: the ground speed and photo spacing in force on it. */
+export const missionLegSettingSchema = z.object({
+  leg: z.number().int(),
+  /** Ground speed, m/s (MAV_CMD_DO_CHANGE_SPEED param2). */
+  speedMps: n,
+  /** Distance between photos, metres (MAV_CMD_DO_SET_CAM_TRIGG_DIST param1). */
+  triggerDistanceM: n,
+});
+export type MissionLegSetting = z.infer<typeof missionLegSettingSchema>;
+
 /** Per line: what the camera and the speed items set. */
 export const missionLineSchema = z.object({
   number: z.number().int(),
-  /** Distance between photos, metres (MAV_CMD_DO_SET_CAM_TRIGG_DIST param1). */
+  /** Distance between photos when the camera starts, metres (MAV_CMD_DO_SET_CAM_TRIGG_DIST param1). */
   triggerDistanceM: n,
-  /** Ground speed set on the line, m/s (MAV_CMD_DO_CHANGE_SPEED param2). */
+  /** Ground speed set at the line start, m/s (MAV_CMD_DO_CHANGE_SPEED param2). */
   speedMps: n,
+  /** Per leg, in flying order; solved plans vary both along a line. */
+  legs: z.array(missionLegSettingSchema),
   photoCount: z.number().int(),
   firstSeq: z.number().int(),
   lastSeq: z.number().int(),
@@ -89,3 +101,11 @@ export const missionItemsSchema = z.object({
   generatedAt: z.string(),
 });
 export type MissionItems = z.infer<typeof missionItemsSchema>;
+
+/** The smallest and largest photo spacing and ground speed over a line's legs (equal when the line flies one of each). */
+export function lineSettingRanges(line: MissionLine): { triggerDistanceM: { min: number; max: number }; speedMps: { min: number; max: number } } {
+  const t = line.legs.map((g) => g.triggerDistanceM);
+  const v = line.legs.map((g) => g.speedMps);
+  if (t.length === 0) return { triggerDistanceM: { min: line.triggerDistanceM, max: line.triggerDistanceM }, speedMps: { min: line.speedMps, max: line.speedMps } };
+  return { triggerDistanceM: { min: Math.min(...t), max: Math.max(...t) }, speedMps: { min: Math.min(...v), max: Math.max(...v) } };
+}

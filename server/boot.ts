@@ -8,6 +8,7 @@ import { createAuth, type Auth } from './auth/auth';
 import type { Config } from './config';
 import { routeGroups } from './routes';
 import { serviceFactories, type Services } from './services';
+import { endOpenStreams } from './http/open-streams';
 
 export interface RunningServer {
   url: string;
@@ -46,6 +47,7 @@ export async function bootServer(
     services,
     api,
     close: async () => {
+      endOpenStreams(services);
       await new Promise<void>((r) => server.close(() => r()));
       server.closeAllConnections?.();
       for (const cleanup of cleanups.reverse()) await cleanup().catch(() => undefined);

@@ -39,6 +39,8 @@ const envSchema = z.object({
   DEM_MAX_PIXELS: z.coerce.number().int().min(1).max(2 ** 30).default(2 ** 27),
   /** Longest one terrain task (reading an upload, one analysis) may run before its thread is stopped and replaced. */
   TERRAIN_TASK_SECONDS: z.coerce.number().positive().max(86_400).default(300),
+  /** Least time between two live-coverage runs of one version while it is flown (new photos wait for the next run). */
+  LIVE_COVERAGE_SECONDS: z.coerce.number().min(0).max(600).default(5),
   /** Crash debris (partial uploads, stored grids without a site) older than this is removed. */
   ORPHAN_GRACE_MINUTES: z.coerce.number().positive().max(10_080).default(60),
   /** How often storage is swept for crash debris (also once at start). */

@@ -85,6 +85,17 @@ export function cellFails(r: CoverageRaster, spec: CoverageSpec, i: number): boo
   return false;
 }
 
+/** A mask as a map image: white and opaque where `mask[i]` is set, transparent elsewhere (one pixel per cell). */
+export function maskPng(width: number, height: number, mask: Uint8Array): Uint8Array {
+  const rgba = new Uint8Array(width * height * 4);
+  for (let i = 0; i < width * height; i++) {
+    if (!mask[i]) continue;
+    const o = i * 4;
+    rgba[o] = rgba[o + 1] = rgba[o + 2] = rgba[o + 3] = 255;
+  }
+  return encode(width, height, rgba);
+}
+
 /** The three measure layers and the failing mask of a raster under a spec. */
 export function coverageLayers(r: CoverageRaster, spec: CoverageSpec): CoverageLayers {
   const { width, height, inside } = r.cells;

@@ -1,5 +1,6 @@
 /** The link's side of the Loftline API: sign in with e-mail and password, then fetch a signed-off version's mission items. */
 import { recordedTriggersSchema, type FlightTrigger } from '../../contracts/flight-triggers';
+import type { ReportLinkState } from '../../contracts/link-state';
 import { missionItemsSchema, type MissionItems } from '../../contracts/mission-items';
 
 /** A refusal or failure to show the crew as it is (one line). */
@@ -67,4 +68,14 @@ export async function recordTriggers(s: Session, teamId: string, versionId: stri
   const r = await call(s, 'POST', `/api/teams/${encodeURIComponent(teamId)}/flights/${encodeURIComponent(versionId)}/triggers`, { sortie, triggers });
   if (r.status !== 201) throw new LinkError(`Loftline did not take ${triggers.length} photos (${r.status}): ${errorText(r.body, r.status)}`);
   return recordedTriggersSchema.parse(r.body);
+}
+
+/** Tell Loftline which step the link is at (the leg sheet shows it); a report that does not get through is skipped, never fatal. */
+export async function reportLinkState(s: Session, teamId: string, versionId: string, report: ReportLinkState): Promise<boolean> {
+  try {
+    const r = await call(s, 'POST', `/api/teams/${encodeURIComponent(teamId)}/flights/${encodeURIComponent(versionId)}/link-state`, report);
+    return r.status === 201;
+  } catch {
+    return false;
+  }
 }

@@ -15,6 +15,7 @@ import { AsFlownCard } from '../as-flown/as-flown-card';
 import { BatteryPlanCard } from './battery-plan-card';
 import { ExportLinks } from './export-links';
 import { formatLatLon } from './leg-format';
+import { LiveCoverageCard } from './live-coverage-card';
 import { MissionItemsCard } from './mission-items-card';
 import { OfflineNotice } from './offline-notice';
 import { PreflightChecklist } from './preflight-checklist';
@@ -92,6 +93,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
         ))}
       </View>
       <MissionItemsCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
+      <LiveCoverageCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
       <AsFlownCard versionId={sheet.version.id} offline={offline} />
       {teamId ? <ExportLinks teamId={teamId} planId={sheet.version.planId} versionId={sheet.version.id} offline={offline} /> : null}
       <Text variant="label" tone="muted">

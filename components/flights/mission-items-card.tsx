@@ -1,4 +1,5 @@
 /** The leg sheet's autopilot hand-off: MAVLink item count, altitude frame, trigger distance and speed per line, download. */
+import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { UnitSystem } from '../../contracts/projects';
 import { formatLength, formatSpeed } from '../projects/units';
@@ -6,12 +7,13 @@ import { BulletList } from '../reports/bullet-list';
 import { DownloadLink } from '../reports/download-link';
 import { formatDayTime } from '../projects/format-date';
 import { space } from '../theme';
-import { Banner, Card, Heading, Loading, Text } from '../ui';
-import { useMissionItems } from './use-mission-items';
+import { Banner, Button, Card, Heading, Loading, Text } from '../ui';
+import { itemRowText, rangeText, useMissionItems } from './use-mission-items';
 
-/** testIDs mission-items, mission-items-count, mission-items-line-N, mission-items-recorded, mission-items-download. */
+/** testIDs mission-items, mission-items-count, mission-items-line-N, mission-items-toggle, mission-items-list, mission-items-recorded, mission-items-download. */
 export function MissionItemsCard(p: { teamId: string | undefined; versionId: string; signedOff: boolean; offline: boolean; units: UnitSystem }) {
   const h = useMissionItems(p.teamId, p.versionId, p.signedOff, p.offline);
+  const [listOpen, setListOpen] = useState(false);
   return (
     <Card testID="mission-items">
       <Heading level={2}>Autopilot hand-off (MAVLink mission items)</Heading>
@@ -26,10 +28,21 @@ export function MissionItemsCard(p: { teamId: string | undefined; versionId: str
           <View style={styles.lines} role="list">
             {h.lines.map((l) => (
               <Text key={l.number} role="listitem" testID={`mission-items-line-${l.number}`}>
-                Line {l.number}: a photo every {formatLength(l.triggerDistanceM, p.units, 1)} at {formatSpeed(l.speedMps, p.units)} ({l.photoCount} photos, items {l.firstSeq}–{l.lastSeq})
+                Line {l.number}: a photo every {rangeText(l.triggerDistanceM, (v) => formatLength(v, p.units, 1))} at {rangeText(l.speedMps, (v) => formatSpeed(v, p.units))}
+                {l.perLeg ? ', set leg by leg' : ''} ({l.photoCount} photos, items {l.firstSeq}–{l.lastSeq})
               </Text>
             ))}
           </View>
+          <Button label={listOpen ? 'Hide the items' : `Show the ${h.itemCount} items`} variant="quiet" size="compact" onPress={() => setListOpen(!listOpen)} style={styles.toggle} testID="mission-items-toggle" />
+          {listOpen ? (
+            <View style={styles.items} role="list" testID="mission-items-list">
+              {h.items.map((i) => (
+                <Text key={i.seq} variant="mono" role="listitem">
+                  {itemRowText(i, p.units)}
+                </Text>
+              ))}
+            </View>
+          ) : null}
           <Text testID="mission-items-recorded">
             {h.recorded === null
               ? 'Photos recorded as flown: not known yet.'
@@ -47,4 +60,4 @@ export function MissionItemsCard(p: { teamId: string | undefined; versionId: str
   );
 }
 
-const styles = StyleSheet.create({ body: { gap: space.md }, lines: { gap: space.xs } });
+const styles = StyleSheet.create({ body: { gap: space.md }, lines: { gap: space.xs }, items: { gap: 0 }, toggle: { alignSelf: 'flex-start' } });

@@ -1,7 +1,9 @@
 /** What the leg sheet's hand-off card shows: item count, altitude frame, trigger distance and speed per line, the download, photos recorded. */
-import type { MissionItems } from '../../contracts/mission-items';
+import { lineSettingRanges, type MissionItem, type MissionItems } from '../../contracts/mission-items';
 import type { FlightTrigger } from '../../contracts/flight-triggers';
+import type { UnitSystem } from '../../contracts/projects';
 import { errorMessage } from '../api/api-error';
+import { formatLength, formatSpeed } from '../projects/units';
 import { missionItemsPath, useFlightTriggersQuery, useMissionItemsQuery } from './mission-items.queries';
 
 export type MissionHandoff =
@@ -13,12 +15,86 @@ export type MissionHandoff =
       itemCount: number;
       frameName: string;
       reference: string;
-      lines: MissionItems['lines'];
+      lines: HandoffLine[];
+      /** Every item in one short row each, in upload order. */
+      items: ItemRow[];
       cautions: string[];
       downloadHref: string;
       /** Photos the link has recorded as flown (null until known). */
       recorded: { count: number; lastAt: string | null } | null;
     };
+
+/** A line as the card shows it: photo spacing and ground speed as ranges over its legs. */
+export interface HandoffLine {
+  number: number;
+  photoCount: number;
+  firstSeq: number;
+  lastSeq: number;
+  triggerDistanceM: { min: number; max: number };
+  speedMps: { min: number; max: number };
+  /** True when the legs of the line differ in spacing or speed (solved plans). */
+  perLeg: boolean;
+}
+
+/** One item in short: its MAVLink command without the MAV_CMD_ prefix, where it belongs, and the figure it sets. */
+export interface ItemRow {
+  seq: number;
+  command: string;
+  line: number | null;
+  leg: number | null;
+  /** Metres above the takeoff point (positioned items). */
+  altitudeAboveTakeoffM: number | null;
+  /** Ground speed set (DO_CHANGE_SPEED), m/s. */
+  speedMps: number | null;
+  /** Photo spacing set (DO_SET_CAM_TRIGG_DIST; 0 stops the camera), m. */
+  triggerDistanceM: number | null;
+}
+
+/** Pure: one item's short row. */
+export function itemRowOf(i: MissionItem): ItemRow {
+  const positioned = i.about.frameName !== 'MAV_FRAME_MISSION';
+  return {
+    seq: i.seq,
+    command: i.about.commandName.replace(/^MAV_CMD_/, ''),
+    line: i.about.line,
+    leg: i.about.leg,
+    altitudeAboveTakeoffM: positioned && i.about.kind !== 'return' ? i.z : null,
+    speedMps: i.about.kind === 'speed' ? i.param2 : null,
+    triggerDistanceM: i.about.kind === 'camera-on' || i.about.kind === 'camera-spacing' || i.about.kind === 'camera-off' ? i.param1 : null,
+  };
+}
+
+/** A range as text: one figure when both ends agree, else "min–max". */
+export const rangeText = (r: { min: number; max: number }, f: (v: number) => string) => (r.min === r.max ? f(r.min) : `${f(r.min)}–${f(r.max)}`);
+
+/** One item in a short line: seq, command, place in the plan, the figure it sets (heights above the takeoff point). */
+export function itemRowText(i: ItemRow, units: UnitSystem): string {
+  const where = i.line === null ? '' : ` · line ${i.line}${i.leg === null ? '' : ` leg ${i.leg}`}`;
+  const figure =
+    i.altitudeAboveTakeoffM !== null
+      ? ` · ${formatLength(i.altitudeAboveTakeoffM, units, 1)} above takeoff`
+      : i.speedMps !== null
+        ? ` · ${formatSpeed(i.speedMps, units, 2)}`
+        : i.triggerDistanceM !== null
+          ? i.triggerDistanceM === 0
+            ? ' · camera off'
+            : ` · a photo every ${formatLength(i.triggerDistanceM, units, 2)}`
+          : '';
+  return `${i.seq} ${i.command}${where}${figure}`;
+}
+
+/** Pure: a line's figures for the card. */
+export function handoffLineOf(l: MissionItems['lines'][number]): HandoffLine {
+  const r = lineSettingRanges(l);
+  return {
+    number: l.number,
+    photoCount: l.photoCount,
+    firstSeq: l.firstSeq,
+    lastSeq: l.lastSeq,
+    ...r,
+    perLeg: r.triggerDistanceM.min !== r.triggerDistanceM.max || r.speedMps.min !== r.speedMps.max,
+  };
+}
 
 /** Pure: the card's state from the sheet's facts and the query's. */
 export function missionHandoffOf(q: { signedOff: boolean; offline: boolean; teamId: string | undefined; versionId: string; data?: MissionItems; error?: unknown; loading: boolean; triggers?: FlightTrigger[] }): MissionHandoff {
@@ -29,7 +105,8 @@ export function missionHandoffOf(q: { signedOff: boolean; offline: boolean; team
       itemCount: q.data.items.length,
       frameName: q.data.altitude.frameName,
       reference: q.data.altitude.reference,
-      lines: q.data.lines,
+      lines: q.data.lines.map(handoffLineOf),
+      items: q.data.items.map(itemRowOf),
       cautions: q.data.cautions,
       downloadHref: missionItemsPath(q.teamId, q.versionId, true),
       recorded: q.triggers ? { count: q.triggers.length, lastAt: q.triggers.reduce<string | null>((a, t) => (a === null || t.capturedAt > a ? t.capturedAt : a), null) } : null,

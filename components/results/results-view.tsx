@@ -9,6 +9,7 @@ import { MapCanvas } from '../map/map-canvas';
 import { space } from '../theme';
 import { Banner, Card, Heading, Text } from '../ui';
 import { CoverageCard } from '../coverage/coverage-card';
+import { LiveCoverageMapCard } from '../coverage/live-coverage-map-card';
 import type { HillshadeInfo } from '../../contracts/sites';
 import { HeadingAdvice } from './heading-advice';
 import { LinesTable } from './lines-table';
@@ -25,7 +26,7 @@ export type ResultsViewProps = {
   clearanceTotalM: number;
   datum: string;
   /** The version whose coverage of every ground cell is shown (with the site's hillshade placement). */
-  coverage?: { teamId: string | undefined; planId: string; versionId: string; hillshade: HillshadeInfo };
+  coverage?: { teamId: string | undefined; planId: string; versionId: string; hillshade: HillshadeInfo; signedOff?: boolean };
 };
 
 /** Standing cautions are shown once by FlightCautions; the rest of the engine's warnings are listed in its words. */
@@ -48,7 +49,12 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
     </Card>
   );
   const proof = coverage ? (
-    <CoverageCard {...coverage} georef={georef} hillshadeUrl={hillshadeUrl} baseShapes={v.shapes} view={v.view} />
+    <>
+      <CoverageCard {...coverage} georef={georef} hillshadeUrl={hillshadeUrl} baseShapes={v.shapes} view={v.view} />
+      {coverage.signedOff ? (
+        <LiveCoverageMapCard teamId={coverage.teamId} versionId={coverage.versionId} hillshade={coverage.hillshade} hillshadeUrl={hillshadeUrl} georef={georef} baseShapes={v.shapes} view={v.view} units={units} />
+      ) : null}
+    </>
   ) : null;
   const chart = v.selectedLine ? (
     <Card testID="results-chart">

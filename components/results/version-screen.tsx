@@ -79,7 +79,7 @@ export function VersionScreen() {
             units={project.data?.units ?? 'metric'}
             clearanceTotalM={clearanceTotalM}
             datum={site.data.verticalDatum}
-            coverage={{ teamId: team?.id, planId: String(planId), versionId: String(versionId), hillshade: site.data.hillshade }}
+            coverage={{ teamId: team?.id, planId: String(planId), versionId: String(versionId), hillshade: site.data.hillshade, signedOff: v.reviewState === 'signed_off' }}
           />
         ) : null}
         {v?.analysisState === 'done' && !v.result ? <Banner tone="danger" message="This version is marked done but carries no result." /> : null}

@@ -8,14 +8,17 @@
 import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, checkAsFlown, inspectDem, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import { analyseMission, checkAsFlown, inspectDem, nodeInflate, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
 import type { AsFlownCheckDocument } from '../../terrain/as-flown-document';
+import { analyseLiveCoverage, type LiveAnalysis } from '../mission-items/live-coverage.task';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
+import type { PlanResult } from '../../terrain/index';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
   | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions }
-  | { id: number; kind: 'as-flown'; bytes: Uint8Array; mission: unknown; photos: readonly FlownPhoto[]; opts?: AnalyseMissionOptions };
+  | { id: number; kind: 'as-flown'; bytes: Uint8Array; mission: unknown; photos: readonly FlownPhoto[]; opts?: AnalyseMissionOptions }
+  | { id: number; kind: 'live-coverage'; bytes: Uint8Array; mission: unknown; plan: PlanResult; photos: FlownPhoto[] };
 
 export type ThreadReply =
   | { id: number; progress: number }
@@ -43,6 +46,8 @@ export interface TerrainRunner {
   analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
   /** A photo log checked against the plan of `mission` (terrain/as-flown-document.ts). */
   asFlown(bytes: Uint8Array, mission: unknown, photos: readonly FlownPhoto[], opts?: AnalyseMissionOptions): Promise<AsFlownCheckDocument>;
+  /** Photos as flown so far against a stored plan (live coverage). */
+  liveCoverage(bytes: Uint8Array, mission: unknown, plan: PlanResult, photos: FlownPhoto[]): Promise<LiveAnalysis>;
   close(): Promise<void>;
 }
 
@@ -83,6 +88,7 @@ export function createInlineTerrainRunner(): TerrainRunner {
     inspect: (bytes, opts) => inspectDem(bytes, opts),
     analyse: (bytes, mission, onProgress, o) => analyseMission(bytes, mission, onProgress, o),
     asFlown: (bytes, mission, photos, o) => checkAsFlown(bytes, mission, photos, o),
+    liveCoverage: (bytes, mission, plan, photos) => analyseLiveCoverage(bytes, mission, plan, photos, nodeInflate),
     close: async () => {},
   };
 }
@@ -164,6 +170,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
     inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
     analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
     asFlown: (bytes, mission, photos, o) => run<AsFlownCheckDocument>({ kind: 'as-flown', bytes, mission, photos, opts: o }),
+    liveCoverage: (bytes, mission, plan, photos) => run<LiveAnalysis>({ kind: 'live-coverage', bytes, mission, plan, photos }),
     async close() {
       closed = true;
       for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));

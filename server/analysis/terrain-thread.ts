@@ -1,6 +1,7 @@
 /** Entry of a terrain thread: runs the tasks of terrain-tasks.ts on messages from terrain-pool.ts. */
 import { parentPort } from 'node:worker_threads';
-import { analyseMission, analysisTransfer, checkAsFlown, inspectDem } from './terrain-tasks';
+import { analyseMission, analysisTransfer, checkAsFlown, inspectDem, nodeInflate } from './terrain-tasks';
+import { analyseLiveCoverage } from '../mission-items/live-coverage.task';
 import type { ThreadReply, ThreadTask } from './terrain-pool';
 
 const port = parentPort;
@@ -14,6 +15,8 @@ port.on('message', async (task: ThreadTask) => {
       reply({ id: task.id, ok: true, value: r }, [r.hillshade.png.buffer as ArrayBuffer]);
     } else if (task.kind === 'as-flown') {
       reply({ id: task.id, ok: true, value: await checkAsFlown(task.bytes, task.mission, task.photos, task.opts) });
+    } else if (task.kind === 'live-coverage') {
+      reply({ id: task.id, ok: true, value: await analyseLiveCoverage(task.bytes, task.mission, task.plan, task.photos, nodeInflate) });
     } else {
       const r = await analyseMission(task.bytes, task.mission, (pct) => reply({ id: task.id, progress: pct }), task.opts);
       reply({ id: task.id, ok: true, value: r }, analysisTransfer(r));

@@ -5,8 +5,10 @@
  * Sequence (MAVLink mission protocol, mavlink.io/en/services/mission.html; commands from common.xml):
  *   MAV_CMD_NAV_TAKEOFF at the takeoff point to the first line's start altitude, then per line
  *   NAV_WAYPOINT line start, DO_CHANGE_SPEED (ground speed), NAV_WAYPOINT at the first photo station,
- *   DO_SET_CAM_TRIGG_DIST (trigger distance, one photo at once), NAV_WAYPOINT at every change of leg,
- *   NAV_WAYPOINT line end, DO_SET_CAM_TRIGG_DIST 0 (camera off); finally MAV_CMD_NAV_RETURN_TO_LAUNCH.
+ *   DO_SET_CAM_TRIGG_DIST (trigger distance, one photo at once), NAV_WAYPOINT at every change of leg (followed by
+ *   DO_CHANGE_SPEED where the leg's speed differs from the one in force, and DO_SET_CAM_TRIGG_DIST where its photo
+ *   spacing differs once the camera runs), NAV_WAYPOINT line end, DO_SET_CAM_TRIGG_DIST 0 (camera off); finally
+ *   MAV_CMD_NAV_RETURN_TO_LAUNCH.
  * A DO command runs once the aircraft reaches the NAV item before it, so the camera starts on the first station
  * (the run-in before it stays free of photos, and later photos fall on the planned stations) and stops at the line end.
  */
@@ -29,6 +31,8 @@ export interface BuilderLeg {
   altitudeEndAboveTakeoffM: number;
   /** A ground speed of the leg's own, where the plan states one; else the line's. */
   speedMps?: number;
+  /** A photo spacing of the leg's own (solved plans: the tightest spacing of its stations); else the leg's before it, else the line's. */
+  triggerDistanceM?: number;
 }
 
 export interface BuilderLine {
@@ -76,10 +80,23 @@ interface Stop {
   point: AlongPoint;
   altitudeM: number;
   leg: number;
-  /** A leg starts here with this speed. */
-  speedMps?: number;
+  /** Leg `leg` starts here (its speed and photo spacing take effect). */
+  startsLeg?: boolean;
   /** The camera starts here (the line's first photo station). */
   cameraOn?: boolean;
+}
+
+/** Per leg, the speed and photo spacing in force on it: its own, else carried from the leg before, else the line's. */
+export function legSettings(line: BuilderLine): Array<{ speedMps: number; triggerDistanceM: number }> {
+  const ownTrigger = (g: BuilderLeg) => (g.triggerDistanceM !== undefined && g.triggerDistanceM > 0 ? g.triggerDistanceM : undefined);
+  // Legs before the first one with a spacing of its own take that one (solved legs with one station state none).
+  let trigger = ownTrigger(line.legs.find((g) => ownTrigger(g) !== undefined) ?? line.legs[0] ?? ({} as BuilderLeg)) ?? line.triggerDistanceM;
+  let speed = line.speedMps;
+  return line.legs.map((g) => {
+    trigger = ownTrigger(g) ?? trigger;
+    speed = g.speedMps !== undefined && g.speedMps > 0 ? g.speedMps : speed;
+    return { speedMps: speed, triggerDistanceM: trigger };
+  });
 }
 
 /** The NAV stops of one line in flying order, the first photo station among them. */
@@ -87,12 +104,12 @@ function stopsOf(line: BuilderLine): Stop[] {
   const stops: Stop[] = [];
   line.legs.forEach((leg, gi) => {
     const legNo = gi + 1;
-    if (gi === 0) stops.push({ kind: 'line-start', point: leg.start, altitudeM: leg.altitudeStartAboveTakeoffM, leg: legNo, speedMps: leg.speedMps ?? line.speedMps });
+    if (gi === 0) stops.push({ kind: 'line-start', point: leg.start, altitudeM: leg.altitudeStartAboveTakeoffM, leg: legNo, startsLeg: true });
     else {
       const prev = line.legs[gi - 1];
       const joined = samePlace(prev.end, leg.start) && Math.abs(prev.altitudeEndAboveTakeoffM - leg.altitudeStartAboveTakeoffM) < 1e-6;
       if (!joined) stops.push({ kind: 'leg-change', point: prev.end, altitudeM: prev.altitudeEndAboveTakeoffM, leg: legNo - 1 });
-      stops.push({ kind: 'leg-change', point: leg.start, altitudeM: leg.altitudeStartAboveTakeoffM, leg: legNo, speedMps: leg.speedMps });
+      stops.push({ kind: 'leg-change', point: leg.start, altitudeM: leg.altitudeStartAboveTakeoffM, leg: legNo, startsLeg: true });
     }
     if (gi === line.legs.length - 1) stops.push({ kind: 'line-end', point: leg.end, altitudeM: leg.altitudeEndAboveTakeoffM, leg: legNo });
   });
@@ -147,16 +164,41 @@ export function buildMissionItems(input: BuilderInput): { items: MissionItem[]; 
     if (line.legs.length === 0) return;
     const number = li + 1;
     const firstSeq = items.length;
+    const settings = legSettings(line);
+    // Speed is set at every line start (the turn before it may have flown at another); later only where it changes.
+    let speedInForce: number | undefined;
+    let cameraDistance: number | undefined;
     for (const stop of stopsOf(line)) {
+      const own = settings[stop.leg - 1];
       // NAV_WAYPOINT params: hold 0 s, acceptance and pass radius 0 (autopilot default), yaw NaN (unchanged).
       positioned(stop.kind, MavCmd.NAV_WAYPOINT, stop.point, stop.altitudeM, number, stop.leg, [0, 0, 0, null]);
       // DO_CHANGE_SPEED: param1 speed type (ground speed), param2 m/s, param3 throttle -1 (no change).
-      if (stop.speedMps !== undefined) action('speed', MavCmd.DO_CHANGE_SPEED, number, stop.leg, [SpeedType.GROUNDSPEED, stop.speedMps, -1, 0]);
+      if (stop.startsLeg && own.speedMps !== speedInForce) {
+        action('speed', MavCmd.DO_CHANGE_SPEED, number, stop.leg, [SpeedType.GROUNDSPEED, own.speedMps, -1, 0]);
+        speedInForce = own.speedMps;
+      }
       // DO_SET_CAM_TRIGG_DIST: param1 distance m, param2 shutter integration 0 (ignore), param3 1 = one photo at once.
-      if (stop.cameraOn) action('camera-on', MavCmd.DO_SET_CAM_TRIGG_DIST, number, stop.leg, [line.triggerDistanceM, 0, 1, 0]);
+      if (stop.cameraOn) {
+        action('camera-on', MavCmd.DO_SET_CAM_TRIGG_DIST, number, stop.leg, [own.triggerDistanceM, 0, 1, 0]);
+        cameraDistance = own.triggerDistanceM;
+      } else if (stop.startsLeg && cameraDistance !== undefined && own.triggerDistanceM !== cameraDistance) {
+        // A new spacing on a running camera. common.xml does not say whether the distance count restarts there; one
+        // photo at the change (param3 1) keeps every gap within the planned spacing either way, at one photo's cost.
+        action('camera-spacing', MavCmd.DO_SET_CAM_TRIGG_DIST, number, stop.leg, [own.triggerDistanceM, 0, 1, 0]);
+        cameraDistance = own.triggerDistanceM;
+      }
       if (stop.kind === 'line-end') action('camera-off', MavCmd.DO_SET_CAM_TRIGG_DIST, number, stop.leg, [0, 0, 0, 0]);
     }
-    lines.push({ number, triggerDistanceM: line.triggerDistanceM, speedMps: line.speedMps, photoCount: line.stations.length, firstSeq, lastSeq: items.length - 1 });
+    const cameraOn = items.slice(firstSeq).find((i) => i.about.kind === 'camera-on');
+    lines.push({
+      number,
+      triggerDistanceM: cameraOn?.param1 ?? settings[0].triggerDistanceM,
+      speedMps: settings[0].speedMps,
+      legs: settings.map((s, gi) => ({ leg: gi + 1, ...s })),
+      photoCount: line.stations.length,
+      firstSeq,
+      lastSeq: items.length - 1,
+    });
   });
   action('return', MavCmd.NAV_RETURN_TO_LAUNCH, null, null, [0, 0, 0, 0]);
   return { items, lines };

@@ -1,24 +1,18 @@
 /** The mission items of one stored version: signed-off versions only, heights above the takeoff point, cautions included. */
 import { missionCautions } from '../../contracts/cautions';
+import { planLegSchema } from '../../contracts/plan-result';
 import type { MissionItems } from '../../contracts/mission-items';
 import { reviewStateSchema } from '../../contracts/reviews';
 import { AppError } from '../http/errors';
-import { heightDatumOf, readMission, readResult, requireAnalysed, takeoffGroundM } from '../reports/result-view';
+import { heightDatumOf, readMission, readResult, requireAnalysed, takeoffGroundM, type ResultView } from '../reports/result-view';
+import type { Mission } from '../../terrain/mission';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { altitudeFrame, buildMissionItems, protocolUsed, type BuilderLine } from './mission-items.build';
 
-const finite = (x: unknown): number | undefined => (typeof x === 'number' && Number.isFinite(x) ? x : undefined);
+/** The per-leg figures a solved plan adds to a leg (contracts/plan-result.ts), read where present. */
+const solvedLegSchema = planLegSchema.pick({ speedMps: true, triggerDistanceM: true });
 
-/** The smallest photo spacing any leg of a line states (solved plans), or undefined when none does. */
-function tightestLegTrigger(legs: readonly unknown[]): number | undefined {
-  let best: number | undefined;
-  for (const g of legs) {
-    const t = (g as { triggerDistanceM?: { min?: unknown } }).triggerDistanceM;
-    const v = finite(t?.min);
-    if (v !== undefined && v > 0 && (best === undefined || v < best)) best = v;
-  }
-  return best;
-}
+const finite = (x: unknown): number | undefined => (typeof x === 'number' && Number.isFinite(x) ? x : undefined);
 
 /** 409 unless the version is signed off: an aircraft gets nothing a surveyor has not signed. */
 export function requireSignedOff(v: Pick<VersionRecord, 'reviewState' | 'number'>): void {
@@ -28,29 +22,38 @@ export function requireSignedOff(v: Pick<VersionRecord, 'reviewState' | 'number'
   }
 }
 
+/** The builder's lines from a stored analysis: the legs' own speed and photo spacing where the solver stated them, else the mission's speed and the plan's air base. */
+export function builderLinesOf(view: ResultView, mission: Pick<Mission, 'speedMps'>, versionNumber: number): BuilderLine[] {
+  const planTrigger = finite((view.summary as Record<string, unknown>).triggerDistanceM);
+  if (planTrigger === undefined || planTrigger <= 0) throw new Error(`Stored analysis of version ${versionNumber} has no trigger distance.`);
+  return view.lines.map((l) => ({
+    // Solved plans state a speed and a photo spacing per leg; a plan analysed from the mission's settings flies the
+    // mission's speed and the plan's air base (summary.triggerDistanceM, the spacing its stations were laid at).
+    triggerDistanceM: planTrigger,
+    speedMps: mission.speedMps,
+    stations: l.stations.map((s) => ({ lon: s.lon, lat: s.lat, distanceM: s.distanceM })),
+    legs: l.legs.map((g) => {
+      const own = solvedLegSchema.safeParse(g);
+      return {
+        start: g.start,
+        end: g.end,
+        altitudeStartAboveTakeoffM: g.altitudeStartAboveTakeoffM,
+        altitudeEndAboveTakeoffM: g.altitudeEndAboveTakeoffM,
+        speedMps: own.success ? own.data.speedMps : undefined,
+        // The leg's tightest spacing: a distance trigger fires at one spacing, and the tightest keeps every planned overlap.
+        triggerDistanceM: own.success ? own.data.triggerDistanceM?.min : undefined,
+      };
+    }),
+  }));
+}
+
 /** The item list of a signed-off, analysed version; `now` is injected for reproducible output. */
 export function missionItemsOf(v: VersionRecord, now: Date = new Date()): MissionItems {
   requireAnalysed(v);
   requireSignedOff(v);
   const mission = readMission(v.input);
   const view = readResult(v.result);
-  const planTrigger = finite((view.summary as Record<string, unknown>).triggerDistanceM);
-  if (planTrigger === undefined || planTrigger <= 0) throw new Error(`Stored analysis of version ${v.number} has no trigger distance.`);
-  const lines: BuilderLine[] = view.lines.map((l) => ({
-    // A line or leg may state its own trigger distance or speed (passed through from the analysis); else the plan's.
-    // A solved plan states photo spacing per leg (a range along it); one distance per line keeps the tightest of them,
-    // so no stretch of the line gets fewer photos than it was proven with.
-    triggerDistanceM: finite((l as Record<string, unknown>).triggerDistanceM) ?? tightestLegTrigger(l.legs) ?? planTrigger,
-    speedMps: finite((l as Record<string, unknown>).speedMps) ?? mission.speedMps,
-    stations: l.stations.map((s) => ({ lon: s.lon, lat: s.lat, distanceM: s.distanceM })),
-    legs: l.legs.map((g) => ({
-      start: g.start,
-      end: g.end,
-      altitudeStartAboveTakeoffM: g.altitudeStartAboveTakeoffM,
-      altitudeEndAboveTakeoffM: g.altitudeEndAboveTakeoffM,
-      speedMps: finite((g as Record<string, unknown>).speedMps),
-    })),
-  }));
+  const lines = builderLinesOf(view, mission, v.number);
   const { items, lines: missionLines } = buildMissionItems({ takeoff: mission.takeoff, lines });
   const datum = heightDatumOf(v);
   const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';

@@ -1,12 +1,27 @@
 import { describe, expect, it } from 'vitest';
 import type { MissionItems } from '../../contracts/mission-items';
 import { ApiError } from '../../components/api/api-error';
-import { missionHandoffOf } from '../../components/flights/use-mission-items';
+import { handoffLineOf, itemRowOf, itemRowText, missionHandoffOf, rangeText } from '../../components/flights/use-mission-items';
+import { buildMissionItems } from '../../server/mission-items/mission-items.build';
+
+// One line due east at 54° N, three legs: the second slower and with tighter photos (as a solved plan states them).
+const at = (d: number) => ({ lon: d / 65_550, lat: 54, distanceM: d });
+const built = buildMissionItems({
+  takeoff: { lon: 0, lat: 54 },
+  lines: [{
+    triggerDistanceM: 25, speedMps: 10, stations: [at(5), at(30), at(55)],
+    legs: [
+      { start: at(0), end: at(100), altitudeStartAboveTakeoffM: 80, altitudeEndAboveTakeoffM: 80, speedMps: 10, triggerDistanceM: 24.5 },
+      { start: at(100), end: at(200), altitudeStartAboveTakeoffM: 80, altitudeEndAboveTakeoffM: 95.25, speedMps: 6.25, triggerDistanceM: 19.75 },
+      { start: at(200), end: at(300), altitudeStartAboveTakeoffM: 95.25, altitudeEndAboveTakeoffM: 95.25, speedMps: 10, triggerDistanceM: 24.5 },
+    ],
+  }],
+});
 
 const data = {
-  items: [{}, {}, {}],
+  items: built.items,
   altitude: { frameName: 'MAV_FRAME_GLOBAL_RELATIVE_ALT_INT', reference: 'metres above the takeoff point' },
-  lines: [{ number: 1, triggerDistanceM: 21.9, speedMps: 10, photoCount: 30, firstSeq: 1, lastSeq: 7 }],
+  lines: built.lines,
   cautions: ['Arm at the takeoff point.'],
 } as unknown as MissionItems;
 const base = { signedOff: true, offline: false, teamId: 't1', versionId: 'v 1', loading: false };
@@ -14,7 +29,7 @@ const base = { signedOff: true, offline: false, teamId: 't1', versionId: 'v 1', 
 describe('the leg sheet hand-off card state', () => {
   it('shows the item count, frame, lines and a download of the file for a signed-off version', () => {
     const h = missionHandoffOf({ ...base, data });
-    expect(h).toMatchObject({ kind: 'ready', itemCount: 3, frameName: 'MAV_FRAME_GLOBAL_RELATIVE_ALT_INT', downloadHref: '/api/teams/t1/flights/v%201/mission-items?download=1' });
+    expect(h).toMatchObject({ kind: 'ready', itemCount: 14, frameName: 'MAV_FRAME_GLOBAL_RELATIVE_ALT_INT', downloadHref: '/api/teams/t1/flights/v%201/mission-items?download=1' });
   });
 
   it('counts the photos recorded as flown and names the latest', () => {
@@ -36,5 +51,38 @@ describe('the leg sheet hand-off card state', () => {
   it('passes the server\'s refusal on', () => {
     const h = missionHandoffOf({ ...base, error: new ApiError(409, 'not_signed_off', 'Version 2 is not signed off.') });
     expect(h).toEqual({ kind: 'error', message: expect.stringContaining('Version 2 is not signed off.') });
+  });
+});
+
+describe('the hand-off card\'s lines and item rows', () => {
+  it('shows a line\'s photo spacing and speed as ranges when its legs differ', () => {
+    const l = handoffLineOf(built.lines[0]);
+    expect(l).toMatchObject({ triggerDistanceM: { min: 19.75, max: 24.5 }, speedMps: { min: 6.25, max: 10 }, perLeg: true, photoCount: 3 });
+    expect(rangeText(l.speedMps, (v) => `${v} m/s`)).toBe('6.25 m/s–10 m/s');
+    const one = handoffLineOf({ ...built.lines[0], legs: built.lines[0].legs.map((g) => ({ ...g, speedMps: 10, triggerDistanceM: 24.5 })) });
+    expect(one.perLeg).toBe(false);
+    expect(rangeText(one.triggerDistanceM, (v) => `${v} m`)).toBe('24.5 m');
+  });
+
+  it('writes every item in one short row naming its height reference, in metres or feet', () => {
+    const rows = built.items.map(itemRowOf);
+    expect(rows.map((r) => itemRowText(r, 'metric'))).toEqual([
+      '0 NAV_TAKEOFF · 80.0 m above takeoff',
+      '1 NAV_WAYPOINT · line 1 leg 1 · 80.0 m above takeoff',
+      '2 DO_CHANGE_SPEED · line 1 leg 1 · 10.00 m/s',
+      '3 NAV_WAYPOINT · line 1 leg 1 · 80.0 m above takeoff',
+      '4 DO_SET_CAM_TRIGG_DIST · line 1 leg 1 · a photo every 24.50 m',
+      '5 NAV_WAYPOINT · line 1 leg 2 · 80.0 m above takeoff',
+      '6 DO_CHANGE_SPEED · line 1 leg 2 · 6.25 m/s',
+      '7 DO_SET_CAM_TRIGG_DIST · line 1 leg 2 · a photo every 19.75 m',
+      '8 NAV_WAYPOINT · line 1 leg 3 · 95.3 m above takeoff',
+      '9 DO_CHANGE_SPEED · line 1 leg 3 · 10.00 m/s',
+      '10 DO_SET_CAM_TRIGG_DIST · line 1 leg 3 · a photo every 24.50 m',
+      '11 NAV_WAYPOINT · line 1 leg 3 · 95.3 m above takeoff',
+      '12 DO_SET_CAM_TRIGG_DIST · line 1 leg 3 · camera off',
+      '13 NAV_RETURN_TO_LAUNCH',
+    ]);
+    // 80 m is 262.5 ft (0.3048 m to the foot, exact by definition).
+    expect(itemRowText(rows[1], 'imperial')).toBe('1 NAV_WAYPOINT · line 1 leg 1 · 262.5 ft above takeoff');
   });
 });

@@ -196,7 +196,14 @@ describe.skipIf(skipWeb)('surveyor sign-off and the pilot leg sheet', () => {
       await page.getByTestId('mission-items-count').waitFor();
       await expect(page.getByTestId('mission-items-count').textContent()).resolves.toContain(`${mission.items.length} items. Altitudes in MAV_FRAME_GLOBAL_RELATIVE_ALT_INT`);
       await expect(page.getByTestId('mission-items-line-1').textContent()).resolves.toMatch(/^Line 1: a photo every .+ at .+ \(\d+ photos, items \d+–\d+\)$/);
+      // The compact item list, one row per item, heights named above takeoff.
+      await page.getByTestId('mission-items-toggle').click();
+      await expect(page.getByTestId('mission-items-list').getByRole('listitem').count()).resolves.toBe(mission.items.length);
+      await expect(page.getByTestId('mission-items-list').getByRole('listitem').first().textContent()).resolves.toMatch(/^0 NAV_TAKEOFF · .+ above takeoff$/);
+      await page.getByTestId('mission-items-toggle').click();
       await page.getByTestId('mission-items-recorded').filter({ hasText: 'No photos recorded as flown yet' }).waitFor();
+      // Live coverage over server-sent events: nothing flown yet.
+      await page.getByTestId('live-coverage-headline').filter({ hasText: 'No photos recorded yet' }).waitFor();
       await expect(page.getByTestId('mission-items-download').getAttribute('href')).resolves.toBe(`/api/teams/${teamId}/flights/${version.versionId}/mission-items?download=1`);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
       await shootWhole(page, 'phone-leg-sheet.png');

@@ -14,7 +14,7 @@ import type { MissionItems } from '../../contracts/mission-items';
 import { MavlinkChannel } from '../../cli/link/mavlink-channel';
 import { compareMission, downloadMission, uploadMission } from '../../cli/link/mission-transfer';
 import { openTransport, type Transport } from '../../cli/link/transport';
-import { analysedResult, createVersion, fixturePassword, freshTeam, type FreshTeam, type VersionFixture } from '../support/fixtures';
+import { analysedResult, createVersion, fixturePassword, freshTeam, solvedMission, solvedResult, type FreshTeam, type VersionFixture } from '../support/fixtures';
 import { enumValue, metresPerDeg, startSimVehicle, type SimVehicle } from '../support/sim-vehicle';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -23,6 +23,7 @@ let srv: TestServer;
 let team: FreshTeam;
 let signed: VersionFixture;
 let draft: VersionFixture;
+let solved: VersionFixture;
 let doc: MissionItems;
 let sheet: LegSheet;
 const open: Array<{ stop: () => unknown }> = [];
@@ -34,6 +35,7 @@ beforeAll(async () => {
   team = await freshTeam(srv, 'mavlink');
   signed = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', planName: 'Scar edge' });
   draft = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'in_review', planName: 'Scar edge draft' });
+  solved = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', planName: 'Scar edge solved', input: solvedMission(), result: solvedResult() });
   const r = await team.clients.pilot.get(itemsPath(signed));
   expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);
   doc = r.body;
@@ -69,6 +71,17 @@ describe('mission items of a version', () => {
   it('offers it as a file on request', async () => {
     const r = await team.clients.pilot.get(`${itemsPath(signed)}?download=1`);
     expect(r.headers.get('content-disposition')).toBe('attachment; filename="scar-edge-v1-mission-items.json"');
+  });
+
+  it('is also beside the flight exports, under the plan and version, with the same answers', async () => {
+    const beside = (v: VersionFixture) => `${v.path}/mission-items`;
+    const r = await team.clients.pilot.get(beside(signed));
+    expect(r.status).toBe(200);
+    expect({ ...r.body, generatedAt: null }).toEqual({ ...doc, generatedAt: null });
+    expect((await team.clients.planner.get(beside(draft))).status).toBe(409);
+    expect((await team.clients.pilot.get(beside(draft))).status).toBe(404);
+    // A version under another plan's path is not found.
+    expect((await team.clients.pilot.get(`/api/teams/${team.teamId}/plans/${draft.planId}/versions/${signed.versionId}/mission-items`)).status).toBe(404);
   });
 
   it('refuses a version that is not signed off: 409 for the planner, not found for the pilot', async () => {
@@ -122,6 +135,81 @@ describe('upload to a simulated aircraft on an independent MAVLink implementatio
 
     const back = await downloadMission(ch, { timeoutMs: 1500, retries: 5, log: () => undefined });
     expect(compareMission(doc.items, back)).toEqual([]);
+  });
+
+  it('a solved version: each leg\'s own speed and tightest photo spacing decode exactly, altitudes are datum heights less the takeoff ground', async () => {
+    const r = await team.clients.pilot.get(itemsPath(solved));
+    expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);
+    const solvedDoc: MissionItems = r.body;
+    const sim = await startSimVehicle();
+    open.push(sim);
+    const ch = await linkTo(sim);
+    await uploadMission(ch, solvedDoc.items, { timeoutMs: 1500, retries: 5, log: () => undefined });
+    expect(sim.items).toHaveLength(solvedDoc.items.length);
+    const v = (name: string) => enumValue(sim.codec, name);
+    const WP = v('MAV_CMD_NAV_WAYPOINT');
+    const SPEED = v('MAV_CMD_DO_CHANGE_SPEED');
+    const TRIGG = v('MAV_CMD_DO_SET_CAM_TRIGG_DIST');
+    const plan = solvedResult();
+    const groundM = plan.takeoff.groundM;
+    let spacingChanges = 0;
+    let speedChanges = 0;
+    plan.lines.forEach((line, li) => {
+      const m = solvedDoc.lines[li];
+      const own = sim.items.slice(m.firstSeq, m.lastSeq + 1);
+      // Play the decoded items as an autopilot would (mavlink.io mission protocol: a DO item runs once the NAV item
+      // before it is reached): the speed and spacing in force on each leg are the leg's own, as float32 (common.xml
+      // MISSION_ITEM_INT param1..4 are float), so exact.
+      let speed = NaN;
+      let camera = 0;
+      let leg = 0;
+      const checkLeg = () => {
+        if (leg === 0) return;
+        const g = line.legs[leg - 1];
+        expect(speed).toBe(Math.fround(g.speedMps!));
+        if (camera !== 0) expect(camera).toBe(Math.fround(g.triggerDistanceM!.min));
+      };
+      own.forEach((it, k) => {
+        if (it.command === WP) {
+          // Which leg a waypoint belongs to is the item's place along the line; take it from the JSON's about.
+          leg = solvedDoc.items[m.firstSeq + k].about.leg!;
+          expect(it.frame).toBe(v('MAV_FRAME_GLOBAL_RELATIVE_ALT_INT'));
+        }
+        if (it.command === SPEED) speed = it.param2;
+        if (it.command === TRIGG) camera = it.param1;
+        if (it.command === TRIGG && it.param1 !== 0 && solvedDoc.items[m.firstSeq + k].about.kind === 'camera-spacing') spacingChanges++;
+        if (it.command === SPEED && solvedDoc.items[m.firstSeq + k].about.kind === 'speed' && solvedDoc.items[m.firstSeq + k].about.leg! > 1) speedChanges++;
+        const next = own[k + 1];
+        if (next === undefined || next.command === WP) checkLeg();
+      });
+      // Leg ends: the altitude above the takeoff point is the leg's height above the grid's datum less the takeoff's
+      // ground height above the same datum (both from the stored analysis), to 1 cm.
+      const wps = own.filter((i) => i.command === WP);
+      const starts = line.legs.map((g) => ({ lat: g.start.lat, lon: g.start.lon, z: g.altitudeStartM - groundM }));
+      for (const s of starts) {
+        const w = wps.find((x) => Math.abs(x.x / 1e7 - s.lat) <= 1e-7 && Math.abs(x.y / 1e7 - s.lon) <= 1e-7);
+        expect(w, `waypoint at ${s.lat}, ${s.lon}`).toBeDefined();
+        expect(Math.abs(w!.z - s.z)).toBeLessThanOrEqual(0.01);
+      }
+      const last = line.legs.at(-1)!;
+      expect(Math.abs(wps.at(-1)!.z - (last.altitudeEndM - groundM))).toBeLessThanOrEqual(0.01);
+    });
+    // The fixture slows legs over the hill and spaces photos by the ground under each leg: both kinds of change happen.
+    expect(speedChanges).toBeGreaterThan(0);
+    expect(spacingChanges).toBeGreaterThan(0);
+    expect(compareMission(solvedDoc.items, await downloadMission(ch, { timeoutMs: 1500, retries: 5, log: () => undefined }))).toEqual([]);
+  });
+
+  it('the read-back catches an aircraft that stores an item changed (a photo spacing rounded to whole metres)', async () => {
+    const on = doc.items.find((i) => i.about.kind === 'camera-on')!;
+    const rounded = Math.round(on.param1!);
+    expect(rounded).not.toBe(Math.fround(on.param1!));
+    const sim = await startSimVehicle({ alterItems: { [on.seq]: { param1: rounded } } });
+    open.push(sim);
+    const ch = await linkTo(sim);
+    await uploadMission(ch, doc.items, { timeoutMs: 1500, retries: 5, log: () => undefined });
+    const back = await downloadMission(ch, { timeoutMs: 1500, retries: 5, log: () => undefined });
+    expect(compareMission(doc.items, back)).toEqual([`item ${on.seq} param1: sent ${Math.fround(on.param1!)}, the aircraft holds ${rounded}`]);
   });
 
   it('sends an item again when the aircraft drops it and never asks for the next one', async () => {
@@ -286,6 +374,16 @@ describe('npm run link', () => {
     expect(sim.items).toHaveLength(doc.items.length + 1);
     expect(sim.items[1].command).toBe(enumValue(sim.codec, 'MAV_CMD_NAV_TAKEOFF'));
     expect(sim.items.slice(1).map((i) => [i.command, i.x, i.y])).toEqual(doc.items.map((i) => [i.command, i.x, i.y]));
+  });
+
+  it('says NOT ready when the aircraft holds an item other than the one sent', async () => {
+    const sim = await startSimVehicle({ alterItems: { 2: { z: 999 } } });
+    open.push(sim);
+    const r = await runLink(['--server', srv.url, '--email', team.users.pilot.email, '--password', fixturePassword, '--version', signed.versionId, '--udp', `127.0.0.1:${sim.port}`]);
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(new RegExp(`MISMATCH item 2 z: sent ${Math.fround(doc.items[2].z)}, the aircraft holds 999`));
+    expect(r.stderr).toMatch(/differs from version 1 in 1 places: NOT ready\./);
+    expect(r.stdout).not.toMatch(/READY/);
   });
 
   it('refuses a version that is not signed off and uploads nothing', async () => {

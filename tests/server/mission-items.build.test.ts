@@ -1,7 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildMissionItems, degE7, type BuilderInput } from '../../server/mission-items/mission-items.build';
 import type { MissionItem } from '../../contracts/mission-items';
-import { analysedResult, syntheticMission } from '../support/fixtures';
+import { builderLinesOf } from '../../server/mission-items/mission-items.view';
+import { readMission, readResult } from '../../server/reports/result-view';
+import { analysedResult, solvedMission, solvedResult, syntheticMission } from '../support/fixtures';
 import { enumValue, startSimVehicle, type SimVehicle } from '../support/sim-vehicle';
 
 // Enum values are looked up by name in the definitions the independent `mavlink` package (1.0.1) parsed from XML:
@@ -17,16 +19,29 @@ afterAll(async () => sim?.stop());
 const result = analysedResult();
 const mission = syntheticMission();
 
-function input(overrides: { legSpeed?: number } = {}): BuilderInput {
+function input(): BuilderInput {
   return {
     takeoff: mission.takeoff,
     lines: result.lines.map((l) => ({
       triggerDistanceM: result.summary.triggerDistanceM,
       speedMps: mission.speedMps ?? 10,
       stations: l.stations,
-      legs: l.legs.map((g, i) => ({ ...g, speedMps: i === 1 ? overrides.legSpeed : undefined })),
+      legs: l.legs.map((g) => ({ ...g, speedMps: undefined, triggerDistanceM: undefined })),
     })),
   };
+}
+
+/** A straight line due east at 54° N: legs of `lengthsM` with the given own speeds and photo spacings, a station every 10 m from 5 m. */
+function eastLine(legs: Array<{ lengthM: number; speedMps?: number; triggerDistanceM?: number }>) {
+  const lonAt = (d: number) => d / 65_550; // about 65.5 km per degree of longitude at 54° N; the figure does not matter here
+  let d = 0;
+  const built = legs.map((g) => {
+    const leg = { start: { lon: lonAt(d), lat: 54, distanceM: d }, end: { lon: lonAt(d + g.lengthM), lat: 54, distanceM: d + g.lengthM }, altitudeStartAboveTakeoffM: 80, altitudeEndAboveTakeoffM: 80, speedMps: g.speedMps, triggerDistanceM: g.triggerDistanceM };
+    d += g.lengthM;
+    return leg;
+  });
+  const stations = Array.from({ length: Math.floor((d - 5) / 10) + 1 }, (_, k) => ({ lon: lonAt(5 + 10 * k), lat: 54, distanceM: 5 + 10 * k }));
+  return { triggerDistanceM: 25, speedMps: 10, stations, legs: built };
 }
 
 const kinds = (items: MissionItem[]) => items.map((i) => i.about.kind);
@@ -66,10 +81,70 @@ describe('mission items of a plan', () => {
     });
   });
 
-  it('changes speed on a leg that states its own speed', () => {
-    const { items } = buildMissionItems({ ...input({ legSpeed: 6 }), lines: input({ legSpeed: 6 }).lines.map((l) => ({ ...l, legs: [l.legs[0], { ...l.legs[0], start: l.legs[0].end, end: { ...l.legs[0].end, distanceM: l.legs[0].end.distanceM + 50 }, speedMps: 6 }] })) });
+  it('changes speed only where a leg\'s own speed differs from the one in force, and sets it at every line start', () => {
+    const line = eastLine([{ lengthM: 100 }, { lengthM: 100, speedMps: 6 }, { lengthM: 100, speedMps: 6 }, { lengthM: 100, speedMps: 10 }]);
+    const { items, lines } = buildMissionItems({ takeoff: { lon: 0, lat: 54 }, lines: [line, line] });
     const speeds = items.filter((i) => i.about.kind === 'speed');
-    expect(speeds.map((s) => s.param2)).toEqual(result.lines.flatMap(() => [10, 6]));
+    // Line start at the line's 10 m/s, leg 2 slows to 6, leg 3 keeps it (no item), leg 4 is back at 10.
+    expect(speeds.map((s) => [s.about.line, s.about.leg, s.param2])).toEqual([[1, 1, 10], [1, 2, 6], [1, 4, 10], [2, 1, 10], [2, 2, 6], [2, 4, 10]]);
+    expect(speeds.every((s) => s.command === cmd('MAV_CMD_DO_CHANGE_SPEED') && s.param1 === cmd('SPEED_TYPE_GROUNDSPEED'))).toBe(true);
+    expect(lines[0].legs.map((g) => g.speedMps)).toEqual([10, 6, 6, 10]);
+  });
+
+  it('sets a leg\'s own photo spacing where it differs once the camera runs, with one photo at the change', () => {
+    const line = eastLine([{ lengthM: 100, triggerDistanceM: 30 }, { lengthM: 100, triggerDistanceM: 30 }, { lengthM: 100, triggerDistanceM: 18.5 }, { lengthM: 100 }]);
+    const { items, lines } = buildMissionItems({ takeoff: { lon: 0, lat: 54 }, lines: [line] });
+    const trig = items.filter((i) => i.command === cmd('MAV_CMD_DO_SET_CAM_TRIGG_DIST'));
+    // common.xml, MAV_CMD_DO_SET_CAM_TRIGG_DIST: param1 distance (0 stops), param3 1 = trigger once immediately.
+    expect(trig.map((t) => [t.about.kind, t.about.leg, t.param1, t.param3])).toEqual([['camera-on', 1, 30, 1], ['camera-spacing', 3, 18.5, 1], ['camera-off', 4, 0, 0]]);
+    // A leg without a spacing of its own keeps the one in force.
+    expect(lines[0].legs.map((g) => g.triggerDistanceM)).toEqual([30, 30, 18.5, 18.5]);
+    expect(lines[0].triggerDistanceM).toBe(30);
+    // The spacing item follows the waypoint where leg 3 starts (a DO command runs once the NAV item before it is reached).
+    const at = items.findIndex((i) => i.about.kind === 'camera-spacing');
+    expect([items[at - 1].about.kind, items[at - 1].about.leg, items[at - 1].command]).toEqual(['leg-change', 3, cmd('MAV_CMD_NAV_WAYPOINT')]);
+  });
+
+  it('a solved plan flies each leg at its own speed with the camera at the leg\'s tightest photo spacing', () => {
+    const solved = solvedResult();
+    const view = readResult(solved);
+    const { items, lines } = buildMissionItems({ takeoff: readMission(solvedMission()).takeoff, lines: builderLinesOf(view, readMission(solvedMission()), 1) });
+    const WP = cmd('MAV_CMD_NAV_WAYPOINT');
+    const SPEED = cmd('MAV_CMD_DO_CHANGE_SPEED');
+    const TRIGG = cmd('MAV_CMD_DO_SET_CAM_TRIGG_DIST');
+    let changes = 0;
+    view.lines.forEach((line, li) => {
+      const own = items.slice(lines[li].firstSeq, lines[li].lastSeq + 1);
+      // Play the line's items in order: what is in force at each waypoint once the DO commands after it have run.
+      let speed = NaN;
+      let camera = 0;
+      const inForce: Array<{ leg: number; speed: number; camera: number }> = [];
+      own.forEach((it, k) => {
+        if (it.command === SPEED) speed = it.param2!;
+        if (it.command === TRIGG) camera = it.param1!;
+        const next = own[k + 1];
+        if ((next === undefined || next.command === WP) && own.slice(0, k + 1).some((x) => x.command === WP)) {
+          const wp = [...own.slice(0, k + 1)].reverse().find((x) => x.command === WP)!;
+          if (wp.about.kind !== 'line-end') inForce.push({ leg: wp.about.leg!, speed, camera });
+        }
+      });
+      const legs = solved.lines[li].legs;
+      for (const f of inForce) {
+        const g = legs[f.leg - 1];
+        expect(f.speed).toBe(g.speedMps);
+        if (f.camera !== 0) expect(f.camera).toBe(g.triggerDistanceM!.min);
+      }
+      // The camera runs from the first photo station's leg to the line end.
+      expect(own.filter((i) => i.about.kind === 'camera-on')).toHaveLength(1);
+      expect(own.at(-1)!.about.kind).toBe('camera-off');
+      // Speed items: one at the line start and one at each leg whose speed differs from the leg before.
+      const speedChanges = legs.slice(1).filter((g, k) => g.speedMps !== legs[k].speedMps).length;
+      expect(own.filter((i) => i.command === SPEED)).toHaveLength(1 + speedChanges);
+      changes += speedChanges;
+      expect(lines[li].legs.map((g) => [g.speedMps, g.triggerDistanceM])).toEqual(legs.map((g) => [g.speedMps, g.triggerDistanceM!.min]));
+    });
+    // The fixture's slow climb limit slows some legs over the hill (else this test would not test speed changes).
+    expect(changes).toBeGreaterThan(0);
   });
 
   it('puts a camera-on point between the legs it falls on, with the altitude of the leg under it', () => {

@@ -2,7 +2,7 @@
  * Letting Loftline lay the lines out, over real HTTP and the real queue: a plan whose mission says
  * `layoutBy: "solver"` is analysed by the solver; the stored result equals what the command line's
  * `terrain solve` prints for the same grid and stored mission, carries the solver's proof and reasons, and its
- * MAVLink items keep each line's tightest photo spacing and the speed of every leg.
+ * MAVLink items set each leg's own photo spacing and speed.
  */
 import fs from 'node:fs';
 import os from 'node:os';
@@ -58,18 +58,18 @@ describe('plans laid out by the solver', () => {
     expect(cov.document.summary.photoCount).toBe(result.summary.photoCount);
   });
 
-  it('hands the autopilot each line\'s tightest photo spacing and every leg\'s speed', async () => {
+  it('hands the autopilot every leg\'s own photo spacing and speed', async () => {
     await srv.db.update(planVersion).set({ reviewState: 'signed_off', signedOffBy: team.users.surveyor.id, signedOffAt: new Date() }).where(eq(planVersion.id, ids.versionId));
     const r = await team.clients.pilot.get(`/api/teams/${team.teamId}/flights/${ids.versionId}/mission-items`);
     expect(r.status).toBe(200);
     const items = missionItemsSchema.parse(r.body);
     const result = planResultSchema.parse((await team.clients.planner.get(versionPath)).body.result);
     const byIndex = [...result.lines].sort((a, b) => a.index - b.index);
-    items.lines.forEach((l, k) => {
-      // legs the solver spaced state their photo spacing; a line without any (the solver kept a uniform layout) has the plan's
-      const stated = byIndex[k].legs.flatMap((g) => (g.triggerDistanceM ? [g.triggerDistanceM.min] : []));
-      expect(l.triggerDistanceM).toBe(stated.length ? Math.min(...stated) : result.summary.triggerDistanceM);
-    });
+    // MAV_CMD_DO_SET_CAM_TRIGG_DIST (206): each leg's own tightest photo spacing is set on it (param1)
+    const triggers = new Set(items.items.filter((it) => it.command === 206 && it.param1 !== 0).map((it) => it.param1));
+    const legTriggers = new Set(byIndex.flatMap((l) => l.legs.flatMap((g) => (g.triggerDistanceM ? [g.triggerDistanceM.min] : []))));
+    expect(legTriggers.size).toBeGreaterThan(1);
+    for (const t of legTriggers) expect(triggers).toContain(t);
     // MAV_CMD_DO_CHANGE_SPEED (178): one per leg whose speed the solver set, with that speed (param2)
     const speeds = items.items.filter((it) => it.command === 178).map((it) => it.param2);
     const legSpeeds = byIndex.flatMap((l) => l.legs.map((g) => g.speedMps)).filter((x): x is number => x !== undefined);

@@ -13,6 +13,7 @@ import { createGrid, type Grid } from '../../terrain/grid';
 import { describeGrid } from '../../terrain/metadata';
 import type { MissionInput } from '../../terrain/mission';
 import { analysePlan } from '../../terrain/plan';
+import { solvePlan } from '../../terrain/solve';
 import type { PlanResultData } from '../../contracts/plan-result';
 import { ApiClient, uniqueEmail } from './http-client';
 import type { TestServer } from './test-server';
@@ -123,6 +124,22 @@ export function analysedResult(grid?: Grid): PlanResultData {
   return JSON.parse(defaultResultJson);
 }
 
+/**
+ * A mission the solver plans over the synthetic hill with slow climb and descent limits (0.2 m/s), so that legs over
+ * the hill fly slower than the mission's 10 m/s and every leg states its own photo spacing.
+ */
+export function solvedMission(): Record<string, unknown> {
+  return { ...syntheticMission({ mode: 'follow', climbMps: 0.2, descentMps: 0.2 }), spec: { maxGsdCm: 3.3, minViews: 2 }, envelope: { preset: 'multirotor' }, solve: { repairRounds: 1 } };
+}
+
+let solvedResultJson: string | null = null;
+
+/** The solver's plan of `solvedMission()` over the synthetic hill (legs carry speedMps and triggerDistanceM), as stored JSON. */
+export function solvedResult(): PlanResultData {
+  solvedResultJson ??= JSON.stringify(solvePlan(syntheticGrid(), solvedMission()));
+  return JSON.parse(solvedResultJson);
+}
+
 export interface VersionFixture {
   projectId: string;
   siteId: string;
@@ -141,6 +158,8 @@ export async function createVersion(
     reviewState?: ReviewState;
     analysisState?: 'queued' | 'running' | 'done' | 'failed';
     result?: unknown;
+    /** The stored mission (default: the synthetic mission). */
+    input?: unknown;
     surfaceKind?: 'bare-earth' | 'surface';
     planName?: string;
   },
@@ -172,7 +191,7 @@ export async function createVersion(
       createdBy: q.createdBy,
     })
     .returning({ id: site.id });
-  const input = syntheticMission();
+  const input = q.input ?? syntheticMission();
   const [pl] = await srv.db
     .insert(plan)
     .values({ teamId: q.teamId, projectId: p.id, siteId: s.id, name: q.planName ?? 'North bench', input, createdBy: q.createdBy })

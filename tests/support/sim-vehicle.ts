@@ -57,6 +57,8 @@ export interface SimVehicleOptions {
    * MAV_FRAME_GLOBAL at this place and height above mean sea level, and flying starts at item 1.
    */
   homeAtZero?: { lat: number; lon: number; altMslM: number };
+  /** Store these items changed (field values by seq), as an aircraft that rounds or clamps what it is sent; it still acknowledges. */
+  alterItems?: Record<number, Record<string, number>>;
 }
 
 export interface SimVehicle {
@@ -127,7 +129,7 @@ export async function startSimVehicle(o: SimVehicleOptions = {}): Promise<SimVeh
           break;
         }
         if (f.seq !== expected) break;
-        v.items[f.seq] = f.seq === 0 && o.homeAtZero ? { ...f, frame: 0, command: 16, x: Math.round(o.homeAtZero.lat * 1e7), y: Math.round(o.homeAtZero.lon * 1e7), z: o.homeAtZero.altMslM } : f;
+        v.items[f.seq] = f.seq === 0 && o.homeAtZero ? { ...f, frame: 0, command: 16, x: Math.round(o.homeAtZero.lat * 1e7), y: Math.round(o.homeAtZero.lon * 1e7), z: o.homeAtZero.altMslM } : { ...f, ...o.alterItems?.[f.seq] };
         expected++;
         if (expected < uploadCount) requestItem(expected);
         else send('MISSION_ACK', { target_system: gcs.sysid, target_component: gcs.compid, type: 0 });
