@@ -35,7 +35,7 @@ export function liveViewOf(doc: LiveCoverage, units: UnitSystem): LiveView {
     headline: `${doc.photoCount} photos recorded${where}${missed}. ${formatPercent(doc.flown?.shareAll ?? 0, 1)} of the area meets the whole spec so far.`,
     items: (doc.flown?.items ?? []).map((i) => `${i.asks}: ${formatPercent(i.share, 1)} of the area`),
     patches: passed && passed.shortCells > 0
-      ? passed.patches.map((p, k) => `${k + 1}. ${area(p.areaM2)} short of the spec around ${formatLatLon(p.centroid)}`)
+      ? passed.patches.map((p) => `${area(p.areaM2)} short of the spec around ${formatLatLon(p.centroid)}`)
       : [],
     refused: null,
   };

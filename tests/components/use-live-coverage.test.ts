@@ -17,9 +17,9 @@ describe('the leg sheet\'s live coverage', () => {
     expect(v.headline).toBe('120 photos recorded, last matched to line 3 station 14; 3 planned stations passed without a photo. 41.2 % of the area meets the whole spec so far.');
     expect(v.items).toEqual(['a view with GSD at most 3.3 cm: 50.0 % of the area', 'at least 2 views: 41.3 % of the area']);
     expect(v.patches).toHaveLength(2);
-    expect(v.patches[0]).toMatch(/^1\. 1,000 m² short of the spec around /);
+    expect(v.patches[0]).toMatch(/^1,000 m² short of the spec around /);
     // 1000 m² is 10,764 sq ft (0.3048 m to the foot, exact by definition).
-    expect(liveViewOf(base, 'imperial').patches[0]).toMatch(/^1\. 10,764 sq ft short/);
+    expect(liveViewOf(base, 'imperial').patches[0]).toMatch(/^10,764 sq ft short/);
   });
 
   it('lists no patch while nothing passed falls short, and passes a refusal on with its reason', () => {

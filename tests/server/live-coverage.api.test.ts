@@ -7,13 +7,10 @@ import crypto from 'node:crypto';
 import { PNG } from 'pngjs';
 import { spawn } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { LinkState } from '../../contracts/link-state';
 import type { LiveCoverage } from '../../contracts/live-coverage';
-import { site } from '../../db/schema';
 import { nodeInflate } from '../../server/analysis/terrain-tasks';
-import type { Storage } from '../../server/storage/storage';
 import { analyseAsFlown } from '../../terrain/as-flown';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import { coverageLayout, gridCellM } from '../../terrain/coverage-grid';
@@ -21,7 +18,7 @@ import { resolveCoverageInput } from '../../terrain/coverage-spec';
 import { writeFloat32GeoTiff } from '../../terrain/geotiff-write';
 import { missionBboxWgs84, readDem, WGS84, type PlanResult } from '../../terrain/index';
 import { resolveMission } from '../../terrain/mission';
-import { analysedResult, createVersion, fixturePassword, freshTeam, syntheticGrid, syntheticMission, type FreshTeam, type VersionFixture } from '../support/fixtures';
+import { analysedResult, createVersion, fixturePassword, freshTeam, storeSyntheticDem, syntheticGrid, syntheticMission, type FreshTeam, type VersionFixture } from '../support/fixtures';
 import { metresPerDeg, startSimVehicle } from '../support/sim-vehicle';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -32,10 +29,7 @@ let team: FreshTeam;
 /** A signed-off version whose site's grid (the synthetic hill) is in storage, as an upload would leave it. */
 async function flyableVersion(name: string): Promise<VersionFixture> {
   const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', planName: name });
-  const [s] = await srv.db.select({ storageKey: site.storageKey }).from(site).where(eq(site.id, v.siteId));
-  const g = syntheticGrid();
-  const tiff = writeFloat32GeoTiff({ width: g.width, height: g.height, bands: [g.data], bandNames: ['height'], transform: g.transform, epsg: g.crs.epsg!, geographic: false, nodata: -9999 });
-  await (srv.services.storage as Storage).put(s.storageKey, tiff);
+  await storeSyntheticDem(srv, v.siteId);
   return v;
 }
 

@@ -13,6 +13,8 @@ import { createGrid, type Grid } from '../../terrain/grid';
 import { describeGrid } from '../../terrain/metadata';
 import type { MissionInput } from '../../terrain/mission';
 import { analysePlan } from '../../terrain/plan';
+import { writeFloat32GeoTiff } from '../../terrain/geotiff-write';
+import type { Storage } from '../../server/storage/storage';
 import { solvePlan } from '../../terrain/solve';
 import type { PlanResultData } from '../../contracts/plan-result';
 import { ApiClient, uniqueEmail } from './http-client';
@@ -226,4 +228,12 @@ export async function eventually<T>(check: () => Promise<T | null | undefined | 
     if (Date.now() > deadline) throw new Error(`Timed out waiting for ${what}`);
     await new Promise((r) => setTimeout(r, 50));
   }
+}
+
+/** Put the synthetic hill, as a GeoTIFF, where the fixture site of `siteId` says its grid is (as an upload leaves it). */
+export async function storeSyntheticDem(srv: TestServer, siteId: string): Promise<void> {
+  const [s] = await srv.db.select({ storageKey: site.storageKey }).from(site).where(eq(site.id, siteId));
+  const g = syntheticGrid();
+  const tiff = writeFloat32GeoTiff({ width: g.width, height: g.height, bands: [g.data], bandNames: ['height'], transform: g.transform, epsg: g.crs.epsg!, geographic: false, nodata: -9999 });
+  await (srv.services.storage as Storage).put(s.storageKey, tiff);
 }
