@@ -6,6 +6,11 @@ import { check } from './errors';
 import { DEFAULT_MAX_COVERAGE_CELLS } from './coverage-grid';
 import { COVERAGE_RANGES } from './coverage-ranges';
 
+/** The GSD band's coarse end, without the float noise of the product (2.5 × 1.1 is 2.7500000000000004, said "2.75"). */
+function bandTopCm(mission: { targetGsdCm: number; gsdTolerance: number }): number {
+  return Number((mission.targetGsdCm * (1 + mission.gsdTolerance)).toPrecision(12));
+}
+
 /** What the client asks of every ground cell; each item one-sided. */
 export interface CoverageSpec {
   /** The coarsest GSD allowed anywhere: some view of every cell must be at least this fine (cm). */
@@ -58,7 +63,7 @@ export function resolveCoverageInput(input: unknown, mission: Mission): { spec: 
   const minViews = num(s, 'spec', 'minViews', 'minViews', 2);
   check(Number.isInteger(minViews), `spec.minViews must be a whole number, got ${minViews}.`);
   const spec: CoverageSpec = {
-    maxGsdCm: num(s, 'spec', 'maxGsdCm', 'maxGsdCm', mission.targetGsdCm * (1 + mission.gsdTolerance)),
+    maxGsdCm: num(s, 'spec', 'maxGsdCm', 'maxGsdCm', bandTopCm(mission)),
     minViews,
     maxSigmaVerticalM: num(s, 'spec', 'maxSigmaVerticalM', 'maxSigmaM', null),
     maxSigmaHorizontalM: num(s, 'spec', 'maxSigmaHorizontalM', 'maxSigmaM', null),
