@@ -6,6 +6,7 @@ import { missionBboxWgs84 } from '../terrain/plan';
 import { resolveMission } from '../terrain/mission';
 import { resolveCoverageInput } from '../terrain/coverage-spec';
 import { runAsFlownCheck } from '../terrain/as-flown-document';
+import { solvePlan } from '../terrain/solve';
 import { generalCautions } from '../contracts/cautions';
 import { PhotoLogError, parsePhotoLogCsv } from '../contracts/photo-log';
 import { CliError, nodeInflate, parseCommandArgs, readFileBytes } from './io';
@@ -47,5 +48,7 @@ export async function run(args: string[]): Promise<unknown> {
   const photos = await readPhotoLog(values.photos);
   const dem = await openDem(await readFileBytes(positionals[0]), { inflate: nodeInflate });
   const grid = await dem.read({ window: { bbox, crs: WGS84, marginPx: 2 } });
-  return { ...runAsFlownCheck(grid, input, photos, { verticalDatum: dem.header.verticalDatum, cellM: cellArg }), cautions: [...generalCautions] };
+  // a solved mission flies the solver's lines: the photos are matched to those, as the server does
+  const plan = (input as { layoutBy?: unknown }).layoutBy === 'solver' ? solvePlan(grid, input, { verticalDatum: dem.header.verticalDatum }) : undefined;
+  return { ...runAsFlownCheck(grid, input, photos, { verticalDatum: dem.header.verticalDatum, cellM: cellArg, plan }), cautions: [...generalCautions] };
 }

@@ -35,7 +35,8 @@ const complianceSchema = z.object({
 });
 
 export const asFlownDocSchema = z.object({
-  heights: z.object({ reference: z.string(), conversions: z.string() }),
+  /** `datum` names the heights' vertical datum on its own (checks stored before it was added lack it). */
+  heights: z.object({ datum: z.string().optional(), reference: z.string(), conversions: z.string() }),
   photos: z.object({ count: z.number().int(), attitudeAssumed: z.array(z.string()), attitudeNote: z.string().nullable(), leftOutFarAway: z.array(z.string()) }),
   matching: photoMatchSchema,
   spec: z.object({
@@ -56,6 +57,15 @@ export const asFlownDocSchema = z.object({
     extraLinesEachSide: z.array(z.number().int()), smallPatchCells: z.number().int(), smallPatches: z.string(),
     areas: z.array(z.object({ patches: z.number().int(), cells: z.number().int(), areaM2: z.number(), alongM: z.number(), acrossM: z.number(), polygon: z.object({ type: z.literal('Polygon'), coordinates: z.array(z.array(z.array(z.number()))) }) })),
     missions: z.array(z.record(z.string(), z.unknown())),
+    /** Stretches of the signed-off lines through the re-flight areas (checks stored before they existed lack them). */
+    stretches: z.object({
+      note: z.string(), offPlanLines: z.number().int(), lengthM: z.number(), timeS: z.number(), photos: z.number().int(),
+      items: z.array(z.object({
+        area: z.number().int(), line: z.number().int(), fromM: z.number(), toM: z.number(), lengthM: z.number(), headingDeg: z.number(),
+        start: lonLat, end: lonLat, firstPhoto: z.number().int().nullable(), lastPhoto: z.number().int().nullable(), photos: z.number().int(), timeS: z.number(),
+        legs: z.array(z.object({ fromM: z.number(), toM: z.number(), altitudeStartAboveTakeoffM: z.number(), altitudeEndAboveTakeoffM: z.number(), altitudeStartM: z.number(), altitudeEndM: z.number() })),
+      })),
+    }).optional(),
     lines: z.array(z.array(z.object({
       start: lonLat, end: lonLat, lengthM: z.number(), headingDeg: z.number(), photos: z.number().int(),
       legs: z.array(z.object({ startDistanceM: z.number(), endDistanceM: z.number(), altitudeStartAboveTakeoffM: z.number(), altitudeEndAboveTakeoffM: z.number(), altitudeStartM: z.number(), altitudeEndM: z.number() })),

@@ -13,6 +13,8 @@ import { resolveCoverageInput, type Compliance } from './coverage-spec';
 import { analyseAsFlown } from './as-flown';
 import type { FlownPhoto } from './as-flown-match';
 import { MIN_REFLIGHT_PATCH_SHARE, planReflight } from './reflight';
+import { reflightStretches } from './reflight-stretches';
+import type { PlanResult } from './plan-result';
 
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
 
@@ -29,6 +31,11 @@ export interface AsFlownCheckOptions {
   verticalDatum: { epsg: number | null; name: string } | null;
   /** Cell size asked for (metres); else the mission's coverage setting, else the grid's own resolution. */
   cellM?: number | null;
+  /**
+   * The plan the version flies, when it is not the mission's own `analysePlan` (a solved layout): the photos are
+   * matched to its stations and the re-flight's stretches are cut from its lines.
+   */
+  plan?: PlanResult;
 }
 
 /**
@@ -45,12 +52,13 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
   const rasterSettings = { cellM, maxCells: settings.maxCells, imageErrorPx: settings.imageErrorPx, occlusion: settings.occlusion };
   const analyseOpts = { verticalDatum: opts.verticalDatum };
   const t0 = performance.now();
-  const plan = analysePlan(grid, input, analyseOpts);
+  const plan = opts.plan ?? analysePlan(grid, input, analyseOpts);
   const t1 = performance.now();
   const a = analyseAsFlown(grid, mission, plan, photos, spec, rasterSettings);
   const t2 = performance.now();
   const reflight = planReflight(grid, input, mission, a, spec, rasterSettings, analyseOpts);
   const t3 = performance.now();
+  const stretches = reflight === null ? null : reflightStretches(plan, a.frame, reflight.areas, mission.speedMps);
   const toLonLat = createTransform(grid.crs, WGS84);
   const ll = (x: number, y: number) => { const [lon, lat] = a.frame.toLonLat(x, y); return { lon: round(lon, 7), lat: round(lat, 7) }; };
   const { cells } = a.flown;
@@ -58,6 +66,7 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
   const m = a.match;
   return {
     heights: {
+      datum: datumName,
       reference: `Altitudes and altitude errors are metres above ${datumName}.`,
       conversions: 'altitudeRef datum: as logged; ellipsoid: less the EGM96 geoid undulation there (EGM96 taken as the grid\'s datum: exact for EGM96 grids, a few decimetres off for national datums); takeoff: plus the grid\'s ground at the takeoff point'
         + ` (${round(plan.takeoff.groundM, 2)} m). EXIF GPSAltitude is above sea level and is read as datum.`,
@@ -106,6 +115,16 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
       smallPatches: `${reflight.smallPatchCells} lost cells lie in patches smaller than ${MIN_REFLIGHT_PATCH_SHARE} of one station's ground (air base × line spacing) and are not re-flown; they are listed under difference.patches.`,
       areas: reflight.areas.map((ar) => ({ patches: ar.patches, cells: ar.cells, areaM2: round(ar.areaM2, 1), alongM: round(ar.alongM, 1), acrossM: round(ar.acrossM, 1), polygon: ar.polygon })),
       missions: reflight.missions,
+      stretches: stretches === null ? undefined : {
+        note: 'Stretches of the signed-off lines through the re-flight areas, at the signed-off heights: they can be flown the same day. Lines beyond the plan\'s outer lines need the re-flight saved as a plan and signed off.',
+        offPlanLines: stretches.offPlanLines, lengthM: round(stretches.lengthM, 1), timeS: round(stretches.timeS, 1), photos: stretches.photos,
+        items: stretches.stretches.map((st) => ({
+          area: st.area, line: st.line, fromM: round(st.fromM, 3), toM: round(st.toM, 3), lengthM: round(st.lengthM, 3), headingDeg: round(st.headingDeg, 1),
+          start: { lon: round(st.start.lon, 7), lat: round(st.start.lat, 7) }, end: { lon: round(st.end.lon, 7), lat: round(st.end.lat, 7) },
+          firstPhoto: st.firstPhoto, lastPhoto: st.lastPhoto, photos: st.photos, timeS: round(st.timeS, 1),
+          legs: st.legs.map((g) => ({ fromM: round(g.fromM, 3), toM: round(g.toM, 3), altitudeStartAboveTakeoffM: round(g.altitudeStartAboveTakeoffM, 3), altitudeEndAboveTakeoffM: round(g.altitudeEndAboveTakeoffM, 3), altitudeStartM: round(g.altitudeStartM, 3), altitudeEndM: round(g.altitudeEndM, 3) })),
+        })),
+      },
       lines: reflight.plans.map((p) => p.lines.map((l) => ({ start: l.start, end: l.end, lengthM: l.lengthM, headingDeg: l.headingDeg, photos: l.stations.length, legs: l.legs.map((g) => ({ startDistanceM: g.start.distanceM, endDistanceM: g.end.distanceM, altitudeStartAboveTakeoffM: g.altitudeStartAboveTakeoffM, altitudeEndAboveTakeoffM: g.altitudeEndAboveTakeoffM, altitudeStartM: g.altitudeStartM, altitudeEndM: g.altitudeEndM })) }))),
     },
     timingMs: { plan: round(t1 - t0, 1), asFlown: round(t2 - t1, 1), reflight: round(t3 - t2, 1) },

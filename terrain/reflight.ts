@@ -23,6 +23,8 @@ export interface ReflightArea {
   alongM: number;
   acrossM: number;
   polygon: AreaPolygon;
+  /** The rectangle in the plan's heading frame of the local frame (a along the heading, c to its right; metres). */
+  box: { alongFromM: number; alongToM: number; acrossFromM: number; acrossToM: number };
 }
 
 /** Boxes [a0, a1, c0, c1] in the plan's heading frame (a along the heading, c to its right). */
@@ -94,7 +96,7 @@ export function reflightAreas(plan: PlanResult, frame: LocalFrame, cells: Covera
     const corner = (a: number, c: number) => frame.toLonLat(a * sin + c * cos, a * cos - c * sin);
     const ring = [corner(a0, cLo), corner(a1, cLo), corner(a1, cHi), corner(a0, cHi)];
     ring.push(ring[0]);
-    return { patches: np.length, patchIndices: np, cells: nc, areaM2: nc * cells.cellAreaM2, alongM: a1 - a0, acrossM: cHi - cLo, polygon: { type: 'Polygon' as const, coordinates: [ring.map(([lon, lat]) => [lon, lat])] } };
+    return { patches: np.length, patchIndices: np, cells: nc, areaM2: nc * cells.cellAreaM2, alongM: a1 - a0, acrossM: cHi - cLo, polygon: { type: 'Polygon' as const, coordinates: [ring.map(([lon, lat]) => [lon, lat])] }, box: { alongFromM: a0, alongToM: a1, acrossFromM: cLo, acrossToM: cHi } };
   });
 }
 

@@ -17,9 +17,11 @@ import { Badge, Banner, Button, Card, Heading, Loading, Text, TextLink } from '.
 import { missedRuns, offTrackLines } from '../../contracts/as-flown-words';
 import { useAsFlownCheck, type AsFlownCardState } from './use-as-flown-check';
 import { useReflightPlans, type ReflightOrigin } from './use-reflight-plans';
+import { ReflightStretches } from './reflight-stretches';
+import type { UnitSystem } from '../../contracts/projects';
 
 /** testIDs as-flown, as-flown-photos(-input), as-flown-csv(-input), as-flown-progress, as-flown-result, as-flown-check-N. */
-export function AsFlownCard(p: { versionId: string; offline: boolean; origin?: ReflightOrigin }) {
+export function AsFlownCard(p: { versionId: string; offline: boolean; origin?: ReflightOrigin; signedOff?: boolean | null; units?: UnitSystem }) {
   const s = useAsFlownCheck(p.versionId, { offline: p.offline });
   const reflight = useReflightPlans(p.origin);
   const busy = s.phase.kind === 'reading' || s.phase.kind === 'sending';
@@ -51,7 +53,7 @@ export function AsFlownCard(p: { versionId: string; offline: boolean; origin?: R
       {s.listError ? <Banner tone="danger" title="Could not load the checks" message={s.listError} /> : null}
       {s.checks && s.checks.length === 0 && !busy ? <Text testID="as-flown-none">No photos checked for this version yet.</Text> : null}
       {s.shownLoading ? <Loading label="Loading the check…" /> : null}
-      {s.shown ? <CheckResult check={s.shown} reflight={reflight} /> : null}
+      {s.shown ? <CheckResult check={s.shown} reflight={reflight} signedOff={p.signedOff ?? null} units={p.units ?? 'metric'} /> : null}
       {s.checks && s.checks.length > 1 ? (
         <View style={styles.history}>
           <Heading level={3}>Earlier checks</Heading>
@@ -79,7 +81,7 @@ function Progress({ state: s }: { state: AsFlownCardState }) {
   return null;
 }
 
-function CheckResult({ check, reflight }: { check: AsFlownCheck; reflight: ReturnType<typeof useReflightPlans> }) {
+function CheckResult({ check, reflight, signedOff, units }: { check: AsFlownCheck; reflight: ReturnType<typeof useReflightPlans>; signedOff: boolean | null; units: UnitSystem }) {
   const d = check.document;
   const runs = missedRuns(d.matching.missed);
   const off = offTrackLines(d.matching.lines);
@@ -148,6 +150,7 @@ function CheckResult({ check, reflight }: { check: AsFlownCheck; reflight: Retur
                 ]}
               />
             ) : null}
+            {rf.stretches && rf.lineCount > 0 ? <ReflightStretches stretches={rf.stretches} signedOff={signedOff} units={units} datum={d.heights.datum ?? 'the grid\u2019s vertical datum'} /> : null}
             {reflight.mayMake && rf.missions.length > 0 ? <ReflightAction check={check} reflight={reflight} /> : null}
             {rf.smallPatchCells > 0 ? (
               <Text tone="muted">

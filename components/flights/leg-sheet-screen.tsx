@@ -94,7 +94,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
       </View>
       <MissionItemsCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
       <LiveCoverageCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
-      <AsFlownCard versionId={sheet.version.id} offline={offline} />
+      <AsFlownCard versionId={sheet.version.id} offline={offline} signedOff={sheet.version.signedOff} units={u} />
       {teamId ? <ExportLinks teamId={teamId} planId={sheet.version.planId} versionId={sheet.version.id} offline={offline} /> : null}
       <Text variant="label" tone="muted">
         Sheet generated {formatDayTime(sheet.generatedAt)}. Heights in {u === 'imperial' ? 'feet' : 'metres'}.

@@ -88,6 +88,8 @@ export function VersionScreen() {
           <AsFlownCard
             versionId={String(versionId)}
             offline={false}
+            signedOff={v.reviewState === 'signed_off'}
+            units={project.data?.units ?? 'metric'}
             origin={plan.data && st ? { projectId: String(projectId), siteId: v.siteId, planName: plan.data.name, versionNumber: st.number } : undefined}
           />
         ) : null}

@@ -172,5 +172,8 @@ export async function checkAsFlown(bytes: Uint8Array, mission: unknown, photos: 
   const bbox = missionBboxWgs84(mission);
   const header = await readDemHeader(bytes);
   const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
-  return runAsFlownCheck(grid, mission as Record<string, unknown>, photos, { verticalDatum: analysisDatum(opts.siteVerticalDatum, header.verticalDatum) });
+  const verticalDatum = analysisDatum(opts.siteVerticalDatum, header.verticalDatum);
+  // a solved version flies the solver's lines, not the mission's own layout: match the photos to those (solving is deterministic)
+  const plan = (mission as { layoutBy?: string }).layoutBy === 'solver' ? solvedResult(grid, mission, verticalDatum) : undefined;
+  return runAsFlownCheck(grid, mission as Record<string, unknown>, photos, { verticalDatum, plan });
 }

@@ -13,7 +13,9 @@ import { eq } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parsePhotoLogCsv } from '../../contracts/photo-log';
-import { planVersion } from '../../db/schema';
+import { asFlownCheck, planVersion } from '../../db/schema';
+import { asFlownDocSchema } from '../../contracts/as-flown';
+import { formatAltitudePair } from '../../components/flights/leg-format';
 import { EXAMPLE_SKIPPED } from '../../datasets/make-example-photo-log';
 import { analysedExampleVersion } from '../support/analysed-version';
 import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
@@ -86,7 +88,26 @@ describe('photos as flown', () => {
     await expect(card.getByTestId('as-flown-verdict').textContent()).resolves.toBe('Short of the plan');
     expect(await card.getByTestId('as-flown-reflight').textContent()).toMatch(/Lines\d+Photos\d+/);
     expect(text).toContain('EGM96');
+    // the same-day re-flight sheet: stretches of the signed-off lines at their signed-off heights, as stored with the check
+    const [row] = await srv.db.select().from(asFlownCheck).where(eq(asFlownCheck.planVersionId, ids.versionId));
+    const stretches = asFlownDocSchema.parse(row.document).reflight?.stretches;
+    expect(stretches?.items.length).toBeGreaterThan(0);
+    const sheet = card.getByTestId('as-flown-stretches');
+    expect(await sheet.textContent()).toContain('Re-fly before you leave: stretches of the signed-off lines');
+    // the first few show at once; the rest on request
+    if (stretches!.items.length > 4) {
+      await expect(card.getByTestId('as-flown-stretch-5').count()).resolves.toBe(0);
+      await card.getByTestId('as-flown-stretches-all').click();
+    }
+    for (const [n, st] of stretches!.items.entries()) {
+      const box = card.getByTestId(`as-flown-stretch-${n + 1}`);
+      expect(await box.textContent()).toContain(`Line ${st.line}: `);
+      for (const [k, g] of st.legs.entries()) {
+        await expect(box.getByTestId(`as-flown-stretch-${n + 1}-altitude-${k + 1}`).textContent()).resolves.toBe(formatAltitudePair({ start: g.altitudeStartAboveTakeoffM, end: g.altitudeEndAboveTakeoffM }, 'metric'));
+      }
+    }
     const restore = await growToContent(page);
+    await card.getByTestId('as-flown-stretch-1').screenshot({ path: path.join(shotDir, 'pilot-reflight-stretch-phone.png') });
     await card.screenshot({ path: path.join(shotDir, 'pilot-phone.png') });
     await restore();
     expect(pageErrors).toEqual([]);

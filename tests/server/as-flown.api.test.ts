@@ -67,6 +67,29 @@ describe('as-flown checks', () => {
     const cli = JSON.parse(out.stdout) as Record<string, unknown>;
     const strip = (doc: Record<string, unknown>) => { const { timingMs: _t, heights: _h, ...rest } = doc; return rest; };
     expect(strip(d as unknown as Record<string, unknown>)).toEqual(strip(cli));
+    // the same-day re-flight flies stretches of the version's own lines at the version's stored heights: each
+    // stretch leg's ends, read off the stored result's legs (linear along each leg), agree within 1 cm
+    const result = (await team.clients.planner.get(`/api/teams/${team.teamId}/plans/${planId}/versions/${versionId}`)).body.result as {
+      lines: Array<{ legs: Array<{ start: { distanceM: number }; end: { distanceM: number }; altitudeStartAboveTakeoffM: number; altitudeEndAboveTakeoffM: number; altitudeStartM: number; altitudeEndM: number }> }>;
+    };
+    const items = d.reflight?.stretches?.items ?? [];
+    expect(items.length).toBeGreaterThan(0);
+    const heightAt = (line: number, dM: number, key: 'AboveTakeoffM' | 'M') => {
+      const leg = result.lines[line - 1].legs.find((g) => g.start.distanceM <= dM + 0.05 && g.end.distanceM >= dM - 0.05)!;
+      const t = leg.end.distanceM > leg.start.distanceM ? (dM - leg.start.distanceM) / (leg.end.distanceM - leg.start.distanceM) : 0;
+      const a = key === 'M' ? leg.altitudeStartM : leg.altitudeStartAboveTakeoffM, b = key === 'M' ? leg.altitudeEndM : leg.altitudeEndAboveTakeoffM;
+      return a + Math.min(1, Math.max(0, t)) * (b - a);
+    };
+    for (const st of items) {
+      for (const g of st.legs) {
+        // distances and heights are stored to the millimetre
+        expect(Math.abs(g.altitudeStartAboveTakeoffM - heightAt(st.line, g.fromM, 'AboveTakeoffM'))).toBeLessThan(0.01);
+        expect(Math.abs(g.altitudeEndAboveTakeoffM - heightAt(st.line, g.toM, 'AboveTakeoffM'))).toBeLessThan(0.01);
+        expect(Math.abs(g.altitudeStartM - heightAt(st.line, g.fromM, 'M'))).toBeLessThan(0.01);
+        expect(Math.abs(g.altitudeEndM - heightAt(st.line, g.toM, 'M'))).toBeLessThan(0.01);
+      }
+    }
+    expect(d.heights.datum).toContain('EGM96');
   });
 
   it('lists the checks newest first for every role that reads flights, and answers one whole', async () => {
