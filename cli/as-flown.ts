@@ -50,5 +50,5 @@ export async function run(args: string[]): Promise<unknown> {
   const grid = await dem.read({ window: { bbox, crs: WGS84, marginPx: 2 } });
   // a solved mission flies the solver's lines: the photos are matched to those, as the server does
   const plan = (input as { layoutBy?: unknown }).layoutBy === 'solver' ? solvePlan(grid, input, { verticalDatum: dem.header.verticalDatum }) : undefined;
-  return { ...runAsFlownCheck(grid, input, photos, { verticalDatum: dem.header.verticalDatum, cellM: cellArg, plan }), cautions: [...generalCautions] };
+  return { ...runAsFlownCheck(grid, input, photos, { verticalDatum: dem.header.verticalDatum, cellM: cellArg, plan, base64: (b) => Buffer.from(b.buffer, b.byteOffset, b.byteLength).toString('base64') }), cautions: [...generalCautions] };
 }

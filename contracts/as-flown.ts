@@ -71,6 +71,11 @@ export const asFlownDocSchema = z.object({
       legs: z.array(z.object({ startDistanceM: z.number(), endDistanceM: z.number(), altitudeStartAboveTakeoffM: z.number(), altitudeEndAboveTakeoffM: z.number(), altitudeStartM: z.number(), altitudeEndM: z.number() })),
     }))),
   }).nullable(),
+  /** The as-flown map (checks stored before it existed lack it): one PNG, north up, with its legend in words. */
+  map: z.object({
+    widthPx: z.number().int(), heightPx: z.number().int(), pxPerCell: z.number().int(), cellM: z.number(), note: z.string(),
+    legend: z.array(z.object({ colour: z.string(), name: z.string(), words: z.string() })), pngBase64: z.string(),
+  }).optional(),
   timingMs: z.object({ plan: z.number(), asFlown: z.number(), reflight: z.number() }),
   cautions: z.array(z.string()),
 });

@@ -1,5 +1,6 @@
 /** The compliance report of one plan version: the client's spec, the results per line and overall, the DEM, sign-off. */
 import { z } from 'zod';
+import { asFlownDocSchema } from './as-flown';
 import { reviewStateSchema } from './reviews';
 
 const num = z.number();
@@ -76,6 +77,8 @@ export const reportAsFlownSchema = z.object({
   lostAreaM2: num,
   reflight: z.string(),
   heights: z.string(),
+  /** The check's as-flown map (null for checks stored before it existed). */
+  map: asFlownDocSchema.shape.map.unwrap().nullable(),
 });
 export type ReportAsFlown = z.infer<typeof reportAsFlownSchema>;
 

@@ -14,6 +14,7 @@ import { analyseAsFlown } from './as-flown';
 import type { FlownPhoto } from './as-flown-match';
 import { MIN_REFLIGHT_PATCH_SHARE, planReflight } from './reflight';
 import { reflightStretches } from './reflight-stretches';
+import { AS_FLOWN_MAP_LEGEND, asFlownMap } from './as-flown-map';
 import type { PlanResult } from './plan-result';
 
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
@@ -36,6 +37,8 @@ export interface AsFlownCheckOptions {
    * matched to its stations and the re-flight's stretches are cut from its lines.
    */
   plan?: PlanResult;
+  /** Base64 encoder (the caller's: terrain/ has none of its own); when given, the document carries the as-flown map image. */
+  base64?: (bytes: Uint8Array) => string;
 }
 
 /**
@@ -59,6 +62,11 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
   const reflight = planReflight(grid, input, mission, a, spec, rasterSettings, analyseOpts);
   const t3 = performance.now();
   const stretches = reflight === null ? null : reflightStretches(plan, a.frame, reflight.areas, mission.speedMps);
+  const toGrid = createTransform(WGS84, grid.crs);
+  const map = opts.base64 ? asFlownMap(a, spec, (stretches?.stretches ?? []).map((st) => {
+    const [x0, y0] = toGrid.forward(st.start.lon, st.start.lat), [x1, y1] = toGrid.forward(st.end.lon, st.end.lat);
+    return { x0, y0, x1, y1 };
+  })) : null;
   const toLonLat = createTransform(grid.crs, WGS84);
   const ll = (x: number, y: number) => { const [lon, lat] = a.frame.toLonLat(x, y); return { lon: round(lon, 7), lat: round(lat, 7) }; };
   const { cells } = a.flown;
@@ -126,6 +134,12 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
         })),
       },
       lines: reflight.plans.map((p) => p.lines.map((l) => ({ start: l.start, end: l.end, lengthM: l.lengthM, headingDeg: l.headingDeg, photos: l.stations.length, legs: l.legs.map((g) => ({ startDistanceM: g.start.distanceM, endDistanceM: g.end.distanceM, altitudeStartAboveTakeoffM: g.altitudeStartAboveTakeoffM, altitudeEndAboveTakeoffM: g.altitudeEndAboveTakeoffM, altitudeStartM: g.altitudeStartM, altitudeEndM: g.altitudeEndM })) }))),
+    },
+    map: map === null || !opts.base64 ? undefined : {
+      widthPx: map.widthPx, heightPx: map.heightPx, pxPerCell: map.pxPerCell, cellM: round(cells.cellM, 4),
+      note: `North up; each ${round(cells.cellM, 2)} m cell drawn as ${map.pxPerCell} × ${map.pxPerCell} pixels; white outside the survey area.`,
+      legend: AS_FLOWN_MAP_LEGEND.map((l) => ({ colour: l.colour, name: l.name, words: l.words })),
+      pngBase64: opts.base64(map.png),
     },
     timingMs: { plan: round(t1 - t0, 1), asFlown: round(t2 - t1, 1), reflight: round(t3 - t2, 1) },
   };

@@ -42,7 +42,8 @@ export interface CoverageLayers {
   printPng: Uint8Array;
 }
 
-function encode(width: number, height: number, rgba: Uint8Array): Uint8Array {
+/** RGBA pixels (row-major, 4 bytes each) as PNG bytes. */
+export function encode(width: number, height: number, rgba: Uint8Array): Uint8Array {
   const png = new PNG({ width, height });
   png.data = rgba as never; // pngjs only indexes the pixel bytes
   const bytes = PNG.sync.write(png, { colorType: 6 });

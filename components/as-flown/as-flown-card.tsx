@@ -18,6 +18,7 @@ import { missedRuns, offTrackLines } from '../../contracts/as-flown-words';
 import { useAsFlownCheck, type AsFlownCardState } from './use-as-flown-check';
 import { useReflightPlans, type ReflightOrigin } from './use-reflight-plans';
 import { ReflightStretches } from './reflight-stretches';
+import { AsFlownMap } from './as-flown-map';
 import type { UnitSystem } from '../../contracts/projects';
 
 /** testIDs as-flown, as-flown-photos(-input), as-flown-csv(-input), as-flown-progress, as-flown-result, as-flown-check-N. */
@@ -133,6 +134,7 @@ function CheckResult({ check, reflight, signedOff, units }: { check: AsFlownChec
           {d.patchCount > 5 ? <Text tone="muted">and {d.patchCount - 5} smaller patches.</Text> : null}
         </View>
       ) : null}
+      {d.map ? <AsFlownMap map={d.map} /> : null}
       <View style={styles.block} testID="as-flown-reflight">
         <Heading level={3}>Re-flight</Heading>
         {rf === null ? (

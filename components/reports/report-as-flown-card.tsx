@@ -5,6 +5,7 @@ import { areaWords, shareWords } from '../../contracts/coverage-words';
 import { formatDayTime } from '../projects/format-date';
 import { space } from '../theme';
 import { Card, Heading, List, Text } from '../ui';
+import { AsFlownMap } from '../as-flown/as-flown-map';
 
 export function ReportAsFlownCard({ asFlown: a }: { asFlown: ReportAsFlown | null }) {
   return (
@@ -36,6 +37,7 @@ export function ReportAsFlownCard({ asFlown: a }: { asFlown: ReportAsFlown | nul
             {areaWords(a.lostAreaM2)}.
           </Text>
           {a.offTrack.length ? <Text tone="caution">Flown off track: {a.offTrack.join('; ')}.</Text> : null}
+          {a.map ? <AsFlownMap map={a.map} /> : null}
           <Text testID="report-as-flown-reflight">{a.reflight}</Text>
           <Text variant="caption" tone="muted">{a.heights}</Text>
         </>

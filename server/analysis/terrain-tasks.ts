@@ -175,5 +175,5 @@ export async function checkAsFlown(bytes: Uint8Array, mission: unknown, photos: 
   const verticalDatum = analysisDatum(opts.siteVerticalDatum, header.verticalDatum);
   // a solved version flies the solver's lines, not the mission's own layout: match the photos to those (solving is deterministic)
   const plan = (mission as { layoutBy?: string }).layoutBy === 'solver' ? solvedResult(grid, mission, verticalDatum) : undefined;
-  return runAsFlownCheck(grid, mission as Record<string, unknown>, photos, { verticalDatum, plan });
+  return runAsFlownCheck(grid, mission as Record<string, unknown>, photos, { verticalDatum, plan, base64: (b) => Buffer.from(b.buffer, b.byteOffset, b.byteLength).toString('base64') });
 }

@@ -26,5 +26,6 @@ export function reportAsFlown(latest: AsFlownCheck | null, checkCount: number): 
     lostAreaM2: d.difference.lostAreaM2,
     reflight: rf === null ? 'Nothing to re-fly: no ground that met the spec as planned was lost in flight.' : rf.lineCount > 0 ? `${rf.covers} Re-flight: ${rf.lineCount} lines, ${rf.photoCount} photos over ${rf.areas.length} areas.` : rf.covers,
     heights: d.heights.reference,
+    map: d.map ?? null,
   };
 }

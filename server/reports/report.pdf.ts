@@ -109,8 +109,19 @@ function asFlownSection(doc: Doc, r: ComplianceReport): void {
     `Ground that met the spec as planned but not as flown: ${areaWords(a.lostAreaM2)}.`,
     a.reflight,
   ]);
+  if (a.map) {
+    const h = 300;
+    if (doc.y + h + 60 > pageBottom(doc)) doc.addPage();
+    const y = doc.y + 6;
+    doc.image(Buffer.from(a.map.pngBase64, 'base64'), page.margin, y, { fit: [page.width, h], align: 'center' });
+    doc.y = y + h + 4;
+    doc.x = page.margin;
+    doc.font('Inter').fontSize(8).fillColor(grey).text(`Map as flown: ${a.map.legend.map((l) => `${l.name}: ${l.words}`).join('; ')}. ${a.map.note}`, { width: page.width });
+    doc.moveDown(0.3);
+  }
   doc.font('Inter').fontSize(8).fillColor(grey).text(a.heights, page.margin, doc.y, { width: page.width });
 }
+
 
 /** Render the report to PDF bytes; `coverageMap` is the printed coverage map of a ready coverage run. */
 export async function renderReportPdf(r: ComplianceReport, extras: { coverageMap?: Buffer | null } = {}): Promise<Buffer> {

@@ -1,5 +1,8 @@
 /** Read PDFs back in tests with poppler-utils (Debian 12: 22.12.0; `npm test` installs it via scripts/bootstrap.sh). */
 import { execFileSync, spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 
 /** The text of a PDF as `pdftotext -layout` prints it (table rows stay on one line); throws if poppler reports errors. */
 export function pdfText(pdf: Buffer): string {
@@ -32,4 +35,17 @@ export function numpyFigures(lists: Array<Array<number | null>>, band: [number, 
   ].join('\n');
   const res = execFileSync('/usr/bin/python3', ['-c', script], { input: JSON.stringify({ lists, band }) }).toString('utf8');
   return JSON.parse(res) as Array<{ min: number; p5: number; median: number; max: number; share: number }>;
+}
+
+/** Images in a PDF as `pdfimages -list` prints them: width and height in pixels (PDFKit puts an RGBA PNG's alpha in an soft mask of its own). */
+export function pdfImages(pdf: Buffer): Array<{ type: string; width: number; height: number }> {
+  const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'loftline-pdfimages-')), 'report.pdf');
+  fs.writeFileSync(file, pdf);
+  const r = spawnSync('pdfimages', ['-list', file], { maxBuffer: 8 * 1024 * 1024 });
+  fs.rmSync(path.dirname(file), { recursive: true, force: true });
+  if (r.status !== 0) throw new Error(`pdfimages could not list the PDF's images (status ${r.status}): ${r.stderr?.toString('utf8')}`);
+  return r.stdout.toString('utf8').split('\n').slice(2).filter(Boolean).map((line) => {
+    const cols = line.trim().split(/\s+/);
+    return { type: cols[2], width: Number(cols[3]), height: Number(cols[4]) };
+  });
 }

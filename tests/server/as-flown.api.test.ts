@@ -14,7 +14,7 @@ import { asFlownCheckListSchema, asFlownCheckSchema, type AsFlownCheck } from '.
 import { generalCautions } from '../../contracts/cautions';
 import { shareWords } from '../../contracts/coverage-words';
 import { complianceReportSchema } from '../../contracts/reports';
-import { pdfText } from '../reports/pdf-text';
+import { pdfImages, pdfText } from '../reports/pdf-text';
 import { parsePhotoLogCsv, type PhotoRecord } from '../../contracts/photo-log';
 import { planVersion } from '../../db/schema';
 import { runTerrainCli } from '../cli/run-cli';
@@ -129,6 +129,13 @@ describe('as-flown checks', () => {
     expect(text).toContain('As flown: what the photos covered');
     expect(text).toContain(`Whole spec met on ${shareWords(first.document.flown.shareAll)} of the area as flown (${shareWords(first.document.planned.shareAll)} as planned)`);
     expect(text).toContain(`${EXAMPLE_SKIPPED.length} missed triggers`);
+    // the map as flown: the check's own image, in the report and printed in the PDF with its legend in words
+    const map = first.document.map!;
+    expect(a.map).toEqual(map);
+    expect(text).toContain('Map as flown: pale green: meets the whole spec as flown');
+    expect(text).toContain('orange with dark stripes: lost in flight');
+    // pdfimages (Debian poppler-utils) finds the image at its own size in the PDF
+    expect(pdfImages(pdf.bytes).some((im) => im.type === 'image' && im.width === map.widthPx && im.height === map.heightPx)).toBe(true);
   });
 
   it('refuses a bad photo log naming the photo and the field, and stores nothing', async () => {
