@@ -125,9 +125,21 @@ describe('photos as flown', () => {
     const restore = await growToContent(page);
     await card.screenshot({ path: path.join(shotDir, 'surveyor-wide.png') });
     await restore();
+    // the compliance report's as-flown section, with the check's map, at both sizes
+    for (const vp of [viewports.wide, viewports.phone]) {
+      await page.setViewportSize(vp);
+      await page.goto(`${srv.url}/projects/${ids.projectId}/plans/${ids.planId}/versions/${ids.versionId}/report`);
+      const section = page.getByTestId('report-as-flown');
+      await section.getByTestId('report-as-flown-share').waitFor({ timeout: 60_000 });
+      await section.getByTestId('as-flown-map-image').waitFor();
+      expect(await section.getByTestId('as-flown-map-legend').textContent()).toContain('lost in flight');
+      const back = await growToContent(page);
+      await section.screenshot({ path: path.join(shotDir, `report-as-flown-${vp.width}.png`) });
+      await back();
+    }
     expect(pageErrors).toEqual([]);
     await context.close();
-  }, 120_000);
+  }, 180_000);
 
   it('lets the planner save the re-flight as new plans of the project, which analyse over the same grid', async () => {
     const { page, context, pageErrors } = await openPage(browser, viewports.wide);
