@@ -82,6 +82,16 @@ export const reportAsFlownSchema = z.object({
 });
 export type ReportAsFlown = z.infer<typeof reportAsFlownSchema>;
 
+/** The version's confirmation as flown, after the flight (see contracts/flown-confirmation.ts). */
+export const reportFlownSchema = z.object({
+  required: z.boolean(),
+  confirmedBy: z.string().nullable(),
+  confirmedAt: z.string().nullable(),
+  statement: z.string(),
+  reasons: z.array(z.object({ key: z.string(), label: z.string(), reason: z.string() })),
+});
+export type ReportFlown = z.infer<typeof reportFlownSchema>;
+
 export const complianceReportSchema = z.object({
   version: z.object({
     id: z.string(),
@@ -145,6 +155,8 @@ export const complianceReportSchema = z.object({
     /** Requirements unmet at sign-off, each with the surveyor's reason (empty when all were met). */
     reasons: z.array(z.object({ key: z.string(), label: z.string(), required: z.string(), achieved: z.string(), reason: z.string() })),
   }),
+  /** After the flight: the confirmation as flown (null in reports built before it existed). */
+  flown: reportFlownSchema.nullable(),
   /** How the 5th percentile and median are computed. */
   percentileMethod: z.string(),
   generatedAt: z.string(),

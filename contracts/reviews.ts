@@ -114,6 +114,7 @@ export const auditActions = [
   'review.submitted',
   'review.signed_off',
   'review.returned',
+  'review.flown_confirmed',
   'mail.sent',
   'mail.failed',
   'invitation.created',

@@ -20,6 +20,7 @@ import type { Services } from './services';
 import { asFlownChecksPath, PHOTO_LOG_JSON_LIMIT } from './http/body-limits';
 import { createTeamsRepository } from './teams/teams.repository';
 import { registerTeamRoutes } from './teams/teams.routes';
+import { createTeamSettingsRepository } from './teams/team-settings.repository';
 
 export interface AppDeps {
   db: Db;
@@ -82,7 +83,7 @@ export function createApp(deps: AppDeps) {
   api.use((req, res, next) => (req.method === 'POST' && asFlownChecksPath.test(req.path) ? photoLogJson : json)(req, res, next));
   api.use(refuseNulInBody);
   registerHealthRoutes(api, { guards, db });
-  registerTeamRoutes(api, { guards, teams: createTeamsRepository({ db }) });
+  registerTeamRoutes(api, { guards, teams: createTeamsRepository({ db }), settings: createTeamSettingsRepository({ db }) });
   const services: Services = deps.services ?? { db, auth, config };
   for (const register of deps.routes ?? []) register(api, { guards, services });
   app.use('/api', api);

@@ -141,6 +141,21 @@ function ReportBody({ report: r, pdfHref }: { report: ComplianceReport; pdfHref:
             </List>
           </View>
         ) : null}
+        {r.flown ? (
+          <View style={styles.reasons} testID="report-flown">
+            <Text variant="bodyStrong" tone={r.flown.confirmedAt ? undefined : r.flown.required ? 'caution' : 'muted'}>{r.flown.statement}</Text>
+            {r.flown.reasons.length ? (
+              <List label="Reasons for confirming as flown despite lost ground">
+                {r.flown.reasons.map((x) => (
+                  <View key={x.key}>
+                    <Text variant="bodyStrong">{x.label}</Text>
+                    <Text>{x.reason}</Text>
+                  </View>
+                ))}
+              </List>
+            ) : null}
+          </View>
+        ) : null}
         <Text variant="label" tone="muted">
           Report generated {formatDayTime(r.generatedAt)}.
         </Text>

@@ -17,6 +17,7 @@ import { ReviewPanel } from '../reviews/review-panel';
 import { ResultsView } from './results-view';
 import { AsFlownCard } from '../as-flown/as-flown-card';
 import { SolvedCard } from './solved-card';
+import { FlownConfirmationCard } from '../reviews/flown-confirmation-card';
 
 type MissionSnapshot = { area?: { coordinates: number[][][] }; clearanceM?: number; obstacleAllowanceM?: number };
 
@@ -94,6 +95,7 @@ export function VersionScreen() {
           />
         ) : null}
         {st ? <ReviewPanel projectId={projectId} planId={planId} versionId={versionId} analysisDone={st.analysisState === 'done'} /> : null}
+        {v?.reviewState === 'signed_off' ? <FlownConfirmationCard planId={String(planId)} versionId={String(versionId)} /> : null}
       </RequirePermission>
     </Screen>
   );

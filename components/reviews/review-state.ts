@@ -26,6 +26,7 @@ const actionTitles: Record<string, string> = {
   'review.submitted': 'Sent for review',
   'review.signed_off': 'Signed off',
   'review.returned': 'Returned with comments',
+  'review.flown_confirmed': 'Confirmed as flown',
   'mail.sent': 'E-mail sent',
   'mail.failed': 'E-mail not delivered',
   'invitation.created': 'Invitation sent',

@@ -4,6 +4,7 @@ import { StyleSheet, View } from 'react-native';
 import { can, roleLabels, roles, roleSummaries } from '../../contracts/roles';
 import { errorMessage } from '../api/api-error';
 import { useMembers, useRemoveMember, useUpdateMemberRole } from '../api/members.queries';
+import { TeamRulesCard } from './team-rules-card';
 import { InvitationsCard } from '../invitations/invitations-card';
 import { space } from '../theme';
 import { Banner, Button, Card, EmptyState, Heading, Loading, Screen, Text } from '../ui';
@@ -58,6 +59,7 @@ export function MembersScreen() {
           </Card>
         ) : null}
         {team && can(role, 'invitation:manage') ? <InvitationsCard teamId={team.id} /> : null}
+        {team ? <TeamRulesCard teamId={team.id} mayChange={manage} /> : null}
         <Card>
           <Heading level={2}>What each role may do</Heading>
           {roles.map((r) => (

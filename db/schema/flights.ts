@@ -61,3 +61,24 @@ export const asFlownCheck = pgTable(
   },
   (t) => [index('as_flown_check_version_idx').on(t.teamId, t.planVersionId, t.createdAt)],
 );
+
+/**
+ * After the flight: a surveyor's confirmation of a signed-off version as flown, against one check of its photos,
+ * with a reason for each spec item the flight lost. One per version (the key); kept beside the version, whose own
+ * row stays locked once signed off.
+ */
+export const flownConfirmation = pgTable('flown_confirmation', {
+  planVersionId: uuid('plan_version_id')
+    .primaryKey()
+    .references(() => planVersion.id, { onDelete: 'cascade' }),
+  teamId: text('team_id')
+    .notNull()
+    .references(() => organization.id, { onDelete: 'cascade' }),
+  checkId: uuid('check_id')
+    .notNull()
+    .references(() => asFlownCheck.id, { onDelete: 'cascade' }),
+  confirmedBy: text('confirmed_by').references(() => user.id, { onDelete: 'set null' }),
+  confirmedAt: timestamp('confirmed_at', { withTimezone: true }).notNull().defaultNow(),
+  /** One reason per spec item the check shows lost against the plan. */
+  reasons: jsonb('reasons').$type<{ key: string; reason: string }[]>(),
+});

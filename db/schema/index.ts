@@ -2,3 +2,4 @@
 export * from './auth';
 export * from './projects';
 export * from './flights';
+export * from './team-settings';

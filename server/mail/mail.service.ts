@@ -5,11 +5,12 @@ import { jobsOf } from '../jobs/jobs.service';
 import type { ServiceFactory, Services } from '../services';
 import { storageOf } from '../storage/storage.service';
 import { createMailer, type Mailer, type ReportAttachment } from './mailer';
+import { createTeamSettingsRepository } from '../teams/team-settings.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';
 
 /** Boot hook: starts the mailer (and, with no SMTP_HOST, the fake SMTP server) as `services.mail`. */
 export const mailFactory: ServiceFactory = async (services) => {
-  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }) });
+  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
   // The report is rendered when the mail is sent, from the version as it is then (a signed-off version is locked).
   const attachReport: ReportAttachment = async (ref) => {
     const v = await createVersionsRepository({ db: services.db }).find({ ...ref, role: 'owner' });

@@ -7,7 +7,7 @@ import type { Mission } from '../../terrain/mission';
 import type { VersionRecord } from '../reviews/versions.repository';
 import { flightCautions } from './cautions';
 import { coverageChecks, reportCoverage } from './report.coverage';
-import type { ReportAsFlown } from '../../contracts/reports';
+import type { ReportAsFlown, ReportFlown } from '../../contracts/reports';
 import { azimuthDeg } from './geodesy';
 import { fmt } from './format';
 import { heightDatumOf, noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
@@ -112,7 +112,7 @@ function signOffReasons(v: VersionRecord, checks: SpecCheck[]): ComplianceReport
 }
 
 /** The whole report; `now` is injected so the document can be reproduced; `extras.asFlown` the latest photo check's section. */
-export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { asFlown?: ReportAsFlown | null } = {}): ComplianceReport {
+export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { asFlown?: ReportAsFlown | null; flown?: ReportFlown | null } = {}): ComplianceReport {
   const mission = readMission(v.input);
   const view = readResult(v.result);
   const meta = v.siteMetadata as GridMetadata;
@@ -205,6 +205,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { 
           : `Not signed off (state: ${state.replace('_', ' ')}). This report is for review only.`,
       reasons: state === 'signed_off' ? signOffReasons(v, checks) : [],
     },
+    flown: extras.flown ?? null,
     percentileMethod,
     generatedAt: now.toISOString(),
   };

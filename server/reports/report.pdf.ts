@@ -162,6 +162,18 @@ export async function renderReportPdf(r: ComplianceReport, extras: { coverageMap
     }
   }
 
+  if (r.flown) {
+    // after the flight: the confirmation as flown, or that it is still owed where the team requires it
+    doc.moveDown(0.3).font('Inter-Bold').fontSize(9.5).fillColor(r.flown.confirmedAt ? '#1f5130' : r.flown.required ? '#8a4b00' : grey).text(r.flown.statement, page.margin, doc.y, { width: page.width });
+    if (r.flown.reasons.length) {
+      doc.font('Inter-Bold').fontSize(9).fillColor('#8a4b00').text('Confirmed as flown although the flight lost ground on these items — the surveyor’s reasons:');
+      for (const x of r.flown.reasons) {
+        doc.font('Inter-Bold').fontSize(9).fillColor('#1b1e21').text(x.label, { indent: 10 });
+        doc.font('Inter').fontSize(9).text(x.reason, { indent: 20 });
+      }
+    }
+  }
+
   heading(doc, 'The client’s spec against the plan');
   table(doc, [['Requirement', 'Required', 'Achieved', 'Result'], ...r.checks.map((c) => [c.label, c.required, c.achieved, c.pass ? 'meets' : 'DOES NOT MEET'])], [2.2, 3, 3, 1.2]);
   doc.moveDown(0.4).font('Inter').fontSize(8.5).fillColor(grey);

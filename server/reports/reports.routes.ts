@@ -7,13 +7,14 @@ import { storageOf } from '../storage/storage.service';
 import type { RouteGroup } from '../routes';
 import { createVersionsRepository } from '../reviews/versions.repository';
 import { createReportService } from './reports.service';
+import { createTeamSettingsRepository } from '../teams/team-settings.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';
 
 const base = '/teams/:teamId/plans/:planId/versions/:versionId';
 
 /** Route group: compliance reports (report:read; pilots read leg sheets instead). */
 export const registerReportRoutes: RouteGroup = (api: Router, { guards, services }) => {
-  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }) });
+  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
   const ids = (req: Request) => {
     const { teamId, role } = requireTeam(req);
     return { teamId, role, planId: String(req.params.planId), versionId: String(req.params.versionId) };

@@ -5,6 +5,7 @@ import { errors } from '../http/errors';
 import type { VersionRecord, VersionsRepository } from '../reviews/versions.repository';
 import { buildReport } from './report.build';
 import { reportAsFlown } from './report.as-flown';
+import { reportFlown } from './report.flown';
 import type { AsFlownCheck } from '../../contracts/as-flown';
 import { renderReportPdf, reportFileName } from './report.pdf';
 import { requireAnalysed } from './result-view';
@@ -16,7 +17,12 @@ export interface AsFlownSource {
   latest(teamId: string, versionId: string): Promise<{ check: AsFlownCheck | null; count: number }>;
 }
 
-export function createReportService(deps: { versions: VersionsRepository; now?: () => Date; storage?: () => Storage; asFlown?: AsFlownSource }) {
+/** The team's rules the report states (whether a confirmation as flown is required). */
+export interface TeamRulesSource {
+  get(teamId: string): Promise<{ requireFlownConfirmation: boolean }>;
+}
+
+export function createReportService(deps: { versions: VersionsRepository; now?: () => Date; storage?: () => Storage; asFlown?: AsFlownSource; settings?: TeamRulesSource }) {
   const now = deps.now ?? (() => new Date());
 
   /** The printed coverage map of a version with a ready coverage run (null without one). */
@@ -32,9 +38,9 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
 
   /** The report's as-flown section: the latest check of the version's photos (null without the source or a check). */
   async function asFlownOf(v: VersionRecord) {
-    if (!deps.asFlown) return null;
-    const { check, count } = await deps.asFlown.latest(v.teamId, v.id);
-    return reportAsFlown(check, count);
+    const { check, count } = deps.asFlown ? await deps.asFlown.latest(v.teamId, v.id) : { check: null, count: 0 };
+    const required = deps.settings ? (await deps.settings.get(v.teamId)).requireFlownConfirmation : false;
+    return { asFlown: deps.asFlown ? reportAsFlown(check, count) : null, flown: reportFlown(v, required, check) };
   }
 
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
@@ -47,7 +53,7 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
   /** The PDF of a version the caller already holds (used by the sign-off e-mail). */
   async function pdfOf(v: VersionRecord): Promise<{ pdf: Buffer; fileName: string; report: ComplianceReport }> {
     requireAnalysed(v);
-    const report = buildReport(v, now(), { asFlown: await asFlownOf(v) });
+    const report = buildReport(v, now(), await asFlownOf(v));
     return { pdf: await renderReportPdf(report, { coverageMap: await coverageMap(v) }), fileName: reportFileName(report), report };
   }
 
@@ -55,7 +61,7 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
     /** The report of a version (409 until its analysis is done). */
     async report(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<ComplianceReport> {
       const v = await load(q);
-      return buildReport(v, now(), { asFlown: await asFlownOf(v) });
+      return buildReport(v, now(), await asFlownOf(v));
     },
     pdfOf,
     /** The PDF of a version the caller may see. */

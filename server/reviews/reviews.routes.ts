@@ -12,6 +12,9 @@ import { createReviewsRepository } from './reviews.repository';
 import { createReviewsUsecases } from './reviews.usecases';
 import { createVersionsRepository } from './versions.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';
+import { confirmFlownSchema, flownConfirmationSchema } from '../../contracts/flown-confirmation';
+import { createTeamSettingsRepository } from '../teams/team-settings.repository';
+import { createFlownConfirmation } from './flown-confirmation';
 
 const plans = '/teams/:teamId/plans/:planId';
 const version = `${plans}/versions/:versionId`;
@@ -21,7 +24,7 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
   const { db, config } = services;
   const versions = createVersionsRepository({ db });
   const reviews = createReviewsRepository({ db });
-  const reports = createReportService({ versions, storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }) });
+  const reports = createReportService({ versions, storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
   const usecases = createReviewsUsecases({
     versions,
     reviews,
@@ -29,6 +32,8 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
     notify: (q) => createReviewNotifier({ mailer: mailerOf(services), reviews, config })(q),
     mailer: () => mailerOf(services),
   });
+
+  const flown = createFlownConfirmation({ db, versions, checks: createAsFlownRepository({ db }), settings: createTeamSettingsRepository({ db }) });
 
   const target = (req: Request) => {
     const { teamId, role, user } = requireTeam(req);
@@ -52,6 +57,17 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
       sendJson(res, versionReviewSchema, out);
     });
   }
+
+  // after the flight: the as-flown confirmation of a signed-off version (read by all who read plans; made by reviewers)
+  api.get(`${version}/flown-confirmation`, guards.permission('plan:read'), async (req, res) => {
+    const t = target(req);
+    sendJson(res, flownConfirmationSchema, await flown.status(t));
+  });
+  api.post(`${version}/confirm-flown`, guards.permission('plan:review'), async (req, res) => {
+    const t = target(req);
+    const body = parseInput(confirmFlownSchema, req.body ?? {});
+    sendJson(res, flownConfirmationSchema, await flown.confirm({ ...t, actorId: t.actor.id, comment: body.comment || null, reasons: body.reasons ?? [] }));
+  });
 
   api.get(`${plans}/audit`, guards.permission('plan:read'), async (req, res) => {
     const { teamId } = requireTeam(req);

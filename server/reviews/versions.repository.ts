@@ -3,12 +3,13 @@ import { alias } from 'drizzle-orm/pg-core';
 import { and, desc, eq, type SQL } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
-import { plan, planVersion, project, site, user } from '../../db/schema';
+import { flownConfirmation, plan, planVersion, project, site, user } from '../../db/schema';
 import { plainText } from '../../contracts/text';
 import { isUuid } from '../http/ids';
 
 const creator = alias(user, 'creator');
 const signer = alias(user, 'signer');
+const confirmer = alias(user, 'confirmer');
 
 /** Roles that may only ever see signed-off versions. */
 export function seesSignedOffOnly(role: Role): boolean {
@@ -36,6 +37,11 @@ function selection() {
     signedOffByName: signer.name,
     signedOffAt: planVersion.signedOffAt,
     signOffReasons: planVersion.signOffReasons,
+    flownConfirmedById: flownConfirmation.confirmedBy,
+    flownConfirmedByName: confirmer.name,
+    flownConfirmedAt: flownConfirmation.confirmedAt,
+    flownCheckId: flownConfirmation.checkId,
+    flownReasons: flownConfirmation.reasons,
     planName: plan.name,
     projectId: project.id,
     projectName: project.name,
@@ -52,7 +58,7 @@ function selection() {
 
 
 /** Names typed by people, cleaned once here for every report, leg sheet, export and mail built from a version. */
-const textFields = ['planName', 'projectName', 'projectClient', 'siteName', 'siteFileName', 'siteVerticalDatum', 'createdByName', 'signedOffByName'] as const;
+const textFields = ['planName', 'projectName', 'projectClient', 'siteName', 'siteFileName', 'siteVerticalDatum', 'createdByName', 'signedOffByName', 'flownConfirmedByName'] as const;
 
 function cleaned<T extends Partial<Record<(typeof textFields)[number], string | null>>>(row: T): T {
   const out = { ...row };
@@ -77,6 +83,8 @@ export function createVersionsRepository({ db }: { db: Db }) {
       .innerJoin(site, eq(site.id, planVersion.siteId))
       .leftJoin(creator, eq(creator.id, planVersion.createdBy))
       .leftJoin(signer, eq(signer.id, planVersion.signedOffBy))
+      .leftJoin(flownConfirmation, eq(flownConfirmation.planVersionId, planVersion.id))
+      .leftJoin(confirmer, eq(confirmer.id, flownConfirmation.confirmedBy))
       .where(where);
   }
 
@@ -105,6 +113,8 @@ export function createVersionsRepository({ db }: { db: Db }) {
         .innerJoin(site, eq(site.id, planVersion.siteId))
         .leftJoin(creator, eq(creator.id, planVersion.createdBy))
         .leftJoin(signer, eq(signer.id, planVersion.signedOffBy))
+        .leftJoin(flownConfirmation, eq(flownConfirmation.planVersionId, planVersion.id))
+      .leftJoin(confirmer, eq(confirmer.id, flownConfirmation.confirmedBy))
         .where(where)
         .limit(1);
       return rows[0] ? JSON.stringify(rows[0]) : null;

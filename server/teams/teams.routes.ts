@@ -6,9 +6,23 @@ import { AppError, errors } from '../http/errors';
 import { requireAuth, requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import type { TeamsRepository } from './teams.repository';
+import type { TeamSettingsRepository } from './team-settings.repository';
+import { teamSettingsSchema, updateTeamSettingsSchema } from '../../contracts/flown-confirmation';
 
-export function registerTeamRoutes(api: Router, deps: { guards: Guards; teams: TeamsRepository }) {
-  const { guards, teams } = deps;
+export function registerTeamRoutes(api: Router, deps: { guards: Guards; teams: TeamsRepository; settings: TeamSettingsRepository }) {
+  const { guards, teams, settings } = deps;
+
+  // team-wide rules: every member reads them (they say what a version still needs); owners set them
+  api.get('/teams/:teamId/settings', guards.permission('team:read'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    sendJson(res, teamSettingsSchema, await settings.get(teamId));
+  });
+  api.patch('/teams/:teamId/settings', guards.permission('member:manage'), async (req, res) => {
+    const { teamId, user } = requireTeam(req);
+    const body = parseInput(updateTeamSettingsSchema, req.body);
+    await settings.set(teamId, user.id, body);
+    sendJson(res, teamSettingsSchema, await settings.get(teamId));
+  });
 
   api.get('/me', guards.session(), async (req, res) => {
     const a = requireAuth(req);

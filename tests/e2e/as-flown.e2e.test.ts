@@ -137,6 +137,25 @@ describe('photos as flown', () => {
       await section.screenshot({ path: path.join(shotDir, `report-as-flown-${vp.width}.png`) });
       await back();
     }
+    // after the flight the surveyor confirms the version as flown (the viewport is the phone's from the loop above), with a reason for each item the flight lost
+    await page.goto(`${srv.url}/projects/${ids.projectId}/plans/${ids.planId}/versions/${ids.versionId}`);
+    const flown = page.getByTestId('flown-card');
+    await flown.getByTestId('flown-open').click();
+    const boxes = flown.locator('textarea[data-testid^="flown-reason-"]');
+    await boxes.first().waitFor();
+    const n = await boxes.count();
+    expect(n).toBeGreaterThan(0);
+    // confirming without the reasons is refused in place
+    await flown.getByTestId('flown-confirm').click();
+    await expect(flown.getByText('Give a reason of at least 10 characters', { exact: false }).first().isVisible()).resolves.toBe(true);
+    for (let k = 0; k < n; k++) await boxes.nth(k).fill('Strip along the rim re-flown the same afternoon and checked again.');
+    await flown.getByTestId('flown-confirm').click();
+    await flown.getByTestId('flown-state').filter({ hasText: `By ${team.users.surveyor.name}` }).waitFor({ timeout: 30_000 });
+    const shot = await growToContent(page);
+    await flown.screenshot({ path: path.join(shotDir, 'surveyor-confirm-flown-phone.png') });
+    await shot();
+    await page.goto(`${srv.url}/projects/${ids.projectId}/plans/${ids.planId}/versions/${ids.versionId}/report`);
+    await page.getByTestId('report-flown').filter({ hasText: `Confirmed as flown by ${team.users.surveyor.name}` }).waitFor({ timeout: 30_000 });
     expect(pageErrors).toEqual([]);
     await context.close();
   }, 180_000);
