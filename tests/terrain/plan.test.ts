@@ -46,7 +46,7 @@ describe('analysePlan', () => {
     expect(() => planResultSchema.parse(r)).not.toThrow();
     expect(JSON.parse(JSON.stringify(r))).toEqual(r);
     const keys = Object.keys(r.lines[0].stations[0]).sort();
-    expect(keys).toEqual(['altitudeAboveTakeoffM', 'altitudeM', 'aglM', 'distanceM', 'flags', 'forwardOverlap', 'gsdCm', 'groundM', 'lat', 'lon', 'sideOverlap'].sort());
+    expect(keys).toEqual(['altitudeAboveTakeoffM', 'altitudeM', 'aglM', 'distanceM', 'flags', 'forwardOverlap', 'forwardOverlapGuaranteed', 'gsdCm', 'groundM', 'lat', 'lon', 'sideOverlap', 'sideOverlapGuaranteed'].sort());
     for (const k of ['lineCount', 'photoCount', 'flightDistanceM', 'flightTimeS', 'gsdCm', 'forwardOverlapMin', 'sideOverlapMin', 'aglMinM', 'shareWithinGsdTarget']) expect(r.summary).toHaveProperty(k);
   });
 
