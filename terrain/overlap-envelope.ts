@@ -6,10 +6,10 @@ import { photoExtents, STRIDE, type LinePhotos } from './overlap';
 
 /**
  * A line's photos under the envelope, cell by cell of the lattice of tested attitudes (`cells` a photo; a cell
- * is the box between neighbouring lattice attitudes, or the single attitude of a zero envelope). For each photo,
+ * is a box of neighbouring lattice attitudes, at most two an axis, or the single attitude of a zero envelope). For each photo,
  * cell and each of the six intervals of `photoExtents` (three along-track image columns, three across-track
  * image rows): `inner` (12 numbers) the ground every attitude of the cell sees (the latest start and earliest
- * end over the cell's corner attitudes, the image shrunk by the envelope's margin), `lengths` (6 numbers) the
+ * end over the cell's lattice attitudes, the image shrunk by the envelope's margin), `lengths` (6 numbers) the
  * longest the interval gets over the cell (the image grown by the margin). Photo s, cell c starts at
  * (s · cells + c) · 12 and · 6. NaN where any attitude's ray missed the ground.
  */
@@ -23,6 +23,13 @@ export interface GuaranteedExtents {
   attitudeCount: number;
 }
 
+/**
+ * Cells per attitude axis the least overlap is taken over. The side overlap weighs every cell of a photo against
+ * every pair of cells of the two neighbours around it (cells³ a row), so the count stays small: two halves an
+ * axis keep a fixed wing's 15° roll, 8° pitch and crab to 8 cells; finer cells would tighten the bound a little.
+ */
+const CELLS_PER_AXIS = 2;
+
 /** Crab angle of a line in the envelope's wind (0 for an aircraft that holds its heading, or without wind). */
 export function lineCrabDeg(headingDeg: number, env: AttitudeEnvelope): number {
   return env.crabs ? crabAngleDeg(headingDeg, env.windMps, env.windFromDeg, env.airspeedMps) : 0;
@@ -32,8 +39,8 @@ export function lineCrabDeg(headingDeg: number, env: AttitudeEnvelope): number {
  * The guaranteed extents of one line's photos. Each photo may take any attitude of the envelope's box (yaw
  * between the planned heading and the crabbed one, pitch and roll within their limits), independently of its
  * neighbours. The box is tested on the lattice of `envelopeSamples`, with its margin: a ground point inside the
- * image shrunk by the margin at every corner of a lattice cell is inside the image at every attitude of that
- * cell (the piecewise interpolation bound stated there holds cell by cell), so `inner` is ground the photo
+ * image shrunk by the margin at every lattice attitude of a cell is inside the image at every attitude of that
+ * cell (the piecewise interpolation bound stated there holds lattice cell by lattice cell), so `inner` is ground the photo
  * holds whatever its attitude within the cell; the lengths use the image grown by the same margin. Taking the
  * least overlap over pairs of cells, rather than the held ground and the longest footprint over the whole box,
  * keeps the bound close: within one cell the attitude that shortens the shared ground and the one that
@@ -52,13 +59,22 @@ export function guaranteedExtents(camera: Camera, heightAt: HeightAt, line: Line
     shrunk.push(photoExtents(camera, heightAt, line, layoutHeadingDeg, { rot, insetPx: m }));
     grown.push(m > 0 ? photoExtents(camera, heightAt, line, layoutHeadingDeg, { rot, insetPx: -m }) : shrunk[a]);
   }
-  // cells: neighbouring lattice indices along each axis (a single index where the axis has one value)
-  const spans = (k: number) => (k === 1 ? [[0, 0]] : Array.from({ length: k - 1 }, (_, i) => [i, i + 1]));
+  // cells: along each axis at most CELLS_PER_AXIS runs of neighbouring lattice indices (a single index where the
+  // axis has one value); a cell holds every lattice attitude of its runs, so the margin rule holds for it as for
+  // each lattice cell inside it
+  const runs = (k: number): number[][] => {
+    if (k === 1) return [[0]];
+    const parts = Math.min(CELLS_PER_AXIS, k - 1);
+    return Array.from({ length: parts }, (_, i) => {
+      const a = Math.round((i * (k - 1)) / parts), b = Math.round(((i + 1) * (k - 1)) / parts);
+      return Array.from({ length: b - a + 1 }, (_, j) => a + j);
+    });
+  };
   const cellCorners: number[][] = [];
-  for (const [y0, y1] of spans(ny)) for (const [p0, p1] of spans(np)) for (const [r0, r1] of spans(nr)) {
-    const corners = new Set<number>();
-    for (const y of [y0, y1]) for (const p of [p0, p1]) for (const r of [r0, r1]) corners.add((y * np + p) * nr + r);
-    cellCorners.push([...corners]);
+  for (const ys of runs(ny)) for (const ps of runs(np)) for (const rs of runs(nr)) {
+    const members: number[] = [];
+    for (const y of ys) for (const p of ps) for (const r of rs) members.push((y * np + p) * nr + r);
+    cellCorners.push(members);
   }
   const cells = cellCorners.length;
   const inner = new Float64Array(n * cells * 12), lengths = new Float64Array(n * cells * 6);
