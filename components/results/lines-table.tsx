@@ -33,11 +33,11 @@ const allColumns: Column[] = [
   { key: 'gsdMedianCm', label: 'GSD median', cell: (r) => formatGsd(r.gsdMedianCm), flex: 1 },
   { key: 'gsdMaxCm', label: 'GSD max', cell: (r) => formatGsd(r.gsdMaxCm, 2, 'max'), flex: 1 },
   // against the overlap targets: one decimal, rounded toward failing (79.8 % never shows as 80 %)
-  { key: 'forwardOverlapMin', label: 'Forward min', cell: (r) => formatPercent(r.forwardOverlapMin, 1, 'min'), flex: 1 },
+  { key: 'forwardOverlapMin', label: 'Fwd min', cell: (r) => formatPercent(r.forwardOverlapMin, 1, 'min'), flex: 1 },
   { key: 'sideOverlapMin', label: 'Side min', cell: (r) => formatPercent(r.sideOverlapMin, 1, 'min'), flex: 0.9 },
   // as guaranteed under the attitude envelope, beside the planned figures (only when the mission has an envelope)
-  { key: 'forwardOverlapGuaranteedMin', label: 'Fwd guaranteed', cell: (r) => formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min'), flex: 1.1 },
-  { key: 'sideOverlapGuaranteedMin', label: 'Side guaranteed', cell: (r) => formatPercent(r.sideOverlapGuaranteedMin, 1, 'min'), flex: 1.1 },
+  { key: 'forwardOverlapGuaranteedMin', label: 'Fwd guar.', cell: (r) => formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min'), flex: 1.1 },
+  { key: 'sideOverlapGuaranteedMin', label: 'Side guar.', cell: (r) => formatPercent(r.sideOverlapGuaranteedMin, 1, 'min'), flex: 1.1 },
   { key: 'aglMinM', label: 'AGL min', cell: (r, u) => formatLength(r.aglMinM, u, 0, 'min'), flex: 0.9 },
   { key: 'legs', label: 'Legs', cell: (r) => String(r.legs), flex: 0.7 },
   { key: 'warningCount', label: 'Warnings', cell: (r) => (r.warnings.length ? String(r.warnings.length) : '–'), flex: 1.2 },
@@ -125,7 +125,7 @@ function LinesList(p: LinesTableProps) {
     { key: 'number', label: 'Order' },
     { key: 'gsdMaxCm', label: 'GSD max' },
     { key: 'sideOverlapMin', label: 'Side min' },
-    ...(p.envelope ? [{ key: 'sideOverlapGuaranteedMin' as const, label: 'Side guaranteed' }] : []),
+    ...(p.envelope ? [{ key: 'sideOverlapGuaranteedMin' as const, label: 'Side guar.' }] : []),
     { key: 'aglMinM', label: 'Lowest' },
     { key: 'warningCount', label: 'Warnings' },
   ];

@@ -76,7 +76,7 @@ describe('overlaps as planned and as guaranteed on the results screen', () => {
       if (size === 'wide') {
         const table = page.getByTestId('lines-table');
         await table.waitFor();
-        await expect(page.getByTestId('lines-sort-forwardOverlapGuaranteedMin').textContent()).resolves.toContain('Fwd guaranteed');
+        await expect(page.getByTestId('lines-sort-forwardOverlapGuaranteedMin').textContent()).resolves.toContain('Fwd guar.');
         const row1 = await page.getByTestId('line-row-1').textContent();
         expect(row1).toContain(fwd);
         expect(row1).toContain(side);
@@ -88,6 +88,7 @@ describe('overlaps as planned and as guaranteed on the results screen', () => {
       const restore = await growToContent(page);
       await page.screenshot({ path: path.join(shotDir, `results-${size}.png`), fullPage: true });
       await page.getByTestId('summary-figures').screenshot({ path: path.join(shotDir, `summary-${size}.png`) });
+      await page.getByTestId(size === 'wide' ? 'lines-table' : 'line-row-1').screenshot({ path: path.join(shotDir, `lines-${size}.png`) });
       await restore();
       expect(pageErrors).toEqual([]);
       await context.close();
