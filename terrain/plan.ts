@@ -10,6 +10,7 @@ import { fitAltitudes, type AltitudeLimits } from './altitude';
 import { stationOverlaps } from './overlap';
 import { envelopeWords, guaranteedExtents, lineCrabDeg } from './overlap-envelope';
 import { resolveCoverageInput } from './coverage-spec';
+import type { AttitudeEnvelope } from './attitude-envelope';
 import { adviseHeading } from './heading';
 import { estimateMission } from './estimates';
 import { geoidUndulationM } from './heights';
@@ -178,8 +179,17 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
   const gsdPerM = (pixelPitchMm(cam) / cam.focalLengthMm) * 100;
   const band = { min: mission.targetGsdCm * (1 - mission.gsdTolerance), max: mission.targetGsdCm * (1 + mission.gsdTolerance) };
   // the mission's attitude envelope (none unless it names one): overlaps are then also given as guaranteed
-  const envelope = resolveCoverageInput(missionInput, mission).envelope;
-  const crabDegMax = envelope ? Math.max(0, ...photos.map((p) => Math.abs(lineCrabDeg(p.headingDeg, envelope)))) : 0;
+  // An envelope the lines cannot be held in (crosswind at least the airspeed) leaves the overlaps as planned only
+  // and says why, as the coverage run refuses it: the plan's own figures still stand.
+  let envelope: AttitudeEnvelope | null = null, crabDegMax = 0, envelopeRefused: string | null = null;
+  try {
+    envelope = resolveCoverageInput(missionInput, mission).envelope;
+    if (envelope) { const env = envelope; crabDegMax = Math.max(0, ...photos.map((p) => Math.abs(lineCrabDeg(p.headingDeg, env)))); }
+  } catch (err) {
+    if (!(err instanceof TerrainError)) throw err;
+    envelope = null;
+    envelopeRefused = err.message;
+  }
   let marginPx = 0, attitudeCount = 0;
   const results = stationOverlaps(cam, heights.heightAt, photos, headingDeg, {
     forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, gsdMinCm: band.min, gsdMaxCm: band.max,
@@ -308,6 +318,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     ...transitWarnings(lines, profiles.map((p) => p.fit.legs), takeoffXY, takeoffGroundM, heights.heightAt, lim.clearanceM),
     ...outLines.flatMap((l) => l.warnings),
   ];
+  if (envelopeRefused) warnings.push({ code: 'envelope-refused', message: `Overlaps are given as planned only: the attitude envelope cannot be applied (${envelopeRefused})` });
   if (leftOut.length > 0) {
     const m = leftOut.reduce((t, l) => t + l.lengthM, 0);
     warnings.push({ code: 'lines-left-out', message: `${leftOut.length} flight line${leftOut.length > 1 ? 's' : ''} (${Math.round(m)} m) lie entirely over ground the grid has no data for and were left out: that strip of the area is not covered. Extend the grid or shrink the area.` });
