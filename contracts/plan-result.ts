@@ -7,7 +7,7 @@ const n = z.number();
 const nn = z.number().nullable();
 const fraction = z.number().gte(0).lte(1);
 
-export const stationFlagCodes = ['ground-unknown', 'footprint-off-grid', 'forward-overlap-low', 'side-overlap-low', 'gsd-coarse', 'gsd-fine', 'above-max-agl', 'below-clearance'] as const;
+export const stationFlagCodes = ['ground-unknown', 'footprint-off-grid', 'forward-overlap-low', 'side-overlap-low', 'forward-overlap-envelope', 'side-overlap-envelope', 'gsd-coarse', 'gsd-fine', 'above-max-agl', 'below-clearance'] as const;
 export const unmetReasons = ['ground-unknown', 'above-max-agl', 'max-agl-ahead', 'band-above-max-agl', 'clearance-above-band', 'climb-limit', 'descent-limit', 'hold', 'steps', 'leg-limits'] as const;
 
 export const stationFlagSchema = z.object({ code: z.enum(stationFlagCodes), reason: z.string() });
@@ -20,6 +20,8 @@ export const planStationSchema = z.object({
   lon: n, lat: n, distanceM: n,
   groundM: nn, altitudeM: n, altitudeAboveTakeoffM: n, aglM: nn, gsdCm: nn,
   forwardOverlap: fraction.nullable(), sideOverlap: fraction.nullable(),
+  // as guaranteed under the mission's attitude envelope (null without one; absent in results stored before)
+  forwardOverlapGuaranteed: fraction.nullable().optional(), sideOverlapGuaranteed: fraction.nullable().optional(),
   flags: z.array(stationFlagSchema),
 });
 
@@ -42,10 +44,19 @@ export const planLineSchema = z.object({
   unmet: z.array(unmetStretchSchema), warnings: z.array(planWarningSchema),
 });
 
+/** The attitude envelope the guaranteed overlaps hold under (angles in degrees, speeds in m/s). */
+export const overlapEnvelopeSchema = z.object({
+  rollDeg: n, pitchDeg: n, windMps: n, windFromDeg: n, airspeedMps: n, crabs: z.boolean(), crabDegMax: n, stepDeg: n,
+  marginPx: n, attitudeCount: z.number().int(), words: z.string(),
+});
+
 export const planSummarySchema = z.object({
   lineCount: z.number().int(), photoCount: z.number().int(), flightDistanceM: n, flightTimeS: n, batteries: z.number().int(),
   gsdCm: z.object({ min: nn, median: nn, max: nn }),
   forwardOverlapMin: fraction.nullable(), sideOverlapMin: fraction.nullable(), aglMinM: nn, aglMaxM: nn,
+  // optional and nullable: results stored before had none; null = the mission has no envelope (as planned only)
+  forwardOverlapGuaranteedMin: fraction.nullable().optional(), sideOverlapGuaranteedMin: fraction.nullable().optional(),
+  overlapEnvelope: overlapEnvelopeSchema.nullable().optional(),
   shareWithinGsdTarget: fraction, flaggedStationCount: z.number().int(), unmetLengthM: n,
   mode: altitudeModeSchema, headingDeg: n, plannedHeightM: n, gsdBandCm: z.object({ min: n, max: n }),
   lineSpacingM: n, triggerDistanceM: n, footprintAcrossM: n, footprintAlongM: n, maxDistanceFromTakeoffM: n,

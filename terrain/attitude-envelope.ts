@@ -50,6 +50,8 @@ export interface EnvelopeSamples {
   /** Camera-to-local rotations, 9 numbers each. */
   rotations: Float64Array;
   count: number;
+  /** Lattice size along yaw, pitch and roll (rotations run roll fastest, then pitch, then yaw). */
+  shape: [number, number, number];
   /** Pixels each tested attitude must keep the point inside the image edges. */
   marginPx: number;
 }
@@ -97,5 +99,5 @@ export function envelopeSamples(camera: Camera, pose: CameraPose, env: AttitudeE
   const cosMax = 1 / Math.sqrt(1 + rMax * rMax);
   const focalPx = camera.focalLengthMm / Math.min(camera.sensorWidthMm / camera.imageWidthPx, camera.sensorHeightMm / camera.imageHeightPx);
   const marginPx = E === 0 ? 0 : ((E * (1 + rMax)) / (cosMax - 2 * E)) * focalPx;
-  return { rotations, count, marginPx };
+  return { rotations, count, shape: [yaws.length, pitches.length, rolls.length], marginPx };
 }

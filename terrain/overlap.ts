@@ -3,6 +3,7 @@ import type { Camera } from './camera';
 import { pixelPitchMm } from './camera';
 import type { HeightAt } from './footprint';
 import { cameraToLocal, castPixel } from './footprint';
+import type { GuaranteedExtents } from './overlap-envelope';
 
 /** The photos of one flight line: station positions (local metres), altitudes and the flight direction. */
 export interface LinePhotos {
@@ -32,6 +33,8 @@ export type StationFlagCode =
   | 'footprint-off-grid'
   | 'forward-overlap-low'
   | 'side-overlap-low'
+  | 'forward-overlap-envelope'
+  | 'side-overlap-envelope'
   | 'gsd-coarse'
   | 'gsd-fine'
   | 'above-max-agl'
@@ -52,7 +55,19 @@ export interface StationResult {
   forwardOverlap: number | null;
   /** Least overlap with the nearest photo of a neighbouring line (null where the line has no neighbour there). */
   sideOverlap: number | null;
+  /**
+   * The same overlaps as guaranteed: the least over every attitude of the mission's envelope applied to each
+   * photo of the pair (`overlap-envelope.ts`); null without an envelope or where unknown.
+   */
+  forwardOverlapGuaranteed: number | null;
+  sideOverlapGuaranteed: number | null;
   flags: StationFlag[];
+}
+
+/** The attitude envelope's figures for the guaranteed overlaps: per line its guaranteed extents, and the envelope in words. */
+export interface GuaranteedOverlapInput {
+  extentsFor: (lineIndex: number, planned: Float64Array) => GuaranteedExtents;
+  words: string;
 }
 
 const DEG = Math.PI / 180;
@@ -60,6 +75,16 @@ const DEG = Math.PI / 180;
 export const STRIDE = 15;
 const f2 = (v: number) => v.toFixed(2);
 const f1 = (v: number) => v.toFixed(1);
+/** An overlap said against a minimum: two decimals rounded down (toward failing), as the screens round it. */
+const down2 = (v: number) => (Math.floor(v * 100 + 1e-7) / 100).toFixed(2);
+
+/** Another attitude than the planned one (the same for every photo of the line) and an inset of the image edges. */
+export interface ExtentOptions {
+  /** Camera-to-local rotation used for every photo instead of the planned one (level, yaw along the line). */
+  rot?: Float64Array;
+  /** Pixels the edge points move into the image (negative: out of it). */
+  insetPx?: number;
+}
 
 /**
  * Ground extents of each photo in the layout frame (a along `layoutHeadingDeg`, c to its right):
@@ -68,13 +93,15 @@ const f1 = (v: number) => v.toFixed(1);
  * a station (STRIDE), NaN where a ray missed.
  * Rays go through the image edge points (Brown distortion included) to the grid for the photo's real pose.
  */
-export function photoExtents(camera: Camera, heightAt: HeightAt, line: LinePhotos, layoutHeadingDeg: number): Float64Array {
+export function photoExtents(camera: Camera, heightAt: HeightAt, line: LinePhotos, layoutHeadingDeg: number, opts: ExtentOptions = {}): Float64Array {
   const n = line.x.length;
   const out = new Float64Array(n * STRIDE).fill(NaN);
   const W = camera.imageWidthPx, H = camera.imageHeightPx;
   const alongIsWidth = camera.alongTrackSide === 'width';
   // image point at across fraction p and along fraction q (q = 0 front), in pixels
-  const px = (p: number, q: number): [number, number] => (alongIsWidth ? [W * (1 - q), H * p] : [W * p, H * q]);
+  // the edges pulled in by the inset (pushed out when negative)
+  const m = opts.insetPx ?? 0;
+  const px = (p: number, q: number): [number, number] => (alongIsWidth ? [m + (W - 2 * m) * (1 - q), m + (H - 2 * m) * p] : [m + (W - 2 * m) * p, m + (H - 2 * m) * q]);
   const th = layoutHeadingDeg * DEG;
   const sa = Math.sin(th), ca = Math.cos(th);
   const pts: Array<[number, number]> = [];
@@ -82,7 +109,7 @@ export function photoExtents(camera: Camera, heightAt: HeightAt, line: LinePhoto
   const A = new Float64Array(9), C = new Float64Array(9);
   for (let s = 0; s < n; s++) {
     const pose = { xM: line.x[s], yM: line.y[s], altitudeM: line.altitudeM[s], yawDeg: line.headingDeg };
-    const rot = cameraToLocal(camera, pose);
+    const rot = opts.rot ?? cameraToLocal(camera, pose);
     const startHeightM = heightAt(pose.xM, pose.yM);
     for (let k = 0; k < 9; k++) {
       if (k === 4) continue; // the image centre is not an edge
@@ -119,6 +146,18 @@ export function intervalOverlap(a0: number, a1: number, b0: number, b1: number):
 }
 
 /**
+ * Like `intervalOverlap`, with each interval's length given apart from its ends: the guaranteed overlap takes the
+ * ground every attitude sees (the ends) over the longest footprint any attitude gives (the lengths), so neither
+ * half of the fraction is optimistic.
+ */
+export function sharedOverlap(a0: number, a1: number, aLen: number, b0: number, b1: number, bLen: number): number {
+  const shared = Math.min(a1, b1) - Math.max(a0, b0);
+  const mean = (aLen + bLen) / 2;
+  if (!(mean > 0) || Number.isNaN(shared)) return NaN;
+  return shared <= 0 ? 0 : Math.min(1, shared / mean);
+}
+
+/**
  * GSD, forward and side overlap and flags at every station of every line. Both overlaps are the least across
  * the footprint, so a compliance figure is never optimistic: forward overlap is the lowest along-track overlap
  * with the previous photo of the left, centre and right image columns; side overlap the lowest across-track
@@ -127,8 +166,9 @@ export function intervalOverlap(a0: number, a1: number, b0: number, b1: number):
  * photos' ground extents over the real terrain; tests/terrain/overlap-footprints.test.ts checks it against
  * shapely on a steep grid.
  */
-export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], layoutHeadingDeg: number, t: OverlapTargets): StationResult[][] {
+export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], layoutHeadingDeg: number, t: OverlapTargets, guaranteed: GuaranteedOverlapInput | null = null): StationResult[][] {
   const ext = lines.map((l) => photoExtents(camera, heightAt, l, layoutHeadingDeg));
+  const gext = guaranteed ? ext.map((e, li) => guaranteed.extentsFor(li, e)) : null;
   const th = layoutHeadingDeg * DEG;
   const sa = Math.sin(th);
   const ca = Math.cos(th);
@@ -167,8 +207,51 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       }
       let sideOverlap: number | null = null;
       for (const list of neighbours) {
-        const v = sideWith(e, o, list, ext);
+        const v = sideWith(e, o, list, ext, (r, p, q, f) => {
+          const ep = ext[p.line], eq = ext[q.line];
+          const bp = p.s * STRIDE, bq = q.s * STRIDE;
+          // the neighbouring photos' centre rows, interpolated to this row's along-track position
+          const c0 = ep[bp + 8] + (eq[bq + 8] - ep[bp + 8]) * f;
+          const c1 = ep[bp + 9] + (eq[bq + 9] - ep[bp + 9]) * f;
+          return intervalOverlap(e[o + 6 + r * 2], e[o + 7 + r * 2], c0, c1);
+        });
         if (v !== null && (sideOverlap === null || v < sideOverlap)) sideOverlap = v;
+      }
+      let forwardOverlapGuaranteed: number | null = null, sideOverlapGuaranteed: number | null = null;
+      if (gext) {
+        const g = gext[li], C = g.cells;
+        if (s > 0 && forwardOverlap !== null) {
+          // the same least-over-the-columns rule on the ground every attitude of a cell sees over the cell's
+          // longest footprints, the least over every pair of cells of the two photos
+          let m = Infinity;
+          for (let c1 = 0; c1 < C; c1++) for (let c2 = 0; c2 < C; c2++) {
+            const p = ((s - 1) * C + c1), q = (s * C + c2);
+            for (let k = 0; k < 3; k++) m = Math.min(m, sharedOverlap(g.inner[p * 12 + 2 * k], g.inner[p * 12 + 2 * k + 1], g.lengths[p * 6 + k], g.inner[q * 12 + 2 * k], g.inner[q * 12 + 2 * k + 1], g.lengths[q * 6 + k]));
+          }
+          forwardOverlapGuaranteed = Number.isNaN(m) ? null : m;
+        }
+        if (sideOverlap !== null) {
+          for (const list of neighbours) {
+            const v = sideWith(e, o, list, ext, (r, p, q, f) => {
+              // every cell of this photo against every pair of cells of the two neighbours around the row
+              const gp = gext[p.line], gq = gext[q.line];
+              let m = Infinity;
+              for (let c = 0; c < C; c++) {
+                const me = (s * C + c);
+                for (let cp = 0; cp < gp.cells; cp++) for (let cq = 0; cq < gq.cells; cq++) {
+                  const P = p.s * gp.cells + cp, Q = q.s * gq.cells + cq;
+                  const c0 = gp.inner[P * 12 + 8] + (gq.inner[Q * 12 + 8] - gp.inner[P * 12 + 8]) * f;
+                  const c1 = gp.inner[P * 12 + 9] + (gq.inner[Q * 12 + 9] - gp.inner[P * 12 + 9]) * f;
+                  // the strip's longest length, never below the held ground's (rounding of the interpolation)
+                  const len = Math.max(gp.lengths[P * 6 + 4] + (gq.lengths[Q * 6 + 4] - gp.lengths[P * 6 + 4]) * f, c1 - c0);
+                  m = Math.min(m, sharedOverlap(g.inner[me * 12 + 6 + 2 * r], g.inner[me * 12 + 7 + 2 * r], g.lengths[me * 6 + 3 + r], c0, c1, len));
+                }
+              }
+              return m;
+            });
+            if (v !== null && (sideOverlapGuaranteed === null || v < sideOverlapGuaranteed)) sideOverlapGuaranteed = v;
+          }
+        }
       }
       if (groundM === null) flags.push({ code: 'ground-unknown', reason: 'No elevation data under this photo (nodata or off the grid); its height above ground is unknown.' });
       else if (!complete) flags.push({ code: 'footprint-off-grid', reason: 'Part of this photo\'s footprint lies off the grid or over nodata; its overlaps there are unknown.' });
@@ -178,11 +261,18 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       if (sideOverlap !== null && sideOverlap < t.sideOverlap - 1e-9) {
         flags.push({ code: 'side-overlap-low', reason: `Side overlap ${f2(sideOverlap)} is below the target ${f2(t.sideOverlap)}: ${terrainWhy(aglM, t.plannedHeightM)}` });
       }
+      // a station that meets the target as planned but not at every attitude of the envelope
+      if (guaranteed && forwardOverlap !== null && forwardOverlap >= t.forwardOverlap - 1e-9 && forwardOverlapGuaranteed !== null && forwardOverlapGuaranteed < t.forwardOverlap - 1e-9) {
+        flags.push({ code: 'forward-overlap-envelope', reason: `Forward overlap as guaranteed ${down2(forwardOverlapGuaranteed)} is below the target ${f2(t.forwardOverlap)} under the attitude envelope (${guaranteed.words}); as planned it is ${down2(forwardOverlap)}.` });
+      }
+      if (guaranteed && sideOverlap !== null && sideOverlap >= t.sideOverlap - 1e-9 && sideOverlapGuaranteed !== null && sideOverlapGuaranteed < t.sideOverlap - 1e-9) {
+        flags.push({ code: 'side-overlap-envelope', reason: `Side overlap as guaranteed ${down2(sideOverlapGuaranteed)} is below the target ${f2(t.sideOverlap)} under the attitude envelope (${guaranteed.words}); as planned it is ${down2(sideOverlap)}.` });
+      }
       if (gsdCm !== null && gsdCm > t.gsdMaxCm + 1e-9) flags.push({ code: 'gsd-coarse', reason: `GSD ${f2(gsdCm)} cm is coarser than the allowed ${f2(t.gsdMaxCm)} cm (height above ground ${f1(aglM!)} m).` });
       if (gsdCm !== null && gsdCm < t.gsdMinCm - 1e-9) flags.push({ code: 'gsd-fine', reason: `GSD ${f2(gsdCm)} cm is finer than the band's ${f2(t.gsdMinCm)} cm (height above ground ${f1(aglM!)} m): more photos than needed, smaller footprints.` });
       if (aglM !== null && aglM > t.maxAglM + 1e-6) flags.push({ code: 'above-max-agl', reason: `Height above ground ${f1(aglM)} m exceeds the ${f1(t.maxAglM)} m limit.` });
       if (aglM !== null && aglM < t.clearanceM - 1e-6) flags.push({ code: 'below-clearance', reason: `Height above ground ${f1(aglM)} m is below the ${f1(t.clearanceM)} m clearance.` });
-      out.push({ groundM, aglM, gsdCm, forwardOverlap, sideOverlap, flags });
+      out.push({ groundM, aglM, gsdCm, forwardOverlap, sideOverlap, forwardOverlapGuaranteed, sideOverlapGuaranteed, flags });
     }
     return out;
   });
@@ -199,9 +289,10 @@ function terrainWhy(aglM: number | null, plannedM: number): string {
  * Least across-track overlap of photo `o` with a neighbouring row: for each image row (front, centre, back)
  * the neighbouring strip's across-track extent at that row's along-track position, interpolated between the
  * two neighbour photos around it (so the figure does not jump as the photos of the two rows slide past each
- * other); null where the neighbouring row does not reach this far (the area's edge).
+ * other); null where the neighbouring row does not reach this far (the area's edge). `rowOverlap` gives image
+ * row r's overlap with the strip between neighbour photos p and q at fraction f (as planned or as guaranteed).
  */
-function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: number; a: number }>, ext: Float64Array[]): number | null {
+function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: number; a: number }>, ext: Float64Array[], rowOverlap: (r: number, p: { line: number; s: number }, q: { line: number; s: number }, f: number) => number): number | null {
   if (list.length === 0) return null;
   let m = Infinity;
   let weight = 0;
@@ -213,17 +304,14 @@ function sideWith(e: Float64Array, o: number, list: Array<{ line: number; s: num
     else if (a >= list[hi].a) lo = hi;
     else while (hi - lo > 1) { const k = (lo + hi) >> 1; if (list[k].a <= a) lo = k; else hi = k; }
     const p = list[lo], q = list[hi];
-    const ep = ext[p.line], eq = ext[q.line];
-    const bp = p.s * STRIDE, bq = q.s * STRIDE;
     // beyond the end photo of the neighbouring row by more than its along-track half length: no neighbour here
     if (lo === hi) {
+      const ep = ext[p.line], bp = p.s * STRIDE;
       const half = (ep[bp + 3] - ep[bp + 2]) / 2;
       if (!(Math.abs(a - p.a) <= half)) continue;
     }
     const f = hi === lo || q.a === p.a ? 0 : (a - p.a) / (q.a - p.a);
-    const c0 = ep[bp + 8] + (eq[bq + 8] - ep[bp + 8]) * f;
-    const c1 = ep[bp + 9] + (eq[bq + 9] - ep[bp + 9]) * f;
-    const v = intervalOverlap(e[o + 6 + r * 2], e[o + 7 + r * 2], c0, c1);
+    const v = rowOverlap(r, p, q, f);
     if (Number.isNaN(v)) return null;
     // the least over the front, centre and back image rows (never optimistic)
     m = Math.min(m, v);

@@ -24,6 +24,9 @@ export interface PlanStation {
   gsdCm: number | null;
   forwardOverlap: number | null;
   sideOverlap: number | null;
+  /** The overlaps as guaranteed under the mission's attitude envelope (null without one or where unknown; absent in results stored before). */
+  forwardOverlapGuaranteed?: number | null;
+  sideOverlapGuaranteed?: number | null;
   flags: StationFlag[];
 }
 
@@ -63,6 +66,23 @@ export interface PlanLine {
   warnings: PlanWarning[];
 }
 
+/** The attitude envelope of the guaranteed overlaps, as the analysis used it. */
+export interface OverlapEnvelopeSummary {
+  rollDeg: number;
+  pitchDeg: number;
+  windMps: number;
+  windFromDeg: number;
+  airspeedMps: number;
+  crabs: boolean;
+  /** Largest crab angle over the lines, degrees (0 for an aircraft that holds its heading). */
+  crabDegMax: number;
+  stepDeg: number;
+  /** Image margin that makes the lattice of tested attitudes stand for the whole box, pixels. */
+  marginPx: number;
+  attitudeCount: number;
+  words: string;
+}
+
 /** Plan-wide figures. */
 export interface PlanSummary {
   lineCount: number;
@@ -73,6 +93,11 @@ export interface PlanSummary {
   gsdCm: { min: number | null; median: number | null; max: number | null };
   forwardOverlapMin: number | null;
   sideOverlapMin: number | null;
+  /** Least guaranteed overlaps (null without an envelope). */
+  forwardOverlapGuaranteedMin?: number | null;
+  sideOverlapGuaranteedMin?: number | null;
+  /** The attitude envelope the guaranteed overlaps hold under; null when the mission has none (overlaps as planned only). */
+  overlapEnvelope?: OverlapEnvelopeSummary | null;
   aglMinM: number | null;
   aglMaxM: number | null;
   /** Share of stations whose GSD lies within the target's tolerance band, fraction. */

@@ -8,6 +8,9 @@ import { localFrameFor, localHeights, type LocalFrame } from './local-frame';
 import { planFlightLines, polygonToLocal, pointAlong, type FlightLine } from './lines';
 import { fitAltitudes, type AltitudeLimits } from './altitude';
 import { stationOverlaps } from './overlap';
+import { envelopeWords, guaranteedExtents, lineCrabDeg } from './overlap-envelope';
+import { resolveCoverageInput } from './coverage-spec';
+import type { AttitudeEnvelope } from './attitude-envelope';
 import { adviseHeading } from './heading';
 import { estimateMission } from './estimates';
 import { geoidUndulationM } from './heights';
@@ -175,10 +178,31 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
   });
   const gsdPerM = (pixelPitchMm(cam) / cam.focalLengthMm) * 100;
   const band = { min: mission.targetGsdCm * (1 - mission.gsdTolerance), max: mission.targetGsdCm * (1 + mission.gsdTolerance) };
+  // the mission's attitude envelope (none unless it names one): overlaps are then also given as guaranteed
+  // An envelope the lines cannot be held in (crosswind at least the airspeed) leaves the overlaps as planned only
+  // and says why, as the coverage run refuses it: the plan's own figures still stand.
+  let envelope: AttitudeEnvelope | null = null, crabDegMax = 0, envelopeRefused: string | null = null;
+  try {
+    envelope = resolveCoverageInput(missionInput, mission).envelope;
+    if (envelope) { const env = envelope; crabDegMax = Math.max(0, ...photos.map((p) => Math.abs(lineCrabDeg(p.headingDeg, env)))); }
+  } catch (err) {
+    if (!(err instanceof TerrainError)) throw err;
+    envelope = null;
+    envelopeRefused = err.message;
+  }
+  let marginPx = 0, attitudeCount = 0;
   const results = stationOverlaps(cam, heights.heightAt, photos, headingDeg, {
     forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, gsdMinCm: band.min, gsdMaxCm: band.max,
     maxAglM: mission.maxAglM, clearanceM: lim.clearanceM, plannedHeightM: H,
-  });
+  }, envelope ? {
+    extentsFor: (li, planned) => {
+      const g = guaranteedExtents(cam, heights.heightAt, photos[li], headingDeg, planned, envelope);
+      marginPx = Math.max(marginPx, g.marginPx);
+      attitudeCount = Math.max(attitudeCount, g.attitudeCount);
+      return g;
+    },
+    words: envelopeWords(envelope, crabDegMax),
+  } : null);
   const aboveTakeoff = (z: number) => round(z - takeoffGroundM, 2);
   const ll = (x: number, y: number) => { const [lon, lat] = frame.toLonLat(x, y); return { lon: round(lon, 8), lat: round(lat, 8) }; };
   const outLines: PlanLine[] = lines.map((line, li) => {
@@ -193,6 +217,8 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
       gsdCm: r.gsdCm === null ? null : round(r.gsdCm, 4),
       forwardOverlap: r.forwardOverlap === null ? null : round(r.forwardOverlap, 4),
       sideOverlap: r.sideOverlap === null ? null : round(r.sideOverlap, 4),
+      forwardOverlapGuaranteed: r.forwardOverlapGuaranteed === null ? null : round(r.forwardOverlapGuaranteed, 4),
+      sideOverlapGuaranteed: r.sideOverlapGuaranteed === null ? null : round(r.sideOverlapGuaranteed, 4),
       flags: r.flags,
     }));
     const at = (d: number): PlanPoint => { const p = pointAlong(line, d); return { ...ll(p[0], p[1]), distanceM: round(d, 3) }; };
@@ -222,13 +248,15 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
   });
   // summary
   const gsds: number[] = [], agls: number[] = [];
-  let fwdMin = Infinity, sideMin = Infinity, within = 0, flagged = 0, photoCount = 0, maxFromTakeoff = 0;
+  let fwdMin = Infinity, sideMin = Infinity, fwdGMin = Infinity, sideGMin = Infinity, within = 0, flagged = 0, photoCount = 0, maxFromTakeoff = 0;
   results.forEach((lr, li) => lr.forEach((r, s) => {
     photoCount++;
     if (r.gsdCm !== null) { gsds.push(r.gsdCm); if (r.gsdCm >= band.min - 1e-9 && r.gsdCm <= band.max + 1e-9) within++; }
     if (r.aglM !== null) agls.push(r.aglM);
     if (r.forwardOverlap !== null) fwdMin = Math.min(fwdMin, r.forwardOverlap);
     if (r.sideOverlap !== null) sideMin = Math.min(sideMin, r.sideOverlap);
+    if (r.forwardOverlapGuaranteed !== null) fwdGMin = Math.min(fwdGMin, r.forwardOverlapGuaranteed);
+    if (r.sideOverlapGuaranteed !== null) sideGMin = Math.min(sideGMin, r.sideOverlapGuaranteed);
     if (r.flags.length > 0) flagged++;
     maxFromTakeoff = Math.max(maxFromTakeoff, Math.hypot(photos[li].x[s] - takeoffXY[0], photos[li].y[s] - takeoffXY[1]));
   }));
@@ -263,6 +291,13 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     gsdCm: { min: gsds.length ? round(gsds[0], 4) : null, median: med === null ? null : round(med, 4), max: gsds.length ? round(gsds[gsds.length - 1], 4) : null },
     forwardOverlapMin: orNull(round(fwdMin, 4)),
     sideOverlapMin: orNull(round(sideMin, 4)),
+    forwardOverlapGuaranteedMin: orNull(round(fwdGMin, 4)),
+    sideOverlapGuaranteedMin: orNull(round(sideGMin, 4)),
+    overlapEnvelope: envelope ? {
+      rollDeg: envelope.rollDeg, pitchDeg: envelope.pitchDeg, windMps: envelope.windMps, windFromDeg: envelope.windFromDeg,
+      airspeedMps: envelope.airspeedMps, crabs: envelope.crabs, crabDegMax: round(crabDegMax, 2), stepDeg: envelope.stepDeg,
+      marginPx: round(marginPx, 2), attitudeCount, words: envelopeWords(envelope, crabDegMax),
+    } : null,
     aglMinM: agls.length ? round(Math.min(...agls), 3) : null,
     aglMaxM: agls.length ? round(Math.max(...agls), 3) : null,
     shareWithinGsdTarget: photoCount ? round(within / photoCount, 4) : 0,
@@ -283,6 +318,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     ...transitWarnings(lines, profiles.map((p) => p.fit.legs), takeoffXY, takeoffGroundM, heights.heightAt, lim.clearanceM),
     ...outLines.flatMap((l) => l.warnings),
   ];
+  if (envelopeRefused) warnings.push({ code: 'envelope-refused', message: `Overlaps are given as planned only: the attitude envelope cannot be applied (${envelopeRefused})` });
   if (leftOut.length > 0) {
     const m = leftOut.reduce((t, l) => t + l.lengthM, 0);
     warnings.push({ code: 'lines-left-out', message: `${leftOut.length} flight line${leftOut.length > 1 ? 's' : ''} (${Math.round(m)} m) lie entirely over ground the grid has no data for and were left out: that strip of the area is not covered. Extend the grid or shrink the area.` });
@@ -292,7 +328,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     for (const l of outLines) for (const u of l.unmet) byReason.set(u.reason, (byReason.get(u.reason) ?? 0) + u.endM - u.startM);
     warnings.push({ code: 'band-not-held', message: `The GSD band or the height limit is not held over ${round(unmetLengthM, 0)} m of line (${[...byReason].map(([r, m]) => `${r} ${Math.round(m)} m`).join(', ')}); see each line's unmet stretches.` });
   }
-  if (flagged > 0) warnings.push({ code: 'stations-flagged', message: `${flagged} of ${photoCount} photos are flagged (overlap or GSD off target over the real terrain); see each station's flags.` });
+  if (flagged > 0) warnings.push({ code: 'stations-flagged', message: `${flagged} of ${photoCount} photos are flagged (overlap or GSD off target over the real terrain${envelope ? ', or overlap under the attitude envelope' : ''}); see each station's flags.` });
   if (est.batteries > 1) warnings.push({ code: 'batteries', message: `The flight needs about ${est.batteries} batteries (${round(est.flightTimeS / 60, 1)} min of flight, ${round(est.usablePerBatteryS / 60, 1)} min usable per battery after the reserve); plan the battery changes.` });
   return {
     lines: outLines,

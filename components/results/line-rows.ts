@@ -13,6 +13,9 @@ export interface LineRow {
   gsdMaxCm: number | null;
   forwardOverlapMin: number | null;
   sideOverlapMin: number | null;
+  /** The same under the mission's attitude envelope (null without one: as planned only). */
+  forwardOverlapGuaranteedMin: number | null;
+  sideOverlapGuaranteedMin: number | null;
   aglMinM: number | null;
   legs: number;
   /** Stations that miss a target. */
@@ -51,6 +54,8 @@ export function lineRows(lines: readonly PlanLine[]): LineRow[] {
       gsdMaxCm: gsd.length ? gsd[gsd.length - 1] : null,
       forwardOverlapMin: minOf(line.stations.map((s) => s.forwardOverlap)),
       sideOverlapMin: minOf(line.stations.map((s) => s.sideOverlap)),
+      forwardOverlapGuaranteedMin: minOf(line.stations.map((s) => s.forwardOverlapGuaranteed ?? null)),
+      sideOverlapGuaranteedMin: minOf(line.stations.map((s) => s.sideOverlapGuaranteed ?? null)),
       // the legs flown between photos too, as the report counts them
       aglMinM: minOf([...line.stations.map((s) => s.aglM), ...line.legs.map((g) => g.aglMinM)]),
       legs: line.legs.length,

@@ -19,11 +19,13 @@ export type LinesTableProps = {
   selected: number | null;
   onSelect: (index: number) => void;
   layout: 'table' | 'list';
+  /** The attitude envelope in words when the overlaps are also given as guaranteed; null: as planned only. */
+  envelope: string | null;
 };
 
 type Column = { key: LineSortKey; label: string; cell: (r: LineRow, u: UnitSystem) => string; flex: number };
 
-const columns: Column[] = [
+const allColumns: Column[] = [
   { key: 'number', label: 'Line', cell: (r) => String(r.number), flex: 0.8 },
   { key: 'lengthM', label: 'Length', cell: (r, u) => formatLength(r.lengthM, u), flex: 1 },
   { key: 'photos', label: 'Photos', cell: (r) => String(r.photos), flex: 1 },
@@ -31,8 +33,11 @@ const columns: Column[] = [
   { key: 'gsdMedianCm', label: 'GSD median', cell: (r) => formatGsd(r.gsdMedianCm), flex: 1 },
   { key: 'gsdMaxCm', label: 'GSD max', cell: (r) => formatGsd(r.gsdMaxCm, 2, 'max'), flex: 1 },
   // against the overlap targets: one decimal, rounded toward failing (79.8 % never shows as 80 %)
-  { key: 'forwardOverlapMin', label: 'Forward min', cell: (r) => formatPercent(r.forwardOverlapMin, 1, 'min'), flex: 1 },
+  { key: 'forwardOverlapMin', label: 'Fwd min', cell: (r) => formatPercent(r.forwardOverlapMin, 1, 'min'), flex: 1 },
   { key: 'sideOverlapMin', label: 'Side min', cell: (r) => formatPercent(r.sideOverlapMin, 1, 'min'), flex: 0.9 },
+  // as guaranteed under the attitude envelope, beside the planned figures (only when the mission has an envelope)
+  { key: 'forwardOverlapGuaranteedMin', label: 'Fwd guar.', cell: (r) => formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min'), flex: 1.1 },
+  { key: 'sideOverlapGuaranteedMin', label: 'Side guar.', cell: (r) => formatPercent(r.sideOverlapGuaranteedMin, 1, 'min'), flex: 1.1 },
   { key: 'aglMinM', label: 'AGL min', cell: (r, u) => formatLength(r.aglMinM, u, 0, 'min'), flex: 0.9 },
   { key: 'legs', label: 'Legs', cell: (r) => String(r.legs), flex: 0.7 },
   { key: 'warningCount', label: 'Warnings', cell: (r) => (r.warnings.length ? String(r.warnings.length) : '–'), flex: 1.2 },
@@ -57,8 +62,12 @@ function FlaggedNote({ row }: { row: LineRow }) {
   );
 }
 
+const guaranteedKeys: ReadonlyArray<LineSortKey> = ['forwardOverlapGuaranteedMin', 'sideOverlapGuaranteedMin'];
+
 export function LinesTable(p: LinesTableProps) {
   if (p.layout === 'list') return <LinesList {...p} />;
+  // without an envelope the overlaps are as planned only: no guaranteed columns
+  const columns = p.envelope ? allColumns : allColumns.filter((c) => !guaranteedKeys.includes(c.key));
   return (
     <View role="table" aria-label="Flight lines" testID="lines-table" style={styles.table}>
       <View role="row" style={[styles.tr, styles.thead]}>
@@ -104,6 +113,9 @@ export function LinesTable(p: LinesTableProps) {
           </Pressable>
         );
       })}
+      <Text variant="caption" tone="muted" style={styles.tableNote} testID="lines-table-basis">
+        {p.envelope ? `Forward and side minimums as planned, and as guaranteed under the attitude envelope (${p.envelope}).` : 'Overlaps as planned only: the mission has no attitude envelope.'}
+      </Text>
     </View>
   );
 }
@@ -113,6 +125,7 @@ function LinesList(p: LinesTableProps) {
     { key: 'number', label: 'Order' },
     { key: 'gsdMaxCm', label: 'GSD max' },
     { key: 'sideOverlapMin', label: 'Side min' },
+    ...(p.envelope ? [{ key: 'sideOverlapGuaranteedMin' as const, label: 'Side guar.' }] : []),
     { key: 'aglMinM', label: 'Lowest' },
     { key: 'warningCount', label: 'Warnings' },
   ];
@@ -143,7 +156,12 @@ function LinesList(p: LinesTableProps) {
                 GSD {formatGsd(r.gsdMinCm, 2, 'min')} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm, 2, 'max')} (min / median / max)
               </Text>
               <Text variant="caption">
-                Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
+                Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side as planned · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
+              </Text>
+              <Text variant="caption" testID={`line-row-${r.number}-guaranteed`}>
+                {p.envelope
+                  ? `As guaranteed under ${p.envelope}: ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} forward, ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')} side`
+                  : 'Overlaps as planned only: the mission has no attitude envelope'}
               </Text>
               <FlaggedNote row={r} />
               {r.warnings.map((w, i) => (
@@ -162,6 +180,7 @@ function LinesList(p: LinesTableProps) {
 
 const styles = StyleSheet.create({
   table: { borderWidth: layout.borderWidthPx, borderColor: colors.line, borderRadius: radii.md, overflow: 'hidden' },
+  tableNote: { paddingHorizontal: space.xs, paddingVertical: space.sm },
   tr: { flexDirection: 'row', alignItems: 'center' },
   thead: { backgroundColor: colors.surfaceSunken, borderBottomWidth: layout.borderWidthPx, borderBottomColor: colors.lineStrong },
   th: { paddingHorizontal: space.xs, paddingVertical: space.sm, minHeight: layout.compactControlPx, justifyContent: 'center' },

@@ -67,7 +67,7 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
       <Text variant="caption" tone="muted">
         In flying order; the mark by each line is the worst status among its photos (see the legend). Choose a line to see its profile.
       </Text>
-      <LinesTable layout={wide ? 'table' : 'list'} rows={v.rows} units={units} sortKey={v.sortKey} sortDir={v.sortDir} onSort={v.onSort} selected={v.selected} onSelect={v.setSelected} />
+      <LinesTable layout={wide ? 'table' : 'list'} rows={v.rows} units={units} sortKey={v.sortKey} sortDir={v.sortDir} onSort={v.onSort} selected={v.selected} onSelect={v.setSelected} envelope={result.summary.overlapEnvelope?.words ?? null} />
     </Card>
   );
   const extras = (

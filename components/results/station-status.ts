@@ -22,7 +22,7 @@ export interface StatusLook {
 
 export const statusLooks: Record<StationStatus, StatusLook> = {
   meets: { label: 'Meets targets', meaning: 'GSD in the band, overlaps at or above target, height within limits.', shape: 'circle', color: '#0072B2' },
-  overlap: { label: 'Overlap short', meaning: 'Forward or side overlap below the target over this ground.', shape: 'square', color: '#E69F00' },
+  overlap: { label: 'Overlap short', meaning: 'Forward or side overlap below the target over this ground, as planned or under the attitude envelope.', shape: 'square', color: '#E69F00' },
   gsd: { label: 'GSD off band', meaning: 'GSD coarser or finer than the tolerance band allows.', shape: 'triangle', color: '#D55E00' },
   height: { label: 'Height limit', meaning: 'Below the clearance or above the maximum height above ground.', shape: 'diamond', color: '#CC79A7' },
   unknown: { label: 'No ground data', meaning: 'Nodata or off the grid under the photo: nothing could be checked.', shape: 'cross', color: '#000000' },
@@ -37,6 +37,8 @@ const statusOfFlag: Record<string, StationStatus> = {
   'gsd-fine': 'gsd',
   'forward-overlap-low': 'overlap',
   'side-overlap-low': 'overlap',
+  'forward-overlap-envelope': 'overlap',
+  'side-overlap-envelope': 'overlap',
 };
 
 /** The worst status among the station's flags ('meets' with none; an unknown flag code counts as 'unknown'). */

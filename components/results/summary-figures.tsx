@@ -28,7 +28,13 @@ export function SummaryFigures({ summary, units }: { summary: PlanSummary; units
       {/* figures against a target are rounded toward failing (contracts/target-rounding.ts); overlaps with one decimal */}
       <Figure label="Within the GSD target" value={formatPercent(s.shareWithinGsdTarget, 1, 'min')} note={`band ${formatGsd(s.gsdBandCm.min)} – ${formatGsd(s.gsdBandCm.max)}`} testID="summary-share" />
       <Figure label="GSD min / median / max" value={`${formatGsd(s.gsdCm.min, 2, 'min')} / ${formatGsd(s.gsdCm.median)} / ${formatGsd(s.gsdCm.max, 2, 'max')}`} />
-      <Figure label="Least overlap forward / side" value={`${formatPercent(s.forwardOverlapMin, 1, 'min')} / ${formatPercent(s.sideOverlapMin, 1, 'min')}`} />
+      <Figure label="Least overlap forward / side" value={`${formatPercent(s.forwardOverlapMin, 1, 'min')} / ${formatPercent(s.sideOverlapMin, 1, 'min')}`} note="as planned" testID="summary-overlap" />
+      {/* beside it the same as guaranteed under the attitude envelope; without one, said so rather than a figure */}
+      {s.overlapEnvelope ? (
+        <Figure label="Least overlap, guaranteed" value={`${formatPercent(s.forwardOverlapGuaranteedMin, 1, 'min')} / ${formatPercent(s.sideOverlapGuaranteedMin, 1, 'min')}`} note={`under ${s.overlapEnvelope.words}`} testID="summary-overlap-guaranteed" />
+      ) : (
+        <Figure label="Least overlap, guaranteed" value="as planned only" note="no attitude envelope in the mission" testID="summary-overlap-guaranteed" />
+      )}
       <Figure label="Height above ground" value={`${formatLength(s.aglMinM, units, 0, 'min')} – ${formatLength(s.aglMaxM, units, 0, 'max')}`} note={`planned ${formatLength(s.plannedHeightM, units)}`} />
       <Figure label="Photos off target" value={formatCount(s.flaggedStationCount)} note={s.unmetLengthM > 0 ? `band not held over ${formatLength(s.unmetLengthM, units)}` : 'band held on every line'} />
     </View>

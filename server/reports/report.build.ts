@@ -53,8 +53,27 @@ export function lineLengthM(line: LineView): number {
   return ends.length ? Math.max(...ends) - Math.min(...starts) : 0;
 }
 
-function specChecks(m: Mission, o: StationStats, lineCount: number, band: [number, number]): SpecCheck[] {
+/** The least overlaps as guaranteed under the mission's attitude envelope, or null when it has none (as planned only). */
+export interface GuaranteedOverlaps { words: string; forwardMin: number | null; sideMin: number | null }
+
+function guaranteedOverlaps(view: ReturnType<typeof readResult>): GuaranteedOverlaps | null {
+  const env = view.summary.overlapEnvelope;
+  if (!env) return null;
+  const all = view.lines.flatMap((l) => l.stations);
+  return { words: env.words, forwardMin: minKnown(all.map((s) => s.forwardOverlapGuaranteed)), sideMin: minKnown(all.map((s) => s.sideOverlapGuaranteed)) };
+}
+
+/**
+ * An overlap requirement's achieved figures, as planned and as guaranteed side by side; it is met only when both
+ * are (the envelope is part of the spec the mission states).
+ */
+function overlapAchieved(planned: string, g: GuaranteedOverlaps | null, guaranteed: number | null): string {
+  return g ? `minimum ${planned} as planned, ${fmt.percent(guaranteed, 'min')} as guaranteed under ${g.words}` : `minimum ${planned} as planned (no attitude envelope: as planned only)`;
+}
+
+function specChecks(m: Mission, o: StationStats, lineCount: number, band: [number, number], g: GuaranteedOverlaps | null = null): SpecCheck[] {
   const eps = 1e-9;
+  const holds = (v: number | null, target: number) => v !== null && v >= target - eps;
   return [
     {
       key: 'gsd-band',
@@ -67,15 +86,15 @@ function specChecks(m: Mission, o: StationStats, lineCount: number, band: [numbe
       key: 'forward-overlap',
       label: 'Forward overlap',
       required: `at least ${fmt.percent(m.forwardOverlap)}`,
-      achieved: `minimum ${fmt.percent(o.forwardOverlapMin, 'min')}`,
-      pass: o.forwardOverlapMin !== null && o.forwardOverlapMin >= m.forwardOverlap - eps,
+      achieved: overlapAchieved(fmt.percent(o.forwardOverlapMin, 'min'), g, g?.forwardMin ?? null),
+      pass: holds(o.forwardOverlapMin, m.forwardOverlap) && (g === null || holds(g.forwardMin, m.forwardOverlap)),
     },
     {
       key: 'side-overlap',
       label: 'Side overlap',
       required: `at least ${fmt.percent(m.sideOverlap)}`,
-      achieved: o.sideOverlapMin === null && lineCount <= 1 ? 'one line only: no side overlap' : `minimum ${fmt.percent(o.sideOverlapMin, 'min')}`,
-      pass: o.sideOverlapMin === null ? lineCount <= 1 : o.sideOverlapMin >= m.sideOverlap - eps,
+      achieved: o.sideOverlapMin === null && lineCount <= 1 ? 'one line only: no side overlap' : overlapAchieved(fmt.percent(o.sideOverlapMin, 'min'), g, g?.sideMin ?? null),
+      pass: o.sideOverlapMin === null ? lineCount <= 1 : holds(o.sideOverlapMin, m.sideOverlap) && (g === null || holds(g.sideMin, m.sideOverlap)),
     },
     {
       key: 'clearance',
@@ -100,7 +119,7 @@ export function requirementChecks(v: VersionRecord): SpecCheck[] {
   const view = readResult(v.result);
   const band = gsdBandCm(mission);
   const overall = stationStats(view.lines.flatMap((l) => l.stations), band, view.lines.flatMap((l) => l.legs));
-  return [...specChecks(mission, overall, view.lines.length, band), ...coverageChecks(v.coverage)];
+  return [...specChecks(mission, overall, view.lines.length, band, guaranteedOverlaps(view)), ...coverageChecks(v.coverage)];
 }
 
 /** The reasons stored with a sign-off, each beside the requirement it answers. */
@@ -119,7 +138,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { 
   const band = gsdBandCm(mission);
   const all = view.lines.flatMap((l) => l.stations);
   const overall = stationStats(all, band, view.lines.flatMap((l) => l.legs));
-  const checks = [...specChecks(mission, overall, view.lines.length, band), ...coverageChecks(v.coverage)];
+  const checks = [...specChecks(mission, overall, view.lines.length, band, guaranteedOverlaps(view)), ...coverageChecks(v.coverage)];
   const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
   const basis = overall.gsdCm.median;
   const state = reviewStateSchema.parse(v.reviewState);

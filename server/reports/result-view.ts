@@ -24,6 +24,9 @@ export const stationViewSchema = z
     gsdCm: nn.default(null),
     forwardOverlap: nn.default(null),
     sideOverlap: nn.default(null),
+    // as guaranteed under the mission's attitude envelope; absent in results stored before
+    forwardOverlapGuaranteed: nn.default(null),
+    sideOverlapGuaranteed: nn.default(null),
     flags: z.array(flag).default([]),
   })
   .passthrough();
@@ -68,6 +71,8 @@ export const resultViewSchema = z
         flightTimeS: n.optional(),
         batteries: z.number().int().optional(),
         shareWithinGsdTarget: nn.optional(),
+        /** The attitude envelope of the guaranteed overlaps; null or absent: as planned only. */
+        overlapEnvelope: z.object({ words: z.string() }).passthrough().nullable().optional(),
       })
       .passthrough()
       .default({}),

@@ -9,16 +9,19 @@ import { analysePlan, type PlanResult } from '../../terrain/plan';
 // A real analysis over the synthetic demo grid (datasets/README.md), so the table is checked against the
 // engine's own plan-wide summary, which it computes by a separate path.
 let result: PlanResult;
+let withEnvelope: PlanResult;
 beforeAll(async () => {
   const grid = await readDem(new Uint8Array(fs.readFileSync('datasets/harrow-fell-dem.tif')));
-  result = analysePlan(grid, {
+  const mission = {
     area: { type: 'Polygon', coordinates: [[[4.478, 46.768], [4.486, 46.768], [4.486, 46.774], [4.478, 46.774], [4.478, 46.768]]] },
     camera: { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 },
     targetGsdCm: 3,
     takeoff: { lon: 4.477, lat: 46.767 },
     headingDeg: 90,
     mode: 'steps',
-  });
+  };
+  result = analysePlan(grid, mission);
+  withEnvelope = analysePlan(grid, { ...mission, envelope: { preset: 'fixed-wing', windMps: 4, windFromDeg: 0, airspeedMps: 15 } });
 });
 
 describe('stationStatus', () => {
@@ -30,6 +33,8 @@ describe('stationStatus', () => {
     expect(stationStatus({ flags: [f('gsd-fine'), f('below-clearance')] })).toBe('height');
     expect(stationStatus({ flags: [f('side-overlap-low'), f('ground-unknown')] })).toBe('unknown');
     expect(stationStatus({ flags: [f('a-code-added-later')] })).toBe('unknown');
+    expect(stationStatus({ flags: [f('side-overlap-envelope')] })).toBe('overlap');
+    expect(stationStatus({ flags: [f('forward-overlap-envelope'), f('gsd-fine')] })).toBe('gsd');
   });
 
   it('gives every status its own marker shape and its own colour, so none is told apart by colour alone', () => {
@@ -58,6 +63,22 @@ describe('lineRows', () => {
     expect(min('forwardOverlapMin')).toBe(result.summary.forwardOverlapMin);
     expect(min('sideOverlapMin')).toBe(result.summary.sideOverlapMin);
     expect(min('aglMinM')).toBe(result.summary.aglMinM);
+    // without an envelope: as planned only, no guaranteed figure anywhere
+    for (const r of rows) expect([r.forwardOverlapGuaranteedMin, r.sideOverlapGuaranteedMin]).toEqual([null, null]);
+  });
+
+  it('gives each line its least overlaps as guaranteed, adding up to the engine summary and never above the planned ones', () => {
+    const rows = lineRows(withEnvelope.lines);
+    const min = (k: keyof LineRow) => Math.min(...rows.map((r) => r[k] as number | null).filter((v): v is number => v !== null));
+    expect(min('forwardOverlapGuaranteedMin')).toBe(withEnvelope.summary.forwardOverlapGuaranteedMin);
+    expect(min('sideOverlapGuaranteedMin')).toBe(withEnvelope.summary.sideOverlapGuaranteedMin);
+    for (const r of rows) {
+      if (r.forwardOverlapMin !== null) expect(r.forwardOverlapGuaranteedMin!).toBeLessThanOrEqual(r.forwardOverlapMin);
+      if (r.sideOverlapMin !== null) expect(r.sideOverlapGuaranteedMin!).toBeLessThanOrEqual(r.sideOverlapMin);
+    }
+    // ±15° of roll takes the side overlap of this plan well under its 70 % target
+    expect(withEnvelope.summary.sideOverlapGuaranteedMin!).toBeLessThan(0.5);
+    expect(withEnvelope.summary.overlapEnvelope?.crabDegMax).toBeGreaterThan(0);
   });
 
   it('names as worst status of a line the worst of its stations, and "meets" only when none is flagged', () => {
@@ -83,7 +104,7 @@ describe('lineRows', () => {
 describe('sortLineRows', () => {
   const row = (number: number, lengthM: number, gsdMinCm: number | null): LineRow => ({
     index: number - 1, number, lengthM, photos: 1, gsdMinCm, gsdMedianCm: null, gsdMaxCm: null, forwardOverlapMin: null,
-    sideOverlapMin: null, aglMinM: null, legs: 1, flagged: 0, worst: 'meets', warnings: number === 2 ? ['x', 'y'] : [],
+    sideOverlapMin: null, forwardOverlapGuaranteedMin: null, sideOverlapGuaranteedMin: null, aglMinM: null, legs: 1, flagged: 0, worst: 'meets', warnings: number === 2 ? ['x', 'y'] : [],
   });
   const rows = [row(1, 300, 2.9), row(2, 100, null), row(3, 200, 2.8), row(4, 200, 3.1)];
 

@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { complianceReportSchema, type ComplianceReport } from '../../contracts/reports';
 import { fmt } from '../../server/reports/format';
-import { analysedResult, createVersion, fixtureHole, freshTeam, syntheticGrid, type FreshTeam } from '../support/fixtures';
+import { analysePlan } from '../../terrain/plan';
+import { analysedResult, createVersion, syntheticMission, fixtureHole, freshTeam, syntheticGrid, type FreshTeam } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { numpyFigures, pdfFonts, pdfText } from '../reports/pdf-text';
 import { signOffBody } from '../support/review-helpers';
@@ -91,6 +92,33 @@ describe('the compliance report (JSON)', () => {
     const byKey = Object.fromEntries(r.checks.map((c) => [c.key, c.pass]));
     expect(byKey).toMatchObject({ 'height-limit': false, clearance: true });
     expect(byKey['forward-overlap']).toBe(r.overall.forwardOverlapMin! >= 0.8);
+  });
+
+  it('states each overlap requirement as planned and as guaranteed under the attitude envelope, met only when both are', async () => {
+    const input = syntheticMission({ forwardOverlap: 0.6, sideOverlap: 0.5, envelope: { preset: 'multirotor', rollDeg: 5, pitchDeg: 5 } } as never);
+    const result = JSON.parse(JSON.stringify(analysePlan(syntheticGrid(), input)));
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, result, input });
+    const r: ComplianceReport = complianceReportSchema.parse((await team.clients.surveyor.get(`${v.path}/report`)).body);
+    const st = result.lines.flatMap((l: { stations: Array<Record<string, number | null>> }) => l.stations);
+    const least = (k: string) => Math.min(...st.map((s: Record<string, number | null>) => s[k]).filter((x: number | null): x is number => x !== null));
+    const fwd = r.checks.find((c) => c.key === 'forward-overlap')!, side = r.checks.find((c) => c.key === 'side-overlap')!;
+    expect(fwd.achieved).toBe(`minimum ${fmt.percent(least('forwardOverlap'), 'min')} as planned, ${fmt.percent(least('forwardOverlapGuaranteed'), 'min')} as guaranteed under ±5° roll, ±5° pitch`);
+    expect(side.achieved).toBe(`minimum ${fmt.percent(least('sideOverlap'), 'min')} as planned, ${fmt.percent(least('sideOverlapGuaranteed'), 'min')} as guaranteed under ±5° roll, ±5° pitch`);
+    // met only where the planned and the guaranteed figure both hold
+    expect(fwd.pass).toBe(least('forwardOverlap') >= 0.6 && least('forwardOverlapGuaranteed') >= 0.6);
+    expect(side.pass).toBe(least('sideOverlap') >= 0.5 && least('sideOverlapGuaranteed') >= 0.5);
+    expect(least('sideOverlapGuaranteed')).toBeLessThan(Math.min(0.5, least('sideOverlap')));
+    expect(side.pass).toBe(false);
+    // the PDF prints the same requirement line
+    const text = pdfText(await pdfOf(v.path)).replace(/\s+/g, ' ');
+    // (the cell wraps inside the requirements table, so its words come in two runs between the other columns')
+    expect(text).toContain(`minimum ${fmt.percent(least('forwardOverlap'), 'min')} as planned, ${fmt.percent(least('forwardOverlapGuaranteed'), 'min')}`);
+    expect(text).toContain(`minimum ${fmt.percent(least('sideOverlap'), 'min')} as planned, ${fmt.percent(least('sideOverlapGuaranteed'), 'min')}`);
+    expect(text).toContain('as guaranteed under ±5° roll, ±5°');
+    // without an envelope the figures are said to be as planned only
+    const plain = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id });
+    const q: ComplianceReport = (await team.clients.surveyor.get(`${plain.path}/report`)).body;
+    expect(q.checks.find((c) => c.key === 'forward-overlap')!.achieved).toMatch(/^minimum \d+(\.\d)? % as planned \(no attitude envelope: as planned only\)$/);
   });
 
   it('is refused before the analysis is done, to pilots, and to other teams', async () => {

@@ -81,6 +81,35 @@ describe('analysis runs', () => {
     expect(plan).toMatchObject({ versionCount: 1, latestVersion: { id: run.body.id, analysisState: 'done' } });
   });
 
+  it('stores the overlaps as planned and as guaranteed under the mission\'s attitude envelope, and says when there is none', async () => {
+    const w = await planned('envelope', { ...mission(), envelope: { preset: 'multirotor', rollDeg: 5, pitchDeg: 5 } });
+    const run = await w.c.post(`${w.plan}/runs`, {});
+    expect((await settled(w.c, w.plan, run.body.id)).status.analysisState).toBe('done');
+    const r = (await w.c.get(`${w.plan}/versions/${run.body.id}`)).body.result;
+    expect(planResultSchema.safeParse(r).success).toBe(true);
+    expect(r.summary.overlapEnvelope).toMatchObject({ rollDeg: 5, pitchDeg: 5, crabs: false, attitudeCount: 9, words: '±5° roll, ±5° pitch' });
+    let pairs = 0;
+    for (const line of r.lines) for (const s of line.stations) {
+      if (s.forwardOverlap !== null) { expect(s.forwardOverlapGuaranteed).toBeLessThanOrEqual(s.forwardOverlap); pairs++; }
+      if (s.sideOverlap !== null) expect(s.sideOverlapGuaranteed).toBeLessThanOrEqual(s.sideOverlap);
+    }
+    expect(pairs).toBeGreaterThan(50);
+    expect(r.summary.forwardOverlapGuaranteedMin).toBeLessThan(r.summary.forwardOverlapMin);
+    // ±5° of roll costs side overlap well beyond rounding: stations that met 70 % as planned are flagged with the reason
+    const flagged = r.lines.flatMap((l: { stations: Array<{ flags: Array<{ code: string; reason: string }> }> }) => l.stations.flatMap((s) => s.flags)).filter((f: { code: string }) => f.code === 'side-overlap-envelope');
+    expect(flagged.length).toBeGreaterThan(0);
+    expect(flagged[0].reason).toMatch(/^Side overlap as guaranteed 0\.\d\d is below the target 0\.70 under the attitude envelope \(±5° roll, ±5° pitch\); as planned it is 0\.\d\d\.$/);
+    // the same mission without an envelope: overlaps as planned only
+    const plain = await planned('no-envelope');
+    const run2 = await plain.c.post(`${plain.plan}/runs`, {});
+    expect((await settled(plain.c, plain.plan, run2.body.id)).status.analysisState).toBe('done');
+    const q = (await plain.c.get(`${plain.plan}/versions/${run2.body.id}`)).body.result;
+    expect(q.summary.overlapEnvelope).toBeNull();
+    expect(q.summary.forwardOverlapGuaranteedMin).toBeNull();
+    expect(q.lines[0].stations[1].forwardOverlapGuaranteed).toBeNull();
+    expect(q.lines[0].stations[1].forwardOverlap).toBe(r.lines[0].stations[1].forwardOverlap);
+  });
+
   it('keeps each version\'s mission as it was when it ran', async () => {
     const w = await planned('immutable');
     const v1 = (await w.c.post(`${w.plan}/runs`, {})).body;

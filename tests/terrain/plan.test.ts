@@ -46,7 +46,7 @@ describe('analysePlan', () => {
     expect(() => planResultSchema.parse(r)).not.toThrow();
     expect(JSON.parse(JSON.stringify(r))).toEqual(r);
     const keys = Object.keys(r.lines[0].stations[0]).sort();
-    expect(keys).toEqual(['altitudeAboveTakeoffM', 'altitudeM', 'aglM', 'distanceM', 'flags', 'forwardOverlap', 'gsdCm', 'groundM', 'lat', 'lon', 'sideOverlap'].sort());
+    expect(keys).toEqual(['altitudeAboveTakeoffM', 'altitudeM', 'aglM', 'distanceM', 'flags', 'forwardOverlap', 'forwardOverlapGuaranteed', 'gsdCm', 'groundM', 'lat', 'lon', 'sideOverlap', 'sideOverlapGuaranteed'].sort());
     for (const k of ['lineCount', 'photoCount', 'flightDistanceM', 'flightTimeS', 'gsdCm', 'forwardOverlapMin', 'sideOverlapMin', 'aglMinM', 'shareWithinGsdTarget']) expect(r.summary).toHaveProperty(k);
   });
 
@@ -134,5 +134,18 @@ describe('analysePlan', () => {
     expect(inBox(150, 150) && inBox(550, 500) && inBox(130, 130)).toBe(true);
     expect(inBox(100, 100)).toBe(true); // 50 m beyond the area: photo footprints reach there
     expect(inBox(-800, 300)).toBe(false);
+  });
+
+  it('keeps the plan and gives overlaps as planned only, saying why, when the envelope\'s crosswind is too strong to hold the lines', () => {
+    const m = missionOver(hills, 200, 200, 700, 650, { mode: 'follow', headingDeg: 90, envelope: { preset: 'fixed-wing', windMps: 12, windFromDeg: 0, airspeedMps: 10 } });
+    const r = analysePlan(hills, m);
+    expect(r.summary.overlapEnvelope).toBeNull();
+    expect(r.lines[0].stations[1].forwardOverlapGuaranteed).toBeNull();
+    expect(r.lines[0].stations[1].forwardOverlap).not.toBeNull();
+    expect(r.warnings.find((w) => w.code === 'envelope-refused')?.message).toMatch(/as planned only: .*at least the 10 m\/s airspeed/);
+    // a wind the aircraft can hold: guaranteed figures, with the crab
+    const ok = analysePlan(hills, { ...m, envelope: { preset: 'fixed-wing', windMps: 4, windFromDeg: 0, airspeedMps: 10 } });
+    expect(ok.summary.overlapEnvelope?.crabDegMax).toBeCloseTo(Math.asin(0.4) * 180 / Math.PI, 1);
+    expect(ok.lines[0].stations[1].forwardOverlapGuaranteed!).toBeLessThan(ok.lines[0].stations[1].forwardOverlap!);
   });
 });
