@@ -16,12 +16,33 @@ export const LZMA = 34925;
 export const JPEG = 7;
 const OLD_JPEG = 6;
 
+/** An .xz stream to its bytes (libtiff's LZMA blocks are whole .xz streams); given by the server or command line. */
+export type XzDecodeFn = (data: Uint8Array) => Uint8Array | Promise<Uint8Array>;
+let xzDecode: XzDecodeFn | null = null;
+
+/**
+ * Give the reader an .xz decoder for LZMA-compressed blocks. There is no maintained pure-JavaScript xz decoder on
+ * npm, so the server and the command line inject liblzma's (npm `lzma-native`), like the fast inflate.
+ */
+export function setXzDecoder(fn: XzDecodeFn | null): void {
+  xzDecode = fn;
+}
+
+/** LZMA block (.xz stream) to bytes with the injected decoder. */
+export async function decodeXz(data: Uint8Array): Promise<Uint8Array> {
+  if (!xzDecode) throw new TerrainError('unsupported', LZMA_REFUSED);
+  try {
+    return await xzDecode(data);
+  } catch (err) {
+    throw new TerrainError('damaged', `An LZMA block does not decode (${(err as Error)?.message ?? err}); the file is damaged, so export it again.`);
+  }
+}
+
+const LZMA_REFUSED = 'The GeoTIFF uses LZMA compression, and no LZMA decoder was given to this reader (the server and the command line give one); re-save it with ZSTD or DEFLATE (gdal_translate -co COMPRESS=ZSTD in.tif out.tif).';
+
 /** Why a compression is refused, or null when it is read. */
 export function refusedCompression(code: number): string | null {
-  if (code === LZMA) {
-    // no maintained pure-JavaScript xz (LZMA2) decoder on npm that runs inside terrain/ without native or wasm parts
-    return 'The GeoTIFF uses LZMA compression, which Loftline does not read (no maintained pure-JavaScript decoder); re-save it with ZSTD or DEFLATE (gdal_translate -co COMPRESS=ZSTD in.tif out.tif).';
-  }
+  if (code === LZMA && !xzDecode) return LZMA_REFUSED;
   if (code === OLD_JPEG) {
     return 'The GeoTIFF uses old-style JPEG compression (TIFF 6.0), which Loftline does not read; re-save it with DEFLATE (gdal_translate -co COMPRESS=DEFLATE in.tif out.tif).';
   }

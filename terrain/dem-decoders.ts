@@ -1,7 +1,7 @@
 /** TIFF block decoding for DEMs: decompression, predictor undo and sample conversion into Float32 rows. */
 import { getDecoder } from 'geotiff';
 import { TerrainError } from './errors';
-import { JPEG, LERC, type LercExtra, ZSTD, decodeLercBlob, decodeZstd, refusedCompression } from './dem-codecs';
+import { JPEG, LERC, LZMA, type LercExtra, ZSTD, decodeLercBlob, decodeXz, decodeZstd, refusedCompression } from './dem-codecs';
 
 /** A function that inflates a zlib (DEFLATE) stream, told the size to expect; the server injects node:zlib's inflateSync. */
 export type InflateFn = (data: Uint8Array, expectedBytes: number) => Uint8Array;
@@ -10,7 +10,7 @@ export type InflateFn = (data: Uint8Array, expectedBytes: number) => Uint8Array;
 export type SampleType = 'uint8' | 'int8' | 'uint16' | 'int16' | 'uint32' | 'int32' | 'float16' | 'float32' | 'float64';
 
 /** Compression names for TIFF Compression tag values Loftline reads. */
-export const COMPRESSION_NAMES: Record<number, string> = { 1: 'none', 5: 'lzw', 8: 'deflate', 32946: 'deflate', 32773: 'packbits', [ZSTD]: 'zstd', [LERC]: 'lerc', [JPEG]: 'jpeg' };
+export const COMPRESSION_NAMES: Record<number, string> = { 1: 'none', 5: 'lzw', 8: 'deflate', 32946: 'deflate', 32773: 'packbits', [ZSTD]: 'zstd', [LERC]: 'lerc', [JPEG]: 'jpeg', [LZMA]: 'lzma' };
 
 /** Byte size of one sample. */
 export function sampleBytes(type: SampleType): number {
@@ -75,6 +75,7 @@ export async function blockDecoderFor(compression: number, inflate?: InflateFn, 
   if (compression === 1) return (c) => c;
   if (compression === 32773) return unpackBits;
   if (compression === ZSTD) return (c) => decodeZstd(c);
+  if (compression === LZMA && !refusedCompression(LZMA)) return (c) => decodeXz(c);
   if (compression === LERC) {
     if (!lerc) throw new TerrainError('unsupported', 'LERC blocks need the sample type to decode.');
     if (!lerc.littleEndian) throw new TerrainError('unsupported', 'The GeoTIFF is big-endian with LERC compression, which Loftline does not read; re-save it little-endian (gdal_translate -co ENDIANNESS=LITTLE).');

@@ -14,6 +14,7 @@ import { analyseLiveCoverage, type LiveAnalysis } from '../mission-items/live-co
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import type { PlanResult } from '../../terrain/index';
 import { loadDatumGrids } from './datum-grids';
+import { installNodeCodecs } from './node-codecs';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
@@ -98,6 +99,7 @@ export function createInlineTerrainRunner(): TerrainRunner {
 export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number; datumGridDir?: string }): TerrainRunner {
   // the datum-shift grids in this thread (inline tasks, and CRSs the routes resolve) and, through workerData, in each terrain thread
   loadDatumGrids(opts.datumGridDir);
+  installNodeCodecs();
   if (opts.threads <= 0) return createInlineTerrainRunner();
   const slots: Slot[] = [];
   const queue: Pending[] = [];

@@ -3,6 +3,8 @@ import { inflateSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import { openDem, readDem, readDemHeader } from '../../terrain/dem';
 import type { TerrainError } from '../../terrain/errors';
+import { setXzDecoder } from '../../terrain/dem-codecs';
+import { installNodeCodecs } from '../../server/analysis/node-codecs';
 
 // GeoTIFFs in the encodings GDAL writes for elevation, and band 1 as GDAL 3.6.2 decodes it (ReadAsArray, and
 // gdallocationinfo -valonly at three pixels, commands recorded): tests/fixtures/dem/make-encoding-fixtures.py
@@ -89,9 +91,40 @@ describe('encodings read as GDAL reads them', () => {
 });
 
 describe('encodings refused with a reason', () => {
-  it('refuses LZMA naming it and saying how to re-save', async () => {
+  it('refuses LZMA naming it and saying how to re-save while no LZMA decoder is given', async () => {
+    setXzDecoder(null);
     expect(await codeOf(readDem(fixture('enc/lzma.tif')))).toBe('unsupported');
     await expect(readDemHeader(fixture('enc/lzma.tif'))).rejects.toThrow(/LZMA compression.*COMPRESS=ZSTD/);
   });
 
+});
+
+describe('LZMA with the decoder the server and command line inject (npm @napi-rs/lzma)', () => {
+  it('decodes enc/lzma.tif exactly to GDAL 3.6.2\'s values', async () => {
+    installNodeCodecs();
+    const g = ref.grids.lzma;
+    const grid = await readDem(fixture(g.file));
+    expect((await readDemHeader(fixture(g.file))).compression).toBe('lzma');
+    for (let r = 0; r < g.height; r++) {
+      for (let c = 0; c < g.width; c++) {
+        const e = g.values[r][c];
+        const v = grid.data[r * g.width + c];
+        if (e === null) expect(v, `pixel ${c},${r}`).toBeNaN();
+        else expect(v, `pixel ${c},${r}`).toBe(Math.fround(e));
+      }
+    }
+    for (const p of g.gdallocationinfo) expect(grid.data[p.row * g.width + p.col], p.command).toBe(Math.fround(p.value));
+  });
+
+  it('says a damaged LZMA block is damaged', async () => {
+    installNodeCodecs();
+    const bytes = new Uint8Array(fixture(ref.grids.lzma.file));
+    const src = await readDemHeader(bytes);
+    void src;
+    // the first strip's .xz stream starts with its magic bytes FD 37 7A 58 5A 00: break the stream after them
+    const at = bytes.findIndex((b, i) => b === 0xfd && bytes[i + 1] === 0x37 && bytes[i + 2] === 0x7a && bytes[i + 3] === 0x58);
+    expect(at).toBeGreaterThan(0);
+    bytes.fill(0x55, at + 12, at + 40);
+    expect(await codeOf(readDem(bytes))).toBe('damaged');
+  });
 });
