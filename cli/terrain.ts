@@ -1,5 +1,7 @@
 /** `npm run -s terrain -- <command> …`: one JSON document on stdout, or one line on stderr and a non-zero exit. */
 import { CliError, printJson, reportError } from './io';
+import { loadDatumGrids } from '../server/analysis/datum-grids';
+import { installNodeCodecs } from '../server/analysis/node-codecs';
 
 /** What every command file exports. */
 export interface Command {
@@ -26,6 +28,8 @@ async function main(argv: string[]): Promise<void> {
     throw new CliError(name ? `Unknown command "${name}"; commands: ${list}.` : `Give a command: ${list}.`);
   }
   const command = await load();
+  installNodeCodecs(); // the LZMA (.xz) block decoder
+  loadDatumGrids(); // NTv2 datum-shift grids from DATUM_GRID_DIR (default /usr/share/proj, Debian proj-data)
   if (args.includes('--help') || args.includes('-h')) {
     process.stdout.write(`${command.usage}\n`);
     return;

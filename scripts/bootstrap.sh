@@ -7,6 +7,8 @@ mode="${1:-}"
 
 apt_pkgs=()
 if [ -z "${DATABASE_URL:-}" ] && ! ls /usr/lib/postgresql/*/bin/initdb >/dev/null 2>&1; then apt_pkgs+=(postgresql); fi
+# proj-data: the NTv2 datum-shift grids (BETA2007.gsb, nzgd2kgrid0005.gsb, ntf_r93.gsb) some CRSs need (DATUM_GRID_DIR).
+[ -f /usr/share/proj/nzgd2kgrid0005.gsb ] || apt_pkgs+=(proj-data)
 if [ "$mode" = "--test" ]; then
   [ -x /usr/bin/chromium ] || apt_pkgs+=(chromium)
   fc-list 2>/dev/null | grep -qi dejavu || apt_pkgs+=(fonts-dejavu-core)

@@ -35,6 +35,8 @@ const envSchema = z.object({
   WORKERS: z.coerce.number().int().min(0).max(16).default(1),
   /** Worker threads for DEM decoding and analyses in this process; 0 runs them on the main thread. */
   TERRAIN_THREADS: z.coerce.number().int().min(0).max(16).default(1),
+  /** Directory of the NTv2 datum-shift grids some CRSs need (BETA2007.gsb, …; Debian proj-data puts them here). */
+  DATUM_GRID_DIR: z.string().min(1).default('/usr/share/proj'),
   /** Largest elevation grid an upload may declare, in pixels (2^27 = 512 MiB of float32 heights). */
   DEM_MAX_PIXELS: z.coerce.number().int().min(1).max(2 ** 30).default(2 ** 27),
   /** Longest one terrain task (reading an upload, one analysis) may run before its thread is stopped and replaced. */

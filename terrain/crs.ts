@@ -78,20 +78,47 @@ export function unitOfProj4(def: string): LengthUnit {
   throw new TerrainError('unknown-crs', `The CRS uses the length unit "${units}", which Loftline does not read; reproject the grid to metres or feet.`);
 }
 
+/** NTv2 datum-shift grids given to proj4 (registerDatumGrid), by file name. */
+const loadedGrids = new Set<string>();
+
 /**
- * Drop datum-shift grid files proj4 cannot load here (they would make every transform fail). A CRS whose only
- * datum shift is such a grid is refused rather than silently shifted by up to hundreds of metres.
+ * Give proj4 the bytes of an NTv2 datum-shift grid (e.g. BETA2007.gsb from Debian's proj-data) under its file name,
+ * so that CRSs whose datum shift is that grid (+nadgrids=FILE) can be placed. The terrain engine reads no files:
+ * the server and the command line read the grid directory and call this at start.
+ */
+export function registerDatumGrid(fileName: string, bytes: ArrayBuffer): void {
+  try {
+    proj4.nadgrid(fileName, bytes);
+  } catch (err) {
+    throw new TerrainError('unknown-crs', `The datum-shift grid ${fileName} is not a readable NTv2 file (${(err as Error)?.message ?? err}); reinstall it (Debian package proj-data).`);
+  }
+  loadedGrids.add(fileName);
+}
+
+/** Names of the datum-shift grids proj4 has been given. */
+export function registeredDatumGrids(): string[] {
+  return [...loadedGrids].sort();
+}
+
+function missingGridError(grid: string, name: string): TerrainError {
+  return new TerrainError('unknown-crs', `${name} needs the datum-shift grid ${grid}, which is not loaded: install Debian's proj-data (or put ${grid} in the grid directory, setting DATUM_GRID_DIR, default /usr/share/proj) and restart, or reproject the DEM to WGS 84 or a UTM zone (gdalwarp -t_srs EPSG:326xx in.tif out.tif).`);
+}
+
+/**
+ * Drop datum-shift grid files proj4 has not been given (they would make every transform fail). A CRS whose only
+ * datum shift is such a grid is refused, naming the grid, rather than silently shifted by up to hundreds of metres.
  */
 function withoutGridFiles(def: string, name: string): string {
   const grid = /\+nadgrids=(?!@null\b)(\S+)/.exec(def)?.[1];
+  if (grid && loadedGrids.has(grid)) {
+    return def.replace(/\s*\+geoidgrids=\S+/g, '').replace(/\s*\+type=crs\b/g, '').trim();
+  }
   const out = def
     .replace(/\s*\+nadgrids=(?!@null\b)\S+/g, '')
     .replace(/\s*\+geoidgrids=\S+/g, '')
     .replace(/\s*\+type=crs\b/g, '')
     .trim();
-  if (grid && !/\+towgs84=/.test(out) && !/\+datum=/.test(out)) {
-    throw new TerrainError('unknown-crs', `${name} needs the datum-shift grid ${grid}, which Loftline cannot apply; reproject the DEM to WGS 84 or a UTM zone (gdalwarp -t_srs EPSG:326xx in.tif out.tif).`);
-  }
+  if (grid && !/\+towgs84=/.test(out) && !/\+datum=/.test(out)) throw missingGridError(grid, name);
   return out;
 }
 
@@ -244,6 +271,8 @@ function variantAt(vs: Variant[], lon: number, lat: number): number {
     const names = [...new Set(vs.map((v) => v.shift?.name))].slice(0, 3).join('; ');
     throw new TerrainError('unknown-crs', `${vs[0].crsName ?? 'The CRS'}: no EPSG transformation to WGS 84 covers ${lon.toFixed(5)}, ${lat.toFixed(5)} (those known hold elsewhere: ${names}); reproject the DEM to WGS 84 or a WGS 84 UTM zone with a tool that has the right datum shift for this place.`);
   }
+  const grid = /\+nadgrids=(?!@null\b)(\S+)/.exec(vs[best].proj4)?.[1];
+  if (grid && !loadedGrids.has(grid)) throw missingGridError(grid, vs[best].crsName ?? 'The CRS');
   return best;
 }
 
@@ -286,13 +315,34 @@ export function createTransform(from: GridCrs, to: GridCrs): Transform {
   };
 }
 
+type Converter = { forward(p: [number, number], enforceAxis: boolean): number[]; inverse(p: [number, number], enforceAxis: boolean): number[] };
+
+/**
+ * A converter that says so when a datum-shift grid does not cover the point (proj4 then returns nothing) instead of
+ * failing later on an undefined coordinate; a grid that is not loaded yields the first pass's Helmert, never used.
+ */
+function gridChecked(conv: Converter, v: Variant): Converter {
+  const grid = /\+nadgrids=(?!@null\b)(\S+)/.exec(v.proj4)?.[1];
+  if (!grid) return conv;
+  const check = (r: number[] | undefined, p: [number, number]): number[] => {
+    if (r && Number.isFinite(r[0]) && Number.isFinite(r[1])) return r;
+    if (!Number.isFinite(p[0]) || !Number.isFinite(p[1])) return r ?? [NaN, NaN]; // nodata stays nodata
+    if (!loadedGrids.has(grid)) throw missingGridError(grid, v.crsName ?? 'The CRS');
+    throw new TerrainError('unknown-crs', `${v.crsName ?? 'The CRS'}: the datum-shift grid ${grid} does not cover ${p[0].toFixed(5)}, ${p[1].toFixed(5)}; reproject the DEM to WGS 84 or a WGS 84 UTM zone with a tool that has the right datum shift for this place.`);
+  };
+  return {
+    forward: (p, e) => check(conv.forward(p, e), p),
+    inverse: (p, e) => check(conv.inverse(p, e), p),
+  };
+}
+
 /**
  * A transform through WGS 84 where either side has several datum shifts (e.g. ED50, NAD27): each point goes
  * through the shift PROJ would use at its place, found from a first pass through the first shift.
  */
 function placeDependentTransform(fromV: Variant[], toV: Variant[]): Transform {
-  const toWgs = fromV.map((v) => proj4(v.proj4, WGS84.proj4));
-  const fromWgs = toV.map((v) => proj4(WGS84.proj4, v.proj4));
+  const toWgs = fromV.map((v) => gridChecked(proj4(v.proj4, WGS84.proj4), v));
+  const fromWgs = toV.map((v) => gridChecked(proj4(WGS84.proj4, v.proj4), v));
   const forward = (x: number, y: number): [number, number] => {
     let ll = toWgs[0].forward([x, y], true);
     if (fromV[0].shift) {

@@ -1,7 +1,8 @@
 /**
  * Block codecs beyond DEFLATE/LZW/PackBits for elevation GeoTIFFs: ZSTD (fzstd, pure JavaScript) and LERC (Esri's
  * JavaScript decoder, npm `lerc` 3, Lerc2 codec 2.5: reads the LERC_VERSION 2.4 blobs GDAL 3.6 writes), plus the
- * compressions refused with a reason. Both decoders are pure JS, so nothing needs injecting here.
+ * compressions refused with a reason. Both decoders are pure JS, so nothing needs injecting here. JPEG blocks go
+ * through geotiff.js's own baseline JPEG decoder (dem-decoders.ts).
  */
 import { decompress as zstdDecompress } from 'fzstd';
 import Lerc from 'lerc';
@@ -11,17 +12,39 @@ import { TerrainError } from './errors';
 export const ZSTD = 50000;
 export const LERC = 34887;
 export const LZMA = 34925;
-const JPEG_CODES = new Set([6, 7]);
+/** JPEG in TIFF (TIFF Technical Note 2); 6 is the old-style JPEG of TIFF 6.0, which GDAL does not write. */
+export const JPEG = 7;
+const OLD_JPEG = 6;
+
+/** An .xz stream to its bytes (libtiff's LZMA blocks are whole .xz streams); given by the server or command line. */
+export type XzDecodeFn = (data: Uint8Array) => Uint8Array | Promise<Uint8Array>;
+let xzDecode: XzDecodeFn | null = null;
+
+/**
+ * Give the reader an .xz decoder for LZMA-compressed blocks. There is no maintained pure-JavaScript xz decoder on
+ * npm, so the server and the command line inject liblzma's (npm `lzma-native`), like the fast inflate.
+ */
+export function setXzDecoder(fn: XzDecodeFn | null): void {
+  xzDecode = fn;
+}
+
+/** LZMA block (.xz stream) to bytes with the injected decoder. */
+export async function decodeXz(data: Uint8Array): Promise<Uint8Array> {
+  if (!xzDecode) throw new TerrainError('unsupported', LZMA_REFUSED);
+  try {
+    return await xzDecode(data);
+  } catch (err) {
+    throw new TerrainError('damaged', `An LZMA block does not decode (${(err as Error)?.message ?? err}); the file is damaged, so export it again.`);
+  }
+}
+
+const LZMA_REFUSED = 'The GeoTIFF uses LZMA compression, and no LZMA decoder was given to this reader (the server and the command line give one); re-save it with ZSTD or DEFLATE (gdal_translate -co COMPRESS=ZSTD in.tif out.tif).';
 
 /** Why a compression is refused, or null when it is read. */
 export function refusedCompression(code: number): string | null {
-  if (code === LZMA) {
-    // no maintained pure-JavaScript xz (LZMA2) decoder on npm that runs inside terrain/ without native or wasm parts
-    return 'The GeoTIFF uses LZMA compression, which Loftline does not read (no maintained pure-JavaScript decoder); re-save it with ZSTD or DEFLATE (gdal_translate -co COMPRESS=ZSTD in.tif out.tif).';
-  }
-  if (JPEG_CODES.has(code)) {
-    // JPEG is lossy and 8-bit: its blocks shift heights by whole units and smear steps, so it is no elevation store
-    return 'The GeoTIFF uses JPEG compression, which is lossy and 8-bit, so its values are not trustworthy heights; export the DEM again without JPEG (gdal_translate -co COMPRESS=DEFLATE, or LERC for controlled loss).';
+  if (code === LZMA && !xzDecode) return LZMA_REFUSED;
+  if (code === OLD_JPEG) {
+    return 'The GeoTIFF uses old-style JPEG compression (TIFF 6.0), which Loftline does not read; re-save it with DEFLATE (gdal_translate -co COMPRESS=DEFLATE in.tif out.tif).';
   }
   return null;
 }

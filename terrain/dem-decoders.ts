@@ -1,7 +1,7 @@
 /** TIFF block decoding for DEMs: decompression, predictor undo and sample conversion into Float32 rows. */
 import { getDecoder } from 'geotiff';
 import { TerrainError } from './errors';
-import { LERC, type LercExtra, ZSTD, decodeLercBlob, decodeZstd, refusedCompression } from './dem-codecs';
+import { JPEG, LERC, LZMA, type LercExtra, ZSTD, decodeLercBlob, decodeXz, decodeZstd, refusedCompression } from './dem-codecs';
 
 /** A function that inflates a zlib (DEFLATE) stream, told the size to expect; the server injects node:zlib's inflateSync. */
 export type InflateFn = (data: Uint8Array, expectedBytes: number) => Uint8Array;
@@ -10,7 +10,7 @@ export type InflateFn = (data: Uint8Array, expectedBytes: number) => Uint8Array;
 export type SampleType = 'uint8' | 'int8' | 'uint16' | 'int16' | 'uint32' | 'int32' | 'float16' | 'float32' | 'float64';
 
 /** Compression names for TIFF Compression tag values Loftline reads. */
-export const COMPRESSION_NAMES: Record<number, string> = { 1: 'none', 5: 'lzw', 8: 'deflate', 32946: 'deflate', 32773: 'packbits', [ZSTD]: 'zstd', [LERC]: 'lerc' };
+export const COMPRESSION_NAMES: Record<number, string> = { 1: 'none', 5: 'lzw', 8: 'deflate', 32946: 'deflate', 32773: 'packbits', [ZSTD]: 'zstd', [LERC]: 'lerc', [JPEG]: 'jpeg', [LZMA]: 'lzma' };
 
 /** Byte size of one sample. */
 export function sampleBytes(type: SampleType): number {
@@ -63,11 +63,19 @@ function typedArrayOf(type: SampleType, n: number) {
   }
 }
 
+/** What a JPEG block decoder needs beyond the bytes: the shared tables (JPEGTables tag) and the block size. */
+export interface JpegBlockInfo {
+  tables: Uint8Array | null;
+  blockWidth: number;
+  blockHeight: number;
+}
+
 /** A decoder for one TIFF compression code; DEFLATE uses the injected inflate when given, else geotiff.js's. */
-export async function blockDecoderFor(compression: number, inflate?: InflateFn, lerc?: LercBlockInfo): Promise<BlockDecoder> {
+export async function blockDecoderFor(compression: number, inflate?: InflateFn, lerc?: LercBlockInfo, jpeg?: JpegBlockInfo): Promise<BlockDecoder> {
   if (compression === 1) return (c) => c;
   if (compression === 32773) return unpackBits;
   if (compression === ZSTD) return (c) => decodeZstd(c);
+  if (compression === LZMA && !refusedCompression(LZMA)) return (c) => decodeXz(c);
   if (compression === LERC) {
     if (!lerc) throw new TerrainError('unsupported', 'LERC blocks need the sample type to decode.');
     if (!lerc.littleEndian) throw new TerrainError('unsupported', 'The GeoTIFF is big-endian with LERC compression, which Loftline does not read; re-save it little-endian (gdal_translate -co ENDIANNESS=LITTLE).');
@@ -80,6 +88,25 @@ export async function blockDecoderFor(compression: number, inflate?: InflateFn, 
         blob = u instanceof Promise ? await u : u;
       }
       return decodeLercBlob(blob, typedArrayOf(lerc.type, n / size), lerc.maskFill);
+    };
+  }
+  if (compression === JPEG) {
+    // geotiff.js's baseline JPEG decoder (8-bit, as GDAL writes JPEG-in-TIFF for a single band); the last strip
+    // may hold fewer rows than a block, and is padded to the block so that rows are found where the reader expects
+    if (!jpeg) throw new TerrainError('unsupported', 'JPEG blocks need the block size to decode.');
+    const dec = await getDecoder(JPEG, { tileWidth: jpeg.blockWidth, tileHeight: jpeg.blockHeight, predictor: 1, bitsPerSample: 8, planarConfiguration: 1, JPEGTables: jpeg.tables ?? undefined } as never);
+    return async (c, n) => {
+      let out: Uint8Array;
+      try {
+        out = new Uint8Array(await dec.decodeBlock(c.slice().buffer));
+      } catch (err) {
+        throw new TerrainError('damaged', `A JPEG block does not decode (${(err as Error)?.message ?? err}); the file is damaged, so export it again.`);
+      }
+      if (out.length === n) return out;
+      if (out.length > n) return out.subarray(0, n);
+      const padded = new Uint8Array(n);
+      padded.set(out);
+      return padded;
     };
   }
   const refused = refusedCompression(compression);

@@ -8,7 +8,7 @@ import { COMPRESSION_NAMES, sampleBytes, type SampleType } from './dem-decoders'
 import { checkBlocksInFile, damagedDirectory } from './dem-damage';
 import { checkElevationContent, checkPlacement } from './dem-content';
 import { findInternalMask, type MaskLayout } from './dem-mask';
-import { LERC, type LercExtra, lercExtraOf, refusedCompression } from './dem-codecs';
+import { JPEG, LERC, type LercExtra, lercExtraOf, refusedCompression } from './dem-codecs';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -38,6 +38,8 @@ export interface DemLayout {
   samplesPerPixel: number;
   /** LERC's additional compression (GDAL's LercParameters tag). */
   lercExtra: LercExtra;
+  /** JPEG's shared quantisation and Huffman tables (JPEGTables tag), for JPEG blocks. */
+  jpegTables: Uint8Array | null;
   littleEndian: boolean;
   offsets: ArrayLike<number>;
   byteCounts: ArrayLike<number>;
@@ -225,6 +227,10 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
     throw new TerrainError('unsupported', `The GeoTIFF uses compression ${compressionCode}, which Loftline does not read; re-save it with DEFLATE, ZSTD, LERC, LZW or no compression (gdal_translate -co COMPRESS=DEFLATE).`);
   }
   const lercExtra = compressionCode === LERC ? lercExtraOf((await fd.loadValue('LercParameters')) as ArrayLike<number> | undefined) : 'none';
+  const jpegTables = compressionCode === JPEG ? (((await fd.loadValue('JPEGTables')) as Uint8Array | undefined) ?? null) : null;
+  if (compressionCode === JPEG && sampleType !== 'uint8') {
+    throw new TerrainError('unsupported', `The GeoTIFF uses JPEG compression on ${image.getBitsPerSample(0)}-bit samples; Loftline reads 8-bit JPEG only. Re-save it with DEFLATE (gdal_translate -co COMPRESS=DEFLATE in.tif out.tif).`);
+  }
   const predictor = ((await fd.loadValue('Predictor')) as number | undefined) ?? 1;
   if (predictor !== 1 && predictor !== 2 && predictor !== 3) throw new TerrainError('unsupported', `Unknown TIFF predictor ${predictor}; re-save the grid without a predictor.`);
   const geoKeys = image.getGeoKeys() as GeoKeys | null;
@@ -276,6 +282,7 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
     compressionCode,
     samplesPerPixel: planar === 1 ? bands : 1,
     lercExtra,
+    jpegTables,
     littleEndian: le,
     offsets,
     byteCounts,

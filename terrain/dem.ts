@@ -81,7 +81,8 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
   const { header, layout } = await parseDemHeader(bytes);
   const spp = layout.samplesPerPixel;
   const maskFill = header.nodata ?? (header.sampleType.startsWith('float') ? NaN : null);
-  const decode = await blockDecoderFor(layout.compressionCode, opts.inflate, { extra: layout.lercExtra, type: header.sampleType, littleEndian: layout.littleEndian, maskFill });
+  const decode = await blockDecoderFor(layout.compressionCode, opts.inflate, { extra: layout.lercExtra, type: header.sampleType, littleEndian: layout.littleEndian, maskFill },
+    { tables: layout.jpegTables, blockWidth: header.tiling.blockWidth, blockHeight: header.tiling.blockHeight });
   const maskDecode = layout.mask ? await blockDecoderFor(layout.mask.compressionCode, opts.inflate) : null;
   const { tiled, blockWidth: bw, blockHeight: bh, blocksAcross } = header.tiling;
   const size = sampleBytes(header.sampleType);

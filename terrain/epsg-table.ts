@@ -5,8 +5,9 @@
  */
 import data from './data/epsg-proj.json';
 
-/** One way PROJ reaches WGS 84 from a CRS's datum: a +towgs84 Helmert and the area where PROJ uses it. */
+/** One way PROJ reaches WGS 84 from a CRS's datum: a +towgs84 Helmert or an NTv2 grid, and the area where PROJ uses it. */
 export interface DatumShift {
+  /** The proj4 term: `+towgs84=…`, or `+nadgrids=FILE` for an NTv2 grid of Debian's proj-data (see datumGridFiles). */
   towgs84: string;
   /** Area of use [west, south, east, north] in degrees (west > east when it crosses 180 degrees). */
   bbox: readonly [number, number, number, number];
@@ -65,4 +66,14 @@ export function verticalCrsUnit(code: number): number | undefined {
 /** Longitude of an EPSG prime meridian (e.g. 8903 Paris) east of Greenwich in degrees, or undefined. */
 export function primeMeridianDeg(code: number): number | undefined {
   return raw.primeMeridians[String(code)];
+}
+
+/** The NTv2 grid files (e.g. BETA2007.gsb) some datum shifts of the table apply: the server and the command line load them. */
+export function datumGridFiles(): string[] {
+  const names = new Set<string>();
+  for (const sh of raw.shifts) {
+    const m = /^\+nadgrids=(\S+)$/.exec(sh[0]);
+    if (m) names.add(m[1]);
+  }
+  return [...names].sort();
 }

@@ -86,6 +86,9 @@ export interface ExtentOptions {
   insetPx?: number;
 }
 
+/** Image points cast along the front and the back image edge of every photo for its forward overlap (16 segments each). */
+export const EDGE_SEGMENTS = 8;
+
 /**
  * Ground extents of each photo in the layout frame (a along `layoutHeadingDeg`, c to its right):
  * for three image columns (left edge, centre, right edge) the along-track interval, for three image rows
@@ -94,8 +97,18 @@ export interface ExtentOptions {
  * Rays go through the image edge points (Brown distortion included) to the grid for the photo's real pose.
  */
 export function photoExtents(camera: Camera, heightAt: HeightAt, line: LinePhotos, layoutHeadingDeg: number, opts: ExtentOptions = {}): Float64Array {
+  return castPhotos(camera, heightAt, line, layoutHeadingDeg, opts).ext;
+}
+
+/**
+ * The photos' extents (see photoExtents) and their front and back image edges on the ground: per station
+ * 2 × (EDGE_SEGMENTS + 1) points (a, c), front edge first, each from the image's left to its right; NaN where a ray missed.
+ */
+function castPhotos(camera: Camera, heightAt: HeightAt, line: LinePhotos, layoutHeadingDeg: number, opts: ExtentOptions = {}): { ext: Float64Array; edges: Float64Array } {
   const n = line.x.length;
   const out = new Float64Array(n * STRIDE).fill(NaN);
+  const P = EDGE_SEGMENTS + 1;
+  const edges = new Float64Array(n * 4 * P).fill(NaN);
   const W = camera.imageWidthPx, H = camera.imageHeightPx;
   const alongIsWidth = camera.alongTrackSide === 'width';
   // image point at across fraction p and along fraction q (q = 0 front), in pixels
@@ -104,33 +117,122 @@ export function photoExtents(camera: Camera, heightAt: HeightAt, line: LinePhoto
   const px = (p: number, q: number): [number, number] => (alongIsWidth ? [m + (W - 2 * m) * (1 - q), m + (H - 2 * m) * p] : [m + (W - 2 * m) * p, m + (H - 2 * m) * q]);
   const th = layoutHeadingDeg * DEG;
   const sa = Math.sin(th), ca = Math.cos(th);
+  // the front edge (q = 0) and the back edge (q = 1), P points each, then the centre row's two side points
   const pts: Array<[number, number]> = [];
-  for (const q of [0, 0.5, 1]) for (const p of [0, 0.5, 1]) pts.push(px(p, q));
-  const A = new Float64Array(9), C = new Float64Array(9);
+  for (const q of [0, 1]) for (let i = 0; i < P; i++) pts.push(px(i / EDGE_SEGMENTS, q));
+  pts.push(px(0, 0.5), px(1, 0.5));
+  const A = new Float64Array(pts.length), C = new Float64Array(pts.length);
+  const mid = EDGE_SEGMENTS / 2;
+  // the 3 x 3 image points of the extents: rows front, centre, back; columns left, centre, right
+  const grid9 = [0, mid, P - 1, 2 * P, -1, 2 * P + 1, P, P + mid, 2 * P - 1];
   for (let s = 0; s < n; s++) {
     const pose = { xM: line.x[s], yM: line.y[s], altitudeM: line.altitudeM[s], yawDeg: line.headingDeg };
     const rot = opts.rot ?? cameraToLocal(camera, pose);
     const startHeightM = heightAt(pose.xM, pose.yM);
-    for (let k = 0; k < 9; k++) {
-      if (k === 4) continue; // the image centre is not an edge
+    for (let k = 0; k < pts.length; k++) {
       const g = castPixel(camera, pose, rot, pts[k][0], pts[k][1], heightAt, { startHeightM });
       A[k] = g ? g[0] * sa + g[1] * ca : NaN;
       C[k] = g ? g[0] * ca - g[1] * sa : NaN;
     }
+    const eo = s * 4 * P;
+    for (let k = 0; k < 2 * P; k++) {
+      edges[eo + k * 2] = A[k];
+      edges[eo + k * 2 + 1] = C[k];
+    }
+    const a9 = (k: number) => A[grid9[k]], c9 = (k: number) => C[grid9[k]];
     const o = s * STRIDE;
     for (let col = 0; col < 3; col++) {
-      const front = A[col], back = A[6 + col]; // rows q = 0 and q = 1 of this column
+      const front = a9(col), back = a9(6 + col); // rows q = 0 and q = 1 of this column
       out[o + col * 2] = Math.min(front, back);
       out[o + col * 2 + 1] = Math.max(front, back);
     }
     for (let row = 0; row < 3; row++) {
-      const left = C[row * 3], right = C[row * 3 + 2];
+      const left = c9(row * 3), right = c9(row * 3 + 2);
       out[o + 6 + row * 2] = Math.min(left, right);
       out[o + 6 + row * 2 + 1] = Math.max(left, right);
-      out[o + 12 + row] = (A[row * 3] + A[row * 3 + 2]) / 2;
+      out[o + 12 + row] = (a9(row * 3) + a9(row * 3 + 2)) / 2;
     }
   }
-  return out;
+  return { ext: out, edges };
+}
+
+/**
+ * Along-track position where the ground edge polyline (P points (a, c) from `o` in `edges`) crosses the
+ * across-track position c; of several crossings (an edge folded by a ridge) the one nearest `aRef` (the photo's
+ * inside), NaN where the edge does not reach c.
+ */
+function edgeAt(edges: Float64Array, o: number, P: number, c: number, aRef: number): number {
+  let best = NaN;
+  for (let i = 0; i + 1 < P; i++) {
+    const c0 = edges[o + i * 2 + 1], c1 = edges[o + i * 2 + 3];
+    if (!((c0 <= c && c <= c1) || (c1 <= c && c <= c0))) continue;
+    const a0 = edges[o + i * 2], a1 = edges[o + i * 2 + 2];
+    const a = c1 === c0 ? (aRef < a0 ? Math.min(a0, a1) : Math.max(a0, a1)) : a0 + ((a1 - a0) * (c - c0)) / (c1 - c0);
+    if (Number.isNaN(best) || Math.abs(a - aRef) < Math.abs(best - aRef)) best = a;
+  }
+  return best;
+}
+
+/**
+ * Forward overlap of two photos from their ground footprints: along every along-track ground line across the
+ * width both photos cover from edge to edge, the length inside both footprints over the mean of the lengths
+ * inside each (intervalOverlap), and the least of these. The footprints' front and back edges are polylines of
+ * cast rays, so between their vertices every end of both intervals moves linearly across the track and the
+ * ratio is monotonic there: the least is found exactly at the vertices, the range ends and where two edges cross.
+ * NaN where a ray missed.
+ */
+function forwardFromEdges(edges: Float64Array, ext: Float64Array, p: number, q: number): number {
+  const P = EDGE_SEGMENTS + 1;
+  const op = p * 4 * P, oq = q * 4 * P;
+  for (let k = 0; k < 4 * P; k++) if (Number.isNaN(edges[op + k]) || Number.isNaN(edges[oq + k])) return NaN;
+  // across-track range covered edge to edge by both photos: inside the side edges' innermost points
+  let lo = -Infinity, hi = Infinity;
+  for (const s of [p, q]) {
+    const o = s * 4 * P, e = s * STRIDE;
+    // the side edges' corners (first and last point of the front and back edges) and the centre row's side
+    // points (the extents' across-track interval of the centre row); the near side is the one with lower c
+    const first = [edges[o + 1], edges[o + 2 * P + 1]], last = [edges[o + 2 * P - 1], edges[o + 4 * P - 1]];
+    const [low, high] = first[0] + first[1] < last[0] + last[1] ? [first, last] : [last, first];
+    lo = Math.max(lo, low[0], low[1], ext[e + 8]);
+    hi = Math.min(hi, high[0], high[1], ext[e + 9]);
+  }
+  if (!(hi > lo)) return 0;
+  const centre = (o: number) => (edges[o + EDGE_SEGMENTS] + edges[o + 2 * P + EDGE_SEGMENTS]) / 2;
+  const refP = centre(op), refQ = centre(oq);
+  const ends = (o: number, ref: number, c: number): [number, number] => {
+    const f = edgeAt(edges, o, P, c, ref), b = edgeAt(edges, o + 2 * P, P, c, ref);
+    return f < b ? [f, b] : [b, f];
+  };
+  const cs = [lo, hi];
+  for (const o of [op, oq]) for (let k = 0; k < 2 * P; k++) {
+    const c = edges[o + k * 2 + 1];
+    if (c > lo && c < hi) cs.push(c);
+  }
+  cs.sort((x, y) => x - y);
+  let least = Infinity;
+  let prev: [number, number, number, number] | null = null;
+  let prevC = NaN;
+  const at = (c: number): [number, number, number, number] => [...ends(op, refP, c), ...ends(oq, refQ, c)] as [number, number, number, number];
+  const ratio = (v: number[]) => intervalOverlap(v[0], v[1], v[2], v[3]);
+  for (const c of cs) {
+    const v = at(c);
+    if (v.some(Number.isNaN)) return NaN;
+    least = Math.min(least, ratio(v));
+    if (prev) {
+      // where the two photos' starts or ends cross between the samples, the shared length has a kink
+      for (const k of [0, 1]) {
+        const d0 = prev[k] - prev[k + 2], d1 = v[k] - v[k + 2];
+        if (d0 * d1 < 0) {
+          const cx = prevC + ((c - prevC) * d0) / (d0 - d1);
+          const vx = at(cx);
+          if (!vx.some(Number.isNaN)) least = Math.min(least, ratio(vx));
+        }
+      }
+    }
+    prev = v;
+    prevC = c;
+  }
+  return least;
 }
 
 /**
@@ -159,15 +261,16 @@ export function sharedOverlap(a0: number, a1: number, aLen: number, b0: number, 
 
 /**
  * GSD, forward and side overlap and flags at every station of every line. Both overlaps are the least across
- * the footprint, so a compliance figure is never optimistic: forward overlap is the lowest along-track overlap
- * with the previous photo of the left, centre and right image columns; side overlap the lowest across-track
- * overlap of the front, centre and back image rows against each neighbouring row's strip, the lesser of the two
- * neighbours. (A mean over the columns overstated the shared ground on cross-slopes.) Every figure comes from the
- * photos' ground extents over the real terrain; tests/terrain/overlap-footprints.test.ts checks it against
- * shapely on a steep grid.
+ * the footprint, so a compliance figure is never optimistic: forward overlap is the least along-track overlap with
+ * the previous photo over the ground lines both footprints span (forwardFromEdges, from rays cast along the front
+ * and back image edges); side overlap the lowest across-track overlap of the front, centre and back image rows
+ * against each neighbouring row's strip, the lesser of the two neighbours. (A mean over image columns overstated
+ * the shared ground on cross-slopes.) Every figure comes from the photos' ground extents over the real terrain;
+ * tests/terrain/overlap-footprints.test.ts checks the forward overlap against shapely on a steep grid.
  */
 export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], layoutHeadingDeg: number, t: OverlapTargets, guaranteed: GuaranteedOverlapInput | null = null): StationResult[][] {
-  const ext = lines.map((l) => photoExtents(camera, heightAt, l, layoutHeadingDeg));
+  const cast = lines.map((l) => castPhotos(camera, heightAt, l, layoutHeadingDeg));
+  const ext = cast.map((x) => x.ext);
   const gext = guaranteed ? ext.map((e, li) => guaranteed.extentsFor(li, e)) : null;
   const th = layoutHeadingDeg * DEG;
   const sa = Math.sin(th);
@@ -196,13 +299,13 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       const o = s * STRIDE;
       let complete = true;
       for (let k = 0; k < STRIDE; k++) if (Number.isNaN(e[o + k])) complete = false;
+      const eo = s * 4 * (EDGE_SEGMENTS + 1);
+      for (let k = 0; k < 4 * (EDGE_SEGMENTS + 1); k++) if (Number.isNaN(cast[li].edges[eo + k])) complete = false;
       let forwardOverlap: number | null = null;
       if (s > 0) {
-        // the least overlap across the footprint: the lowest of the left, centre and right image columns (a
-        // weighted mean of them overstated the shared ground on cross-slopes; a compliance figure must not)
-        const p = o - STRIDE;
-        const col = (k: number) => intervalOverlap(e[p + k * 2], e[p + k * 2 + 1], e[o + k * 2], e[o + k * 2 + 1]);
-        const m = Math.min(col(0), col(1), col(2));
+        // the least overlap across the footprints on the ground (a weighted mean of image columns overstated
+        // the shared ground on cross-slopes; a compliance figure must not)
+        const m = forwardFromEdges(cast[li].edges, e, s - 1, s);
         forwardOverlap = Number.isNaN(m) ? null : m;
       }
       let sideOverlap: number | null = null;
@@ -228,7 +331,9 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
             const p = ((s - 1) * C + c1), q = (s * C + c2);
             for (let k = 0; k < 3; k++) m = Math.min(m, sharedOverlap(g.inner[p * 12 + 2 * k], g.inner[p * 12 + 2 * k + 1], g.lengths[p * 6 + k], g.inner[q * 12 + 2 * k], g.inner[q * 12 + 2 * k + 1], g.lengths[q * 6 + k]));
           }
-          forwardOverlapGuaranteed = Number.isNaN(m) ? null : m;
+          // the envelope holds the planned attitude, so the guaranteed figure is never above the planned one (which
+          // is the least over the edges' ground lines, a finer search than the three columns used here)
+          forwardOverlapGuaranteed = Number.isNaN(m) ? null : Math.min(m, forwardOverlap);
         }
         if (sideOverlap !== null) {
           for (const list of neighbours) {

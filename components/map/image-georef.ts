@@ -65,9 +65,13 @@ export interface HillshadePlacement {
   transform?: readonly number[];
 }
 
-/** The georeference of a site's hillshade: the exact transform when the record has one, else its WGS 84 bounds. */
+/**
+ * The georeference of a site's hillshade: the exact transform when the record has one, else its WGS 84 bounds.
+ * A CRS whose datum shift is an NTv2 grid file (+nadgrids=BETA2007.gsb) uses the bounds too: the browser has no
+ * grid files, and the server computed the bounds with the grid.
+ */
 export function hillshadeGeoref(h: HillshadePlacement, crsProj4: string | null | undefined): ImageGeoref {
-  if (h.transform && h.transform.length === 6 && crsProj4) {
+  if (h.transform && h.transform.length === 6 && crsProj4 && !/\+nadgrids=(?!@null\b)/.test(crsProj4)) {
     return projectedGeoref(h.width, h.height, h.transform as unknown as GeoTransform, crsProj4);
   }
   return boundsGeoref(h.width, h.height, h.boundsWgs84);

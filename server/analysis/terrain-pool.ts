@@ -13,6 +13,8 @@ import type { AsFlownCheckDocument } from '../../terrain/as-flown-document';
 import { analyseLiveCoverage, type LiveAnalysis } from '../mission-items/live-coverage.task';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import type { PlanResult } from '../../terrain/index';
+import { loadDatumGrids } from './datum-grids';
+import { installNodeCodecs } from './node-codecs';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
@@ -94,7 +96,10 @@ export function createInlineTerrainRunner(): TerrainRunner {
 }
 
 /** A pool of `threads` terrain threads (0: inline). */
-export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number }): TerrainRunner {
+export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number; datumGridDir?: string }): TerrainRunner {
+  // the datum-shift grids in this thread (inline tasks, and CRSs the routes resolve) and, through workerData, in each terrain thread
+  loadDatumGrids(opts.datumGridDir);
+  installNodeCodecs();
   if (opts.threads <= 0) return createInlineTerrainRunner();
   const slots: Slot[] = [];
   const queue: Pending[] = [];
@@ -102,7 +107,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   let closed = false;
 
   function spawn(): Slot {
-    const worker = new Worker(bootFile, { workerData: { entry: entryFile } });
+    const worker = new Worker(bootFile, { workerData: { entry: entryFile, datumGridDir: opts.datumGridDir } });
     const slot: Slot = { worker, busy: null };
     worker.unref(); // an idle pool never keeps the process alive
     worker.on('message', (m: ThreadReply) => {

@@ -1,11 +1,15 @@
 /** Entry of a terrain thread: runs the tasks of terrain-tasks.ts on messages from terrain-pool.ts. */
-import { parentPort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
+import { loadDatumGrids } from './datum-grids';
+import { installNodeCodecs } from './node-codecs';
 import { analyseMission, analysisTransfer, checkAsFlown, inspectDem, nodeInflate } from './terrain-tasks';
 import { analyseLiveCoverage } from '../mission-items/live-coverage.task';
 import type { ThreadReply, ThreadTask } from './terrain-pool';
 
 const port = parentPort;
 if (!port) throw new Error('terrain-thread.ts runs only as a worker thread.');
+loadDatumGrids((workerData as { datumGridDir?: string } | null)?.datumGridDir);
+installNodeCodecs();
 
 port.on('message', async (task: ThreadTask) => {
   const reply = (m: ThreadReply, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer);

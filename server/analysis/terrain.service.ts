@@ -4,8 +4,8 @@ import { createTerrainRunner, type TerrainRunner } from './terrain-pool';
 
 /** Service factory: puts `terrain` on the services (TERRAIN_THREADS threads; 0 runs inline). */
 export const terrainFactory: ServiceFactory = async (services) => {
-  const { TERRAIN_THREADS, TERRAIN_TASK_SECONDS } = services.config.env;
-  const runner = createTerrainRunner({ threads: TERRAIN_THREADS, taskTimeoutMs: TERRAIN_TASK_SECONDS * 1000 });
+  const { TERRAIN_THREADS, TERRAIN_TASK_SECONDS, DATUM_GRID_DIR } = services.config.env;
+  const runner = createTerrainRunner({ threads: TERRAIN_THREADS, taskTimeoutMs: TERRAIN_TASK_SECONDS * 1000, datumGridDir: DATUM_GRID_DIR });
   services.terrain = runner;
   return () => runner.close();
 };

@@ -58,6 +58,10 @@ describe('hillshadeGeoref', () => {
     expect(y).toBeCloseTo(0, 3);
     const linear = hillshadeGeoref({ width: 10, height: 10, boundsWgs84: [0, 0, 1, 1] }, utm33n);
     expect(linear.toPixel(0.5, 0.5)).toEqual([5, 5]);
+    // a datum shift by grid file (which the browser does not have): the bounds the server placed with the grid
+    const gk3 = '+proj=tmerc +lat_0=0 +lon_0=9 +k=1 +x_0=3500000 +y_0=0 +units=m +a=6377397.155 +rf=299.1528128 +no_defs +nadgrids=BETA2007.gsb';
+    const byBounds = hillshadeGeoref({ width: 10, height: 10, boundsWgs84: [8, 50, 9, 51], transform: [3477000, 1, 0, 5553000, 0, -1] }, gk3);
+    expect(byBounds.toPixel(8.5, 50.5)).toEqual([5, 5]);
   });
 });
 

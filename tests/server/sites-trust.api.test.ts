@@ -67,3 +67,25 @@ describe('uploading a file that is not a usable elevation grid', () => {
     expect((await c.get(base)).body.sites).toEqual([]);
   });
 });
+
+// DEMs in CRSs whose datum shift is an NTv2 grid of Debian proj-data, written by GDAL 3.6.2, and where
+// gdaltransform (PROJ 9.1.1, the grid applied) puts their outlines: tests/fixtures/datum-grids/make-grids.py, grids.json
+const gridRef = JSON.parse(fs.readFileSync('tests/fixtures/datum-grids/grids.json', 'utf8')) as {
+  grids: Array<{ file: string; epsg: number; command: string; boundsWgs84: [number, number, number, number] }>;
+};
+
+describe('uploading a grid whose datum shift is an NTv2 grid', () => {
+  it.each(gridRef.grids)('places $file (EPSG:$epsg) within 1 cm of gdaltransform', async (g) => {
+    const { c, base } = await ownProject(`grid-${g.epsg}`);
+    const r = await upload(c, base, fs.readFileSync(path.join('tests/fixtures/datum-grids', g.file)));
+    expect(r.status, JSON.stringify(r.body)).toBe(201);
+    const meta = r.body.metadata as { crs: { epsg: number }; boundsWgs84: [number, number, number, number] };
+    expect(meta.crs.epsg).toBe(g.epsg);
+    const lat = (g.boundsWgs84[1] + g.boundsWgs84[3]) / 2;
+    const mPerDegLat = 111_000, mPerDegLon = 111_000 * Math.cos((lat * Math.PI) / 180);
+    for (let k = 0; k < 4; k++) {
+      const m = Math.abs(meta.boundsWgs84[k] - g.boundsWgs84[k]) * (k % 2 === 0 ? mPerDegLon : mPerDegLat);
+      expect(m, `${g.command}: bound ${k}`).toBeLessThan(0.01);
+    }
+  });
+});

@@ -29,13 +29,19 @@ function analyse(photos: LinePhotos[], e: AttitudeEnvelope | null, heightAt: Hei
 }
 
 describe('station overlaps as guaranteed under the attitude envelope', () => {
-  it('equal the planned overlaps under a zero envelope (no roll, pitch or crab)', () => {
+  it('equal the planned overlaps under a zero envelope (no roll, pitch or crab): side exactly, forward within the two definitions\' 0.02', () => {
     const photos = lines(3, 9, (x, y) => hills(x, y) + H);
     const a = analyse(photos, null), b = analyse(photos, env({}));
     let compared = 0;
     a.forEach((line, li) => line.forEach((s, i) => {
       expect(s.forwardOverlapGuaranteed).toBeNull();
-      expect(b[li][i].forwardOverlapGuaranteed).toBe(s.forwardOverlap);
+      // forward: the guaranteed figure takes the three image columns (the planned one the finer ground lines between
+      // the cast edges), capped at the planned figure; the two definitions part by under 0.02 (overlap-footprints.test.ts)
+      if (s.forwardOverlap === null) expect(b[li][i].forwardOverlapGuaranteed).toBeNull();
+      else {
+        expect(b[li][i].forwardOverlapGuaranteed!).toBeLessThanOrEqual(s.forwardOverlap);
+        expect(b[li][i].forwardOverlapGuaranteed!).toBeGreaterThan(s.forwardOverlap - 0.02);
+      }
       expect(b[li][i].sideOverlapGuaranteed).toBe(s.sideOverlap);
       if (s.sideOverlap !== null) compared++;
     }));

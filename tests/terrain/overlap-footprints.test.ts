@@ -24,17 +24,18 @@ describe('forward overlap on a steep cross-slope, against shapely', () => {
     }
   });
 
-  it('reports the least overlap across the footprint: never more than 0.01 above shapely\'s, never above the shared-area figure', () => {
+  it('reports the least overlap across the footprint: within 0.01 of shapely\'s and never above it, never above the shared-area figure', () => {
     expect(ref.pairs).toHaveLength(11);
     let worstBelow = 0;
     for (const p of ref.pairs) {
       const ours = res[p.photo].forwardOverlap!;
-      expect(ours, `photo ${p.photo}`).toBeLessThanOrEqual(p.least + 0.01); // never optimistic
+      expect(ours, `photo ${p.photo}`).toBeLessThanOrEqual(p.least); // never optimistic
       expect(ours, `photo ${p.photo}`).toBeLessThanOrEqual(p.area); // the shared area overstates the weak side
       worstBelow = Math.max(worstBelow, p.least - ours);
     }
-    // three image columns against 201 ground lines: at most 0.02 on the safe side (measured 0.016 at photo 1)
-    expect(worstBelow).toBeLessThan(0.02);
+    // the engine finds the exact least of its 8-segment edge polylines, shapely samples 201 ground lines of the
+    // 16-ray footprints: within 0.01 on the safe side (measured 0.0005 at photo 9)
+    expect(worstBelow).toBeLessThan(0.01);
   });
 
   it('flags the photos whose least overlap is under the target, as shapely\'s figures say they are', () => {
