@@ -28,15 +28,32 @@ export interface AttemptInfo {
   final: boolean;
 }
 
-export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain: TerrainRunner; log?: (msg: string) => void }) {
+export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain: TerrainRunner; log?: (msg: string) => void; heartbeatSeconds?: number }) {
   const { db, storage, terrain } = deps;
   const log = deps.log ?? (() => {});
+  const heartbeatMs = (deps.heartbeatSeconds ?? 5) * 1000;
+
+  /**
+   * Record "still alive" every few seconds from the main thread while the attempt runs (the terrain work itself is
+   * in a pool thread, so the timer keeps firing); the supervisor (analysis-supervisor.ts) hands back a running
+   * version whose heartbeat stopped. Returns the function that stops the heartbeat.
+   */
+  function startHeartbeat(versionId: string): () => void {
+    const timer = setInterval(() => {
+      db.update(planVersion)
+        .set({ analysisHeartbeatAt: sql`now()` })
+        .where(and(eq(planVersion.id, versionId), eq(planVersion.analysisState, 'running')))
+        .catch(() => undefined); // a missed beat is harmless; several in a row hand the run to another worker
+    }, heartbeatMs);
+    (timer as unknown as { unref?: () => void }).unref?.(); // the DOM typings (tsconfig lib) type timers as numbers
+    return () => clearInterval(timer);
+  }
 
   /** Take a queued (or interrupted) version for analysis; null when it is already done or failed. */
   async function claim(versionId: string) {
     const [row] = await db
       .update(planVersion)
-      .set({ analysisState: 'running', analysisProgress: 5, analysisError: null })
+      .set({ analysisState: 'running', analysisProgress: 5, analysisError: null, analysisHeartbeatAt: sql`now()` })
       .where(and(eq(planVersion.id, versionId), inArray(planVersion.analysisState, ['queued', 'running'])))
       .returning({ id: planVersion.id, teamId: planVersion.teamId, planId: planVersion.planId, siteId: planVersion.siteId, input: planVersion.input });
     return row ?? null;
@@ -120,6 +137,7 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
         log(`analysis ${versionId}: already settled, nothing to do`);
         return 'skipped';
       }
+      const stopHeartbeat = startHeartbeat(versionId);
       try {
         const wrote = await settle(v, await compute(v));
         log(`analysis ${versionId}: ${wrote ? 'done' : 'finished by another worker first'}`);
@@ -135,9 +153,11 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
         // back in the queue: say why the last attempt stopped while the next one waits
         await db
           .update(planVersion)
-          .set({ analysisState: 'queued', analysisProgress: 0, analysisError: `Attempt ${attempt.attempt} stopped (${(err as Error)?.message}); trying again.` })
+          .set({ analysisState: 'queued', analysisProgress: 0, analysisHeartbeatAt: null, analysisError: `Attempt ${attempt.attempt} stopped (${(err as Error)?.message}); trying again.` })
           .where(and(eq(planVersion.id, versionId), eq(planVersion.analysisState, 'running')));
         throw err;
+      } finally {
+        stopHeartbeat();
       }
     },
 
