@@ -95,9 +95,16 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
   async function compute(v: { id: string; teamId: string; siteId: string; input: unknown }) {
     const [s] = await db.select({ storageKey: site.storageKey, verticalDatum: site.verticalDatum }).from(site).where(and(eq(site.id, v.siteId), eq(site.teamId, v.teamId))).limit(1);
     if (!s) throw new FinalAnalysisError('The elevation grid of this version is gone.');
-    let bytes: Buffer;
+    // a local file is read by ranges in the terrain thread (only the header and the blocks under the mission);
+    // other stores hand over the bytes
+    let file: Uint8Array | { path: string };
     try {
-      bytes = await storage.getBytes(s.storageKey);
+      const local = storage.localPath ? await storage.localPath(s.storageKey) : null;
+      if (local) file = { path: local };
+      else {
+        const bytes = await storage.getBytes(s.storageKey);
+        file = new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+      }
     } catch (err) {
       if (err instanceof StorageNotFoundError) throw new FinalAnalysisError('The stored elevation grid file of this version is missing; upload it again.');
       throw err;
@@ -105,7 +112,7 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
     await setProgress(v.id, 20);
     let last = 0;
     // the site's datum goes into the result, so every stored height names its reference
-    const analysis = await terrain.analyse(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), v.input, (pct) => {
+    const analysis = await terrain.analyse(file, v.input, (pct) => {
       if (pct - last >= 5) {
         last = pct;
         setProgress(v.id, pct).catch(() => undefined);

@@ -8,7 +8,7 @@
 import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, checkAsFlown, inspectDem, nodeInflate, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import { analyseMission, checkAsFlown, inspectDem, nodeInflate, type AnalyseMissionOptions, type DemFile, type DemInspection, type MissionAnalysis } from './terrain-tasks';
 import type { AsFlownCheckDocument } from '../../terrain/as-flown-document';
 import { analyseLiveCoverage, type LiveAnalysis } from '../mission-items/live-coverage.task';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
@@ -16,7 +16,7 @@ import type { PlanResult } from '../../terrain/index';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
-  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions }
+  | { id: number; kind: 'analyse'; bytes: DemFile; mission: unknown; opts?: AnalyseMissionOptions }
   | { id: number; kind: 'as-flown'; bytes: Uint8Array; mission: unknown; photos: readonly FlownPhoto[]; opts?: AnalyseMissionOptions }
   | { id: number; kind: 'live-coverage'; bytes: Uint8Array; mission: unknown; plan: PlanResult; photos: FlownPhoto[] };
 
@@ -43,7 +43,8 @@ export class TerrainTimeoutError extends Error {
 /** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
 export interface TerrainRunner {
   inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
-  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
+  /** `bytes` may be a local file ({ path }), read by ranges in the thread instead of moved to it whole. */
+  analyse(bytes: DemFile, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
   /** A photo log checked against the plan of `mission` (terrain/as-flown-document.ts). */
   asFlown(bytes: Uint8Array, mission: unknown, photos: readonly FlownPhoto[], opts?: AnalyseMissionOptions): Promise<AsFlownCheckDocument>;
   /** Photos as flown so far against a stored plan (live coverage). */
@@ -153,13 +154,13 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
       slot.worker.ref();
       const limitMs = p.timeoutMs ?? opts.taskTimeoutMs;
       if (limitMs !== undefined) slot.timer = setTimeout(() => expire(slot, limitMs), limitMs);
-      slot.worker.postMessage(p.task, [p.task.bytes.buffer as ArrayBuffer]);
+      slot.worker.postMessage(p.task, p.task.bytes instanceof Uint8Array ? [p.task.bytes.buffer as ArrayBuffer] : []);
     }
   }
 
   function run<T>(task: NewTask, onProgress?: (pct: number) => void, timeoutMs?: number): Promise<T> {
     if (closed) return Promise.reject(new Error('The terrain pool is closed.'));
-    const full = { ...task, id: nextId++, bytes: ownBuffer(task.bytes) } as ThreadTask;
+    const full = { ...task, id: nextId++, bytes: task.bytes instanceof Uint8Array ? ownBuffer(task.bytes) : task.bytes } as ThreadTask;
     return new Promise<T>((resolve, reject) => {
       queue.push({ task: full, resolve: resolve as (v: unknown) => void, reject, onProgress, timeoutMs });
       dispatch();

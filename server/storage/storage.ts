@@ -22,6 +22,11 @@ export interface Storage {
   /** Stream `body` into `key`, hashing and counting on the way; on any failure nothing is left under `key`. */
   put(key: string, body: Readable | Uint8Array, opts?: PutOptions): Promise<PutResult>;
   getBytes(key: string): Promise<Buffer>;
+  /**
+   * The object as a local file that terrain threads can read by ranges (disk storage), or null when the store has
+   * no local files (S3: read with getBytes). Throws StorageNotFoundError for a missing key.
+   */
+  localPath?(key: string): Promise<string | null>;
   getStream(key: string): Promise<Readable>;
   /** Remove `key`; removing a missing key is not an error. */
   delete(key: string): Promise<void>;
