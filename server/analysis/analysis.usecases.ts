@@ -10,7 +10,7 @@ import { auditEvent, planVersion, site } from '../../db/schema';
 import { TerrainError } from '../../terrain/errors';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 import type { TerrainRunner } from './terrain-pool';
-import type { CoverageFiles } from './terrain-tasks';
+import type { CoverageFiles, DemFile } from './terrain-tasks';
 import { storedCoverageSchema, type StoredCoverage } from '../../contracts/coverage';
 import { coverageKeys } from '../coverage/coverage-keys';
 import type { CoverageMeasure } from '../../terrain/coverage-measures';
@@ -95,12 +95,13 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
   async function compute(v: { id: string; teamId: string; siteId: string; input: unknown }) {
     const [s] = await db.select({ storageKey: site.storageKey, verticalDatum: site.verticalDatum }).from(site).where(and(eq(site.id, v.siteId), eq(site.teamId, v.teamId))).limit(1);
     if (!s) throw new FinalAnalysisError('The elevation grid of this version is gone.');
-    // a local file is read by ranges in the terrain thread (only the header and the blocks under the mission);
-    // other stores hand over the bytes
-    let file: Uint8Array | { path: string };
+    // the grid is read by ranges (only the header and the blocks under the mission): a local file in the terrain
+    // thread, an object store through ranged GETs; a store with neither hands over the bytes
+    let file: DemFile;
     try {
       const local = storage.localPath ? await storage.localPath(s.storageKey) : null;
       if (local) file = { path: local };
+      else if (storage.openRanges) file = await storage.openRanges(s.storageKey);
       else {
         const bytes = await storage.getBytes(s.storageKey);
         file = new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);

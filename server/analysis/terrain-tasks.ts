@@ -20,15 +20,23 @@ import { runAsFlownCheck, type AsFlownCheckDocument } from '../../terrain/as-flo
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import type { ByteRangeSource } from '../../terrain/index';
 
-/** A stored grid for the terrain tasks: its bytes in memory, or a local file that is read by ranges. */
-export type DemFile = Uint8Array | { path: string };
+/**
+ * A stored grid for the terrain tasks: its bytes in memory, a local file read by ranges, or any range source (an
+ * object store's ranged GETs; a terrain thread asks the main thread for each range).
+ */
+export type DemFile = Uint8Array | { path: string } | ByteRangeSource;
+
+/** A range source, told apart from the other forms of DemFile. */
+export function isRangeSource(f: unknown): f is ByteRangeSource {
+  return typeof (f as ByteRangeSource | null)?.read === 'function';
+}
 
 /**
  * Run `fn` over a range source of `grid`: a local file is opened once and read block by block through its handle,
  * so an analysis holds the header and the blocks of its window, never the whole file.
  */
 export async function withDemSource<T>(grid: DemFile, fn: (src: Uint8Array | ByteRangeSource) => Promise<T>): Promise<T> {
-  if (grid instanceof Uint8Array) return fn(grid);
+  if (grid instanceof Uint8Array || isRangeSource(grid)) return fn(grid);
   const handle = await fsp.open(grid.path, 'r');
   try {
     const { size } = await handle.stat();

@@ -27,6 +27,8 @@ export interface Storage {
    * no local files (S3: read with getBytes). Throws StorageNotFoundError for a missing key.
    */
   localPath?(key: string): Promise<string | null>;
+  /** The object read by byte ranges (S3: ranged GETs); reads past the end answer fewer bytes. */
+  openRanges?(key: string): Promise<{ byteLength: number; read(offset: number, length: number): Promise<Uint8Array> }>;
   getStream(key: string): Promise<Readable>;
   /** Remove `key`; removing a missing key is not an error. */
   delete(key: string): Promise<void>;

@@ -59,6 +59,25 @@ describe('analyses over a stored file read by ranges', () => {
     expect(fromFile.files?.raster).toEqual(fromBytes.files?.raster);
   });
 
+  it('gives the same plan from a range source (ranges asked of the main thread) while fetching part of the grid', async () => {
+    const bytes = demo();
+    let fetched = 0;
+    const ranges = {
+      byteLength: bytes.byteLength,
+      async read(offset: number, length: number) {
+        fetched += Math.min(length, bytes.byteLength - offset);
+        return bytes.slice(offset, offset + length);
+      },
+    };
+    const fromRanges = await pool.analyse(ranges, mission);
+    const fromBytes = await pool.analyse(demo(), mission);
+    expect(fromRanges.result).toEqual(fromBytes.result);
+    expect(fromRanges.files?.raster).toEqual(fromBytes.files?.raster);
+    expect(fetched).toBeGreaterThan(0);
+    // the tiles under the area with the analysis margin (about half of this small grid's 20 tiles), not the whole file
+    expect(fetched).toBeLessThan(bytes.byteLength * 0.6);
+  });
+
   it('refuses a missing file with the error of the file system', async () => {
     await expect(pool.analyse({ path: 'datasets/no-such-grid.tif' }, mission)).rejects.toThrow(/ENOENT/);
   });
