@@ -48,22 +48,37 @@ export function userText(params?: Parameters<typeof z.string>[0]) {
     .overwrite(stripBidiControls);
 }
 
-/** The path of the first string (value or key) holding a NUL in `value`, as "a.b.0.c", or null. */
+/**
+ * The path of the first string (value or key) holding a NUL in `value`, as "a.b.0.c", or null. One shared path
+ * stack and no copies per element: a 10,000-corner area is 30,000 values, and a copied path per value made this
+ * walk (run on every JSON body) a few milliseconds of garbage per request.
+ */
 export function findNul(value: unknown, path: string[] = []): string | null {
-  if (typeof value === 'string') return value.includes('\u0000') ? path.join('.') || '(body)' : null;
-  if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) {
-      const p = findNul(value[i], [...path, String(i)]);
+  const stack = [...path];
+  const found = (last?: string) => (last === undefined ? stack : [...stack, last]).join('.') || '(body)';
+  const walk = (v: unknown): string | null => {
+    if (typeof v === 'string') return v.includes('\u0000') ? found() : null;
+    if (v === null || typeof v !== 'object') return null; // numbers, booleans: nothing to look at
+    if (Array.isArray(v)) {
+      for (let i = 0; i < v.length; i++) {
+        const item: unknown = v[i];
+        if (item === null || (typeof item !== 'object' && typeof item !== 'string')) continue;
+        stack.push(String(i));
+        const p = walk(item);
+        stack.pop();
+        if (p) return p;
+      }
+      return null;
+    }
+    for (const k in v) {
+      if (!Object.prototype.hasOwnProperty.call(v, k)) continue;
+      if (k.includes('\u0000')) return found(k.replace(/\u0000/g, '\\u0000'));
+      stack.push(k);
+      const p = walk((v as Record<string, unknown>)[k]);
+      stack.pop();
       if (p) return p;
     }
     return null;
-  }
-  if (value !== null && typeof value === 'object') {
-    for (const [k, v] of Object.entries(value)) {
-      if (k.includes('\u0000')) return [...path, k.replace(/\u0000/g, '\\u0000')].join('.');
-      const p = findNul(v, [...path, k]);
-      if (p) return p;
-    }
-  }
-  return null;
+  };
+  return walk(value);
 }

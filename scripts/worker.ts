@@ -6,6 +6,7 @@
 import { createDb } from '../db/client';
 import { migrateDb } from '../db/migrate';
 import { createAuth } from '../server/auth/auth';
+import { startAnalysisSupervisor } from '../server/analysis/analysis-supervisor';
 import { startAnalysisWorkers } from '../server/analysis/analysis.worker';
 import { terrainFactory } from '../server/analysis/terrain.service';
 import { buildConfig, parseEnv } from '../server/config';
@@ -39,6 +40,7 @@ const jobs = await startJobs(config, (err) => log(`queue error: ${(err as Error)
 services.jobs = jobs;
 const count = Math.max(1, env.WORKERS);
 await startAnalysisWorkers(services, count, log);
+const stopSupervisor = startAnalysisSupervisor(db, jobs, { staleSeconds: env.ANALYSIS_STALE_SECONDS, everySeconds: env.ANALYSIS_HEARTBEAT_SECONDS, log });
 log(`ready: ${count} worker${count > 1 ? 's' : ''} on queue ${jobs.queues.analysis}`);
 
 let stopping = false;
@@ -46,6 +48,7 @@ async function stop() {
   if (stopping) return;
   stopping = true;
   log('stopping');
+  await stopSupervisor().catch(() => undefined);
   await jobs.stop().catch(() => undefined);
   for (const c of cleanups.reverse()) await c().catch(() => undefined);
   await db.$client.end().catch(() => undefined);

@@ -49,8 +49,12 @@ const envSchema = z.object({
   ORPHAN_SWEEP_MINUTES: z.coerce.number().positive().max(10_080).default(30),
   /** Retries of an analysis job that stopped without finishing (a crashed or killed worker). */
   ANALYSIS_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(3),
-  /** An analysis job still active after this long is taken as lost and retried; keep it above the longest run. */
+  /** Backstop behind the heartbeat: an analysis job still active after this long is failed by the queue itself; keep it above the longest run. */
   ANALYSIS_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(86_400).default(900),
+  /** How often a running analysis records that it is alive (and how often each process looks for analyses that stopped). */
+  ANALYSIS_HEARTBEAT_SECONDS: z.coerce.number().positive().max(60).default(5),
+  /** A running analysis with no heartbeat for this long lost its worker (crash, kill) and is handed back for retry. */
+  ANALYSIS_STALE_SECONDS: z.coerce.number().positive().max(45).default(30),
   /** How often the job queue looks for lost jobs (pg-boss maintenance), and how often idle workers poll. */
   JOBS_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   JOBS_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),

@@ -56,12 +56,34 @@ export function metresPerUnit(unit: LengthUnit): number {
   return METRES_PER[unit];
 }
 
-/** A geotiff.js source over bytes already in memory: header reads copy only the small slices asked for. */
-function bytesSource(bytes: Uint8Array) {
+/**
+ * A file read by byte ranges (a stored grid on disk or in object storage), so that only the header, the block
+ * tables and the blocks a window needs are ever in memory. `read` answers at most `length` bytes: fewer past the
+ * end of the file, as a slice of bytes in memory would.
+ */
+export interface ByteRangeSource {
+  readonly byteLength: number;
+  read(offset: number, length: number): Promise<Uint8Array>;
+}
+
+/** Bytes already in memory as a range source: each read is a view (no copy). */
+export function memoryRangeSource(bytes: Uint8Array): ByteRangeSource {
+  return { byteLength: bytes.byteLength, read: async (offset, length) => bytes.subarray(offset, offset + length) };
+}
+
+/** Either input form of the readers as a range source. */
+export function asRangeSource(input: ArrayBuffer | Uint8Array | ByteRangeSource): ByteRangeSource {
+  if (input instanceof Uint8Array || input instanceof ArrayBuffer) return memoryRangeSource(asBytes(input));
+  if (input && typeof (input as ByteRangeSource).read === 'function' && Number.isFinite((input as ByteRangeSource).byteLength)) return input as ByteRangeSource;
+  throw new TerrainError('invalid-input', `A DEM is read from an ArrayBuffer, a Uint8Array or a byte-range source, got ${Object.prototype.toString.call(input)}.`);
+}
+
+/** A geotiff.js source over a range source: header reads fetch (and copy) only the small slices asked for. */
+function geotiffSource(src: ByteRangeSource) {
   return {
-    fileSize: bytes.byteLength,
+    fileSize: src.byteLength,
     async fetch(slices: Array<{ offset: number; length: number }>) {
-      return slices.map((s) => bytes.slice(s.offset, s.offset + s.length).buffer);
+      return Promise.all(slices.map(async (s) => (await src.read(s.offset, s.length)).slice().buffer));
     },
     async close() {},
   };
@@ -165,9 +187,9 @@ function checkDeclaredSize(h: { width: number; height: number; blockWidth: numbe
  * Parse the first image of a GeoTIFF into a header and the block layout of band 1. Anything that breaks while
  * reading the directory (a value table past the end of the file, a bad entry) is reported as a damaged file.
  */
-export async function parseDemHeader(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
+export async function parseDemHeader(input: Uint8Array | ByteRangeSource): Promise<{ header: DemHeader; layout: DemLayout }> {
   try {
-    return await parseHeaderFields(bytes);
+    return await parseHeaderFields(asRangeSource(input));
   } catch (err) {
     if (err instanceof TerrainError) throw err;
     throw damagedDirectory('TIFF directory', `an entry cannot be read (${(err as Error)?.message ?? String(err)})`);
@@ -185,8 +207,9 @@ async function blockTable(fd: { loadValue(t: string): Promise<unknown> }, tag: s
   }
 }
 
-async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader; layout: DemLayout }> {
-  if (bytes.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${bytes.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
+async function parseHeaderFields(src: ByteRangeSource): Promise<{ header: DemHeader; layout: DemLayout }> {
+  if (src.byteLength < 8) throw new TerrainError('not-tiff', `The file is ${src.byteLength} bytes long, too short to be a TIFF; upload a GeoTIFF (.tif) DEM.`);
+  const bytes = await src.read(0, 4);
   const bom = (bytes[0] << 8) | bytes[1];
   const le = bom === 0x4949;
   const magic = le ? bytes[2] | (bytes[3] << 8) : (bytes[2] << 8) | bytes[3];
@@ -195,7 +218,7 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   }
   let image, tiff;
   try {
-    tiff = await GeoTIFF.fromSource(bytesSource(bytes) as never);
+    tiff = await GeoTIFF.fromSource(geotiffSource(src) as never);
     image = await tiff.getImage(0);
   } catch (err) {
     throw new TerrainError('truncated', `The TIFF's directory cannot be read (${(err as Error).message}); the file is probably cut short, so upload it again.`);
@@ -244,16 +267,16 @@ async function parseHeaderFields(bytes: Uint8Array): Promise<{ header: DemHeader
   const blocksAcross = Math.ceil(width / blockWidth);
   const blocksDown = Math.ceil(height / blockHeight);
   const nBlocks = blocksAcross * blocksDown;
-  checkDeclaredShape(width, height, nBlocks, bytes.byteLength);
-  const offsets = await blockTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', bytes.byteLength);
-  const byteCounts = await blockTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', bytes.byteLength);
+  checkDeclaredShape(width, height, nBlocks, src.byteLength);
+  const offsets = await blockTable(fd as never, tiled ? 'TileOffsets' : 'StripOffsets', src.byteLength);
+  const byteCounts = await blockTable(fd as never, tiled ? 'TileByteCounts' : 'StripByteCounts', src.byteLength);
   if (!offsets || !byteCounts || offsets.length < nBlocks || byteCounts.length < nBlocks) {
     throw new TerrainError('damaged', `The file is damaged: the TIFF lists ${Math.min(offsets?.length ?? 0, byteCounts?.length ?? 0)} data ${tiled ? 'tiles' : 'strips'} where ${nBlocks} are needed; re-export it from your GIS.`);
   }
-  checkBlocksInFile(offsets, byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
-  checkDeclaredSize({ width, height, blockWidth, blockHeight, bytesPerSample: sampleBytes(sampleType) * (planar === 1 ? bands : 1), compressionCode }, byteCounts, nBlocks, bytes.byteLength);
+  checkBlocksInFile(offsets, byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, src.byteLength);
+  checkDeclaredSize({ width, height, blockWidth, blockHeight, bytesPerSample: sampleBytes(sampleType) * (planar === 1 ? bands : 1), compressionCode }, byteCounts, nBlocks, src.byteLength);
   const mask = await findInternalMask(tiff as never, { width, height, tiled, blockWidth, blockHeight, blocks: nBlocks });
-  if (mask) checkBlocksInFile(mask.offsets, mask.byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, bytes.byteLength);
+  if (mask) checkBlocksInFile(mask.offsets, mask.byteCounts, { tiled, blockHeight, blocksAcross, blocksDown }, height, src.byteLength);
   const gdalMeta = ((await image.getGDALMetadata(0)) ?? {}) as Record<string, unknown>;
   const keysSayVertical = geoKeys != null && (geoKeys.VerticalUnitsGeoKey !== undefined || geoKeys.VerticalCSTypeGeoKey !== undefined);
   const vertical = keysSayVertical ? verticalUnitFromGeoKeys(geoKeys) : unitFromName(gdalMeta.UNITTYPE) ?? 'metre';

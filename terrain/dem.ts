@@ -3,13 +3,13 @@ import type { GeoTransform, Grid, GridCrs } from './grid';
 import { createGrid, mapToPixel } from './grid';
 import { TerrainError, check } from './errors';
 import { createTransform } from './crs';
-import { asBytes, type DemHeader, type DemLayout, parseDemHeader } from './dem-header';
+import { asRangeSource, type ByteRangeSource, type DemHeader, type DemLayout, parseDemHeader } from './dem-header';
 import { damagedBlock } from './dem-damage';
 import { applyMaskRows, maskRowBytes } from './dem-mask';
 import { firstBand, undoFloatPredictorInterleaved, undoIntegerPredictorInterleaved } from './dem-bands';
 import { blockDecoderFor, copyRows, float32PredictorRows, type InflateFn, sampleBytes, undoFloatPredictorBytes, undoIntegerPredictor } from './dem-decoders';
 
-export type { DemHeader } from './dem-header';
+export type { ByteRangeSource, DemHeader } from './dem-header';
 export type { InflateFn } from './dem-decoders';
 
 /** A map-coordinate window: bbox [minx, miny, maxx, maxy] in `crs` (default the grid's), widened by `marginPx` pixels (default 1). */
@@ -41,8 +41,8 @@ export interface DemSource {
 const DEFAULT_MAX_PIXELS = 2 ** 28;
 
 /** Read what a GeoTIFF DEM says about itself (size, georeference, CRS, nodata, units, layout) without decoding pixels. */
-export async function readDemHeader(bytes: ArrayBuffer | Uint8Array): Promise<DemHeader> {
-  return (await parseDemHeader(asBytes(bytes))).header;
+export async function readDemHeader(bytes: ArrayBuffer | Uint8Array | ByteRangeSource): Promise<DemHeader> {
+  return (await parseDemHeader(asRangeSource(bytes))).header;
 }
 
 /** Pixel range [c0, r0, c1, r1) that covers a map window, widened by its margin and clipped to the grid. */
@@ -76,8 +76,9 @@ function windowTransform(t: GeoTransform, c0: number, r0: number): GeoTransform 
 }
 
 /** Open a DEM for repeated window reads (decoded blocks are cached up to `cacheBytes`, default 64 MiB). */
-export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?: InflateFn; cacheBytes?: number } = {}): Promise<DemSource> {
-  const bytes = asBytes(input);
+export async function openDem(input: ArrayBuffer | Uint8Array | ByteRangeSource, opts: { inflate?: InflateFn; cacheBytes?: number } = {}): Promise<DemSource> {
+  // bytes in memory or a file read by ranges: either way only the blocks a read needs are fetched
+  const bytes = asRangeSource(input);
   const { header, layout } = await parseDemHeader(bytes);
   const spp = layout.samplesPerPixel;
   const maskFill = header.nodata ?? (header.sampleType.startsWith('float') ? NaN : null);
@@ -103,7 +104,7 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
       return;
     }
     const expected = bw * rowsInBlock * size * spp;
-    const raw = bytes.subarray(off, off + count);
+    const raw = await bytes.read(off, count);
     let data: Uint8Array;
     try {
       const d = decode(raw, expected);
@@ -145,7 +146,7 @@ export async function openDem(input: ArrayBuffer | Uint8Array, opts: { inflate?:
     if (count > 0) {
       const expected = maskRowBytes(bw) * rowsInBlock;
       try {
-        const d = maskDecode!(bytes.subarray(off, off + count), expected);
+        const d = maskDecode!(await bytes.read(off, count), expected);
         bits = d instanceof Promise ? await d : d;
       } catch (err) {
         throw damagedBlock(idx, header.tiling, header.height, `its internal mask does not decode (${(err as Error)?.message ?? String(err)})`);
@@ -221,7 +222,7 @@ function clipPixelWindow(w: readonly [number, number, number, number], h: DemHea
 }
 
 /** Read a GeoTIFF DEM (or only the blocks under `window`) into a Grid: heights in metres, NaN for nodata. */
-export async function readDem(bytes: ArrayBuffer | Uint8Array, opts: ReadDemOptions = {}): Promise<Grid> {
+export async function readDem(bytes: ArrayBuffer | Uint8Array | ByteRangeSource, opts: ReadDemOptions = {}): Promise<Grid> {
   const source = await openDem(bytes, { inflate: opts.inflate, cacheBytes: 0 });
   return source.read(opts);
 }

@@ -5,7 +5,7 @@ export { WGS84, WEB_MERCATOR, utmCrs, utmCrsFor, crsFromEpsg, crsFromString, crs
 export { crsFromGeoKeys } from './geokeys';
 export type { Transform } from './crs';
 export { readDem, readDemHeader, openDem, windowToPixels } from './dem';
-export type { DemHeader, DemSource, DemWindow, ReadDemOptions, InflateFn } from './dem';
+export type { ByteRangeSource, DemHeader, DemSource, DemWindow, ReadDemOptions, InflateFn } from './dem';
 export { metresPerUnit } from './dem-header';
 export { sampleAt, samplePoints, sampleAlongLine, sampleGridCoords, densifyLine } from './sample';
 export type { SampleMethod, SampleOptions } from './sample';

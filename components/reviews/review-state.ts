@@ -35,6 +35,7 @@ const actionTitles: Record<string, string> = {
   'version.created': 'Version created',
   'analysis.done': 'Analysis finished',
   'analysis.failed': 'Analysis failed',
+  'analysis.retried': 'Analysis tried again (its worker stopped)',
   'as-flown.checked': 'Photos checked as flown',
 };
 

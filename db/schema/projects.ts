@@ -103,6 +103,11 @@ export const planVersion = pgTable(
     analysisError: text('analysis_error'),
     /** Progress of a running analysis in percent. */
     analysisProgress: integer('analysis_progress_pct').notNull().default(0),
+    /**
+     * Last sign of life of the attempt running this analysis (written every ANALYSIS_HEARTBEAT_SECONDS while it runs);
+     * a running version whose heartbeat is older than ANALYSIS_STALE_SECONDS lost its worker and is handed back for retry.
+     */
+    analysisHeartbeatAt: timestamp('analysis_heartbeat_at', { withTimezone: true }),
     result: jsonb('result'),
     /** The coverage run of the analysis (contracts/coverage.ts storedCoverageSchema); its raster and images are stored files. */
     coverage: jsonb('coverage'),

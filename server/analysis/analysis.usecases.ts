@@ -10,7 +10,7 @@ import { auditEvent, planVersion, site } from '../../db/schema';
 import { TerrainError } from '../../terrain/errors';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 import type { TerrainRunner } from './terrain-pool';
-import type { CoverageFiles } from './terrain-tasks';
+import type { CoverageFiles, DemFile } from './terrain-tasks';
 import { storedCoverageSchema, type StoredCoverage } from '../../contracts/coverage';
 import { coverageKeys } from '../coverage/coverage-keys';
 import type { CoverageMeasure } from '../../terrain/coverage-measures';
@@ -28,15 +28,32 @@ export interface AttemptInfo {
   final: boolean;
 }
 
-export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain: TerrainRunner; log?: (msg: string) => void }) {
+export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain: TerrainRunner; log?: (msg: string) => void; heartbeatSeconds?: number }) {
   const { db, storage, terrain } = deps;
   const log = deps.log ?? (() => {});
+  const heartbeatMs = (deps.heartbeatSeconds ?? 5) * 1000;
+
+  /**
+   * Record "still alive" every few seconds from the main thread while the attempt runs (the terrain work itself is
+   * in a pool thread, so the timer keeps firing); the supervisor (analysis-supervisor.ts) hands back a running
+   * version whose heartbeat stopped. Returns the function that stops the heartbeat.
+   */
+  function startHeartbeat(versionId: string): () => void {
+    const timer = setInterval(() => {
+      db.update(planVersion)
+        .set({ analysisHeartbeatAt: sql`now()` })
+        .where(and(eq(planVersion.id, versionId), eq(planVersion.analysisState, 'running')))
+        .catch(() => undefined); // a missed beat is harmless; several in a row hand the run to another worker
+    }, heartbeatMs);
+    (timer as unknown as { unref?: () => void }).unref?.(); // the DOM typings (tsconfig lib) type timers as numbers
+    return () => clearInterval(timer);
+  }
 
   /** Take a queued (or interrupted) version for analysis; null when it is already done or failed. */
   async function claim(versionId: string) {
     const [row] = await db
       .update(planVersion)
-      .set({ analysisState: 'running', analysisProgress: 5, analysisError: null })
+      .set({ analysisState: 'running', analysisProgress: 5, analysisError: null, analysisHeartbeatAt: sql`now()` })
       .where(and(eq(planVersion.id, versionId), inArray(planVersion.analysisState, ['queued', 'running'])))
       .returning({ id: planVersion.id, teamId: planVersion.teamId, planId: planVersion.planId, siteId: planVersion.siteId, input: planVersion.input });
     return row ?? null;
@@ -78,9 +95,17 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
   async function compute(v: { id: string; teamId: string; siteId: string; input: unknown }) {
     const [s] = await db.select({ storageKey: site.storageKey, verticalDatum: site.verticalDatum }).from(site).where(and(eq(site.id, v.siteId), eq(site.teamId, v.teamId))).limit(1);
     if (!s) throw new FinalAnalysisError('The elevation grid of this version is gone.');
-    let bytes: Buffer;
+    // the grid is read by ranges (only the header and the blocks under the mission): a local file in the terrain
+    // thread, an object store through ranged GETs; a store with neither hands over the bytes
+    let file: DemFile;
     try {
-      bytes = await storage.getBytes(s.storageKey);
+      const local = storage.localPath ? await storage.localPath(s.storageKey) : null;
+      if (local) file = { path: local };
+      else if (storage.openRanges) file = await storage.openRanges(s.storageKey);
+      else {
+        const bytes = await storage.getBytes(s.storageKey);
+        file = new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+      }
     } catch (err) {
       if (err instanceof StorageNotFoundError) throw new FinalAnalysisError('The stored elevation grid file of this version is missing; upload it again.');
       throw err;
@@ -88,7 +113,7 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
     await setProgress(v.id, 20);
     let last = 0;
     // the site's datum goes into the result, so every stored height names its reference
-    const analysis = await terrain.analyse(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), v.input, (pct) => {
+    const analysis = await terrain.analyse(file, v.input, (pct) => {
       if (pct - last >= 5) {
         last = pct;
         setProgress(v.id, pct).catch(() => undefined);
@@ -120,6 +145,7 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
         log(`analysis ${versionId}: already settled, nothing to do`);
         return 'skipped';
       }
+      const stopHeartbeat = startHeartbeat(versionId);
       try {
         const wrote = await settle(v, await compute(v));
         log(`analysis ${versionId}: ${wrote ? 'done' : 'finished by another worker first'}`);
@@ -135,9 +161,11 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
         // back in the queue: say why the last attempt stopped while the next one waits
         await db
           .update(planVersion)
-          .set({ analysisState: 'queued', analysisProgress: 0, analysisError: `Attempt ${attempt.attempt} stopped (${(err as Error)?.message}); trying again.` })
+          .set({ analysisState: 'queued', analysisProgress: 0, analysisHeartbeatAt: null, analysisError: `Attempt ${attempt.attempt} stopped (${(err as Error)?.message}); trying again.` })
           .where(and(eq(planVersion.id, versionId), eq(planVersion.analysisState, 'running')));
         throw err;
+      } finally {
+        stopHeartbeat();
       }
     },
 

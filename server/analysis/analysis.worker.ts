@@ -9,7 +9,7 @@ import { terrainOf } from './terrain.service';
 export async function startAnalysisWorkers(services: Services, count: number, log: (msg: string) => void = () => {}): Promise<string[]> {
   if (count <= 0) return [];
   const { boss, queues } = jobsOf(services);
-  const analysis = createAnalysisUsecases({ db: services.db, storage: storageOf(services), terrain: terrainOf(services), log });
+  const analysis = createAnalysisUsecases({ db: services.db, storage: storageOf(services), terrain: terrainOf(services), log, heartbeatSeconds: services.config.env.ANALYSIS_HEARTBEAT_SECONDS });
   const pollingIntervalSeconds = services.config.env.JOBS_POLL_SECONDS;
   const ids: string[] = [];
   for (let i = 0; i < count; i++) {

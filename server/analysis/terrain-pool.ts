@@ -8,7 +8,8 @@
 import { fileURLToPath, URL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { TerrainError, type TerrainErrorCode } from '../../terrain/errors';
-import { analyseMission, checkAsFlown, inspectDem, nodeInflate, type AnalyseMissionOptions, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import { analyseMission, checkAsFlown, inspectDem, isRangeSource, nodeInflate, type AnalyseMissionOptions, type DemFile, type DemInspection, type MissionAnalysis } from './terrain-tasks';
+import type { ByteRangeSource } from '../../terrain/index';
 import type { AsFlownCheckDocument } from '../../terrain/as-flown-document';
 import { analyseLiveCoverage, type LiveAnalysis } from '../mission-items/live-coverage.task';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
@@ -18,12 +19,14 @@ import { installNodeCodecs } from './node-codecs';
 
 export type ThreadTask =
   | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
-  | { id: number; kind: 'analyse'; bytes: Uint8Array; mission: unknown; opts?: AnalyseMissionOptions }
+  /** `bytes` as a thread gets it: the bytes, a local path, or `remote` (each range asked of the main thread). */
+  | { id: number; kind: 'analyse'; bytes: Uint8Array | { path: string } | { remote: { byteLength: number } }; mission: unknown; opts?: AnalyseMissionOptions }
   | { id: number; kind: 'as-flown'; bytes: Uint8Array; mission: unknown; photos: readonly FlownPhoto[]; opts?: AnalyseMissionOptions }
   | { id: number; kind: 'live-coverage'; bytes: Uint8Array; mission: unknown; plan: PlanResult; photos: FlownPhoto[] };
 
 export type ThreadReply =
   | { id: number; progress: number }
+  | { id: number; read: number; offset: number; length: number }
   | { id: number; ok: true; value: unknown }
   | { id: number; ok: false; error: { name: string; code?: string; message: string; stack?: string } };
 
@@ -45,7 +48,11 @@ export class TerrainTimeoutError extends Error {
 /** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
 export interface TerrainRunner {
   inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
-  analyse(bytes: Uint8Array, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
+  /**
+   * `bytes` may be a local file ({ path }), read by ranges in the thread, or a range source, whose ranges the
+   * thread asks for one block at a time: either way the grid is never moved to the thread whole.
+   */
+  analyse(bytes: DemFile, mission: unknown, onProgress?: (pct: number) => void, opts?: AnalyseMissionOptions): Promise<MissionAnalysis>;
   /** A photo log checked against the plan of `mission` (terrain/as-flown-document.ts). */
   asFlown(bytes: Uint8Array, mission: unknown, photos: readonly FlownPhoto[], opts?: AnalyseMissionOptions): Promise<AsFlownCheckDocument>;
   /** Photos as flown so far against a stored plan (live coverage). */
@@ -62,7 +69,12 @@ interface Pending {
   resolve: (v: unknown) => void;
   reject: (e: Error) => void;
   onProgress?: (pct: number) => void;
+  /** The range source a thread reads a remote grid from. */
+  ranges?: ByteRangeSource;
 }
+
+/** The main thread's answer to a thread's range request. */
+export type RangeAnswer = { rangeRead: number; bytes: Uint8Array } | { rangeRead: number; error: string };
 
 interface Slot {
   worker: Worker;
@@ -114,6 +126,18 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
       const p = slot.busy;
       if (!p || p.task.id !== m.id) return;
       if ('progress' in m) return p.onProgress?.(m.progress);
+      if ('read' in m) {
+        const answer = (a: RangeAnswer, transfer: ArrayBuffer[] = []) => slot.busy === p && worker.postMessage(a, transfer);
+        if (!p.ranges) return answer({ rangeRead: m.read, error: 'This task has no range source.' });
+        p.ranges.read(m.offset, m.length).then(
+          (b) => {
+            const own = ownBuffer(b);
+            answer({ rangeRead: m.read, bytes: own }, [own.buffer as ArrayBuffer]);
+          },
+          (err: unknown) => answer({ rangeRead: m.read, error: (err as Error)?.message ?? String(err) }),
+        );
+        return;
+      }
       slot.busy = null;
       clearTimeout(slot.timer);
       worker.unref();
@@ -158,22 +182,25 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
       slot.worker.ref();
       const limitMs = p.timeoutMs ?? opts.taskTimeoutMs;
       if (limitMs !== undefined) slot.timer = setTimeout(() => expire(slot, limitMs), limitMs);
-      slot.worker.postMessage(p.task, [p.task.bytes.buffer as ArrayBuffer]);
+      slot.worker.postMessage(p.task, p.task.bytes instanceof Uint8Array ? [p.task.bytes.buffer as ArrayBuffer] : []);
     }
   }
 
   function run<T>(task: NewTask, onProgress?: (pct: number) => void, timeoutMs?: number): Promise<T> {
     if (closed) return Promise.reject(new Error('The terrain pool is closed.'));
-    const full = { ...task, id: nextId++, bytes: ownBuffer(task.bytes) } as ThreadTask;
+    const b = task.bytes as DemFile;
+    const ranges = isRangeSource(b) ? b : undefined;
+    const bytes = b instanceof Uint8Array ? ownBuffer(b) : ranges ? { remote: { byteLength: ranges.byteLength } } : b;
+    const full = { ...task, id: nextId++, bytes } as ThreadTask;
     return new Promise<T>((resolve, reject) => {
-      queue.push({ task: full, resolve: resolve as (v: unknown) => void, reject, onProgress, timeoutMs });
+      queue.push({ task: full, resolve: resolve as (v: unknown) => void, reject, onProgress, timeoutMs, ranges });
       dispatch();
     });
   }
 
   return {
     inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
-    analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes, mission, opts: o }, onProgress),
+    analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes: bytes as never, mission, opts: o }, onProgress),
     asFlown: (bytes, mission, photos, o) => run<AsFlownCheckDocument>({ kind: 'as-flown', bytes, mission, photos, opts: o }),
     liveCoverage: (bytes, mission, plan, photos) => run<LiveAnalysis>({ kind: 'live-coverage', bytes, mission, plan, photos }),
     async close() {

@@ -2,6 +2,7 @@
  * The two heavy terrain jobs of the server, as plain functions of bytes: inspect an uploaded DEM, and analyse a
  * mission over the part of a DEM it needs. They run in a terrain thread (terrain-pool.ts) or inline.
  */
+import fsp from 'node:fs/promises';
 import { inflateSync } from 'node:zlib';
 import type { DemFileInfo, HillshadeInfo } from '../../contracts/sites';
 import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, readDemHeader, TerrainError, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
@@ -17,6 +18,47 @@ import type { Grid } from '../../terrain/grid';
 import type { AnalyseOptions } from '../../terrain/plan';
 import { runAsFlownCheck, type AsFlownCheckDocument } from '../../terrain/as-flown-document';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
+import type { ByteRangeSource } from '../../terrain/index';
+
+/**
+ * A stored grid for the terrain tasks: its bytes in memory, a local file read by ranges, or any range source (an
+ * object store's ranged GETs; a terrain thread asks the main thread for each range).
+ */
+export type DemFile = Uint8Array | { path: string } | ByteRangeSource;
+
+/** A range source, told apart from the other forms of DemFile. */
+export function isRangeSource(f: unknown): f is ByteRangeSource {
+  return typeof (f as ByteRangeSource | null)?.read === 'function';
+}
+
+/**
+ * Run `fn` over a range source of `grid`: a local file is opened once and read block by block through its handle,
+ * so an analysis holds the header and the blocks of its window, never the whole file.
+ */
+export async function withDemSource<T>(grid: DemFile, fn: (src: Uint8Array | ByteRangeSource) => Promise<T>): Promise<T> {
+  if (grid instanceof Uint8Array || isRangeSource(grid)) return fn(grid);
+  const handle = await fsp.open(grid.path, 'r');
+  try {
+    const { size } = await handle.stat();
+    const src: ByteRangeSource = {
+      byteLength: size,
+      async read(offset, length) {
+        const n = Math.max(0, Math.min(length, size - offset));
+        const buf = new Uint8Array(n);
+        let got = 0;
+        while (got < n) {
+          const { bytesRead } = await handle.read(buf, got, n - got, offset + got);
+          if (bytesRead === 0) break;
+          got += bytesRead;
+        }
+        return got === n ? buf : buf.subarray(0, got);
+      },
+    };
+    return await fn(src);
+  } finally {
+    await handle.close();
+  }
+}
 
 /** Largest analysis window (2^28 pixels = 1 GiB of float32); whole uploads are bounded by DEM_MAX_PIXELS. */
 export const MAX_DEM_PIXELS = 2 ** 28;
@@ -138,10 +180,12 @@ function solvedResult(grid: Grid, mission: unknown, verticalDatum: AnalyseOption
  * coverage run the engine refuses (too many cells, a CRS without an EPSG code) leaves the plan's analysis standing
  * and says why.
  */
-export async function analyseMission(bytes: Uint8Array, mission: unknown, onProgress: (pct: number) => void = () => {}, opts: AnalyseMissionOptions = {}): Promise<MissionAnalysis> {
+export async function analyseMission(file: DemFile, mission: unknown, onProgress: (pct: number) => void = () => {}, opts: AnalyseMissionOptions = {}): Promise<MissionAnalysis> {
   const bbox = missionBboxWgs84(mission);
-  const header = await readDemHeader(bytes);
-  const grid = await readDem(bytes, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS });
+  const { header, grid } = await withDemSource(file, async (src) => ({
+    header: await readDemHeader(src),
+    grid: await readDem(src, { window: { bbox, crs: WGS84, marginPx: 2 }, inflate: nodeInflate, maxPixels: MAX_DEM_PIXELS }),
+  }));
   onProgress(40);
   const verticalDatum = analysisDatum(opts.siteVerticalDatum, header.verticalDatum);
   const result = (mission as { layoutBy?: string }).layoutBy === 'solver' ? solvedResult(grid, mission, verticalDatum) : analysePlan(grid, mission, { verticalDatum });

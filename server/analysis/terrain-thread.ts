@@ -4,14 +4,41 @@ import { loadDatumGrids } from './datum-grids';
 import { installNodeCodecs } from './node-codecs';
 import { analyseMission, analysisTransfer, checkAsFlown, inspectDem, nodeInflate } from './terrain-tasks';
 import { analyseLiveCoverage } from '../mission-items/live-coverage.task';
-import type { ThreadReply, ThreadTask } from './terrain-pool';
+import type { RangeAnswer, ThreadReply, ThreadTask } from './terrain-pool';
+import type { ByteRangeSource } from '../../terrain/index';
 
 const port = parentPort;
 if (!port) throw new Error('terrain-thread.ts runs only as a worker thread.');
 loadDatumGrids((workerData as { datumGridDir?: string } | null)?.datumGridDir);
 installNodeCodecs();
 
-port.on('message', async (task: ThreadTask) => {
+/** Range requests of the running task waiting for the main thread's answer. */
+const waiting = new Map<number, { resolve: (b: Uint8Array) => void; reject: (e: Error) => void }>();
+let nextRead = 1;
+
+/** A grid the main thread reads for us (an object store): each range is asked for and answered by message. */
+function remoteSource(taskId: number, byteLength: number): ByteRangeSource {
+  return {
+    byteLength,
+    read(offset, length) {
+      const read = nextRead++;
+      return new Promise<Uint8Array>((resolve, reject) => {
+        waiting.set(read, { resolve, reject });
+        port!.postMessage({ id: taskId, read, offset, length } satisfies ThreadReply);
+      });
+    },
+  };
+}
+
+port.on('message', async (msg: ThreadTask | RangeAnswer) => {
+  if ('rangeRead' in msg) {
+    const w = waiting.get(msg.rangeRead);
+    waiting.delete(msg.rangeRead);
+    if ('bytes' in msg) w?.resolve(msg.bytes);
+    else w?.reject(new Error(`The stored grid could not be read (${msg.error}).`));
+    return;
+  }
+  const task = msg;
   const reply = (m: ThreadReply, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer);
   try {
     if (task.kind === 'inspect') {
@@ -22,7 +49,8 @@ port.on('message', async (task: ThreadTask) => {
     } else if (task.kind === 'live-coverage') {
       reply({ id: task.id, ok: true, value: await analyseLiveCoverage(task.bytes, task.mission, task.plan, task.photos, nodeInflate) });
     } else {
-      const r = await analyseMission(task.bytes, task.mission, (pct) => reply({ id: task.id, progress: pct }), task.opts);
+      const grid = 'remote' in task.bytes ? remoteSource(task.id, task.bytes.remote.byteLength) : task.bytes;
+      const r = await analyseMission(grid, task.mission, (pct) => reply({ id: task.id, progress: pct }), task.opts);
       reply({ id: task.id, ok: true, value: r }, analysisTransfer(r));
     }
   } catch (err) {

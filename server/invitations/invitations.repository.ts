@@ -7,6 +7,7 @@ import { and, desc, eq, gt, sql } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { auditEvent, invitation, member, organization, user } from '../../db/schema';
+import { jobsDbOf, type JobsDb } from '../jobs/jobs.service';
 
 /** A new unguessable token (192 bits). */
 export function newInvitationToken(): string {
@@ -50,7 +51,12 @@ export function createInvitationsRepository({ db }: { db: Db }) {
       return rows[0] ?? null;
     },
 
-    async create(q: { teamId: string; email: string; role: Role; inviterId: string; expiresAt: Date }) {
+    /**
+     * Store an invitation with its audit entry and, through `enqueue` (given the transaction's connection and the
+     * stored row), its mail job: all three commit together, so a crash can neither lose the mail of a stored
+     * invitation nor mail a link that was never stored.
+     */
+    async create(q: { teamId: string; email: string; role: Role; inviterId: string; expiresAt: Date }, enqueue?: (db: JobsDb, row: typeof invitation.$inferSelect) => Promise<void>) {
       const id = newInvitationToken();
       return db.transaction(async (tx) => {
         const [row] = await tx
@@ -58,6 +64,7 @@ export function createInvitationsRepository({ db }: { db: Db }) {
           .values({ id, organizationId: q.teamId, email: q.email, role: q.role, status: 'pending', expiresAt: q.expiresAt, inviterId: q.inviterId })
           .returning();
         await tx.insert(auditEvent).values({ teamId: q.teamId, actorId: q.inviterId, action: 'invitation.created', toState: 'pending', comment: `${q.email} as ${q.role}` });
+        if (enqueue) await enqueue(jobsDbOf(tx), row);
         return row;
       });
     },

@@ -13,6 +13,7 @@ import {
   type InvitationStatus,
 } from '../../contracts/invitations';
 import { roleLabels, roleSchema } from '../../contracts/roles';
+import { errorForLog } from '../http/error-log';
 import { AppError, errors } from '../http/errors';
 import { requireAuth, requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
@@ -78,18 +79,26 @@ export const registerInvitationRoutes: RouteGroup = (api: Router, { guards, serv
       throw new AppError(409, 'already_invited', `${body.email} already has a pending invitation (until ${open.expiresAt.toISOString().slice(0, 10)}); revoke it to send a new one.`);
     }
     const expiresAt = new Date(now.getTime() + days * 24 * 3600 * 1000);
-    const row = await invitations.create({ teamId, email: body.email, role: body.role, inviterId: user.id, expiresAt });
-    const link = links.invitation(config.publicUrl, row.id);
     const mailer = mailerOf(services);
     const teamName = await reviews.teamName(teamId);
-    // Queued (durably) once the invitation is stored; if that fails the invitation stands and the owner has its link.
-    const queued = await mailer
-      .enqueue({ ctx: { kind: 'invitation', teamId, actorId: user.id }, mail: invitationMail({ to: body.email, teamName, inviterName: user.name, role: body.role, link, expiresAt }) })
-      .then(() => true)
-      .catch((err: unknown) => (console.error(`loftline: queueing an invitation mail failed: ${err instanceof Error ? err.message : String(err)}`), false));
-    const notification = !queued
-      ? { status: 'skipped' as const, reason: 'The e-mail could not be queued: send the link yourself.', recipients: [body.email] }
-      : mailer.mode === 'off'
+    // The mail job is queued in the invitation's own transaction (as a review's mail is): a crash after the commit
+    // loses no mail, and when the queue refuses the job nothing is stored and the owner is told to try again.
+    let queueFailure: unknown = null;
+    const row = await invitations
+      .create({ teamId, email: body.email, role: body.role, inviterId: user.id, expiresAt }, async (db, stored) => {
+        const mail = invitationMail({ to: body.email, teamName, inviterName: user.name, role: body.role, link: links.invitation(config.publicUrl, stored.id), expiresAt });
+        await mailer.enqueue({ ctx: { kind: 'invitation', teamId, actorId: user.id }, mail }, db).catch((err: unknown) => {
+          queueFailure = err;
+          throw err;
+        });
+      })
+      .catch((err: unknown) => {
+        if (queueFailure !== err) throw err;
+        console.error(`loftline: queueing an invitation mail failed: ${errorForLog(err)}`); // no query values (the address) in the log
+        throw new AppError(503, 'mail_queue_unavailable', 'The invitation e-mail could not be queued, so the invitation was not made. Nothing was saved: try again in a moment.');
+      });
+    const notification =
+      mailer.mode === 'off'
         ? { status: 'skipped' as const, reason: 'Mail is switched off on this server: send the link yourself.', recipients: [body.email] }
         : { status: 'queued' as const, recipients: [body.email] };
     sendJson(res, createdInvitationSchema, { ...view({ ...row, invitedBy: user.name }, now), notification }, 201);

@@ -69,6 +69,16 @@ export function createDiskStorage(root: string): Storage {
       }
     },
 
+    async localPath(key) {
+      const f = file(key);
+      try {
+        await fsp.access(f, fs.constants.R_OK);
+      } catch {
+        throw new StorageNotFoundError(key);
+      }
+      return f;
+    },
+
     async getStream(key) {
       const f = file(key);
       if (!fs.existsSync(f)) throw new StorageNotFoundError(key);

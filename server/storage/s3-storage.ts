@@ -87,8 +87,37 @@ export function createS3Storage(cfg: S3StorageConfig): Storage {
     }
   }
 
+  /** One ranged GET (RFC 9110 section 14: bytes=first-last, inclusive). */
+  async function getRange(key: string, offset: number, length: number): Promise<Uint8Array> {
+    try {
+      const r = await client.send(new GetObjectCommand({ Bucket, Key: full(key), Range: `bytes=${offset}-${offset + length - 1}` }));
+      return await r.Body!.transformToByteArray();
+    } catch (err) {
+      if (isMissing(err)) throw new StorageNotFoundError(key);
+      throw err;
+    }
+  }
+
   return {
     driver: 's3',
+
+    async openRanges(key) {
+      checkKey(key);
+      let byteLength: number;
+      try {
+        byteLength = (await client.send(new HeadObjectCommand({ Bucket, Key: full(key) }))).ContentLength ?? 0;
+      } catch (err) {
+        if (isMissing(err)) throw new StorageNotFoundError(key);
+        throw err;
+      }
+      return {
+        byteLength,
+        async read(offset, length) {
+          const n = Math.max(0, Math.min(length, byteLength - offset));
+          return n === 0 ? new Uint8Array(0) : getRange(key, offset, n);
+        },
+      };
+    },
 
     async put(key, body, opts = {}) {
       const Key = full(key);

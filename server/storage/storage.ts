@@ -22,6 +22,13 @@ export interface Storage {
   /** Stream `body` into `key`, hashing and counting on the way; on any failure nothing is left under `key`. */
   put(key: string, body: Readable | Uint8Array, opts?: PutOptions): Promise<PutResult>;
   getBytes(key: string): Promise<Buffer>;
+  /**
+   * The object as a local file that terrain threads can read by ranges (disk storage), or null when the store has
+   * no local files (S3: read with getBytes). Throws StorageNotFoundError for a missing key.
+   */
+  localPath?(key: string): Promise<string | null>;
+  /** The object read by byte ranges (S3: ranged GETs); reads past the end answer fewer bytes. */
+  openRanges?(key: string): Promise<{ byteLength: number; read(offset: number, length: number): Promise<Uint8Array> }>;
   getStream(key: string): Promise<Readable>;
   /** Remove `key`; removing a missing key is not an error. */
   delete(key: string): Promise<void>;

@@ -162,4 +162,44 @@ describe('inviting someone to a team', () => {
     const { c } = await person();
     expect((await c.post(`/api/invitations/${'x'.repeat(32)}/accept`, {})).status).toBe(404);
   });
+
+  it('stores an invitation and queues its mail in one transaction: both or neither', async () => {
+    const queue = srv.services.config.env.MAIL_QUEUE;
+    // both: the audit entry and the mail job carry the same transaction time (now() is the transaction's start)
+    const email = uniqueEmail('one-tx');
+    await invite(email);
+    const audit = await srv.db.$client.query<{ at: string }>(
+      "select created_at::text as at from audit_event where team_id = $1 and action = 'invitation.created' and comment = $2",
+      [team.teamId, `${email} as planner`],
+    );
+    const job = await srv.db.$client.query<{ at: string }>(
+      "select created_on::text as at from pgboss.job where name = $1 and data->'mail'->'to' ? $2 union all select created_on::text from pgboss.archive where name = $1 and data->'mail'->'to' ? $2",
+      [queue, email],
+    );
+    expect(audit.rows).toHaveLength(1);
+    expect(job.rows).toEqual([{ at: audit.rows[0].at }]);
+
+    // neither: a queue that refuses the mail job leaves no invitation, no audit entry and no job, and says so
+    const refused = uniqueEmail('queue-refuses');
+    await srv.db.$client.query(`create or replace function pg_temp_refuse_mail() returns trigger language plpgsql as $$
+      begin
+        if new.data->'mail'->'to' ? '${refused}' then raise exception 'mail queue refuses this job (test)'; end if;
+        return new;
+      end $$`);
+    await srv.db.$client.query('create trigger refuse_mail_test before insert on pgboss.job for each row execute function pg_temp_refuse_mail()');
+    try {
+      const res = await team.clients.owner.post(`/api/teams/${team.teamId}/invitations`, { email: refused, role: 'pilot' });
+      expect(res.status).toBe(503);
+      expect(res.body.error.code).toBe('mail_queue_unavailable');
+      expect(res.body.error.message).toMatch(/Nothing was saved: try again/);
+    } finally {
+      await srv.db.$client.query('drop trigger refuse_mail_test on pgboss.job');
+      await srv.db.$client.query('drop function pg_temp_refuse_mail()');
+    }
+    expect(await srv.db.select().from(invitation).where(eq(invitation.email, refused))).toEqual([]);
+    const trail = await srv.db.$client.query("select 1 from audit_event where team_id = $1 and comment like $2", [team.teamId, `${refused}%`]);
+    expect(trail.rows).toEqual([]);
+    // and the same address can be invited at once afterwards
+    await invite(refused, 'pilot');
+  });
 });

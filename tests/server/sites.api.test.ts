@@ -3,6 +3,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import S3rver from 's3rver';
+import type { Storage } from '../../server/storage/storage';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../contracts/roles';
 import { demoClients, demoTeamId } from '../support/demo';
@@ -282,11 +283,13 @@ describe('site roles and team isolation', () => {
 describe('uploads into S3-compatible storage (s3rver)', () => {
   let s3: S3rver;
   let s3srv: TestServer;
+  let s3Port: number;
   let bucketDir: string;
   beforeAll(async () => {
     bucketDir = path.join(tmpRoot, 's3rver');
     s3 = new S3rver({ address: '127.0.0.1', port: 0, silent: true, directory: bucketDir, configureBuckets: [{ name: 'loftline-sites' }] });
     const { port } = (await s3.run()) as { port: number };
+    s3Port = port;
     s3srv = await startTestServer({
       web: false,
       env: { STORAGE_DRIVER: 's3', S3_ENDPOINT: `http://127.0.0.1:${port}`, S3_BUCKET: 'loftline-sites', S3_ACCESS_KEY_ID: 'S3RVER', S3_SECRET_ACCESS_KEY: 'S3RVER', UPLOAD_LIMIT_MB: '1' },
@@ -308,5 +311,49 @@ describe('uploads into S3-compatible storage (s3rver)', () => {
     expect(await storage.list(`teams/${teamId}/`)).toEqual([`teams/${teamId}/sites/${ok.body.id}/dem.tif`, `teams/${teamId}/sites/${ok.body.id}/hillshade.png`]);
     const png = await c.get(`${base}/${ok.body.id}/hillshade.png`);
     expect(png.status).toBe(200);
+  });
+
+  it('analyses a plan over a grid in the bucket, reading it by ranged GETs', { timeout: 120_000 }, async () => {
+    const big = await startTestServer({
+      web: false,
+      env: { STORAGE_DRIVER: 's3', S3_ENDPOINT: `http://127.0.0.1:${s3Port}`, S3_BUCKET: 'loftline-sites', S3_ACCESS_KEY_ID: 'S3RVER', S3_SECRET_ACCESS_KEY: 'S3RVER', WORKERS: '1', ANALYSIS_QUEUE: 'plan-analysis-s3-ranges' },
+    });
+    try {
+      const store = big.services.storage as Storage;
+      const ranges: Array<[number, number]> = [];
+      const open = store.openRanges!.bind(store);
+      // count what the analysis fetches (the store's own ranged GETs underneath)
+      store.openRanges = async (key) => {
+        const r = await open(key);
+        return { byteLength: r.byteLength, read: (o, l) => (ranges.push([o, l]), r.read(o, l)) };
+      };
+      const { c, teamId, base } = await ownProject(big, 's3-ranges');
+      const site = await upload(c, base, demBytes); // the upload check still reads the file whole
+      expect(site.status).toBe(201);
+      store.getBytes = async (key) => {
+        throw new Error(`the analysis read ${key} whole`);
+      };
+      const projectBase = base.replace(/\/sites$/, '');
+      const input = {
+        area: { type: 'Polygon', coordinates: [[[4.475, 46.768], [4.480, 46.768], [4.480, 46.771], [4.475, 46.771], [4.475, 46.768]]] },
+        camera: { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 },
+        targetGsdCm: 2.5,
+        takeoff: { lon: 4.478, lat: 46.769 },
+      };
+      const plan = (await c.post(`${projectBase}/plans`, { name: 'From the bucket', siteId: site.body.id, input })).body;
+      const run = (await c.post(`/api/teams/${teamId}/plans/${plan.id}/runs`, {})).body;
+      let status: { analysisState: string; analysisError: string | null } = { analysisState: 'queued', analysisError: null };
+      for (let t0 = Date.now(); Date.now() - t0 < 90_000; ) {
+        status = (await c.get(`/api/teams/${teamId}/plans/${plan.id}/versions/${run.id}/status`)).body;
+        if (status.analysisState === 'done' || status.analysisState === 'failed') break;
+        await new Promise((r) => setTimeout(r, 250));
+      }
+      expect(status).toMatchObject({ analysisState: 'done' });
+      const fetched = ranges.reduce((n, [, l]) => n + l, 0);
+      expect(ranges.length).toBeGreaterThan(2); // the header, then blocks one by one
+      expect(fetched).toBeLessThan(demBytes.length * 0.6); // the tiles under the area, not the whole 1.47 MB grid
+    } finally {
+      await big.stop();
+    }
   });
 });

@@ -91,6 +91,27 @@ describe.each(drivers)('%s storage', (_name, make) => {
     expect(await store.exists('t/nothing-here')).toBe(false);
   });
 
+  it('reads a stored grid by ranges: a local file, or ranged GETs (no whole-object read)', async () => {
+    const bytes = crypto.randomBytes(300_000);
+    await store.put('t/ranges.bin', bytes);
+    const local = store.localPath ? await store.localPath('t/ranges.bin') : null;
+    if (local) {
+      expect(store.driver).toBe('disk');
+      expect(fs.readFileSync(local).equals(bytes)).toBe(true);
+      await expect(store.localPath!('t/nothing-here')).rejects.toBeInstanceOf(StorageNotFoundError);
+      return;
+    }
+    expect(store.driver).toBe('s3');
+    const ranges = await store.openRanges!('t/ranges.bin');
+    expect(ranges.byteLength).toBe(bytes.length);
+    expect(Buffer.from(await ranges.read(0, 8)).equals(bytes.subarray(0, 8))).toBe(true);
+    expect(Buffer.from(await ranges.read(123_456, 70_000)).equals(bytes.subarray(123_456, 193_456))).toBe(true);
+    // past the end: fewer bytes, as a slice would give
+    expect(Buffer.from(await ranges.read(299_990, 100)).equals(bytes.subarray(299_990))).toBe(true);
+    expect((await ranges.read(300_000, 10)).byteLength).toBe(0);
+    await expect(store.openRanges!('t/nothing-here')).rejects.toBeInstanceOf(StorageNotFoundError);
+  });
+
   it('refuses keys that could leave the store', async () => {
     await expect(store.put('../escape.txt', Buffer.from('x'))).rejects.toThrow(/Invalid storage key/);
     await expect(store.put('a//b', Buffer.from('x'))).rejects.toThrow(/Invalid storage key/);

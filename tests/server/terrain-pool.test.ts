@@ -36,3 +36,49 @@ describe('terrain pool time limit', () => {
     expect((await next).metadata.width).toBe(9);
   });
 });
+
+describe('analyses over a stored file read by ranges', () => {
+  const pool = createTerrainRunner({ threads: 1 });
+  afterAll(() => pool.close());
+  // a small area of the demo grid (extent lon 4.4668-4.4960, lat 46.7638-46.7803, datasets/README.md)
+  const mission = {
+    area: { type: 'Polygon', coordinates: [[[4.475, 46.768], [4.480, 46.768], [4.480, 46.771], [4.475, 46.771], [4.475, 46.768]]] },
+    camera: { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 },
+    targetGsdCm: 2.5,
+    takeoff: { lon: 4.478, lat: 46.769 },
+  };
+
+  it('gives the same plan from the file path (read in the thread by ranges) as from the bytes', async () => {
+    const fromFile = await pool.analyse({ path: 'datasets/harrow-fell-dem.tif' }, mission);
+    const fromBytes = await pool.analyse(demo(), mission);
+    expect(fromFile.result.summary.photoCount).toBeGreaterThan(10);
+    expect(fromFile.result).toEqual(fromBytes.result);
+    // the same coverage run, apart from how long it took
+    const untimed = (c: unknown) => JSON.parse(JSON.stringify(c, (k, v) => (k === 'timingMs' ? undefined : v)));
+    expect(untimed(fromFile.coverage)).toEqual(untimed(fromBytes.coverage));
+    expect(fromFile.files?.raster).toEqual(fromBytes.files?.raster);
+  });
+
+  it('gives the same plan from a range source (ranges asked of the main thread) while fetching part of the grid', async () => {
+    const bytes = demo();
+    let fetched = 0;
+    const ranges = {
+      byteLength: bytes.byteLength,
+      async read(offset: number, length: number) {
+        fetched += Math.min(length, bytes.byteLength - offset);
+        return bytes.slice(offset, offset + length);
+      },
+    };
+    const fromRanges = await pool.analyse(ranges, mission);
+    const fromBytes = await pool.analyse(demo(), mission);
+    expect(fromRanges.result).toEqual(fromBytes.result);
+    expect(fromRanges.files?.raster).toEqual(fromBytes.files?.raster);
+    expect(fetched).toBeGreaterThan(0);
+    // the tiles under the area with the analysis margin (about half of this small grid's 20 tiles), not the whole file
+    expect(fetched).toBeLessThan(bytes.byteLength * 0.6);
+  });
+
+  it('refuses a missing file with the error of the file system', async () => {
+    await expect(pool.analyse({ path: 'datasets/no-such-grid.tif' }, mission)).rejects.toThrow(/ENOENT/);
+  });
+});

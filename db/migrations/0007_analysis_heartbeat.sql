@@ -1,0 +1,1 @@
+ALTER TABLE "plan_version" ADD COLUMN "analysis_heartbeat_at" timestamp with time zone;
