@@ -20,24 +20,28 @@ function inOrientedBox(o: Float64Array, at: number, dx: number, dy: number): boo
 
 /** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
 export interface CellPass {
-  th: number; tw: number; tileLists: Int32Array[]; width: number; height: number; inside: Uint8Array; cells: CoverageCells;
+  th: number; tw: number; tileLists: Int32Array[];
+  /** Per tile, parallel to its photo list: the steepest ground a ray from the tile's cells to that camera crosses. */
+  tileSlopes: Float64Array[]; width: number; height: number; inside: Uint8Array; cells: CoverageCells;
   views: Uint16Array; viewsPlanned: Uint16Array; viewsAtSpecGsd: Uint16Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
   sigmaHorizontalM: Float32Array; sigmaVerticalM: Float32Array; viewsOnly: boolean; boxes: Float64Array; obox: Float64Array; pos: Float64Array;
   photos: readonly CoveragePhoto[]; model: ImageModel; rots: Float64Array[]; uv: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
-  envRots: Float64Array[]; boxTop: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
+  envRots: Float64Array[]; boxTop: Float64Array;
+  /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
+  boxSlope: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
   rays: Float64Array; sigmaPx: number; sig: Float64Array;
 }
 
 /** The per-cell pass over the tiles: views and the figures from them. */
 export function fillCells(c: CellPass): void {
-  const { th, tw, tileLists, width, height, inside } = c;
+  const { th, tw, tileLists, tileSlopes, width, height, inside } = c;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
-      const list = tileLists[ty * tw + tx];
+      const list = tileLists[ty * tw + tx], slopes = tileSlopes[ty * tw + tx];
       for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
         for (let col = tx * TILE; col < Math.min(width, (tx + 1) * TILE); col++) {
           const i = r * width + col;
-          if (inside[i]) visitCell(c, list, i);
+          if (inside[i]) visitCell(c, list, slopes, i);
         }
       }
     }
@@ -45,7 +49,7 @@ export function fillCells(c: CellPass): void {
 }
 
 /** One cell: the photos of its tile that see its ground point, and the figures from them (small, so it is optimised early). */
-function visitCell(c: CellPass, list: Int32Array, i: number): void {
+function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number): void {
   const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
   const px = cells.x[i], py = cells.y[i], pz = cells.z[i];
   if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
@@ -75,6 +79,10 @@ function visitCell(c: CellPass, list: Int32Array, i: number): void {
   if (!(gy === gy)) gy = 0;
   const nl = Math.sqrt(gx * gx + gy * gy + 1);
   const nx = -gx / nl, ny = -gy / nl, nz = 1 / nl;
+  // the lattice's surface at the point against the cell's own height: a ray leaving the surface and rising faster
+  // than any ground it crosses can rise cannot meet that ground (occlusion.ts blockSlope)
+  const lift = latticeHeight(lattice, px, py) - pz;
+  const nearSurface = lift <= tol;
   let planned = 0, k = 0, atSpec = 0, finest = Infinity;
   N.fill(0);
   for (let li = 0; li < list.length; li++) {
@@ -89,7 +97,7 @@ function visitCell(c: CellPass, list: Int32Array, i: number): void {
     const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
     const rx = dx / R, ry = dy / R, rz = dz / R;
     if (-(nx * rx + ny * ry + nz * rz) < MIN_COS_INCIDENCE) continue;
-    if (useOcclusion && occluded(lattice, px, py, pz, p.xM, p.yM, p.altitudeM, tol, boxTop[j])) continue;
+    if (useOcclusion && !(nearSurface && -dz >= slopes[li] * Math.sqrt(dx * dx + dy * dy)) && occluded(lattice, px, py, pz, p.xM, p.yM, p.altitudeM, tol, boxTop[j])) continue;
     planned++;
     if (env) {
       const er = envRots[j];

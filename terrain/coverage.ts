@@ -10,7 +10,7 @@ import { cameraToLocal } from './footprint';
 import { imageModel } from './pose';
 import { fillCells, TILE } from './coverage-pass';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
-import { heightLattice, type HeightLattice } from './occlusion';
+import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
 import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
 import { check } from './errors';
 
@@ -154,7 +154,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const env = opts.envelope ?? null;
   // per photo: rotation, position, ground box, envelope rotations
   const P = photos.length;
-  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), boxTop = new Float64Array(P), envRots: Float64Array[] = [], envCount = new Int32Array(P);
+  const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), boxTop = new Float64Array(P), boxSlope = new Float64Array(P), envRots: Float64Array[] = [], envCount = new Int32Array(P);
   let marginPx = 0;
   for (let j = 0; j < P; j++) {
     const p = photos[j];
@@ -174,6 +174,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     // the highest ground in the box: a ray from a point in it to the camera (also in it) never meets higher ground
     const pb = 4 * Math.max(opts.cellM, lattice.stepM);
     boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
+    // the steepest ground any ray from the box to the camera crosses (the box and the camera's own position)
+    boxSlope[j] = Number.isFinite(b[0]) ? slopeIn(lattice, [Math.min(b[0], p.xM) - pb, Math.min(b[1], p.yM) - pb, Math.max(b[2], p.xM) + pb, Math.max(b[3], p.yM) + pb]) : Infinity;
     const padO = 2 * opts.cellM;
     obox[j * 6 + 2] -= padO; obox[j * 6 + 3] += padO; obox[j * 6 + 4] -= padO; obox[j * 6 + 5] += padO;
     pos[j * 3] = p.xM; pos[j * 3 + 1] = p.yM; pos[j * 3 + 2] = p.altitudeM;
@@ -187,6 +189,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   // tiles of cells and the photos whose box meets each tile
   const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
   const tileLists: Int32Array[] = [];
+  const tileSlopes: Float64Array[] = [];
   let longest = 0;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
@@ -215,6 +218,9 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
         }
       }
       tileLists.push(Int32Array.from(list));
+      // per photo of the tile: the steepest ground any ray from the tile's cells to that camera crosses
+      const pb = 4 * Math.max(opts.cellM, lattice.stepM);
+      tileSlopes.push(Float64Array.from(list, (j) => Math.min(boxSlope[j], slopeIn(lattice, [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb]))));
       if (list.length > longest) longest = list.length;
     }
   }
@@ -229,7 +235,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const sig = new Float64Array(2);
   const spec = opts.specGsdCm * (1 + 1e-9);
   const hStep = lattice.stepM;
-  fillCells({ th, tw, tileLists, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
+  fillCells({ th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
   return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
 }
 

@@ -17,6 +17,11 @@ export interface HeightLattice {
   bny: number;
   /** Highest height of each block of `block` x `block` cells (its nodes and the next row/column), -Infinity when none is known. */
   blockMax: Float32Array;
+  /**
+   * Steepest rise of the bilinear surface in any direction within each block (metres per metre): a bound from the
+   * cells' edge differences, 0 where no cell of the block has four known nodes.
+   */
+  blockSlope: Float32Array;
 }
 
 const BLOCK = 8;
@@ -41,7 +46,30 @@ export function heightLattice(x0: number, y0: number, stepM: number, nx: number,
       }
     }
   }
-  return { x0, y0, stepM, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax };
+  // on one bilinear cell ∂h/∂x is a blend of its two x edges' differences (and ∂h/∂y of its y edges'), so
+  // |∇h| ≤ √(max|Δx|² + max|Δy|²) / step there; the surface is continuous, so this bounds every rise through the block
+  const blockSlope = new Float32Array(bnx * bny);
+  for (let j = 0; j + 1 < ny; j++) {
+    for (let i = 0; i + 1 < nx; i++) {
+      const a = heights[j * nx + i], b = heights[j * nx + i + 1], c = heights[(j + 1) * nx + i], d = heights[(j + 1) * nx + i + 1];
+      if (!(a === a && b === b && c === c && d === d)) continue;
+      const gx = Math.max(Math.abs(b - a), Math.abs(d - c)), gy = Math.max(Math.abs(c - a), Math.abs(d - b));
+      const g = Math.sqrt(gx * gx + gy * gy) / stepM;
+      const k = Math.floor(j / BLOCK) * bnx + Math.floor(i / BLOCK);
+      if (g > blockSlope[k]) blockSlope[k] = g;
+    }
+  }
+  return { x0, y0, stepM, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax, blockSlope };
+}
+
+/** The steepest rise of the lattice's surface over a local box [x0, y0, x1, y1] (block bound; 0 off the lattice). */
+export function slopeIn(L: HeightLattice, box: readonly [number, number, number, number]): number {
+  const span = L.block * L.stepM;
+  const b0 = Math.max(0, Math.floor((box[0] - L.x0) / span)), b1 = Math.min(L.bnx - 1, Math.floor((box[2] - L.x0) / span));
+  const c0 = Math.max(0, Math.floor((box[1] - L.y0) / span)), c1 = Math.min(L.bny - 1, Math.floor((box[3] - L.y0) / span));
+  let g = 0;
+  for (let j = c0; j <= c1; j++) for (let i = b0; i <= b1; i++) if (L.blockSlope[j * L.bnx + i] > g) g = L.blockSlope[j * L.bnx + i];
+  return g;
 }
 
 /** Bilinear height of the lattice at local (x, y); NaN off the lattice or beside unknown nodes. */
