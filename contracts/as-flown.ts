@@ -59,10 +59,13 @@ export const asFlownDocSchema = z.object({
     missions: z.array(z.record(z.string(), z.unknown())),
     /** Stretches of the signed-off lines through the re-flight areas (checks stored before they existed lack them). */
     stretches: z.object({
-      note: z.string(), offPlanLines: z.number().int(), lengthM: z.number(), timeS: z.number(), photos: z.number().int(),
+      note: z.string(),
+      /** Lost cells worth re-flying, and how many meet the whole spec with the stretches' photos added to those taken. */
+      targetCells: z.number().int(), coveredCells: z.number().int(), neededStations: z.number().int(),
+      lengthM: z.number(), timeS: z.number(), photos: z.number().int(),
       items: z.array(z.object({
-        area: z.number().int(), line: z.number().int(), fromM: z.number(), toM: z.number(), lengthM: z.number(), headingDeg: z.number(),
-        start: lonLat, end: lonLat, firstPhoto: z.number().int().nullable(), lastPhoto: z.number().int().nullable(), photos: z.number().int(), timeS: z.number(),
+        line: z.number().int(), fromM: z.number(), toM: z.number(), lengthM: z.number(), headingDeg: z.number(),
+        start: lonLat, end: lonLat, firstPhoto: z.number().int(), lastPhoto: z.number().int(), photos: z.number().int(), timeS: z.number(),
         legs: z.array(z.object({ fromM: z.number(), toM: z.number(), altitudeStartAboveTakeoffM: z.number(), altitudeEndAboveTakeoffM: z.number(), altitudeStartM: z.number(), altitudeEndM: z.number() })),
       })),
     }).optional(),

@@ -60,8 +60,8 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
   const a = analyseAsFlown(grid, mission, plan, photos, spec, rasterSettings);
   const t2 = performance.now();
   const reflight = planReflight(grid, input, mission, a, spec, rasterSettings, analyseOpts);
+  const stretches = reflight === null ? null : reflightStretches(grid, mission, a, spec, rasterSettings);
   const t3 = performance.now();
-  const stretches = reflight === null ? null : reflightStretches(plan, a.frame, reflight.areas, mission.speedMps);
   const toGrid = createTransform(WGS84, grid.crs);
   const map = opts.base64 ? asFlownMap(a, spec, (stretches?.stretches ?? []).map((st) => {
     const [x0, y0] = toGrid.forward(st.start.lon, st.start.lat), [x1, y1] = toGrid.forward(st.end.lon, st.end.lat);
@@ -124,10 +124,11 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
       areas: reflight.areas.map((ar) => ({ patches: ar.patches, cells: ar.cells, areaM2: round(ar.areaM2, 1), alongM: round(ar.alongM, 1), acrossM: round(ar.acrossM, 1), polygon: ar.polygon })),
       missions: reflight.missions,
       stretches: stretches === null ? undefined : {
-        note: 'Stretches of the signed-off lines through the re-flight areas, at the signed-off heights: they can be flown the same day. Lines beyond the plan\'s outer lines need the re-flight saved as a plan and signed off.',
-        offPlanLines: stretches.offPlanLines, lengthM: round(stretches.lengthM, 1), timeS: round(stretches.timeS, 1), photos: stretches.photos,
+        note: 'Every station of the signed-off lines whose photo sees ground the flight lost, taken again along its own line at the signed-off heights (runs of such stations with up to two others between them fly as one stretch, from half a photo spacing before the first to half after the last): it can be flown the same day, and it gives that ground back every view the plan gave it.',
+        targetCells: stretches.targetCells, coveredCells: stretches.coveredCells, neededStations: stretches.neededStations,
+        lengthM: round(stretches.lengthM, 1), timeS: round(stretches.timeS, 1), photos: stretches.photos,
         items: stretches.stretches.map((st) => ({
-          area: st.area, line: st.line, fromM: round(st.fromM, 3), toM: round(st.toM, 3), lengthM: round(st.lengthM, 3), headingDeg: round(st.headingDeg, 1),
+          line: st.line, fromM: round(st.fromM, 3), toM: round(st.toM, 3), lengthM: round(st.lengthM, 3), headingDeg: round(st.headingDeg, 1),
           start: { lon: round(st.start.lon, 7), lat: round(st.start.lat, 7) }, end: { lon: round(st.end.lon, 7), lat: round(st.end.lat, 7) },
           firstPhoto: st.firstPhoto, lastPhoto: st.lastPhoto, photos: st.photos, timeS: round(st.timeS, 1),
           legs: st.legs.map((g) => ({ fromM: round(g.fromM, 3), toM: round(g.toM, 3), altitudeStartAboveTakeoffM: round(g.altitudeStartAboveTakeoffM, 3), altitudeEndAboveTakeoffM: round(g.altitudeEndAboveTakeoffM, 3), altitudeStartM: round(g.altitudeStartM, 3), altitudeEndM: round(g.altitudeEndM, 3) })),

@@ -35,8 +35,10 @@ export function ReflightStretches({ stretches: s, signedOff, units, datum }: { s
       <Heading level={3}>Re-fly before you leave: stretches of {signedOff ? 'the signed-off' : 'this version\u2019s'} lines</Heading>
       <Text>
         {s.items.length} stretch{s.items.length === 1 ? '' : 'es'}, {formatLength(s.lengthM, units, 0)} on the lines, {s.photos} photo stations, about{' '}
-        {formatDuration(s.timeS)} on the lines (add the transits). Fly each along its line, from and to the distances given from the line&apos;s start,
-        at {signedOff ? 'the signed-off' : 'the version\u2019s'} heights below, triggering as on the full sheet.
+        {formatDuration(s.timeS)} on the lines (add the transits). They take again every planned photo that saw the lost ground ({s.neededStations}{' '}
+        stations); with the photos already taken, {s.coveredCells} of the {s.targetCells} lost cells worth re-flying then meet the whole spec. Fly each
+        along its line, from and to the distances given from the line&apos;s start, at {signedOff ? 'the signed-off' : 'the version\u2019s'} heights
+        below, triggering as on the full sheet.
       </Text>
       {signedOff === false ? (
         <Banner tone="danger" title="Not signed off">
@@ -44,7 +46,7 @@ export function ReflightStretches({ stretches: s, signedOff, units, datum }: { s
         </Banner>
       ) : null}
       {shown.map((st, n) => (
-        <View key={`${st.area}-${st.line}`} style={styles.stretch} testID={`as-flown-stretch-${n + 1}`} role="group" aria-label={`Re-flight stretch ${n + 1}: line ${st.line}`}>
+        <View key={`${st.line}-${st.firstPhoto}`} style={styles.stretch} testID={`as-flown-stretch-${n + 1}`} role="group" aria-label={`Re-flight stretch ${n + 1}: line ${st.line}`}>
           <Text variant="title">
             Line {st.line}: {formatLength(st.fromM, units, 0)} to {formatLength(st.toM, units, 0)} along
           </Text>
@@ -73,12 +75,6 @@ export function ReflightStretches({ stretches: s, signedOff, units, datum }: { s
       ))}
       {s.items.length > shown.length ? (
         <Button variant="secondary" label={`Show all ${s.items.length} stretches`} onPress={() => setAll(true)} testID="as-flown-stretches-all" />
-      ) : null}
-      {s.offPlanLines > 0 ? (
-        <Text tone="muted" testID="as-flown-stretches-off-plan">
-          The re-flight areas also take in {s.offPlanLines} line{s.offPlanLines === 1 ? '' : 's'} beyond the plan&apos;s outer lines. They are not on
-          this version&apos;s sheet: save the re-flight as plans, and fly them once signed off.
-        </Text>
       ) : null}
     </View>
   );

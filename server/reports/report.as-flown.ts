@@ -24,7 +24,11 @@ export function reportAsFlown(latest: AsFlownCheck | null, checkCount: number): 
     extraPhotos: d.matching.extra.length,
     offTrack: offTrackLines(d.matching.lines),
     lostAreaM2: d.difference.lostAreaM2,
-    reflight: rf === null ? 'Nothing to re-fly: no ground that met the spec as planned was lost in flight.' : rf.lineCount > 0 ? `${rf.covers} Re-flight: ${rf.lineCount} lines, ${rf.photoCount} photos over ${rf.areas.length} areas.` : rf.covers,
+    reflight: rf === null
+      ? 'Nothing to re-fly: no ground that met the spec as planned was lost in flight.'
+      : rf.stretches && rf.stretches.items.length > 0
+        ? `Same-day re-flight: ${rf.stretches.items.length} stretches of the version's own lines, taking again the ${rf.stretches.neededStations} planned photos that saw the lost ground (${rf.stretches.photos} photos in all); with the photos already taken, ${rf.stretches.coveredCells} of the ${rf.stretches.targetCells} lost cells worth re-flying then meet the whole spec.`
+        : rf.lineCount > 0 ? `${rf.covers} Re-flight: ${rf.lineCount} lines, ${rf.photoCount} photos over ${rf.areas.length} areas.` : rf.covers,
     heights: d.heights.reference,
     map: d.map ?? null,
   };

@@ -3,7 +3,9 @@ import { booleanPointInPolygon, point, polygon, lineString, pointToLineDistance,
 import { simulateFlight } from './as-flown-flight';
 import { analyseAsFlown, cellMeetsSpec } from '../../terrain/as-flown';
 import { resolveCoverageInput } from '../../terrain/coverage-spec';
-import { planReflight } from '../../terrain/reflight';
+import { MIN_REFLIGHT_PATCH_SHARE, planReflight } from '../../terrain/reflight';
+import { cameraToLocal, castPixel } from '../../terrain/footprint';
+import { localHeights } from '../../terrain/local-frame';
 import { reflightStretches } from '../../terrain/reflight-stretches';
 import { AS_FLOWN_MAP_LEGEND, asFlownMap } from '../../terrain/as-flown-map';
 import proj4 from 'proj4';
@@ -20,32 +22,47 @@ describe('re-flight as stretches of the signed-off lines', () => {
   const { spec } = resolveCoverageInput(sim.missionInput, sim.mission);
   const asFlown = analyseAsFlown(sim.site.grid, sim.mission, sim.plan, sim.photos, spec, SETTINGS);
   const r = planReflight(sim.site.grid, sim.missionInput, sim.mission, asFlown, spec, SETTINGS)!;
-  const s = reflightStretches(sim.plan, asFlown.frame, r.areas, sim.mission.speedMps);
+  const s = reflightStretches(sim.site.grid, sim.mission, asFlown, spec, SETTINGS);
+  const { cells } = asFlown.flown;
+  const minCells = (MIN_REFLIGHT_PATCH_SHARE * sim.plan.summary.triggerDistanceM * sim.plan.summary.lineSpacingM) / cells.cellAreaM2;
+  const target = asFlown.difference.lostPatches.filter((p) => p.length >= minCells).flatMap((p) => [...p]);
 
-  it('takes exactly the signed-off stations inside each re-flight area (point in polygon by @turf/boolean-point-in-polygon 7)', () => {
+  it('takes again every station whose ground footprint holds lost ground (footprints cast on the grid, point in polygon by @turf/boolean-point-in-polygon 7)', () => {
+    expect(s.targetCells).toBe(target.length);
+    expect(s.targetCells).toBe(r.targetCells);
     expect(s.stretches.length).toBeGreaterThan(0);
-    r.areas.forEach((area, k) => {
-      const poly = polygon(area.polygon.coordinates);
+    const { heightAt } = localHeights(sim.site.grid, asFlown.frame);
+    const W = sim.mission.camera.imageWidthPx, H = sim.mission.camera.imageHeightPx, N = 16;
+    const ll = (x: number, y: number) => asFlown.frame.toLonLat(x, y);
+    const lostPoints = target.map((i) => point(ll(cells.x[i], cells.y[i])));
+    let clearlyNeeded = 0;
+    sim.plan.lines.forEach((line, li) => line.stations.forEach((st, si) => {
+      const [x, y] = asFlown.frame.toLocal(st.lon, st.lat);
+      const pose = { xM: x, yM: y, altitudeM: st.altitudeM, yawDeg: line.headingDeg };
+      const rot = cameraToLocal(sim.mission.camera, pose);
+      const border: number[][] = [];
+      for (let k = 0; k < N; k++) border.push([(W * k) / N, 0]);
+      for (let k = 0; k < N; k++) border.push([W, (H * k) / N]);
+      for (let k = 0; k < N; k++) border.push([W - (W * k) / N, H]);
+      for (let k = 0; k < N; k++) border.push([0, H - (H * k) / N]);
+      const ring = border.map(([u, v]) => castPixel(sim.mission.camera, pose, rot, u, v, heightAt)).filter((g): g is [number, number, number] => g !== null).map((g) => ll(g[0], g[1]));
+      if (ring.length < 4 * N) return;
+      const poly = polygon([[...ring, ring[0]]]);
       const edge = polygonToLine(poly);
-      // the stations @turf puts inside the area, leaving out the few within 0.5 m of its edge (where the
-      // straight edge in longitude/latitude and the straight edge in the local frame may part by millimetres)
-      const want = new Set<string>();
-      const clear = (lon: number, lat: number) => pointToLineDistance(point([lon, lat]), edge as never, { units: 'meters' }) > 0.5;
-      sim.plan.lines.forEach((line, li) => line.stations.forEach((st, si) => {
-        if (clear(st.lon, st.lat) && booleanPointInPolygon(point([st.lon, st.lat]), poly)) want.add(`${li + 1}:${si + 1}`);
-      }));
-      const got = new Set<string>();
-      for (const st of s.stretches.filter((x) => x.area === k + 1)) {
-        if (st.firstPhoto === null) continue;
-        for (let p = st.firstPhoto; p <= st.lastPhoto!; p++) {
-          const station = sim.plan.lines[st.line - 1].stations[p - 1];
-          if (clear(station.lon, station.lat)) got.add(`${st.line}:${p}`);
-        }
-      }
-      expect([...got].sort()).toEqual([...want].sort());
-    });
-    // a stretch longer than the distance between photos holds photos
-    for (const st of s.stretches) if (st.lengthM > sim.plan.summary.triggerDistanceM) expect(st.photos).toBeGreaterThan(0);
+      // a lost cell well inside the footprint (more than 2 m from its edge: the footprint's straight segments between rays)
+      const holds = lostPoints.some((p) => booleanPointInPolygon(p, poly) && pointToLineDistance(p, edge as never, { units: 'meters' }) > 2);
+      if (!holds) return;
+      clearlyNeeded++;
+      expect(s.stretches.some((x) => x.line === li + 1 && x.firstPhoto <= si + 1 && x.lastPhoto >= si + 1)).toBe(true);
+    }));
+    expect(clearlyNeeded).toBeGreaterThan(0);
+    expect(s.photos).toBeGreaterThanOrEqual(s.neededStations);
+  });
+
+  it('mends every lost cell with the photos already taken (the coverage engine, itself checked against gdal_rasterize), with fewer photos than the area re-flight', () => {
+    expect(s.coveredCells).toBe(s.targetCells);
+    expect(s.photos).toBeLessThan(r.photoCount);
+    console.log(`same-day stretches: ${s.stretches.length} stretches, ${s.photos} photos (${s.neededStations} needed), ${s.lengthM.toFixed(0)} m; mend ${s.coveredCells} of ${s.targetCells}; area re-flight ${r.photoCount} photos, mends ${r.coveredCells}`);
   });
 
   it('runs along the signed-off line (within 1 cm, @turf/point-to-line-distance) at its signed-off heights (within 1 cm at every station)', () => {
@@ -58,24 +75,18 @@ describe('re-flight as stretches of the signed-off lines', () => {
       expect(st.legs[0].fromM).toBeCloseTo(st.fromM, 6);
       expect(st.legs[st.legs.length - 1].toM).toBeCloseTo(st.toM, 6);
       for (let i = 1; i < st.legs.length; i++) expect(st.legs[i].fromM).toBeCloseTo(st.legs[i - 1].toM, 6);
-      if (st.firstPhoto === null) continue;
-      for (let p = st.firstPhoto; p <= st.lastPhoto!; p++) {
+      for (let p = st.firstPhoto; p <= st.lastPhoto; p++) {
         const station = line.stations[p - 1];
+        expect(station.distanceM).toBeGreaterThanOrEqual(st.fromM - 1e-6);
+        expect(station.distanceM).toBeLessThanOrEqual(st.toM + 1e-6);
         const leg = st.legs.find((g) => g.fromM <= station.distanceM + 1e-6 && g.toM >= station.distanceM - 1e-6)!;
         const t = leg.toM > leg.fromM ? (station.distanceM - leg.fromM) / (leg.toM - leg.fromM) : 0;
         expect(Math.abs(leg.altitudeStartAboveTakeoffM + t * (leg.altitudeEndAboveTakeoffM - leg.altitudeStartAboveTakeoffM) - station.altitudeAboveTakeoffM)).toBeLessThan(0.01);
         expect(Math.abs(leg.altitudeStartM + t * (leg.altitudeEndM - leg.altitudeStartM) - station.altitudeM)).toBeLessThan(0.01);
       }
     }
-  });
-
-  it('counts the lines a re-flight area adds beyond the plan, which the signed-off sheet cannot fly', () => {
-    const positions = r.areas.reduce((t, a) => t + Math.round(a.acrossM / sim.plan.summary.lineSpacingM), 0);
-    const lines = new Set(s.stretches.map((x) => `${x.area}:${x.line}`)).size;
-    expect(s.offPlanLines).toBe(positions - lines);
-    expect(s.photos).toBe(s.stretches.reduce((t, x) => t + x.photos, 0));
-    // time on the stretches at the mission's speed
     expect(s.timeS).toBeCloseTo(s.lengthM / sim.mission.speedMps, 3);
+    expect(s.photos).toBe(s.stretches.reduce((t, x) => t + x.photos, 0));
   });
 });
 
@@ -84,7 +95,7 @@ describe('the as-flown map', () => {
   const { spec } = resolveCoverageInput(sim.missionInput, sim.mission);
   const asFlown = analyseAsFlown(sim.site.grid, sim.mission, sim.plan, sim.photos, spec, SETTINGS);
   const r = planReflight(sim.site.grid, sim.missionInput, sim.mission, asFlown, spec, SETTINGS)!;
-  const s = reflightStretches(sim.plan, asFlown.frame, r.areas, sim.mission.speedMps);
+  const s = reflightStretches(sim.site.grid, sim.mission, asFlown, spec, SETTINGS);
   // the stretches' ends into the grid's CRS through proj4 itself (the npm package, not the engine's own wrapper)
   const toGrid = proj4('EPSG:4326', sim.site.grid.crs.proj4);
   const segments = s.stretches.map((st) => { const [x0, y0] = toGrid.forward([st.start.lon, st.start.lat]); const [x1, y1] = toGrid.forward([st.end.lon, st.end.lat]); return { x0, y0, x1, y1 }; });
