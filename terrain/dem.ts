@@ -28,6 +28,8 @@ export interface ReadDemOptions {
   inflate?: InflateFn;
   /** Reuse this buffer for the output (its length must equal the window's pixel count), e.g. a shared one. */
   into?: Float32Array;
+  /** Answer a window of nodata only instead of refusing it (a band of a grid read band by band may be all nodata). */
+  allowAllNodata?: boolean;
 }
 
 /** An opened DEM: its header, and reads of windows that share a cache of decoded blocks. */
@@ -205,7 +207,7 @@ export async function openDem(input: ArrayBuffer | Uint8Array | ByteRangeSource,
     if (scale !== 1 || offset !== 0) for (let i = 0; i < out.length; i++) out[i] = out[i] * scale + offset;
     let any = false;
     for (let i = 0; i < out.length; i++) if (out[i] === out[i]) { any = true; break; }
-    if (!any) {
+    if (!any && !ro.allowAllNodata) {
       throw new TerrainError('all-nodata', `The ${ro.window || ro.pixelWindow ? 'requested part of the grid' : 'grid'} holds only nodata, so there is no terrain to plan over; check the nodata value or choose an area the DEM covers.`);
     }
     return createGrid({ width: outW, height: outH, data: out, transform: windowTransform(header.transform, c0, r0), crs: header.crs, nodata: header.nodata, sourceVerticalUnit: header.units.vertical });

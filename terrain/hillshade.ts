@@ -25,25 +25,58 @@ export interface Hillshade {
   transform: GeoTransform;
 }
 
+/**
+ * Box-average of a grid by an integer factor k, fed row band by row band (row-major, so the sums are those of one
+ * pass), ignoring unknown pixels (NaN only where a whole box is unknown). It holds only the small image's sums.
+ */
+export class Overview {
+  readonly w: number;
+  readonly h: number;
+  private readonly sum: Float64Array | null;
+  private readonly n: Uint32Array | null;
+  private readonly direct: Float32Array | null;
+  constructor(readonly width: number, readonly height: number, readonly k: number) {
+    this.w = Math.ceil(width / k);
+    this.h = Math.ceil(height / k);
+    // k = 1: the image is the grid itself (the heights as they are)
+    this.direct = k === 1 ? new Float32Array(this.w * this.h) : null;
+    this.sum = k === 1 ? null : new Float64Array(this.w * this.h);
+    this.n = k === 1 ? null : new Uint32Array(this.w * this.h);
+  }
+  /** Rows [row0, row0 + data.length / width) of the grid. */
+  addRows(data: Float32Array, row0: number): void {
+    const { width, k, w } = this;
+    if (this.direct) { this.direct.set(data, row0 * width); return; }
+    const sum = this.sum!, n = this.n!;
+    const rows = data.length / width;
+    for (let rr = 0; rr < rows; rr++) {
+      const r = row0 + rr;
+      const o = ((r / k) | 0) * w;
+      for (let c = 0; c < width; c++) {
+        const v = data[rr * width + c];
+        if (v === v) { sum[o + ((c / k) | 0)] += v; n[o + ((c / k) | 0)]++; }
+      }
+    }
+  }
+  heights(): Float32Array {
+    if (this.direct) return this.direct;
+    const z = new Float32Array(this.w * this.h);
+    for (let i = 0; i < z.length; i++) z[i] = this.n![i] ? this.sum![i] / this.n![i] : NaN;
+    return z;
+  }
+}
+
 /** Box-average the grid by an integer factor k, ignoring unknown pixels (NaN only where a whole box is unknown). */
 function downsample(grid: Grid, k: number): { w: number; h: number; z: Float32Array } {
   const w = Math.ceil(grid.width / k), h = Math.ceil(grid.height / k);
   if (k === 1) return { w, h, z: grid.data };
-  const sum = new Float64Array(w * h), n = new Uint32Array(w * h);
-  for (let r = 0; r < grid.height; r++) {
-    const o = ((r / k) | 0) * w;
-    for (let c = 0; c < grid.width; c++) {
-      const v = grid.data[r * grid.width + c];
-      if (v === v) { sum[o + ((c / k) | 0)] += v; n[o + ((c / k) | 0)]++; }
-    }
-  }
-  const z = new Float32Array(w * h);
-  for (let i = 0; i < z.length; i++) z[i] = n[i] ? sum[i] / n[i] : NaN;
-  return { w, h, z };
+  const ov = new Overview(grid.width, grid.height, k);
+  ov.addRows(grid.data, 0);
+  return { w, h, z: ov.heights() };
 }
 
 /** Ground size of the image pixels in metres (geographic grids: WGS 84 radii of curvature at the grid centre). */
-function pixelSizeM(grid: Grid, t: GeoTransform, w: number, h: number): [number, number] {
+function pixelSizeM(grid: Pick<Grid, 'crs'>, t: GeoTransform, w: number, h: number): [number, number] {
   const dx = Math.hypot(t[1], t[4]), dy = Math.hypot(t[2], t[5]);
   if (!grid.crs.geographic) {
     const m = metresPerUnit(grid.crs.horizontalUnit);
@@ -62,14 +95,24 @@ function pixelSizeM(grid: Grid, t: GeoTransform, w: number, h: number): [number,
  * reflectance map", Proc. IEEE 69(1), 1981), Lambertian shade = surface normal . sun vector; nodata transparent.
  */
 export function hillshadePng(grid: Grid, opts: HillshadeOptions = {}): Hillshade {
+  const k = overviewFactor(grid.width, grid.height, opts);
+  const { w, h, z } = downsample(grid, k);
+  return hillshadeOfOverview(grid, k, w, h, z, opts);
+}
+
+/** The factor by which a grid of width x height is box-averaged for an image of at most `maxSizePx` a side. */
+export function overviewFactor(width: number, height: number, opts: HillshadeOptions = {}): number {
   const maxSizePx = opts.maxSizePx ?? 1024;
+  check(Number.isInteger(maxSizePx) && maxSizePx >= 1, `maxSizePx must be a whole number >= 1, got ${maxSizePx}.`);
+  return Math.max(1, Math.ceil(Math.max(width, height) / maxSizePx));
+}
+
+/** Hillshade PNG of a grid's overview `z` (w x h, the grid box-averaged by k). */
+export function hillshadeOfOverview(grid: Pick<Grid, 'transform' | 'crs'>, k: number, w: number, h: number, z: Float32Array, opts: HillshadeOptions = {}): Hillshade {
   const azimuthDeg = opts.azimuthDeg ?? 315;
   const altitudeDeg = opts.altitudeDeg ?? 45;
-  check(Number.isInteger(maxSizePx) && maxSizePx >= 1, `maxSizePx must be a whole number >= 1, got ${maxSizePx}.`);
   check(Number.isFinite(azimuthDeg), `azimuthDeg must be a number, got ${azimuthDeg}.`);
   check(Number.isFinite(altitudeDeg) && altitudeDeg > 0 && altitudeDeg <= 90, `altitudeDeg must be in (0, 90], got ${altitudeDeg}.`);
-  const k = Math.max(1, Math.ceil(Math.max(grid.width, grid.height) / maxSizePx));
-  const { w, h, z } = downsample(grid, k);
   const gt = grid.transform;
   const t: GeoTransform = [gt[0], gt[1] * k, gt[2] * k, gt[3], gt[4] * k, gt[5] * k];
   const [sxM, syM] = pixelSizeM(grid, t, w, h);

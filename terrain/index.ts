@@ -62,3 +62,5 @@ export { analyseAsFlown, flownPoses, cellMeetsSpec, maskPatches } from './as-flo
 export type { AsFlown, AsFlownSettings, CoverageDifference } from './as-flown';
 export { planReflight, reflightAreas, MIN_REFLIGHT_PATCH_SHARE } from './reflight';
 export type { Reflight, ReflightArea } from './reflight';
+export { surveyDem } from './dem-survey';
+export type { DemSurvey, SurveyDemOptions } from './dem-survey';

@@ -49,18 +49,32 @@ export function pixelBoundsWgs84(grid: Pick<Grid, 'transform' | 'crs'>, c0: numb
   return [minLon, minLat, maxLon, maxLat];
 }
 
-/** Describe a grid in one pass over its heights (the double-precision sum stays exact to well below a millimetre). */
-export function describeGrid(grid: Grid): GridMetadata {
-  const { width, height, data, transform: t } = grid;
-  let min = Infinity, max = -Infinity, sum = 0, known = 0;
-  for (let i = 0; i < data.length; i++) {
-    const v = data[i];
-    if (v !== v) continue;
-    if (v < min) min = v;
-    if (v > max) max = v;
-    sum += v;
-    known++;
+/** Running height statistics over a grid read in pieces, in row-major order (the same sum as one pass). */
+export class HeightStats {
+  min = Infinity;
+  max = -Infinity;
+  sum = 0;
+  known = 0;
+  count = 0;
+  add(data: ArrayLike<number>): void {
+    let { min, max, sum, known } = this;
+    for (let i = 0; i < data.length; i++) {
+      const v = data[i];
+      if (v !== v) continue;
+      if (v < min) min = v;
+      if (v > max) max = v;
+      sum += v;
+      known++;
+    }
+    this.min = min; this.max = max; this.sum = sum; this.known = known;
+    this.count += data.length;
   }
+}
+
+/** The metadata of a grid from its facts and the statistics of all its heights. */
+export function gridMetadata(grid: Pick<Grid, 'width' | 'height' | 'transform' | 'crs' | 'sourceVerticalUnit'>, stats: HeightStats): GridMetadata {
+  const { width, height, transform: t } = grid;
+  const { min, max, sum, known, count } = stats;
   const round = (v: number) => Math.round(v * 1000) / 1000; // millimetres: no false precision in reports
   return {
     width,
@@ -70,7 +84,14 @@ export function describeGrid(grid: Grid): GridMetadata {
     bounds: pixelBounds(t, 0, 0, width, height),
     boundsWgs84: pixelBoundsWgs84(grid, 0, 0, width, height),
     elevation: known ? { min: round(min), max: round(max), mean: round(sum / known) } : { min: null, max: null, mean: null },
-    nodataShare: (data.length - known) / data.length,
+    nodataShare: (count - known) / count,
     verticalUnit: grid.sourceVerticalUnit,
   };
+}
+
+/** Describe a grid in one pass over its heights (the double-precision sum stays exact to well below a millimetre). */
+export function describeGrid(grid: Grid): GridMetadata {
+  const stats = new HeightStats();
+  stats.add(grid.data);
+  return gridMetadata(grid, stats);
 }

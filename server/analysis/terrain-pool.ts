@@ -18,11 +18,14 @@ import { loadDatumGrids } from './datum-grids';
 import { installNodeCodecs } from './node-codecs';
 
 export type ThreadTask =
-  | { id: number; kind: 'inspect'; bytes: Uint8Array; opts?: InspectOptions }
   /** `bytes` as a thread gets it: the bytes, a local path, or `remote` (each range asked of the main thread). */
-  | { id: number; kind: 'analyse'; bytes: Uint8Array | { path: string } | { remote: { byteLength: number } }; mission: unknown; opts?: AnalyseMissionOptions }
+  | { id: number; kind: 'inspect'; bytes: ThreadGrid; opts?: InspectOptions }
+  | { id: number; kind: 'analyse'; bytes: ThreadGrid; mission: unknown; opts?: AnalyseMissionOptions }
   | { id: number; kind: 'as-flown'; bytes: Uint8Array; mission: unknown; photos: readonly FlownPhoto[]; opts?: AnalyseMissionOptions }
   | { id: number; kind: 'live-coverage'; bytes: Uint8Array; mission: unknown; plan: PlanResult; photos: FlownPhoto[] };
+
+/** A grid as a terrain thread gets it. */
+export type ThreadGrid = Uint8Array | { path: string } | { remote: { byteLength: number } };
 
 export type ThreadReply =
   | { id: number; progress: number }
@@ -47,7 +50,8 @@ export class TerrainTimeoutError extends Error {
 
 /** The terrain tasks, wherever they run. Bytes handed in are moved to the thread: do not use them afterwards. */
 export interface TerrainRunner {
-  inspect(bytes: Uint8Array, opts?: InspectOptions): Promise<DemInspection>;
+  /** Like `analyse`, `bytes` may be a local file or a range source: the upload check reads it band by band. */
+  inspect(bytes: DemFile, opts?: InspectOptions): Promise<DemInspection>;
   /**
    * `bytes` may be a local file ({ path }), read by ranges in the thread, or a range source, whose ranges the
    * thread asks for one block at a time: either way the grid is never moved to the thread whole.
@@ -199,7 +203,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   }
 
   return {
-    inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
+    inspect: (bytes, o) => run<DemInspection>({ kind: 'inspect', bytes: bytes as never, opts: o && { maxSizePx: o.maxSizePx, maxPixels: o.maxPixels } }, undefined, o?.timeoutMs),
     analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes: bytes as never, mission, opts: o }, onProgress),
     asFlown: (bytes, mission, photos, o) => run<AsFlownCheckDocument>({ kind: 'as-flown', bytes, mission, photos, opts: o }),
     liveCoverage: (bytes, mission, plan, photos) => run<LiveAnalysis>({ kind: 'live-coverage', bytes, mission, plan, photos }),

@@ -5,7 +5,7 @@
 import fsp from 'node:fs/promises';
 import { inflateSync } from 'node:zlib';
 import type { DemFileInfo, HillshadeInfo } from '../../contracts/sites';
-import { analysePlan, describeGrid, hillshadePng, missionBboxWgs84, readDem, readDemHeader, TerrainError, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
+import { analysePlan, surveyDem, missionBboxWgs84, readDem, readDemHeader, TerrainError, WGS84, type GridMetadata, type InflateFn, type PlanResult } from '../../terrain/index';
 import { resolveMission } from '../../terrain/mission';
 import { runCoverage } from '../../terrain/coverage-document';
 import { coverageCog } from '../../terrain/coverage-raster-file';
@@ -97,8 +97,8 @@ function asDamaged(err: unknown): never {
 }
 
 /** Read the header only (a quick refusal of files that are not usable DEMs, before any pixel is decoded). */
-export async function inspectDemHeader(bytes: Uint8Array, opts: { maxPixels?: number } = {}): Promise<DemFileInfo> {
-  const h = await readDemHeader(bytes).catch(asDamaged);
+export async function inspectDemHeader(file: DemFile, opts: { maxPixels?: number } = {}): Promise<DemFileInfo> {
+  const h = await withDemSource(file, (src) => readDemHeader(src)).catch(asDamaged);
   const maxPixels = opts.maxPixels ?? MAX_DEM_PIXELS;
   if (h.width * h.height > maxPixels) {
     throw new TerrainError('too-large', `The grid is ${h.width} x ${h.height} = ${h.width * h.height} pixels, above this server's limit of ${maxPixels} (DEM_MAX_PIXELS); crop or resample it (gdal_translate -projwin / -tr) and upload it again.`);
@@ -106,17 +106,21 @@ export async function inspectDemHeader(bytes: Uint8Array, opts: { maxPixels?: nu
   return { compression: h.compression, sampleType: h.sampleType, tiled: h.tiling.tiled, nodata: h.nodata, declaredVerticalDatum: h.verticalDatum };
 }
 
-/** Decode the whole grid: metadata and a hillshade preview (longest side `maxSizePx`, default 1024). */
-export async function inspectDem(bytes: Uint8Array, opts: { maxSizePx?: number; maxPixels?: number } = {}): Promise<DemInspection> {
-  const file = await inspectDemHeader(bytes, opts);
-  const grid = await readDem(bytes, { inflate: nodeInflate, maxPixels: opts.maxPixels ?? MAX_DEM_PIXELS }).catch(asDamaged);
-  const metadata = describeGrid(grid);
-  const hs = hillshadePng(grid, { maxSizePx: opts.maxSizePx ?? 1024 });
-  return {
-    file,
-    metadata,
-    hillshade: { png: hs.png, width: hs.width, height: hs.height, boundsWgs84: hs.boundsWgs84, transform: [...hs.transform] as HillshadeInfo['transform'] },
-  };
+/**
+ * Survey the whole grid: metadata and a hillshade preview (longest side `maxSizePx`, default 1024). The file is read
+ * by ranges (a local file through its handle, an object store by ranged GETs) one band of rows at a time, so a
+ * 512 MB grid costs one band and the preview in memory, never the whole file or the whole grid.
+ */
+export async function inspectDem(file: DemFile, opts: { maxSizePx?: number; maxPixels?: number } = {}): Promise<DemInspection> {
+  return withDemSource(file, async (src) => {
+    const info = await inspectDemHeader(src, opts);
+    const { metadata, hillshade: hs } = await surveyDem(src, { inflate: nodeInflate, maxSizePx: opts.maxSizePx ?? 1024 }).catch(asDamaged);
+    return {
+      file: info,
+      metadata,
+      hillshade: { png: hs.png, width: hs.width, height: hs.height, boundsWgs84: hs.boundsWgs84, transform: [...hs.transform] as HillshadeInfo['transform'] },
+    };
+  });
 }
 
 /** What the analysis needs to know beyond the file: the vertical datum the site states for its heights. */

@@ -42,7 +42,8 @@ port.on('message', async (msg: ThreadTask | RangeAnswer) => {
   const reply = (m: ThreadReply, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer);
   try {
     if (task.kind === 'inspect') {
-      const r = await inspectDem(task.bytes, task.opts);
+      const grid = 'remote' in task.bytes ? remoteSource(task.id, task.bytes.remote.byteLength) : task.bytes;
+      const r = await inspectDem(grid, task.opts);
       reply({ id: task.id, ok: true, value: r }, [r.hillshade.png.buffer as ArrayBuffer]);
     } else if (task.kind === 'as-flown') {
       reply({ id: task.id, ok: true, value: await checkAsFlown(task.bytes, task.mission, task.photos, task.opts) });

@@ -3,7 +3,7 @@ import type { Site } from '../../contracts/sites';
 import { siteSchema, siteUploadFieldsSchema } from '../../contracts/sites';
 import { TerrainError } from '../../terrain/errors';
 import { TerrainTimeoutError, type TerrainRunner } from '../analysis/terrain-pool';
-import { inspectDemHeader } from '../analysis/terrain-tasks';
+import { inspectDemHeader, type DemFile } from '../analysis/terrain-tasks';
 import { AppError, errors } from '../http/errors';
 import { nulProblem } from '../http/text-guard';
 import { parseInput } from '../http/validate';
@@ -33,6 +33,15 @@ export function cleanFileName(name: string | undefined): string {
   return base.replace(/[\u0000-\u001f\u007f]/g, '').trim().slice(0, 200) || 'dem.tif';
 }
 
+/** A stored grid as the terrain tasks read it: a local file, a range source, or (a store with neither) its bytes. */
+async function storedGrid(storage: Storage, key: string): Promise<DemFile> {
+  const local = storage.localPath ? await storage.localPath(key) : null;
+  if (local) return { path: local };
+  if (storage.openRanges) return storage.openRanges(key);
+  const bytes = await storage.getBytes(key);
+  return new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+}
+
 export type UploadOutcome = { site: Site } | { duplicateOf: string };
 
 export function createSitesUsecases(deps: { sites: SitesRepository; storage: Storage; terrain: TerrainRunner; maxPixels?: number; log?: (err: unknown) => void }) {
@@ -53,15 +62,17 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
         const fields = parseInput(siteUploadFieldsSchema, ctx.body);
         const dup = await sites.findBySha(teamId, projectId, file.sha256);
         if (dup) return { duplicateOf: dup.id };
-        const bytes = await storage.getBytes(file.storageKey);
-        const header = await inspectDemHeader(bytes, { maxPixels }).catch((e) => { throw refusal(e); });
+        // the stored file is read by ranges (a local file through its handle, an object store by ranged GETs),
+        // so checking a 512 MB grid never holds the whole file
+        const grid = await storedGrid(storage, file.storageKey);
+        const header = await inspectDemHeader(grid, { maxPixels }).catch((e) => { throw refusal(e); });
         const verticalDatum = fields.verticalDatum ?? header.declaredVerticalDatum?.name;
         if (!verticalDatum) {
           throw errors.invalid('State the vertical datum of the heights: the file does not declare one.', [
             { path: 'verticalDatum', message: 'The GeoTIFF declares no vertical datum; state it (for example "EGM96" or a national height datum).' },
           ]);
         }
-        const inspection = await terrain.inspect(bytes, { maxPixels }).catch((e) => { throw refusal(e); });
+        const inspection = await terrain.inspect(grid, { maxPixels }).catch((e) => { throw refusal(e); });
         const hillshadeKey = siteKeys.hillshade(teamId, siteId);
         leftovers.push(hillshadeKey);
         await storage.put(hillshadeKey, inspection.hillshade.png, { contentType: 'image/png' });

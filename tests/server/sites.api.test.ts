@@ -328,11 +328,15 @@ describe('uploads into S3-compatible storage (s3rver)', () => {
         return { byteLength: r.byteLength, read: (o, l) => (ranges.push([o, l]), r.read(o, l)) };
       };
       const { c, teamId, base } = await ownProject(big, 's3-ranges');
-      const site = await upload(c, base, demBytes); // the upload check still reads the file whole
-      expect(site.status).toBe(201);
       store.getBytes = async (key) => {
-        throw new Error(`the analysis read ${key} whole`);
+        throw new Error(`the upload check or the analysis read ${key} whole`);
       };
+      const site = await upload(c, base, demBytes);
+      expect(site.status).toBe(201);
+      // the upload check read the stored grid by ranged GETs too, block by block, never the whole file at once
+      expect(ranges.length).toBeGreaterThan(2);
+      expect(Math.max(...ranges.map(([, l]) => l))).toBeLessThan(demBytes.length / 4);
+      ranges.length = 0;
       const projectBase = base.replace(/\/sites$/, '');
       const input = {
         area: { type: 'Polygon', coordinates: [[[4.475, 46.768], [4.480, 46.768], [4.480, 46.771], [4.475, 46.771], [4.475, 46.768]]] },
