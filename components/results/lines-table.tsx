@@ -158,7 +158,7 @@ function LinesList(p: LinesTableProps) {
               <Text variant="caption">
                 Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side as planned · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
               </Text>
-              <Text variant="caption" testID={`line-row-${r.number}-guaranteed`}>
+              <Text variant="caption" testID={`line-guaranteed-${r.number}`}>
                 {p.envelope
                   ? `As guaranteed under ${p.envelope}: ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} forward, ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')} side`
                   : 'Overlaps as planned only: the mission has no attitude envelope'}

@@ -83,7 +83,7 @@ describe('overlaps as planned and as guaranteed on the results screen', () => {
         await expect(page.getByTestId('lines-table-basis').textContent()).resolves.toContain('as guaranteed under the attitude envelope (±5° roll, ±5° pitch)');
       } else {
         await page.getByTestId('lines-list').waitFor();
-        await expect(page.getByTestId('line-row-1-guaranteed').textContent()).resolves.toBe(`As guaranteed under ±5° roll, ±5° pitch: ${fwd} forward, ${side} side`);
+        await expect(page.getByTestId('line-guaranteed-1').textContent()).resolves.toBe(`As guaranteed under ±5° roll, ±5° pitch: ${fwd} forward, ${side} side`);
       }
       const restore = await growToContent(page);
       await page.screenshot({ path: path.join(shotDir, `results-${size}.png`), fullPage: true });
