@@ -16,6 +16,7 @@ import autocannon from 'autocannon';
 import { createDb } from '../db/client';
 import { migrateDb } from '../db/migrate';
 import { demoUsers } from '../contracts/demo-team';
+import { demoProject } from '../server/seed/demo-project';
 import { demoPassword } from '../server/seed/demo-password';
 import { createAuth } from '../server/auth/auth';
 import { buildConfig, parseEnv } from '../server/config';
@@ -105,12 +106,18 @@ try {
   const projects = await get(cookies.planner, `/api/teams/${teamId}/projects`);
   const projectId: string = projects.projects[0].id;
   const plans = await get(cookies.planner, `/api/teams/${teamId}/projects/${projectId}/plans`);
-  const planId: string = plans.plans[0].id;
+  // The demo holds a draft plan and a signed-off one; the pilot reads signed-off versions only, so the draft (the
+  // larger, the reads the issue measured) is sent through review first, with the reasons its unmet requirements need.
+  const planId: string = plans.plans.find((p: { name: string }) => p.name === demoProject.planName)?.id ?? plans.plans[0].id;
   const versions = await get(cookies.planner, `/api/teams/${teamId}/plans/${planId}/versions`);
   const versionId: string = versions.versions[0].id;
-  // The pilot reads signed-off versions only: send the demo version through review first.
-  await post(cookies.planner, `/api/teams/${teamId}/plans/${planId}/versions/${versionId}/submit`);
-  await post(cookies.surveyor, `/api/teams/${teamId}/plans/${planId}/versions/${versionId}/sign-off`);
+  const versionPath = `/api/teams/${teamId}/plans/${planId}/versions/${versionId}`;
+  const review = await get(cookies.surveyor, `${versionPath}/review`);
+  if (review.reviewState !== 'signed_off') {
+    if (review.reviewState !== 'in_review') await post(cookies.planner, `${versionPath}/submit`);
+    const unmet = (await get(cookies.surveyor, `${versionPath}/review`)).unmet as Array<{ key: string }>;
+    await post(cookies.surveyor, `${versionPath}/sign-off`, { reasons: unmet.map((u) => ({ key: u.key, reason: 'Benchmark run: signed off to measure the pilot\'s reads.' })) });
+  }
 
   const mix = [
     { cookie: cookies.planner, path: `/api/teams/${teamId}/projects` },
