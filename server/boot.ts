@@ -35,9 +35,17 @@ export async function bootServer(
     if (cleanup) cleanups.push(cleanup);
   }
   const { app, api } = createApp({ db, auth, config, services, routes: [...routeGroups, ...(opts.extraRoutes ?? [])] });
-  const server = await new Promise<Server>((resolve, reject) => {
-    const s = app.listen(config.port, config.host, (err?: Error) => (err ? reject(err) : resolve(s)));
-  });
+  let server: Server;
+  try {
+    server = await new Promise<Server>((resolve, reject) => {
+      const s = app.listen(config.port, config.host, (err?: Error) => (err ? reject(err) : resolve(s)));
+    });
+  } catch (err) {
+    // the port was taken: stop what started, so a caller may try another port without leaks
+    for (const cleanup of cleanups.reverse()) await cleanup().catch(() => undefined);
+    await db.$client.end().catch(() => undefined);
+    throw err;
+  }
   const { port } = server.address() as AddressInfo;
   return {
     url: `http://${config.host}:${port}`,
