@@ -2,6 +2,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import compression from 'compression';
+import { screenPreloader } from './http/screen-preload';
 import express, { type RequestHandler } from 'express';
 import type { ServerResponse } from 'node:http';
 import type { Db } from '../db/client';
@@ -93,7 +94,11 @@ export function createApp(deps: AppDeps) {
     const dist = config.webDist;
     app.use(express.static(dist, { index: false, setHeaders: staticCacheHeaders }));
     // Single-page app: any other GET gets the shell and the router picks the screen.
-    app.get('/{*any}', (_req, res) => res.sendFile(path.join(dist, 'index.html'), { cacheControl: false, headers: { 'Cache-Control': 'no-cache' } }));
+    const preload = screenPreloader(dist);
+    app.get('/{*any}', (req, res) => {
+      const link = preload(req.path);
+      res.sendFile(path.join(dist, 'index.html'), { cacheControl: false, headers: { 'Cache-Control': 'no-cache', ...(link ? { Link: link } : {}) } });
+    });
   }
   app.use(errorMiddleware(deps.log ?? logServerError));
   return { app, api, guards };

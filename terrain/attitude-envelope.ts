@@ -1,8 +1,8 @@
 /** The attitude envelope a plan must hold under: wind and crab angle per line, roll/pitch limits, and the attitudes a guaranteed view is tested at. */
 import type { Camera } from './camera';
 import { pixelRay } from './camera';
-import type { CameraPose } from './footprint';
-import { cameraToLocal } from './footprint';
+import type { CameraPose } from './camera-pose';
+import { cameraToLocal } from './camera-pose';
 import { check } from './errors';
 
 const DEG = Math.PI / 180;

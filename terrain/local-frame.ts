@@ -2,7 +2,7 @@
 import type { Grid, GridCrs } from './grid';
 import { WGS84, createTransform, utmCrsFor } from './crs';
 import { sampleGridCoords } from './sample';
-import type { HeightAt } from './footprint';
+import type { HeightAt } from './camera-pose';
 
 /**
  * Local frame: x east, y north in metres of ground distance (UTM divided by its point scale factor at the

@@ -1,4 +1,4 @@
 /** Route /outbox: the development outbox (owners, fake SMTP only). */
-import { OutboxScreen } from '../../components/outbox/outbox-screen';
+import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default OutboxScreen;
+export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.OutboxScreen));

@@ -1,4 +1,4 @@
 /** Route /profile. */
-import { ProfileScreen } from '../../components/profile/profile-screen';
+import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default ProfileScreen;
+export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.ProfileScreen));

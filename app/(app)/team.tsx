@@ -1,4 +1,4 @@
 /** Route /team: the current team's members. */
-import { MembersScreen } from '../../components/team/members-screen';
+import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default MembersScreen;
+export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.MembersScreen));

@@ -1,4 +1,4 @@
 /** Route /teams: the team switcher and team creation. */
-import { TeamsScreen } from '../../components/team/teams-screen';
+import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default TeamsScreen;
+export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.TeamsScreen));

@@ -5,9 +5,10 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { distDir, projectRoot } from './paths';
 import { writeServiceWorker } from './service-worker';
+import { foldCommonChunk } from './web-chunks';
 import { injectFontTags, writeWebFonts } from './web-fonts';
 
-const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'package-lock.json', 'tsconfig.json', 'scripts/lib/web-fonts.ts', 'scripts/lib/service-worker.ts'];
+const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'metro.config.js', 'scripts/web', 'package-lock.json', 'tsconfig.json', 'scripts/lib/web-fonts.ts', 'scripts/lib/service-worker.ts', 'scripts/lib/web-chunks.ts'];
 
 function hashInputs(): string {
   const h = crypto.createHash('sha256');
@@ -48,6 +49,8 @@ export async function ensureWebBuild(opts: { force?: boolean } = {}): Promise<st
     fs.rmSync(staging, { recursive: true, force: true });
     throw new Error('The web build failed (see the expo output above).');
   }
+  const fold = foldCommonChunk(staging);
+  if (fold.commonBytes) console.log(`loftline: shared screen code (${(fold.commonBytes / 1024).toFixed(0)} KiB) moved off the first screen into ${fold.foldedInto.join(', ')}`);
   // Fonts as WOFF2 subsets declared with font-display: swap (scripts/lib/web-fonts.ts); the page never waits for them.
   const indexFile = path.join(staging, 'index.html');
   fs.writeFileSync(indexFile, injectFontTags(fs.readFileSync(indexFile, 'utf8'), await writeWebFonts(staging)));

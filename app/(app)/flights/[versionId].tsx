@@ -1,4 +1,4 @@
 /** Route /flights/:versionId: the leg sheet of a signed-off version. */
-import { LegSheetScreen } from '../../../components/flights/leg-sheet-screen';
+import { lazyScreen } from '../../../components/app/lazy-screen';
 
-export default LegSheetScreen;
+export default lazyScreen(() => import('../../../components/app/field-screens').then((m) => m.LegSheetScreen));

@@ -1,4 +1,4 @@
 /** Route /flights. */
-import { FlightsScreen } from '../../../components/flights/flights-screen';
+import { lazyScreen } from '../../../components/app/lazy-screen';
 
-export default FlightsScreen;
+export default lazyScreen(() => import('../../../components/app/field-screens').then((m) => m.FlightsScreen));

@@ -1,4 +1,4 @@
 /** Route /projects. */
-import { ProjectsScreen } from '../../../components/projects/projects-screen';
+import { lazyScreen } from '../../../components/app/lazy-screen';
 
-export default ProjectsScreen;
+export default lazyScreen(() => import('../../../components/app/office-screens').then((m) => m.ProjectsScreen));

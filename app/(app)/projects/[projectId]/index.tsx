@@ -1,4 +1,4 @@
 /** Route /projects/:projectId. */
-import { ProjectScreen } from '../../../../components/projects/project-screen';
+import { lazyScreen } from '../../../../components/app/lazy-screen';
 
-export default ProjectScreen;
+export default lazyScreen(() => import('../../../../components/app/office-screens').then((m) => m.ProjectScreen));

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/plans/new (?siteId=). */
-import { NewPlanScreen } from '../../../../../components/plans/plan-editor-screen';
+import { lazyScreen } from '../../../../../components/app/lazy-screen';
 
-export default NewPlanScreen;
+export default lazyScreen(() => import('../../../../../components/app/office-screens').then((m) => m.NewPlanScreen));

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/sites/:siteId. */
-import { SiteScreen } from '../../../../../components/sites/site-screen';
+import { lazyScreen } from '../../../../../components/app/lazy-screen';
 
-export default SiteScreen;
+export default lazyScreen(() => import('../../../../../components/app/office-screens').then((m) => m.SiteScreen));

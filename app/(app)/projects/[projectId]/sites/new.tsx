@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/sites/new: upload an elevation grid. */
-import { SiteUploadScreen } from '../../../../../components/sites/site-upload-screen';
+import { lazyScreen } from '../../../../../components/app/lazy-screen';
 
-export default SiteUploadScreen;
+export default lazyScreen(() => import('../../../../../components/app/office-screens').then((m) => m.SiteUploadScreen));

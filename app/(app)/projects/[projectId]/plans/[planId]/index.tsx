@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/plans/:planId. */
-import { PlanScreen } from '../../../../../../components/plans/plan-editor-screen';
+import { lazyScreen } from '../../../../../../components/app/lazy-screen';
 
-export default PlanScreen;
+export default lazyScreen(() => import('../../../../../../components/app/office-screens').then((m) => m.PlanScreen));

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/plans/:planId/versions/:versionId: a run's progress and results. */
-import { VersionScreen } from '../../../../../../../components/results/version-screen';
+import { lazyScreen } from '../../../../../../../components/app/lazy-screen';
 
-export default VersionScreen;
+export default lazyScreen(() => import('../../../../../../../components/app/office-screens').then((m) => m.VersionScreen));
