@@ -111,6 +111,12 @@ export function createInlineTerrainRunner(): TerrainRunner {
   };
 }
 
+/**
+ * Nice value of each terrain thread (0 normal, 19 lowest): analyses yield the CPU to API requests (see
+ * lowerThisThreadsPriority in terrain-thread.ts).
+ */
+export const ANALYSIS_THREAD_NICE = 10;
+
 /** A pool of `threads` terrain threads (0: inline). */
 export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number; datumGridDir?: string }): TerrainRunner {
   // the datum-shift grids in this thread (inline tasks, and CRSs the routes resolve) and, through workerData, in each terrain thread
@@ -123,7 +129,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   let closed = false;
 
   function spawn(): Slot {
-    const worker = new Worker(bootFile, { workerData: { entry: entryFile, datumGridDir: opts.datumGridDir } });
+    const worker = new Worker(bootFile, { workerData: { entry: entryFile, datumGridDir: opts.datumGridDir, nice: ANALYSIS_THREAD_NICE } });
     const slot: Slot = { worker, busy: null };
     worker.unref(); // an idle pool never keeps the process alive
     worker.on('message', (m: ThreadReply) => {

@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import { deflateSync } from 'node:zlib';
 import { afterAll, describe, expect, it } from 'vitest';
-import { createTerrainRunner, TerrainTimeoutError } from '../../server/analysis/terrain-pool';
+import { ANALYSIS_THREAD_NICE, createTerrainRunner, TerrainTimeoutError } from '../../server/analysis/terrain-pool';
 import { nodeInflate } from '../../server/analysis/terrain-tasks';
 import { TerrainError } from '../../terrain/errors';
 
@@ -34,6 +34,24 @@ describe('terrain pool time limit', () => {
     await expect(late).rejects.toBeInstanceOf(TerrainTimeoutError);
     await expect(late).rejects.toThrow(/took longer than 1 ms and was stopped/);
     expect((await next).metadata.width).toBe(9);
+  });
+});
+
+describe('terrain thread priority', () => {
+  const pool = createTerrainRunner({ threads: 1 });
+  afterAll(() => pool.close());
+
+  /** Nice value of each thread of this process: field 19 of /proc/self/task/TID/stat (proc(5)). */
+  const niceOfThreads = () =>
+    fs.readdirSync('/proc/self/task').map((tid) => Number(fs.readFileSync(`/proc/self/task/${tid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ')[16]));
+
+  it.runIf(process.platform === 'linux')('runs analyses at nice 10 while the rest of the process keeps its priority', async () => {
+    const before = niceOfThreads();
+    expect(before).not.toContain(ANALYSIS_THREAD_NICE);
+    expect((await pool.inspect(small())).metadata.width).toBe(9); // the thread is started
+    const after = niceOfThreads();
+    expect(after.filter((n) => n === ANALYSIS_THREAD_NICE)).toHaveLength(1);
+    expect(after.filter((n) => n === 0).length).toBeGreaterThanOrEqual(before.filter((n) => n === 0).length);
   });
 });
 
