@@ -7,7 +7,7 @@ import type { Db } from '../../db/client';
 import { member } from '../../db/schema';
 import type { Auth } from '../auth/auth';
 import { errors } from './errors';
-import { createSessionCache, type SessionCache } from './session-cache';
+import { createSessionCache, sessionTokenOf, type SessionCache } from './session-cache';
 import { membershipCacheOf, type MembershipCache } from './membership-cache';
 
 /** What a guard demands: only a session, or a permission within the team named by `:teamId`. */
@@ -84,14 +84,39 @@ export function createGuards(deps: { auth: Auth; db: Db; sessions?: SessionCache
     return role;
   }
 
+  /**
+   * Lookups under way per session token: when a cached session runs out, the many requests of that reader that
+   * arrive meanwhile wait for one lookup instead of each verifying the cookie and reading the database.
+   */
+  const lookups = new Map<string, Promise<RequestAuth | null>>();
+
+  async function lookUp(req: Request): Promise<RequestAuth | null> {
+    const cookie = req.headers.cookie;
+    const ticket = sessions.ticket();
+    const s = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
+    if (!s) return null;
+    const found = { user: { id: s.user.id, name: s.user.name, email: s.user.email }, sessionId: s.session.id };
+    sessions.set(cookie, found, new Date(s.session.expiresAt).getTime(), ticket);
+    return found;
+  }
+
   async function loadSession(req: Request): Promise<RequestAuth> {
     const cookie = req.headers.cookie;
     const cached = sessions.get(cookie);
     if (cached) return cached;
-    const s = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
-    if (!s) throw errors.unauthenticated();
-    const found = { user: { id: s.user.id, name: s.user.name, email: s.user.email }, sessionId: s.session.id };
-    sessions.set(cookie, found, new Date(s.session.expiresAt).getTime());
+    // Shared only between requests with the very same Cookie header (the token and its signature are both in it),
+    // and never across a sign-out: the key holds the cache's generation, which every sign-out moves on.
+    const token = sessionTokenOf(cookie) ? `${sessions.ticket()}\u0000${cookie}` : undefined;
+    let pending = token === undefined ? undefined : lookups.get(token);
+    if (!pending) {
+      pending = lookUp(req);
+      if (token !== undefined) {
+        lookups.set(token, pending);
+        void pending.finally(() => lookups.delete(token)).catch(() => undefined);
+      }
+    }
+    const found = await pending;
+    if (!found) throw errors.unauthenticated();
     return found;
   }
 
