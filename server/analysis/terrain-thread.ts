@@ -66,7 +66,7 @@ port.on('message', async (msg: ThreadTask | RangeAnswer) => {
 /**
  * Analyses are long and nobody waits on them by the millisecond; API reads are short and a reader waits for each.
  * On Linux a thread has a nice value of its own (setpriority on its thread id; setpriority(2), "BUGS": the nice
- * value is per thread), so this thread steps back to the nice value the pool passes (ANALYSIS_THREAD_NICE, 10:
+ * value is per thread), so this thread steps back to the nice value the pool passes (ANALYSIS_NICE, 10 by default:
  * about a tenth of a nice-0 thread's share when both want the CPU, CFS weights 110 vs 1024, from memory) and the
  * reads keep their latency while an analysis runs; on an idle machine the analysis still gets every free cycle.
  * Elsewhere (no /proc/thread-self) it runs at normal priority.

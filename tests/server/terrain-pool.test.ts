@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import { deflateSync } from 'node:zlib';
 import { afterAll, describe, expect, it } from 'vitest';
-import { ANALYSIS_THREAD_NICE, createTerrainRunner, TerrainTimeoutError } from '../../server/analysis/terrain-pool';
+import { createTerrainRunner, TerrainTimeoutError } from '../../server/analysis/terrain-pool';
 import { nodeInflate } from '../../server/analysis/terrain-tasks';
 import { TerrainError } from '../../terrain/errors';
 
@@ -37,8 +37,11 @@ describe('terrain pool time limit', () => {
   });
 });
 
+/** The nice value the priority tests give their pools. */
+const ANALYSIS_THREAD_NICE = 10;
+
 describe('terrain thread priority', () => {
-  const pool = createTerrainRunner({ threads: 1 });
+  const pool = createTerrainRunner({ threads: 1, nice: ANALYSIS_THREAD_NICE });
   afterAll(() => pool.close());
 
   /** Nice value of each thread of this process: field 19 of /proc/self/task/TID/stat (proc(5)). */
@@ -52,6 +55,26 @@ describe('terrain thread priority', () => {
     const after = niceOfThreads();
     expect(after.filter((n) => n === ANALYSIS_THREAD_NICE)).toHaveLength(1);
     expect(after.filter((n) => n === 0).length).toBeGreaterThanOrEqual(before.filter((n) => n === 0).length);
+  });
+});
+
+describe('terrain pool warm start', () => {
+  const pool = createTerrainRunner({ threads: 1, nice: ANALYSIS_THREAD_NICE });
+  afterAll(() => pool.close());
+  const threadIds = () => fs.readdirSync('/proc/self/task');
+
+  it.runIf(process.platform === 'linux')('starts its thread on warm(), before any task, and runs the first task on it', async () => {
+    const before = threadIds();
+    pool.warm();
+    const started = threadIds().filter((t) => !before.includes(t));
+    // a worker thread is one JS thread plus a few of V8's; the new ones appear at once
+    expect(started.length).toBeGreaterThan(0);
+    expect((await pool.inspect(small())).metadata.width).toBe(9);
+    pool.warm(); // already warm: no second thread
+    expect((await pool.inspect(small())).metadata.width).toBe(9);
+    const analysisThreads = threadIds().filter((t) => Number(fs.readFileSync(`/proc/self/task/${t}/stat`, 'utf8').replace(/^.*\) /, '').split(' ')[16]) === ANALYSIS_THREAD_NICE);
+    expect(analysisThreads).toHaveLength(1);
+    expect(started).toContain(analysisThreads[0]);
   });
 });
 
