@@ -78,6 +78,11 @@ try {
   });
   const pid = child.pid!;
   const rssMiB = () => Number(/VmRSS:\s+(\d+)/.exec(fs.readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? 0) / 1024;
+  // The server's CPU time so far (user + system, all its threads) in ms, from /proc/PID/stat fields 14 and 15 (proc(5)).
+  const cpuMs = () => {
+    const f = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ');
+    return ((Number(f[11]) + Number(f[12])) * 1000) / 100; // clock ticks of 1/100 s (USER_HZ)
+  };
 
   async function signIn(email: string): Promise<string> {
     const res = await fetch(`${url}/api/auth/sign-in/email`, {
@@ -148,6 +153,8 @@ try {
 
   async function measure(label: string): Promise<{ p50: number; p95: number; p99: number; rps: number; errors: number; rssMiB: number }> {
     const rssBefore = rssMiB();
+    const cpuBefore = cpuMs();
+    const loadBefore = os.loadavg()[0];
     let rssPeak = rssBefore;
     const probe = setInterval(() => (rssPeak = Math.max(rssPeak, rssMiB())), 250);
     const result = await autocannon({
@@ -165,6 +172,9 @@ try {
     const hist = result.latency as unknown as Record<string, number>;
     if (typeof hist.p95 === 'number') out.p95 = hist.p95;
     console.log(`${label}: ${out.rps.toFixed(0)} req/s, p50 ${out.p50} ms, p95 ${out.p95} ms, p99 ${out.p99} ms, errors ${errors}, RSS ${rssBefore.toFixed(0)} → peak ${rssPeak.toFixed(0)} MiB`);
+    // What the server spent per answered request, and how busy the machine was besides (other processes share it).
+    const served = result.requests.total || 1;
+    console.log(`  server CPU ${((cpuMs() - cpuBefore) / served).toFixed(2)} ms per request (all threads); machine load average ${loadBefore.toFixed(1)} → ${os.loadavg()[0].toFixed(1)} on ${os.cpus().length} cores`);
     return out;
   }
 

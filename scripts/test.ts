@@ -36,6 +36,9 @@ for (const d of fs.existsSync(testDataDir) ? fs.readdirSync(testDataDir) : []) {
 const storageDir = path.join(testDataDir, `storage-${process.pid}`);
 process.env.STORAGE_DIR ??= storageDir;
 process.env.WORKERS ??= '0';
+// Suites run side by side and beside other work on the machine: their analyses keep normal priority, so a busy
+// machine cannot starve them past their time limits (the priority is about sharing with API reads: bench:api).
+process.env.ANALYSIS_NICE ??= '0';
 // The whole tree type-checks first (strict TypeScript): a type error fails the run before any suite starts.
 if (process.env.LOFTLINE_SKIP_TYPECHECK !== '1') {
   const tc = spawnSync('npx', ['tsc', '--noEmit', '-p', '.'], { cwd: projectRoot, stdio: 'inherit' });

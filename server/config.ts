@@ -35,6 +35,8 @@ const envSchema = z.object({
   WORKERS: z.coerce.number().int().min(0).max(16).default(1),
   /** Worker threads for DEM decoding and analyses in this process; 0 runs them on the main thread. */
   TERRAIN_THREADS: z.coerce.number().int().min(0).max(16).default(1),
+  /** Nice value of the terrain threads (0 normal … 19 lowest): analyses yield the CPU to API requests. */
+  ANALYSIS_NICE: z.coerce.number().int().min(0).max(19).default(10),
   /** Directory of the NTv2 datum-shift grids some CRSs need (BETA2007.gsb, …; Debian proj-data puts them here). */
   DATUM_GRID_DIR: z.string().min(1).default('/usr/share/proj'),
   /** Largest elevation grid an upload may declare, in pixels (2^27 = 512 MiB of float32 heights). */

@@ -61,6 +61,11 @@ export interface TerrainRunner {
   asFlown(bytes: Uint8Array, mission: unknown, photos: readonly FlownPhoto[], opts?: AnalyseMissionOptions): Promise<AsFlownCheckDocument>;
   /** Photos as flown so far against a stored plan (live coverage). */
   liveCoverage(bytes: Uint8Array, mission: unknown, plan: PlanResult, photos: FlownPhoto[]): Promise<LiveAnalysis>;
+  /**
+   * Start every thread now instead of at the first task: a process that runs analyses pays the threads' start-up
+   * (about 1 s of CPU and 100 MB each, loading the terrain code) when it boots, not beside the reads of a busy moment.
+   */
+  warm(): void;
   close(): Promise<void>;
 }
 
@@ -107,12 +112,17 @@ export function createInlineTerrainRunner(): TerrainRunner {
     analyse: (bytes, mission, onProgress, o) => analyseMission(bytes, mission, onProgress, o),
     asFlown: (bytes, mission, photos, o) => checkAsFlown(bytes, mission, photos, o),
     liveCoverage: (bytes, mission, plan, photos) => analyseLiveCoverage(bytes, mission, plan, photos, nodeInflate),
+    warm: () => {},
     close: async () => {},
   };
 }
 
 /** A pool of `threads` terrain threads (0: inline). */
-export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number; datumGridDir?: string }): TerrainRunner {
+/**
+ * A pool of terrain threads; `nice` (0 normal … 19 lowest, default 0) lowers the threads' priority so that a
+ * process's API requests keep their latency while analyses run (lowerThisThreadsPriority in terrain-thread.ts).
+ */
+export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number; datumGridDir?: string; nice?: number }): TerrainRunner {
   // the datum-shift grids in this thread (inline tasks, and CRSs the routes resolve) and, through workerData, in each terrain thread
   loadDatumGrids(opts.datumGridDir);
   installNodeCodecs();
@@ -123,7 +133,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   let closed = false;
 
   function spawn(): Slot {
-    const worker = new Worker(bootFile, { workerData: { entry: entryFile, datumGridDir: opts.datumGridDir } });
+    const worker = new Worker(bootFile, { workerData: { entry: entryFile, datumGridDir: opts.datumGridDir, nice: opts.nice ?? 0 } });
     const slot: Slot = { worker, busy: null };
     worker.unref(); // an idle pool never keeps the process alive
     worker.on('message', (m: ThreadReply) => {
@@ -207,6 +217,9 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
     analyse: (bytes, mission, onProgress, o) => run<MissionAnalysis>({ kind: 'analyse', bytes: bytes as never, mission, opts: o }, onProgress),
     asFlown: (bytes, mission, photos, o) => run<AsFlownCheckDocument>({ kind: 'as-flown', bytes, mission, photos, opts: o }),
     liveCoverage: (bytes, mission, plan, photos) => run<LiveAnalysis>({ kind: 'live-coverage', bytes, mission, plan, photos }),
+    warm() {
+      while (!closed && slots.length < opts.threads) spawn();
+    },
     async close() {
       closed = true;
       for (const p of queue.splice(0)) p.reject(new Error('The terrain pool is closed.'));

@@ -1,4 +1,6 @@
 /** Entry of a terrain thread: runs the tasks of terrain-tasks.ts on messages from terrain-pool.ts. */
+import fs from 'node:fs';
+import os from 'node:os';
 import { parentPort, workerData } from 'node:worker_threads';
 import { loadDatumGrids } from './datum-grids';
 import { installNodeCodecs } from './node-codecs';
@@ -9,6 +11,7 @@ import type { ByteRangeSource } from '../../terrain/index';
 
 const port = parentPort;
 if (!port) throw new Error('terrain-thread.ts runs only as a worker thread.');
+lowerThisThreadsPriority();
 loadDatumGrids((workerData as { datumGridDir?: string } | null)?.datumGridDir);
 installNodeCodecs();
 
@@ -59,3 +62,20 @@ port.on('message', async (msg: ThreadTask | RangeAnswer) => {
     reply({ id: task.id, ok: false, error: { name: e?.name ?? 'Error', code: e?.code, message: e?.message ?? String(err), stack: e?.stack } });
   }
 });
+
+/**
+ * Analyses are long and nobody waits on them by the millisecond; API reads are short and a reader waits for each.
+ * On Linux a thread has a nice value of its own (setpriority on its thread id; setpriority(2), "BUGS": the nice
+ * value is per thread), so this thread steps back to the nice value the pool passes (ANALYSIS_NICE, 10 by default:
+ * about a tenth of a nice-0 thread's share when both want the CPU, CFS weights 110 vs 1024, from memory) and the
+ * reads keep their latency while an analysis runs; on an idle machine the analysis still gets every free cycle.
+ * Elsewhere (no /proc/thread-self) it runs at normal priority.
+ */
+function lowerThisThreadsPriority(): void {
+  try {
+    const tid = Number(/task\/(\d+)$/.exec(fs.readlinkSync('/proc/thread-self'))?.[1]);
+    if (Number.isInteger(tid) && tid > 0) os.setPriority(tid, (workerData as { nice?: number } | null)?.nice ?? 0);
+  } catch {
+    // not Linux, or not allowed: normal priority
+  }
+}

@@ -4,9 +4,12 @@ import { createTerrainRunner, type TerrainRunner } from './terrain-pool';
 
 /** Service factory: puts `terrain` on the services (TERRAIN_THREADS threads; 0 runs inline). */
 export const terrainFactory: ServiceFactory = async (services) => {
-  const { TERRAIN_THREADS, TERRAIN_TASK_SECONDS, DATUM_GRID_DIR } = services.config.env;
-  const runner = createTerrainRunner({ threads: TERRAIN_THREADS, taskTimeoutMs: TERRAIN_TASK_SECONDS * 1000, datumGridDir: DATUM_GRID_DIR });
+  const { TERRAIN_THREADS, TERRAIN_TASK_SECONDS, DATUM_GRID_DIR, ANALYSIS_NICE } = services.config.env;
+  const runner = createTerrainRunner({ threads: TERRAIN_THREADS, taskTimeoutMs: TERRAIN_TASK_SECONDS * 1000, datumGridDir: DATUM_GRID_DIR, nice: ANALYSIS_NICE });
   services.terrain = runner;
+  // A process that runs analyses starts its threads with the server, so memory is steady from boot and the first
+  // analysis does not load the terrain code beside the reads.
+  if (services.config.env.WORKERS > 0) runner.warm();
   return () => runner.close();
 };
 

@@ -9,9 +9,16 @@ import type { RequestAuth } from './guard';
 
 export interface SessionCache {
   get(cookie: string | undefined): RequestAuth | undefined;
-  set(cookie: string | undefined, value: RequestAuth, sessionExpiresAtMs: number): void;
+  /** Call before looking a session up; pass it to `set` so a lookup that overlapped a sign-out is not kept. */
+  ticket(): number;
+  set(cookie: string | undefined, value: RequestAuth, sessionExpiresAtMs: number, ticket?: number): void;
   /** Forget the session of this cookie header (sign-out) or, without one, every session. */
   forget(cookie?: string): void;
+}
+
+/** The session token cookie's value in a Cookie header. Sign-out sends only that cookie, while reads may carry others: key by it. */
+export function sessionTokenOf(cookie: string | undefined): string | undefined {
+  return /(?:^|;\s*)((?:__Secure-)?better-auth\.session_token)=([^;]+)/.exec(cookie ?? '')?.[2];
 }
 
 export function createSessionCache(opts: { ttlMs?: number; maxEntries?: number; now?: () => number } = {}): SessionCache {
@@ -19,8 +26,8 @@ export function createSessionCache(opts: { ttlMs?: number; maxEntries?: number; 
   const maxEntries = opts.maxEntries ?? 10_000;
   const now = opts.now ?? Date.now;
   const entries = new Map<string, { value: RequestAuth; untilMs: number }>();
-  // Sign-out sends only the session token cookie, while reads may carry other cookies too: key by the token.
-  const keyOf = (cookie: string | undefined) => /(?:^|;\s*)((?:__Secure-)?better-auth\.session_token)=([^;]+)/.exec(cookie ?? '')?.[2];
+  let generation = 0;
+  const keyOf = sessionTokenOf;
   return {
     get(cookie) {
       const key = keyOf(cookie);
@@ -33,13 +40,15 @@ export function createSessionCache(opts: { ttlMs?: number; maxEntries?: number; 
       }
       return e.value;
     },
-    set(cookie, value, sessionExpiresAtMs) {
+    ticket: () => generation,
+    set(cookie, value, sessionExpiresAtMs, ticket) {
       const key = keyOf(cookie);
-      if (!key) return;
+      if (!key || (ticket !== undefined && ticket !== generation)) return;
       if (entries.size >= maxEntries) entries.delete(entries.keys().next().value!);
       entries.set(key, { value, untilMs: Math.min(now() + ttlMs, sessionExpiresAtMs) });
     },
     forget(cookie) {
+      generation++;
       if (cookie === undefined) entries.clear();
       else {
         const key = keyOf(cookie);

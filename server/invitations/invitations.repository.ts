@@ -7,6 +7,7 @@ import { and, desc, eq, gt, sql } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { auditEvent, invitation, member, organization, user } from '../../db/schema';
+import { changingMembers } from '../http/membership-cache';
 import { jobsDbOf, type JobsDb } from '../jobs/jobs.service';
 
 /** A new unguessable token (192 bits). */
@@ -99,7 +100,7 @@ export function createInvitationsRepository({ db }: { db: Db }) {
      * already); the membership and the used mark commit together, so a link can never be used twice.
      */
     async accept(q: { token: string; userId: string; email: string; now: Date }): Promise<AcceptOutcome> {
-      return db.transaction(async (tx) => {
+      return changingMembers(db, () => db.transaction(async (tx) => {
         const [row] = await tx.select().from(invitation).where(eq(invitation.id, q.token)).for('update');
         if (!row) return { ok: false, reason: 'not_found' };
         if (row.email.toLowerCase() !== q.email.toLowerCase()) return { ok: false, reason: 'other_address' };
@@ -117,7 +118,7 @@ export function createInvitationsRepository({ db }: { db: Db }) {
         await tx.insert(auditEvent).values({ teamId: row.organizationId, actorId: q.userId, action: 'invitation.accepted', fromState: 'pending', toState: 'accepted', comment: `${row.email} as ${role}` });
         const [team] = await tx.select({ name: organization.name }).from(organization).where(eq(organization.id, row.organizationId));
         return { ok: true, teamId: row.organizationId, teamName: team.name, role };
-      });
+      }));
     },
   };
 }

@@ -61,6 +61,15 @@ function toSummary(r: StatusRow & { siteId: string; reviewState: string; created
 }
 
 export function createPlansRepository({ db }: { db: Db }) {
+  // Prepared once (planned once per connection): every read of a version makes it, also when the body is cached.
+  const summaryQuery = db
+    .select(summaryCols)
+    .from(planVersion)
+    .leftJoin(user, eq(user.id, planVersion.createdBy))
+    .where(and(eq(planVersion.teamId, sql.placeholder('teamId')), eq(planVersion.planId, sql.placeholder('planId')), eq(planVersion.id, sql.placeholder('versionId'))))
+    .limit(1)
+    .prepare('plan_version_summary');
+
   /** The latest version summary and the version count of each plan. */
   async function versionFacts(planIds: string[]) {
     const out = new Map<string, { count: number; latest: VersionSummary | null }>();
@@ -156,12 +165,7 @@ export function createPlansRepository({ db }: { db: Db }) {
 
     /** One version's summary (no input, no result): a light read that says whether the full version changed. */
     async versionSummary(teamId: string, planId: string, versionId: string): Promise<VersionSummary | null> {
-      const [r] = await db
-        .select(summaryCols)
-        .from(planVersion)
-        .leftJoin(user, eq(user.id, planVersion.createdBy))
-        .where(and(eq(planVersion.teamId, teamId), eq(planVersion.planId, planId), eq(planVersion.id, versionId)))
-        .limit(1);
+      const [r] = await summaryQuery.execute({ teamId, planId, versionId });
       return r ? toSummary(r) : null;
     },
 

@@ -44,28 +44,44 @@ export function createProjectsRepository({ db }: { db: Db }) {
     return row ? toProject(row) : null;
   }
 
+  /**
+   * The list read, prepared once per shape (archive filter, search or not, sort, order; at most 36): it is every
+   * role's first read, and a prepared statement is planned once per connection instead of on every request.
+   */
+  const listQueries = new Map<string, ReturnType<typeof prepareList>>();
+  function prepareList(archived: string, search: boolean, sort: string, order: 'asc' | 'desc') {
+    const where: SQL[] = [eq(project.teamId, sql.placeholder('teamId'))];
+    if (archived === 'active') where.push(isNull(project.archivedAt));
+    if (archived === 'archived') where.push(isNotNull(project.archivedAt));
+    if (search) {
+      const p = sql.placeholder('pattern');
+      where.push(or(ilike(project.name, p), ilike(project.client, p), ilike(project.notes, p))!);
+    }
+    const col = sort === 'name' ? sql`lower(${project.name})` : sort === 'created' ? project.createdAt : project.updatedAt;
+    const dir = order === 'asc' ? asc : desc;
+    return db
+      .select({ ...getTableColumns(project), ...counts })
+      .from(project)
+      .where(and(...where))
+      .orderBy(dir(col), asc(project.id))
+      .prepare(`project_list_${archived}_${search ? 'search' : 'all'}_${sort}_${order}`);
+  }
+  function listQuery(archived: string, search: boolean, sort: string, order: 'asc' | 'desc') {
+    const key = `${archived}:${search}:${sort}:${order}`;
+    let q = listQueries.get(key);
+    if (!q) listQueries.set(key, (q = prepareList(archived, search, sort, order)));
+    return q;
+  }
+
   return {
     get,
 
     /** Projects of a team filtered by search text (name, client, notes) and archive state, sorted. */
     async list(teamId: string, query: ProjectListQuery): Promise<Project[]> {
       const q = projectListQuerySchema.parse(query);
-      const where: SQL[] = [eq(project.teamId, teamId)];
-      if (q.archived === 'active') where.push(isNull(project.archivedAt));
-      if (q.archived === 'archived') where.push(isNotNull(project.archivedAt));
-      if (q.q) {
-        const p = likePattern(q.q);
-        where.push(or(ilike(project.name, p), ilike(project.client, p), ilike(project.notes, p))!);
-      }
       // names read best A-Z; dates newest first, unless the caller says otherwise
       const order = q.order ?? (q.sort === 'name' ? 'asc' : 'desc');
-      const col = q.sort === 'name' ? sql`lower(${project.name})` : q.sort === 'created' ? project.createdAt : project.updatedAt;
-      const dir = order === 'asc' ? asc : desc;
-      const rows = await db
-        .select({ ...getTableColumns(project), ...counts })
-        .from(project)
-        .where(and(...where))
-        .orderBy(dir(col), asc(project.id));
+      const rows = await listQuery(q.archived, Boolean(q.q), q.sort, order).execute({ teamId, pattern: q.q ? likePattern(q.q) : null });
       return rows.map(toProject);
     },
 

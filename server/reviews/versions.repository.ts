@@ -1,6 +1,6 @@
 /** Plan-version lookups shared by reviews, reports, leg sheets and exports, with the pilot's signed-off-only rule in the query. */
 import { alias } from 'drizzle-orm/pg-core';
-import { and, desc, eq, type SQL } from 'drizzle-orm';
+import { and, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { flownConfirmation, plan, planVersion, project, site, user } from '../../db/schema';
@@ -96,27 +96,46 @@ export function createVersionsRepository({ db }: { db: Db }) {
     return and(...conds)!;
   }
 
+  /**
+   * The stamp read, prepared once per shape (with or without the plan id, signed-off only or not): every cached
+   * leg sheet and report read makes it, and a prepared statement is planned once per connection instead of on
+   * every request. The same conditions as `conditions`, with placeholders.
+   */
+  const stampQueries = new Map<string, ReturnType<typeof prepareStamp>>();
+  function prepareStamp(withPlan: boolean, signedOffOnly: boolean) {
+    const conds: SQL[] = [eq(planVersion.teamId, sql.placeholder('teamId')), eq(planVersion.id, sql.placeholder('versionId'))];
+    if (withPlan) conds.push(eq(planVersion.planId, sql.placeholder('planId')));
+    if (signedOffOnly) conds.push(eq(planVersion.reviewState, 'signed_off'));
+    const { input: _i, result: _r, coverage: _c, siteMetadata: _m, ...light } = selection();
+    return db
+      .select(light)
+      .from(planVersion)
+      .innerJoin(plan, eq(plan.id, planVersion.planId))
+      .innerJoin(project, eq(project.id, plan.projectId))
+      .innerJoin(site, eq(site.id, planVersion.siteId))
+      .leftJoin(creator, eq(creator.id, planVersion.createdBy))
+      .leftJoin(signer, eq(signer.id, planVersion.signedOffBy))
+      .leftJoin(flownConfirmation, eq(flownConfirmation.planVersionId, planVersion.id))
+      .leftJoin(confirmer, eq(confirmer.id, flownConfirmation.confirmedBy))
+      .where(and(...conds))
+      .limit(1)
+      .prepare(`version_stamp_${withPlan ? 'plan' : 'any'}_${signedOffOnly ? 'signed' : 'all'}`);
+  }
+  function stampQuery(withPlan: boolean, signedOffOnly: boolean) {
+    const key = `${withPlan}:${signedOffOnly}`;
+    let q = stampQueries.get(key);
+    if (!q) stampQueries.set(key, (q = prepareStamp(withPlan, signedOffOnly)));
+    return q;
+  }
+
   return {
     /**
      * What a version's derived documents (leg sheet, report) depend on besides its immutable input and result, as
      * one string, or null when the caller may not see the version: a light read that keys cached documents.
      */
     async stamp(q: { teamId: string; versionId: string; planId?: string; role: Role }): Promise<string | null> {
-      const where = conditions(q);
-      if (!where) return null;
-      const { input: _i, result: _r, coverage: _c, siteMetadata: _m, ...light } = selection();
-      const rows = await db
-        .select(light)
-        .from(planVersion)
-        .innerJoin(plan, eq(plan.id, planVersion.planId))
-        .innerJoin(project, eq(project.id, plan.projectId))
-        .innerJoin(site, eq(site.id, planVersion.siteId))
-        .leftJoin(creator, eq(creator.id, planVersion.createdBy))
-        .leftJoin(signer, eq(signer.id, planVersion.signedOffBy))
-        .leftJoin(flownConfirmation, eq(flownConfirmation.planVersionId, planVersion.id))
-      .leftJoin(confirmer, eq(confirmer.id, flownConfirmation.confirmedBy))
-        .where(where)
-        .limit(1);
+      if (!isUuid(q.versionId) || (q.planId !== undefined && !isUuid(q.planId))) return null;
+      const rows = await stampQuery(q.planId !== undefined, seesSignedOffOnly(q.role)).execute({ teamId: q.teamId, versionId: q.versionId, planId: q.planId ?? null });
       return rows[0] ? JSON.stringify(rows[0]) : null;
     },
 

@@ -6,6 +6,7 @@ import { member, organization, user } from '../../db/schema';
 import type { Auth } from '../auth/auth';
 import { demoTeam, demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from './demo-password';
+import { changingMembers } from '../http/membership-cache';
 
 export type SeedStep = (ctx: { db: Db; auth: Auth; teamId: string; userIds: Record<string, string> }) => Promise<void>;
 
@@ -21,12 +22,12 @@ export async function seedDemo(deps: { db: Db; auth: Auth; steps?: SeedStep[] })
     userIds[u.role] = row.id;
   }
   const teamId = crypto.randomUUID();
-  await db.transaction(async (tx) => {
+  await changingMembers(db, () => db.transaction(async (tx) => {
     await tx.insert(organization).values({ id: teamId, name: demoTeam.name, slug: demoTeam.slug });
     for (const u of demoUsers) {
       await tx.insert(member).values({ id: crypto.randomUUID(), organizationId: teamId, userId: userIds[u.role], role: u.role });
     }
-  });
+  }));
   for (const step of deps.steps ?? []) await step({ db, auth, teamId, userIds });
   return { created: true };
 }

@@ -4,6 +4,7 @@ import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { member, organization, user } from '../../db/schema';
+import { changingMembers } from '../http/membership-cache';
 
 export function createTeamsRepository({ db }: { db: Db }) {
   return {
@@ -21,10 +22,10 @@ export function createTeamsRepository({ db }: { db: Db }) {
     async createTeam(name: string, userId: string) {
       const id = crypto.randomUUID();
       const slug = `${name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'team'}-${id.slice(0, 6)}`;
-      await db.transaction(async (tx) => {
+      await changingMembers(db, () => db.transaction(async (tx) => {
         await tx.insert(organization).values({ id, name, slug });
         await tx.insert(member).values({ id: crypto.randomUUID(), organizationId: id, userId, role: 'owner' });
-      });
+      }));
       return { id, name, slug, role: 'owner' as Role };
     },
 
@@ -42,7 +43,7 @@ export function createTeamsRepository({ db }: { db: Db }) {
      * Owners are locked for the transaction so two concurrent demotions cannot both pass the check.
      */
     async changeMember(teamId: string, memberId: string, change: { role: Role } | { remove: true }) {
-      return db.transaction(async (tx) => {
+      return changingMembers(db, () => db.transaction(async (tx) => {
         const owners = await tx.execute<{ id: string }>(
           sql`select id from ${member} where organization_id = ${teamId} and role = 'owner' for update`,
         );
@@ -57,7 +58,7 @@ export function createTeamsRepository({ db }: { db: Db }) {
         if ('remove' in change) await tx.delete(member).where(eq(member.id, memberId));
         else await tx.update(member).set({ role: change.role }).where(eq(member.id, memberId));
         return { ok: true as const };
-      });
+      }));
     },
   };
 }

@@ -11,6 +11,36 @@ beforeAll(async () => {
 afterAll(async () => srv?.stop());
 
 describe('sign-up, sign-in and sign-out', () => {
+  it('looks a session up once for many requests that arrive together with the same cookie, and not past a sign-out', async () => {
+    const c = new ApiClient(srv.url);
+    const email = uniqueEmail('one-lookup');
+    await c.signUp(email, 'correct horse battery');
+    await c.signIn(email, 'correct horse battery');
+    // Count (and slow down) the guards' session lookups: the guard calls auth.api.getSession on each lookup.
+    const api = srv.auth.api as { getSession: (...a: unknown[]) => Promise<unknown> };
+    const real = api.getSession;
+    let lookups = 0;
+    api.getSession = async (...a: unknown[]) => {
+      lookups++;
+      await new Promise((r) => setTimeout(r, 150));
+      return real.apply(srv.auth.api, a);
+    };
+    try {
+      const answers = await Promise.all(Array.from({ length: 20 }, () => c.get('/api/me')));
+      expect(answers.map((r) => r.status)).toEqual(Array(20).fill(200));
+      expect(lookups).toBe(1);
+      // A lookup under way when the reader signs out is not shared with, nor remembered for, later requests.
+      const before = c.get('/api/me');
+      await new Promise((r) => setTimeout(r, 20));
+      expect((await c.signOut()).status).toBe(200);
+      expect((await c.get('/api/me')).status).toBe(401);
+      await before;
+      expect((await c.get('/api/me')).status).toBe(401);
+    } finally {
+      api.getSession = real;
+    }
+  });
+
   it('signs a new user up, in and out with a cookie session', async () => {
     const c = new ApiClient(srv.url);
     const email = uniqueEmail('signup');

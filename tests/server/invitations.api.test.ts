@@ -6,6 +6,7 @@ import type { Mailer } from '../../server/mail/mailer';
 import { fixturePassword, freshTeam, type FreshTeam } from '../support/fixtures';
 import { ApiClient, uniqueEmail } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { changingMembers } from '../../server/http/membership-cache';
 
 let srv: TestServer;
 let team: FreshTeam;
@@ -137,7 +138,7 @@ describe('inviting someone to a team', () => {
     // Joined by other means meanwhile: the link is refused and says so.
     const [row] = await srv.db.select().from(invitation).where(eq(invitation.id, inv.id));
     const me = (await c.get('/api/me')).body.user.id;
-    await srv.db.insert(member).values({ id: crypto.randomUUID(), organizationId: row.organizationId, userId: me, role: 'pilot' });
+    await changingMembers(srv.db, () => srv.db.insert(member).values({ id: crypto.randomUUID(), organizationId: row.organizationId, userId: me, role: 'pilot' }));
     const res = await c.post(`/api/invitations/${encodeURIComponent(tokenOf(inv.link))}/accept`, {});
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/already a member of this team \(as Pilot\)/);

@@ -34,6 +34,16 @@ describe('session cache', () => {
     expect(c.get(cookie)).toBeUndefined();
   });
 
+  it('does not keep a session looked up while that cookie signed out', () => {
+    const c = createSessionCache();
+    const ticket = c.ticket(); // a guard starts a lookup
+    c.forget('better-auth.session_token=abc.def'); // meanwhile the reader signs out
+    c.set(cookie, who, Date.now() + 60_000, ticket); // the lookup's answer arrives
+    expect(c.get(cookie)).toBeUndefined();
+    c.set(cookie, who, Date.now() + 60_000, c.ticket());
+    expect(c.get(cookie)).toEqual(who);
+  });
+
   it('holds at most maxEntries sessions', () => {
     const c = createSessionCache({ maxEntries: 3 });
     for (let i = 0; i < 5; i++) c.set(`better-auth.session_token=t${i}`, who, Date.now() + 60_000);

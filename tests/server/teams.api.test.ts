@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ApiClient, uniqueEmail } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { changingMembers } from '../../server/http/membership-cache';
 
 let srv: TestServer;
 beforeAll(async () => {
@@ -18,9 +19,11 @@ async function person(tag: string) {
 
 /** Put `email` into `teamId` with `role` (invitations come later; the table is the source of truth). */
 async function addMember(teamId: string, email: string, role: string) {
-  await srv.db.$client.query(
-    `insert into member (id, organization_id, user_id, role) select gen_random_uuid()::text, $1, id, $3 from "user" where email = $2`,
-    [teamId, email, role],
+  await changingMembers(srv.db, () =>
+    srv.db.$client.query(
+      `insert into member (id, organization_id, user_id, role) select gen_random_uuid()::text, $1, id, $3 from "user" where email = $2`,
+      [teamId, email, role],
+    ),
   );
 }
 
@@ -57,6 +60,30 @@ describe('teams and members', () => {
     expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(200); // planners may read members
     expect((await owner.c.delete(`/api/teams/${team.id}/members/${m.id}`)).status).toBe(204);
     expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(404);
+  });
+
+  it('applies a role change or a removal on the very next request, though the role was just read and remembered', async () => {
+    const owner = await person('cache-owner');
+    const other = await person('cache-other');
+    const team = (await owner.c.post('/api/teams', { name: 'Gannet Lines' })).body;
+    // Not a member yet: refused, and that answer is remembered too.
+    expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(404);
+    await addMember(team.id, other.email, 'planner');
+    expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(200);
+    const m = (await owner.c.get(`/api/teams/${team.id}/members`)).body.members.find((x: { email: string }) => x.email === other.email);
+    // Read again as planner (the role is now remembered), then demoted to pilot: pilots may not list members.
+    expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(200);
+    expect((await owner.c.patch(`/api/teams/${team.id}/members/${m.id}`, { role: 'pilot' })).status).toBe(200);
+    expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(403);
+    expect((await other.c.get(`/api/teams/${team.id}/flights`)).status).toBe(200);
+    // Promoted back: allowed at once.
+    expect((await owner.c.patch(`/api/teams/${team.id}/members/${m.id}`, { role: 'surveyor' })).status).toBe(200);
+    expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(200);
+    // Removed: the team is gone for them at once, on every route.
+    expect((await owner.c.delete(`/api/teams/${team.id}/members/${m.id}`)).status).toBe(204);
+    expect((await other.c.get(`/api/teams/${team.id}/members`)).status).toBe(404);
+    expect((await other.c.get(`/api/teams/${team.id}/flights`)).status).toBe(404);
+    expect((await other.c.get(`/api/teams/${team.id}/projects`)).status).toBe(404);
   });
 
   it('refuses to leave a team without an owner', async () => {

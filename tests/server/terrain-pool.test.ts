@@ -37,6 +37,47 @@ describe('terrain pool time limit', () => {
   });
 });
 
+/** The nice value the priority tests give their pools. */
+const ANALYSIS_THREAD_NICE = 10;
+
+describe('terrain thread priority', () => {
+  const pool = createTerrainRunner({ threads: 1, nice: ANALYSIS_THREAD_NICE });
+  afterAll(() => pool.close());
+
+  /** Nice value of each thread of this process: field 19 of /proc/self/task/TID/stat (proc(5)). */
+  const niceOfThreads = () =>
+    fs.readdirSync('/proc/self/task').map((tid) => Number(fs.readFileSync(`/proc/self/task/${tid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ')[16]));
+
+  it.runIf(process.platform === 'linux')('runs analyses at nice 10 while the rest of the process keeps its priority', async () => {
+    const before = niceOfThreads();
+    expect(before).not.toContain(ANALYSIS_THREAD_NICE);
+    expect((await pool.inspect(small())).metadata.width).toBe(9); // the thread is started
+    const after = niceOfThreads();
+    expect(after.filter((n) => n === ANALYSIS_THREAD_NICE)).toHaveLength(1);
+    expect(after.filter((n) => n === 0).length).toBeGreaterThanOrEqual(before.filter((n) => n === 0).length);
+  });
+});
+
+describe('terrain pool warm start', () => {
+  const pool = createTerrainRunner({ threads: 1, nice: ANALYSIS_THREAD_NICE });
+  afterAll(() => pool.close());
+  const threadIds = () => fs.readdirSync('/proc/self/task');
+
+  it.runIf(process.platform === 'linux')('starts its thread on warm(), before any task, and runs the first task on it', async () => {
+    const before = threadIds();
+    pool.warm();
+    const started = threadIds().filter((t) => !before.includes(t));
+    // a worker thread is one JS thread plus a few of V8's; the new ones appear at once
+    expect(started.length).toBeGreaterThan(0);
+    expect((await pool.inspect(small())).metadata.width).toBe(9);
+    pool.warm(); // already warm: no second thread
+    expect((await pool.inspect(small())).metadata.width).toBe(9);
+    const analysisThreads = threadIds().filter((t) => Number(fs.readFileSync(`/proc/self/task/${t}/stat`, 'utf8').replace(/^.*\) /, '').split(' ')[16]) === ANALYSIS_THREAD_NICE);
+    expect(analysisThreads).toHaveLength(1);
+    expect(started).toContain(analysisThreads[0]);
+  });
+});
+
 describe('analyses over a stored file read by ranges', () => {
   const pool = createTerrainRunner({ threads: 1 });
   afterAll(() => pool.close());

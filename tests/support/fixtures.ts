@@ -18,6 +18,7 @@ import type { Storage } from '../../server/storage/storage';
 import { solvePlan } from '../../terrain/solve';
 import type { PlanResultData } from '../../contracts/plan-result';
 import { ApiClient, uniqueEmail } from './http-client';
+import { changingMembers } from '../../server/http/membership-cache';
 import type { TestServer } from './test-server';
 
 export const fixturePassword = 'fixture password 1';
@@ -52,9 +53,13 @@ export async function freshTeam(srv: TestServer, tag = 'fx'): Promise<FreshTeam>
   }
   const t = await clients.owner.post('/api/teams', { name: `Fixture team ${tag}` });
   if (t.status !== 201) throw new Error(`fixture team not created: ${t.status}`);
-  for (const role of ['planner', 'surveyor', 'pilot'] as const) {
-    await srv.db.insert(member).values({ id: crypto.randomUUID(), organizationId: t.body.id, userId: users[role].id, role });
-  }
+  // Written straight to the table, as the API's own member writes do: through changingMembers, so the server's
+  // membership cache learns of it.
+  await changingMembers(srv.db, async () => {
+    for (const role of ['planner', 'surveyor', 'pilot'] as const) {
+      await srv.db.insert(member).values({ id: crypto.randomUUID(), organizationId: t.body.id, userId: users[role].id, role });
+    }
+  });
   return { teamId: t.body.id, clients, users };
 }
 
