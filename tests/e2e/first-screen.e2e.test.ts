@@ -84,4 +84,16 @@ describe.skipIf(skipWeb)('the first screen on the wire', () => {
     expect(fontsLoadedBeforeRelease).toBe(0);
     console.log(`first screen: ${scripts.length} scripts, ${(jsBytes / 1024).toFixed(0)} KiB of JavaScript on the wire; ${fonts.length} fonts, ${(fonts.reduce((s, t) => s + t.encodedBytes, 0) / 1024).toFixed(0)} KiB; form on screen after ${formAfterMs} ms with every font held back`);
   }, 120_000);
+
+  it('names the screen group an address opens in a preload header, and the sign-in screen none', async () => {
+    const pilot = await fetch(`${srv.url}/flights/00000000-0000-4000-8000-000000000000`);
+    const link = pilot.headers.get('link') ?? '';
+    const m = /^<(\/_expo\/static\/js\/web\/field-screens-[0-9a-f]{32}\.js)>; rel=preload; as=script$/.exec(link);
+    expect(m, link).not.toBeNull();
+    const group = await fetch(`${srv.url}${m![1]}`);
+    expect(group.status).toBe(200);
+    expect(await group.text()).toContain('LegSheetScreen');
+    expect((await fetch(`${srv.url}/projects`)).headers.get('link')).toMatch(/office-screens-[0-9a-f]{32}\.js>; rel=preload; as=script$/);
+    expect((await fetch(`${srv.url}/sign-in`)).headers.get('link')).toBeNull();
+  });
 });
