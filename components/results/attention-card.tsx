@@ -22,7 +22,7 @@ export function AttentionCard({ result }: { result: Pick<PlanResult, 'lines' | '
               {i.status ? <MarkerGlyph shape={statusLooks[i.status].shape} color={statusLooks[i.status].color} sizePx={13} /> : <Text variant="label" aria-hidden>⚠</Text>}
               <Text style={styles.words}>
                 {i.title}
-                {i.lines.length ? <Text variant="bodyStrong">{` — on ${lineList(i.lines)}`}</Text> : null}
+                {i.lines.length ? <Text variant="bodyStrong">{` On ${lineList(i.lines)}.`}</Text> : null}
               </Text>
             </View>
           ))}

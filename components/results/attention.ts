@@ -73,7 +73,7 @@ export function attentionItems(result: Pick<PlanResult, 'lines' | 'warnings'>): 
   }
   for (const st of ['unknown', 'height', 'gsd', 'overlap'] as const) {
     const e = byStatus.get(st);
-    if (e) out.push({ key: `photos-${st}`, title: `${plural(e.count, 'photo')}: ${statusLooks[st].label.toLowerCase()} — ${statusLooks[st].meaning}`, lines: [...e.lines], status: st });
+    if (e) out.push({ key: `photos-${st}`, title: `${statusLooks[st].label}: ${plural(e.count, 'photo')}. ${statusLooks[st].meaning}`, lines: [...e.lines], status: st });
   }
   // stretches off the band, by reason
   const byReason = new Map<string, { m: number; lines: Set<number> }>();
@@ -86,12 +86,13 @@ export function attentionItems(result: Pick<PlanResult, 'lines' | 'warnings'>): 
     }
   }
   for (const [reason, e] of byReason) {
-    out.push({ key: `unmet-${reason}`, title: `GSD band or height limit not held over ${plural(Math.round(e.m), 'metre')} of line: ${unmetWords[reason] ?? 'the altitude limits'}`, lines: [...e.lines] });
+    const length = e.m < 0.5 ? 'less than a metre' : plural(Math.round(e.m), 'metre');
+    out.push({ key: `unmet-${reason}`, title: `GSD band or height limit not held over ${length} of line: ${unmetWords[reason] ?? 'the altitude limits'}.`, lines: [...e.lines] });
   }
   // line warnings, by kind
   const byCode = new Map<string, Set<number>>();
   for (const l of result.lines) for (const w of l.warnings) byCode.set(w.code, (byCode.get(w.code) ?? new Set<number>()).add(l.index + 1));
-  for (const [code, lines] of byCode) out.push({ key: `line-${code}`, title: lineWarningWords[code] ?? 'Line warnings', lines: [...lines] });
+  for (const [code, lines] of byCode) out.push({ key: `line-${code}`, title: `${lineWarningWords[code] ?? 'Line warnings'}.`, lines: [...lines] });
   // plan-wide warnings not said above, once each
   const lineMessages = new Set(result.lines.flatMap((l) => l.warnings.map((w) => w.message)));
   for (const w of result.warnings) {
