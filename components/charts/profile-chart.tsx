@@ -17,7 +17,7 @@ function LegendItem({ look, testID }: { look: SeriesLook; testID?: string }) {
   return (
     <View style={styles.legendItem} testID={testID}>
       <View style={[styles.sample, { borderTopColor: look.color, borderTopWidth: look.widthPx + 1, borderStyle: look.style }]} />
-      <Text variant="caption">{look.label}</Text>
+      <Text variant="caption" style={styles.legendText}>{look.label}</Text>
     </View>
   );
 }
@@ -93,7 +93,8 @@ const styles = StyleSheet.create({
   wrap: { gap: space.sm },
   placeholder: { justifyContent: 'center', alignItems: 'center', backgroundColor: colors.surfaceSunken, borderRadius: radii.md },
   legend: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.lg, rowGap: space.xs },
-  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs, maxWidth: '100%' },
+  legendText: { flexShrink: 1 },
   sample: { width: space.xl, height: 0 },
   legSample: { width: 0, height: space.md, borderLeftWidth: layout.borderWidthPx, borderLeftColor: colors.lineStrong, borderStyle: 'dashed' },
   legs: { gap: space.xxs },

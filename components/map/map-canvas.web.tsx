@@ -150,12 +150,13 @@ export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, onGrab, 
     const kk = k > 0 ? k : 1;
     for (const m of markers) {
       if (!m.label) continue;
-      const at: [number, number] = [(m.at[0] * a) / kk, m.at[1] / kk];
-      const others = markers.filter((o) => o !== m).map((o) => [(o.at[0] * a) / kk, o.at[1] / kk] as [number, number]);
-      out.set(m.id, placeLabel(at, (m.sizePx ?? markerScreenPx) / 2, m.label.length * 7.5 + 4, 13, others, 7));
+      // screen pixels from the shown view's top-left corner
+      const onScreen = (p: PxPoint): [number, number] => [((p[0] - x0) * a) / kk, (p[1] - y0) / kk];
+      const others = markers.filter((o) => o !== m).map((o) => onScreen(o.at));
+      out.set(m.id, placeLabel(onScreen(m.at), (m.sizePx ?? markerScreenPx) / 2, m.label.length * 7.5 + 4, 13, others, 7, [(vw * a) / kk, vh / kk]));
     }
     return out;
-  }, [markers, k, a]);
+  }, [markers, k, a, x0, y0, vw, vh]);
 
   const bar = scale && shownWidth > 0 ? scaleBar((scale.metresPerPxX * vw) / shownWidth, Math.min(140, shownWidth * 0.4)) : null;
   const X = (x: number) => x * a;

@@ -44,9 +44,11 @@ const places: LabelPlace[] = [
 
 /**
  * The first of upper right, upper left, lower right, lower left whose label box (`widthPx` x `heightPx`, screen
- * pixels) keeps clear of every other marker by `clearPx`; when none does, the one farthest from the nearest.
+ * pixels) keeps clear of every other marker by `clearPx` and, given `bounds` (the map's width and height on
+ * screen, the marker in the same coordinates), stays on the map; when none does, the one farthest from the
+ * nearest marker among those on the map (else among all).
  */
-export function placeLabel(at: ScreenPoint, radiusPx: number, widthPx: number, heightPx: number, others: readonly ScreenPoint[], clearPx: number): LabelPlace {
+export function placeLabel(at: ScreenPoint, radiusPx: number, widthPx: number, heightPx: number, others: readonly ScreenPoint[], clearPx: number, bounds?: readonly [number, number]): LabelPlace {
   let best = places[0];
   let bestGap = -Infinity;
   for (const p of places) {
@@ -60,7 +62,9 @@ export function placeLabel(at: ScreenPoint, radiusPx: number, widthPx: number, h
       const dy = Math.max(box[1] - o[1], 0, o[1] - box[3]);
       gap = Math.min(gap, Math.hypot(dx, dy));
     }
-    if (gap >= clearPx) return p;
+    const onMap = !bounds || (box[0] >= 0 && box[1] >= 0 && box[2] <= bounds[0] && box[3] <= bounds[1]);
+    if (gap >= clearPx && onMap) return p;
+    if (!onMap) gap -= 1e9; // off the map is worse than close to a marker
     if (gap > bestGap) {
       best = p;
       bestGap = gap;

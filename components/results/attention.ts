@@ -73,7 +73,8 @@ export function attentionItems(result: Pick<PlanResult, 'lines' | 'warnings'>): 
   }
   for (const st of ['unknown', 'height', 'gsd', 'overlap'] as const) {
     const e = byStatus.get(st);
-    if (e) out.push({ key: `photos-${st}`, title: `${statusLooks[st].label}: ${plural(e.count, 'photo')}. ${statusLooks[st].meaning}`, lines: [...e.lines], status: st });
+    // the legend beside the map says what each status means; here the count and the lines
+    if (e) out.push({ key: `photos-${st}`, title: `${statusLooks[st].label}: ${plural(e.count, 'photo')}.`, lines: [...e.lines], status: st });
   }
   // stretches off the band, by reason
   const byReason = new Map<string, { m: number; lines: Set<number> }>();
@@ -85,9 +86,12 @@ export function attentionItems(result: Pick<PlanResult, 'lines' | 'warnings'>): 
       byReason.set(u.reason, e);
     }
   }
-  for (const [reason, e] of byReason) {
-    const length = e.m < 0.5 ? 'less than a metre' : plural(Math.round(e.m), 'metre');
-    out.push({ key: `unmet-${reason}`, title: `GSD band or height limit not held over ${length} of line: ${unmetWords[reason] ?? 'the altitude limits'}.`, lines: [...e.lines] });
+  // one item: the total, then each reason with its length, largest first
+  if (byReason.size > 0) {
+    const length = (m: number) => (m < 0.5 ? 'less than a metre' : `${Math.round(m).toLocaleString('en-GB')} m`);
+    const total = [...byReason.values()].reduce((t, e) => t + e.m, 0);
+    const reasons = [...byReason].sort((p, q) => q[1].m - p[1].m).map(([r, e]) => `${unmetWords[r] ?? 'the altitude limits'} (${length(e.m)})`);
+    out.push({ key: 'unmet', title: `GSD band or height limit not held over ${length(total)} of line: ${reasons.join('; ')}.`, lines: [...new Set([...byReason.values()].flatMap((e) => [...e.lines]))] });
   }
   // line warnings, by kind
   const byCode = new Map<string, Set<number>>();

@@ -156,17 +156,27 @@ function LinesList(p: LinesTableProps) {
               <Text variant="bodyStrong">
                 Line {r.number} · {formatLength(r.lengthM, p.units)} · {r.photos} photos · {r.legs} leg{r.legs === 1 ? '' : 's'}
               </Text>
-              <Text variant="caption">
-                GSD {formatGsd(r.gsdMinCm, 2, 'min')} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm, 2, 'max')} (min / median / max)
-              </Text>
-              <Text variant="caption">
-                Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side as planned · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
-              </Text>
-              <Text variant="caption" testID={`line-guaranteed-${r.number}`}>
-                {p.envelope
-                  ? `As guaranteed under ${p.envelope}: ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} forward, ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')} side`
-                  : 'Overlaps as planned only: the mission has no attitude envelope'}
-              </Text>
+              {selected ? (
+                <>
+                  <Text variant="caption">
+                    GSD {formatGsd(r.gsdMinCm, 2, 'min')} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm, 2, 'max')} (min / median / max)
+                  </Text>
+                  <Text variant="caption">
+                    Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side as planned · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
+                  </Text>
+                  <Text variant="caption" testID={`line-guaranteed-${r.number}`}>
+                    {p.envelope
+                      ? `As guaranteed under ${p.envelope}: ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} forward, ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')} side`
+                      : 'Overlaps as planned only: the mission has no attitude envelope'}
+                  </Text>
+                </>
+              ) : (
+                // an unchosen line in one line of figures against the targets; choosing it shows them all and its chart
+                <Text variant="caption" testID={`line-brief-${r.number}`}>
+                  GSD up to {formatGsd(r.gsdMaxCm, 2, 'max')} · least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} / {formatPercent(r.sideOverlapMin, 1, 'min')}
+                  {p.envelope ? ` (guaranteed ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} / ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')})` : ''} forward / side · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
+                </Text>
+              )}
               <FlaggedNote row={r} />
               {/* each note is said once: in full with the line's chart, counted here */}
               {r.warnings.length ? (

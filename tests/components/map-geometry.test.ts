@@ -131,4 +131,10 @@ describe('what a press on the area editor grabs', () => {
     expect(p).not.toEqual({ anchor: 'start', dx: 1.3, dy: -1.3 });
     expect(placeLabel([100, 100], 8, 48, 12, [[300, 300]], 8)).toEqual({ anchor: 'start', dx: 1.3, dy: -1.3 });
   });
+  it('keeps a label on the map near its edges', () => {
+    // near the left edge with a marker up and to the right: not on the left (off the map), so below right
+    expect(placeLabel([6, 100], 8, 48, 12, [[25, 85]], 8, [300, 200])).toEqual({ anchor: 'start', dx: 1.3, dy: 2.4 });
+    // near the top right corner: lower left
+    expect(placeLabel([295, 5], 8, 48, 12, [], 8, [300, 200])).toEqual({ anchor: 'end', dx: -1.3, dy: 2.4 });
+  });
 });

@@ -46,10 +46,15 @@ describe('what is wrong and where', () => {
   });
 
   it('sums the stretches off the band to the engine\'s own total, in words without reason codes', () => {
-    const items = attentionItems(result).filter((i) => i.key.startsWith('unmet-'));
-    const total = items.reduce((t, i) => t + (/less than a metre/.test(i.title) ? 0 : Number(/over ([\d,]+) metre/.exec(i.title)![1].replace(/,/g, ''))), 0);
-    expect(Math.abs(total - result.summary.unmetLengthM)).toBeLessThanOrEqual(items.length); // each rounded to the metre
-    for (const i of items) expect(i.title).not.toMatch(/climb-limit|descent-limit|max-agl|leg-limits/);
+    const items = attentionItems(result).filter((i) => i.key === 'unmet');
+    expect(items).toHaveLength(1);
+    const total = Number(/over ([\d,]+) m of line/.exec(items[0].title)![1].replace(/,/g, ''));
+    expect(Math.abs(total - result.summary.unmetLengthM)).toBeLessThanOrEqual(0.5); // rounded to the metre
+    const parts = [...items[0].title.matchAll(/\(([\d,]+) m\)/g)].reduce((t, m) => t + Number(m[1].replace(/,/g, '')), 0);
+    expect(Math.abs(parts - result.summary.unmetLengthM)).toBeLessThanOrEqual(items[0].title.split(';').length); // each part rounded
+    expect(items[0].title).not.toMatch(/climb-limit|descent-limit|max-agl|leg-limits/);
+    const unmetLines = result.lines.filter((l) => l.unmet.length > 0).map((l) => l.index + 1);
+    expect(items[0].lines.sort((a, b) => a - b)).toEqual(unmetLines);
   });
 
   it('finds nothing to say about a plan without flags, stretches or warnings, and does not change its input', () => {
