@@ -49,6 +49,21 @@ type Gesture =
   | { kind: 'press'; id: number; x0: number; y0: number; view0: ViewBox; moved: boolean; drag: DragMove | null }
   | { kind: 'pinch'; dist0: number; view0: ViewBox; anchor: [number, number] };
 
+/**
+ * Points covering the overlays (north arrow top left, zoom buttons top right, scale bar bottom left) on a map
+ * of w x h screen pixels, every 8 px, so labels keep off them as they keep off markers.
+ */
+function overlayPoints(w: number, h: number): [number, number][] {
+  const out: [number, number][] = [];
+  const fill = (x0: number, y0: number, x1: number, y1: number) => {
+    for (let x = x0; x <= x1; x += 8) for (let y = y0; y <= y1; y += 8) out.push([x, y]);
+  };
+  fill(4, 4, 32, 40);
+  fill(w - 44, 4, w - 4, 124);
+  fill(8, h - 36, 150, h - 8);
+  return out;
+}
+
 /** Sizes are given in screen pixels and scaled into map units, so markers stay readable at any zoom. */
 export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, onGrab, label, testID, crosshair, view, layers = [], georef }: MapCanvasProps) {
   const uid = useId().replace(/[^a-zA-Z0-9_-]/g, '');
@@ -152,7 +167,7 @@ export function MapCanvas({ imageUrl, widthPx, heightPx, shapes, onTap, onGrab, 
       if (!m.label) continue;
       // screen pixels from the shown view's top-left corner
       const onScreen = (p: PxPoint): [number, number] => [((p[0] - x0) * a) / kk, (p[1] - y0) / kk];
-      const others = markers.filter((o) => o !== m).map((o) => onScreen(o.at));
+      const others = [...markers.filter((o) => o !== m).map((o) => onScreen(o.at)), ...overlayPoints((vw * a) / kk, vh / kk)];
       out.set(m.id, placeLabel(onScreen(m.at), (m.sizePx ?? markerScreenPx) / 2, m.label.length * 7.5 + 4, 13, others, 7, [(vw * a) / kk, vh / kk]));
     }
     return out;

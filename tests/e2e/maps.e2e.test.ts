@@ -191,6 +191,34 @@ describe('maps of a lon/lat grid', () => {
     await context.close();
   }, 120_000);
 
+  it('zooms the phone map with a two-finger pinch about the fingers (phone, touch)', async () => {
+    const context = await browser.newContext({ viewport: viewports.phone, hasTouch: true });
+    const page = await context.newPage();
+    const pageErrors: string[] = [];
+    page.on('pageerror', (e) => pageErrors.push(e.message));
+    await signIn(page);
+    await page.goto(`${srv.url}${sitePath}`);
+    const map = page.getByTestId('site-hillshade-svg');
+    await map.waitFor();
+    await map.scrollIntoViewIfNeeded();
+    const view0 = (await map.getAttribute('data-view'))!.split(' ').map(Number);
+    const [cx, cy] = centre(await box(page, 'site-hillshade-svg'));
+    // two touch points 40 px apart moving to 120 px apart: three times closer
+    const cdp = await context.newCDPSession(page);
+    const touch = (type: string, d: number) => cdp.send('Input.dispatchTouchEvent', { type, touchPoints: type === 'touchEnd' ? [] : [{ x: cx - d, y: cy, id: 1 }, { x: cx + d, y: cy, id: 2 }] });
+    await touch('touchStart', 20);
+    for (let d = 25; d <= 60; d += 5) await touch('touchMove', d);
+    await touch('touchEnd', 60);
+    const view1 = (await map.getAttribute('data-view'))!.split(' ').map(Number);
+    expect((view0[2] - view0[0]) / (view1[2] - view1[0])).toBeCloseTo(3, 1);
+    // the point between the fingers stays where it was
+    const mid0 = (view0[0] + view0[2]) / 2;
+    expect(Math.abs((view1[0] + view1[2]) / 2 - mid0)).toBeLessThan((view0[2] - view0[0]) * 0.02);
+    await page.getByTestId('site-hillshade').screenshot({ path: path.join(shotDir, 'site-map-phone-pinched.png') });
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 90_000);
+
   it('shows the plan editor map with its scale bar, north arrow and zoom buttons (wide)', async () => {
     const { page, context, pageErrors } = await openPage(browser, viewports.wide);
     await signIn(page);
