@@ -205,7 +205,7 @@ describe('maps of a lon/lat grid', () => {
     const [cx, cy] = centre(await box(page, 'site-hillshade-svg'));
     // two touch points 40 px apart moving to 120 px apart: three times closer
     const cdp = await context.newCDPSession(page);
-    const touch = (type: string, d: number) => cdp.send('Input.dispatchTouchEvent', { type, touchPoints: type === 'touchEnd' ? [] : [{ x: cx - d, y: cy, id: 1 }, { x: cx + d, y: cy, id: 2 }] });
+    const touch = (type: 'touchStart' | 'touchMove' | 'touchEnd', d: number) => cdp.send('Input.dispatchTouchEvent', { type, touchPoints: type === 'touchEnd' ? [] : [{ x: cx - d, y: cy, id: 1 }, { x: cx + d, y: cy, id: 2 }] });
     await touch('touchStart', 20);
     for (let d = 25; d <= 60; d += 5) await touch('touchMove', d);
     await touch('touchEnd', 60);
