@@ -19,6 +19,7 @@ export interface SeriesLook {
 export const seriesLooks = {
   ground: { label: 'Ground (grid surface)', color: '#000000', style: 'solid', widthPx: 2 },
   clearance: { label: 'Clearance floor', color: '#D55E00', style: 'dashed', widthPx: 1.5 },
+  limit: { label: 'Height limit', color: '#CC79A7', style: 'dashed', widthPx: 2 },
   altitude: { label: 'Suggested altitude (legs)', color: '#0072B2', style: 'solid', widthPx: 2.5, marker: 'circle' },
   gsd: { label: 'GSD (right axis)', color: '#009E73', style: 'dotted', widthPx: 1.5, marker: 'square' },
 } as const satisfies Record<string, SeriesLook>;
@@ -28,3 +29,6 @@ export const chartInk = { axis: colors.inkMuted, grid: colors.line, legMark: col
 
 /** Dash intervals (px) for the line styles. */
 export const dashIntervals: Record<LineStyle, number[] | null> = { solid: null, dashed: [7, 4], dotted: [2, 3] };
+
+/** The height limit's own dash (long dashes, short gaps), apart from the clearance floor's. */
+export const limitDash = [14, 4];

@@ -4,7 +4,7 @@ import { StyleSheet, View } from 'react-native';
 import { Area, CartesianChart, Line, Scatter } from 'victory-native';
 import { Inter_400Regular } from '@expo-google-fonts/inter/400Regular';
 import { space } from '../theme';
-import { chartInk, dashIntervals, seriesLooks } from './chart-palette';
+import { chartInk, dashIntervals, limitDash, seriesLooks } from './chart-palette';
 import type { ProfileSeries } from './profile-series';
 
 export type ProfileChartCanvasProps = {
@@ -14,13 +14,15 @@ export type ProfileChartCanvasProps = {
   heightPx: number;
   /** Fewer ticks on narrow charts. */
   compact: boolean;
+  /** Words drawn beside the height-limit line (it names its reference), when the series has one. */
+  limitLabel?: string;
 };
 
 const fontSizePx = 11;
 /** Whole numbers without decimals; small fractional ticks with one. */
 const fmt = (v: number) => (Number.isInteger(v) || Math.abs(v) >= 10 ? v.toFixed(0) : v.toFixed(1));
 
-export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, heightPx, compact }: ProfileChartCanvasProps) {
+export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, heightPx, compact, limitLabel }: ProfileChartCanvasProps) {
   const ticks = compact ? 4 : 6;
   const font = useFont(Inter_400Regular, fontSizePx);
   const dash = (style: keyof typeof dashIntervals) => {
@@ -32,12 +34,12 @@ export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, he
       <CartesianChart
         data={series.rows}
         xKey="distance"
-        yKeys={['ground', 'clearance', 'altitude', 'gsd']}
+        yKeys={['ground', 'clearance', 'limit', 'altitude', 'gsd']}
         domain={{ x: series.distanceDomain }}
         padding={{ left: space.xs, right: space.xs, top: space.sm, bottom: space.xs }}
         xAxis={{ font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: ticks, formatXLabel: (v) => fmt(Number(v)), title: { text: `Distance along the line (${lengthUnit})`, font, color: chartInk.ink } }}
         yAxis={[
-          { yKeys: ['ground', 'clearance', 'altitude'], domain: series.heightDomain, font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: 5, formatYLabel: (v) => fmt(Number(v)), title: { text: heightTitle, font, color: chartInk.ink } },
+          { yKeys: ['ground', 'clearance', 'limit', 'altitude'], domain: series.heightDomain, font, labelColor: chartInk.axis, lineColor: chartInk.grid, tickCount: 5, formatYLabel: (v) => fmt(Number(v)), title: { text: heightTitle, font, color: chartInk.ink } },
           { yKeys: ['gsd'], axisSide: 'right', domain: series.gsdDomain, font, labelColor: chartInk.axis, lineColor: 'transparent', tickCount: 5, formatYLabel: (v) => Number(v).toFixed(2), title: { text: 'GSD (cm)', font, color: chartInk.ink } },
         ]}
       >
@@ -61,6 +63,19 @@ export default function ProfileChartCanvas({ series, lengthUnit, heightTitle, he
             <Line points={points.clearance} color={seriesLooks.clearance.color} strokeWidth={seriesLooks.clearance.widthPx} connectMissingData>
               {dash(seriesLooks.clearance.style)}
             </Line>
+            {limitLabel ? (
+              <>
+                <Line points={points.limit} color={seriesLooks.limit.color} strokeWidth={seriesLooks.limit.widthPx} connectMissingData>
+                  <DashPathEffect intervals={limitDash} />
+                </Line>
+                {font
+                  ? (() => {
+                      const first = points.limit.find((p) => typeof p.y === 'number');
+                      return first ? <SkText x={first.x + 4} y={(first.y as number) - 4} text={limitLabel} font={font} color={chartInk.ink} /> : null;
+                    })()
+                  : null}
+              </>
+            ) : null}
             <Line points={points.altitude} color={seriesLooks.altitude.color} strokeWidth={seriesLooks.altitude.widthPx} connectMissingData />
             <Scatter points={points.altitude} shape="circle" radius={3.5} color={seriesLooks.altitude.color} />
             <Line points={points.gsd} color={seriesLooks.gsd.color} strokeWidth={seriesLooks.gsd.widthPx} connectMissingData>

@@ -13,11 +13,11 @@ import { profileSeries } from './profile-series';
 // Skia, CanvasKit's loader and victory-native sit in an async chunk that only chart pages fetch.
 const SkiaChartHost = lazy(() => import('./skia-chart-host'));
 
-function LegendItem({ look }: { look: SeriesLook }) {
+function LegendItem({ look, testID }: { look: SeriesLook; testID?: string }) {
   return (
-    <View style={styles.legendItem}>
+    <View style={styles.legendItem} testID={testID}>
       <View style={[styles.sample, { borderTopColor: look.color, borderTopWidth: look.widthPx + 1, borderStyle: look.style }]} />
-      <Text variant="caption">{look.label}</Text>
+      <Text variant="caption" style={styles.legendText}>{look.label}</Text>
     </View>
   );
 }
@@ -29,19 +29,24 @@ export type ProfileChartProps = {
   /** The grid's vertical datum, named on the height axis. */
   datum: string;
   heightPx: number;
+  /** The mission's maximum height above ground (m): drawn over the ground it applies to, when given. */
+  maxAglM?: number | null;
 };
 
 /** The chart itself is a picture; the legs are also listed in words beneath it. */
-export function ProfileChart({ line, clearanceTotalM, units, datum, heightPx }: ProfileChartProps) {
+export function ProfileChart({ line, clearanceTotalM, units, datum, heightPx, maxAglM }: ProfileChartProps) {
   const [mounted, setMounted] = useState(false);
   useEffect(() => setMounted(true), []);
-  const series = useMemo(() => profileSeries(line, clearanceTotalM, units), [line, clearanceTotalM, units]);
+  const series = useMemo(() => profileSeries(line, clearanceTotalM, units, maxAglM), [line, clearanceTotalM, units, maxAglM]);
   const u = lengthUnit(units);
   const compact = heightPx < 280;
+  const hasLimit = typeof maxAglM === 'number' && maxAglM > 0;
+  // the engine's height limit is a height above the ground under the aircraft, so it follows the ground
+  const limitWords = hasLimit ? `Height limit: ${formatLength(maxAglM, units)} above ground` : null;
   // The datum can be a long name: the axis says "datum", the caption names it.
-  const props: ProfileChartCanvasProps = { series, lengthUnit: u, heightTitle: `Height above datum (${u})`, heightPx, compact };
+  const props: ProfileChartCanvasProps = { series, lengthUnit: u, heightTitle: `Height above datum (${u})`, heightPx, compact, limitLabel: limitWords ?? undefined };
   const fallback = (
-    <View style={[styles.placeholder, { height: heightPx }]}>
+    <View style={[styles.placeholder, { height: heightPx }]} testID="profile-chart-placeholder">
       <Loading label="Drawing the chart…" />
     </View>
   );
@@ -57,11 +62,16 @@ export function ProfileChart({ line, clearanceTotalM, units, datum, heightPx }: 
       )}
       <Text variant="caption" tone="muted">
         Heights above {datum}; GSD on the right-hand axis. Each photo position is a point on the GSD line.
+        {limitWords ? ` The height limit is drawn ${formatLength(maxAglM as number, units)} above the ground under each photo position (the plan's maximum height above ground), not above takeoff or the datum.` : ''}
       </Text>
       <View style={styles.legend} testID="profile-legend">
-        {Object.values(seriesLooks).map((look) => (
-          <LegendItem key={look.label} look={look} />
-        ))}
+        {Object.entries(seriesLooks).map(([key, look]) =>
+          key === 'limit' ? (
+            limitWords ? <LegendItem key={key} look={{ ...look, label: `${limitWords} (long dashes)` }} testID="profile-legend-limit" /> : null
+          ) : (
+            <LegendItem key={key} look={look} />
+          ),
+        )}
         <View style={styles.legendItem}>
           <View style={[styles.legSample]} />
           <Text variant="caption">Leg start (L1, L2 …)</Text>
@@ -83,7 +93,8 @@ const styles = StyleSheet.create({
   wrap: { gap: space.sm },
   placeholder: { justifyContent: 'center', alignItems: 'center', backgroundColor: colors.surfaceSunken, borderRadius: radii.md },
   legend: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.lg, rowGap: space.xs },
-  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  legendItem: { flexDirection: 'row', alignItems: 'center', gap: space.xs, maxWidth: '100%' },
+  legendText: { flexShrink: 1 },
   sample: { width: space.xl, height: 0 },
   legSample: { width: 0, height: space.md, borderLeftWidth: layout.borderWidthPx, borderLeftColor: colors.lineStrong, borderStyle: 'dashed' },
   legs: { gap: space.xxs },

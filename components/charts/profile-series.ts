@@ -10,6 +10,8 @@ export interface ProfileRow extends Record<string, unknown> {
   ground: number | null;
   altitude: number | null;
   clearance: number | null;
+  /** The height limit over this ground: ground + the mission's maximum height above ground (display unit). */
+  limit: number | null;
   gsd: number | null;
 }
 
@@ -44,9 +46,11 @@ export function niceDomain(lo: number, hi: number, ticks = 5): [number, number] 
 
 /**
  * Rows at every station (ground, clearance floor = ground + clearance + obstacle allowance, GSD) and at every
- * leg end (altitude), sorted by distance; heights stay in the grid's vertical datum.
+ * leg end (altitude), sorted by distance; heights stay in the grid's vertical datum. With `maxAglM`, also the
+ * height limit at every station: the engine caps the altitude at that height above the ground under it.
  */
-export function profileSeries(line: PlanLine, clearanceTotalM: number, units: UnitSystem): ProfileSeries {
+export function profileSeries(line: PlanLine, clearanceTotalM: number, units: UnitSystem, maxAglM?: number | null): ProfileSeries {
+  const hasLimit = typeof maxAglM === 'number' && Number.isFinite(maxAglM) && maxAglM > 0;
   const L = (m: number) => toDisplayLength(m, units);
   const rows: ProfileRow[] = [];
   for (const s of line.stations) {
@@ -55,18 +59,19 @@ export function profileSeries(line: PlanLine, clearanceTotalM: number, units: Un
       ground: s.groundM === null ? null : L(s.groundM),
       altitude: null,
       clearance: s.groundM === null ? null : L(s.groundM + clearanceTotalM),
+      limit: s.groundM === null || !hasLimit ? null : L(s.groundM + maxAglM),
       gsd: s.gsdCm,
     });
   }
   for (const leg of line.legs) {
-    rows.push({ distance: L(leg.start.distanceM), ground: null, altitude: L(leg.altitudeStartM), clearance: null, gsd: null });
-    rows.push({ distance: L(leg.end.distanceM), ground: null, altitude: L(leg.altitudeEndM), clearance: null, gsd: null });
+    rows.push({ distance: L(leg.start.distanceM), ground: null, altitude: L(leg.altitudeStartM), clearance: null, limit: null, gsd: null });
+    rows.push({ distance: L(leg.end.distanceM), ground: null, altitude: L(leg.altitudeEndM), clearance: null, limit: null, gsd: null });
   }
   rows.sort((a, b) => a.distance - b.distance);
   const heights: number[] = [];
   const gsds: number[] = [];
   for (const r of rows) {
-    for (const v of [r.ground, r.altitude, r.clearance]) if (v !== null) heights.push(v);
+    for (const v of [r.ground, r.altitude, r.clearance, r.limit]) if (v !== null) heights.push(v);
     if (r.gsd !== null) gsds.push(r.gsd);
   }
   const span = (vs: number[], padShare: number, fallback: [number, number]): [number, number] => {

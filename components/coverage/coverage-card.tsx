@@ -82,6 +82,7 @@ export function CoverageCard(props: CoverageCardProps) {
               shapes={v.shapes}
               layers={v.layers}
               view={props.view}
+              georef={props.georef}
               onTap={v.onMapTap}
               crosshair
               label={`Coverage map coloured by ${v.layer?.label ?? v.measure}; cells short of the spec are hatched. Tap a point to read its cell's figures.`}

@@ -48,6 +48,7 @@ export function LiveCoverageMapCard(p: LiveCoverageMapCardProps) {
                 shapes={outline}
                 layers={layers}
                 view={p.view}
+                georef={p.georef}
                 label={`Coverage as flown so far, coloured by the number of views (lighter is more, up to ${doc?.map?.viewsMax ?? 0}); ground already passed that falls short of the spec is hatched.`}
                 testID="live-map"
               />

@@ -4,6 +4,7 @@ import { FilePicker } from '../sites/file-picker';
 import { space } from '../theme';
 import { Banner, Button, ChoiceGroup, Text } from '../ui';
 import type { DrawTool } from './area-drawing';
+import type { ImageGeoref } from './image-georef';
 import { MapCanvas } from './map-canvas';
 import type { AreaDrawing } from './use-area-drawing';
 
@@ -14,6 +15,8 @@ const toolChoices: { value: DrawTool; label: string }[] = [
 
 export type AreaDrawingMapProps = {
   drawing: AreaDrawing;
+  /** Where the hillshade lies on the ground (true shape, scale bar, north arrow). */
+  georef?: ImageGeoref;
   imageUrl: string;
   widthPx: number;
   heightPx: number;
@@ -30,15 +33,15 @@ function statusLine(d: AreaDrawing['state']): string {
 }
 
 /** Taps add corners in order; "Close area" checks the ring (on the grid, not crossing itself) before accepting it. */
-export function AreaDrawingMap({ drawing, imageUrl, widthPx, heightPx, editable, fieldError }: AreaDrawingMapProps) {
+export function AreaDrawingMap({ drawing, georef, imageUrl, widthPx, heightPx, editable, fieldError }: AreaDrawingMapProps) {
   const { state } = drawing;
   const hint = !editable
     ? 'The survey area and takeoff point of this plan.'
     : state.tool === 'takeoff'
       ? 'Tap the hillshade where the aircraft takes off.'
       : state.closed
-        ? 'The area is closed. Undo reopens it; Clear starts again.'
-        : 'Tap the hillshade to add corners in order, then close the area.';
+        ? 'The area is closed. Drag a corner to move it; press one, then Remove corner, to take it out. Undo reopens the area; Clear starts again.'
+        : 'Tap the hillshade to add corners in order, then close the area. Drag a corner to move it.';
   return (
     <View style={styles.wrap} testID="area-editor">
       {editable ? (
@@ -55,6 +58,8 @@ export function AreaDrawingMap({ drawing, imageUrl, widthPx, heightPx, editable,
         heightPx={heightPx}
         shapes={drawing.shapes}
         onTap={editable ? drawing.tapPx : undefined}
+        onGrab={editable ? drawing.grab : undefined}
+        georef={georef}
         crosshair
         label={`Hillshade of the elevation grid. ${statusLine(state)}.`}
         testID="area-map"
@@ -70,6 +75,15 @@ export function AreaDrawingMap({ drawing, imageUrl, widthPx, heightPx, editable,
       {editable ? (
         <View style={styles.actions}>
           <Button label="Undo" variant="secondary" size="compact" onPress={drawing.undo} disabled={state.corners.length === 0} testID="area-undo" />
+          <Button
+            label={drawing.selectedCorner !== null ? `Remove corner ${drawing.selectedCorner + 1}` : 'Remove corner'}
+            accessibilityLabel={drawing.selectedCorner !== null ? `Remove corner ${drawing.selectedCorner + 1}` : 'Remove corner: press a corner on the map first'}
+            variant="secondary"
+            size="compact"
+            onPress={drawing.removeSelected}
+            disabled={drawing.selectedCorner === null}
+            testID="area-remove-corner"
+          />
           <Button label="Close area" variant="secondary" size="compact" onPress={drawing.close} disabled={state.closed || state.corners.length < 3} testID="area-close" />
           <Button label="Clear" variant="quiet" size="compact" onPress={drawing.clear} disabled={state.corners.length === 0} testID="area-clear" />
           <FilePicker label="Import GeoJSON or KML" accept=".geojson,.json,.kml,application/geo+json,application/vnd.google-earth.kml+xml" onPick={(f) => void drawing.importFile(f)} size="compact" testID="area-import" />

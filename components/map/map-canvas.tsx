@@ -1,6 +1,7 @@
 /** Native builds draw no map yet (Loftline ships for the web; see map-canvas.web.tsx). */
 import { EmptyState } from '../ui';
-import type { MapImageLayer, MapShape } from './map-shapes';
+import type { ImageGeoref } from './image-georef';
+import type { DragMove, MapImageLayer, MapShape, PxPoint } from './map-shapes';
 
 export type MapCanvasProps = {
   imageUrl: string;
@@ -8,11 +9,13 @@ export type MapCanvasProps = {
   heightPx: number;
   shapes: MapShape[];
   onTap?: (xPx: number, yPx: number) => void;
+  onGrab?: (xPx: number, yPx: number, toScreen: (p: PxPoint) => [number, number]) => DragMove | null;
   label: string;
   testID?: string;
   crosshair?: boolean;
   view?: readonly [number, number, number, number];
   layers?: MapImageLayer[];
+  georef?: ImageGeoref;
 };
 
 /** Says where the map can be used instead. */

@@ -3,6 +3,9 @@ import type { MarkerShape } from '../results/station-status';
 
 export type PxPoint = [number, number];
 
+/** Follows a press on the map that grabbed something (a corner, the takeoff point): each move, in image pixels. */
+export type DragMove = (xPx: number, yPx: number) => void;
+
 export type MapShape =
   | { kind: 'polygon'; id: string; points: PxPoint[]; closed: boolean; stroke: string; fill?: string; fillOpacity?: number; dashed?: boolean; widthPx?: number }
   | { kind: 'polyline'; id: string; points: PxPoint[]; stroke: string; dashed?: boolean; widthPx?: number }

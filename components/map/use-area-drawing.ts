@@ -6,7 +6,11 @@ import { checkTakeoff, ringToPolygon, type LonLat } from './area-check';
 import { drawingReducer, initialDrawing, type DrawTool } from './area-drawing';
 import { AreaImportError, parseAreaFile } from './area-import';
 import type { ImageGeoref } from './image-georef';
-import type { MapShape, PxPoint } from './map-shapes';
+import { pickHandle } from './map-handles';
+import type { DragMove, MapShape, PxPoint } from './map-shapes';
+
+/** A press this close (screen px) to a corner or the takeoff point grabs it (about a fingertip). */
+const grabReachPx = 16;
 
 export type AreaDrawing = ReturnType<typeof useAreaDrawing>;
 
@@ -20,6 +24,8 @@ export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null
     ),
   );
   const [importError, setImportError] = useState<string | null>(null);
+  /** The corner last pressed or dragged (0-based), which "Remove corner" removes. */
+  const [selectedCorner, setSelectedCorner] = useState<number | null>(null);
 
   const tapPx = useCallback(
     (xPx: number, yPx: number) => {
@@ -42,16 +48,34 @@ export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null
 
   const toPx = useCallback((p: LonLat): PxPoint => georef.toPixel(p[0], p[1]), [georef]);
 
+  /** A press on a corner (or, away from every corner, on the takeoff point) drags it; elsewhere the map pans. */
+  const grab = useCallback(
+    (xPx: number, yPx: number, toScreen: (p: PxPoint) => [number, number]): DragMove | null => {
+      const hit = pickHandle(toScreen([xPx, yPx]), state.corners.map((c) => toScreen(toPx(c))), state.takeoff ? toScreen(toPx(state.takeoff)) : null, grabReachPx);
+      if (!hit) return null;
+      setImportError(null);
+      if (hit.kind === 'corner') {
+        setSelectedCorner(hit.index);
+        return (x, y) => dispatch({ type: 'moveCorner', index: hit.index, at: georef.toLonLat(x, y) });
+      }
+      return (x, y) => dispatch({ type: 'moveTakeoff', at: georef.toLonLat(x, y) });
+    },
+    [state.corners, state.takeoff, toPx, georef],
+  );
+
   const shapes = useMemo<MapShape[]>(() => {
     const out: MapShape[] = [];
     const px = state.corners.map(toPx);
     if (px.length > 0) {
       out.push({ kind: 'polygon', id: 'area', points: px, closed: state.closed, stroke: colors.primary, fill: state.closed ? colors.primary : undefined, fillOpacity: 0.14, dashed: !state.closed, widthPx: 2.5 });
-      px.forEach((p, i) => out.push({ kind: 'marker', id: `corner-${i}`, at: p, shape: 'circle', fill: i === 0 ? colors.primary : colors.surface, stroke: colors.primary, sizePx: 10, label: String(i + 1) }));
     }
+    // the takeoff point under the corners, so a corner beside it always shows (and is what a press there grabs)
     if (state.takeoff) out.push({ kind: 'marker', id: 'takeoff', at: toPx(state.takeoff), shape: 'diamond', fill: colors.ink, stroke: colors.surface, sizePx: 16, label: 'Takeoff' });
+    px.forEach((p, i) =>
+      out.push({ kind: 'marker', id: `corner-${i}`, at: p, shape: i === selectedCorner ? 'square' : 'circle', fill: i === 0 ? colors.primary : colors.surface, stroke: colors.primary, sizePx: i === selectedCorner ? 13 : 10, label: i === selectedCorner ? `${i + 1} (chosen)` : String(i + 1) }),
+    );
     return out;
-  }, [state.corners, state.closed, state.takeoff, toPx]);
+  }, [state.corners, state.closed, state.takeoff, toPx, selectedCorner]);
 
   // Stable objects, so effects that copy them into a form run only when the drawing really changed.
   const polygon = useMemo(() => (state.closed ? ringToPolygon(state.corners) : null), [state.closed, state.corners]);
@@ -64,9 +88,19 @@ export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null
     tapPx,
     importFile,
     importError,
+    grab,
+    selectedCorner: selectedCorner !== null && selectedCorner < state.corners.length ? selectedCorner : null,
+    removeSelected: () => {
+      if (selectedCorner === null) return;
+      dispatch({ type: 'removeCorner', index: selectedCorner });
+      setSelectedCorner(null);
+    },
     undo: () => dispatch({ type: 'undo' }),
     close: () => dispatch({ type: 'close' }),
-    clear: () => dispatch({ type: 'clear' }),
+    clear: () => {
+      setSelectedCorner(null);
+      dispatch({ type: 'clear' });
+    },
     setTool: (tool: DrawTool) => dispatch({ type: 'tool', tool }),
     /** The area to save: only once closed and checked. */
     polygon,

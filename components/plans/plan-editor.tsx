@@ -27,6 +27,7 @@ export function PlanEditor({ project, site, plan }: { project: Project; site: Si
       <Heading level={2}>Survey area and takeoff</Heading>
       <AreaDrawingMap
         drawing={e.drawing}
+        georef={e.georef}
         imageUrl={site.hillshadeUrl}
         widthPx={site.hillshade.width}
         heightPx={site.hillshade.height}

@@ -1,4 +1,5 @@
 /** The flight lines: a sortable table on wide screens, a list of cards on phones; choosing a line shows its chart. */
+import type { ReactNode, Ref } from 'react';
 import { Pressable, StyleSheet, View, type PressableStateCallbackType } from 'react-native';
 import type { UnitSystem } from '../../contracts/projects';
 import { MarkerGlyph } from '../map/marker-glyph';
@@ -21,6 +22,9 @@ export type LinesTableProps = {
   layout: 'table' | 'list';
   /** The attitude envelope in words when the overlaps are also given as guaranteed; null: as planned only. */
   envelope: string | null;
+  /** In the list layout, what is shown right under the chosen line's card (its chart), and a ref to the pair. */
+  selectedDetail?: ReactNode;
+  selectedRef?: Ref<View>;
 };
 
 type Column = { key: LineSortKey; label: string; cell: (r: LineRow, u: UnitSystem) => string; flex: number };
@@ -147,29 +151,41 @@ function LinesList(p: LinesTableProps) {
           const selected = r.index === p.selected;
           return (
             // A list item holding a toggle button: the card is a control, and its pressed state says which line the chart shows.
-            <View key={r.index} role="listitem">
+            <View key={r.index} role="listitem" ref={selected ? p.selectedRef : undefined} style={styles.scrollTarget} testID={selected ? 'line-chosen' : undefined}>
             <Pressable role="button" aria-pressed={selected} onPress={() => p.onSelect(r.index)} testID={`line-row-${r.number}`} style={[styles.card, selected && styles.selected]}>
               <Text variant="bodyStrong">
                 Line {r.number} · {formatLength(r.lengthM, p.units)} · {r.photos} photos · {r.legs} leg{r.legs === 1 ? '' : 's'}
               </Text>
-              <Text variant="caption">
-                GSD {formatGsd(r.gsdMinCm, 2, 'min')} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm, 2, 'max')} (min / median / max)
-              </Text>
-              <Text variant="caption">
-                Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side as planned · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
-              </Text>
-              <Text variant="caption" testID={`line-guaranteed-${r.number}`}>
-                {p.envelope
-                  ? `As guaranteed under ${p.envelope}: ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} forward, ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')} side`
-                  : 'Overlaps as planned only: the mission has no attitude envelope'}
-              </Text>
-              <FlaggedNote row={r} />
-              {r.warnings.map((w, i) => (
-                <Text key={i} variant="caption" tone="caution">
-                  ⚠ {w}
+              {selected ? (
+                <>
+                  <Text variant="caption">
+                    GSD {formatGsd(r.gsdMinCm, 2, 'min')} / {formatGsd(r.gsdMedianCm)} / {formatGsd(r.gsdMaxCm, 2, 'max')} (min / median / max)
+                  </Text>
+                  <Text variant="caption">
+                    Least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} forward, {formatPercent(r.sideOverlapMin, 1, 'min')} side as planned · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
+                  </Text>
+                  <Text variant="caption" testID={`line-guaranteed-${r.number}`}>
+                    {p.envelope
+                      ? `As guaranteed under ${p.envelope}: ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} forward, ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')} side`
+                      : 'Overlaps as planned only: the mission has no attitude envelope'}
+                  </Text>
+                </>
+              ) : (
+                // an unchosen line in one line of figures against the targets; choosing it shows them all and its chart
+                <Text variant="caption" testID={`line-brief-${r.number}`}>
+                  GSD up to {formatGsd(r.gsdMaxCm, 2, 'max')} · least overlap {formatPercent(r.forwardOverlapMin, 1, 'min')} / {formatPercent(r.sideOverlapMin, 1, 'min')}
+                  {p.envelope ? ` (guaranteed ${formatPercent(r.forwardOverlapGuaranteedMin, 1, 'min')} / ${formatPercent(r.sideOverlapGuaranteedMin, 1, 'min')})` : ''} forward / side · lowest {formatLength(r.aglMinM, p.units, 0, 'min')} above ground
                 </Text>
-              ))}
+              )}
+              <FlaggedNote row={r} />
+              {/* each note is said once: in full with the line's chart, counted here */}
+              {r.warnings.length ? (
+                <Text variant="caption" tone="caution" testID={`line-notes-${r.number}`}>
+                  ⚠ {r.warnings.length} note{r.warnings.length === 1 ? '' : 's'} on this line{selected ? ', listed with its chart below' : ': choose the line to read them'}
+                </Text>
+              ) : null}
             </Pressable>
+            {selected ? p.selectedDetail : null}
             </View>
           );
         })}
@@ -196,5 +212,6 @@ const styles = StyleSheet.create({
   sortRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.xs },
   chip: { paddingHorizontal: space.sm, paddingVertical: space.xs, borderRadius: radii.pill, borderWidth: layout.borderWidthPx, borderColor: colors.lineStrong, minHeight: layout.compactControlPx, justifyContent: 'center' },
   chipOn: { backgroundColor: colors.primary, borderColor: colors.primary },
+  scrollTarget: { scrollMarginTop: space.sm } as object,
   card: { gap: space.xxs, padding: space.md, borderWidth: layout.borderWidthPx, borderColor: colors.line, borderRadius: radii.md, marginBottom: space.sm, backgroundColor: colors.surface },
 });

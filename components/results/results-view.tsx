@@ -1,4 +1,9 @@
-/** A finished analysis: summary, overview map with legend, lines table and the chosen line's chart (side by side when wide). */
+/**
+ * A finished analysis: what needs attention and where, the summary, the overview map with legend, the lines and
+ * the chosen line's chart (beside the table when wide; right under the chosen line's card on phones), brought into
+ * view when a line is chosen.
+ */
+import { useEffect, useRef } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { UnitSystem } from '../../contracts/projects';
 import type { PlanResult } from '../../terrain/plan';
@@ -7,7 +12,8 @@ import { useBreakpoint } from '../layout/use-breakpoint';
 import type { ImageGeoref } from '../map/image-georef';
 import { MapCanvas } from '../map/map-canvas';
 import { space } from '../theme';
-import { Banner, Card, Heading, Text } from '../ui';
+import { Card, Heading, Text } from '../ui';
+import { AttentionCard } from './attention-card';
 import { CoverageCard } from '../coverage/coverage-card';
 import { LiveCoverageMapCard } from '../coverage/live-coverage-map-card';
 import type { HillshadeInfo } from '../../contracts/sites';
@@ -25,18 +31,31 @@ export type ResultsViewProps = {
   units: UnitSystem;
   clearanceTotalM: number;
   datum: string;
+  /** The mission's maximum height above ground (m), drawn on the profile chart. */
+  maxAglM?: number | null;
   /** The version whose coverage of every ground cell is shown (with the site's hillshade placement). */
   coverage?: { teamId: string | undefined; planId: string; versionId: string; hillshade: HillshadeInfo; signedOff?: boolean };
 };
 
-/** Standing cautions are shown once by FlightCautions; the rest of the engine's warnings are listed in its words. */
-const standingCodes = new Set(['bare-earth', 'local-rules', 'wind']);
+/** Scroll a React Native Web view (a DOM element on the web) into view. */
+function bringIntoView(el: unknown, block: 'start' | 'nearest'): void {
+  const node = el as { scrollIntoView?: (o: ScrollIntoViewOptions) => void } | null;
+  node?.scrollIntoView?.({ block, behavior: 'auto' });
+}
 
-export function ResultsView({ result, area, georef, hillshadeUrl, units, clearanceTotalM, datum, coverage }: ResultsViewProps) {
+export function ResultsView({ result, area, georef, hillshadeUrl, units, clearanceTotalM, datum, coverage, maxAglM }: ResultsViewProps) {
   const v = useResultsView(result, area, georef);
   const breakpoint = useBreakpoint();
   const wide = breakpoint === 'wide';
-  const warnings = result.warnings.filter((w) => !standingCodes.has(w.code));
+  const chartRef = useRef<View>(null);
+  const chosenRef = useRef<View>(null);
+  // a line chosen by a tap (card, row or map) brings its chart into view, once it is drawn in its new place
+  useEffect(() => {
+    if (v.chooseCount === 0) return;
+    const id = requestAnimationFrame(() => (wide ? bringIntoView(chartRef.current, 'nearest') : bringIntoView(chosenRef.current, 'start')));
+    return () => cancelAnimationFrame(id);
+  }, [v.chooseCount, wide]);
+  const notes = v.rows.find((r) => r.index === v.selected)?.warnings ?? [];
 
   const overview = (
     <Card testID="results-overview">
@@ -44,7 +63,7 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
       <Text variant="caption" tone="muted">
         Every photo position, by whether it meets the targets over the real terrain. Tap a line to see its profile.
       </Text>
-      <MapCanvas imageUrl={hillshadeUrl} widthPx={georef.widthPx} heightPx={georef.heightPx} shapes={v.shapes} view={v.view} onTap={v.onMapTap} label={`Overview of ${result.lines.length} flight lines and ${result.summary.photoCount} photo positions on the hillshade.`} testID="results-map" />
+      <MapCanvas imageUrl={hillshadeUrl} widthPx={georef.widthPx} heightPx={georef.heightPx} shapes={v.shapes} view={v.view} onTap={v.onMapTap} georef={georef} label={`Overview of ${result.lines.length} flight lines and ${result.summary.photoCount} photo positions on the hillshade.`} testID="results-map" />
       <StatusLegend counts={v.counts} compact={!wide} />
     </Card>
   );
@@ -57,9 +76,21 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
     </>
   ) : null;
   const chart = v.selectedLine ? (
-    <Card testID="results-chart">
-      <ProfileChart line={v.selectedLine} clearanceTotalM={clearanceTotalM} units={units} datum={datum} heightPx={wide ? 300 : 240} />
-    </Card>
+    <View ref={chartRef}>
+      <Card testID="results-chart">
+        <ProfileChart line={v.selectedLine} clearanceTotalM={clearanceTotalM} units={units} datum={datum} heightPx={wide ? 300 : 240} maxAglM={maxAglM} />
+        {notes.length ? (
+          <View role="list" aria-label={`Notes on line ${v.selectedLine.index + 1}`} style={styles.notes} testID="results-chart-notes">
+            <Heading level={3}>Notes on line {v.selectedLine.index + 1}</Heading>
+            {notes.map((n, i) => (
+              <Text key={i} role="listitem" variant="caption">
+                ⚠ {n}
+              </Text>
+            ))}
+          </View>
+        ) : null}
+      </Card>
+    </View>
   ) : null;
   const table = (
     <Card testID="results-lines">
@@ -67,23 +98,14 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
       <Text variant="caption" tone="muted">
         In flying order; the mark by each line is the worst status among its photos (see the legend). Choose a line to see its profile.
       </Text>
-      <LinesTable layout={wide ? 'table' : 'list'} rows={v.rows} units={units} sortKey={v.sortKey} sortDir={v.sortDir} onSort={v.onSort} selected={v.selected} onSelect={v.setSelected} envelope={result.summary.overlapEnvelope?.words ?? null} />
+      <LinesTable layout={wide ? 'table' : 'list'} rows={v.rows} units={units} sortKey={v.sortKey} sortDir={v.sortDir} onSort={v.onSort} selected={v.selected} onSelect={v.choose} envelope={result.summary.overlapEnvelope?.words ?? null} selectedDetail={wide ? undefined : chart} selectedRef={chosenRef} />
     </Card>
   );
-  const extras = (
-    <>
-      {result.headingAdvice ? <HeadingAdvice advice={result.headingAdvice} units={units} /> : null}
-      {warnings.length > 0 ? (
-        <Banner tone="caution" title="Warnings for this plan" testID="plan-warnings">
-          {warnings.map((w) => (
-            <Text key={`${w.code}-${w.message}`}>• {w.message}</Text>
-          ))}
-        </Banner>
-      ) : null}
-    </>
-  );
+  // the engine's warnings are said once, in the summary of what needs attention at the top
+  const extras = result.headingAdvice ? <HeadingAdvice advice={result.headingAdvice} units={units} /> : null;
   return (
     <View style={styles.body} testID="results-view">
+      <AttentionCard result={result} />
       <SummaryFigures summary={result.summary} units={units} />
       {wide ? (
         <View style={styles.row}>
@@ -100,9 +122,8 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
       ) : (
         <>
           {overview}
-          {proof}
-          {chart}
           {table}
+          {proof}
           {extras}
         </>
       )}
@@ -115,4 +136,5 @@ const styles = StyleSheet.create({
   row: { flexDirection: 'row', gap: space.xl, alignItems: 'flex-start' },
   left: { flex: 4, minWidth: 0, gap: space.xl },
   right: { flex: 6, minWidth: 0, gap: space.xl },
+  notes: { gap: space.xs },
 });

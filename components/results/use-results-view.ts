@@ -20,6 +20,12 @@ export function useResultsView(result: PlanResult, area: number[][][] | null, ge
   const [sortKey, setSortKey] = useState<LineSortKey>('number');
   const [sortDir, setSortDir] = useState<'asc' | 'desc'>('asc');
   const [selected, setSelected] = useState<number | null>(() => firstLineToShow(result));
+  /** How many times a person chose a line (the screen brings the chart into view on each). */
+  const [chooseCount, setChooseCount] = useState(0);
+  const choose = (index: number) => {
+    setSelected(index);
+    setChooseCount((n) => n + 1);
+  };
   const rows = useMemo(() => lineRows(result.lines), [result]);
   const sorted = useMemo(() => sortLineRows(rows, sortKey, sortDir), [rows, sortKey, sortDir]);
   const counts = useMemo(() => countStatuses(result.lines.flatMap((l) => l.stations)), [result]);
@@ -34,8 +40,8 @@ export function useResultsView(result: PlanResult, area: number[][][] | null, ge
   };
   const onMapTap = (xPx: number, yPx: number) => {
     const hit = nearestLine(result, georef, [xPx, yPx], tapReachPx * ((view[2] - view[0]) / 600));
-    if (hit !== null) setSelected(hit);
+    if (hit !== null) choose(hit);
   };
   const selectedLine = result.lines.find((l) => l.index === selected) ?? null;
-  return { rows: sorted, sortKey, sortDir, onSort, selected, setSelected, selectedLine, counts, shapes, view, onMapTap };
+  return { rows: sorted, sortKey, sortDir, onSort, selected, setSelected, choose, chooseCount, selectedLine, counts, shapes, view, onMapTap };
 }

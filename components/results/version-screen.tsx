@@ -2,6 +2,7 @@
 import { useLocalSearchParams } from 'expo-router';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo } from 'react';
+import { MISSION_DEFAULTS } from '../../terrain/mission';
 import { errorMessage } from '../api/api-error';
 import { hillshadeGeoref } from '../map/image-georef';
 import { analysisLabels } from '../plans/versions-list';
@@ -19,7 +20,7 @@ import { AsFlownCard } from '../as-flown/as-flown-card';
 import { SolvedCard } from './solved-card';
 import { FlownConfirmationCard } from '../reviews/flown-confirmation-card';
 
-type MissionSnapshot = { area?: { coordinates: number[][][] }; clearanceM?: number; obstacleAllowanceM?: number };
+type MissionSnapshot = { area?: { coordinates: number[][][] }; clearanceM?: number; obstacleAllowanceM?: number; maxAglM?: number };
 
 /** Route /projects/:projectId/plans/:planId/versions/:versionId. */
 export function VersionScreen() {
@@ -79,6 +80,7 @@ export function VersionScreen() {
             hillshadeUrl={site.data.hillshadeUrl}
             units={project.data?.units ?? 'metric'}
             clearanceTotalM={clearanceTotalM}
+            maxAglM={mission.maxAglM ?? MISSION_DEFAULTS.maxAglM}
             datum={site.data.verticalDatum}
             coverage={{ teamId: team?.id, planId: String(planId), versionId: String(versionId), hillshade: site.data.hillshade, signedOff: v.reviewState === 'signed_off' }}
           />

@@ -4,6 +4,8 @@ import { StyleSheet, View } from 'react-native';
 import { can } from '../../contracts/roles';
 import { errorMessage } from '../api/api-error';
 import { useBreakpoint } from '../layout/use-breakpoint';
+import { useMemo } from 'react';
+import { hillshadeGeoref } from '../map/image-georef';
 import { MapCanvas } from '../map/map-canvas';
 import { useProject } from '../projects/projects.queries';
 import { RequirePermission } from '../team/require-permission';
@@ -23,6 +25,7 @@ export function SiteScreen() {
   const project = useProject(team?.id, projectId);
   const site = useSite(team?.id, projectId, siteId);
   const s = site.data;
+  const georef = useMemo(() => (s ? hillshadeGeoref(s.hillshade, s.metadata.crs.proj4) : null), [s]);
   const wide = useBreakpoint() === 'wide';
   return (
     <Screen
@@ -51,6 +54,7 @@ export function SiteScreen() {
                 widthPx={s.hillshade.width}
                 heightPx={s.hillshade.height}
                 shapes={[]}
+                georef={georef ?? undefined}
                 label={`Hillshade preview of ${s.name}, lit from the north-west.`}
                 testID="site-hillshade"
               />

@@ -1,7 +1,7 @@
 import { DOMParser } from '@xmldom/xmldom';
 import { describe, expect, it } from 'vitest';
 import { checkArea, checkTakeoff, openRing, ringToPolygon, type LonLat } from '../../components/map/area-check';
-import { drawingReducer, initialDrawing } from '../../components/map/area-drawing';
+import { drawingReducer, initialDrawing, type DrawingState } from '../../components/map/area-drawing';
 import { AreaImportError, parseAreaFile, parseGeoJsonArea, parseKmlArea } from '../../components/map/area-import';
 import { boundsGeoref } from '../../components/map/image-georef';
 
@@ -91,6 +91,45 @@ describe('drawingReducer', () => {
     s = reduce(s, { type: 'undo' });
     expect(s.closed).toBe(false);
     expect(s.corners).toHaveLength(4);
+  });
+
+  it('moves a corner of a closed area and keeps it closed while it passes the checks, leaving the takeoff point where it was', () => {
+    let s: DrawingState = { ...initialDrawing(square, [10.002, 45.002]), tool: 'takeoff' };
+    s = reduce(s, { type: 'moveCorner', index: 0, at: [10.001, 45.0015] });
+    expect(s.corners[0]).toEqual([10.001, 45.0015]);
+    expect(s.corners.slice(1)).toEqual(square.slice(1));
+    expect(s.closed).toBe(true);
+    expect(s.takeoff).toEqual([10.002, 45.002]);
+  });
+
+  it('opens the area with the crossing message when a moved corner makes it cross itself, and closes it again once moved back', () => {
+    let s = initialDrawing(square);
+    s = reduce(s, { type: 'moveCorner', index: 0, at: [10.009, 45.005] }); // corner 1 past the far side: the outline crosses
+    expect(s.closed).toBe(false);
+    expect(s.problem?.code).toBe('crosses-itself');
+    expect(s.problem?.message).toMatch(/Move or remove corners/);
+    expect(reduce(s, { type: 'tap', at: [10.005, 45.005] }).corners).toHaveLength(4); // stray taps add nothing meanwhile
+    s = reduce(s, { type: 'moveCorner', index: 0, at: square[0] });
+    expect(s.closed).toBe(true);
+    expect(s.problem).toBeNull();
+  });
+
+  it('removes a chosen corner, rechecking a closed area; below three corners the area is open', () => {
+    const five: LonLat[] = [...square.slice(0, 2), [10.009, 45.005], ...square.slice(2)];
+    let s = initialDrawing(five);
+    s = reduce(s, { type: 'removeCorner', index: 2 });
+    expect(s.corners).toEqual(square);
+    expect(s.closed).toBe(true);
+    s = reduce(reduce(s, { type: 'removeCorner', index: 0 }), { type: 'removeCorner', index: 0 });
+    expect(s.corners).toHaveLength(2);
+    expect(s.closed).toBe(false);
+    expect(reduce(s, { type: 'removeCorner', index: 7 })).toBe(s);
+  });
+
+  it('moves the takeoff point by dragging, whatever the tool', () => {
+    const s = reduce({ ...initialDrawing(square, [10.001, 45.001]), tool: 'area' }, { type: 'moveTakeoff', at: [10.003, 45.003] });
+    expect(s.takeoff).toEqual([10.003, 45.003]);
+    expect(s.corners).toEqual(square);
   });
 
   it('refuses an imported area that leaves the grid and keeps the previous drawing', () => {

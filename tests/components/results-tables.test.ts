@@ -146,6 +146,22 @@ describe('profileSeries', () => {
     expect(ft.gsdDomain).toEqual(m.gsdDomain);
   });
 
+  it('draws the height limit the maximum height above ground over the ground under each photo, and never above an altitude the engine capped there', () => {
+    const line = result.lines[0];
+    const none = profileSeries(line, 30, 'metric');
+    expect(none.rows.every((r) => r.limit === null)).toBe(true);
+    const p = profileSeries(line, 30, 'metric', 120);
+    const grounds = p.rows.filter((r) => r.ground !== null);
+    for (const r of grounds) expect(r.limit! - r.ground!).toBeCloseTo(120, 9);
+    // the engine's own figure per station: height above ground never beyond the limit unless flagged above-max-agl
+    for (const s of line.stations) if (s.aglM !== null && !s.flags.some((f) => f.code === 'above-max-agl')) expect(s.aglM).toBeLessThanOrEqual(120 + 1e-6);
+    for (const r of p.rows) if (r.limit !== null) expect(r.limit).toBeLessThanOrEqual(p.heightDomain[1]);
+    const ft = profileSeries(line, 30, 'imperial', 120);
+    ft.rows.forEach((r, i) => {
+      if (r.limit !== null) expect(r.limit).toBeCloseTo(p.rows[i].limit! / 0.3048, 6);
+    });
+  });
+
   it('keeps every plotted value inside the axis domains', () => {
     for (const line of result.lines) {
       const p = profileSeries(line, 30, 'metric');
