@@ -9,12 +9,16 @@ import { space } from '../theme';
 import { Banner, Card, Heading, Text } from '../ui';
 import { LegCard } from './leg-card';
 import { formatLatLon } from './leg-format';
+import { lineAnchorId } from './line-index';
 
 /** testID line-N. */
 export function SheetLine({ line, units, datumName }: { line: SheetLineData; units: UnitSystem; datumName: string }) {
   return (
     <Card testID={`line-${line.number}`}>
-      <Heading level={2}>Line {line.number}</Heading>
+      {/* The line index scrolls to this anchor. */}
+      <View nativeID={lineAnchorId(line.number)}>
+        <Heading level={2}>Line {line.number}</Heading>
+      </View>
       <Text variant="bodyStrong">
         Heading {formatHeading(line.headingDeg)} · {formatLength(line.lengthM, units)} · {formatDuration(line.timeS)} · {formatCount(line.photoCount)} photos
       </Text>

@@ -29,6 +29,9 @@ export function nameFromFile(fileName: string): string {
   return fileName.replace(/\.[^.]+$/, '').replace(/[_]+/g, ' ').trim().slice(0, 120);
 }
 
+/** Said under the file picker when Upload is pressed with no file chosen. */
+export const noFileMessage = 'No file chosen yet: press "Choose a GeoTIFF…" and pick the elevation grid (.tif or .tiff), then press Upload again.';
+
 export function useSiteUpload(projectId: string) {
   const { team } = useCurrentTeam();
   const router = useRouter();
@@ -51,13 +54,10 @@ export function useSiteUpload(projectId: string) {
     if (!current || (file && current === nameFromFile(file.name))) form.setValue('name', nameFromFile(f.name), { shouldValidate: true });
   };
 
-  const submit = form.handleSubmit(async (fields) => {
+  const submitFields = form.handleSubmit(async (fields) => {
     setRefusal(null);
     setDuplicateOf(null);
-    if (!file) {
-      setFileError('Choose a GeoTIFF elevation grid to upload.');
-      return;
-    }
+    if (!file) return;
     try {
       const site = await upload.mutateAsync({ file, fields: { ...fields, verticalDatum: fields.verticalDatum === datumFromFile ? null : fields.verticalDatum } });
       router.replace(`/projects/${projectId}/sites/${site.id}`);
@@ -67,6 +67,12 @@ export function useSiteUpload(projectId: string) {
       setDuplicateOf(e instanceof DuplicateSiteError ? e.existingSiteId : null);
     }
   });
+
+  /** The missing file is named at once, beside the field messages, not only after every field is right. */
+  const submit = async () => {
+    if (!file) setFileError(noFileMessage);
+    await submitFields();
+  };
 
   return { form, file, fileError, pick, submit, refusal, duplicateOf, progress: upload.progress, busy: upload.isPending };
 }
