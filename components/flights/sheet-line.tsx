@@ -14,28 +14,28 @@ import { lineAnchorId } from './line-index';
 /** testID line-N. */
 export function SheetLine({ line, units, datumName }: { line: SheetLineData; units: UnitSystem; datumName: string }) {
   return (
-    <Card testID={`line-${line.number}`}>
-      {/* The line index scrolls to this anchor. */}
-      <View nativeID={lineAnchorId(line.number)}>
+    // The line index scrolls to this anchor: the whole card comes to the top.
+    <View nativeID={lineAnchorId(line.number)}>
+      <Card testID={`line-${line.number}`}>
         <Heading level={2}>Line {line.number}</Heading>
-      </View>
-      <Text variant="bodyStrong">
-        Heading {formatHeading(line.headingDeg)} · {formatLength(line.lengthM, units)} · {formatDuration(line.timeS)} · {formatCount(line.photoCount)} photos
-      </Text>
-      <Text tone="muted">
-        From {formatLatLon(line.start)} to {formatLatLon(line.end)}
-      </Text>
-      {line.warnings.length ? (
-        <Banner tone="caution" title="On this line">
-          <BulletList items={line.warnings} tone="caution" />
-        </Banner>
-      ) : null}
-      <View style={styles.legs}>
-        {line.legs.map((leg) => (
-          <LegCard key={leg.number} leg={leg} lineNumber={line.number} units={units} datumName={datumName} />
-        ))}
-      </View>
-    </Card>
+        <Text variant="bodyStrong">
+          Heading {formatHeading(line.headingDeg)} · {formatLength(line.lengthM, units)} · {formatDuration(line.timeS)} · {formatCount(line.photoCount)} photos
+        </Text>
+        <Text tone="muted">
+          From {formatLatLon(line.start)} to {formatLatLon(line.end)}
+        </Text>
+        {line.warnings.length ? (
+          <Banner tone="caution" title="On this line">
+            <BulletList items={line.warnings} tone="caution" />
+          </Banner>
+        ) : null}
+        <View style={styles.legs}>
+          {line.legs.map((leg) => (
+            <LegCard key={leg.number} leg={leg} lineNumber={line.number} units={units} datumName={datumName} />
+          ))}
+        </View>
+      </Card>
+    </View>
   );
 }
 

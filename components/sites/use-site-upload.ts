@@ -8,6 +8,7 @@ import { errorMessage } from '../api/api-error';
 import { useCurrentTeam } from '../team/current-team-context';
 import { surfaceKinds } from './site-shape';
 import { DuplicateSiteError, useUploadSite } from './sites.queries';
+import { noFileMessage } from './site-upload-words';
 
 /** Vertical datums offered as one tap; anything else is typed in. */
 export const datumPresets = ['EGM96 geoid (EPSG:5773)', 'EGM2008 geoid (EPSG:3855)', 'WGS 84 ellipsoid'] as const;
@@ -28,9 +29,6 @@ export const geotiffAccept = '.tif,.tiff,image/tiff,image/geotiff';
 export function nameFromFile(fileName: string): string {
   return fileName.replace(/\.[^.]+$/, '').replace(/[_]+/g, ' ').trim().slice(0, 120);
 }
-
-/** Said under the file picker when Upload is pressed with no file chosen. */
-export const noFileMessage = 'No file chosen yet: press "Choose a GeoTIFF…" and pick the elevation grid (.tif or .tiff), then press Upload again.';
 
 export function useSiteUpload(projectId: string) {
   const { team } = useCurrentTeam();

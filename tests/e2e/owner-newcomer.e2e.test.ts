@@ -9,7 +9,7 @@ import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { emptyEnduranceMessage } from '../../components/plans/plan-form-schema';
-import { noFileMessage } from '../../components/sites/use-site-upload';
+import { noFileMessage } from '../../components/sites/site-upload-words';
 import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
 import { createVersion, eventually, fixturePassword, freshTeam, type FreshTeam, type VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
