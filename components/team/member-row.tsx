@@ -49,22 +49,24 @@ export function MemberRow({ member, isSelf, manage, busy, onRoleChange, onRemove
             testID={`member-role-${member.email}`}
           />
           {proposed ? (
-            <View style={styles.confirm} testID={`member-role-confirm-${member.email}`}>
+            <View style={styles.roleConfirm} testID={`member-role-confirm-${member.email}`}>
               <Text variant="caption">
                 Make {member.name} {roleLabels[proposed].toLowerCase()} instead of {roleLabels[member.role].toLowerCase()}? {roleSummaries[proposed]}
               </Text>
-              <Button
-                label={`Make ${roleLabels[proposed].toLowerCase()}`}
-                size="compact"
-                busy={busy}
-                accessibilityLabel={`Confirm: make ${member.name} ${roleLabels[proposed].toLowerCase()}`}
-                testID={`member-role-apply-${member.email}`}
-                onPress={() => {
-                  setProposed(null);
-                  onRoleChange(proposed);
-                }}
-              />
-              <Button label={`Keep ${roleLabels[member.role].toLowerCase()}`} variant="quiet" size="compact" onPress={() => setProposed(null)} testID={`member-role-keep-${member.email}`} />
+              <View style={styles.confirm}>
+                <Button
+                  label={`Make ${roleLabels[proposed].toLowerCase()}`}
+                  size="compact"
+                  busy={busy}
+                  accessibilityLabel={`Confirm: make ${member.name} ${roleLabels[proposed].toLowerCase()}`}
+                  testID={`member-role-apply-${member.email}`}
+                  onPress={() => {
+                    setProposed(null);
+                    onRoleChange(proposed);
+                  }}
+                />
+                <Button label={`Keep ${roleLabels[member.role].toLowerCase()}`} variant="quiet" size="compact" onPress={() => setProposed(null)} testID={`member-role-keep-${member.email}`} />
+              </View>
             </View>
           ) : null}
           {confirming ? (
@@ -109,5 +111,7 @@ const styles = StyleSheet.create({
   nameLine: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
   controls: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', justifyContent: 'space-between', gap: space.md },
   confirm: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
+  // The question takes the row's whole width so it wraps on a phone, with its two answers under it.
+  roleConfirm: { flexBasis: '100%', flexShrink: 1, gap: space.sm },
   removeButton: { alignSelf: 'flex-start' },
 });

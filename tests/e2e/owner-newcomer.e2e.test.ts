@@ -70,6 +70,11 @@ describe.skipIf(skipWeb)('owner and newcomer', () => {
         const confirm = page.getByTestId(`member-role-confirm-${pilot}`);
         await confirm.waitFor();
         expect(await confirm.textContent()).toContain(`Make ${team.users.pilot.name} ${next} instead of ${before}?`);
+        // The question and both answers fit the window (on a phone too): nothing is cut off at the card's edge.
+        for (const id of [`member-role-confirm-${pilot}`, `member-role-apply-${pilot}`, `member-role-keep-${pilot}`]) {
+          const box = (await page.getByTestId(id).boundingBox())!;
+          expect(box.x + box.width, id).toBeLessThanOrEqual(viewport.width);
+        }
         await shootWhole(page, `${size}-team-role-confirm.png`);
         // The tap alone changed nothing; "Keep" puts the picker back.
         expect(await roleOnServer(pilot)).toBe(before);
