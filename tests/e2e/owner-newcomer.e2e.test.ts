@@ -80,13 +80,13 @@ describe.skipIf(skipWeb)('owner and newcomer', () => {
         expect(await roleOnServer(pilot)).toBe(before);
         await page.getByTestId(`member-role-keep-${pilot}`).click();
         await expect(confirm.count()).resolves.toBe(0);
-        await expect(page.getByTestId(`member-role-${pilot}-${before}`).getAttribute('aria-checked')).resolves.toBe('true');
+        await expect.poll(() => page.getByTestId(`member-role-${pilot}-${before}`).getAttribute('aria-checked')).toBe('true');
         expect(await roleOnServer(pilot)).toBe(before);
 
         await page.getByTestId(`member-role-${pilot}-${next}`).click();
         await page.getByTestId(`member-role-apply-${pilot}`).click();
         await eventually(async () => (await roleOnServer(pilot)) === next, 10_000, `the role to become ${next}`);
-        await expect(page.getByTestId(`member-role-${pilot}-${next}`).getAttribute('aria-checked')).resolves.toBe('true');
+        await expect.poll(() => page.getByTestId(`member-role-${pilot}-${next}`).getAttribute('aria-checked')).toBe('true');
         expect(pageErrors).toEqual([]);
       } finally {
         await context.close();
