@@ -14,6 +14,7 @@ import { registerInvitationRoutes } from './invitations/invitations.routes';
 import { registerOutboxRoutes } from './mail/outbox.routes';
 import { registerReportRoutes } from './reports/reports.routes';
 import { registerReviewRoutes } from './reviews/reviews.routes';
+import { registerWorkRoutes } from './work/work.routes';
 
 export type RouteGroup = (api: Router, ctx: { guards: Guards; services: Services }) => void;
 
@@ -31,4 +32,5 @@ export const routeGroups: RouteGroup[] = [
   registerMissionItemRoutes,
   registerAsFlownRoutes,
   registerCoverageRoutes,
+  registerWorkRoutes,
 ];

@@ -10,3 +10,4 @@ export { SiteScreen } from '../sites/site-screen';
 export { SiteUploadScreen } from '../sites/site-upload-screen';
 export { MembersScreen } from '../team/members-screen';
 export { TeamsScreen } from '../team/teams-screen';
+export { WorkScreen } from '../work/work-screen';

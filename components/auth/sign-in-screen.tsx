@@ -6,7 +6,7 @@ import { AuthFrame } from './auth-frame';
 import { DemoAccounts } from './demo-accounts';
 import { SignInForm, type SignInPrefill } from './sign-in-form';
 
-/** After a sign-up the server does not sign the user in; `?created=1` explains what to do next. */
+/** After a sign-up whose immediate sign-in was refused (the address had an account already), `?created=1` explains what to do next. */
 export function SignInScreen() {
   const { created } = useLocalSearchParams<{ created?: string }>();
   const [prefill, setPrefill] = useState<SignInPrefill | null>(null);
@@ -25,7 +25,7 @@ export function SignInScreen() {
         <Banner
           tone="success"
           testID="sign-up-done"
-          message="Thanks. If that address was new, your account is ready: sign in with it below. If it already had an account, sign in with its existing password."
+          message="Not signed in with that password. If that address already had an account, sign in below with its own password."
         />
       ) : null}
       <SignInForm prefill={prefill} />

@@ -1,18 +1,23 @@
 /** The sign-up form: name, e-mail and a new password, with the password rules shown before the user types. */
 import { zodResolver } from '@hookform/resolvers/zod';
+import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { passwordRules, signUpSchema, type SignUp } from '../../contracts/auth';
+import { meKeys } from '../api/me.queries';
 import { space } from '../theme';
 import { Banner, Button, FormTextField } from '../ui';
 import { authClient, authFailureFrom } from './auth-client';
 
 /**
  * The server answers a sign-up the same way whether or not the address already has an account, and does not sign
- * the user in, so the confirmation is worded to fit both cases and points to the sign-in form.
+ * the user in; so the form signs in at once with what was just typed, and nobody types the address and password
+ * twice. Only when that sign-in is refused (the address already had an account with another password) does
+ * `onDone` run, whose confirmation is worded to fit both cases and points to the sign-in form.
  */
 export function SignUpForm({ onDone }: { onDone: () => void }) {
+  const queryClient = useQueryClient();
   const [failure, setFailure] = useState<string | null>(null);
   const { control, handleSubmit, formState } = useForm<SignUp>({
     resolver: zodResolver(signUpSchema),
@@ -25,6 +30,12 @@ export function SignUpForm({ onDone }: { onDone: () => void }) {
     const refused = authFailureFrom(error);
     if (refused) {
       setFailure(refused.message);
+      return;
+    }
+    const signedIn = await authClient.signIn.email({ email: values.email, password: values.password });
+    if (!signedIn.error) {
+      // The signed-out layout (or the invitation page) follows the session query into the app.
+      await queryClient.refetchQueries({ queryKey: meKeys.all });
       return;
     }
     onDone();

@@ -4,7 +4,9 @@ import type { FlightSummary } from '../../contracts/flights';
 import { formatDay } from '../projects/format-date';
 import { formatCount, formatDuration } from '../projects/units';
 import { colors, layout, space } from '../theme';
-import { LinkPressable, Text } from '../ui';
+import { Badge, LinkPressable, Text } from '../ui';
+import { reviewStateLabels } from '../../contracts/reviews';
+import { reviewStateTones } from '../reviews/review-state';
 
 /** The whole row is one link to the leg sheet (testID flight-<versionId>). */
 export function FlightRow({ flight, last }: { flight: FlightSummary; last: boolean }) {
@@ -15,9 +17,13 @@ export function FlightRow({ flight, last }: { flight: FlightSummary; last: boole
       style={(s) => [styles.row, !last && styles.divider, (s.hovered || s.pressed) && styles.hover]}
     >
       <View style={styles.texts}>
-        <Text variant="title" tone="primary">
-          {flight.planName} · version {flight.number}
-        </Text>
+        <View style={styles.titleLine}>
+          <Text variant="title" tone="primary">
+            {flight.planName} · version {flight.number}
+          </Text>
+          {/* Only signed-off versions are listed; the state is said in words all the same, as in every list. */}
+          <Badge label={reviewStateLabels.signed_off} tone={reviewStateTones.signed_off} testID={`flight-state-${flight.versionId}`} />
+        </View>
         <Text>
           {flight.projectName} for {flight.client}
         </Text>
@@ -37,4 +43,5 @@ const styles = StyleSheet.create({
   divider: { borderBottomWidth: layout.borderWidthPx, borderBottomColor: colors.line },
   hover: { backgroundColor: colors.surfaceSunken },
   texts: { gap: space.xxs },
+  titleLine: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
 });

@@ -15,6 +15,7 @@ import { AsFlownCard } from '../as-flown/as-flown-card';
 import { BatteryPlanCard } from './battery-plan-card';
 import { ExportLinks } from './export-links';
 import { formatLatLon } from './leg-format';
+import { LineIndexCard } from './line-index-card';
 import { LiveCoverageCard } from './live-coverage-card';
 import { MissionItemsCard } from './mission-items-card';
 import { OfflineNotice } from './offline-notice';
@@ -63,6 +64,8 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
         <Banner tone="danger" title="Not signed off: do not fly from this sheet" testID="leg-sheet-not-signed" message="Only a signed-off version is meant for flight. This one is still with the planner and surveyor." />
       )}
       <FlightCautions />
+      {/* The sheet runs to many screens; the index puts every line within one tap of the top. */}
+      <LineIndexCard sheet={sheet} />
       {sheet.warnings.length ? (
         <Banner tone="caution" title="Warnings from the analysis" testID="leg-sheet-warnings">
           <BulletList items={sheet.warnings} tone="caution" />

@@ -9,29 +9,33 @@ import { space } from '../theme';
 import { Banner, Card, Heading, Text } from '../ui';
 import { LegCard } from './leg-card';
 import { formatLatLon } from './leg-format';
+import { lineAnchorId } from './line-index';
 
 /** testID line-N. */
 export function SheetLine({ line, units, datumName }: { line: SheetLineData; units: UnitSystem; datumName: string }) {
   return (
-    <Card testID={`line-${line.number}`}>
-      <Heading level={2}>Line {line.number}</Heading>
-      <Text variant="bodyStrong">
-        Heading {formatHeading(line.headingDeg)} · {formatLength(line.lengthM, units)} · {formatDuration(line.timeS)} · {formatCount(line.photoCount)} photos
-      </Text>
-      <Text tone="muted">
-        From {formatLatLon(line.start)} to {formatLatLon(line.end)}
-      </Text>
-      {line.warnings.length ? (
-        <Banner tone="caution" title="On this line">
-          <BulletList items={line.warnings} tone="caution" />
-        </Banner>
-      ) : null}
-      <View style={styles.legs}>
-        {line.legs.map((leg) => (
-          <LegCard key={leg.number} leg={leg} lineNumber={line.number} units={units} datumName={datumName} />
-        ))}
-      </View>
-    </Card>
+    // The line index scrolls to this anchor: the whole card comes to the top.
+    <View nativeID={lineAnchorId(line.number)}>
+      <Card testID={`line-${line.number}`}>
+        <Heading level={2}>Line {line.number}</Heading>
+        <Text variant="bodyStrong">
+          Heading {formatHeading(line.headingDeg)} · {formatLength(line.lengthM, units)} · {formatDuration(line.timeS)} · {formatCount(line.photoCount)} photos
+        </Text>
+        <Text tone="muted">
+          From {formatLatLon(line.start)} to {formatLatLon(line.end)}
+        </Text>
+        {line.warnings.length ? (
+          <Banner tone="caution" title="On this line">
+            <BulletList items={line.warnings} tone="caution" />
+          </Banner>
+        ) : null}
+        <View style={styles.legs}>
+          {line.legs.map((leg) => (
+            <LegCard key={leg.number} leg={leg} lineNumber={line.number} units={units} datumName={datumName} />
+          ))}
+        </View>
+      </Card>
+    </View>
   );
 }
 

@@ -104,7 +104,7 @@ function SignedOutInvite() {
         you can join.
       </Text>
       {created ? (
-        <Banner tone="success" testID="invite-account-created" message="Account ready if that address was new. Now sign in with it to see the invitation." />
+        <Banner tone="success" testID="invite-account-created" message="Not signed in with that password. If that address already had an account, sign in below with its own password to see the invitation." />
       ) : null}
       {mode === 'sign-in' ? (
         <SignInForm />

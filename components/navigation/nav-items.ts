@@ -1,7 +1,7 @@
 /** The signed-in area's navigation items and which of them a role sees. */
 import { can, type Permission, type Role } from '../../contracts/roles';
 
-export type NavKey = 'projects' | 'flights' | 'team' | 'profile';
+export type NavKey = 'work' | 'projects' | 'flights' | 'team' | 'profile';
 
 export type NavItem = {
   key: NavKey;
@@ -15,6 +15,8 @@ export type NavItem = {
 
 /** All items in display order. */
 export const navItems: readonly NavItem[] = [
+  // What waits for the person (reviews, returned versions, flights); a pilot's waiting work is the Flights list itself.
+  { key: 'work', label: 'Work', href: '/work', permission: 'project:read', testID: 'nav-work' },
   { key: 'projects', label: 'Projects', href: '/projects', permission: 'project:read', testID: 'nav-projects' },
   { key: 'flights', label: 'Flights', href: '/flights', permission: 'flight:read', testID: 'nav-flights' },
   { key: 'team', label: 'Team', href: '/team', permission: 'member:read', testID: 'nav-team' },
@@ -26,10 +28,13 @@ export function navItemsFor(role: Role | null | undefined): NavItem[] {
   return navItems.filter((item) => item.permission === null || can(role, item.permission));
 }
 
-/** Where a role lands after sign-in: projects for those who read them, the flights list for pilots. */
-export function homeFor(role: Role | null | undefined): '/projects' | '/flights' | '/teams' {
+/**
+ * Where a role lands after sign-in: the work list (what waits for them) for those who read projects, the flights
+ * list (signed-off versions, ready to fly, also kept on the device for offline use) for pilots.
+ */
+export function homeFor(role: Role | null | undefined): '/work' | '/flights' | '/teams' {
   if (!role) return '/teams';
-  return can(role, 'project:read') ? '/projects' : '/flights';
+  return can(role, 'project:read') ? '/work' : '/flights';
 }
 
 /** The item whose section contains `pathname` (e.g. /projects/abc belongs to Projects), or null. */

@@ -1,4 +1,6 @@
 /** The plan form: a name and the mission, checked by the very schema the API uses (contracts/mission.ts). */
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { FieldErrors, Resolver } from 'react-hook-form';
 import { z } from 'zod';
 import { missionSchema } from '../../contracts/mission';
 import { MISSION_DEFAULTS } from '../../terrain/mission';
@@ -13,6 +15,23 @@ export type PlanFormOut = z.output<typeof planFormSchema>;
 
 /** The preset a new plan starts with (a 1-inch, 20 MP, 8.8 mm survey camera class). */
 export const defaultCamera: Camera = { ...CAMERA_PRESETS[1].camera };
+/** Said under an emptied endurance field: the battery plan rests on it, so the form never fills it in unseen. */
+export const emptyEnduranceMessage = 'Enter the endurance per battery in minutes: the battery plan on the leg sheet is built from it.';
+
+const schemaResolver = zodResolver(planFormSchema);
+
+/**
+ * The mission schema, plus one rule of the form's own: the API fills an absent endurance with its default, but a
+ * field the planner emptied is refused with a message instead of being replaced silently.
+ */
+export const planFormResolver: Resolver<PlanFormIn, unknown, PlanFormOut> = async (values, context, options) => {
+  const result = await schemaResolver(values, context, options);
+  if (values.mission?.enduranceMin !== undefined) return result;
+  const errors = (result.errors ?? {}) as FieldErrors<PlanFormIn>;
+  const mission = { ...(errors.mission ?? {}), enduranceMin: { type: 'required', message: emptyEnduranceMessage } };
+  return { values: {}, errors: { ...errors, mission } as FieldErrors<PlanFormIn> };
+};
+
 /** A new plan's target GSD: 3 cm is a common survey figure (common practice). */
 export const defaultTargetGsdCm = 3;
 

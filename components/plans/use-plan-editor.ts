@@ -1,5 +1,4 @@
 /** The plan editor's logic: the form (mission schema), the drawing synced into it, save, run, and server refusals. */
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'expo-router';
 import { useEffect, useMemo, useState } from 'react';
 import { useForm, type FieldPath } from 'react-hook-form';
@@ -12,7 +11,7 @@ import { useAreaDrawing } from '../map/use-area-drawing';
 import type { Site } from '../sites/site-shape';
 import { useCurrentTeam } from '../team/current-team-context';
 import type { Plan } from './plan-shape';
-import { formPathOf, planFormDefaults, planFormSchema, type PlanFormIn, type PlanFormOut } from './plan-form-schema';
+import { formPathOf, planFormDefaults, planFormResolver, type PlanFormIn, type PlanFormOut } from './plan-form-schema';
 import { useCreatePlan, useRunPlan, useUpdatePlan } from './plans.queries';
 
 export type PlanEditorInput = { project: Project; site: Site; plan: Plan | null };
@@ -30,7 +29,7 @@ export function usePlanEditor({ project, site, plan }: PlanEditorInput) {
   const runPlan = useRunPlan(teamId);
 
   const form = useForm<PlanFormIn, unknown, PlanFormOut>({
-    resolver: zodResolver(planFormSchema),
+    resolver: planFormResolver,
     defaultValues: planFormDefaults(plan?.name ?? `${site.name} plan`, plan?.input),
     mode: 'onTouched',
   });

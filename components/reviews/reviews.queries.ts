@@ -53,6 +53,7 @@ export function useReviewAction(teamId: string, planId: string, versionId: strin
         queryClient.invalidateQueries({ queryKey: ['plans', teamId] }),
         queryClient.invalidateQueries({ queryKey: ['flights', teamId] }),
         queryClient.invalidateQueries({ queryKey: ['reports', teamId] }),
+        queryClient.invalidateQueries({ queryKey: ['work', teamId] }),
       ]);
     },
   });

@@ -8,6 +8,7 @@ import { errorMessage } from '../api/api-error';
 import { useCurrentTeam } from '../team/current-team-context';
 import { surfaceKinds } from './site-shape';
 import { DuplicateSiteError, useUploadSite } from './sites.queries';
+import { noFileMessage } from './site-upload-words';
 
 /** Vertical datums offered as one tap; anything else is typed in. */
 export const datumPresets = ['EGM96 geoid (EPSG:5773)', 'EGM2008 geoid (EPSG:3855)', 'WGS 84 ellipsoid'] as const;
@@ -51,13 +52,10 @@ export function useSiteUpload(projectId: string) {
     if (!current || (file && current === nameFromFile(file.name))) form.setValue('name', nameFromFile(f.name), { shouldValidate: true });
   };
 
-  const submit = form.handleSubmit(async (fields) => {
+  const submitFields = form.handleSubmit(async (fields) => {
     setRefusal(null);
     setDuplicateOf(null);
-    if (!file) {
-      setFileError('Choose a GeoTIFF elevation grid to upload.');
-      return;
-    }
+    if (!file) return;
     try {
       const site = await upload.mutateAsync({ file, fields: { ...fields, verticalDatum: fields.verticalDatum === datumFromFile ? null : fields.verticalDatum } });
       router.replace(`/projects/${projectId}/sites/${site.id}`);
@@ -67,6 +65,12 @@ export function useSiteUpload(projectId: string) {
       setDuplicateOf(e instanceof DuplicateSiteError ? e.existingSiteId : null);
     }
   });
+
+  /** The missing file is named at once, beside the field messages, not only after every field is right. */
+  const submit = async () => {
+    if (!file) setFileError(noFileMessage);
+    await submitFields();
+  };
 
   return { form, file, fileError, pick, submit, refusal, duplicateOf, progress: upload.progress, busy: upload.isPending };
 }

@@ -10,7 +10,7 @@ import path from 'node:path';
 const scriptDir = path.join('_expo', 'static', 'js', 'web');
 const groupOf = (urlPath: string): 'field' | 'office' | null => {
   if (/^\/flights(\/|$)/.test(urlPath)) return 'field';
-  if (/^\/(projects|team|teams|profile|outbox)(\/|$)/.test(urlPath)) return 'office';
+  if (/^\/(work|projects|team|teams|profile|outbox)(\/|$)/.test(urlPath)) return 'office';
   return null;
 };
 

@@ -81,6 +81,7 @@ function screensFor(role: Role | null): Record<string, string> {
   if (role === 'pilot') return common;
   return {
     ...common,
+    work: '/work',
     projects: '/projects',
     project: `/projects/${draft.projectId}`,
     site: `/projects/${draft.projectId}/sites/${draft.siteId}`,

@@ -102,6 +102,10 @@ describe.skipIf(skipWeb)('keyboard-only paths', () => {
     const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signInByKeys(page, 'planner');
+      // A planner's home is the work list; Projects is one Tab stop away in the navigation.
+      await expectFocusOnHeading(page, /^Work$/);
+      await tabTo(page, 'nav-projects');
+      await page.keyboard.press('Enter');
       await expectFocusOnHeading(page, /^Projects$/);
       await tabTo(page, `project-link-Hollin Fell quarry survey`);
       // Two fixture projects share the name; the one focused first is whichever sorts first: follow it.
@@ -123,7 +127,11 @@ describe.skipIf(skipWeb)('keyboard-only paths', () => {
     const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signInByKeys(page, 'surveyor');
-      await expectFocusOnHeading(page, /^Projects$/);
+      // The home is the work list: the version in review is reached with Tab and opened with Enter.
+      await expectFocusOnHeading(page, /^Work$/);
+      await tabTo(page, `work-review-${inReview.versionId}`, 150);
+      await page.keyboard.press('Enter');
+      await page.waitForURL((u) => u.pathname === `/projects/${inReview.projectId}/plans/${inReview.planId}/versions/${inReview.versionId}`);
       // The project's plan list says which plan waits for review, without opening it.
       await page.goto(`${srv.url}/projects/${inReview.projectId}`);
       await expect.poll(() => page.getByTestId('plan-review-Keys: west bench in review').textContent()).toBe('In review');
@@ -165,7 +173,7 @@ describe.skipIf(skipWeb)('keyboard-only paths', () => {
     const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signInByKeys(page, 'owner');
-      await expectFocusOnHeading(page, /^Projects$/);
+      await expectFocusOnHeading(page, /^Work$/);
       await tabTo(page, 'nav-team');
       await page.keyboard.press('Enter');
       await expectFocusOnHeading(page, /^Team$/);

@@ -88,6 +88,9 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('the planner workflow o
     const { context, page, pageErrors } = await openPage(browser, viewport);
     try {
       await signIn(page, planner.email);
+      // Home is the work list; the projects are one tap away.
+      await page.getByTestId('work-screen').waitFor();
+      await page.getByTestId('nav-projects').click();
       await page.getByTestId('projects-screen').waitFor();
 
       // 1. A new project, found again by searching for its client.
@@ -213,6 +216,9 @@ describe.skipIf(skipWeb)('a surveyor', () => {
     const { context, page, pageErrors } = await openPage(browser, viewports.wide);
     try {
       await signIn(page, surveyor.email);
+      // Home is the work list; the projects are one tap away.
+      await page.getByTestId('work-screen').waitFor();
+      await page.getByTestId('nav-projects').click();
       await page.getByTestId('projects-screen').waitFor();
       await page.getByTestId('projects-list').waitFor();
       await expect(page.getByTestId('new-project').count()).resolves.toBe(0);

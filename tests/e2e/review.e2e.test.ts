@@ -296,7 +296,7 @@ describe.skipIf(skipWeb)('invitations and the development outbox', () => {
     }
   }, 90_000);
 
-  it('the invited person signs up and in from the link at 390 px, sees team and role, and joins as a pilot', async () => {
+  it('the invited person signs up from the link at 390 px (signed in at once, nothing typed twice), sees team and role, and joins as a pilot', async () => {
     const { context, page, pageErrors } = await openPage(browser, viewports.phone);
     try {
       const url = new URL(link);
@@ -308,16 +308,16 @@ describe.skipIf(skipWeb)('invitations and the development outbox', () => {
       await page.getByTestId('sign-up-email').fill(invited);
       await page.getByTestId('sign-up-password').fill('heather ridge lantern');
       await page.getByTestId('sign-up-submit').click();
-      await page.getByTestId('invite-account-created').waitFor();
-      await page.getByTestId('sign-in-email').fill(invited);
-      await page.getByTestId('sign-in-password').fill('heather ridge lantern');
-      await page.getByTestId('sign-in-submit').click();
+      // Signed in with what was just typed: the address and password are not asked for a second time.
       await page.getByTestId('invite-offer').waitFor();
+      await expect(page.getByTestId('sign-in-email').count()).resolves.toBe(0);
+      await expect(page.getByTestId('invite-signed-in-as').textContent()).resolves.toBe(`Signed in as ${invited}.`);
       await expect(page.getByTestId('invite-role-offered').textContent()).resolves.toBe('Pilot');
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
       await shootWhole(page, 'phone-invite-offer.png');
       await page.getByTestId('invite-accept').click();
       await page.waitForURL((u) => u.pathname === '/flights');
+      await expect(page.getByTestId(`flight-state-${version.versionId}`).textContent()).resolves.toBe('Signed off');
       await page.getByTestId(`flight-${version.versionId}`).waitFor();
       await expect(page.getByTestId('current-team-role').textContent()).resolves.toBe('Pilot');
       expect(pageErrors).toEqual([]);

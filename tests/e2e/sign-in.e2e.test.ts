@@ -12,7 +12,7 @@ import { demoPassword } from '../../server/seed/demo-password';
 import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/test-server';
 
-const navIds = ['nav-projects', 'nav-flights', 'nav-team', 'nav-profile'] as const;
+const navIds = ['nav-work', 'nav-projects', 'nav-flights', 'nav-team', 'nav-profile'] as const;
 type NavId = (typeof navIds)[number];
 
 /**
@@ -20,13 +20,14 @@ type NavId = (typeof navIds)[number];
  * surveyor read projects and members; a pilot reads only signed-off plans), not derived from the app's own code.
  */
 const expected: Record<Role, { nav: NavId[]; home: string; roleLabel: string }> = {
-  owner: { nav: ['nav-projects', 'nav-flights', 'nav-team', 'nav-profile'], home: '/projects', roleLabel: 'Owner' },
-  planner: { nav: ['nav-projects', 'nav-flights', 'nav-team', 'nav-profile'], home: '/projects', roleLabel: 'Planner' },
-  surveyor: { nav: ['nav-projects', 'nav-flights', 'nav-team', 'nav-profile'], home: '/projects', roleLabel: 'Surveyor' },
+  owner: { nav: ['nav-work', 'nav-projects', 'nav-flights', 'nav-team', 'nav-profile'], home: '/work', roleLabel: 'Owner' },
+  planner: { nav: ['nav-work', 'nav-projects', 'nav-flights', 'nav-team', 'nav-profile'], home: '/work', roleLabel: 'Planner' },
+  surveyor: { nav: ['nav-work', 'nav-projects', 'nav-flights', 'nav-team', 'nav-profile'], home: '/work', roleLabel: 'Surveyor' },
   pilot: { nav: ['nav-flights', 'nav-profile'], home: '/flights', roleLabel: 'Pilot' },
 };
 
 const hrefOf: Record<NavId, string> = {
+  'nav-work': '/work',
   'nav-projects': '/projects',
   'nav-flights': '/flights',
   'nav-team': '/team',

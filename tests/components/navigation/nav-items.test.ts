@@ -7,9 +7,9 @@ const keysFor = (role: Parameters<typeof navItemsFor>[0]) => navItemsFor(role).m
 describe('navItemsFor', () => {
   // Expected menus per role, written out from the role table in the shared domain notes (owner, planner and
   // surveyor read projects and members; a pilot reads only signed-off plans).
-  it('gives the owner, planner and surveyor Projects, Flights, Team and Profile, in that order', () => {
+  it('gives the owner, planner and surveyor Work, Projects, Flights, Team and Profile, in that order', () => {
     for (const role of ['owner', 'planner', 'surveyor'] as const) {
-      expect(keysFor(role)).toEqual(['projects', 'flights', 'team', 'profile']);
+      expect(keysFor(role)).toEqual(['work', 'projects', 'flights', 'team', 'profile']);
     }
   });
 
@@ -32,7 +32,7 @@ describe('navItemsFor', () => {
   });
 
   it('uses the test ids the end-to-end tests look for', () => {
-    expect(navItems.map((i) => i.testID)).toEqual(['nav-projects', 'nav-flights', 'nav-team', 'nav-profile']);
+    expect(navItems.map((i) => i.testID)).toEqual(['nav-work', 'nav-projects', 'nav-flights', 'nav-team', 'nav-profile']);
   });
 
   it('does not mutate the shared item list', () => {
@@ -43,10 +43,10 @@ describe('navItemsFor', () => {
 });
 
 describe('homeFor', () => {
-  it('lands roles that read projects on /projects', () => {
-    expect(homeFor('owner')).toBe('/projects');
-    expect(homeFor('planner')).toBe('/projects');
-    expect(homeFor('surveyor')).toBe('/projects');
+  it('lands roles that read projects on their work list, /work', () => {
+    expect(homeFor('owner')).toBe('/work');
+    expect(homeFor('planner')).toBe('/work');
+    expect(homeFor('surveyor')).toBe('/work');
   });
 
   it('lands a pilot on /flights', () => {
@@ -63,6 +63,7 @@ describe('activeNavKey', () => {
     expect(activeNavKey('/projects')).toBe('projects');
     expect(activeNavKey('/projects/7f3a/sites')).toBe('projects');
     expect(activeNavKey('/flights')).toBe('flights');
+    expect(activeNavKey('/work')).toBe('work');
   });
 
   it('keeps /team and /teams apart (the switcher is not the members list)', () => {

@@ -1,0 +1,94 @@
+/**
+ * The leg sheet's line index in Chromium against the real web build and API: the demo pilot opens the seeded
+ * signed-off flight at 390x844 and 1440x900, finds one entry per line near the top of the sheet (number, legs,
+ * photos, start height above takeoff as the API gives it), and a tap on the last entry brings that line's card to
+ * the top of the screen. Screenshots go to .artifacts/screenshots/leg-sheet-index/.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoUsers } from '../../contracts/demo-team';
+import type { LegSheet } from '../../contracts/flights';
+import { demoPassword } from '../../server/seed/demo-password';
+import { launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { demoClients, demoTeamId } from '../support/demo';
+import { startTestServer, type TestServer } from '../support/test-server';
+
+const shotDir = path.join(screenshotDir, 'leg-sheet-index');
+const skipWeb = process.env.LOFTLINE_SKIP_WEB === '1';
+
+let srv: TestServer;
+let browser: Browser;
+let sheet: LegSheet;
+
+beforeAll(async () => {
+  if (!process.env.LOFTLINE_WEB_DIST && !skipWeb) throw new Error('LOFTLINE_WEB_DIST is not set: run the browser tests through `npm test`.');
+  fs.mkdirSync(shotDir, { recursive: true });
+  srv = await startTestServer();
+  browser = await launchBrowser();
+  const teamId = await demoTeamId(srv);
+  const pilot = (await demoClients(srv)).pilot;
+  const flights = (await pilot.get(`/api/teams/${teamId}/flights`)).body.flights as { versionId: string; lineCount: number }[];
+  // The seeded signed-off plan; other suites may add flights of their own, so take the one with the most lines.
+  const flight = [...flights].sort((a, b) => b.lineCount - a.lineCount)[0];
+  expect(flight, 'the seeded demo must hold a signed-off version').toBeDefined();
+  sheet = (await pilot.get(`/api/teams/${teamId}/flights/${flight!.versionId}/leg-sheet`)).body as LegSheet;
+  expect(sheet.lines.length).toBeGreaterThan(2);
+}, 60_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await srv?.stop();
+});
+
+async function signIn(page: Page): Promise<void> {
+  await page.goto(`${srv.url}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === 'pilot')!.email);
+  await page.getByTestId('sign-in-password').fill(demoPassword);
+  await page.getByTestId('sign-in-submit').click();
+  await page.getByTestId('nav-profile').waitFor();
+}
+
+describe.skipIf(skipWeb)('the line index of the leg sheet', () => {
+  for (const [size, viewport] of Object.entries(viewports)) {
+    it(`lists every line at the top and jumps to the one tapped (${viewport.width} px)`, async () => {
+      const { context, page, pageErrors } = await openPage(browser, viewport);
+      try {
+        await signIn(page);
+        await page.goto(`${srv.url}/flights/${sheet.version.id}`);
+        const index = page.getByTestId('line-index');
+        await index.waitFor();
+        await expect(page.locator('[data-testid^="line-index-"]').count()).resolves.toBe(sheet.lines.length);
+
+        // Each entry: number, legs, photos and the first leg's start altitude with its reference (whole metres).
+        for (const line of [sheet.lines[0]!, sheet.lines[sheet.lines.length - 1]!]) {
+          const text = (await page.getByTestId(`line-index-${line.number}`).textContent()) ?? '';
+          const legs = line.legs.length;
+          expect(text).toContain(`Line ${line.number}`);
+          expect(text).toContain(`${legs} ${legs === 1 ? 'leg' : 'legs'} · ${line.photoCount.toLocaleString('en-GB')} photos`);
+          const start = Math.round(line.legs[0]!.altitudeAboveTakeoffM.start);
+          expect(text).toContain(`starts ${start.toLocaleString('en-GB')} m above takeoff`);
+        }
+        // The index sits at the top: it starts within the first two screens, before line 1's card and the cautions stay above it.
+        const indexTop = (await index.boundingBox())!.y;
+        expect(indexTop).toBeLessThan(viewport.height * 2);
+        expect((await page.getByTestId('flight-cautions').boundingBox())!.y).toBeLessThan(indexTop);
+        await page.screenshot({ path: path.join(shotDir, `${size}-leg-sheet-index.png`) });
+
+        const last = sheet.lines[sheet.lines.length - 1]!;
+        const card = page.getByTestId(`line-${last.number}`);
+        expect((await card.boundingBox())!.y).toBeGreaterThan(viewport.height);
+        await page.getByTestId(`line-index-${last.number}`).click();
+        await expect
+          .poll(async () => (await card.boundingBox())!.y, { timeout: 5_000 })
+          .toBeLessThan(viewport.height / 2);
+        expect((await card.boundingBox())!.y).toBeGreaterThanOrEqual(-1);
+        await page.screenshot({ path: path.join(shotDir, `${size}-leg-sheet-after-jump.png`) });
+        expect(pageErrors).toEqual([]);
+      } finally {
+        await context.close();
+      }
+    }, 90_000);
+  }
+});
