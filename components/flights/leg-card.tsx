@@ -42,8 +42,8 @@ export function LegCard({ leg, lineNumber, units, datumName }: LegCardProps) {
           { key: 'gsd', label: 'GSD', value: formatGsdRange(leg.gsdCm) },
           { key: 'length', label: 'Length', value: formatLength(leg.lengthM, units) },
           { key: 'time', label: 'Time', value: formatDuration(leg.timeS) },
-          { key: 'start', label: `Start (${formatLength(leg.start.distanceM, units)})`, value: formatLatLon(leg.start) },
-          { key: 'end', label: `End (${formatLength(leg.end.distanceM, units)})`, value: formatLatLon(leg.end) },
+          { key: 'start', label: `Start, ${formatLength(leg.start.distanceM, units)} along the line`, value: formatLatLon(leg.start) },
+          { key: 'end', label: `End, ${formatLength(leg.end.distanceM, units)} along the line`, value: formatLatLon(leg.end) },
         ]}
       />
     </View>

@@ -85,6 +85,10 @@ describe.skipIf(skipWeb)('the line index of the leg sheet', () => {
           .toBeLessThan(viewport.height / 2);
         expect((await card.boundingBox())!.y).toBeGreaterThanOrEqual(-1);
         await page.screenshot({ path: path.join(shotDir, `${size}-leg-sheet-after-jump.png`) });
+        // A leg's start and end say their distance along the line in words, never as a bare figure that reads as a height.
+        const figures = (await page.getByTestId('leg-1-1-figures').textContent()) ?? '';
+        expect(figures).toMatch(/Start, [\d,.]+ m along the line/);
+        expect(figures).not.toMatch(/Start \(/);
         expect(pageErrors).toEqual([]);
       } finally {
         await context.close();
