@@ -16,6 +16,7 @@ import { BatteryPlanCard } from './battery-plan-card';
 import { ExportLinks } from './export-links';
 import { formatLatLon } from './leg-format';
 import { LineIndexCard } from './line-index-card';
+import { LinesSketchCard } from './lines-sketch-card';
 import { LiveCoverageCard } from './live-coverage-card';
 import { MissionItemsCard } from './mission-items-card';
 import { OfflineNotice } from './offline-notice';
@@ -66,6 +67,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
       <FlightCautions />
       {/* The sheet runs to many screens; the index puts every line within one tap of the top. */}
       <LineIndexCard sheet={sheet} />
+      <LinesSketchCard sheet={sheet} />
       {sheet.warnings.length ? (
         <Banner tone="caution" title="Warnings from the analysis" testID="leg-sheet-warnings">
           <BulletList items={sheet.warnings} tone="caution" />

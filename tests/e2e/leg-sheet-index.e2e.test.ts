@@ -60,6 +60,13 @@ describe.skipIf(skipWeb)('the line index of the leg sheet', () => {
         const index = page.getByTestId('line-index');
         await index.waitFor();
         await expect(page.locator('[data-testid^="line-index-"]').count()).resolves.toBe(sheet.lines.length);
+        // The sketch of lines and takeoff: one drawn line per sheet line, the takeoff marked, a scale bar in words.
+        const sketch = page.getByTestId('lines-sketch');
+        await expect(sketch.locator('[data-testid^="sketch-line-"]').count()).resolves.toBe(sheet.lines.length);
+        await expect(sketch.getByTestId('sketch-takeoff').textContent()).resolves.toBe('Takeoff');
+        expect(await sketch.getByTestId('sketch-scale').textContent()).toMatch(/^(1|2|5)0* (m|km)$/);
+        expect(await sketch.getByRole('img').getAttribute('aria-label')).toContain(`${sheet.lines.length} flight lines and the takeoff point, north up`);
+        await sketch.screenshot({ path: path.join(shotDir, `${size}-lines-sketch.png`) });
 
         // Each entry: number, legs, photos and the first leg's start altitude with its reference (whole metres).
         for (const line of [sheet.lines[0]!, sheet.lines[sheet.lines.length - 1]!]) {
