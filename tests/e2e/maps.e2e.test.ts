@@ -38,7 +38,7 @@ beforeAll(async () => {
   browser = await launchBrowser();
   const teamId = await demoTeamId(srv);
   const c = (await demoClients(srv)).planner;
-  const projectId = (await c.post(`/api/teams/${teamId}/projects`, { name: 'Harrow Fell in lon/lat (maps test)' })).body.id as string;
+  const projectId = (await c.post(`/api/teams/${teamId}/projects`, { name: 'Lon/lat copy of the demo grid (maps test)' })).body.id as string;
   const site = await uploadDem(c, `/api/teams/${teamId}/projects/${projectId}/sites`, new Uint8Array(fs.readFileSync('tests/fixtures/dem/harrow-fell-wgs84.tif')));
   expect(site.status).toBe(201);
   bounds = site.body.hillshade.boundsWgs84;
