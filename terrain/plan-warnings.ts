@@ -54,8 +54,10 @@ export function transitWarnings(
       if (h === h) worst = Math.max(worst, h + clearanceM - altM);
     }
     if (worst > 0) {
-      const above = ` (${Math.ceil(altM + worst - takeoffGroundM)} m above takeoff)`;
-      out.push({ code: 'transit-clearance', message: `${label}: flown straight at ${Math.round(altM)} m the transit comes ${worst.toFixed(1)} m inside the clearance; fly it at ${Math.ceil(altM + worst)} m${above} or route around.` });
+      // Both heights name their reference: the pilot sets the one above takeoff, the datum figure ties it to the grid.
+      const flown = `${Math.round(altM)} m above the datum (${Math.round(altM - takeoffGroundM)} m above takeoff)`;
+      const needed = `${Math.ceil(altM + worst)} m above the datum (${Math.ceil(altM + worst - takeoffGroundM)} m above takeoff)`;
+      out.push({ code: 'transit-clearance', message: `${label}: flown straight at ${flown} the transit comes ${worst.toFixed(1)} m inside the clearance; fly it at ${needed} or route around.` });
     }
   };
   if (lines.length === 0) return out;

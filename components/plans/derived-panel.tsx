@@ -36,8 +36,8 @@ export function DerivedPanel({ control, units }: { control: Control<PlanFormIn>;
       </Text>
       {d ? (
         <View style={styles.grid}>
-          <Figure label="Height for the target GSD" value={L(d.heightM)} testID="derived-height" />
-          <Figure label="Height band for the tolerance" value={`${L(d.bandLowM)} – ${L(d.bandHighM)}`} />
+          <Figure label="Height above ground for the target GSD" value={L(d.heightM)} testID="derived-height" />
+          <Figure label="Height band above ground for the tolerance" value={`${L(d.bandLowM)} – ${L(d.bandHighM)}`} />
           <Figure label="Footprint across × along" value={`${L(d.footprintAcrossM)} × ${L(d.footprintAlongM)}`} testID="derived-footprint" />
           <Figure label="Line spacing" value={L(d.lineSpacingM)} testID="derived-spacing" />
           <Figure label="Photo every" value={L(d.triggerDistanceM)} testID="derived-trigger" />
