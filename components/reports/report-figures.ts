@@ -4,11 +4,11 @@ import { formatCount, formatDuration, formatGsd, formatLength, formatPercent } f
 
 export type Figure = { key: string; label: string; value: string };
 
-/** Degrees as a three-digit bearing ("094°"), a dash when unknown. */
+/** Degrees from true north as a three-digit bearing ("094° true"), a dash when unknown. */
 export function formatHeading(deg: number | null | undefined): string {
   if (deg === null || deg === undefined || !Number.isFinite(deg)) return '–';
   const d = ((Math.round(deg) % 360) + 360) % 360;
-  return `${String(d).padStart(3, '0')}°`;
+  return `${String(d).padStart(3, '0')}° true`;
 }
 
 /** The station figures every line and the whole plan share. */

@@ -21,9 +21,9 @@ const line: ReportLine = {
 
 describe('compliance report figures', () => {
   it('prints headings as three-digit bearings and wraps them into 0–359', () => {
-    expect(formatHeading(90.4)).toBe('090°');
-    expect(formatHeading(359.6)).toBe('000°');
-    expect(formatHeading(-10)).toBe('350°');
+    expect(formatHeading(90.4)).toBe('090° true');
+    expect(formatHeading(359.6)).toBe('000° true');
+    expect(formatHeading(-10)).toBe('350° true');
     expect(formatHeading(null)).toBe('–');
   });
 
@@ -37,7 +37,7 @@ describe('compliance report figures', () => {
     expect(figures.overlap).toBe('79.8 / 69.8 %');
     expect(figures.known).toBe('31 of 33');
     expect(figures.share).toBe('93.9 %');
-    expect(figures.line).toBe('740 m · 270° · 1 leg');
+    expect(figures.line).toBe('740 m · 270° true · 1 leg');
   });
 
   it('prints dashes, not zeros, for figures no station had', () => {
