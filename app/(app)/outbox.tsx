@@ -1,4 +1,4 @@
 /** Route /outbox: the development outbox (owners, fake SMTP only). */
 import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.OutboxScreen));
+export default lazyScreen('office', (m) => m.OutboxScreen);

@@ -1,4 +1,4 @@
 /** Route /profile. */
 import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.ProfileScreen));
+export default lazyScreen('office', (m) => m.ProfileScreen);

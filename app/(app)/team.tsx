@@ -1,4 +1,4 @@
 /** Route /team: the current team's members. */
 import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.MembersScreen));
+export default lazyScreen('office', (m) => m.MembersScreen);

@@ -1,4 +1,4 @@
 /** Route /teams: the team switcher and team creation. */
 import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.TeamsScreen));
+export default lazyScreen('office', (m) => m.TeamsScreen);

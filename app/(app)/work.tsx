@@ -1,4 +1,4 @@
 /** Route /work: what waits for the signed-in person. */
 import { lazyScreen } from '../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../components/app/office-screens').then((m) => m.WorkScreen));
+export default lazyScreen('office', (m) => m.WorkScreen);

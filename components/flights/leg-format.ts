@@ -1,13 +1,13 @@
 /** Leg-sheet wording: altitudes in the project's units, ranges, coordinates, leg kinds and battery packs. */
 import type { BatteryPlan, SheetLeg } from '../../contracts/flights';
 import type { UnitSystem } from '../../contracts/projects';
-import { formatDuration, formatLength, lengthUnit, toDisplayLength } from '../projects/units';
+import { formatDecimal, formatDuration, formatLength, lengthUnit, toDisplayLength } from '../projects/units';
 
 /** Below this difference (in metres) a leg's start and end altitude print as one figure: the server calls it level too. */
 export const levelToleranceM = 0.05;
 
 function whole(metres: number, units: UnitSystem): string {
-  return Math.round(toDisplayLength(metres, units)).toLocaleString('en-GB');
+  return formatDecimal(Math.round(toDisplayLength(metres, units)), 0, 0);
 }
 
 /** "62 m" for a level leg, "62 → 75 m" for a climb or descent; whole units, as a pilot sets them. */
@@ -21,7 +21,7 @@ export function formatAltitudePair(pair: { start: number; end: number }, units: 
 export function formatDatumPair(pair: { start: number; end: number }, units: UnitSystem): string {
   if (Math.abs(pair.end - pair.start) < levelToleranceM) return formatLength(pair.start, units, 1);
   const unit = lengthUnit(units);
-  const one = (m: number) => toDisplayLength(m, units).toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+  const one = (m: number) => formatDecimal(toDisplayLength(m, units), 1);
   return `${one(pair.start)} → ${one(pair.end)} ${unit}`;
 }
 
@@ -37,7 +37,7 @@ export function formatRange(r: { min: number | null; max: number | null }, units
 /** "2.9–3.1 cm" (GSD stays in centimetres in both unit systems). */
 export function formatGsdRange(r: { min: number | null; max: number | null }): string {
   if (r.min === null || r.max === null) return '–';
-  const f = (v: number) => v.toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+  const f = (v: number) => formatDecimal(v, 1);
   return f(r.min) === f(r.max) ? `${f(r.min)} cm` : `${f(r.min)}–${f(r.max)} cm`;
 }
 
@@ -49,7 +49,7 @@ export function formatLatLon(p: { lat: number; lon: number }): string {
 /** "Level", "Climb 3.2 %" or "Descent 2.1 %". */
 export function legKindLabel(leg: Pick<SheetLeg, 'kind' | 'gradientPct'>): string {
   if (leg.kind === 'level') return 'Level';
-  const pct = Math.abs(leg.gradientPct).toLocaleString('en-GB', { maximumFractionDigits: 1 });
+  const pct = formatDecimal(Math.abs(leg.gradientPct), 0, 1);
   return `${leg.kind === 'climb' ? 'Climb' : 'Descent'} ${pct} %`;
 }
 

@@ -12,6 +12,7 @@ import { RequirePermission } from '../team/require-permission';
 import { space } from '../theme';
 import { Badge, Banner, Card, Heading, Loading, Screen, Text, TextLink } from '../ui';
 import { AsFlownCard } from '../as-flown/as-flown-card';
+import { useAfterFirstPaint } from '../app/use-after-first-paint';
 import { BatteryPlanCard } from './battery-plan-card';
 import { ExportLinks } from './export-links';
 import { formatLatLon } from './leg-format';
@@ -52,6 +53,9 @@ export function LegSheetScreen() {
 function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string | undefined; offline: boolean }) {
   const u = sheet.units;
   const firstLeg = sheet.lines[0]?.legs[0];
+  // The first line is drawn with the top of the sheet; the other lines and the cards below them a moment later.
+  const whole = useAfterFirstPaint();
+  const lines = whole ? sheet.lines : sheet.lines.slice(0, 1);
   return (
     <View style={styles.body}>
       {sheet.version.signedOff ? (
@@ -93,10 +97,20 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
       <PreflightChecklist items={sheet.checklist} versionId={sheet.version.id} />
       <BatteryPlanCard plan={sheet.batteries} />
       <View style={styles.lines}>
-        {sheet.lines.map((line) => (
+        {lines.map((line) => (
           <SheetLine key={line.number} line={line} units={u} datumName={sheet.datum.name} />
         ))}
       </View>
+      {whole ? <SheetFoot sheet={sheet} teamId={teamId} offline={offline} /> : null}
+    </View>
+  );
+}
+
+/** Everything below the lines: the autopilot's items, live and as-flown coverage, exports and the sheet's time. */
+function SheetFoot({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string | undefined; offline: boolean }) {
+  const u = sheet.units;
+  return (
+    <>
       <MissionItemsCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
       <LiveCoverageCard teamId={teamId} versionId={sheet.version.id} signedOff={sheet.version.signedOff} offline={offline} units={u} />
       <AsFlownCard versionId={sheet.version.id} offline={offline} signedOff={sheet.version.signedOff} units={u} />
@@ -104,7 +118,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
       <Text variant="label" tone="muted">
         Sheet generated {formatDayTime(sheet.generatedAt)}. Heights in {u === 'imperial' ? 'feet' : 'metres'}.
       </Text>
-    </View>
+    </>
   );
 }
 

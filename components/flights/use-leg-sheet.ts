@@ -10,11 +10,14 @@ export function useLegSheet(versionId: string | undefined) {
   const { team, me } = useCurrentTeam();
   const userId = me.user.id;
   const query = useLegSheetQuery(team?.id, versionId);
-  // Read once per version after mount: localStorage does not exist while the page is pre-rendered.
-  const [stored, setStored] = useState<StoredSheet | null>(null);
-  useEffect(() => {
+  // Read with the first drawing, so a sheet kept on the device shows without waiting for a second pass; again when
+  // the version or user changes. (The web app is not pre-rendered, so localStorage is there when this runs.)
+  const [stored, setStored] = useState<StoredSheet | null>(() => (versionId ? readSheet(userId, versionId) : null));
+  const [storedFor, setStoredFor] = useState(`${userId}/${versionId}`);
+  if (storedFor !== `${userId}/${versionId}`) {
+    setStoredFor(`${userId}/${versionId}`);
     setStored(versionId ? readSheet(userId, versionId) : null);
-  }, [userId, versionId]);
+  }
 
   useEffect(() => {
     if (query.data) saveSheet(userId, query.data);

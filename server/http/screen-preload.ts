@@ -6,19 +6,15 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
+import { screenGroupOf, type ScreenGroup } from '../../contracts/screen-groups';
 
 const scriptDir = path.join('_expo', 'static', 'js', 'web');
-const groupOf = (urlPath: string): 'field' | 'office' | null => {
-  if (/^\/flights(\/|$)/.test(urlPath)) return 'field';
-  if (/^\/(work|projects|team|teams|profile|outbox)(\/|$)/.test(urlPath)) return 'office';
-  return null;
-};
 
 /** Returns the header value for a request path, or null; reads the build's file names once. */
 export function screenPreloader(webDist: string): (urlPath: string) => string | null {
-  let files: Record<'field' | 'office', string | undefined> | null = null;
+  let files: Record<ScreenGroup, string | undefined> | null = null;
   return (urlPath) => {
-    const group = groupOf(urlPath);
+    const group = screenGroupOf(urlPath);
     if (!group) return null;
     if (!files) {
       const names = fs.existsSync(path.join(webDist, scriptDir)) ? fs.readdirSync(path.join(webDist, scriptDir)) : [];

@@ -1,4 +1,4 @@
 /** Route /flights/:versionId: the leg sheet of a signed-off version. */
 import { lazyScreen } from '../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../components/app/field-screens').then((m) => m.LegSheetScreen));
+export default lazyScreen('field', (m) => m.LegSheetScreen);

@@ -1,4 +1,4 @@
 /** Route /flights. */
 import { lazyScreen } from '../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../components/app/field-screens').then((m) => m.FlightsScreen));
+export default lazyScreen('field', (m) => m.FlightsScreen);

@@ -1,4 +1,4 @@
 /** Route /projects. */
 import { lazyScreen } from '../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../components/app/office-screens').then((m) => m.ProjectsScreen));
+export default lazyScreen('office', (m) => m.ProjectsScreen);

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId. */
 import { lazyScreen } from '../../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../../components/app/office-screens').then((m) => m.ProjectScreen));
+export default lazyScreen('office', (m) => m.ProjectScreen);

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/plans/new (?siteId=). */
 import { lazyScreen } from '../../../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../../../components/app/office-screens').then((m) => m.NewPlanScreen));
+export default lazyScreen('office', (m) => m.NewPlanScreen);

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/sites/new: upload an elevation grid. */
 import { lazyScreen } from '../../../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../../../components/app/office-screens').then((m) => m.SiteUploadScreen));
+export default lazyScreen('office', (m) => m.SiteUploadScreen);

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/plans/:planId. */
 import { lazyScreen } from '../../../../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../../../../components/app/office-screens').then((m) => m.PlanScreen));
+export default lazyScreen('office', (m) => m.PlanScreen);

@@ -1,4 +1,4 @@
 /** Route /projects/:projectId/plans/:planId/versions/:versionId/report: the version's compliance report. */
 import { lazyScreen } from '../../../../../../../../components/app/lazy-screen';
 
-export default lazyScreen(() => import('../../../../../../../../components/app/office-screens').then((m) => m.ReportScreen));
+export default lazyScreen('office', (m) => m.ReportScreen);
