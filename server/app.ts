@@ -2,18 +2,20 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import compression from 'compression';
-import { screenPreloader } from './http/screen-preload';
 import express, { type RequestHandler } from 'express';
+import expressStaticGzip from 'express-static-gzip';
 import type { ServerResponse } from 'node:http';
 import type { Db } from '../db/client';
 import type { Auth } from './auth/auth';
 import { authHttpHandler } from './auth/auth-http';
 import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
+import { dataPreloader } from './http/data-preload';
 import { logServerError } from './http/error-log';
 import { AppError, apiNotFound, errorMiddleware } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
 import { requireSameOrigin, trustedOriginsOf } from './http/origin';
+import { screenPreloader } from './http/screen-preload';
 import { securityHeaders } from './http/security-headers';
 import { refuseNulInBody, refuseNulInPath } from './http/text-guard';
 import type { RouteGroup } from './routes';
@@ -52,7 +54,8 @@ const clientAddress: RequestHandler = (req, _res, next) => {
  * cache them for a year as immutable. Everything else is revalidated (ETag) so a new build is picked up at once.
  */
 export function staticCacheHeaders(res: ServerResponse, filePath: string): void {
-  const hashed = /[.-][0-9a-f]{16,}(?:@\dx)?\.[a-z0-9]+$/i.test(path.basename(filePath)) || filePath.includes(`${path.sep}_expo${path.sep}static${path.sep}`);
+  const name = path.basename(filePath).replace(/\.(br|gz)$/, ''); // a precompressed copy is cached as its original
+  const hashed = /[.-][0-9a-f]{16,}(?:@\dx)?\.[a-z0-9]+$/i.test(name) || filePath.includes(`${path.sep}_expo${path.sep}static${path.sep}`);
   res.setHeader('Cache-Control', hashed ? 'public, max-age=31536000, immutable' : 'no-cache');
 }
 
@@ -92,12 +95,21 @@ export function createApp(deps: AppDeps) {
 
   if (config.webDist && fs.existsSync(path.join(config.webDist, 'index.html'))) {
     const dist = config.webDist;
-    app.use(express.static(dist, { index: false, setHeaders: staticCacheHeaders }));
+    // The build's brotli and gzip copies (scripts/lib/precompress.ts), the smallest the browser accepts; files
+    // without a copy (images, fonts) as they are.
+    app.use(expressStaticGzip(dist, { index: false, enableBrotli: true, orderPreference: ['br', 'gz'], serveStatic: { index: false, setHeaders: staticCacheHeaders } }));
     // Single-page app: any other GET gets the shell and the router picks the screen.
     const preload = screenPreloader(dist);
-    app.get('/{*any}', (req, res) => {
-      const link = preload(req.path);
-      res.sendFile(path.join(dist, 'index.html'), { cacheControl: false, headers: { 'Cache-Control': 'no-cache', ...(link ? { Link: link } : {}) } });
+    const preloadData = dataPreloader({ db, guards });
+    app.get('/{*any}', async (req, res) => {
+      // The shell goes out whatever happens to the hints: a failed lookup only costs the early answers.
+      const data = await preloadData(req).catch(() => []);
+      const link = [preload(req.path), ...data].filter(Boolean).join(', ');
+      // The Link header depends on the caller's session: no shared cache may hand one caller's hints to another.
+      res.sendFile(path.join(dist, 'index.html'), {
+        cacheControl: false,
+        headers: { 'Cache-Control': 'no-cache', ...(data.length ? { Vary: 'Cookie' } : {}), ...(link ? { Link: link } : {}) },
+      });
     });
   }
   app.use(errorMiddleware(deps.log ?? logServerError));

@@ -4,11 +4,12 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { distDir, projectRoot } from './paths';
+import { precompress } from './precompress';
 import { writeServiceWorker } from './service-worker';
 import { foldCommonChunk } from './web-chunks';
 import { injectFontTags, writeWebFonts } from './web-fonts';
 
-const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'metro.config.js', 'scripts/web', 'package-lock.json', 'tsconfig.json', 'scripts/lib/web-fonts.ts', 'scripts/lib/service-worker.ts', 'scripts/lib/web-chunks.ts'];
+const inputs = ['app', 'components', 'contracts', 'terrain', 'assets', 'app.json', 'metro.config.js', 'scripts/web', 'package-lock.json', 'tsconfig.json', 'scripts/lib/web-fonts.ts', 'scripts/lib/service-worker.ts', 'scripts/lib/web-chunks.ts', 'scripts/lib/precompress.ts'];
 
 function hashInputs(): string {
   const h = crypto.createHash('sha256');
@@ -56,6 +57,8 @@ export async function ensureWebBuild(opts: { force?: boolean } = {}): Promise<st
   fs.writeFileSync(indexFile, injectFontTags(fs.readFileSync(indexFile, 'utf8'), await writeWebFonts(staging)));
   const sw = await writeServiceWorker(staging);
   console.log(`loftline: service worker keeps ${sw.count} files (${(sw.sizeBytes / 1024).toFixed(0)} KiB) for offline starts`);
+  const packed = await precompress(staging);
+  console.log(`loftline: ${packed.files} files precompressed (${(packed.bytes / 1048576).toFixed(1)} MiB → ${(packed.brotliBytes / 1048576).toFixed(1)} MiB as brotli)`);
   fs.writeFileSync(path.join(staging, '.source-hash'), hash);
   const old = `${distDir}.old-${process.pid}`;
   if (fs.existsSync(distDir)) fs.renameSync(distDir, old);

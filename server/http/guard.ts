@@ -6,7 +6,7 @@ import { can, roleSchema, type Permission, type Role } from '../../contracts/rol
 import type { Db } from '../../db/client';
 import { member } from '../../db/schema';
 import type { Auth } from '../auth/auth';
-import { errors } from './errors';
+import { AppError, errors } from './errors';
 import { createSessionCache, sessionTokenOf, type SessionCache } from './session-cache';
 import { membershipCacheOf, type MembershipCache } from './membership-cache';
 
@@ -125,6 +125,17 @@ export function createGuards(deps: { auth: Auth; db: Db; sessions?: SessionCache
     sessions,
     /** Roles per (user, team), emptied by every write to the member table. */
     memberships,
+
+    /** The signed-in caller of `req`, or null (no cookie, or a session that has ended); never throws for that. */
+    sessionOf: async (req: Request): Promise<RequestAuth | null> => {
+      if (!sessionTokenOf(req.headers.cookie)) return null;
+      return loadSession(req).catch((e: unknown) => {
+        if (e instanceof AppError && e.status === 401) return null;
+        throw e;
+      });
+    },
+    /** The caller's role in a team, or null when not a member (cached like the permission guard's). */
+    roleIn,
 
     /** Open to anyone (health check). */
     public: (): RequestHandler => tag((_req, _res, next) => next(), { kind: 'public' }),
