@@ -1,12 +1,14 @@
 /**
  * The pilot's leg sheet on a weak field connection, in Chromium with the DevTools protocol's network emulation at
- * 1.6 Mbit/s down, 0.75 Mbit/s up and 150 ms round trips (a weak mobile signal on a hillside): with the network cut,
- * a reload still opens the sheet and the flights list from the device, said so on screen. The two time budgets —
- * the first line's altitude within 5 s on a cold load (no cache, no service worker, nothing kept on the device) and
- * within 1 s once the sheet is on the device — are measured and printed but not yet asserted, because neither is
- * met reliably on this 2-core machine: cold 4.9–5.6 s (the first screen's 610 KB of gzipped JavaScript is 3 s of it
- * at this rate), on the device 0.86–1.3 s (about 0.35 s of it drawing the sheet after its data is in). The suite
- * runs in the timed pass, alone after the others (vitest.config.mts).
+ * 1.6 Mbit/s down, 0.75 Mbit/s up and 150 ms round trips (a weak mobile signal on a hillside): the first line's
+ * altitude is on screen within 5 s on a cold load (no cache, no service worker, nothing kept on the device) and
+ * within 1 s once the sheet is on the device (the median of three reloads); with the network cut, a reload still opens the sheet and the flights
+ * list from the device, said so on screen. The budgets are the product's (README, "Field connection").
+ * What keeps them: the entry script's brotli copy (scripts/lib/precompress.ts), the session check and the sheet
+ * named in the shell's preload header (server/http/data-preload.ts), the field screens fetched while the app starts
+ * and drawn without a Suspense reveal delay (components/app/screen-groups.ts), and the sheet's first line drawn
+ * before the rest (components/app/use-after-first-paint.ts). The suite runs in the timed pass, alone after the
+ * others (vitest.config.mts).
  */
 import path from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
@@ -17,7 +19,7 @@ import type { VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const skipWeb = process.env.LOFTLINE_SKIP_WEB === '1';
-/** The field-connection budget (README): weak signal, cold and already on the device (both measured, not yet met). */
+/** The field-connection budget (README): weak signal, cold and already on the device. */
 const COLD_BUDGET_MS = 5_000;
 const WARM_BUDGET_MS = 1_000;
 const weakSignal = { offline: false, latency: 150, downloadThroughput: 1_600_000 / 8, uploadThroughput: 750_000 / 8 };
@@ -58,7 +60,7 @@ async function timeToAltitude(page: Page, go: () => Promise<unknown>): Promise<n
 }
 
 describe.skipIf(skipWeb)('the leg sheet on a weak field connection', () => {
-  it('opens with the network cut from the device; cold and on-device load times measured against 5 s and 1 s', async () => {
+  it('shows the first altitude within 5 s cold and 1 s from the device on a weak signal, and opens with the network cut', async () => {
     const { context, page, pageErrors } = await openPage(browser, viewports.phone);
     try {
       await signedInContext(context);
@@ -80,8 +82,15 @@ describe.skipIf(skipWeb)('the leg sheet on a weak field connection', () => {
       await page.getByTestId('leg-1-1-altitude').waitFor();
       await page.waitForFunction(() => Boolean(localStorage.getItem('loftline.device-queries.v1')?.includes('"list"')), undefined, { timeout: 10_000 });
 
-      const warmMs = await timeToAltitude(page, () => page.reload({ waitUntil: 'commit' }));
-      console.log(`field connection: on the device ${warmMs} ms (${warmMs < WARM_BUDGET_MS ? 'within' : 'over'} the ${WARM_BUDGET_MS} ms budget)`);
+      // Three reloads, judged by their median: one reload on a shared 2-core machine can be slowed by anything else
+      // running, and the pilot's experience is the typical one, not the luckiest or unluckiest.
+      const warmRuns: number[] = [];
+      for (let i = 0; i < 3; i++) {
+        warmRuns.push(await timeToAltitude(page, () => page.reload({ waitUntil: 'commit' })));
+        await page.waitForTimeout(500); // let the second pass (the rest of the sheet) finish before the next reload
+      }
+      const warmMs = [...warmRuns].sort((a, b) => a - b)[1]!;
+      console.log(`field connection: on the device ${warmMs} ms, median of ${warmRuns.join(', ')} ms (${warmMs < WARM_BUDGET_MS ? 'within' : 'over'} the ${WARM_BUDGET_MS} ms budget)`);
       await page.screenshot({ path: path.join(screenshotDir, 'phone-leg-sheet-weak-signal.png') });
 
       // Network cut: the page, its scripts, the session and the sheet all come from the device, and it says so.
@@ -99,6 +108,8 @@ describe.skipIf(skipWeb)('the leg sheet on a weak field connection', () => {
       await page.getByTestId(`flight-${version.versionId}`).waitFor({ timeout: 10_000 });
 
       console.log(`field connection (1.6 Mbit/s, 150 ms): cold ${coldMs} ms, on the device ${warmMs} ms, network cut ${offlineMs} ms`);
+      expect(coldMs, 'cold load on a weak signal').toBeLessThan(COLD_BUDGET_MS);
+      expect(warmMs, 'reload with the sheet on the device').toBeLessThan(WARM_BUDGET_MS);
       // The device copy answered with the same figure the server gave, marked as the device's copy.
       expect(offlineAltitude).toBe(coldAltitude);
       expect(offlineNotice).toContain('Offline copy, loaded at');
