@@ -63,7 +63,7 @@ function benchSite(name: string, grid: Grid, input: Record<string, unknown>, dat
   const verifier = makeVerifier(grid, mission, spec, envelope, settings, viewGeometry(mission.camera, spec, envelope).gsdPerM);
   const advised = analysePlan(grid, input).headingAdvice?.recommendedDeg ?? 0;
   const t1 = performance.now();
-  const sweep = bestUniform(grid, input, uniformSweep(advised), verifier, { verticalDatum: datum });
+  const sweep = bestUniform(grid, input, uniformSweep(advised), verifier, { verticalDatum: datum, overlaps: false });
   const sweepS = (performance.now() - t1) / 1000;
   const best = sweep.best;
   const closest = [...sweep.outcomes].filter((o) => o.shareReachable !== null).sort((a, b) => (b.shareReachable ?? 0) - (a.shareReachable ?? 0))[0];
