@@ -43,6 +43,12 @@ export interface CoverageOptions {
   viewsOnly?: boolean;
   /** Spacing of the height lattice the occlusion march runs on (default: the grid's pixel, at most 16 million nodes). */
   latticeStepM?: number;
+  /**
+   * Stop the pass at the first cell this says true for (called once a cell's figures are in `raster`): a yes/no
+   * question such as "does any cell fall short?" is answered at the first cell that says no. The raster's
+   * `stoppedAtCell` then names that cell; cells not visited yet keep their initial values (0 views, NaN figures).
+   */
+  stopAt?: (cell: number, raster: CoverageRaster) => boolean;
 }
 
 /** The coverage raster: the cell lattice and one value per cell and measure (counts 0 and figures NaN outside the area; NaN inside where a figure has no value). */
@@ -62,6 +68,8 @@ export interface CoverageRaster {
   /** Safety margin the envelope test keeps from the image edges, pixels (0 without an envelope). */
   envelopeMarginPx: number;
   imageErrorPx: number;
+  /** The cell the pass stopped at (`stopAt`); absent when every cell was visited. */
+  stoppedAtCell?: number;
 }
 
 
@@ -238,7 +246,10 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const sig = new Float64Array(2);
   const spec = opts.specGsdCm * (1 + 1e-9);
   const hStep = lattice.stepM;
-  fillCells({ th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
-  return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+  const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+  const stopAt = opts.stopAt;
+  const stopped = fillCells({ th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  if (stopped >= 0) raster.stoppedAtCell = stopped;
+  return raster;
 }
 

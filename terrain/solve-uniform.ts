@@ -19,7 +19,7 @@ export interface UniformOutcome {
   flightTimeS: number;
   lineCount: number;
   photoCount: number;
-  /** Share of the reachable cells meeting every spec item (null when not checked: a faster setting already met it). */
+  /** Share of the reachable cells meeting every spec item (null when not checked: a faster setting already met it, or the check stopped at the first short cell). */
   shareReachable: number | null;
   meets: boolean | null;
   plan: PlanResult;

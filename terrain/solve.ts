@@ -74,10 +74,11 @@ export interface SolveOptionsArg extends AnalyseOptions {
   /** Uniform settings to compare with besides the mission's own (the bench passes the sweep's best). */
   uniform?: UniformSetting[];
   /**
-   * Analyse every candidate layout and yardstick plan with its overlaps (default false: only the returned plan
-   * is; no choice reads them). The same plan comes back either way; tests compare the two.
+   * Analyse every candidate layout and yardstick plan with its overlaps, and every yardstick's whole raster
+   * (default false: only the returned plan carries overlaps, and a yardstick's raster stops at its first short
+   * cell, its share then null; no choice reads either). The same plan comes back either way; tests compare the two.
    */
-  candidateOverlaps?: boolean;
+  candidatesInFull?: boolean;
 }
 
 interface Built {
@@ -197,7 +198,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       return out;
     };
     // candidates are analysed without overlaps (no choice reads them: the raster decides), the chosen one in full
-    return finish(opts.candidateOverlaps ?? false);
+    return finish(opts.candidatesInFull ?? false);
   };
   // 1. heading: the candidate whose layout flies fastest
   const none: Repairs = { lower: [], views: [] };
@@ -239,13 +240,14 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   // the mission's own overlaps in each altitude mode, and any settings the caller adds
   const modes = (['hold', 'steps', 'follow'] as const).filter((m) => m !== own.mode).map((mode) => ({ ...own, mode }));
   // analysed all; rasters only for those that could win (no slower than the solved plan, or all when it falls short)
-  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, { ...opts, overlaps: opts.candidateOverlaps ?? false }, 0).outcomes;
+  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, { ...opts, overlaps: opts.candidatesInFull ?? false }, 0).outcomes;
   const uniformVerdicts = new Map<UniformOutcome, Verdict>();
   for (const o of checkedUniform) {
     if (verdict.meets && o.flightTimeS > built.flightTimeS) continue;
-    const v = verifier.check(o.plan);
-    uniformVerdicts.set(o, v);
-    o.meets = v.meets; o.shareReachable = v.compliance.shareAll;
+    // only whether it meets the spec decides: its raster stops at its first short cell
+    const v = opts.candidatesInFull ? verifier.check(o.plan) : verifier.verdictIfMeets(o.plan);
+    if (v) uniformVerdicts.set(o, v);
+    o.meets = v ? v.meets : false; o.shareReachable = v ? v.compliance.shareAll : null;
   }
   const meetingUniform = checkedUniform.filter((o) => o.meets).sort((a, b) => a.flightTimeS - b.flightTimeS)[0] ?? null;
   let plan = built.plan;
