@@ -30,22 +30,27 @@ export interface CellPass {
   /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
   boxSlope: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
   rays: Float64Array; sigmaPx: number; sig: Float64Array;
+  /** Stop after the first cell for which this says true (null: visit every cell). */
+  stop: ((cell: number) => boolean) | null;
 }
 
-/** The per-cell pass over the tiles: views and the figures from them. */
-export function fillCells(c: CellPass): void {
-  const { th, tw, tileLists, tileSlopes, width, height, inside } = c;
+/** The per-cell pass over the tiles: views and the figures from them. Returns the cell it stopped at (`stop`), else -1. */
+export function fillCells(c: CellPass): number {
+  const { th, tw, tileLists, tileSlopes, width, height, inside, stop } = c;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
       const list = tileLists[ty * tw + tx], slopes = tileSlopes[ty * tw + tx];
       for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
         for (let col = tx * TILE; col < Math.min(width, (tx + 1) * TILE); col++) {
           const i = r * width + col;
-          if (inside[i]) visitCell(c, list, slopes, i);
+          if (!inside[i]) continue;
+          visitCell(c, list, slopes, i);
+          if (stop !== null && stop(i)) return i;
         }
       }
     }
   }
+  return -1;
 }
 
 /** One cell: the photos of its tile that see its ground point, and the figures from them (small, so it is optimised early). */

@@ -11,6 +11,7 @@ import { imageModel } from './pose';
 import { fillCells, TILE } from './coverage-pass';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
 import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
+import { latticeRange, rangeBlocks } from './lattice-range';
 import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
 import { check } from './errors';
 
@@ -42,6 +43,12 @@ export interface CoverageOptions {
   viewsOnly?: boolean;
   /** Spacing of the height lattice the occlusion march runs on (default: the grid's pixel, at most 16 million nodes). */
   latticeStepM?: number;
+  /**
+   * Stop the pass at the first cell this says true for (called once a cell's figures are in `raster`): a yes/no
+   * question such as "does any cell fall short?" is answered at the first cell that says no. The raster's
+   * `stoppedAtCell` then names that cell; cells not visited yet keep their initial values (0 views, NaN figures).
+   */
+  stopAt?: (cell: number, raster: CoverageRaster) => boolean;
 }
 
 /** The coverage raster: the cell lattice and one value per cell and measure (counts 0 and figures NaN outside the area; NaN inside where a figure has no value). */
@@ -61,6 +68,8 @@ export interface CoverageRaster {
   /** Safety margin the envelope test keeps from the image edges, pixels (0 without an envelope). */
   envelopeMarginPx: number;
   imageErrorPx: number;
+  /** The cell the pass stopped at (`stopAt`); absent when every cell was visited. */
+  stoppedAtCell?: number;
 }
 
 
@@ -93,21 +102,6 @@ function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: num
   return [x0, y0, x1, y1];
 }
 
-/** Lowest and highest known lattice height inside a local box (block maxima for the high end; nodes for the low end). */
-function latticeRange(L: HeightLattice, box: [number, number, number, number]): [number, number] {
-  const i0 = Math.max(0, Math.floor((box[0] - L.x0) / L.stepM)), i1 = Math.min(L.nx - 1, Math.ceil((box[2] - L.x0) / L.stepM));
-  const j0 = Math.max(0, Math.floor((box[1] - L.y0) / L.stepM)), j1 = Math.min(L.ny - 1, Math.ceil((box[3] - L.y0) / L.stepM));
-  let lo = Infinity, hi = -Infinity;
-  for (let j = j0; j <= j1; j++) {
-    for (let i = i0; i <= i1; i++) {
-      const h = L.heights[j * L.nx + i];
-      if (h < lo) lo = h;
-      if (h > hi) hi = h;
-    }
-  }
-  return [lo, hi];
-}
-
 /** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
 function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
@@ -123,11 +117,23 @@ function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photo
   if (span / (step * step) > 16_000_000) step = Math.sqrt(span / 16_000_000);
   x0 -= 2 * step; y0 -= 2 * step;
   const nx = Math.ceil((x1 + 2 * step - x0) / step) + 1, ny = Math.ceil((y1 + 2 * step - y0) / step) + 1;
+  // the same grid, frame and nodes give the same lattice: a run of rasters over one site (the solver's checks)
+  // samples it once
+  const key = `${x0} ${y0} ${step} ${nx} ${ny}`;
+  const byFrame = latticeCache.get(grid) ?? new WeakMap<LocalFrame, { key: string; lattice: HeightLattice }>();
+  latticeCache.set(grid, byFrame);
+  const kept = byFrame.get(frame);
+  if (kept && kept.key === key) return kept.lattice;
   const xs = new Float64Array(nx * ny), ys = new Float64Array(nx * ny), hs = new Float64Array(nx * ny);
   for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) { xs[j * nx + i] = x0 + i * step; ys[j * nx + i] = y0 + j * step; }
   localHeights(grid, frame).sampleMany(xs, ys, hs);
-  return heightLattice(x0, y0, step, nx, ny, Float32Array.from(hs));
+  const lattice = heightLattice(x0, y0, step, nx, ny, Float32Array.from(hs));
+  byFrame.set(frame, { key, lattice });
+  return lattice;
 }
+
+/** The last lattice built per grid and frame (read only once built; dropped with the grid or the frame). */
+const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattice: HeightLattice }>>();
 
 /**
  * The coverage raster of `photos` over `area`: for each cell's ground point, the photos whose image holds it
@@ -156,6 +162,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const P = photos.length;
   const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), boxTop = new Float64Array(P), boxSlope = new Float64Array(P), envRots: Float64Array[] = [], envCount = new Int32Array(P);
   let marginPx = 0;
+  const envByAngles = new Map<string, ReturnType<typeof envelopeSamples>>();
+  const ranges = rangeBlocks(lattice);
   for (let j = 0; j < P; j++) {
     const p = photos[j];
     check(Number.isFinite(p.xM) && Number.isFinite(p.yM) && Number.isFinite(p.altitudeM) && Number.isFinite(p.yawDeg), `photo ${j + 1} needs a finite position, altitude and yaw, got ${JSON.stringify(p)}.`);
@@ -165,15 +173,15 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     // highest ground inside that box (tighter where the relief is in another part of the area)
     let b = photoBox(camera, p, rot, lattice.minM, lattice.maxM);
     for (let pass = 0; pass < 2 && Number.isFinite(b[0]); pass++) {
-      const [lo, hi] = latticeRange(lattice, b);
+      const [lo, hi] = latticeRange(lattice, ranges, b);
       if (!(lo <= hi)) break;
       b = photoBox(camera, p, rot, lo, hi);
     }
-    const [oLo, oHi] = Number.isFinite(b[0]) ? latticeRange(lattice, b) : [lattice.minM, lattice.maxM];
+    const [oLo, oHi] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, b) : [lattice.minM, lattice.maxM];
     photoBox(camera, p, rot, oLo, oHi, obox, j * 6);
     // the highest ground in the box: a ray from a point in it to the camera (also in it) never meets higher ground
     const pb = 4 * Math.max(opts.cellM, lattice.stepM);
-    boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
+    boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
     // the steepest ground any ray from the box to the camera crosses (the box and the camera's own position)
     boxSlope[j] = Number.isFinite(b[0]) ? slopeIn(lattice, [Math.min(b[0], p.xM) - pb, Math.min(b[1], p.yM) - pb, Math.max(b[2], p.xM) + pb, Math.max(b[3], p.yM) + pb]) : Infinity;
     const padO = 2 * opts.cellM;
@@ -182,7 +190,10 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     const pad = 2 * opts.cellM;
     boxes[j * 4] = b[0] - pad; boxes[j * 4 + 1] = b[1] - pad; boxes[j * 4 + 2] = b[2] + pad; boxes[j * 4 + 3] = b[3] + pad;
     if (env) {
-      const s = envelopeSamples(camera, p, env, p.crabDeg ?? 0);
+      // the attitudes depend on the photo's angles only (not its position): one set per line heading
+      const key = `${p.yawDeg}|${p.pitchDeg ?? 0}|${p.rollDeg ?? 0}|${p.mountTiltDeg ?? 0}|${p.crabDeg ?? 0}`;
+      let s = envByAngles.get(key);
+      if (!s) { s = envelopeSamples(camera, p, env, p.crabDeg ?? 0); envByAngles.set(key, s); }
       envRots.push(s.rotations); envCount[j] = s.count; marginPx = Math.max(marginPx, s.marginPx);
     }
   }
@@ -235,7 +246,10 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const sig = new Float64Array(2);
   const spec = opts.specGsdCm * (1 + 1e-9);
   const hStep = lattice.stepM;
-  fillCells({ th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM });
-  return { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+  const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+  const stopAt = opts.stopAt;
+  const stopped = fillCells({ th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  if (stopped >= 0) raster.stoppedAtCell = stopped;
+  return raster;
 }
 

@@ -358,7 +358,7 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
           }
         }
       }
-      if (groundM === null) flags.push({ code: 'ground-unknown', reason: 'No elevation data under this photo (nodata or off the grid); its height above ground is unknown.' });
+      if (groundM === null) flags.push({ ...GROUND_UNKNOWN });
       else if (!complete) flags.push({ code: 'footprint-off-grid', reason: 'Part of this photo\'s footprint lies off the grid or over nodata; its overlaps there are unknown.' });
       if (forwardOverlap !== null && forwardOverlap < t.forwardOverlap - 1e-9) {
         flags.push({ code: 'forward-overlap-low', reason: `Forward overlap ${f2(forwardOverlap)} is below the target ${f2(t.forwardOverlap)}: ${terrainWhy(aglM, t.plannedHeightM)}` });
@@ -373,14 +373,44 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       if (guaranteed && sideOverlap !== null && sideOverlap >= t.sideOverlap - 1e-9 && sideOverlapGuaranteed !== null && sideOverlapGuaranteed < t.sideOverlap - 1e-9) {
         flags.push({ code: 'side-overlap-envelope', reason: `Side overlap as guaranteed ${down2(sideOverlapGuaranteed)} is below the target ${f2(t.sideOverlap)} under the attitude envelope (${guaranteed.words}); as planned it is ${down2(sideOverlap)}.` });
       }
-      if (gsdCm !== null && gsdCm > t.gsdMaxCm + 1e-9) flags.push({ code: 'gsd-coarse', reason: `GSD ${f2(gsdCm)} cm is coarser than the allowed ${f2(t.gsdMaxCm)} cm (height above ground ${f1(aglM!)} m).` });
-      if (gsdCm !== null && gsdCm < t.gsdMinCm - 1e-9) flags.push({ code: 'gsd-fine', reason: `GSD ${f2(gsdCm)} cm is finer than the band's ${f2(t.gsdMinCm)} cm (height above ground ${f1(aglM!)} m): more photos than needed, smaller footprints.` });
-      if (aglM !== null && aglM > t.maxAglM + 1e-6) flags.push({ code: 'above-max-agl', reason: `Height above ground ${f1(aglM)} m exceeds the ${f1(t.maxAglM)} m limit.` });
-      if (aglM !== null && aglM < t.clearanceM - 1e-6) flags.push({ code: 'below-clearance', reason: `Height above ground ${f1(aglM)} m is below the ${f1(t.clearanceM)} m clearance.` });
+      flags.push(...heightFlags(aglM, gsdCm, t));
       out.push({ groundM, aglM, gsdCm, forwardOverlap, sideOverlap, forwardOverlapGuaranteed, sideOverlapGuaranteed, flags });
     }
     return out;
   });
+}
+
+/**
+ * The figures of every station that need no footprint: ground, height above ground and GSD, with the GSD, height
+ * limit and clearance flags `stationOverlaps` gives them (the same tests, so both agree); overlaps null. For
+ * analyses whose overlaps nobody reads (the solver's candidate layouts: their lines, legs and stations do not
+ * depend on them), where casting every footprint would be most of the work.
+ */
+export function stationHeights(camera: Camera, heightAt: HeightAt, lines: LinePhotos[], t: OverlapTargets): StationResult[][] {
+  const pitchOverF = pixelPitchMm(camera) / camera.focalLengthMm;
+  return lines.map((l) => {
+    const out: StationResult[] = [];
+    for (let s = 0; s < l.x.length; s++) {
+      const g = heightAt(l.x[s], l.y[s]);
+      const groundM = Number.isFinite(g) ? g : null;
+      const aglM = groundM === null ? null : l.altitudeM[s] - groundM;
+      const gsdCm = aglM === null || aglM <= 0 ? null : aglM * pitchOverF * 100;
+      out.push({ groundM, aglM, gsdCm, forwardOverlap: null, sideOverlap: null, forwardOverlapGuaranteed: null, sideOverlapGuaranteed: null, flags: [...(groundM === null ? [{ ...GROUND_UNKNOWN }] : []), ...heightFlags(aglM, gsdCm, t)] });
+    }
+    return out;
+  });
+}
+
+const GROUND_UNKNOWN: StationFlag = { code: 'ground-unknown', reason: 'No elevation data under this photo (nodata or off the grid); its height above ground is unknown.' };
+
+/** The flags of a station's height above ground and GSD against the band, the height limit and the clearance. */
+function heightFlags(aglM: number | null, gsdCm: number | null, t: OverlapTargets): StationFlag[] {
+  const flags: StationFlag[] = [];
+  if (gsdCm !== null && gsdCm > t.gsdMaxCm + 1e-9) flags.push({ code: 'gsd-coarse', reason: `GSD ${f2(gsdCm)} cm is coarser than the allowed ${f2(t.gsdMaxCm)} cm (height above ground ${f1(aglM!)} m).` });
+  if (gsdCm !== null && gsdCm < t.gsdMinCm - 1e-9) flags.push({ code: 'gsd-fine', reason: `GSD ${f2(gsdCm)} cm is finer than the band's ${f2(t.gsdMinCm)} cm (height above ground ${f1(aglM!)} m): more photos than needed, smaller footprints.` });
+  if (aglM !== null && aglM > t.maxAglM + 1e-6) flags.push({ code: 'above-max-agl', reason: `Height above ground ${f1(aglM)} m exceeds the ${f1(t.maxAglM)} m limit.` });
+  if (aglM !== null && aglM < t.clearanceM - 1e-6) flags.push({ code: 'below-clearance', reason: `Height above ground ${f1(aglM)} m is below the ${f1(t.clearanceM)} m clearance.` });
+  return flags;
 }
 
 function terrainWhy(aglM: number | null, plannedM: number): string {

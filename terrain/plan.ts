@@ -7,7 +7,7 @@ import { resolveMission } from './mission';
 import { localFrameFor, localHeights, type LocalFrame } from './local-frame';
 import { planFlightLines, polygonToLocal, pointAlong, type FlightLine } from './lines';
 import { fitAltitudes, type AltitudeLimits } from './altitude';
-import { stationOverlaps } from './overlap';
+import { stationHeights, stationOverlaps } from './overlap';
 import { envelopeWords, guaranteedExtents, lineCrabDeg } from './overlap-envelope';
 import { resolveCoverageInput } from './coverage-spec';
 import type { AttitudeEnvelope } from './attitude-envelope';
@@ -109,6 +109,13 @@ export interface AnalyseOptions {
   limitsFor?: (line: FlightLine, missionLimits: AltitudeLimits) => AltitudeLimits;
   /** Ground the GSD band of a line is measured from at its sample distances (e.g. the lowest its photos reach); default the ground under it. */
   bandGroundFor?: (line: FlightLine, x: Float64Array) => Float64Array | undefined;
+  /**
+   * false: leave every overlap out (stations' and summary's overlaps null, no overlap flags). Lines, stations,
+   * legs, GSDs and the flight time are the same; for analyses whose overlaps nobody reads (the solver's candidate
+   * layouts and yardsticks), where casting every footprint, under every attitude of the envelope, is most of the
+   * work. Default true.
+   */
+  overlaps?: boolean;
 }
 
 /** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
@@ -191,10 +198,11 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     envelopeRefused = err.message;
   }
   let marginPx = 0, attitudeCount = 0;
-  const results = stationOverlaps(cam, heights.heightAt, photos, headingDeg, {
+  const targets = {
     forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, gsdMinCm: band.min, gsdMaxCm: band.max,
     maxAglM: mission.maxAglM, clearanceM: lim.clearanceM, plannedHeightM: H,
-  }, envelope ? {
+  };
+  const results = opts.overlaps === false ? stationHeights(cam, heights.heightAt, photos, targets) : stationOverlaps(cam, heights.heightAt, photos, headingDeg, targets, envelope ? {
     extentsFor: (li, planned) => {
       const g = guaranteedExtents(cam, heights.heightAt, photos[li], headingDeg, planned, envelope);
       marginPx = Math.max(marginPx, g.marginPx);

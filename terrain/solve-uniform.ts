@@ -19,7 +19,7 @@ export interface UniformOutcome {
   flightTimeS: number;
   lineCount: number;
   photoCount: number;
-  /** Share of the reachable cells meeting every spec item (null when not checked: a faster setting already met it). */
+  /** Share of the reachable cells meeting every spec item (null when not checked: a faster setting already met it, or the check stopped at the first short cell). */
   shareReachable: number | null;
   meets: boolean | null;
   plan: PlanResult;
@@ -36,11 +36,12 @@ export function uniformSweep(headingDeg: number): UniformSetting[] {
 
 /**
  * Analyse every setting, then check them fastest first until one meets the spec on every reachable cell (the
- * best uniform plan: no faster setting meets it). `maxChecks` bounds the rasters computed.
+ * best uniform plan: no faster setting meets it). `maxChecks` bounds the rasters computed. `opts.overlaps: false`
+ * analyses without overlaps (flight time, photos and raster are the same; the verdict never reads them).
  */
 export function bestUniform(grid: Grid, input: Record<string, unknown>, settings: UniformSetting[], verifier: Verifier, opts: AnalyseOptions = {}, maxChecks = Infinity): { outcomes: UniformOutcome[]; best: UniformOutcome | null; checked: number } {
   const outcomes: UniformOutcome[] = settings.map((setting) => {
-    const plan = analysePlan(grid, { ...input, ...setting }, { verticalDatum: opts.verticalDatum });
+    const plan = analysePlan(grid, { ...input, ...setting }, { verticalDatum: opts.verticalDatum, overlaps: opts.overlaps });
     return { setting, flightTimeS: plan.summary.flightTimeS, lineCount: plan.summary.lineCount, photoCount: plan.summary.photoCount, shareReachable: null, meets: null, plan };
   });
   const order = outcomes.map((_, i) => i).sort((a, b) => outcomes[a].flightTimeS - outcomes[b].flightTimeS || outcomes[b].setting.forwardOverlap - outcomes[a].setting.forwardOverlap);

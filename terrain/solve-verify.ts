@@ -27,6 +27,11 @@ export interface Verifier {
   cellM: number;
   reach: Reach;
   check(plan: PlanResult): Verdict;
+  /**
+   * Whether the plan meets the spec on every reachable cell, answered at the first short cell: its full verdict
+   * when it does (every cell was visited), null at the first reachable cell that falls short (no share known).
+   */
+  verdictIfMeets(plan: PlanResult): Verdict | null;
 }
 
 /**
@@ -44,25 +49,36 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
   const cellM = solverCellM(grid, mission, settings);
   const cells = coverageCells(grid, frame, mission.area, cellM, settings.maxCells);
   const reach = reachability(cells, spec, mission.clearanceM + mission.obstacleAllowanceM, gsdPerM);
+  /** The first spec item a reachable cell fails, or null (unreachable cells and cells that meet every item). */
+  const shortOf = (raster: CoverageRaster, i: number): Verdict['failing'][number]['item'] | null => {
+    if (reach.code[i]) return null;
+    const gsd = !(raster.finestGsdCm[i] <= spec.maxGsdCm);
+    const views = raster.views[i] < spec.minViews;
+    const sv = spec.maxSigmaVerticalM !== null && !(raster.sigmaVerticalM[i] <= spec.maxSigmaVerticalM);
+    const sh = spec.maxSigmaHorizontalM !== null && !(raster.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM);
+    return gsd ? 'gsd' : views ? 'views' : sv || sh ? 'other' : null;
+  };
+  const rasterOf = (plan: PlanResult, stopAtShort: boolean) => computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, envelope).photos, {
+    cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
+    stopAt: stopAtShort ? (i, r) => shortOf(r, i) !== null : undefined,
+  });
+  const verdictOf = (raster: CoverageRaster): Verdict => {
+    const compliance = coverageCompliance(reachableOnly(raster, reach), spec);
+    const failing: Verdict['failing'] = [];
+    const { inside } = raster.cells;
+    for (let i = 0; i < inside.length; i++) {
+      if (!inside[i]) continue;
+      const item = shortOf(raster, i);
+      if (item) failing.push({ cell: i, item });
+    }
+    return { raster, compliance, meets: failing.length === 0, failing };
+  };
   return {
     frame, cells, cellM, reach,
-    check(plan) {
-      const { photos } = planPhotos(plan, frame, envelope);
-      const raster = computeCoverage(grid, frame, mission.area, mission.camera, photos, {
-        cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
-      });
-      const compliance = coverageCompliance(reachableOnly(raster, reach), spec);
-      const failing: Verdict['failing'] = [];
-      const { inside } = raster.cells;
-      for (let i = 0; i < inside.length; i++) {
-        if (!inside[i] || reach.code[i]) continue;
-        const gsd = !(raster.finestGsdCm[i] <= spec.maxGsdCm);
-        const views = raster.views[i] < spec.minViews;
-        const sv = spec.maxSigmaVerticalM !== null && !(raster.sigmaVerticalM[i] <= spec.maxSigmaVerticalM);
-        const sh = spec.maxSigmaHorizontalM !== null && !(raster.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM);
-        if (gsd || views || sv || sh) failing.push({ cell: i, item: gsd ? 'gsd' : views ? 'views' : 'other' });
-      }
-      return { raster, compliance, meets: failing.length === 0, failing };
+    check: (plan) => verdictOf(rasterOf(plan, false)),
+    verdictIfMeets(plan) {
+      const raster = rasterOf(plan, true);
+      return raster.stoppedAtCell === undefined ? verdictOf(raster) : null;
     },
   };
 }

@@ -73,9 +73,19 @@ export type SolvedPlan = PlanResult & SolveReport;
 export interface SolveOptionsArg extends AnalyseOptions {
   /** Uniform settings to compare with besides the mission's own (the bench passes the sweep's best). */
   uniform?: UniformSetting[];
+  /**
+   * Analyse every candidate layout and yardstick plan with its overlaps, and every yardstick's whole raster
+   * (default false: only the returned plan carries overlaps, and a yardstick's raster stops at its first short
+   * cell, its share then null; no choice reads either). The same plan comes back either way; tests compare the two.
+   */
+  candidatesInFull?: boolean;
 }
 
-interface Built { plan: PlanResult; rows: LayoutRow[]; choices: LineChoice[]; flightTimeS: number }
+interface Built {
+  plan: PlanResult; rows: LayoutRow[]; choices: LineChoice[]; flightTimeS: number;
+  /** The same layout analysed with every figure (overlaps as planned and guaranteed). */
+  full: () => Built;
+}
 
 /** Repairs found by checking the raster: places (cross-track) that need a lower line or more photos along. */
 interface Repairs { lower: number[]; views: number[] }
@@ -144,45 +154,51 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       return line;
     });
     // the analysed mission's GSD band is the spec's (finer is never a fault), so station flags speak of the spec
-    const plan = analysePlan(grid, { ...inputObj, headingDeg, mode: 'follow', targetGsdCm: spec.maxGsdCm / 1.5, gsdTolerance: 0.5, forwardOverlap: Math.min(0.95, forwardOverlapForViews(spec.minViews, so.minForwardOverlap)), sideOverlap: so.minSideOverlap }, {
-      verticalDatum: opts.verticalDatum, lines, limitsFor: (line, lim) => limitsBy.get(line) ?? lim,
-      bandGroundFor: (line, x) => { const s = stripBy.get(line); const lim = limitsBy.get(line); return s && lim ? stripLowM(ctx, line, x, s, lim.bandHighM) : undefined; },
-    });
-    const kept = info.filter((i) => i.plannable);
-    const choices: LineChoice[] = plan.lines.map((pl, li) => {
-      const it = kept[li];
-      let vMin = Infinity, vMax = 0;
-      for (const g of pl.legs) {
-        const v = round(legSpeedMps(mission, g.gradient), 2);
-        g.speedMps = v;
-        vMin = Math.min(vMin, v); vMax = Math.max(vMax, v);
-        const st = pl.stations.filter((s) => s.distanceM >= g.start.distanceM - 1e-6 && s.distanceM <= g.end.distanceM + 1e-6).map((s) => s.distanceM);
-        const d = st.slice(1).map((v2, k) => v2 - st[k]);
-        if (d.length) g.triggerDistanceM = { min: round(Math.min(...d), 2), max: round(Math.max(...d), 2) };
-      }
-      const row = it ? rows[it.row] : undefined;
-      const reasons: string[] = [];
-      if (it && row) {
-        const nx = row.next;
-        const rowNo = (r: number) => { const k = kept.findIndex((q) => q.row === r); return k >= 0 ? k + 1 : null; };
-        if (nx) {
-          const [lon, lat2] = frame.toLonLat(nx.atX, nx.atY);
-          reasons.push(`ground at ${round(nx.groundM, 1)} m above ${datum} between lines ${li + 1} and ${rowNo(it.row + 1) ?? '?'} (lon ${round(lon, 5)}, lat ${round(lat2, 5)}) leaves ${round(nx.halfLeftM, 1)} m and ${round(nx.halfRightM, 1)} m of footprint either side under the ${geometry.rollDeg}° roll: ${round(nx.spacingM, 1)} m spacing keeps the ${round(so.minSideOverlap * 100, 0)} % side overlap floor${nx.held ? '' : ' (not held after 7 tries: the raster check decides)'}.`);
-        } else reasons.push('last line of the layout: its footprint reaches the area\'s far edge.');
-        reasons.push(`altitude legs under ${round(it.factor * geometry.specHeightM, 1)} m above ground (${round(it.factor * 100, 0)} % of the ${round(geometry.specHeightM, 1)} m that gives the spec's ${spec.maxGsdCm} cm GSD), never below the ${mission.clearanceM + mission.obstacleAllowanceM} m clearance and allowance, under the ${mission.maxAglM} m height limit.`);
-        if (it.fitSpeed < mission.speedMps - 1e-9) reasons.push(`at ${mission.speedMps} m/s the climb/descent limits (${mission.climbMps}/${mission.descentMps} m/s) miss the GSD band over ${round(it.slowedForM, 0)} m of this line; legs were fitted for ${round(it.fitSpeed, 2)} m/s (gradients ${round(mission.climbMps / it.fitSpeed, 3)} up, ${round(mission.descentMps / it.fitSpeed, 3)} down) and each flies as fast as its own gradient allows (${round(vMin, 2)}–${round(vMax, 2)} m/s).`);
-        else reasons.push(`every leg at the mission's ${mission.speedMps} m/s: the climb/descent limits hold the band without slowing.`);
-        reasons.push(`photos every ${round(it.trig.minM, 1)}–${round(it.trig.maxM, 1)} m: ${round(it.fwd * 100, 0)} % forward overlap (${it.views} views along the line) over the highest ground under each photo; the tightest where ground reaches ${round(it.trig.tightestGroundM, 1)} m above ${datum}, ${round(it.trig.tightestAtM, 0)} m along.`);
-      }
-      return {
-        line: li + 1, offsetM: it ? round(it.line.offsetM, 2) : NaN, spacingToNextM: row?.next ? round(row.next.spacingM, 2) : null,
-        speedMps: { min: round(vMin, 2), max: round(vMax, 2) },
-        triggerDistanceM: { min: it ? round(it.trig.minM, 2) : 0, max: it ? round(it.trig.maxM, 2) : 0 },
-        legs: pl.legs.length, reasons,
-      };
-    });
-    const flightTimeS = flightTimeWithLegSpeedsS(plan, mission);
-    return { plan, rows, choices, flightTimeS };
+    const finish = (overlaps: boolean): Built => {
+      const plan = analysePlan(grid, { ...inputObj, headingDeg, mode: 'follow', targetGsdCm: spec.maxGsdCm / 1.5, gsdTolerance: 0.5, forwardOverlap: Math.min(0.95, forwardOverlapForViews(spec.minViews, so.minForwardOverlap)), sideOverlap: so.minSideOverlap }, {
+        verticalDatum: opts.verticalDatum, lines, limitsFor: (line, lim) => limitsBy.get(line) ?? lim,
+        bandGroundFor: (line, x) => { const s = stripBy.get(line); const lim = limitsBy.get(line); return s && lim ? stripLowM(ctx, line, x, s, lim.bandHighM) : undefined; },
+        overlaps,
+      });
+      const kept = info.filter((i) => i.plannable);
+      const choices: LineChoice[] = plan.lines.map((pl, li) => {
+        const it = kept[li];
+        let vMin = Infinity, vMax = 0;
+        for (const g of pl.legs) {
+          const v = round(legSpeedMps(mission, g.gradient), 2);
+          g.speedMps = v;
+          vMin = Math.min(vMin, v); vMax = Math.max(vMax, v);
+          const st = pl.stations.filter((s) => s.distanceM >= g.start.distanceM - 1e-6 && s.distanceM <= g.end.distanceM + 1e-6).map((s) => s.distanceM);
+          const d = st.slice(1).map((v2, k) => v2 - st[k]);
+          if (d.length) g.triggerDistanceM = { min: round(Math.min(...d), 2), max: round(Math.max(...d), 2) };
+        }
+        const row = it ? rows[it.row] : undefined;
+        const reasons: string[] = [];
+        if (it && row) {
+          const nx = row.next;
+          const rowNo = (r: number) => { const k = kept.findIndex((q) => q.row === r); return k >= 0 ? k + 1 : null; };
+          if (nx) {
+            const [lon, lat2] = frame.toLonLat(nx.atX, nx.atY);
+            reasons.push(`ground at ${round(nx.groundM, 1)} m above ${datum} between lines ${li + 1} and ${rowNo(it.row + 1) ?? '?'} (lon ${round(lon, 5)}, lat ${round(lat2, 5)}) leaves ${round(nx.halfLeftM, 1)} m and ${round(nx.halfRightM, 1)} m of footprint either side under the ${geometry.rollDeg}° roll: ${round(nx.spacingM, 1)} m spacing keeps the ${round(so.minSideOverlap * 100, 0)} % side overlap floor${nx.held ? '' : ' (not held after 7 tries: the raster check decides)'}.`);
+          } else reasons.push('last line of the layout: its footprint reaches the area\'s far edge.');
+          reasons.push(`altitude legs under ${round(it.factor * geometry.specHeightM, 1)} m above ground (${round(it.factor * 100, 0)} % of the ${round(geometry.specHeightM, 1)} m that gives the spec's ${spec.maxGsdCm} cm GSD), never below the ${mission.clearanceM + mission.obstacleAllowanceM} m clearance and allowance, under the ${mission.maxAglM} m height limit.`);
+          if (it.fitSpeed < mission.speedMps - 1e-9) reasons.push(`at ${mission.speedMps} m/s the climb/descent limits (${mission.climbMps}/${mission.descentMps} m/s) miss the GSD band over ${round(it.slowedForM, 0)} m of this line; legs were fitted for ${round(it.fitSpeed, 2)} m/s (gradients ${round(mission.climbMps / it.fitSpeed, 3)} up, ${round(mission.descentMps / it.fitSpeed, 3)} down) and each flies as fast as its own gradient allows (${round(vMin, 2)}–${round(vMax, 2)} m/s).`);
+          else reasons.push(`every leg at the mission's ${mission.speedMps} m/s: the climb/descent limits hold the band without slowing.`);
+          reasons.push(`photos every ${round(it.trig.minM, 1)}–${round(it.trig.maxM, 1)} m: ${round(it.fwd * 100, 0)} % forward overlap (${it.views} views along the line) over the highest ground under each photo; the tightest where ground reaches ${round(it.trig.tightestGroundM, 1)} m above ${datum}, ${round(it.trig.tightestAtM, 0)} m along.`);
+        }
+        return {
+          line: li + 1, offsetM: it ? round(it.line.offsetM, 2) : NaN, spacingToNextM: row?.next ? round(row.next.spacingM, 2) : null,
+          speedMps: { min: round(vMin, 2), max: round(vMax, 2) },
+          triggerDistanceM: { min: it ? round(it.trig.minM, 2) : 0, max: it ? round(it.trig.maxM, 2) : 0 },
+          legs: pl.legs.length, reasons,
+        };
+      });
+      const flightTimeS = flightTimeWithLegSpeedsS(plan, mission);
+      const out: Built = { plan, rows, choices, flightTimeS, full: () => (overlaps ? out : finish(true)) };
+      return out;
+    };
+    // candidates are analysed without overlaps (no choice reads them: the raster decides), the chosen one in full
+    return finish(opts.candidatesInFull ?? false);
   };
   // 1. heading: the candidate whose layout flies fastest
   const none: Repairs = { lower: [], views: [] };
@@ -217,16 +233,21 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict };
   }
   ({ built, verdict } = best);
+  // the chosen layout with every figure: the same lines, stations and legs (so the same raster and verdict)
+  built = built.full();
   // 3. the yardstick: uniform settings; fall back when one meets the spec in no more time (or the solved plan does not meet it)
   const own: UniformSetting = { forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, mode: mission.mode, headingDeg: typeof mission.headingDeg === 'number' ? mission.headingDeg : headingDeg };
   // the mission's own overlaps in each altitude mode, and any settings the caller adds
   const modes = (['hold', 'steps', 'follow'] as const).filter((m) => m !== own.mode).map((mode) => ({ ...own, mode }));
   // analysed all; rasters only for those that could win (no slower than the solved plan, or all when it falls short)
-  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, opts, 0).outcomes;
+  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, { ...opts, overlaps: opts.candidatesInFull ?? false }, 0).outcomes;
+  const uniformVerdicts = new Map<UniformOutcome, Verdict>();
   for (const o of checkedUniform) {
     if (verdict.meets && o.flightTimeS > built.flightTimeS) continue;
-    const v = verifier.check(o.plan);
-    o.meets = v.meets; o.shareReachable = v.compliance.shareAll;
+    // only whether it meets the spec decides: its raster stops at its first short cell
+    const v = opts.candidatesInFull ? verifier.check(o.plan) : verifier.verdictIfMeets(o.plan);
+    if (v) uniformVerdicts.set(o, v);
+    o.meets = v ? v.meets : false; o.shareReachable = v ? v.compliance.shareAll : null;
   }
   const meetingUniform = checkedUniform.filter((o) => o.meets).sort((a, b) => a.flightTimeS - b.flightTimeS)[0] ?? null;
   let plan = built.plan;
@@ -236,9 +257,11 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   if (meetingUniform && (!verdict.meets || meetingUniform.flightTimeS <= flightTimeS)) {
     const u: UniformOutcome = meetingUniform;
     fallback = `the uniform setting (forward ${round(u.setting.forwardOverlap * 100, 0)} %, side ${round(u.setting.sideOverlap * 100, 0)} %, ${u.setting.mode}, ${u.setting.headingDeg}°) meets the spec in ${round(u.flightTimeS, 0)} s, ${verdict.meets ? `no more than the solved layout's ${round(flightTimeS, 0)} s` : 'and the solved layout does not meet it'}: it is returned instead.`;
-    plan = u.plan;
+    // the yardstick was analysed without overlaps: the plan returned carries them
+    plan = analysePlan(grid, { ...inputObj, ...u.setting }, { verticalDatum: opts.verticalDatum });
     flightTimeS = u.flightTimeS;
-    verdict = verifier.check(plan);
+    // its photos are the checked plan's own, so its verdict stands
+    verdict = uniformVerdicts.get(u)!;
     choiceLines = [];
   }
   plan.summary.flightTimeS = round(flightTimeS, 1);
