@@ -5,14 +5,15 @@
  * two more round trips in a row. Chromium hands a preloaded answer to the app's own fetch when the request matches
  * (same URL, `credentials: 'include'` ↔ `crossorigin=use-credentials`), so nothing is fetched twice.
  *
- * Only for a caller with a live session, and a sheet only in a team the caller belongs to: the header never names
- * a team or version the caller could not already read. The sheet's own route still applies every permission.
+ * Only for a caller with a live session, a sheet only in a team the caller belongs to, and a home screen's list
+ * (flights, work) only when the caller belongs to exactly one team: the header never names a team or version the
+ * caller could not already read, nor guesses which of several teams the app will open. The sheet's own route still applies every permission.
  */
 import { eq, sql } from 'drizzle-orm';
 import type { Request } from 'express';
 import { screenGroupOf } from '../../contracts/screen-groups';
 import type { Db } from '../../db/client';
-import { planVersion } from '../../db/schema';
+import { member, planVersion } from '../../db/schema';
 import type { Guards } from './guard';
 import { isUuid } from './ids';
 
@@ -27,11 +28,30 @@ export function dataPreloader(deps: { db: Db; guards: Pick<Guards, 'sessionOf' |
     .limit(1)
     .prepare('shell_version_team');
 
+  // Two rows are enough to know whether the caller has exactly one team (the app's current team is then that one).
+  const teamsOf = deps.db
+    .select({ teamId: member.organizationId })
+    .from(member)
+    .where(eq(member.userId, sql.placeholder('userId')))
+    .limit(2)
+    .prepare('shell_user_teams');
+  /** The team lists the pilot's and the office's home screens read first, by address. */
+  const homeLists: Record<string, (teamId: string) => string> = {
+    '/flights': (teamId) => `/api/teams/${encodeURIComponent(teamId)}/flights`,
+    '/work': (teamId) => `/api/teams/${encodeURIComponent(teamId)}/work`,
+  };
+
   return async (req: Request): Promise<string[]> => {
     if (!screenGroupOf(req.path)) return []; // signed-out screens (sign-in, invitations) ask for nothing first
     const auth = await deps.guards.sessionOf(req).catch(() => null);
     if (!auth) return [];
     const links = [fetchLink('/api/me')];
+    const home = homeLists[req.path.replace(/\/$/, '')];
+    if (home) {
+      // Which team's list the app opens is its own choice when the caller has several: named only when there is one.
+      const teams = await teamsOf.execute({ userId: auth.user.id });
+      if (teams.length === 1) links.push(fetchLink(home(teams[0]!.teamId)));
+    }
     const sheet = /^\/flights\/([^/]+)\/?$/.exec(req.path);
     const versionId = sheet?.[1];
     if (versionId && isUuid(versionId)) {

@@ -128,6 +128,13 @@ describe.skipIf(skipWeb)('the first screen on the wire', () => {
     expect((await linksFor(null, `/flights/${v.versionId}`)).links).toHaveLength(1);
     expect((await linksFor(team.clients.planner.cookieHeader(), '/projects')).links.slice(1)).toEqual([fetchLink('/api/me')]);
     expect((await linksFor(team.clients.planner.cookieHeader(), '/sign-in')).links).toEqual([]);
+    // A home screen's list, for a caller with one team (the app opens that team); with two teams the app chooses.
+    const teamPath = `/api/teams/${team.teamId}`;
+    expect((await linksFor(team.clients.pilot.cookieHeader(), '/flights')).links.slice(1)).toEqual([fetchLink('/api/me'), fetchLink(`${teamPath}/flights`)]);
+    expect((await linksFor(team.clients.surveyor.cookieHeader(), '/work')).links.slice(1)).toEqual([fetchLink('/api/me'), fetchLink(`${teamPath}/work`)]);
+    expect((await team.clients.pilot.get(`${teamPath}/flights`)).status).toBe(200);
+    expect((await other.clients.owner.post('/api/teams', { name: 'Preload second team' })).status).toBe(201);
+    expect((await linksFor(other.clients.owner.cookieHeader(), '/work')).links.slice(1)).toEqual([fetchLink('/api/me')]);
     // A sheet address that is no version id asks the database nothing and names nothing beyond the session check.
     expect((await linksFor(team.clients.pilot.cookieHeader(), '/flights/not-a-version')).links.slice(1)).toEqual([fetchLink('/api/me')]);
   });
