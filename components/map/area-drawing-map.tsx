@@ -3,7 +3,9 @@ import { StyleSheet, View } from 'react-native';
 import { FilePicker } from '../sites/file-picker';
 import { space } from '../theme';
 import { Banner, Button, ChoiceGroup, Text } from '../ui';
+import { formatLength } from '../projects/units';
 import type { DrawTool } from './area-drawing';
+import type { NudgeDirection } from './corner-keys';
 import type { ImageGeoref } from './image-georef';
 import { MapCanvas } from './map-canvas';
 import type { AreaDrawing } from './use-area-drawing';
@@ -40,8 +42,8 @@ export function AreaDrawingMap({ drawing, georef, imageUrl, widthPx, heightPx, e
     : state.tool === 'takeoff'
       ? 'Tap the hillshade where the aircraft takes off.'
       : state.closed
-        ? 'The area is closed. Drag a corner to move it; press one, then Remove corner, to take it out. Undo reopens the area; Clear starts again.'
-        : 'Tap the hillshade to add corners in order, then close the area. Drag a corner to move it.';
+        ? 'The area is closed. Drag a corner to move it (or choose it with Next corner and move it with the arrow buttons); press one, then Remove corner, to take it out. Undo reopens the area; Clear starts again.'
+        : 'Tap the hillshade to add corners in order, then close the area. Drag a corner to move it, or choose it with Next corner and move it with the arrow buttons.';
   return (
     <View style={styles.wrap} testID="area-editor">
       {editable ? (
@@ -72,6 +74,7 @@ export function AreaDrawingMap({ drawing, georef, imageUrl, widthPx, heightPx, e
       {drawing.takeoffProblem ? <Banner tone="danger" message={drawing.takeoffProblem} testID="takeoff-problem" /> : null}
       {state.note ? <Banner tone="info" message={state.note} /> : null}
       {fieldError ? <Banner tone="danger" message={fieldError} testID="area-field-error" /> : null}
+      {editable && state.corners.length > 0 ? <CornerKeys drawing={drawing} /> : null}
       {editable ? (
         <View style={styles.actions}>
           <Button label="Undo" variant="secondary" size="compact" onPress={drawing.undo} disabled={state.corners.length === 0} testID="area-undo" />
@@ -89,6 +92,41 @@ export function AreaDrawingMap({ drawing, georef, imageUrl, widthPx, heightPx, e
           <FilePicker label="Import GeoJSON or KML" accept=".geojson,.json,.kml,application/geo+json,application/vnd.google-earth.kml+xml" onPick={(f) => void drawing.importFile(f)} size="compact" testID="area-import" />
         </View>
       ) : null}
+    </View>
+  );
+}
+
+const arrows: { direction: NudgeDirection; glyph: string; words: string }[] = [
+  { direction: 'up', glyph: '↑', words: 'up' },
+  { direction: 'down', glyph: '↓', words: 'down' },
+  { direction: 'left', glyph: '←', words: 'left' },
+  { direction: 'right', glyph: '→', words: 'right' },
+];
+
+/** Choosing and moving a corner by buttons, for keyboards and switch access; a step is one hillshade pixel. */
+function CornerKeys({ drawing }: { drawing: AreaDrawing }) {
+  const chosen = drawing.selectedCorner;
+  const n = drawing.state.corners.length;
+  const stepWords = (d: NudgeDirection) => formatLength(d === 'up' || d === 'down' ? drawing.stepM.down : drawing.stepM.across, 'metric', 1);
+  return (
+    <View style={styles.actions} testID="corner-keys">
+      <Button label="Previous corner" variant="secondary" size="compact" onPress={() => drawing.chooseCorner(-1)} testID="corner-previous" />
+      <Button label="Next corner" variant="secondary" size="compact" onPress={() => drawing.chooseCorner(1)} testID="corner-next" />
+      {arrows.map((a) => (
+        <Button
+          key={a.direction}
+          label={a.glyph}
+          accessibilityLabel={chosen !== null ? `Move corner ${chosen + 1} ${a.words} by ${stepWords(a.direction)}` : `Move a corner ${a.words}: choose one first`}
+          variant="secondary"
+          size="compact"
+          disabled={chosen === null}
+          onPress={() => drawing.nudgeSelected(a.direction)}
+          testID={`corner-move-${a.direction}`}
+        />
+      ))}
+      <Text variant="label" tone="muted" accessibilityLiveRegion="polite" testID="corner-chosen">
+        {chosen !== null ? `Corner ${chosen + 1} of ${n} chosen; a step is ${stepWords('up')} up or down, ${stepWords('left')} across` : 'No corner chosen'}
+      </Text>
     </View>
   );
 }

@@ -6,6 +6,8 @@ import { checkTakeoff, ringToPolygon, type LonLat } from './area-check';
 import { drawingReducer, initialDrawing, type DrawTool } from './area-drawing';
 import { AreaImportError, parseAreaFile } from './area-import';
 import type { ImageGeoref } from './image-georef';
+import { nextCorner, nudgedCorner, type NudgeDirection } from './corner-keys';
+import { groundScale } from './ground-aspect';
 import { pickHandle } from './map-handles';
 import type { DragMove, MapShape, PxPoint } from './map-shapes';
 
@@ -47,6 +49,11 @@ export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null
   }, []);
 
   const toPx = useCallback((p: LonLat): PxPoint => georef.toPixel(p[0], p[1]), [georef]);
+  /** Ground length of one keyboard step (one hillshade pixel) across and down the map, metres. */
+  const stepM = useMemo(() => {
+    const g = groundScale(georef);
+    return { across: g.metresPerPxX, down: g.metresPerPxY };
+  }, [georef]);
 
   /** A press on a corner (or, away from every corner, on the takeoff point) drags it; elsewhere the map pans. */
   const grab = useCallback(
@@ -95,6 +102,15 @@ export function useAreaDrawing(georef: ImageGeoref, initialArea?: Polygon | null
       dispatch({ type: 'removeCorner', index: selectedCorner });
       setSelectedCorner(null);
     },
+    /** Choose the next (+1) or previous (-1) corner, for moving or removing it from the keyboard. */
+    chooseCorner: (delta: 1 | -1) => setSelectedCorner((i) => nextCorner(i !== null && i < state.corners.length ? i : null, state.corners.length, delta)),
+    /** Move the chosen corner one hillshade pixel; a closed area is checked again as after a drag. */
+    nudgeSelected: (direction: NudgeDirection) => {
+      if (selectedCorner === null || selectedCorner >= state.corners.length) return;
+      setImportError(null);
+      dispatch({ type: 'moveCorner', index: selectedCorner, at: nudgedCorner(georef, state.corners[selectedCorner]!, direction) });
+    },
+    stepM,
     undo: () => dispatch({ type: 'undo' }),
     close: () => dispatch({ type: 'close' }),
     clear: () => {

@@ -162,6 +162,31 @@ describe('maps of a lon/lat grid', () => {
     await page.getByTestId('area-remove-corner').click();
     await expect(page.getByTestId('area-status').textContent()).resolves.toContain('3 corners, area closed');
 
+    // by keyboard alone: Next corner chooses corner 1; each press of an arrow button moves it one hillshade pixel
+    await page.getByTestId('corner-next').focus();
+    await page.keyboard.press('Enter');
+    await expect(page.getByTestId('corner-chosen').textContent()).resolves.toMatch(/^Corner 1 of 3 chosen; a step is [\d.]+ m up or down, [\d.]+ m across$/);
+    await expect(page.getByTestId('area-remove-corner').textContent()).resolves.toBe('Remove corner 1');
+    await expect(page.getByTestId('corner-move-right').getAttribute('aria-label')).resolves.toMatch(/^Move corner 1 right by [\d.]+ m$/);
+    const k0 = centre(await box(page, 'area-map-marker-corner-0'));
+    const kv = (await map.getAttribute('data-view'))!.split(' ').map(Number);
+    const kb = (await map.boundingBox())!;
+    await page.getByTestId('corner-move-right').focus();
+    for (let i = 0; i < 6; i++) await page.keyboard.press('Enter');
+    await page.getByTestId('corner-move-up').focus();
+    for (let i = 0; i < 4; i++) await page.keyboard.press('Enter');
+    const k1 = centre(await box(page, 'area-map-marker-corner-0'));
+    // six image pixels right and four up, drawn at the map's scale (view box in image pixels, aspect applied across)
+    const acrossPx = kb.width / (kv[2] - kv[0]);
+    const downPx = kb.height / (kv[3] - kv[1]);
+    expect(k1[0] - k0[0]).toBeGreaterThan(0);
+    expect(k0[1] - k1[1]).toBeGreaterThan(0);
+    console.log(`corner keys: moved ${(k1[0] - k0[0]).toFixed(2)} px right, ${(k0[1] - k1[1]).toFixed(2)} px up; view px ${acrossPx.toFixed(3)} x ${downPx.toFixed(3)}`);
+    expect(Math.abs((k1[0] - k0[0]) / 6 / acrossPx - 1)).toBeLessThan(0.05);
+    expect(Math.abs((k0[1] - k1[1]) / 4 / downPx - 1)).toBeLessThan(0.05);
+    await page.getByTestId('area-editor').screenshot({ path: path.join(shotDir, 'plan-map-phone-corner-keys.png') });
+    await expect(page.getByTestId('area-status').textContent()).resolves.toContain('3 corners, area closed');
+
     // zoom: a button, then the keyboard (Enter on the focused button, arrows pan), then reset; the scale bar follows
     const view0 = (await map.getAttribute('data-view'))!.split(' ').map(Number);
     const scale0 = (await page.getByTestId('area-map-scale-label').textContent())!;
