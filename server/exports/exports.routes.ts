@@ -4,7 +4,7 @@ import { exportFormats, exportMedia, type ExportFormat } from '../../contracts/e
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { requireAnalysed } from '../reports/result-view';
-import type { RouteGroup } from '../routes';
+import type { RouteGroup } from '../route-group';
 import { createVersionsRepository } from '../reviews/versions.repository';
 import { toCsv } from './csv';
 import { exportContext, type ExportContext } from './export-context';
