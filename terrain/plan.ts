@@ -1,7 +1,7 @@
 /** The whole mission analysis over a grid: lines, stations, overlaps, altitude legs, estimates and warnings (CLI `plan`, worker and API). */
 import type { Grid } from './grid';
 import { TerrainError, check } from './errors';
-import { footprintM, heightForGsdM, airBaseM, lineSpacingM } from './gsd';
+import { footprintM, gsdBandCm, heightForGsdM, airBaseM, lineSpacingM } from './gsd';
 import { pixelPitchMm } from './camera';
 import { resolveMission } from './mission';
 import { localFrameFor, localHeights, type LocalFrame } from './local-frame';
@@ -177,7 +177,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     return { headingDeg: line.headingDeg, row: offsets.indexOf(line.offsetM), x: px, y: py, altitudeM: alt };
   });
   const gsdPerM = (pixelPitchMm(cam) / cam.focalLengthMm) * 100;
-  const band = { min: mission.targetGsdCm * (1 - mission.gsdTolerance), max: mission.targetGsdCm * (1 + mission.gsdTolerance) };
+  const band = gsdBandCm(mission);
   // the mission's attitude envelope (none unless it names one): overlaps are then also given as guaranteed
   // An envelope the lines cannot be held in (crosswind at least the airspeed) leaves the overlaps as planned only
   // and says why, as the coverage run refuses it: the plan's own figures still stand.

@@ -10,7 +10,7 @@ import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import type { RouteGroup } from '../route-group';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createAsFlownRepository } from './as-flown.repository';
 import { createAsFlownUsecases } from './as-flown.usecases';
 

@@ -4,9 +4,9 @@ import { flightListSchema, legSheetSchema } from '../../contracts/flights';
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
-import { requireAnalysed } from '../reports/result-view';
+import { requireAnalysed } from '../versions/result-view';
 import type { RouteGroup } from '../route-group';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createFlightsRepository } from './flights.repository';
 import { buildLegSheet } from './leg-sheet.build';
 

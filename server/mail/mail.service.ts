@@ -1,5 +1,5 @@
 /** The mail service factory for the boot sequence, and the typed way routes reach it. */
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createReportService } from '../reports/reports.service';
 import type { Db } from '../../db/client';
 import type { Config } from '../config';

@@ -13,7 +13,7 @@ import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import type { RouteGroup } from '../route-group';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createFlightTriggersRepository } from './flight-triggers.repository';
 import { createLiveCoverageHub } from './live-coverage.service';
 import { missionItemsOf, requireSignedOff } from './mission-items.view';

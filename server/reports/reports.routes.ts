@@ -4,7 +4,7 @@ import { complianceReportSchema } from '../../contracts/reports';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
 import type { RouteGroup } from '../route-group';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createReportService } from './reports.service';
 import { createTeamSettingsRepository } from '../teams/team-settings.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';

@@ -8,7 +8,7 @@ import type { RouteGroup } from '../route-group';
 import { createReviewNotifier } from './reviews.notify';
 import { createReviewsRepository } from './reviews.repository';
 import { createReviewsUsecases } from './reviews.usecases';
-import { createVersionsRepository } from './versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';
 import { confirmFlownSchema, flownConfirmationSchema } from '../../contracts/flown-confirmation';
 import { createTeamSettingsRepository } from '../teams/team-settings.repository';
