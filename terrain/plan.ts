@@ -3,6 +3,7 @@ import type { Grid } from './grid';
 import { TerrainError, check } from './errors';
 import { footprintM, gsdBandCm, heightForGsdM, airBaseM, lineSpacingM } from './gsd';
 import { pixelPitchMm } from './camera';
+import { METRES_PER_FOOT, METRES_PER_US_SURVEY_FOOT } from './length-units';
 import { resolveMission } from './mission';
 import { localFrameFor, localHeights, type LocalFrame } from './local-frame';
 import { planFlightLines, polygonToLocal, pointAlong, type FlightLine } from './lines';
@@ -29,8 +30,8 @@ export function autoStepM(grid: Grid, latDeg: number): number {
   let dx = Math.hypot(t[1], t[4]);
   let dy = Math.hypot(t[2], t[5]);
   if (grid.crs.geographic) { dx *= 111_320 * Math.cos((latDeg * Math.PI) / 180); dy *= 110_574; }
-  else if (grid.crs.horizontalUnit === 'foot') { dx *= 0.3048; dy *= 0.3048; }
-  else if (grid.crs.horizontalUnit === 'us-survey-foot') { dx *= 1200 / 3937; dy *= 1200 / 3937; }
+  else if (grid.crs.horizontalUnit === 'foot') { dx *= METRES_PER_FOOT; dy *= METRES_PER_FOOT; }
+  else if (grid.crs.horizontalUnit === 'us-survey-foot') { dx *= METRES_PER_US_SURVEY_FOOT; dy *= METRES_PER_US_SURVEY_FOOT; }
   return Math.min(10, Math.max(1, Math.min(dx, dy)));
 }
 

@@ -2,7 +2,7 @@
 import type { ChecklistItem, LegSheet, SheetLeg, SheetLine } from '../../contracts/flights';
 import { reviewStateSchema } from '../../contracts/reviews';
 import { flightCautions, notSignedOffCaution } from '../../contracts/cautions';
-import { fmt } from '../reports/format';
+import { fmt } from '../../contracts/format/figures';
 import { azimuthDeg, distanceM } from '../versions/geodesy';
 import { heightDatumOf, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../versions/result-view';
 import type { VersionRecord } from '../versions/versions.repository';

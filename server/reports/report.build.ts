@@ -9,7 +9,7 @@ import { flightCautions } from '../../contracts/cautions';
 import { coverageChecks, reportCoverage } from './report.coverage';
 import type { ReportAsFlown, ReportFlown } from '../../contracts/reports';
 import { gsdBandCm } from '../../terrain/gsd';
-import { fmt } from './format';
+import { fmt } from '../../contracts/format/figures';
 import { heightDatumOf, planWarnings, readMission, readResult, type StationView } from '../versions/result-view';
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
 
