@@ -14,7 +14,7 @@ import { heightDatumOf, planWarnings, readMission, readResult, type StationView 
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
 
 /** The GSD band of the spec as the report gives it, [finest, coarsest] cm (terrain/gsd.ts computes it). */
-export function gsdBandOf(m: Pick<Mission, 'targetGsdCm' | 'gsdTolerance'>): [number, number] {
+function gsdBandOf(m: Pick<Mission, 'targetGsdCm' | 'gsdTolerance'>): [number, number] {
   const band = gsdBandCm(m);
   return [band.min, band.max];
 }
