@@ -1,7 +1,8 @@
 /**
  * The layering rules, checked on the source as it is, one test per rule (so a new file cannot break one unseen):
- * - terrain/ imports nothing of server/, db/, app/, components/, cli/ or scripts/, and no Node built-in, not even
- *   through a library (what needs zlib, a PNG's deflate or a TIFF's inflate, is handed in by its caller);
+ * - terrain/ imports only terrain/ (nothing of server/, db/, app/, components/, cli/ or scripts/), and no Node
+ *   built-in, not even through a library (what needs zlib, a PNG's deflate or a TIFF's inflate, is handed in by
+ *   its caller; tests/terrain/purity.test.ts lists the libraries it may use);
  * - contracts/ imports nothing of server/, db/, app/ or components/;
  * - app/ and components/ import only contracts/, terrain/ modules and each other (and npm packages that are not Node
  *   built-ins);
@@ -195,7 +196,7 @@ describe('import rules', () => {
   });
 
   it('keeps terrain/ to itself', () => {
-    expect(breachesOutsideOf(['terrain'], ['terrain', 'contracts'])).toEqual([]);
+    expect(breachesOutsideOf(['terrain'], ['terrain'])).toEqual([]);
   });
 
   it('keeps terrain/ free of Node built-ins, also through a library', () => {
