@@ -109,19 +109,6 @@ export const versionReviewSchema = z.object({
 });
 export type VersionReview = z.infer<typeof versionReviewSchema>;
 
-/** Audit actions this code writes; other domains add theirs (version.created, analysis.done …). */
-export const auditActions = [
-  'review.submitted',
-  'review.signed_off',
-  'review.returned',
-  'review.flown_confirmed',
-  'mail.sent',
-  'mail.failed',
-  'invitation.created',
-  'invitation.revoked',
-  'invitation.accepted',
-] as const;
-
 /** One entry of a plan's audit trail. */
 export const auditEventSchema = z.object({
   id: z.string(),

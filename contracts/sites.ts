@@ -9,12 +9,6 @@ export const surfaceKinds = ['bare-earth', 'surface'] as const;
 export const surfaceKindSchema = z.enum(surfaceKinds, { error: 'surfaceKind must be "bare-earth" or "surface".' });
 export type SurfaceKind = z.infer<typeof surfaceKindSchema>;
 
-/** Our labels for the surface kinds. */
-export const surfaceKindLabels: Record<SurfaceKind, string> = {
-  'bare-earth': 'Bare earth (ground only)',
-  surface: 'Surface model (trees and buildings included)',
-};
-
 /**
  * The text fields of the multipart upload (the file itself goes in the part named `file`).
  * `verticalDatum` may be left out when the GeoTIFF declares one (its GeoKeys); otherwise the planner must state it.
@@ -121,6 +115,3 @@ export const duplicateSiteErrorSchema = apiErrorSchema.extend({
   error: apiErrorSchema.shape.error.extend({ code: z.literal('duplicate_site'), existingSiteId: z.string().uuid() }),
 });
 export type DuplicateSiteError = z.infer<typeof duplicateSiteErrorSchema>;
-
-/** Reasons a file is refused with 422: the terrain engine's (TerrainError codes), a read that ran out of time, a description that does not read back. */
-export const demRefusalCodes = ['not-tiff', 'truncated', 'damaged', 'not-elevation', 'unsupported', 'no-georeference', 'unknown-crs', 'too-large', 'all-nodata', 'too-slow', 'unreadable-grid'] as const;

@@ -5,7 +5,6 @@ import { demoUsers } from '../contracts/demo-team';
 import { demoPassword } from '../server/seed/demo-password';
 import { demoProjectStep } from '../server/seed/demo-project';
 import { seedDemo } from '../server/seed/seed';
-import { storageOf } from '../server/storage/storage.service';
 import { startCluster } from './lib/postgres';
 import { localAuthSecret } from './lib/secrets';
 import { ensureWebBuild } from './lib/web-build';
@@ -18,7 +17,7 @@ const databaseUrl = env.DATABASE_URL ?? cluster!.url('loftline');
 const webDist = await ensureWebBuild();
 const config = buildConfig(env, { databaseUrl, authSecret: localAuthSecret(), webDist });
 const srv = await bootServer(config);
-const seeded = await seedDemo({ db: srv.db, auth: srv.auth, steps: [demoProjectStep({ storage: storageOf(srv.services) })] });
+const seeded = await seedDemo({ db: srv.db, auth: srv.auth, steps: [demoProjectStep({ storage: srv.services.storage })] });
 
 console.log(`\nLoftline is running at ${config.publicUrl}`);
 console.log(seeded.created ? 'Demo team seeded. Demo accounts:' : 'Demo accounts:');

@@ -6,13 +6,8 @@
 import { createDb } from '../db/client';
 import { migrateDb } from '../db/migrate';
 import { createAuth } from '../server/auth/auth';
-import { startAnalysisSupervisor } from '../server/analysis/analysis-supervisor';
-import { startAnalysisWorkers } from '../server/analysis/analysis.worker';
-import { terrainFactory } from '../server/analysis/terrain.service';
 import { buildConfig, parseEnv } from '../server/config';
-import { startJobs } from '../server/jobs/jobs.service';
-import type { Services } from '../server/services';
-import { storageFactory } from '../server/storage/storage.service';
+import { createServices } from '../server/services';
 import { localAuthSecret } from './lib/secrets';
 
 const env = parseEnv(process.env);
@@ -30,17 +25,13 @@ if (!databaseUrl) {
 const config = buildConfig(env, { databaseUrl, authSecret: env.AUTH_SECRET ?? localAuthSecret(), webDist: null });
 const db = createDb(databaseUrl, { max: 4 });
 await migrateDb(db);
-const services: Services = { db, auth: createAuth({ db, config }), config };
-const cleanups: Array<() => Promise<void>> = [];
-for (const factory of [storageFactory, terrainFactory]) {
-  const c = await factory(services);
-  if (c) cleanups.push(c);
-}
-const jobs = await startJobs(config, (err) => log(`queue error: ${(err as Error)?.message ?? err}`));
-services.jobs = jobs;
 const count = Math.max(1, env.WORKERS);
-await startAnalysisWorkers(services, count, log);
-const stopSupervisor = startAnalysisSupervisor(db, jobs, { staleSeconds: env.ANALYSIS_STALE_SECONDS, everySeconds: env.ANALYSIS_HEARTBEAT_SECONDS, log });
+// the same services as the server's, less mail and the orphan sweep (the server does those)
+const { services, close: closeServices } = await createServices(
+  { db, auth: createAuth({ db, config }), config },
+  { workers: count, log, queueError: (err) => log(`queue error: ${(err as Error)?.message ?? err}`) },
+);
+const { jobs } = services;
 log(`ready: ${count} worker${count > 1 ? 's' : ''} on queue ${jobs.queues.analysis}`);
 
 let stopping = false;
@@ -48,9 +39,7 @@ async function stop() {
   if (stopping) return;
   stopping = true;
   log('stopping');
-  await stopSupervisor().catch(() => undefined);
-  await jobs.stop().catch(() => undefined);
-  for (const c of cleanups.reverse()) await c().catch(() => undefined);
+  await closeServices();
   await db.$client.end().catch(() => undefined);
   stopCluster();
   process.exit(0);

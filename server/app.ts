@@ -18,12 +18,22 @@ import { requireSameOrigin, trustedOriginsOf } from './http/origin';
 import { screenPreloader } from './http/screen-preload';
 import { securityHeaders } from './http/security-headers';
 import { refuseNulInBody, refuseNulInPath } from './http/text-guard';
-import type { RouteGroup } from './routes';
+import type { RouteGroup } from './route-group';
 import type { Services } from './services';
 import { asFlownChecksPath, PHOTO_LOG_JSON_LIMIT } from './http/body-limits';
 import { createTeamsRepository } from './teams/teams.repository';
 import { registerTeamRoutes } from './teams/teams.routes';
 import { createTeamSettingsRepository } from './teams/team-settings.repository';
+
+/** For an app built without services (a test of the HTTP layer): a route group that reaches for one is told so. */
+function servicesNotGiven(base: Pick<Services, 'db' | 'auth' | 'config'>): Services {
+  return new Proxy(base as Services, {
+    get(target, key) {
+      if (key in target) return target[key as keyof Services];
+      throw new Error(`createApp was given no services, so "${String(key)}" is not set up: pass the services of createServices().`);
+    },
+  });
+}
 
 export interface AppDeps {
   db: Db;
@@ -88,7 +98,7 @@ export function createApp(deps: AppDeps) {
   api.use(refuseNulInBody);
   registerHealthRoutes(api, { guards, db });
   registerTeamRoutes(api, { guards, teams: createTeamsRepository({ db }), settings: createTeamSettingsRepository({ db }) });
-  const services: Services = deps.services ?? { db, auth, config };
+  const services = deps.services ?? servicesNotGiven({ db, auth, config });
   for (const register of deps.routes ?? []) register(api, { guards, services });
   app.use('/api', api);
   app.use('/api', apiNotFound);

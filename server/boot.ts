@@ -7,7 +7,7 @@ import { createApp, type AppDeps } from './app';
 import { createAuth, type Auth } from './auth/auth';
 import type { Config } from './config';
 import { routeGroups } from './routes';
-import { serviceFactories, type Services } from './services';
+import { createServices, type Services } from './services';
 import { endOpenStreams } from './http/open-streams';
 
 export interface RunningServer {
@@ -20,20 +20,16 @@ export interface RunningServer {
   close: () => Promise<void>;
 }
 
-/** `services: false` skips the service factories (pure auth/team tests); `extraRoutes` adds test-only groups. */
-export async function bootServer(
-  config: Config,
-  opts: { migrate?: boolean; extraRoutes?: AppDeps['routes']; factories?: typeof serviceFactories } = {},
-): Promise<RunningServer> {
+/** `extraRoutes` adds test-only groups. */
+export async function bootServer(config: Config, opts: { migrate?: boolean; extraRoutes?: AppDeps['routes'] } = {}): Promise<RunningServer> {
   const db = createDb(config.databaseUrl);
   if (opts.migrate !== false) await migrateDb(db);
   const auth = createAuth({ db, config });
-  const services: Services = { db, auth, config };
-  const cleanups: Array<() => Promise<void>> = [];
-  for (const factory of opts.factories ?? serviceFactories) {
-    const cleanup = await factory(services);
-    if (cleanup) cleanups.push(cleanup);
-  }
+  const quiet = config.env.NODE_ENV === 'test';
+  const { services, close: closeServices } = await createServices(
+    { db, auth, config },
+    { workers: config.env.WORKERS, mail: true, orphanSweep: true, log: quiet ? undefined : (m: string) => console.log(`loftline worker: ${m}`) },
+  );
   const { app, api } = createApp({ db, auth, config, services, routes: [...routeGroups, ...(opts.extraRoutes ?? [])] });
   let server: Server;
   try {
@@ -42,7 +38,7 @@ export async function bootServer(
     });
   } catch (err) {
     // the port was taken: stop what started, so a caller may try another port without leaks
-    for (const cleanup of cleanups.reverse()) await cleanup().catch(() => undefined);
+    await closeServices();
     await db.$client.end().catch(() => undefined);
     throw err;
   }
@@ -55,10 +51,10 @@ export async function bootServer(
     services,
     api,
     close: async () => {
-      endOpenStreams(services);
+      endOpenStreams(services.openStreams);
       await new Promise<void>((r) => server.close(() => r()));
       server.closeAllConnections?.();
-      for (const cleanup of cleanups.reverse()) await cleanup().catch(() => undefined);
+      await closeServices();
       await db.$client.end();
     },
   };

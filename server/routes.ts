@@ -1,7 +1,5 @@
 /** Every route group beyond the core ones, in one list so start-up and tests mount the same API. */
-import type { Router } from 'express';
-import type { Guards } from './http/guard';
-import type { Services } from './services';
+import type { RouteGroup } from './route-group';
 import { projectRouteGroup } from './projects/projects.routes';
 import { siteRouteGroup } from './sites/sites.routes';
 import { planRouteGroup } from './plans/plans.routes';
@@ -15,8 +13,6 @@ import { registerOutboxRoutes } from './mail/outbox.routes';
 import { registerReportRoutes } from './reports/reports.routes';
 import { registerReviewRoutes } from './reviews/reviews.routes';
 import { registerWorkRoutes } from './work/work.routes';
-
-export type RouteGroup = (api: Router, ctx: { guards: Guards; services: Services }) => void;
 
 /** Route groups of the domains (projects, sites, plans, reviews…), in mount order. */
 export const routeGroups: RouteGroup[] = [

@@ -4,12 +4,10 @@
  * each with a legend in numbers, and a mask of the cells that fail the spec for the map to hatch. Images are
  * one pixel per cell, in the raster's own lattice, transparent outside the area and where a measure has no value.
  */
-import pngjs from 'pngjs';
 import { interpolateViridis } from 'd3-scale-chromatic';
 import type { CoverageRaster } from './coverage';
 import type { CoverageSpec } from './coverage-spec';
-
-const { PNG } = pngjs as unknown as typeof import('pngjs');
+import { encodePng } from './png-encode';
 
 import type { CoverageMeasure } from './coverage-measures';
 
@@ -44,10 +42,7 @@ export interface CoverageLayers {
 
 /** RGBA pixels (row-major, 4 bytes each) as PNG bytes. */
 export function encode(width: number, height: number, rgba: Uint8Array): Uint8Array {
-  const png = new PNG({ width, height });
-  png.data = rgba as never; // pngjs only indexes the pixel bytes
-  const bytes = PNG.sync.write(png, { colorType: 6 });
-  return new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  return encodePng(width, height, rgba, 6);
 }
 
 function rgbOf(hex: string): [number, number, number] {

@@ -1,6 +1,6 @@
 /** The per-cell pass of the coverage raster: for each cell the candidate photos of its tile, the views that count and the figures from them. */
 import type { CoverageCells } from './coverage-grid';
-import type { CoveragePhoto } from './coverage';
+import type { CoveragePhoto } from './coverage-photo';
 import type { AttitudeEnvelope } from './attitude-envelope';
 import { insideImage, projectPoint, type ImageModel } from './pose';
 import { viewGsdCm } from './view-gsd';

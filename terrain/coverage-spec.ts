@@ -5,10 +5,11 @@ import type { CoverageRaster } from './coverage';
 import { check } from './errors';
 import { DEFAULT_MAX_COVERAGE_CELLS } from './coverage-grid';
 import { COVERAGE_RANGES } from './coverage-ranges';
+import { gsdBandCm } from './gsd';
 
 /** The GSD band's coarse end, without the float noise of the product (2.5 × 1.1 is 2.7500000000000004, said "2.75"). */
 function bandTopCm(mission: { targetGsdCm: number; gsdTolerance: number }): number {
-  return Number((mission.targetGsdCm * (1 + mission.gsdTolerance)).toPrecision(12));
+  return Number(gsdBandCm(mission).max.toPrecision(12));
 }
 
 /** What the client asks of every ground cell; each item one-sided. */

@@ -14,12 +14,9 @@ import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
 import { latticeRange, rangeBlocks } from './lattice-range';
 import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
 import { check } from './errors';
+import type { CoveragePhoto } from './coverage-photo';
 
-/** One photo: its planned pose in the local frame, and the crab angle the attitude envelope allows on its line. */
-export interface CoveragePhoto extends CameraPose {
-  /** Crab angle of the photo's line in the envelope's wind (degrees; 0 without wind or for aircraft that do not crab). */
-  crabDeg?: number;
-}
+export type { CoveragePhoto } from './coverage-photo';
 
 /** Settings of one coverage computation. */
 export interface CoverageOptions {

@@ -2,6 +2,7 @@
 import proj4 from 'proj4';
 import type { GridCrs, LengthUnit } from './grid';
 import { TerrainError } from './errors';
+import { METRES_PER_FOOT, METRES_PER_US_SURVEY_FOOT } from './length-units';
 import { type DatumShift, type EpsgEntry, lookupEpsg, verticalCrsUnit } from './epsg-table';
 
 /** WGS 84 longitude/latitude (EPSG:4326), x = longitude, y = latitude, degrees. */
@@ -67,8 +68,8 @@ export function unitOfProj4(def: string): LengthUnit {
     const toMeter = /\+to_meter=([\d.eE+-]+)/.exec(def)?.[1];
     if (toMeter !== undefined) {
       const f = Number(toMeter);
-      if (Math.abs(f - 1200 / 3937) < 1e-12) return 'us-survey-foot';
-      if (Math.abs(f - 0.3048) < 1e-12) return 'foot';
+      if (Math.abs(f - METRES_PER_US_SURVEY_FOOT) < 1e-12) return 'us-survey-foot';
+      if (Math.abs(f - METRES_PER_FOOT) < 1e-12) return 'foot';
       if (Math.abs(f - 1) > 1e-12) {
         throw new TerrainError('unknown-crs', `The CRS uses a length unit of ${f} m that Loftline does not read; reproject the grid to metres.`);
       }

@@ -9,6 +9,7 @@ import { checkBlocksInFile, damagedDirectory } from './dem-damage';
 import { checkElevationContent, checkPlacement } from './dem-content';
 import { findInternalMask, type MaskLayout } from './dem-mask';
 import { JPEG, LERC, type LercExtra, lercExtraOf, refusedCompression } from './dem-codecs';
+import { METRES_PER_FOOT, METRES_PER_US_SURVEY_FOOT } from './length-units';
 
 /** What a GeoTIFF DEM says about itself, without decoding any pixel. */
 export interface DemHeader {
@@ -49,7 +50,7 @@ export interface DemLayout {
   mask: MaskLayout | null;
 }
 
-const METRES_PER: Record<LengthUnit, number> = { metre: 1, foot: 0.3048, 'us-survey-foot': 1200 / 3937, degree: NaN };
+const METRES_PER: Record<LengthUnit, number> = { metre: 1, foot: METRES_PER_FOOT, 'us-survey-foot': METRES_PER_US_SURVEY_FOOT, degree: NaN };
 
 /** Metres per unit (international foot 0.3048 m exactly; US survey foot 1200/3937 m, NIST SP 811 appendix B). */
 export function metresPerUnit(unit: LengthUnit): number {

@@ -14,6 +14,14 @@ function checkFraction(name: string, v: number): void {
   check(Number.isFinite(v) && v >= 0 && v < 1, `${name} must be a fraction in [0, 1), got ${v}.`);
 }
 
+/**
+ * The GSD band a mission accepts: target ± tolerance (a fraction of the target), cm. The one computation of it:
+ * the plan's summary (`gsdBandCm`), the report's spec and the coverage spec's coarse end all take it from here.
+ */
+export function gsdBandCm(m: { targetGsdCm: number; gsdTolerance: number }): { min: number; max: number } {
+  return { min: m.targetGsdCm * (1 - m.gsdTolerance), max: m.targetGsdCm * (1 + m.gsdTolerance) };
+}
+
 /** Ground sample distance in centimetres at `heightM` above flat ground (pixel pitch along the image width). */
 export function gsdCm(camera: Camera, heightM: number): number {
   checkHeight(heightM);

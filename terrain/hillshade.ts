@@ -1,13 +1,12 @@
 /** A hillshade preview of a grid as PNG bytes (grey + alpha), downsampled for the browser. */
-import pngjs from 'pngjs';
 import type { GeoTransform, Grid } from './grid';
 import { pixelToMap } from './grid';
 import { check } from './errors';
 import { WGS84, createTransform } from './crs';
 import { pixelBoundsWgs84 } from './metadata';
 import { metresPerUnit } from './dem-header';
+import { encodePng } from './png-encode';
 
-const { PNG } = pngjs as unknown as typeof import('pngjs');
 
 /** Options: the longest image side (default 1024 px), sun azimuth from north clockwise (315) and altitude (45 degrees). */
 export interface HillshadeOptions {
@@ -142,11 +141,8 @@ export function hillshadeOfOverview(grid: Pick<Grid, 'transform' | 'crs'>, k: nu
       rgba[o + 3] = 255;
     }
   }
-  const png = new PNG({ width: w, height: h });
-  png.data = rgba as never; // pngjs only indexes the pixel bytes, so a Uint8Array does (no Node Buffer needed)
-  const bytes = PNG.sync.write(png, { colorType: 4 });
   return {
-    png: new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+    png: encodePng(w, h, rgba, 4),
     width: w,
     height: h,
     boundsWgs84: pixelBoundsWgs84({ transform: t, crs: grid.crs }, 0, 0, w, h),

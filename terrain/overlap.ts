@@ -3,7 +3,7 @@ import type { Camera } from './camera';
 import { pixelPitchMm } from './camera';
 import type { HeightAt } from './footprint';
 import { cameraToLocal, castPixel } from './footprint';
-import type { GuaranteedExtents } from './overlap-envelope';
+import type { GuaranteedExtents } from './guaranteed-extents';
 
 /** The photos of one flight line: station positions (local metres), altitudes and the flight direction. */
 export interface LinePhotos {

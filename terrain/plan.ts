@@ -1,13 +1,14 @@
 /** The whole mission analysis over a grid: lines, stations, overlaps, altitude legs, estimates and warnings (CLI `plan`, worker and API). */
 import type { Grid } from './grid';
 import { TerrainError, check } from './errors';
-import { footprintM, heightForGsdM, airBaseM, lineSpacingM } from './gsd';
+import { footprintM, gsdBandCm, heightForGsdM, airBaseM, lineSpacingM } from './gsd';
 import { pixelPitchMm } from './camera';
-import { resolveMission } from './mission';
+import { METRES_PER_FOOT, METRES_PER_US_SURVEY_FOOT } from './length-units';
+import { resolveMission, type Mission } from './mission';
 import { localFrameFor, localHeights, type LocalFrame } from './local-frame';
 import { planFlightLines, polygonToLocal, pointAlong, type FlightLine } from './lines';
 import { fitAltitudes, type AltitudeLimits } from './altitude';
-import { stationHeights, stationOverlaps } from './overlap';
+import { stationHeights, stationOverlaps, type StationResult } from './overlap';
 import { envelopeWords, guaranteedExtents, lineCrabDeg } from './overlap-envelope';
 import { resolveCoverageInput } from './coverage-spec';
 import type { AttitudeEnvelope } from './attitude-envelope';
@@ -29,8 +30,8 @@ export function autoStepM(grid: Grid, latDeg: number): number {
   let dx = Math.hypot(t[1], t[4]);
   let dy = Math.hypot(t[2], t[5]);
   if (grid.crs.geographic) { dx *= 111_320 * Math.cos((latDeg * Math.PI) / 180); dy *= 110_574; }
-  else if (grid.crs.horizontalUnit === 'foot') { dx *= 0.3048; dy *= 0.3048; }
-  else if (grid.crs.horizontalUnit === 'us-survey-foot') { dx *= 1200 / 3937; dy *= 1200 / 3937; }
+  else if (grid.crs.horizontalUnit === 'foot') { dx *= METRES_PER_FOOT; dy *= METRES_PER_FOOT; }
+  else if (grid.crs.horizontalUnit === 'us-survey-foot') { dx *= METRES_PER_US_SURVEY_FOOT; dy *= METRES_PER_US_SURVEY_FOOT; }
   return Math.min(10, Math.max(1, Math.min(dx, dy)));
 }
 
@@ -118,34 +119,57 @@ export interface AnalyseOptions {
   overlaps?: boolean;
 }
 
-/** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
-export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOptions = {}): PlanResult {
-  const mission = resolveMission(missionInput);
+/** The mission over the grid: the local frame, its heights, the area, the photo geometry and the takeoff point. */
+interface PlanGround {
+  frame: LocalFrame;
+  heights: ReturnType<typeof localHeights>;
+  area: ReturnType<typeof polygonToLocal>;
+  /** The height above ground that gives the target GSD, and the line spacing, air base and footprint there. */
+  targetHeightM: number;
+  spacingM: number;
+  baseM: number;
+  footprint: { acrossM: number; alongM: number };
+  stepM: number;
+  takeoffXY: [number, number];
+  takeoffGroundM: number;
+}
+
+function planGround(grid: Grid, mission: Mission): PlanGround {
   const cam = mission.camera;
   const [cLon, cLat] = centroid(mission.area.coordinates[0]);
   const frame: LocalFrame = localFrameFor(cLon, cLat);
   const heights = localHeights(grid, frame);
   const area = polygonToLocal(mission.area as never, frame.toLocal);
   const H = heightForGsdM(cam, mission.targetGsdCm);
-  const spacing = lineSpacingM(cam, H, mission.sideOverlap);
-  const base = airBaseM(cam, H, mission.forwardOverlap);
-  const fp = footprintM(cam, H);
+  const spacingM = lineSpacingM(cam, H, mission.sideOverlap);
+  const baseM = airBaseM(cam, H, mission.forwardOverlap);
+  const footprint = footprintM(cam, H);
   const stepM = mission.stationStepM ?? autoStepM(grid, cLat);
   const takeoffXY = frame.toLocal(mission.takeoff.lon, mission.takeoff.lat);
   const takeoffGroundM = heights.heightAt(takeoffXY[0], takeoffXY[1]);
   if (!Number.isFinite(takeoffGroundM)) {
     throw new TerrainError('outside-grid', `The takeoff point (${mission.takeoff.lon}, ${mission.takeoff.lat}) is off the elevation grid or over nodata, so altitudes above takeoff cannot be given; move it onto the grid.`);
   }
+  return { frame, heights, area, targetHeightM: H, spacingM, baseM, footprint, stepM, takeoffXY, takeoffGroundM };
+}
+
+/** The flight lines: laid out by the caller, or uniformly at the mission's heading (or the advised one). */
+function layLines(mission: Mission, g: PlanGround, opts: AnalyseOptions): { lines: FlightLine[]; headingDeg: number; headingAdvice: PlanResult['headingAdvice'] } {
   const headingAdvice = mission.headingDeg === 'advise' && !opts.lines
-    ? adviseHeading(area, heights.sampleMany, { lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, sampleStepM: Math.max(stepM, 10) })
+    ? adviseHeading(g.area, g.heights.sampleMany, { lineSpacingM: g.spacingM, triggerDistanceM: g.baseM, runInM: mission.runInM, sampleStepM: Math.max(g.stepM, 10) })
     : null;
   const headingDeg = headingAdvice ? headingAdvice.recommendedDeg : (mission.headingDeg as number);
   if (opts.lines) check(typeof mission.headingDeg === 'number' && opts.lines.length > 0, 'laid-out lines need the layout heading as a number and at least one line.');
-  const laidLines = opts.lines ?? planFlightLines(area, { headingDeg, lineSpacingM: spacing, triggerDistanceM: base, runInM: mission.runInM, takeoff: takeoffXY });
-  const lim: AltitudeLimits = {
-    targetHeightM: H,
-    bandLowM: H * (1 - mission.gsdTolerance),
-    bandHighM: H * (1 + mission.gsdTolerance),
+  const lines = opts.lines ?? planFlightLines(g.area, { headingDeg, lineSpacingM: g.spacingM, triggerDistanceM: g.baseM, runInM: mission.runInM, takeoff: g.takeoffXY });
+  return { lines, headingDeg, headingAdvice };
+}
+
+/** The mission's altitude limits around the height that gives the target GSD. */
+function altitudeLimits(mission: Mission, targetHeightM: number): AltitudeLimits {
+  return {
+    targetHeightM,
+    bandLowM: targetHeightM * (1 - mission.gsdTolerance),
+    bandHighM: targetHeightM * (1 + mission.gsdTolerance),
     clearanceM: mission.clearanceM + mission.obstacleAllowanceM,
     maxAglM: mission.maxAglM,
     climbGradient: mission.climbMps / mission.speedMps,
@@ -154,26 +178,37 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     maxLegsPerLine: mission.maxLegsPerLine,
     roundingM: mission.altitudeRoundingM,
   };
-  // ground profiles: one batch sample per line, stations included as samples
-  const laidProfiles = laidLines.map((line) => {
-    const { x, stationIdx } = profileDistances(line, stepM);
-    const xs = new Float64Array(x.length), ys = new Float64Array(x.length), g = new Float64Array(x.length);
+}
+
+type LineProfile = { x: Float64Array; stationIdx: Int32Array; fit: ReturnType<typeof fitAltitudes> };
+
+/**
+ * Ground profiles (one batch sample per line, stations included as samples) and the altitudes fitted over them.
+ * A line with no known ground at all has no safe altitude: it is left out of the flight and reported.
+ */
+function fitLines(laid: FlightLine[], g: PlanGround, mission: Mission, lim: AltitudeLimits, opts: AnalyseOptions): { lines: FlightLine[]; profiles: LineProfile[]; leftOut: FlightLine[] } {
+  const laidProfiles = laid.map((line) => {
+    const { x, stationIdx } = profileDistances(line, g.stepM);
+    const xs = new Float64Array(x.length), ys = new Float64Array(x.length), z = new Float64Array(x.length);
     for (let i = 0; i < x.length; i++) { const p = pointAlong(line, x[i]); xs[i] = p[0]; ys[i] = p[1]; }
-    heights.sampleMany(xs, ys, g);
-    return { x, stationIdx, fit: fitAltitudes(x, g, mission.mode, opts.limitsFor ? opts.limitsFor(line, lim) : lim, opts.bandGroundFor?.(line, x)) };
+    g.heights.sampleMany(xs, ys, z);
+    return { x, stationIdx, fit: fitAltitudes(x, z, mission.mode, opts.limitsFor ? opts.limitsFor(line, lim) : lim, opts.bandGroundFor?.(line, x)) };
   });
-  // A line with no known ground at all has no safe altitude: it is left out of the flight and reported.
   const plannable = laidProfiles.map((p) => p.fit.unknownCount < p.x.length);
-  const lines = laidLines.filter((_, i) => plannable[i]);
-  const profiles = laidProfiles.filter((_, i) => plannable[i]);
-  const leftOut = laidLines.filter((_, i) => !plannable[i]);
+  const lines = laid.filter((_, i) => plannable[i]);
   if (lines.length === 0) {
     throw new TerrainError('all-nodata', 'The elevation grid has no data under any flight line of this area: no altitude can be planned. Move the area onto ground the grid covers, or upload a grid that covers it.');
   }
+  return { lines, profiles: laidProfiles.filter((_, i) => plannable[i]), leftOut: laid.filter((_, i) => !plannable[i]) };
+}
+
+type LinePhotoStations = { headingDeg: number; row: number; x: Float64Array; y: Float64Array; altitudeM: Float64Array };
+
+/** Each line's photo stations in the local frame at their fitted altitudes, with the line's row across the area. */
+function stationPhotos(lines: FlightLine[], profiles: LineProfile[]): LinePhotoStations[] {
   const offsets = [...new Set(lines.map((l) => l.offsetM))].sort((a, b) => a - b);
-  const photos = lines.map((line, li) => {
-    const { x, stationIdx, fit } = profiles[li];
-    void x;
+  return lines.map((line, li) => {
+    const { stationIdx, fit } = profiles[li];
     const n = line.stationsM.length;
     const px = new Float64Array(n), py = new Float64Array(n), alt = new Float64Array(n);
     for (let s = 0; s < n; s++) {
@@ -183,37 +218,57 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     }
     return { headingDeg: line.headingDeg, row: offsets.indexOf(line.offsetM), x: px, y: py, altitudeM: alt };
   });
-  const gsdPerM = (pixelPitchMm(cam) / cam.focalLengthMm) * 100;
-  const band = { min: mission.targetGsdCm * (1 - mission.gsdTolerance), max: mission.targetGsdCm * (1 + mission.gsdTolerance) };
-  // the mission's attitude envelope (none unless it names one): overlaps are then also given as guaranteed
-  // An envelope the lines cannot be held in (crosswind at least the airspeed) leaves the overlaps as planned only
-  // and says why, as the coverage run refuses it: the plan's own figures still stand.
-  let envelope: AttitudeEnvelope | null = null, crabDegMax = 0, envelopeRefused: string | null = null;
+}
+
+/**
+ * The mission's attitude envelope (none unless it names one): overlaps are then also given as guaranteed. An
+ * envelope the lines cannot be held in (crosswind at least the airspeed) leaves the overlaps as planned only and
+ * says why, as the coverage run refuses it: the plan's own figures still stand.
+ */
+function missionEnvelope(missionInput: unknown, mission: Mission, photos: LinePhotoStations[]): { envelope: AttitudeEnvelope | null; crabDegMax: number; refused: string | null } {
   try {
-    envelope = resolveCoverageInput(missionInput, mission).envelope;
-    if (envelope) { const env = envelope; crabDegMax = Math.max(0, ...photos.map((p) => Math.abs(lineCrabDeg(p.headingDeg, env)))); }
+    const envelope = resolveCoverageInput(missionInput, mission).envelope;
+    const crabDegMax = envelope ? Math.max(0, ...photos.map((p) => Math.abs(lineCrabDeg(p.headingDeg, envelope)))) : 0;
+    return { envelope, crabDegMax, refused: null };
   } catch (err) {
     if (!(err instanceof TerrainError)) throw err;
-    envelope = null;
-    envelopeRefused = err.message;
+    return { envelope: null, crabDegMax: 0, refused: err.message };
   }
+}
+
+/**
+ * Station overlaps, GSD and flags over the real ground, and as guaranteed under the envelope when there is one;
+ * without overlaps (`withOverlaps` false: AnalyseOptions.overlaps) only the heights, GSDs and their flags.
+ */
+function overlapsOf(mission: Mission, g: PlanGround, photos: LinePhotoStations[], headingDeg: number, lim: AltitudeLimits, env: ReturnType<typeof missionEnvelope>, withOverlaps: boolean) {
+  const cam = mission.camera;
+  const band = gsdBandCm(mission);
+  const { envelope, crabDegMax } = env;
   let marginPx = 0, attitudeCount = 0;
   const targets = {
     forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, gsdMinCm: band.min, gsdMaxCm: band.max,
-    maxAglM: mission.maxAglM, clearanceM: lim.clearanceM, plannedHeightM: H,
+    maxAglM: mission.maxAglM, clearanceM: lim.clearanceM, plannedHeightM: g.targetHeightM,
   };
-  const results = opts.overlaps === false ? stationHeights(cam, heights.heightAt, photos, targets) : stationOverlaps(cam, heights.heightAt, photos, headingDeg, targets, envelope ? {
+  const results = !withOverlaps ? stationHeights(cam, g.heights.heightAt, photos, targets) : stationOverlaps(cam, g.heights.heightAt, photos, headingDeg, targets, envelope ? {
     extentsFor: (li, planned) => {
-      const g = guaranteedExtents(cam, heights.heightAt, photos[li], headingDeg, planned, envelope);
-      marginPx = Math.max(marginPx, g.marginPx);
-      attitudeCount = Math.max(attitudeCount, g.attitudeCount);
-      return g;
+      const ge = guaranteedExtents(cam, g.heights.heightAt, photos[li], headingDeg, planned, envelope);
+      marginPx = Math.max(marginPx, ge.marginPx);
+      attitudeCount = Math.max(attitudeCount, ge.attitudeCount);
+      return ge;
     },
     words: envelopeWords(envelope, crabDegMax),
   } : null);
-  const aboveTakeoff = (z: number) => round(z - takeoffGroundM, 2);
-  const ll = (x: number, y: number) => { const [lon, lat] = frame.toLonLat(x, y); return { lon: round(lon, 8), lat: round(lat, 8) }; };
-  const outLines: PlanLine[] = lines.map((line, li) => {
+  // read after stationOverlaps ran: the margins are gathered as the extents are computed
+  return { results, band, lattice: () => ({ marginPx, attitudeCount }) };
+}
+
+/** The lines of the result in longitude/latitude, rounded, with their stations, legs, unmet stretches and warnings. */
+function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profiles: LineProfile[], photos: LinePhotoStations[], results: StationResult[][]): PlanLine[] {
+  const cam = mission.camera;
+  const gsdPerM = (pixelPitchMm(cam) / cam.focalLengthMm) * 100;
+  const aboveTakeoff = (z: number) => round(z - g.takeoffGroundM, 2);
+  const ll = (x: number, y: number) => { const [lon, lat] = g.frame.toLonLat(x, y); return { lon: round(lon, 8), lat: round(lat, 8) }; };
+  return lines.map((line, li) => {
     const fit = profiles[li].fit;
     const stations: PlanStation[] = results[li].map((r, s) => ({
       ...ll(photos[li].x[s], photos[li].y[s]),
@@ -254,7 +309,10 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
       stations, legs, unmet: fit.unmet.map((u) => ({ ...u, startM: round(u.startM, 3), endM: round(u.endM, 3) })), warnings,
     };
   });
-  // summary
+}
+
+/** Station figures over the whole plan: GSD spread, least overlaps, heights above ground, flagged stations, reach. */
+function stationFigures(results: StationResult[][], photos: LinePhotoStations[], band: { min: number; max: number }, takeoffXY: [number, number]) {
   const gsds: number[] = [], agls: number[] = [];
   let fwdMin = Infinity, sideMin = Infinity, fwdGMin = Infinity, sideGMin = Infinity, within = 0, flagged = 0, photoCount = 0, maxFromTakeoff = 0;
   results.forEach((lr, li) => lr.forEach((r, s) => {
@@ -269,27 +327,51 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     maxFromTakeoff = Math.max(maxFromTakeoff, Math.hypot(photos[li].x[s] - takeoffXY[0], photos[li].y[s] - takeoffXY[1]));
   }));
   gsds.sort((a, b) => a - b);
-  const med = gsds.length === 0 ? null : gsds.length % 2 ? gsds[gsds.length >> 1] : (gsds[gsds.length / 2 - 1] + gsds[gsds.length / 2]) / 2;
+  return { gsds, agls, fwdMin, sideMin, fwdGMin, sideGMin, within, flagged, photoCount, maxFromTakeoff };
+}
+
+/** Flight distance (lines, transits between them, to the first and from the last) and the time and batteries it takes. */
+function flightEstimate(mission: Mission, lines: FlightLine[], profiles: LineProfile[], g: PlanGround, photoCount: number) {
   let lineDistanceM = 0, transitDistanceM = 0;
   lines.forEach((l, i) => {
     lineDistanceM += l.lengthM;
     if (i > 0) transitDistanceM += Math.hypot(l.start[0] - lines[i - 1].end[0], l.start[1] - lines[i - 1].end[1]);
   });
   const first = lines[0], last = lines[lines.length - 1];
-  transitDistanceM += Math.hypot(first.start[0] - takeoffXY[0], first.start[1] - takeoffXY[1]) + Math.hypot(last.end[0] - takeoffXY[0], last.end[1] - takeoffXY[1]);
+  transitDistanceM += Math.hypot(first.start[0] - g.takeoffXY[0], first.start[1] - g.takeoffXY[1]) + Math.hypot(last.end[0] - g.takeoffXY[0], last.end[1] - g.takeoffXY[1]);
   const firstAlt = profiles[0].fit.legs[0]?.altitudeStartM ?? NaN;
   const lastLegs = profiles[profiles.length - 1].fit.legs;
   const lastAlt = lastLegs[lastLegs.length - 1]?.altitudeEndM ?? NaN;
-  const est = estimateMission({
+  return estimateMission({
     photoCount, lineDistanceM, transitDistanceM, lineCount: lines.length, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS,
-    climbM: Number.isFinite(firstAlt) ? Math.max(0, firstAlt - takeoffGroundM) : 0,
-    descentM: Number.isFinite(lastAlt) ? Math.max(0, lastAlt - takeoffGroundM) : 0,
+    climbM: Number.isFinite(firstAlt) ? Math.max(0, firstAlt - g.takeoffGroundM) : 0,
+    descentM: Number.isFinite(lastAlt) ? Math.max(0, lastAlt - g.takeoffGroundM) : 0,
     climbMps: mission.climbMps, descentMps: mission.descentMps, enduranceMin: mission.enduranceMin, batteryReserve: mission.batteryReserve,
   });
+}
+
+/** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
+export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOptions = {}): PlanResult {
+  // the input is resolved once; every stage below takes the resolved mission (the envelope also reads the input's own fields)
+  const mission = resolveMission(missionInput);
+  const g = planGround(grid, mission);
+  const { lines: laid, headingDeg, headingAdvice } = layLines(mission, g, opts);
+  const lim = altitudeLimits(mission, g.targetHeightM);
+  const { lines, profiles, leftOut } = fitLines(laid, g, mission, lim, opts);
+  const photos = stationPhotos(lines, profiles);
+  const env = missionEnvelope(missionInput, mission, photos);
+  const { envelope, crabDegMax } = env;
+  const { results, band, lattice } = overlapsOf(mission, g, photos, headingDeg, lim, env, opts.overlaps !== false);
+  const outLines = resultLines(mission, g, lines, profiles, photos, results);
+  const f = stationFigures(results, photos, band, g.takeoffXY);
+  const { gsds, agls, photoCount, flagged } = f;
+  const med = gsds.length === 0 ? null : gsds.length % 2 ? gsds[gsds.length >> 1] : (gsds[gsds.length / 2 - 1] + gsds[gsds.length / 2]) / 2;
+  const est = flightEstimate(mission, lines, profiles, g, photoCount);
   // the flown profile between photos counts too: a dip between two stations can take the aircraft over the
   // height limit, and the range shown must agree with the unmet stretch that says so
-  for (const l of outLines) for (const g of l.legs) if (Number.isFinite(g.aglMinM) && Number.isFinite(g.aglMaxM)) agls.push(g.aglMinM, g.aglMaxM);
+  for (const l of outLines) for (const leg of l.legs) if (Number.isFinite(leg.aglMinM) && Number.isFinite(leg.aglMaxM)) agls.push(leg.aglMinM, leg.aglMaxM);
   const unmetLengthM = outLines.reduce((s, l) => s + l.unmet.reduce((t, u) => t + (u.endM - u.startM), 0), 0);
+  const { marginPx, attitudeCount } = lattice();
   const summary: PlanSummary = {
     lineCount: lines.length,
     photoCount,
@@ -297,10 +379,10 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     flightTimeS: round(est.flightTimeS, 1),
     batteries: est.batteries,
     gsdCm: { min: gsds.length ? round(gsds[0], 4) : null, median: med === null ? null : round(med, 4), max: gsds.length ? round(gsds[gsds.length - 1], 4) : null },
-    forwardOverlapMin: orNull(round(fwdMin, 4)),
-    sideOverlapMin: orNull(round(sideMin, 4)),
-    forwardOverlapGuaranteedMin: orNull(round(fwdGMin, 4)),
-    sideOverlapGuaranteedMin: orNull(round(sideGMin, 4)),
+    forwardOverlapMin: orNull(round(f.fwdMin, 4)),
+    sideOverlapMin: orNull(round(f.sideMin, 4)),
+    forwardOverlapGuaranteedMin: orNull(round(f.fwdGMin, 4)),
+    sideOverlapGuaranteedMin: orNull(round(f.sideGMin, 4)),
     overlapEnvelope: envelope ? {
       rollDeg: envelope.rollDeg, pitchDeg: envelope.pitchDeg, windMps: envelope.windMps, windFromDeg: envelope.windFromDeg,
       airspeedMps: envelope.airspeedMps, crabs: envelope.crabs, crabDegMax: round(crabDegMax, 2), stepDeg: envelope.stepDeg,
@@ -308,47 +390,56 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     } : null,
     aglMinM: agls.length ? round(Math.min(...agls), 3) : null,
     aglMaxM: agls.length ? round(Math.max(...agls), 3) : null,
-    shareWithinGsdTarget: photoCount ? round(within / photoCount, 4) : 0,
+    shareWithinGsdTarget: photoCount ? round(f.within / photoCount, 4) : 0,
     flaggedStationCount: flagged,
     unmetLengthM: round(unmetLengthM, 1),
     mode: mission.mode,
     headingDeg,
-    plannedHeightM: round(H, 3),
+    plannedHeightM: round(g.targetHeightM, 3),
     gsdBandCm: { min: round(band.min, 4), max: round(band.max, 4) },
-    lineSpacingM: round(spacing, 3),
-    triggerDistanceM: round(base, 3),
-    footprintAcrossM: round(fp.acrossM, 3),
-    footprintAlongM: round(fp.alongM, 3),
-    maxDistanceFromTakeoffM: round(maxFromTakeoff, 1),
+    lineSpacingM: round(g.spacingM, 3),
+    triggerDistanceM: round(g.baseM, 3),
+    footprintAcrossM: round(g.footprint.acrossM, 3),
+    footprintAlongM: round(g.footprint.alongM, 3),
+    maxDistanceFromTakeoffM: round(f.maxFromTakeoff, 1),
   };
-  const warnings: PlanWarning[] = [
-    ...planSafetyWarnings(mission, { maxDistanceFromTakeoffM: maxFromTakeoff, targetHeightM: H }),
-    ...transitWarnings(lines, profiles.map((p) => p.fit.legs), takeoffXY, takeoffGroundM, heights.heightAt, lim.clearanceM),
-    ...outLines.flatMap((l) => l.warnings),
-  ];
-  if (envelopeRefused) warnings.push({ code: 'envelope-refused', message: `Overlaps are given as planned only: the attitude envelope cannot be applied (${envelopeRefused})` });
-  if (leftOut.length > 0) {
-    const m = leftOut.reduce((t, l) => t + l.lengthM, 0);
-    warnings.push({ code: 'lines-left-out', message: `${leftOut.length} flight line${leftOut.length > 1 ? 's' : ''} (${Math.round(m)} m) lie entirely over ground the grid has no data for and were left out: that strip of the area is not covered. Extend the grid or shrink the area.` });
-  }
-  if (unmetLengthM > 0) {
-    const byReason = new Map<string, number>();
-    for (const l of outLines) for (const u of l.unmet) byReason.set(u.reason, (byReason.get(u.reason) ?? 0) + u.endM - u.startM);
-    warnings.push({ code: 'band-not-held', message: `The GSD band or the height limit is not held over ${round(unmetLengthM, 0)} m of line (${[...byReason].map(([r, m]) => `${r} ${Math.round(m)} m`).join(', ')}); see each line's unmet stretches.` });
-  }
-  if (flagged > 0) warnings.push({ code: 'stations-flagged', message: `${flagged} of ${photoCount} photos are flagged (overlap or GSD off target over the real terrain${envelope ? ', or overlap under the attitude envelope' : ''}); see each station's flags.` });
-  if (est.batteries > 1) warnings.push({ code: 'batteries', message: `The flight needs about ${est.batteries} batteries (${round(est.flightTimeS / 60, 1)} min of flight, ${round(est.usablePerBatteryS / 60, 1)} min usable per battery after the reserve); plan the battery changes.` });
+  const warnings = planWideWarnings(mission, g, lim, lines, profiles, outLines, { leftOut, unmetLengthM, flagged, photoCount, envelope, envelopeRefused: env.refused, est, maxFromTakeoffM: f.maxFromTakeoff });
   return {
     lines: outLines,
     summary,
     warnings,
-    takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3) },
+    takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(g.takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3) },
     heights: {
       datum: `altitudeM, groundM: metres above the elevation grid's vertical datum (${opts.verticalDatum ? opts.verticalDatum.name : 'not stated in the file; usually orthometric, e.g. EGM96 or a national datum'})`,
       aboveTakeoff: 'altitude…AboveTakeoffM: metres above the ground at the takeoff point, as sampled from the grid',
       verticalDatum: opts.verticalDatum ?? null,
     },
     headingAdvice,
-    frame: { crs: frame.crs.name, epsg: frame.crs.epsg },
+    frame: { crs: g.frame.crs.name, epsg: g.frame.crs.epsg },
   };
+}
+
+/** The plan-wide warnings: safety, transits, each line's own, then what the plan as a whole leaves undone. */
+function planWideWarnings(
+  mission: Mission, g: PlanGround, lim: AltitudeLimits, lines: FlightLine[], profiles: LineProfile[], outLines: PlanLine[],
+  s: { leftOut: FlightLine[]; unmetLengthM: number; flagged: number; photoCount: number; envelope: AttitudeEnvelope | null; envelopeRefused: string | null; est: ReturnType<typeof estimateMission>; maxFromTakeoffM: number },
+): PlanWarning[] {
+  const warnings: PlanWarning[] = [
+    ...planSafetyWarnings(mission, { maxDistanceFromTakeoffM: s.maxFromTakeoffM, targetHeightM: g.targetHeightM }),
+    ...transitWarnings(lines, profiles.map((p) => p.fit.legs), g.takeoffXY, g.takeoffGroundM, g.heights.heightAt, lim.clearanceM),
+    ...outLines.flatMap((l) => l.warnings),
+  ];
+  if (s.envelopeRefused) warnings.push({ code: 'envelope-refused', message: `Overlaps are given as planned only: the attitude envelope cannot be applied (${s.envelopeRefused})` });
+  if (s.leftOut.length > 0) {
+    const m = s.leftOut.reduce((t, l) => t + l.lengthM, 0);
+    warnings.push({ code: 'lines-left-out', message: `${s.leftOut.length} flight line${s.leftOut.length > 1 ? 's' : ''} (${Math.round(m)} m) lie entirely over ground the grid has no data for and were left out: that strip of the area is not covered. Extend the grid or shrink the area.` });
+  }
+  if (s.unmetLengthM > 0) {
+    const byReason = new Map<string, number>();
+    for (const l of outLines) for (const u of l.unmet) byReason.set(u.reason, (byReason.get(u.reason) ?? 0) + u.endM - u.startM);
+    warnings.push({ code: 'band-not-held', message: `The GSD band or the height limit is not held over ${round(s.unmetLengthM, 0)} m of line (${[...byReason].map(([r, m]) => `${r} ${Math.round(m)} m`).join(', ')}); see each line's unmet stretches.` });
+  }
+  if (s.flagged > 0) warnings.push({ code: 'stations-flagged', message: `${s.flagged} of ${s.photoCount} photos are flagged (overlap or GSD off target over the real terrain${s.envelope ? ', or overlap under the attitude envelope' : ''}); see each station's flags.` });
+  if (s.est.batteries > 1) warnings.push({ code: 'batteries', message: `The flight needs about ${s.est.batteries} batteries (${round(s.est.flightTimeS / 60, 1)} min of flight, ${round(s.est.usablePerBatteryS / 60, 1)} min usable per battery after the reserve); plan the battery changes.` });
+  return warnings;
 }

@@ -2,6 +2,7 @@
 import type { UnitSystem } from '../../contracts/projects';
 import type { PlanLine } from '../../terrain/plan';
 import { toDisplayLength } from '../projects/units';
+import { niceDomain } from '../../contracts/format/ticks';
 
 /** One chart row; the chart joins each series over its own rows (null = no value of that series here). */
 export interface ProfileRow extends Record<string, unknown> {
@@ -29,19 +30,6 @@ export interface ProfileSeries {
   gsdDomain: [number, number];
   /** [min, max] distance along the line. */
   distanceDomain: [number, number];
-}
-
-/** The 1-2-5 series step nearest to `raw` (the usual choice of axis steps, as in Heckbert's "nice numbers", Graphics Gems 1990). */
-export function niceStep(raw: number): number {
-  const p = 10 ** Math.floor(Math.log10(raw));
-  const f = raw / p;
-  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * p;
-}
-
-/** [lo, hi] widened to whole multiples of a nice step, so axis ticks fall on round values. */
-export function niceDomain(lo: number, hi: number, ticks = 5): [number, number] {
-  const step = niceStep((hi - lo) / ticks);
-  return [Math.floor(lo / step) * step, Math.ceil(hi / step) * step];
 }
 
 /**

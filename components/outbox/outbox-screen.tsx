@@ -9,7 +9,7 @@ import { RequirePermission } from '../team/require-permission';
 import { useCurrentTeam } from '../team/current-team-context';
 import { colors, layout, radii, space } from '../theme';
 import { Badge, Banner, Button, Card, EmptyState, Loading, Screen, Text } from '../ui';
-import { formatBytesShort } from './format-size';
+import { formatBytes } from '../../contracts/format/bytes';
 import { isOutboxOff, useOutbox } from './outbox.queries';
 
 /** Route /outbox. Nothing here leaves the machine: the fake server only stores what it is sent. */
@@ -61,7 +61,7 @@ function MessageCard({ message: m }: { message: OutboxMessage }) {
         {m.attachments.length ? (
           <View style={styles.attachments}>
             {m.attachments.map((a) => (
-              <Badge key={a.filename} label={`${a.filename} · ${a.contentType} · ${formatBytesShort(a.size)}`} tone="info" testID={`outbox-attachment-${a.filename}`} />
+              <Badge key={a.filename} label={`${a.filename} · ${a.contentType} · ${formatBytes(a.size)}`} tone="info" testID={`outbox-attachment-${a.filename}`} />
             ))}
           </View>
         ) : null}

@@ -1,7 +1,6 @@
 /** Plans, versions and their analysis states as contracts/plans.ts defines them (one import point for the client). */
 export {
   analysisStateLabels,
-  analysisStates,
   planListSchema,
   planSchema,
   planVersionSchema,

@@ -1,9 +1,10 @@
 /** Display units of a project: heights, lengths and speeds in metres or feet; values are stored in SI always. */
 import type { UnitSystem } from '../../contracts/projects';
 import { roundTowardFailing, type TargetBound } from '../../contracts/target-rounding';
+import { METRES_PER_FOOT } from '../../terrain/length-units';
 
-/** The international foot, exactly 0.3048 m (international yard and pound agreement, 1959). */
-export const metresPerFoot = 0.3048;
+/** The international foot in metres (terrain/length-units.ts: the one definition, also for grids in feet). */
+export const metresPerFoot = METRES_PER_FOOT;
 
 /** The unit label for lengths and heights. */
 export function lengthUnit(units: UnitSystem): 'm' | 'ft' {

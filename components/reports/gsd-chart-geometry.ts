@@ -1,4 +1,5 @@
 /** Pixel geometry of the GSD-along-a-line chart: scales, the line split at unknown stations, the target band, ticks. */
+import { niceStep } from '../../contracts/format/ticks';
 
 export type GsdPoint = { distanceM: number; gsdCm: number | null };
 
@@ -19,15 +20,6 @@ export type GsdChartGeometry = {
   gaps: Array<{ x0: number; x1: number }>;
   domainCm: [number, number];
 };
-
-/** "Nice" tick step (1, 2 or 5 × 10^k) giving about `count` ticks over `span` (after P. Heckbert, "Nice numbers for graph labels", Graphics Gems, 1990). */
-export function niceStep(span: number, count: number): number {
-  if (!(span > 0) || !(count > 0)) return 1;
-  const raw = span / count;
-  const p = 10 ** Math.floor(Math.log10(raw));
-  const f = raw / p;
-  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * p;
-}
 
 function ticks(lo: number, hi: number, count: number): number[] {
   const step = niceStep(hi - lo, count);

@@ -2,7 +2,7 @@
 import type { UnitSystem } from '../../contracts/projects';
 import { formatLength, formatPercent } from '../projects/units';
 import { surfaceKindInfo, type Site } from './site-shape';
-import { formatBytes } from './format-bytes';
+import { formatBytes } from '../../contracts/format/bytes';
 
 export interface SiteFact {
   key: string;

@@ -6,7 +6,7 @@ import { RequirePermission } from '../team/require-permission';
 import { space } from '../theme';
 import { Banner, Button, Card, ChoiceGroup, Screen, Text, TextField, TextLink } from '../ui';
 import { FilePicker } from './file-picker';
-import { formatBytes } from './format-bytes';
+import { formatBytes } from '../../contracts/format/bytes';
 import { ProgressBar } from './progress-bar';
 import { surfaceKindInfo, surfaceKinds, type SurfaceKind } from './site-shape';
 import { datumFromFile, datumPresets, geotiffAccept, useSiteUpload } from './use-site-upload';

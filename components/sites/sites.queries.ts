@@ -18,8 +18,6 @@ export const siteKeys = {
 
 export const sitesPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/sites`;
 export const sitePath = (teamId: string, projectId: string, siteId: string) => `${sitesPath(teamId, projectId)}/${encodeURIComponent(siteId)}`;
-/** The hillshade preview PNG of a site (same origin, so the session cookie goes with it). */
-export const hillshadeUrl = (teamId: string, projectId: string, siteId: string) => `${sitePath(teamId, projectId, siteId)}/hillshade.png`;
 
 /** The project's sites. */
 export function useSites(teamId: string | undefined, projectId: string | undefined) {

@@ -1,7 +1,7 @@
 /** What was flown on a version: the photos the aircraft reported (MAVLink CAMERA_FEEDBACK) and as-flown checks of photo logs. */
 import { doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { organization, user } from './auth';
-import { planVersion } from './projects';
+import { planVersion } from './plans';
 
 /** A photo as flown: where and how the aircraft was when the camera fired, as the link forwarded it. */
 export const flightTrigger = pgTable(

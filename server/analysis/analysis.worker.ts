@@ -1,16 +1,26 @@
 /** Analysis workers: take `plan-analysis` jobs from the queue one at a time and analyse their version. */
-import type { Services } from '../services';
-import { jobsOf, type AnalysisJobData } from '../jobs/jobs.service';
-import { storageOf } from '../storage/storage.service';
+import type { Db } from '../../db/client';
+import type { Config } from '../config';
+import type { AnalysisJobData, Jobs } from '../jobs/jobs.service';
+import type { Storage } from '../storage/storage';
 import { createAnalysisUsecases } from './analysis.usecases';
-import { terrainOf } from './terrain.service';
+import type { TerrainRunner } from './terrain-pool';
+
+/** What the workers use of the process's services. */
+export interface AnalysisWorkerDeps {
+  db: Db;
+  storage: Storage;
+  terrain: TerrainRunner;
+  jobs: Pick<Jobs, 'boss' | 'queues'>;
+  config: Pick<Config, 'env'>;
+}
 
 /** Start `count` workers in this process (each polls and works one job at a time), plus the dead-letter handler. */
-export async function startAnalysisWorkers(services: Services, count: number, log: (msg: string) => void = () => {}): Promise<string[]> {
+export async function startAnalysisWorkers(deps: AnalysisWorkerDeps, count: number, log: (msg: string) => void = () => {}): Promise<string[]> {
   if (count <= 0) return [];
-  const { boss, queues } = jobsOf(services);
-  const analysis = createAnalysisUsecases({ db: services.db, storage: storageOf(services), terrain: terrainOf(services), log, heartbeatSeconds: services.config.env.ANALYSIS_HEARTBEAT_SECONDS });
-  const pollingIntervalSeconds = services.config.env.JOBS_POLL_SECONDS;
+  const { boss, queues } = deps.jobs;
+  const analysis = createAnalysisUsecases({ db: deps.db, storage: deps.storage, terrain: deps.terrain, log, heartbeatSeconds: deps.config.env.ANALYSIS_HEARTBEAT_SECONDS });
+  const pollingIntervalSeconds = deps.config.env.JOBS_POLL_SECONDS;
   const ids: string[] = [];
   for (let i = 0; i < count; i++) {
     ids.push(

@@ -5,10 +5,17 @@
  * and terrain thread, like the fast inflate.
  */
 import lzma from 'lzma-native';
+import zlib from 'node:zlib';
 import { setXzDecoder } from '../../terrain/dem-codecs';
+import { setPngDeflate } from '../../terrain/png-encode';
 
 /** Give the terrain engine its native decoders (idempotent). */
 export function installNodeCodecs(): void {
+  // pngjs's settings before terrain/ encoded its own PNGs: deflate level 9, strategy 3 (Z_RLE)
+  setPngDeflate((data) => {
+    const out = zlib.deflateSync(data, { level: 9, strategy: zlib.constants.Z_RLE });
+    return new Uint8Array(out.buffer, out.byteOffset, out.byteLength);
+  });
   setXzDecoder(
     (data) =>
       new Promise<Uint8Array>((resolve, reject) => {

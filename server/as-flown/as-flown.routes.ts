@@ -6,13 +6,11 @@
  */
 import type { Router } from 'express';
 import { asFlownCheckListSchema, asFlownCheckSchema, newAsFlownCheckSchema } from '../../contracts/as-flown';
-import { terrainOf } from '../analysis/terrain.service';
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
-import type { RouteGroup } from '../routes';
-import { createVersionsRepository } from '../reviews/versions.repository';
-import { storageOf } from '../storage/storage.service';
+import type { RouteGroup } from '../route-group';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createAsFlownRepository } from './as-flown.repository';
 import { createAsFlownUsecases } from './as-flown.usecases';
 
@@ -31,7 +29,7 @@ export const registerAsFlownRoutes: RouteGroup = (api: Router, { guards, service
     const { teamId, role, user } = requireTeam(req);
     const input = parseInput(newAsFlownCheckSchema, req.body);
     const v = await versionOf(teamId, role, String(req.params.versionId));
-    const usecases = createAsFlownUsecases({ db: services.db, storage: storageOf(services), terrain: terrainOf(services), repo });
+    const usecases = createAsFlownUsecases({ db: services.db, storage: services.storage, terrain: services.terrain, repo });
     const id = await usecases.check(v, user.id, input);
     const stored = await repo.find(teamId, v.id, id);
     sendJson(res, asFlownCheckSchema, stored!, 201);

@@ -10,8 +10,8 @@ import { site } from '../../db/schema';
 import { TerrainError } from '../../terrain/errors';
 import { TerrainTimeoutError, type TerrainRunner } from '../analysis/terrain-pool';
 import { AppError } from '../http/errors';
-import { requireAnalysed } from '../reports/result-view';
-import type { VersionRecord } from '../reviews/versions.repository';
+import { requireAnalysed } from '../versions/result-view';
+import type { VersionRecord } from '../versions/versions.repository';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 import type { createAsFlownRepository } from './as-flown.repository';
 

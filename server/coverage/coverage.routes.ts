@@ -11,8 +11,7 @@ import { AppError, errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { idParam } from '../http/ids';
 import { parseInput, sendJson } from '../http/validate';
-import type { RouteGroup } from '../routes';
-import { storageOf } from '../storage/storage.service';
+import type { RouteGroup } from '../route-group';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 import { coverageCellAt } from './coverage-cell';
 import { coverageKeys } from './coverage-keys';
@@ -25,7 +24,7 @@ const cellQuerySchema = z.object({
 
 export const registerCoverageRoutes: RouteGroup = (api: Router, { guards, services }) => {
   const repo = createCoverageRepository({ db: services.db });
-  const storage = (): Storage => storageOf(services);
+  const storage = (): Storage => services.storage;
   const oneVersion = '/teams/:teamId/plans/:planId/versions/:versionId';
 
   /** The version named by the route and its stored coverage (null while none is stored). */

@@ -1,8 +1,8 @@
 /** What every export of a version is written from: its lines and legs, waypoints, datum and cautions. */
 import { reviewStateSchema } from '../../contracts/reviews';
 import { buildLegSheet } from '../flights/leg-sheet.build';
-import { heightDatumOf, readResult } from '../reports/result-view';
-import type { VersionRecord } from '../reviews/versions.repository';
+import { heightDatumOf, readResult } from '../versions/result-view';
+import type { VersionRecord } from '../versions/versions.repository';
 import { datumKindOf } from './datum';
 import { waypointsOf } from './waypoints';
 

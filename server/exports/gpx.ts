@@ -3,7 +3,7 @@
  * sea level (EGM96) and `geoidheight` the EGM96 geoid height, as the GPX schema defines them. Written through the XML
  * DOM (./xml), so every text is escaped.
  */
-import { fmt } from '../reports/format';
+import { fmt } from '../../contracts/format/figures';
 import type { ExportContext } from './export-context';
 import { heightsNote } from './export-context';
 import { child, commentBeforeRoot, serialize, xmlDocument } from './xml';

@@ -4,7 +4,7 @@
  * the XML DOM (./xml), so every name and description is escaped text.
  */
 import type { Element } from '@xmldom/xmldom';
-import { fmt } from '../reports/format';
+import { fmt } from '../../contracts/format/figures';
 import type { ExportContext } from './export-context';
 import { heightsNote } from './export-context';
 import { child, serialize, xmlDocument } from './xml';

@@ -1,6 +1,6 @@
 /** Waypoints of a plan version: each line's start, every change of leg and each line's end, in flying order. */
 import type { DatumKind, Waypoint } from '../../contracts/exports';
-import type { LegView, ResultView } from '../reports/result-view';
+import type { LegView, ResultView } from '../versions/result-view';
 import { heightsOf } from './datum';
 
 function samePoint(a: LegView['end'], b: LegView['start']): boolean {

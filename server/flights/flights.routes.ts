@@ -4,10 +4,9 @@ import { flightListSchema, legSheetSchema } from '../../contracts/flights';
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
-import { bodyCacheOf } from '../http/body-cache';
-import { requireAnalysed } from '../reports/result-view';
-import type { RouteGroup } from '../routes';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { requireAnalysed } from '../versions/result-view';
+import type { RouteGroup } from '../route-group';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createFlightsRepository } from './flights.repository';
 import { buildLegSheet } from './leg-sheet.build';
 
@@ -15,7 +14,7 @@ import { buildLegSheet } from './leg-sheet.build';
 export const registerFlightRoutes: RouteGroup = (api: Router, { guards, services }) => {
   const flights = createFlightsRepository({ db: services.db });
   const versions = createVersionsRepository({ db: services.db });
-  const bodyCache = bodyCacheOf(services);
+  const bodyCache = services.bodyCache;
 
   api.get('/teams/:teamId/flights', guards.permission('flight:read'), async (req, res) => {
     const { teamId } = requireTeam(req);

@@ -1,12 +1,11 @@
 /** Build the pilot's leg sheet of one analysed version: lines in flying order, their legs, the battery plan, the checklist. */
 import type { ChecklistItem, LegSheet, SheetLeg, SheetLine } from '../../contracts/flights';
 import { reviewStateSchema } from '../../contracts/reviews';
-import { flightCautions, notSignedOffCaution } from '../reports/cautions';
-import { fmt } from '../reports/format';
-import { azimuthDeg, distanceM } from '../reports/geodesy';
-import { lineHeadingDeg, lineLengthM } from '../reports/report.build';
-import { heightDatumOf, noteText, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../reports/result-view';
-import type { VersionRecord } from '../reviews/versions.repository';
+import { flightCautions, notSignedOffCaution } from '../../contracts/cautions';
+import { fmt } from '../../contracts/format/figures';
+import { azimuthDeg, distanceM } from '../versions/geodesy';
+import { heightDatumOf, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../versions/result-view';
+import type { VersionRecord } from '../versions/versions.repository';
 import { planBatteries } from './battery-plan';
 
 /** A leg as the pilot reads it; time at the cruise speed over the leg's horizontal length. */
@@ -32,17 +31,17 @@ export function sheetLeg(leg: LegView, number: number, speedMps: number): SheetL
 function sheetLine(line: LineView, number: number, speedMps: number): SheetLine {
   const first = line.legs[0]?.start ?? line.stations[0];
   const last = line.legs[line.legs.length - 1]?.end ?? line.stations[line.stations.length - 1];
-  const lengthM = lineLengthM(line);
+  const lengthM = line.lengthM;
   return {
     number,
-    headingDeg: lineHeadingDeg(line),
+    headingDeg: line.headingDeg,
     lengthM,
     timeS: lengthM / speedMps,
     photoCount: line.stations.length,
     start: { lon: first.lon, lat: first.lat },
     end: { lon: last.lon, lat: last.lat },
     legs: line.legs.map((l, i) => sheetLeg(l, i + 1, speedMps)),
-    warnings: [...(line.warnings ?? []).map(noteText), ...(line.unmet ?? []).map((u) => u.message)],
+    warnings: [...line.warnings.map((w) => w.message), ...line.unmet.map((u) => u.message)],
   };
 }
 

@@ -97,9 +97,3 @@ export function createBodyCache(opts: { maxBytes?: number } = {}): BodyCache {
     },
   };
 }
-
-/** The server's one body cache, kept in the shared services (made on first use). */
-export function bodyCacheOf(services: { [name: string]: unknown }): BodyCache {
-  services.bodyCache ??= createBodyCache();
-  return services.bodyCache as BodyCache;
-}

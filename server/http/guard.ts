@@ -9,25 +9,14 @@ import type { Auth } from '../auth/auth';
 import { AppError, errors } from './errors';
 import { createSessionCache, sessionTokenOf, type SessionCache } from './session-cache';
 import { membershipCacheOf, type MembershipCache } from './membership-cache';
+import type { RequestAuth } from './request-auth';
+
+export type { RequestAuth, SessionUser } from './request-auth';
 
 /** What a guard demands: only a session, or a permission within the team named by `:teamId`. */
 export type GuardMeta = { kind: 'public' } | { kind: 'session' } | { kind: 'permission'; permission: Permission };
 
 export const guardMetaKey = Symbol.for('loftline.guard');
-
-export interface SessionUser {
-  id: string;
-  name: string;
-  email: string;
-}
-
-export interface RequestAuth {
-  user: SessionUser;
-  sessionId: string;
-  /** Set by permission guards: the caller's role in `req.params.teamId`. */
-  teamId?: string;
-  role?: Role;
-}
 
 declare module 'express-serve-static-core' {
   interface Request {

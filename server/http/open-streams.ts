@@ -3,21 +3,9 @@
  * to end: such answers are registered here and ended first when the server shuts down.
  */
 import type { ServerResponse } from 'node:http';
-import type { Services } from '../services';
 
-/** The open streams of this server process (made on first use). */
-export function openStreamsOf(services: Services): Set<ServerResponse> {
-  let set = services.openStreams as Set<ServerResponse> | undefined;
-  if (!set) {
-    set = new Set();
-    services.openStreams = set;
-  }
-  return set;
-}
-
-/** End every open stream (shutdown): the clients see the stream end and may reconnect elsewhere. */
-export function endOpenStreams(services: Services): void {
-  const set = openStreamsOf(services);
+/** End every open stream of the process (shutdown): the clients see the stream end and may reconnect elsewhere. */
+export function endOpenStreams(set: Set<ServerResponse>): void {
   for (const res of set) res.end();
   set.clear();
 }

@@ -5,7 +5,7 @@
  * cookie at once, so only a session revoked some other way (e.g. expired in the database) can outlive its end,
  * by at most `ttlMs`. Team membership and role are still read on every request.
  */
-import type { RequestAuth } from './guard';
+import type { RequestAuth } from './request-auth';
 
 export interface SessionCache {
   get(cookie: string | undefined): RequestAuth | undefined;

@@ -17,9 +17,8 @@ import { errorForLog } from '../http/error-log';
 import { AppError, errors } from '../http/errors';
 import { requireAuth, requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
-import { mailerOf } from '../mail/mail.service';
 import { invitationMail, links } from '../mail/templates';
-import type { RouteGroup } from '../routes';
+import type { RouteGroup } from '../route-group';
 import { createReviewsRepository } from '../reviews/reviews.repository';
 import { createInvitationsRepository, type AcceptOutcome } from './invitations.repository';
 
@@ -79,7 +78,7 @@ export const registerInvitationRoutes: RouteGroup = (api: Router, { guards, serv
       throw new AppError(409, 'already_invited', `${body.email} already has a pending invitation (until ${open.expiresAt.toISOString().slice(0, 10)}); revoke it to send a new one.`);
     }
     const expiresAt = new Date(now.getTime() + days * 24 * 3600 * 1000);
-    const mailer = mailerOf(services);
+    const mailer = services.mail;
     const teamName = await reviews.teamName(teamId);
     // The mail job is queued in the invitation's own transaction (as a review's mail is): a crash after the commit
     // loses no mail, and when the queue refuses the job nothing is stored and the owner is told to try again.

@@ -5,8 +5,6 @@
 import { sql, type SQL } from 'drizzle-orm';
 import PgBoss from 'pg-boss';
 import type { Config } from '../config';
-import type { Services } from '../services';
-
 
 export interface AnalysisJobData {
   versionId: string;
@@ -69,11 +67,4 @@ export async function startJobs(config: Pick<Config, 'databaseUrl' | 'env'>, log
       await boss.stop({ graceful: true, wait: true, timeout: 5000 });
     },
   };
-}
-
-/** The jobs service, or a clear error when the factory did not run. */
-export function jobsOf(services: Services): Jobs {
-  const j = services.jobs as Jobs | undefined;
-  if (!j) throw new Error('The jobs service is not set up: jobsFactory must run before the routes that use it.');
-  return j;
 }

@@ -1,16 +1,17 @@
 /** The mail service factory for the boot sequence, and the typed way routes reach it. */
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createReportService } from '../reports/reports.service';
-import { jobsOf } from '../jobs/jobs.service';
-import type { ServiceFactory, Services } from '../services';
-import { storageOf } from '../storage/storage.service';
+import type { Db } from '../../db/client';
+import type { Config } from '../config';
+import type { Jobs } from '../jobs/jobs.service';
+import type { Storage } from '../storage/storage';
 import { createMailer, type Mailer, type ReportAttachment } from './mailer';
 import { createTeamSettingsRepository } from '../teams/team-settings.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';
 
-/** Boot hook: starts the mailer (and, with no SMTP_HOST, the fake SMTP server) as `services.mail`. */
-export const mailFactory: ServiceFactory = async (services) => {
-  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
+/** Start the mailer (and, with no SMTP_HOST, the fake SMTP server); its `close` stops both. */
+export async function startMail(services: { db: Db; config: Config; storage: Storage; jobs: Pick<Jobs, 'boss'> }): Promise<Mailer> {
+  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => services.storage, asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
   // The report is rendered when the mail is sent, from the version as it is then (a signed-off version is locked).
   const attachReport: ReportAttachment = async (ref) => {
     const v = await createVersionsRepository({ db: services.db }).find({ ...ref, role: 'owner' });
@@ -18,8 +19,7 @@ export const mailFactory: ServiceFactory = async (services) => {
     const { pdf, fileName } = await reports.pdfOf(v);
     return { filename: fileName, content: pdf, contentType: 'application/pdf' };
   };
-  const mailer = await createMailer({ db: services.db, config: services.config, boss: jobsOf(services).boss, attachReport });
-  services.mail = mailer;
+  const mailer = await createMailer({ db: services.db, config: services.config, boss: services.jobs.boss, attachReport });
   if (services.config.env.NODE_ENV !== 'test') {
     const where =
       mailer.mode === 'fake'
@@ -29,11 +29,11 @@ export const mailFactory: ServiceFactory = async (services) => {
           : 'nowhere (DEV_OUTBOX=0 and no SMTP_HOST)';
     console.log(`loftline: mail goes to ${where}`);
   }
-  return () => mailer.close();
-};
+  return mailer;
+}
 
-/** A mailer that sends nothing, for servers booted without the mail factory. */
-const noMail: Mailer = {
+/** A mailer that sends nothing, for a process that sends no mail (the worker script). */
+export const noMail: Mailer = {
   mode: 'off',
   from: '',
   fake: null,
@@ -41,8 +41,3 @@ const noMail: Mailer = {
   idle: async () => undefined,
   close: async () => undefined,
 };
-
-/** The process's mailer, or one that sends nothing when the factory did not run (pure auth/team test servers). */
-export function mailerOf(services: Services): Mailer {
-  return (services.mail as Mailer | undefined) ?? noMail;
-}

@@ -6,8 +6,7 @@ import { devMail } from '../../db/schema';
 import { AppError } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
-import type { RouteGroup } from '../routes';
-import { mailerOf } from './mail.service';
+import type { RouteGroup } from '../route-group';
 
 type Attachment = { filename: string; contentType: string; size: number; sha256?: string };
 
@@ -15,7 +14,7 @@ type Attachment = { filename: string; contentType: string; size: number; sha256?
 export const registerOutboxRoutes: RouteGroup = (api: Router, { guards, services }) => {
   api.get('/teams/:teamId/dev/outbox', guards.permission('outbox:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
-    if (mailerOf(services).mode !== 'fake') {
+    if (services.mail.mode !== 'fake') {
       throw new AppError(404, 'not_found', 'The development outbox is off: this server sends mail through SMTP_HOST (or not at all).');
     }
     const rows = await services.db

@@ -15,8 +15,8 @@ import { site } from '../../db/schema';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import type { PlanResult } from '../../terrain/index';
 import type { TerrainRunner } from '../analysis/terrain-pool';
-import { heightDatumOf, readMission } from '../reports/result-view';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { heightDatumOf, readMission } from '../versions/result-view';
+import { createVersionsRepository } from '../versions/versions.repository';
 import type { Storage } from '../storage/storage';
 import { createFlightTriggersRepository } from './flight-triggers.repository';
 

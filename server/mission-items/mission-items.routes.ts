@@ -11,12 +11,9 @@ import { liveCoverageSchema } from '../../contracts/live-coverage';
 import { missionItemsSchema } from '../../contracts/mission-items';
 import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
-import { openStreamsOf } from '../http/open-streams';
 import { parseInput, sendJson } from '../http/validate';
-import type { RouteGroup } from '../routes';
-import { createVersionsRepository } from '../reviews/versions.repository';
-import { terrainOf } from '../analysis/terrain.service';
-import { storageOf } from '../storage/storage.service';
+import type { RouteGroup } from '../route-group';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createFlightTriggersRepository } from './flight-triggers.repository';
 import { createLiveCoverageHub } from './live-coverage.service';
 import { missionItemsOf, requireSignedOff } from './mission-items.view';
@@ -44,8 +41,8 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
   const triggers = createFlightTriggersRepository({ db: services.db });
   const live = createLiveCoverageHub({
     db: services.db,
-    storage: storageOf(services),
-    terrain: terrainOf(services),
+    storage: services.storage,
+    terrain: services.terrain,
     throttleMs: services.config.env.LIVE_COVERAGE_SECONDS * 1000,
     log: (m) => console.error(m),
   });
@@ -94,7 +91,7 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
       link: (state) => res.write(`event: link\ndata: ${JSON.stringify(linkStateSchema.parse(state))}\n\n`),
     });
     const beat = setInterval(() => res.write(': still here\n\n'), 15_000);
-    const streams = openStreamsOf(services);
+    const streams = services.openStreams;
     streams.add(res);
     req.on('close', () => {
       clearInterval(beat);

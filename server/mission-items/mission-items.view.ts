@@ -4,9 +4,9 @@ import { planLegSchema } from '../../contracts/plan-result';
 import type { MissionItems } from '../../contracts/mission-items';
 import { reviewStateSchema } from '../../contracts/reviews';
 import { AppError } from '../http/errors';
-import { heightDatumOf, readMission, readResult, requireAnalysed, takeoffGroundM, type ResultView } from '../reports/result-view';
+import { heightDatumOf, readMission, readResult, requireAnalysed, takeoffGroundM, type ResultView } from '../versions/result-view';
 import type { Mission } from '../../terrain/mission';
-import type { VersionRecord } from '../reviews/versions.repository';
+import type { VersionRecord } from '../versions/versions.repository';
 import { altitudeFrame, buildMissionItems, protocolUsed, type BuilderLine } from './mission-items.build';
 
 /** The per-leg figures a solved plan adds to a leg (contracts/plan-result.ts), read where present. */

@@ -8,11 +8,10 @@ import { planListSchema, planSchema, planVersionSchema, runPlanSchema, versionLi
 import { errors } from '../http/errors';
 import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
-import { jobsOf } from '../jobs/jobs.service';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
 import { idParam } from '../http/ids';
-import { bodyCacheOf, type BodyCache } from '../http/body-cache';
-import type { RouteGroup } from '../routes';
+import type { BodyCache } from '../http/body-cache';
+import type { RouteGroup } from '../route-group';
 import { createSitesRepository } from '../sites/sites.repository';
 import { createPlansRepository, type PlansRepository } from './plans.repository';
 import { createPlansUsecases, type PlansUsecases } from './plans.usecases';
@@ -104,9 +103,5 @@ export const planRouteGroup: RouteGroup = (api, { guards, services }) => {
   const { db } = services;
   const plans = createPlansRepository({ db });
   const projects = createProjectsRepository({ db });
-  // the jobs service is looked up per run: tests may boot without a queue and never run anything
-  const jobs = {
-    queueAnalysis: (...args: Parameters<ReturnType<typeof jobsOf>['queueAnalysis']>) => jobsOf(services).queueAnalysis(...args),
-  } as ReturnType<typeof jobsOf>;
-  registerPlanRoutes(api, { guards, plans, projects, bodyCache: bodyCacheOf(services), usecases: createPlansUsecases({ db, plans, projects, sites: createSitesRepository({ db }), jobs }) });
+  registerPlanRoutes(api, { guards, plans, projects, bodyCache: services.bodyCache, usecases: createPlansUsecases({ db, plans, projects, sites: createSitesRepository({ db }), jobs: services.jobs }) });
 };

@@ -4,7 +4,7 @@ import { createProjectSchema, projectListQuerySchema, projectListSchema, project
 import { errors } from '../http/errors';
 import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
-import type { RouteGroup } from '../routes';
+import type { RouteGroup } from '../route-group';
 import { createProjectsRepository, type ProjectsRepository } from './projects.repository';
 import { idParam } from '../http/ids';
 

@@ -4,18 +4,19 @@ import { reviewStateSchema } from '../../contracts/reviews';
 import { unitOfProj4 } from '../../terrain/crs';
 import type { GridMetadata } from '../../terrain/metadata';
 import type { Mission } from '../../terrain/mission';
-import type { VersionRecord } from '../reviews/versions.repository';
-import { flightCautions } from './cautions';
+import type { VersionRecord } from '../versions/versions.repository';
+import { flightCautions } from '../../contracts/cautions';
 import { coverageChecks, reportCoverage } from './report.coverage';
 import type { ReportAsFlown, ReportFlown } from '../../contracts/reports';
-import { azimuthDeg } from './geodesy';
-import { fmt } from './format';
-import { heightDatumOf, noteText, planWarnings, readMission, readResult, type LineView, type StationView } from './result-view';
+import { gsdBandCm } from '../../terrain/gsd';
+import { fmt } from '../../contracts/format/figures';
+import { heightDatumOf, planWarnings, readMission, readResult, type StationView } from '../versions/result-view';
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
 
-/** The GSD band of the spec: target ± tolerance (a fraction of the target). */
-export function gsdBandCm(m: Pick<Mission, 'targetGsdCm' | 'gsdTolerance'>): [number, number] {
-  return [m.targetGsdCm * (1 - m.gsdTolerance), m.targetGsdCm * (1 + m.gsdTolerance)];
+/** The GSD band of the spec as the report gives it, [finest, coarsest] cm (terrain/gsd.ts computes it). */
+function gsdBandOf(m: Pick<Mission, 'targetGsdCm' | 'gsdTolerance'>): [number, number] {
+  const band = gsdBandCm(m);
+  return [band.min, band.max];
 }
 
 /**
@@ -37,22 +38,6 @@ export function stationStats(stations: StationView[], band: [number, number], le
   };
 }
 
-/** Geodesic azimuth (WGS 84, GeographicLib) from the first to the last station, degrees in [0, 360). */
-export function lineHeadingDeg(line: LineView): number | null {
-  if (line.headingDeg !== undefined) return line.headingDeg;
-  const a = line.legs[0]?.start ?? line.stations[0];
-  const b = line.legs[line.legs.length - 1]?.end ?? line.stations[line.stations.length - 1];
-  return a && b ? azimuthDeg(a, b) : null;
-}
-
-/** Length of a line: as the engine gives it, else the span of its legs or stations. */
-export function lineLengthM(line: LineView): number {
-  if (line.lengthM !== undefined) return line.lengthM;
-  const ends = [...line.legs.map((l) => l.end.distanceM), ...line.stations.map((s) => s.distanceM)];
-  const starts = [...line.legs.map((l) => l.start.distanceM), ...line.stations.map((s) => s.distanceM)];
-  return ends.length ? Math.max(...ends) - Math.min(...starts) : 0;
-}
-
 /** The least overlaps as guaranteed under the mission's attitude envelope, or null when it has none (as planned only). */
 export interface GuaranteedOverlaps { words: string; forwardMin: number | null; sideMin: number | null }
 
@@ -60,7 +45,7 @@ function guaranteedOverlaps(view: ReturnType<typeof readResult>): GuaranteedOver
   const env = view.summary.overlapEnvelope;
   if (!env) return null;
   const all = view.lines.flatMap((l) => l.stations);
-  return { words: env.words, forwardMin: minKnown(all.map((s) => s.forwardOverlapGuaranteed)), sideMin: minKnown(all.map((s) => s.sideOverlapGuaranteed)) };
+  return { words: env.words, forwardMin: minKnown(all.map((s) => s.forwardOverlapGuaranteed ?? null)), sideMin: minKnown(all.map((s) => s.sideOverlapGuaranteed ?? null)) };
 }
 
 /**
@@ -117,7 +102,7 @@ function specChecks(m: Mission, o: StationStats, lineCount: number, band: [numbe
 export function requirementChecks(v: VersionRecord): SpecCheck[] {
   const mission = readMission(v.input);
   const view = readResult(v.result);
-  const band = gsdBandCm(mission);
+  const band = gsdBandOf(mission);
   const overall = stationStats(view.lines.flatMap((l) => l.stations), band, view.lines.flatMap((l) => l.legs));
   return [...specChecks(mission, overall, view.lines.length, band, guaranteedOverlaps(view)), ...coverageChecks(v.coverage)];
 }
@@ -135,7 +120,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { 
   const mission = readMission(v.input);
   const view = readResult(v.result);
   const meta = v.siteMetadata as GridMetadata;
-  const band = gsdBandCm(mission);
+  const band = gsdBandOf(mission);
   const all = view.lines.flatMap((l) => l.stations);
   const overall = stationStats(all, band, view.lines.flatMap((l) => l.legs));
   const checks = [...specChecks(mission, overall, view.lines.length, band, guaranteedOverlaps(view)), ...coverageChecks(v.coverage)];
@@ -169,8 +154,8 @@ export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { 
     overall: {
       ...overall,
       lineCount: view.lines.length,
-      photoCount: view.summary.photoCount ?? all.length,
-      flightTimeS: view.summary.flightTimeS ?? null,
+      photoCount: view.summary.photoCount,
+      flightTimeS: view.summary.flightTimeS,
     },
     checks,
     coverage: reportCoverage(v.coverage),
@@ -178,10 +163,10 @@ export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { 
     lines: view.lines.map((line, i) => ({
       number: i + 1,
       ...stationStats(line.stations, band, line.legs),
-      lengthM: lineLengthM(line),
-      headingDeg: lineHeadingDeg(line),
+      lengthM: line.lengthM,
+      headingDeg: line.headingDeg,
       legCount: line.legs.length,
-      warnings: [...(line.warnings ?? []).map(noteText), ...summariseUnmet(line.unmet ?? [])],
+      warnings: [...line.warnings.map((w) => w.message), ...summariseUnmet(line.unmet)],
       gsdSeries: line.stations.map((s) => ({ distanceM: s.distanceM, gsdCm: s.gsdCm })),
     })),
     dem: {

@@ -1,27 +1,8 @@
 /** The GSD-along-the-line chart of the PDF report, drawn with pdfkit vector paths, and its pure axis arithmetic. */
 import type PDFDocument from 'pdfkit';
 import type { ReportLine } from '../../contracts/reports';
+import { niceTicks } from '../../contracts/format/ticks';
 
-/**
- * "Nice" axis ticks covering [lo, hi]: steps of 1, 2 or 5 times a power of ten, about `count` of them
- * (the classic graph-labelling rule, Heckbert, "Nice numbers for graph labels", Graphics Gems, 1990).
- */
-export function niceTicks(lo: number, hi: number, count = 5): number[] {
-  if (!(Number.isFinite(lo) && Number.isFinite(hi))) throw new RangeError(`niceTicks needs finite bounds, got ${lo}, ${hi}`);
-  if (hi < lo) [lo, hi] = [hi, lo];
-  if (hi === lo) {
-    const pad = Math.abs(lo) > 0 ? Math.abs(lo) * 0.05 : 1;
-    lo -= pad;
-    hi += pad;
-  }
-  const raw = (hi - lo) / Math.max(1, count);
-  const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 5, 10].map((k) => k * mag).find((s) => s >= raw) ?? 10 * mag;
-  const out: number[] = [];
-  for (let t = Math.floor(lo / step) * step; t <= hi + step * 1e-9; t += step) out.push(Number(t.toFixed(12)));
-  if (out[out.length - 1] < hi) out.push(Number((out[out.length - 1] + step).toFixed(12)));
-  return out;
-}
 
 /** Colours and strokes of the chart: a palette of our own with distinct lightness, so it also reads in grey. */
 const ink = { axis: '#3a3f44', grid: '#d5d9dd', band: '#e4efe6', line: '#1d4e89', unknown: '#b0302a', text: '#3a3f44' };

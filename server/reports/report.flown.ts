@@ -2,8 +2,8 @@
 import type { AsFlownCheck } from '../../contracts/as-flown';
 import { itemTitle } from '../../contracts/coverage-words';
 import type { ReportFlown } from '../../contracts/reports';
-import { fmt } from './format';
-import type { VersionRecord } from '../reviews/versions.repository';
+import { fmt } from '../../contracts/format/figures';
+import type { VersionRecord } from '../versions/versions.repository';
 
 export function reportFlown(v: VersionRecord, required: boolean, latest: AsFlownCheck | null): ReportFlown {
   const at = v.flownConfirmedAt ? v.flownConfirmedAt.toISOString() : null;

@@ -3,7 +3,7 @@ import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import type { ComplianceReport } from '../../contracts/reports';
 import { drawGsdChart } from './report.chart';
-import { fmt } from './format';
+import { fmt } from '../../contracts/format/figures';
 import { areaWords, shareWords } from '../../contracts/coverage-words';
 
 const require = createRequire(import.meta.url);

@@ -3,9 +3,8 @@ import type { Request, Router } from 'express';
 import { complianceReportSchema } from '../../contracts/reports';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
-import { storageOf } from '../storage/storage.service';
-import type { RouteGroup } from '../routes';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import type { RouteGroup } from '../route-group';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createReportService } from './reports.service';
 import { createTeamSettingsRepository } from '../teams/team-settings.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';
@@ -14,7 +13,7 @@ const base = '/teams/:teamId/plans/:planId/versions/:versionId';
 
 /** Route group: compliance reports (report:read; pilots read leg sheets instead). */
 export const registerReportRoutes: RouteGroup = (api: Router, { guards, services }) => {
-  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
+  const reports = createReportService({ versions: createVersionsRepository({ db: services.db }), storage: () => services.storage, asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
   const ids = (req: Request) => {
     const { teamId, role } = requireTeam(req);
     return { teamId, role, planId: String(req.params.planId), versionId: String(req.params.versionId) };

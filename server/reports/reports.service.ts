@@ -2,13 +2,13 @@
 import type { ComplianceReport } from '../../contracts/reports';
 import type { Role } from '../../contracts/roles';
 import { errors } from '../http/errors';
-import type { VersionRecord, VersionsRepository } from '../reviews/versions.repository';
+import type { VersionRecord, VersionsRepository } from '../versions/versions.repository';
 import { buildReport } from './report.build';
 import { reportAsFlown } from './report.as-flown';
 import { reportFlown } from './report.flown';
 import type { AsFlownCheck } from '../../contracts/as-flown';
 import { renderReportPdf, reportFileName } from './report.pdf';
-import { requireAnalysed } from './result-view';
+import { requireAnalysed } from '../versions/result-view';
 import { coverageKeys } from '../coverage/coverage-keys';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 

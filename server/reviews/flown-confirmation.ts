@@ -13,7 +13,7 @@ import type { Db } from '../../db/client';
 import { auditEvent, flownConfirmation } from '../../db/schema';
 import { AppError, errors } from '../http/errors';
 import type { TeamSettingsRepository } from '../teams/team-settings.repository';
-import type { VersionRecord, VersionsRepository } from './versions.repository';
+import type { VersionRecord, VersionsRepository } from '../versions/versions.repository';
 
 type Checks = { latest(teamId: string, versionId: string): Promise<{ check: AsFlownCheck | null; count: number }>; find(teamId: string, versionId: string, checkId: string): Promise<AsFlownCheck | null> };
 

@@ -6,7 +6,7 @@ import type { MailJob, Mailer } from '../mail/mailer';
 import { links, returnedMail, reviewRequestedMail, signedOffMail, type VersionFacts } from '../mail/templates';
 import { reportFileName } from '../reports/report.pdf';
 import type { ReviewsRepository } from './reviews.repository';
-import type { VersionRecord } from './versions.repository';
+import type { VersionRecord } from '../versions/versions.repository';
 
 /** A transition's mail, prepared before the change: the job (given the transition's time) and what to tell the caller. */
 export interface PreparedNotification {

@@ -3,14 +3,12 @@ import type { Request, Router } from 'express';
 import { auditTrailSchema, returnSchema, reviewActions, reviewNoteSchema, reviewTransitions, signOffSchema, versionReviewSchema } from '../../contracts/reviews';
 import { requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
-import { mailerOf } from '../mail/mail.service';
 import { createReportService } from '../reports/reports.service';
-import { storageOf } from '../storage/storage.service';
-import type { RouteGroup } from '../routes';
+import type { RouteGroup } from '../route-group';
 import { createReviewNotifier } from './reviews.notify';
 import { createReviewsRepository } from './reviews.repository';
 import { createReviewsUsecases } from './reviews.usecases';
-import { createVersionsRepository } from './versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 import { createAsFlownRepository } from '../as-flown/as-flown.repository';
 import { confirmFlownSchema, flownConfirmationSchema } from '../../contracts/flown-confirmation';
 import { createTeamSettingsRepository } from '../teams/team-settings.repository';
@@ -24,13 +22,12 @@ export const registerReviewRoutes: RouteGroup = (api: Router, { guards, services
   const { db, config } = services;
   const versions = createVersionsRepository({ db });
   const reviews = createReviewsRepository({ db });
-  const reports = createReportService({ versions, storage: () => storageOf(services), asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
+  const reports = createReportService({ versions, storage: () => services.storage, asFlown: createAsFlownRepository({ db: services.db }), settings: createTeamSettingsRepository({ db: services.db }) });
   const usecases = createReviewsUsecases({
     versions,
     reviews,
-    // The mailer is looked up per request: the boot sequence adds it to `services` before routes run.
-    notify: (q) => createReviewNotifier({ mailer: mailerOf(services), reviews, config })(q),
-    mailer: () => mailerOf(services),
+    notify: (q) => createReviewNotifier({ mailer: services.mail, reviews, config })(q),
+    mailer: () => services.mail,
   });
 
   const flown = createFlownConfirmation({ db, versions, checks: createAsFlownRepository({ db }), settings: createTeamSettingsRepository({ db }) });

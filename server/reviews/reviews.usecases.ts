@@ -20,7 +20,7 @@ import type { JobsDb } from '../jobs/jobs.service';
 import type { Mailer } from '../mail/mailer';
 import type { ReviewNotifier } from './reviews.notify';
 import type { ReviewsRepository, TransitionRefusal } from './reviews.repository';
-import type { VersionRecord, VersionsRepository } from './versions.repository';
+import type { VersionRecord, VersionsRepository } from '../versions/versions.repository';
 
 const actionVerbs: Record<ReviewAction, string> = { submit: 'sent for review', 'sign-off': 'signed off', return: 'returned' };
 

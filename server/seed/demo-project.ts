@@ -20,7 +20,7 @@ import type { Storage } from '../storage/storage';
 import type { SeedStep } from './seed';
 import { requirementChecks } from '../reports/report.build';
 import { createReviewsRepository } from '../reviews/reviews.repository';
-import { createVersionsRepository } from '../reviews/versions.repository';
+import { createVersionsRepository } from '../versions/versions.repository';
 
 const datasets = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..', 'datasets');
 

@@ -7,7 +7,8 @@ import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import { siteFileField } from '../../contracts/sites';
 import { AppError } from '../http/errors';
-import { formatBytes, StorageLimitError, type Storage } from '../storage/storage';
+import { formatBytes } from '../../contracts/format/bytes';
+import { StorageLimitError, type Storage } from '../storage/storage';
 
 /** What the engine records about the stored file. */
 export interface ReceivedFile {
@@ -54,7 +55,7 @@ function engine(storage: Storage, limitBytes: number): multer.StorageEngine {
 
 /** multer's error codes as API errors with a message for a person. */
 function uploadError(err: unknown, limitBytes: number): unknown {
-  if (err instanceof StorageLimitError) return new AppError(413, 'too_large', `The file is larger than the upload limit of ${formatBytes(limitBytes)}; crop or resample the DEM (gdal_translate -projwin / -tr) and try again.`);
+  if (err instanceof StorageLimitError) return new AppError(413, 'too_large', `The file is larger than the upload limit of ${formatBytes(limitBytes, 'limit')}; crop or resample the DEM (gdal_translate -projwin / -tr) and try again.`);
   if (err instanceof multer.MulterError) {
     switch (err.code) {
       case 'LIMIT_FILE_COUNT':

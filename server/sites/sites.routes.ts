@@ -2,14 +2,12 @@
 import crypto from 'node:crypto';
 import type { NextFunction, Request, Response, Router } from 'express';
 import { duplicateSiteErrorSchema, siteListSchema, siteSchema, siteUpdateSchema, type DuplicateSiteError, type Site, type UnreadableSite } from '../../contracts/sites';
-import { terrainOf } from '../analysis/terrain.service';
 import { AppError, errors } from '../http/errors';
 import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
 import { idParam } from '../http/ids';
-import type { RouteGroup } from '../routes';
-import { storageOf } from '../storage/storage.service';
+import type { RouteGroup } from '../route-group';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 import { receiveDemUpload, receivedFile, setUploadKey } from './site-upload';
 import { createSitesRepository, toSite, type SitesRepository } from './sites.repository';
@@ -153,13 +151,13 @@ export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
 
 /** The sites route group for server/routes.ts. */
 export const siteRouteGroup: RouteGroup = (api, { guards, services }) => {
-  const storage = storageOf(services);
+  const storage = services.storage;
   const sites = createSitesRepository({ db: services.db });
   registerSiteRoutes(api, {
     guards,
     projects: createProjectsRepository({ db: services.db }),
     sites,
-    usecases: createSitesUsecases({ sites, storage, terrain: terrainOf(services), maxPixels: services.config.env.DEM_MAX_PIXELS }),
+    usecases: createSitesUsecases({ sites, storage, terrain: services.terrain, maxPixels: services.config.env.DEM_MAX_PIXELS }),
     storage,
     uploadLimitBytes: services.config.uploadLimitBytes,
   });

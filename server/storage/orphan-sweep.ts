@@ -7,8 +7,7 @@ import { inArray } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { planVersion, site } from '../../db/schema';
 import { versionObjectKey } from '../coverage/coverage-keys';
-import type { ServiceFactory } from '../services';
-import { storageOf } from './storage.service';
+import type { Config } from '../config';
 import type { Storage } from './storage';
 
 /** `teams/<team>/sites/<site id>/<object>`: the keys of a site's objects (sites.usecases.ts siteKeys). */
@@ -60,10 +59,10 @@ export async function sweepOrphans(deps: { storage: Storage; db: Db; graceMs: nu
   return { partial, orphans };
 }
 
-/** Service factory: a sweep at start (in the background) and then every ORPHAN_SWEEP_MINUTES. */
-export const orphanSweepFactory: ServiceFactory = async (services) => {
-  const { ORPHAN_GRACE_MINUTES, ORPHAN_SWEEP_MINUTES } = services.config.env;
-  const deps = { storage: storageOf(services), db: services.db, graceMs: ORPHAN_GRACE_MINUTES * 60_000 };
+/** A sweep at start (in the background) and then every ORPHAN_SWEEP_MINUTES; returns the stop. */
+export function startOrphanSweep(opts: { db: Db; storage: Storage; config: Pick<Config, 'env'> }): () => Promise<void> {
+  const { ORPHAN_GRACE_MINUTES, ORPHAN_SWEEP_MINUTES } = opts.config.env;
+  const deps = { storage: opts.storage, db: opts.db, graceMs: ORPHAN_GRACE_MINUTES * 60_000 };
   const run = () =>
     sweepOrphans(deps).then(
       (r) => {
@@ -78,4 +77,4 @@ export const orphanSweepFactory: ServiceFactory = async (services) => {
     clearInterval(timer);
     await first;
   };
-};
+}

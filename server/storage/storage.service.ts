@@ -2,7 +2,6 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Config } from '../config';
-import type { ServiceFactory, Services } from '../services';
 import { createDiskStorage } from './disk-storage';
 import { createS3Storage } from './s3-storage';
 import type { Storage } from './storage';
@@ -27,16 +26,4 @@ export function createStorageFromConfig(config: Pick<Config, 'env'>): Storage {
     });
   }
   return createDiskStorage(env.STORAGE_DIR ? path.resolve(env.STORAGE_DIR) : defaultStorageDir);
-}
-
-/** Service factory: puts `storage` on the services. */
-export const storageFactory: ServiceFactory = async (services) => {
-  services.storage = createStorageFromConfig(services.config);
-};
-
-/** The storage service, or a clear error when the factory did not run. */
-export function storageOf(services: Services): Storage {
-  const s = services.storage as Storage | undefined;
-  if (!s) throw new Error('The storage service is not set up: storageFactory must run before the routes that use it.');
-  return s;
 }

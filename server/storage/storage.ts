@@ -1,6 +1,7 @@
 /** Object storage for uploads and derived files: one interface, a local-disk driver and an S3-compatible driver. */
 import crypto from 'node:crypto';
 import { Readable, Transform, type TransformCallback } from 'node:stream';
+import { formatBytes } from '../../contracts/format/bytes';
 
 /** What `put` measured while the bytes streamed through. */
 export interface PutResult {
@@ -45,7 +46,7 @@ export interface Storage {
 export class StorageLimitError extends Error {
   readonly code = 'LIMIT_FILE_SIZE';
   constructor(readonly limitBytes: number) {
-    super(`The file is larger than the upload limit of ${formatBytes(limitBytes)}.`);
+    super(`The file is larger than the upload limit of ${formatBytes(limitBytes, 'limit')}.`);
     this.name = 'StorageLimitError';
   }
 }
@@ -56,13 +57,6 @@ export class StorageNotFoundError extends Error {
     super(`No stored object ${key}.`);
     this.name = 'StorageNotFoundError';
   }
-}
-
-/** "512 MB" style size for messages (1 MB = 2^20 bytes, as UPLOAD_LIMIT_MB counts). */
-export function formatBytes(n: number): string {
-  if (n >= 2 ** 20) return `${+(n / 2 ** 20).toFixed(1)} MB`;
-  if (n >= 1024) return `${+(n / 1024).toFixed(1)} KB`;
-  return `${n} bytes`;
 }
 
 /** A pass-through that hashes and counts, failing with StorageLimitError as soon as the count passes `limitBytes`. */

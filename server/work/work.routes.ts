@@ -3,7 +3,7 @@ import type { Router } from 'express';
 import { workKindsByRole, workListSchema } from '../../contracts/work';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
-import type { RouteGroup } from '../routes';
+import type { RouteGroup } from '../route-group';
 import { createWorkRepository } from './work.repository';
 
 /** Route group: every member has a work list; the role picks which lists, so a pilot still sees signed-off versions only. */

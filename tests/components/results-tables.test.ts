@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { niceDomain, niceStep, profileSeries } from '../../components/charts/profile-series';
+import { profileSeries } from '../../components/charts/profile-series';
+import { niceDomain, niceStep } from '../../contracts/format/ticks';
 import { lineRows, sortLineRows, type LineRow } from '../../components/results/line-rows';
 import { countStatuses, stationStatus, statusLooks, stationStatuses } from '../../components/results/station-status';
 import { readDem } from '../../terrain/dem';

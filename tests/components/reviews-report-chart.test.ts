@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { gsdChartGeometry, niceStep, type ChartBox } from '../../components/reports/gsd-chart-geometry';
+import { gsdChartGeometry, type ChartBox } from '../../components/reports/gsd-chart-geometry';
+import { niceStep } from '../../contracts/format/ticks';
 
 const box: ChartBox = { widthPx: 300, heightPx: 150, padLeftPx: 40, padRightPx: 10, padTopPx: 10, padBottomPx: 40 };
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { roundTowardFailing } from '../../contracts/target-rounding';
 import { formatGsd, formatLength, formatPercent } from '../../components/projects/units';
-import { fmt } from '../../server/reports/format';
+import { fmt } from '../../contracts/format/figures';
 
 describe('one rounding rule for figures shown against a target', () => {
   it('never shows a figure short of a minimum as the minimum (79.8 % against 80 %)', () => {

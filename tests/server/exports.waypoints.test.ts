@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { datumKindOf, heightsOf } from '../../server/exports/datum';
 import { waypointsOf } from '../../server/exports/waypoints';
-import { readResult } from '../../server/reports/result-view';
+import { readResult } from '../../server/versions/result-view';
+import { analysedResult } from '../support/fixtures';
 import { geoidUndulationM } from '../../terrain/heights';
 
 const leg = (d0: number, d1: number, z0: number, z1: number, lon0: number, lon1: number) => ({
@@ -17,7 +18,9 @@ const leg = (d0: number, d1: number, z0: number, z1: number, lon0: number, lon1:
   gsdMaxCm: 3.1,
   gradient: (z1 - z0) / (d1 - d0),
 });
-const view = (legs: ReturnType<typeof leg>[]) => readResult({ lines: [{ index: 0, stations: [], legs }], summary: {}, warnings: [] });
+// a real analysis's result with its first line's legs replaced, read through the one result schema
+const base = analysedResult();
+const view = (legs: ReturnType<typeof leg>[]) => readResult({ ...base, lines: [{ ...base.lines[0], index: 0, stations: [], legs }] });
 const egm = { name: 'EGM96', kind: 'egm96' as const };
 
 describe('waypoints of a line', () => {

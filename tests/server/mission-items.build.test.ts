@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildMissionItems, degE7, type BuilderInput } from '../../server/mission-items/mission-items.build';
 import type { MissionItem } from '../../contracts/mission-items';
 import { builderLinesOf } from '../../server/mission-items/mission-items.view';
-import { readMission, readResult } from '../../server/reports/result-view';
+import { readMission, readResult } from '../../server/versions/result-view';
 import { analysedResult, solvedMission, solvedResult, syntheticMission } from '../support/fixtures';
 import { enumValue, startSimVehicle, type SimVehicle } from '../support/sim-vehicle';
 

