@@ -37,7 +37,7 @@ export async function run(args: string[]): Promise<unknown> {
     throw err;
   }
   const t0 = performance.now();
-  const plan = analysePlan(grid, input, { verticalDatum: dem.header.verticalDatum });
+  const plan = analysePlan(grid, input, { verticalDatum: dem.header.verticalDatum, mission });
   const t1 = performance.now();
   const run = runCoverage(grid, input, mission, plan, { cellM: cellArg, now: () => performance.now() });
   const bytes = coverageGeoTiff(run.raster);

@@ -55,7 +55,7 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
   const rasterSettings = { cellM, maxCells: settings.maxCells, imageErrorPx: settings.imageErrorPx, occlusion: settings.occlusion };
   const analyseOpts = { verticalDatum: opts.verticalDatum };
   const t0 = performance.now();
-  const plan = opts.plan ?? analysePlan(grid, input, analyseOpts);
+  const plan = opts.plan ?? analysePlan(grid, input, { ...analyseOpts, mission });
   const t1 = performance.now();
   const a = analyseAsFlown(grid, mission, plan, photos, spec, rasterSettings);
   const t2 = performance.now();

@@ -102,6 +102,11 @@ export function shortLegWarnings(lineIndex: number, lineLengthM: number, legs: R
 export interface AnalyseOptions {
   verticalDatum?: { epsg: number | null; name: string } | null;
   /**
+   * The mission as the caller already resolved it from this very input (`resolveMission(missionInput)`), so it is
+   * not parsed and checked a second time; left out, the input is resolved here.
+   */
+  mission?: Mission;
+  /**
    * Lines laid out by the caller (local frame of `localFrameFor` at the area's corner mean, flying order, stations
    * placed) instead of the uniform layout; the mission's heading must then be a number (their layout heading).
    */
@@ -353,7 +358,7 @@ function flightEstimate(mission: Mission, lines: FlightLine[], profiles: LinePro
 /** Analyse a mission over an elevation grid (grid heights in metres above its vertical datum). */
 export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOptions = {}): PlanResult {
   // the input is resolved once; every stage below takes the resolved mission (the envelope also reads the input's own fields)
-  const mission = resolveMission(missionInput);
+  const mission = opts.mission ?? resolveMission(missionInput);
   const g = planGround(grid, mission);
   const { lines: laid, headingDeg, headingAdvice } = layLines(mission, g, opts);
   const lim = altitudeLimits(mission, g.targetHeightM);

@@ -192,10 +192,12 @@ export async function analyseMission(file: DemFile, mission: unknown, onProgress
   }));
   onProgress(40);
   const verticalDatum = analysisDatum(opts.siteVerticalDatum, header.verticalDatum);
-  const result = (mission as { layoutBy?: string }).layoutBy === 'solver' ? solvedResult(grid, mission, verticalDatum) : analysePlan(grid, mission, { verticalDatum });
+  // resolved once for the analysis and the coverage run (the solver resolves each candidate it tries itself)
+  const resolved = resolveMission(mission);
+  const result = (mission as { layoutBy?: string }).layoutBy === 'solver' ? solvedResult(grid, mission, verticalDatum) : analysePlan(grid, mission, { verticalDatum, mission: resolved });
   onProgress(60);
   try {
-    const run = runCoverage(grid, mission, resolveMission(mission), result);
+    const run = runCoverage(grid, mission, resolved, result);
     const { layers, failingPng, printPng } = coverageLayers(run.raster, run.spec);
     const files: CoverageFiles = {
       raster: coverageCog(run.raster),
