@@ -1,7 +1,8 @@
 /**
- * `npm run bench:api`: the read mix that every role makes (projects list, a plan version with its result, the
- * pilot's leg sheet) under load from autocannon, against a real server in its own process on a fresh bench
- * database, alone and while analyses run beside it. Prints p50/p95/p99, throughput, errors and the server's
+ * `npm run bench:api`: the read mix that every role makes (projects list, a plan version with its result's
+ * overview and one line with its stations, as the results screen reads them, the pilot's leg sheet) under load from
+ * autocannon, against a real server in its own process on a fresh bench database, alone and while analyses run
+ * beside it. Prints p50/p95/p99, throughput, errors and the server's
  * resident memory, and `ratio`-style lines against the targets. Not part of `npm test`.
  *
  * Knobs: BENCH_SECONDS (default 30), BENCH_RATE (requests/s overall, default 200), BENCH_CONNECTIONS (200).
@@ -126,9 +127,13 @@ try {
 
   const mix = [
     { cookie: cookies.planner, path: `/api/teams/${teamId}/projects` },
-    { cookie: cookies.surveyor, path: `/api/teams/${teamId}/plans/${planId}/versions/${versionId}` },
+    // the results screen's reads: the version with its result's overview, then the chosen line with its stations
+    { cookie: cookies.surveyor, path: `/api/teams/${teamId}/plans/${planId}/versions/${versionId}?part=overview` },
+    { cookie: cookies.surveyor, path: `/api/teams/${teamId}/plans/${planId}/versions/${versionId}/lines/0` },
     { cookie: cookies.pilot, path: `/api/teams/${teamId}/flights/${versionId}/leg-sheet` },
   ];
+  /** The mix starting at read `i mod 4`, so that the connections' first reads are spread over the four. */
+  const rotated = (i: number) => mix.map((_, k) => mix[(i + k) % mix.length]);
   // Bytes on the wire (compressed, as a browser receives them) and the unloaded latency of each read, one at a time.
   const sizes: number[] = [];
   const single: number[] = [];
@@ -157,23 +162,50 @@ try {
     const loadBefore = os.loadavg()[0];
     let rssPeak = rssBefore;
     const probe = setInterval(() => (rssPeak = Math.max(rssPeak, rssMiB())), 250);
-    const result = await autocannon({
-      url,
-      connections,
-      overallRate: rate,
-      duration: seconds,
-      headers: { 'Accept-Encoding': 'gzip, br' },
-      requests: mix.map((m) => ({ method: 'GET' as const, path: m.path, headers: { Cookie: m.cookie, 'Accept-Encoding': 'gzip, br' } })),
-    });
+    // An open arrival model at `rate` requests/s spread evenly over each second. autocannon limits a rate per
+    // connection with a one-second timer per connection; the timers of one run start in the same millisecond, so
+    // with 200 connections at 1 request/s each, all 200 requests leave together once a second (a 200-request burst,
+    // not 200 requests/s). One autocannon run per connection, started 1000/connections ms apart, spreads them.
+    // Latencies are recorded raw, each answer once: autocannon's coordinated-omission correction takes
+    // ceil(1 / rate) = 1 ms as the expected interval of a 1-request/s connection and would record a 198 ms answer as
+    // 198 answers of 198, 197 … 1 ms; no answer here comes near the true interval of 1 s, so there is nothing to correct.
+    const conns = Math.min(connections, rate);
+    const perConn = Math.floor(rate / conns);
+    const extra = rate - perConn * conns;
+    const latencies: number[] = [];
+    let errors = 0;
+    const runs: Array<Promise<unknown>> = [];
+    for (let i = 0; i < conns; i++) {
+      if (i > 0) await new Promise((r) => setTimeout(r, 1000 / conns));
+      const opts = {
+        url,
+        connections: 1,
+        connectionRate: perConn + (i < extra ? 1 : 0),
+        ignoreCoordinatedOmission: true,
+        duration: seconds,
+        requests: rotated(i).map((m) => ({ method: 'GET' as const, path: m.path, headers: { Cookie: m.cookie, 'Accept-Encoding': 'gzip, br' } })),
+      };
+      runs.push(new Promise<void>((resolve, reject) => {
+        const instance = autocannon(opts, (err, r) => {
+          if (err) return reject(err);
+          errors += r.errors + r.timeouts;
+          resolve();
+        });
+        instance.on('response', (_client, statusCode, _bytes, ms) => {
+          if (statusCode >= 200 && statusCode < 300) latencies.push(ms);
+          else errors++;
+        });
+      }));
+    }
+    await Promise.all(runs);
     clearInterval(probe);
-    const errors = result.errors + result.timeouts + result.non2xx;
-    const out = { p50: result.latency.p50, p95: result.latency.p97_5 ?? 0, p99: result.latency.p99, rps: result.requests.average, errors, rssMiB: rssPeak };
-    // autocannon reports p97.5, not p95: compute p95 from its histogram percentiles when available.
-    const hist = result.latency as unknown as Record<string, number>;
-    if (typeof hist.p95 === 'number') out.p95 = hist.p95;
+    latencies.sort((a, b) => a - b);
+    const pct = (q: number) => Math.round(latencies[Math.min(latencies.length - 1, Math.floor(q * latencies.length))] ?? NaN);
+    const out = { p50: pct(0.5), p95: pct(0.95), p99: pct(0.99), rps: latencies.length / seconds, // each connection's window is `seconds` long (the windows start up to 1 s apart)
+      errors, rssMiB: rssPeak };
     console.log(`${label}: ${out.rps.toFixed(0)} req/s, p50 ${out.p50} ms, p95 ${out.p95} ms, p99 ${out.p99} ms, errors ${errors}, RSS ${rssBefore.toFixed(0)} → peak ${rssPeak.toFixed(0)} MiB`);
     // What the server spent per answered request, and how busy the machine was besides (other processes share it).
-    const served = result.requests.total || 1;
+    const served = latencies.length + errors || 1;
     console.log(`  server CPU ${((cpuMs() - cpuBefore) / served).toFixed(2)} ms per request (all threads); machine load average ${loadBefore.toFixed(1)} → ${os.loadavg()[0].toFixed(1)} on ${os.cpus().length} cores`);
     return out;
   }

@@ -1,4 +1,5 @@
 /** Shapes of plans (what to fly over a site), their immutable versions and analysis runs. */
+import { resultOverviewSchema } from './result-parts';
 import { z } from 'zod';
 import { userText } from './text';
 import { missionSchema, storedMissionSchema } from './mission';
@@ -67,6 +68,13 @@ export const planVersionSchema = versionSummarySchema.extend({
   result: planResultSchema.nullable(),
 });
 export type PlanVersion = z.infer<typeof planVersionSchema>;
+
+/** One version with its result's overview in place of the whole result (`?part=overview`; stations per line on demand). */
+export const planVersionOverviewSchema = versionSummarySchema.extend({
+  input: storedMissionSchema,
+  result: resultOverviewSchema.nullable(),
+});
+export type PlanVersionOverview = z.infer<typeof planVersionOverviewSchema>;
 
 export const versionListSchema = z.object({ versions: z.array(versionSummarySchema) });
 export type VersionList = z.infer<typeof versionListSchema>;

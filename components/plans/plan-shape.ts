@@ -3,13 +3,14 @@ export {
   analysisStateLabels,
   planListSchema,
   planSchema,
-  planVersionSchema,
+  planVersionOverviewSchema,
   versionListSchema,
   versionStatusSchema,
   versionSummarySchema,
   type AnalysisState,
   type Plan,
-  type PlanVersion,
+  type PlanVersionOverview,
   type VersionStatus,
   type VersionSummary,
 } from '../../contracts/plans';
+export { resultLineSchema, type OverviewLine, type ResultOverview } from '../../contracts/result-parts';

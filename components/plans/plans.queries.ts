@@ -2,7 +2,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch } from '../api/api-fetch';
 import { projectKeys, projectPath } from '../projects/projects.queries';
-import { planListSchema, planSchema, planVersionSchema, versionListSchema, versionStatusSchema, versionSummarySchema, type Plan, type VersionStatus, type VersionSummary } from './plan-shape';
+import { planListSchema, planSchema, planVersionOverviewSchema, resultLineSchema, versionListSchema, versionStatusSchema, versionSummarySchema, type Plan, type VersionStatus, type VersionSummary } from './plan-shape';
 
 /** Query keys for plans and versions, per team. */
 export const planKeys = {
@@ -13,6 +13,7 @@ export const planKeys = {
   versions: (teamId: string, planId: string) => [...planKeys.detail(teamId, planId), 'versions'] as const,
   version: (teamId: string, planId: string, versionId: string) => [...planKeys.versions(teamId, planId), versionId] as const,
   status: (teamId: string, planId: string, versionId: string) => [...planKeys.version(teamId, planId, versionId), 'status'] as const,
+  line: (teamId: string, planId: string, versionId: string, lineIndex: number) => [...planKeys.version(teamId, planId, versionId), 'line', lineIndex] as const,
 };
 
 const team = (teamId: string) => `/api/teams/${encodeURIComponent(teamId)}`;
@@ -68,13 +69,26 @@ export function useVersionStatus(teamId: string | undefined, planId: string | un
   });
 }
 
-/** One version with its mission snapshot and result; fetched once its analysis has settled (`ready`). */
+/**
+ * One version with its mission snapshot and its result's overview (every line's figures and station marks, no
+ * stations); fetched once its analysis has settled (`ready`). A line's stations come with `useVersionLine`.
+ */
 export function useVersion(teamId: string | undefined, planId: string | undefined, versionId: string | undefined, ready = true) {
   return useQuery({
     queryKey: planKeys.version(teamId ?? '', planId ?? '', versionId ?? ''),
-    queryFn: ({ signal }) => apiFetch(versionPath(teamId as string, planId as string, versionId as string), { schema: planVersionSchema, signal }),
+    queryFn: ({ signal }) => apiFetch(`${versionPath(teamId as string, planId as string, versionId as string)}?part=overview`, { schema: planVersionOverviewSchema, signal }),
     enabled: Boolean(teamId && planId && versionId) && ready,
     staleTime: Infinity, // a settled version never changes
+  });
+}
+
+/** One line of a settled version with its stations (for its chart), fetched when the line is chosen. */
+export function useVersionLine(teamId: string | undefined, planId: string, versionId: string, lineIndex: number | null) {
+  return useQuery({
+    queryKey: planKeys.line(teamId ?? '', planId, versionId, lineIndex ?? -1),
+    queryFn: ({ signal }) => apiFetch(`${versionPath(teamId as string, planId, versionId)}/lines/${lineIndex}`, { schema: resultLineSchema, signal }),
+    enabled: Boolean(teamId) && lineIndex !== null,
+    staleTime: Infinity,
   });
 }
 

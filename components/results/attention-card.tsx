@@ -1,14 +1,14 @@
 /** The top of the results: what is wrong and on which lines, each finding once (the marker shape beside photo findings). */
 import { useMemo } from 'react';
 import { StyleSheet, View } from 'react-native';
-import type { PlanResult } from '../../terrain/plan';
+import type { ResultOverview } from '../../contracts/result-parts';
 import { MarkerGlyph } from '../map/marker-glyph';
 import { space } from '../theme';
 import { Card, Heading, Text } from '../ui';
 import { attentionItems, lineList } from './attention';
 import { statusLooks } from './station-status';
 
-export function AttentionCard({ result }: { result: Pick<PlanResult, 'lines' | 'warnings'> }) {
+export function AttentionCard({ result }: { result: Pick<ResultOverview, 'lines' | 'warnings'> }) {
   const items = useMemo(() => attentionItems(result), [result]);
   return (
     <Card testID="results-wrong">

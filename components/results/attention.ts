@@ -3,8 +3,9 @@
  * stretches where the GSD band or the height limit is not held by reason, and each kind of line warning, each
  * naming its lines; plan-wide warnings once each. Pure, so it is tested without React.
  */
-import type { PlanResult } from '../../terrain/plan';
-import { stationStatus, statusLooks, type StationStatus } from './station-status';
+import type { ResultOverview } from '../../contracts/result-parts';
+import { statusLooks } from './station-status';
+import type { StationStatus } from '../../contracts/station-status';
 
 export interface AttentionItem {
   key: string;
@@ -57,16 +58,16 @@ export function lineList(numbers: readonly number[]): string {
 const plural = (n: number, one: string, many = `${one}s`) => `${n.toLocaleString('en-GB')} ${n === 1 ? one : many}`;
 
 /** The findings of a plan result, worst first; an empty list when nothing is wrong. */
-export function attentionItems(result: Pick<PlanResult, 'lines' | 'warnings'>): AttentionItem[] {
+export function attentionItems(result: Pick<ResultOverview, 'lines' | 'warnings'>): AttentionItem[] {
   const out: AttentionItem[] = [];
   // photos off target, by their worst status (the same scheme as the map's markers)
   const byStatus = new Map<StationStatus, { count: number; lines: Set<number> }>();
   for (const l of result.lines) {
-    for (const s of l.stations) {
-      const st = stationStatus(s);
-      if (st === 'meets') continue;
+    for (const st of ['unknown', 'height', 'gsd', 'overlap'] as const) {
+      const count = l.digest.statusCounts[st] ?? 0;
+      if (count === 0) continue;
       const e = byStatus.get(st) ?? { count: 0, lines: new Set<number>() };
-      e.count++;
+      e.count += count;
       e.lines.add(l.index + 1);
       byStatus.set(st, e);
     }

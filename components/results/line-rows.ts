@@ -1,6 +1,6 @@
 /** The table of flight lines: one row of figures per line, and sorting by any column (unknown values last). */
-import type { PlanLine } from '../../terrain/plan';
-import { stationStatus, stationStatuses, type StationStatus } from './station-status';
+import type { OverviewLine } from '../../contracts/result-parts';
+import type { StationStatus } from '../../contracts/station-status';
 
 export interface LineRow {
   index: number;
@@ -28,42 +28,26 @@ export interface LineRow {
 
 export type LineSortKey = Exclude<keyof LineRow, 'index' | 'warnings' | 'worst'> | 'warningCount';
 
-function median(sorted: number[]): number | null {
-  if (sorted.length === 0) return null;
-  const m = sorted.length >> 1;
-  return sorted.length % 2 ? sorted[m] : (sorted[m - 1] + sorted[m]) / 2;
-}
-
-function minOf(values: Array<number | null>): number | null {
-  let m = Infinity;
-  for (const v of values) if (v !== null && v < m) m = v;
-  return m === Infinity ? null : m;
-}
-
-/** One row per line, figures over its stations (null where no station had a value). */
-export function lineRows(lines: readonly PlanLine[]): LineRow[] {
+/** One row per line, from the figures the overview carries over its stations (null where no station had a value). */
+export function lineRows(lines: readonly OverviewLine[]): LineRow[] {
   return lines.map((line) => {
-    const gsd = line.stations.map((s) => s.gsdCm).filter((v): v is number => v !== null).sort((a, b) => a - b);
+    const d = line.digest;
     return {
       index: line.index,
       number: line.index + 1,
       lengthM: line.lengthM,
-      photos: line.stations.length,
-      gsdMinCm: gsd.length ? gsd[0] : null,
-      gsdMedianCm: median(gsd),
-      gsdMaxCm: gsd.length ? gsd[gsd.length - 1] : null,
-      forwardOverlapMin: minOf(line.stations.map((s) => s.forwardOverlap)),
-      sideOverlapMin: minOf(line.stations.map((s) => s.sideOverlap)),
-      forwardOverlapGuaranteedMin: minOf(line.stations.map((s) => s.forwardOverlapGuaranteed ?? null)),
-      sideOverlapGuaranteedMin: minOf(line.stations.map((s) => s.sideOverlapGuaranteed ?? null)),
-      // the legs flown between photos too, as the report counts them
-      aglMinM: minOf([...line.stations.map((s) => s.aglM), ...line.legs.map((g) => g.aglMinM)]),
+      photos: d.photos,
+      gsdMinCm: d.gsdMinCm,
+      gsdMedianCm: d.gsdMedianCm,
+      gsdMaxCm: d.gsdMaxCm,
+      forwardOverlapMin: d.forwardOverlapMin,
+      sideOverlapMin: d.sideOverlapMin,
+      forwardOverlapGuaranteedMin: d.forwardOverlapGuaranteedMin,
+      sideOverlapGuaranteedMin: d.sideOverlapGuaranteedMin,
+      aglMinM: d.aglMinM,
       legs: line.legs.length,
-      flagged: line.stations.filter((s) => stationStatus(s) !== 'meets').length,
-      worst: line.stations.reduce<StationStatus>((w, s) => {
-        const st = stationStatus(s);
-        return stationStatuses.indexOf(st) < stationStatuses.indexOf(w) ? st : w;
-      }, 'meets'),
+      flagged: d.flagged,
+      worst: d.worst,
       warnings: [...line.warnings.map((w) => w.message), ...line.unmet.map((u) => u.message)],
     };
   });

@@ -1,12 +1,13 @@
 /** The results overview as map shapes: survey area, flight lines (the chosen one emphasised), stations by status, takeoff. */
-import type { PlanResult } from '../../terrain/plan';
+import type { ResultOverview } from '../../contracts/result-parts';
+import { stationStatuses } from '../../contracts/station-status';
 import type { ImageGeoref } from '../map/image-georef';
 import type { MapShape, PxPoint } from '../map/map-shapes';
 import { colors } from '../theme';
-import { stationStatus, statusLooks } from './station-status';
+import { statusLooks } from './station-status';
 
 /** Shapes in drawing order: area under lines under stations; the selected line's label on top. */
-export function overviewShapes(result: PlanResult, area: number[][][] | null, georef: ImageGeoref, selectedIndex: number | null): MapShape[] {
+export function overviewShapes(result: ResultOverview, area: number[][][] | null, georef: ImageGeoref, selectedIndex: number | null): MapShape[] {
   const px = (lon: number, lat: number): PxPoint => georef.toPixel(lon, lat);
   const out: MapShape[] = [];
   if (area?.[0]) out.push({ kind: 'polygon', id: 'area', points: area[0].slice(0, -1).map(([lon, lat]) => px(lon, lat)), closed: true, stroke: colors.ink, fill: colors.primary, fillOpacity: 0.08, dashed: true, widthPx: 1.5 });
@@ -19,10 +20,11 @@ export function overviewShapes(result: PlanResult, area: number[][][] | null, ge
   for (const line of order) {
     const chosen = line.index === selectedIndex;
     if (chosen) out.push({ kind: 'polyline', id: `line-${line.index}-halo`, points: [px(line.start.lon, line.start.lat), px(line.end.lon, line.end.lat)], stroke: colors.focus, widthPx: 6 });
-    line.stations.forEach((s, i) => {
-      const look = statusLooks[stationStatus(s)];
-      out.push({ kind: 'marker', id: `st-${line.index}-${i}`, at: px(s.lon, s.lat), shape: look.shape, fill: look.color, stroke: colors.ink, sizePx: chosen ? 10 : 7, opacity: selectedIndex === null || chosen ? 1 : 0.55 });
-    });
+    const { lon, lat, status } = line.marks;
+    for (let i = 0; i < lon.length; i++) {
+      const look = statusLooks[stationStatuses[status[i]]];
+      out.push({ kind: 'marker', id: `st-${line.index}-${i}`, at: px(lon[i], lat[i]), shape: look.shape, fill: look.color, stroke: colors.ink, sizePx: chosen ? 10 : 7, opacity: selectedIndex === null || chosen ? 1 : 0.55 });
+    }
   }
   out.push({ kind: 'marker', id: 'takeoff', at: px(result.takeoff.lon, result.takeoff.lat), shape: 'diamond', fill: colors.ink, stroke: colors.surface, sizePx: 15, label: 'Takeoff' });
   if (selectedIndex !== null) {
@@ -41,7 +43,7 @@ function distanceToSegment([x, y]: PxPoint, [x0, y0]: PxPoint, [x1, y1]: PxPoint
 }
 
 /** The line nearest to an image point, if one lies within `maxPx` image pixels; else null. */
-export function nearestLine(result: PlanResult, georef: ImageGeoref, at: PxPoint, maxPx: number): number | null {
+export function nearestLine(result: ResultOverview, georef: ImageGeoref, at: PxPoint, maxPx: number): number | null {
   let best: number | null = null;
   let bestD = maxPx;
   for (const line of result.lines) {
@@ -55,7 +57,7 @@ export function nearestLine(result: PlanResult, georef: ImageGeoref, at: PxPoint
 }
 
 /** The part of the image the overview shows: the area, lines and takeoff with a margin, kept on the image. */
-export function overviewView(result: PlanResult, area: number[][][] | null, georef: ImageGeoref, marginShare = 0.12): [number, number, number, number] {
+export function overviewView(result: ResultOverview, area: number[][][] | null, georef: ImageGeoref, marginShare = 0.12): [number, number, number, number] {
   const pts: PxPoint[] = [georef.toPixel(result.takeoff.lon, result.takeoff.lat)];
   for (const l of result.lines) pts.push(georef.toPixel(l.start.lon, l.start.lat), georef.toPixel(l.end.lon, l.end.lat));
   for (const [lon, lat] of area?.[0] ?? []) pts.push(georef.toPixel(lon, lat));

@@ -6,13 +6,15 @@
 import { useEffect, useRef } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { UnitSystem } from '../../contracts/projects';
-import type { PlanResult } from '../../terrain/plan';
+import type { ResultOverview } from '../../contracts/result-parts';
+import { errorMessage } from '../api/api-error';
+import { useVersionLine } from '../plans/plans.queries';
 import { ProfileChart } from '../charts/profile-chart';
 import { useBreakpoint } from '../layout/use-breakpoint';
 import type { ImageGeoref } from '../map/image-georef';
 import { MapCanvas } from '../map/map-canvas';
 import { space } from '../theme';
-import { Card, Heading, Text } from '../ui';
+import { Banner, Card, Heading, Loading, Text } from '../ui';
 import { AttentionCard } from './attention-card';
 import { CoverageCard } from '../coverage/coverage-card';
 import { LiveCoverageMapCard } from '../coverage/live-coverage-map-card';
@@ -24,7 +26,9 @@ import { SummaryFigures } from './summary-figures';
 import { useResultsView } from './use-results-view';
 
 export type ResultsViewProps = {
-  result: PlanResult;
+  result: ResultOverview;
+  /** The version the result belongs to: a chosen line's stations are fetched from it. */
+  source: { teamId: string | undefined; planId: string; versionId: string };
   area: number[][][] | null;
   georef: ImageGeoref;
   hillshadeUrl: string;
@@ -43,8 +47,10 @@ function bringIntoView(el: unknown, block: 'start' | 'nearest'): void {
   node?.scrollIntoView?.({ block, behavior: 'auto' });
 }
 
-export function ResultsView({ result, area, georef, hillshadeUrl, units, clearanceTotalM, datum, coverage, maxAglM }: ResultsViewProps) {
+export function ResultsView({ result, source, area, georef, hillshadeUrl, units, clearanceTotalM, datum, coverage, maxAglM }: ResultsViewProps) {
   const v = useResultsView(result, area, georef);
+  const line = useVersionLine(source.teamId, source.planId, source.versionId, v.selected);
+  const fullLine = line.data?.line.index === v.selected ? line.data.line : null;
   const breakpoint = useBreakpoint();
   const wide = breakpoint === 'wide';
   const chartRef = useRef<View>(null);
@@ -78,7 +84,13 @@ export function ResultsView({ result, area, georef, hillshadeUrl, units, clearan
   const chart = v.selectedLine ? (
     <View ref={chartRef}>
       <Card testID="results-chart">
-        <ProfileChart line={v.selectedLine} clearanceTotalM={clearanceTotalM} units={units} datum={datum} heightPx={wide ? 300 : 240} maxAglM={maxAglM} />
+        {fullLine ? (
+          <ProfileChart line={fullLine} clearanceTotalM={clearanceTotalM} units={units} datum={datum} heightPx={wide ? 300 : 240} maxAglM={maxAglM} />
+        ) : line.isError ? (
+          <Banner tone="danger" title={`Could not load line ${v.selectedLine.index + 1}`} message={errorMessage(line.error)} />
+        ) : (
+          <Loading label={`Loading line ${v.selectedLine.index + 1}…`} />
+        )}
         {notes.length ? (
           <View role="list" aria-label={`Notes on line ${v.selectedLine.index + 1}`} style={styles.notes} testID="results-chart-notes">
             <Heading level={3}>Notes on line {v.selectedLine.index + 1}</Heading>

@@ -1,22 +1,22 @@
 /** State of the results view: which line is shown, how the table is sorted, and the overview's shapes. */
 import { useMemo, useState } from 'react';
-import type { PlanResult } from '../../terrain/plan';
+import type { ResultOverview } from '../../contracts/result-parts';
+import { stationStatuses, type StationStatus } from '../../contracts/station-status';
 import type { ImageGeoref } from '../map/image-georef';
 import { lineRows, sortLineRows, type LineSortKey } from './line-rows';
 import { nearestLine, overviewShapes, overviewView } from './overview-shapes';
-import { countStatuses } from './station-status';
 
 /** Taps this close (image pixels) to a line select it. */
 const tapReachPx = 12;
 
 /** The line shown first: the one with the most photos off target (ties: flying order), where a planner looks first. */
-export function firstLineToShow(result: PlanResult): number | null {
+export function firstLineToShow(result: ResultOverview): number | null {
   const rows = lineRows(result.lines);
   if (rows.length === 0) return null;
   return sortLineRows(rows, 'flagged', 'desc')[0].index;
 }
 
-export function useResultsView(result: PlanResult, area: number[][][] | null, georef: ImageGeoref) {
+export function useResultsView(result: ResultOverview, area: number[][][] | null, georef: ImageGeoref) {
   const [sortKey, setSortKey] = useState<LineSortKey>('number');
   const [sortDir, setSortDir] = useState<'asc' | 'desc'>('asc');
   const [selected, setSelected] = useState<number | null>(() => firstLineToShow(result));
@@ -28,7 +28,11 @@ export function useResultsView(result: PlanResult, area: number[][][] | null, ge
   };
   const rows = useMemo(() => lineRows(result.lines), [result]);
   const sorted = useMemo(() => sortLineRows(rows, sortKey, sortDir), [rows, sortKey, sortDir]);
-  const counts = useMemo(() => countStatuses(result.lines.flatMap((l) => l.stations)), [result]);
+  const counts = useMemo(() => {
+    const out = Object.fromEntries(stationStatuses.map((st) => [st, 0])) as Record<StationStatus, number>;
+    for (const l of result.lines) for (const st of stationStatuses) out[st] += l.digest.statusCounts[st] ?? 0;
+    return out;
+  }, [result]);
   const shapes = useMemo(() => overviewShapes(result, area, georef, selected), [result, area, georef, selected]);
   const view = useMemo(() => overviewView(result, area, georef), [result, area, georef]);
   const onSort = (key: LineSortKey) => {

@@ -75,6 +75,7 @@ export function VersionScreen() {
         {v?.analysisState === 'done' && v.result && georef && site.data ? (
           <ResultsView
             result={v.result}
+            source={{ teamId: team?.id, planId: String(planId), versionId: String(versionId) }}
             area={mission.area?.coordinates ?? null}
             georef={georef}
             hillshadeUrl={site.data.hillshadeUrl}

@@ -180,6 +180,16 @@ export function createPlansRepository({ db }: { db: Db }) {
       return { ...toSummary(r), input: r.input as MissionValues, result: (r.result as PlanResultData | null) ?? null };
     },
 
+    /** One line of a version's stored result, by its index in flying order (the database picks it out of the result). */
+    async versionLine(teamId: string, planId: string, versionId: string, lineIndex: number): Promise<PlanResultData['lines'][number] | null> {
+      const [r] = await db
+        .select({ line: sql<unknown>`${planVersion.result} -> 'lines' -> ${lineIndex}::int` })
+        .from(planVersion)
+        .where(and(eq(planVersion.teamId, teamId), eq(planVersion.planId, planId), eq(planVersion.id, versionId)))
+        .limit(1);
+      return (r?.line as PlanResultData['lines'][number] | null | undefined) ?? null;
+    },
+
     async status(teamId: string, planId: string, versionId: string): Promise<VersionStatus | null> {
       const [r] = await db
         .select(statusCols)

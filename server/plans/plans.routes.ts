@@ -4,12 +4,13 @@
  * plan-level prefix that reviews, reports and exports use.
  */
 import type { Request, Router } from 'express';
-import { planListSchema, planSchema, planVersionSchema, runPlanSchema, versionListSchema, versionStatusSchema, versionSummarySchema } from '../../contracts/plans';
+import { planListSchema, planSchema, planVersionOverviewSchema, planVersionSchema, runPlanSchema, versionListSchema, versionStatusSchema, versionSummarySchema } from '../../contracts/plans';
 import { errors } from '../http/errors';
 import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
 import { idParam } from '../http/ids';
+import { resultLineSchema, resultOverview } from '../../contracts/result-parts';
 import type { BodyCache } from '../http/body-cache';
 import type { RouteGroup } from '../route-group';
 import { createSitesRepository } from '../sites/sites.repository';
@@ -67,10 +68,19 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
     sendJson(res, versionListSchema, { versions: await plans.versions(teamId, planId) });
   });
 
+  /** `?part=overview`: the result without stations (each line's figures and station marks); else the whole version. */
+  const versionPart = (req: Request): 'whole' | 'overview' => {
+    const part = req.query.part;
+    if (part === undefined) return 'whole';
+    if (part === 'overview') return 'overview';
+    throw errors.invalid(`Unknown part ${JSON.stringify(String(part)).slice(0, 60)}: ask for part=overview (the result without its stations), or leave part out for the whole version.`);
+  };
+
   api.get(oneVersion, guards.permission('plan:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
     const planId = idParam(req, 'planId', 'Plan');
     const versionId = idParam(req, 'versionId', 'Version');
+    const part = versionPart(req);
     const summary = await plans.versionSummary(teamId, planId, versionId);
     if (!summary) throw errors.notFound('Version');
     const load = async () => {
@@ -79,14 +89,35 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
       return v;
     };
     if (summary.analysisState !== 'done' && summary.analysisState !== 'failed') {
-      sendJson(res, planVersionSchema, await load());
+      const v = await load();
+      if (part === 'overview') sendJson(res, planVersionOverviewSchema, { ...v, result: v.result && resultOverview(v.result) });
+      else sendJson(res, planVersionSchema, v);
       return;
     }
     // A settled version's input and result never change (the result was checked against its schema when the
     // analysis stored it); only its summary does (review state), and the summary is part of the key.
-    await bodyCache.send(req, res, `version:${versionId}:${JSON.stringify(summary)}`, async () => {
+    await bodyCache.send(req, res, `version:${part}:${versionId}:${JSON.stringify(summary)}`, async () => {
       const { result, ...rest } = await load();
-      return { ...planVersionSchema.omit({ result: true }).parse(rest), result };
+      const head = planVersionSchema.omit({ result: true }).parse(rest);
+      return { ...head, result: part === 'overview' && result ? resultOverview(result) : result };
+    });
+  });
+
+  // One line of a settled version with its stations: what a chart of that line reads, without the rest.
+  api.get(`${oneVersion}/lines/:lineIndex`, guards.permission('plan:read'), async (req, res) => {
+    const { teamId } = requireTeam(req);
+    const planId = idParam(req, 'planId', 'Plan');
+    const versionId = idParam(req, 'versionId', 'Version');
+    const raw = String(req.params.lineIndex);
+    if (!/^\d{1,6}$/.test(raw)) throw errors.invalid(`Line index ${JSON.stringify(raw.slice(0, 20))} is not a whole number: lines are numbered from 0 in flying order (line 1 is index 0).`);
+    const lineIndex = Number(raw);
+    const summary = await plans.versionSummary(teamId, planId, versionId);
+    if (!summary) throw errors.notFound('Version');
+    if (summary.analysisState !== 'done') throw errors.conflict('This version has no result yet: its lines can be read once its analysis is done.');
+    await bodyCache.send(req, res, `version-line:${versionId}:${lineIndex}`, async () => {
+      const line = await plans.versionLine(teamId, planId, versionId, lineIndex);
+      if (!line) throw errors.notFound('Line');
+      return resultLineSchema.parse({ versionId, line });
     });
   });
 

@@ -4,6 +4,7 @@ import { attentionItems, lineList, standingWarningCodes } from '../../components
 import { readDem } from '../../terrain/dem';
 import { resolveMission } from '../../terrain/mission';
 import { analysePlan, type PlanResult } from '../../terrain/plan';
+import { resultOverview } from '../../contracts/result-parts';
 
 // The example mission over the synthetic demo grid (datasets/README.md): it flags most photos and has short legs.
 let result: PlanResult;
@@ -20,7 +21,7 @@ describe('what is wrong and where', () => {
   });
 
   it('counts every flagged photo once, under the lines that hold them', () => {
-    const items = attentionItems(result);
+    const items = attentionItems(resultOverview(result));
     const photoItems = items.filter((i) => i.key.startsWith('photos-'));
     const counted = photoItems.reduce((t, i) => t + Number(/: ([\d,]+) photos?\./.exec(i.title)![1].replace(/,/g, '')), 0);
     const flagged = result.lines.flatMap((l) => l.stations).filter((s) => s.flags.length > 0).length;
@@ -31,7 +32,7 @@ describe('what is wrong and where', () => {
   });
 
   it('names each kind of line warning once with all its lines, and says no plan-wide warning twice', () => {
-    const items = attentionItems(result);
+    const items = attentionItems(resultOverview(result));
     const shortLegLines = result.lines.filter((l) => l.warnings.some((w) => w.code === 'short-leg')).map((l) => l.index + 1);
     expect(shortLegLines.length).toBeGreaterThan(1);
     const shortLegs = items.filter((i) => i.key === 'line-short-leg');
@@ -46,7 +47,7 @@ describe('what is wrong and where', () => {
   });
 
   it('sums the stretches off the band to the engine\'s own total, in words without reason codes', () => {
-    const items = attentionItems(result).filter((i) => i.key === 'unmet');
+    const items = attentionItems(resultOverview(result)).filter((i) => i.key === 'unmet');
     expect(items).toHaveLength(1);
     const total = Number(/over ([\d,]+) m of line/.exec(items[0].title)![1].replace(/,/g, ''));
     expect(Math.abs(total - result.summary.unmetLengthM)).toBeLessThanOrEqual(0.5); // rounded to the metre
@@ -66,7 +67,7 @@ describe('what is wrong and where', () => {
     }
     clean.warnings = clean.warnings.filter((w) => standingWarningCodes.has(w.code));
     const before = JSON.stringify(clean);
-    expect(attentionItems(clean)).toEqual([]);
+    expect(attentionItems(resultOverview(clean))).toEqual([]);
     expect(JSON.stringify(clean)).toBe(before);
   });
 });

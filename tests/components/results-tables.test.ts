@@ -3,7 +3,9 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { profileSeries } from '../../components/charts/profile-series';
 import { niceDomain, niceStep } from '../../contracts/format/ticks';
 import { lineRows, sortLineRows, type LineRow } from '../../components/results/line-rows';
-import { countStatuses, stationStatus, statusLooks, stationStatuses } from '../../components/results/station-status';
+import { statusLooks } from '../../components/results/station-status';
+import { countStatuses, stationStatus, stationStatuses } from '../../contracts/station-status';
+import { resultOverview } from '../../contracts/result-parts';
 import { readDem } from '../../terrain/dem';
 import { analysePlan, type PlanResult } from '../../terrain/plan';
 
@@ -55,7 +57,7 @@ describe('stationStatus', () => {
 
 describe('lineRows', () => {
   it('adds up to the engine summary: photos, smallest and largest GSD, least overlaps and least height above ground', () => {
-    const rows = lineRows(result.lines);
+    const rows = lineRows(resultOverview(result).lines);
     expect(rows).toHaveLength(result.summary.lineCount);
     expect(rows.reduce((s, r) => s + r.photos, 0)).toBe(result.summary.photoCount);
     const min = (k: keyof LineRow) => Math.min(...rows.map((r) => r[k] as number).filter((v) => v !== null));
@@ -69,7 +71,7 @@ describe('lineRows', () => {
   });
 
   it('gives each line its least overlaps as guaranteed, adding up to the engine summary and never above the planned ones', () => {
-    const rows = lineRows(withEnvelope.lines);
+    const rows = lineRows(resultOverview(withEnvelope).lines);
     const min = (k: keyof LineRow) => Math.min(...rows.map((r) => r[k] as number | null).filter((v): v is number => v !== null));
     expect(min('forwardOverlapGuaranteedMin')).toBe(withEnvelope.summary.forwardOverlapGuaranteedMin);
     expect(min('sideOverlapGuaranteedMin')).toBe(withEnvelope.summary.sideOverlapGuaranteedMin);
@@ -83,7 +85,7 @@ describe('lineRows', () => {
   });
 
   it('names as worst status of a line the worst of its stations, and "meets" only when none is flagged', () => {
-    for (const [i, r] of lineRows(result.lines).entries()) {
+    for (const [i, r] of lineRows(resultOverview(result).lines).entries()) {
       const statuses = result.lines[i].stations.map(stationStatus);
       expect(statuses).toContain(r.worst);
       expect(r.worst === 'meets').toBe(r.flagged === 0);
@@ -92,7 +94,7 @@ describe('lineRows', () => {
   });
 
   it('puts each line median between its minimum and maximum and numbers lines from 1 in flying order', () => {
-    for (const [i, r] of lineRows(result.lines).entries()) {
+    for (const [i, r] of lineRows(resultOverview(result).lines).entries()) {
       expect(r.number).toBe(i + 1);
       if (r.gsdMedianCm !== null) {
         expect(r.gsdMedianCm).toBeGreaterThanOrEqual(r.gsdMinCm!);
