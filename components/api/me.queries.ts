@@ -2,6 +2,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { meSchema } from '../../contracts/teams';
 import { apiFetch } from './api-fetch';
+import { apiPaths } from '../../contracts/api-paths';
 
 /** Query keys for the signed-in user. */
 export const meKeys = {
@@ -10,7 +11,7 @@ export const meKeys = {
 
 /** Fetches the signed-in user; a 401 ApiError means "no session". */
 export function fetchMe(signal?: AbortSignal) {
-  return apiFetch('/api/me', { schema: meSchema, signal });
+  return apiFetch(apiPaths.me, { schema: meSchema, signal });
 }
 
 /**

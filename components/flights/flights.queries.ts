@@ -3,6 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { flightListSchema, legSheetSchema } from '../../contracts/flights';
 import type { ExportFormat } from '../../contracts/exports';
 import { apiFetch } from '../api/api-fetch';
+import { apiPaths } from '../../contracts/api-paths';
 
 /** Query keys for flights, per team. */
 export const flightKeys = {
@@ -12,20 +13,18 @@ export const flightKeys = {
   sheet: (teamId: string, versionId: string) => [...flightKeys.team(teamId), 'sheet', versionId] as const,
 };
 
-const teamPath = (teamId: string) => `/api/teams/${encodeURIComponent(teamId)}`;
-
 /** API path of a version's leg sheet. */
-export const legSheetPath = (teamId: string, versionId: string) => `${teamPath(teamId)}/flights/${encodeURIComponent(versionId)}/leg-sheet`;
+export const legSheetPath = apiPaths.legSheet;
 
 /** API path of one export of a version (GeoJSON, KML, GPX, CSV). */
 export const exportPath = (teamId: string, planId: string, versionId: string, format: ExportFormat) =>
-  `${teamPath(teamId)}/plans/${encodeURIComponent(planId)}/versions/${encodeURIComponent(versionId)}/export.${format}`;
+  `${apiPaths.version(teamId, planId, versionId)}/export.${format}`;
 
 /** Signed-off versions of the team, newest sign-off first. */
 export function useFlights(teamId: string | undefined) {
   return useQuery({
     queryKey: flightKeys.list(teamId ?? ''),
-    queryFn: ({ signal }) => apiFetch(`${teamPath(teamId!)}/flights`, { schema: flightListSchema, signal }),
+    queryFn: ({ signal }) => apiFetch(apiPaths.flights(teamId!), { schema: flightListSchema, signal }),
     enabled: Boolean(teamId),
     select: (d) => d.flights,
   });

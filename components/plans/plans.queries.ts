@@ -1,6 +1,7 @@
 /** Plans and their versions: list per project, one plan, create, save, run (creates a version), poll a version. */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiFetch } from '../api/api-fetch';
+import { apiPaths } from '../../contracts/api-paths';
 import { projectKeys, projectPath } from '../projects/projects.queries';
 import { planListSchema, planSchema, planVersionOverviewSchema, resultLineSchema, versionListSchema, versionStatusSchema, versionSummarySchema, type Plan, type VersionStatus, type VersionSummary } from './plan-shape';
 
@@ -16,11 +17,10 @@ export const planKeys = {
   line: (teamId: string, planId: string, versionId: string, lineIndex: number) => [...planKeys.version(teamId, planId, versionId), 'line', lineIndex] as const,
 };
 
-const team = (teamId: string) => `/api/teams/${encodeURIComponent(teamId)}`;
 export const projectPlansPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/plans`;
-export const planPath = (teamId: string, planId: string) => `${team(teamId)}/plans/${encodeURIComponent(planId)}`;
+export const planPath = apiPaths.plan;
 export const versionsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/versions`;
-export const versionPath = (teamId: string, planId: string, versionId: string) => `${versionsPath(teamId, planId)}/${encodeURIComponent(versionId)}`;
+export const versionPath = apiPaths.version;
 export const runsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/runs`;
 
 /** A version still being analysed is asked again this often. */

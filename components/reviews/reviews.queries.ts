@@ -1,4 +1,5 @@
 /** Review status of a plan version, the plan's audit trail, and the review actions (submit, sign off, return). */
+import { apiPaths } from '../../contracts/api-paths';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { auditTrailSchema, versionReviewSchema, type ReviewAction, type VersionReview, type SignOffReason } from '../../contracts/reviews';
 import { apiFetch } from '../api/api-fetch';
@@ -11,10 +12,8 @@ export const reviewKeys = {
   audit: (teamId: string, planId: string) => [...reviewKeys.team(teamId), 'audit', planId] as const,
 };
 
-const planPath = (teamId: string, planId: string) => `/api/teams/${encodeURIComponent(teamId)}/plans/${encodeURIComponent(planId)}`;
-
 /** API path of one version: /api/teams/:teamId/plans/:planId/versions/:versionId. */
-export const versionApiPath = (teamId: string, planId: string, versionId: string) => `${planPath(teamId, planId)}/versions/${encodeURIComponent(versionId)}`;
+export const versionApiPath = apiPaths.version;
 
 /** The version's review state and the actions the caller's role may take next. */
 export function useVersionReview(teamId: string | undefined, planId: string | undefined, versionId: string | undefined) {
@@ -29,7 +28,7 @@ export function useVersionReview(teamId: string | undefined, planId: string | un
 export function useAuditTrail(teamId: string | undefined, planId: string | undefined) {
   return useQuery({
     queryKey: reviewKeys.audit(teamId ?? '', planId ?? ''),
-    queryFn: ({ signal }) => apiFetch(`${planPath(teamId!, planId!)}/audit`, { schema: auditTrailSchema, signal }),
+    queryFn: ({ signal }) => apiFetch(`${apiPaths.plan(teamId!, planId!)}/audit`, { schema: auditTrailSchema, signal }),
     enabled: Boolean(teamId && planId),
     select: (d) => d.events,
   });

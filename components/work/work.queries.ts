@@ -2,6 +2,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { workListSchema } from '../../contracts/work';
 import { apiFetch } from '../api/api-fetch';
+import { apiPaths } from '../../contracts/api-paths';
 
 /** Query keys for work lists, per team (review changes invalidate the whole team prefix). */
 export const workKeys = {
@@ -13,7 +14,7 @@ export const workKeys = {
 export function useWorkList(teamId: string | undefined) {
   return useQuery({
     queryKey: workKeys.team(teamId ?? ''),
-    queryFn: ({ signal }) => apiFetch(`/api/teams/${encodeURIComponent(teamId!)}/work`, { schema: workListSchema, signal }),
+    queryFn: ({ signal }) => apiFetch(apiPaths.work(teamId!), { schema: workListSchema, signal }),
     enabled: Boolean(teamId),
     staleTime: 0,
   });

@@ -11,6 +11,7 @@
  */
 import { eq, sql } from 'drizzle-orm';
 import type { Request } from 'express';
+import { apiPaths } from '../../contracts/api-paths';
 import { screenGroupOf } from '../../contracts/screen-groups';
 import type { Db } from '../../db/client';
 import { member, planVersion } from '../../db/schema';
@@ -37,15 +38,15 @@ export function dataPreloader(deps: { db: Db; guards: Pick<Guards, 'sessionOf' |
     .prepare('shell_user_teams');
   /** The team lists the pilot's and the office's home screens read first, by address. */
   const homeLists: Record<string, (teamId: string) => string> = {
-    '/flights': (teamId) => `/api/teams/${encodeURIComponent(teamId)}/flights`,
-    '/work': (teamId) => `/api/teams/${encodeURIComponent(teamId)}/work`,
+    '/flights': apiPaths.flights,
+    '/work': apiPaths.work,
   };
 
   return async (req: Request): Promise<string[]> => {
     if (!screenGroupOf(req.path)) return []; // signed-out screens (sign-in, invitations) ask for nothing first
     const auth = await deps.guards.sessionOf(req).catch(() => null);
     if (!auth) return [];
-    const links = [fetchLink('/api/me')];
+    const links = [fetchLink(apiPaths.me)];
     const home = homeLists[req.path.replace(/\/$/, '')];
     if (home) {
       // Which team's list the app opens is its own choice when the caller has several: named only when there is one.
@@ -57,7 +58,7 @@ export function dataPreloader(deps: { db: Db; guards: Pick<Guards, 'sessionOf' |
     if (versionId && isUuid(versionId)) {
       const teamId = (await teamOfVersion.execute({ versionId }))[0]?.teamId;
       if (teamId && (await deps.guards.roleIn(auth.user.id, teamId))) {
-        links.push(fetchLink(`/api/teams/${encodeURIComponent(teamId)}/flights/${encodeURIComponent(versionId)}/leg-sheet`));
+        links.push(fetchLink(apiPaths.legSheet(teamId, versionId)));
       }
     }
     return links;
