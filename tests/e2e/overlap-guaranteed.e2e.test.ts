@@ -7,17 +7,14 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { and, eq } from 'drizzle-orm';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import { planResultSchema } from '../../contracts/plan-result';
 import { roundTowardFailing } from '../../contracts/target-rounding';
-import { plan, planVersion, project } from '../../db/schema';
 import { demoPassword } from '../../server/seed/demo-password';
-import { demoProject } from '../../server/seed/demo-project';
 import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
-import { demoClients, demoTeamId } from '../support/demo';
+import { demoClients, seededDemoVersion } from '../support/demo';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const shotDir = path.join(screenshotDir, 'overlap-guaranteed');
@@ -31,15 +28,9 @@ beforeAll(async () => {
   fs.mkdirSync(shotDir, { recursive: true });
   srv = await startTestServer();
   browser = await launchBrowser();
-  const teamId = await demoTeamId(srv);
-  const [row] = await srv.db
-    .select({ projectId: project.id, planId: plan.id, versionId: planVersion.id })
-    .from(planVersion)
-    .innerJoin(plan, eq(plan.id, planVersion.planId))
-    .innerJoin(project, eq(project.id, plan.projectId))
-    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(plan.name, demoProject.planName), eq(planVersion.number, 1)));
-  pagePath = `/projects/${row.projectId}/plans/${row.planId}/versions/${row.versionId}`;
-  apiPath = `/api/teams/${teamId}/plans/${row.planId}/versions/${row.versionId}`;
+  const demo = await seededDemoVersion(srv);
+  if (!demo) throw new Error('The seeded demo version is missing: `npm test` seeds it before the suites run.');
+  ({ pagePath, apiPath } = demo);
 });
 afterAll(async () => {
   await browser?.close();

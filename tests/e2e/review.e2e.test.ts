@@ -6,16 +6,15 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from '../../server/seed/demo-password';
 import type { Role } from '../../contracts/roles';
-import { plan, planVersion, project, user } from '../../db/schema';
-import { demoProject } from '../../server/seed/demo-project';
+import { user } from '../../db/schema';
 import { growToContent, launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
-import { demoClients, demoTeamId } from '../support/demo';
+import { demoClients, demoTeamId, seededDemoVersion } from '../support/demo';
 import { createVersion, eventually, type VersionFixture } from '../support/fixtures';
 import type { ApiClient } from '../support/http-client';
 import { uniqueEmail } from '../support/http-client';
@@ -39,19 +38,13 @@ beforeAll(async () => {
   browser = await launchBrowser();
   teamId = await demoTeamId(srv);
   clients = await demoClients(srv);
-  version = (await seededDemoVersion()) ?? (await fixtureVersion());
+  version = (await seededDemoFixture()) ?? (await fixtureVersion());
 });
 
 /** Version 1 of the seeded demo plan (Harrow Fell, analysed at seed time), when the seed made it. */
-async function seededDemoVersion(): Promise<VersionFixture | null> {
-  const [row] = await srv.db
-    .select({ projectId: project.id, planId: plan.id, versionId: planVersion.id, siteId: plan.siteId })
-    .from(planVersion)
-    .innerJoin(plan, eq(plan.id, planVersion.planId))
-    .innerJoin(project, eq(project.id, plan.projectId))
-    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(plan.name, demoProject.planName), eq(planVersion.number, 1)));
-  if (!row) return null;
-  return { ...row, path: `/api/teams/${teamId}/plans/${row.planId}/versions/${row.versionId}` };
+async function seededDemoFixture(): Promise<VersionFixture | null> {
+  const demo = await seededDemoVersion(srv);
+  return demo && { projectId: demo.projectId, planId: demo.planId, versionId: demo.versionId, siteId: demo.siteId, path: demo.apiPath };
 }
 
 /** Otherwise an analysed draft over the fixtures' synthetic hill in the demo team. */

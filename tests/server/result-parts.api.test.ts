@@ -4,18 +4,18 @@
  * page equals that line of the whole result, the marks are the stations' own positions and statuses, and the
  * digests add up to the engine's plan-wide summary (computed by its own path in terrain/plan-result.ts).
  */
-import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { planVersionOverviewSchema, planVersionSchema } from '../../contracts/plans';
 import { resultLineSchema } from '../../contracts/result-parts';
 import { stationStatus, stationStatuses } from '../../contracts/station-status';
 import { ApiClient, uniqueEmail } from '../support/http-client';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { analysedExampleVersion } from '../support/analysed-version';
+import { freshTeam } from '../support/fixtures';
 
-const demBytes = fs.readFileSync('datasets/harrow-fell-dem.tif');
-const mission = {
+/** A small area of the example mission, so the run takes seconds; its lines still number more than five. */
+const smaller = {
   area: { type: 'Polygon', coordinates: [[[4.48, 46.766], [4.488, 46.766], [4.488, 46.771], [4.48, 46.771], [4.48, 46.766]]] },
-  camera: { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 },
   targetGsdCm: 2.5,
   headingDeg: 90,
   takeoff: { lon: 4.478, lat: 46.768 },
@@ -24,32 +24,12 @@ const mission = {
 let srv: TestServer;
 let c: ApiClient;
 let versionUrl: string;
-let plan: string;
 beforeAll(async () => {
   srv = await startTestServer({ env: { WORKERS: '1', JOBS_POLL_SECONDS: '0.5' } });
-  c = new ApiClient(srv.url);
-  const email = uniqueEmail('parts');
-  await c.signUp(email, 'parts password 1', 'Parts Person');
-  await c.signIn(email, 'parts password 1');
-  const teamId = (await c.post('/api/teams', { name: 'Team parts' })).body.id as string;
-  const projectId = (await c.post(`/api/teams/${teamId}/projects`, { name: 'Project parts' })).body.id as string;
-  const f = new FormData();
-  f.append('surfaceKind', 'bare-earth');
-  f.append('file', new Blob([new Uint8Array(demBytes)]), 'harrow-fell-dem.tif');
-  const site = (await c.request('POST', `/api/teams/${teamId}/projects/${projectId}/sites`, { body: f })).body;
-  const p = await c.post(`/api/teams/${teamId}/projects/${projectId}/plans`, { name: 'Plan parts', siteId: site.id, input: mission });
-  plan = `/api/teams/${teamId}/plans/${p.body.id}`;
-  const v = await c.post(`${plan}/runs`);
-  expect(v.status).toBe(202);
-  versionUrl = `${plan}/versions/${v.body.id}`;
-  const t0 = Date.now();
-  for (;;) {
-    const s = await c.get(`${versionUrl}/status`);
-    if (s.body.analysisState === 'done') break;
-    expect(s.body.analysisState).not.toBe('failed');
-    if (Date.now() - t0 > 90_000) throw new Error('analysis did not finish');
-    await new Promise((r) => setTimeout(r, 250));
-  }
+  const t = await freshTeam(srv, 'parts');
+  c = t.clients.surveyor;
+  const v = await analysedExampleVersion(t, { project: 'Parts', plan: 'Parts plan' }, smaller);
+  versionUrl = `/api/teams/${t.teamId}/plans/${v.planId}/versions/${v.versionId}`;
 }, 150_000);
 afterAll(async () => srv?.stop());
 

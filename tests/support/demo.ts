@@ -1,6 +1,7 @@
 /** Signed-in clients for the seeded demo users, and the demo team id. */
-import { eq } from 'drizzle-orm';
-import { organization, user } from '../../db/schema';
+import { and, eq } from 'drizzle-orm';
+import { organization, plan, planVersion, project, user } from '../../db/schema';
+import { demoProject } from '../../server/seed/demo-project';
 import type { ReviewState } from '../../contracts/reviews';
 import { createVersion, type VersionFixture } from './fixtures';
 import type { Role } from '../../contracts/roles';
@@ -33,4 +34,21 @@ export async function demoTeamVersions(srv: TestServer, wanted: { reviewState: R
   const out: VersionFixture[] = [];
   for (const w of wanted) out.push(await createVersion(srv, { teamId, createdBy: planner!.id, ...w }));
   return out;
+}
+
+/** Version 1 of the seeded demo plan (analysed at seed time): its ids, its screen's address and its API path; null when the seed made none. */
+export async function seededDemoVersion(srv: TestServer): Promise<{ teamId: string; projectId: string; planId: string; versionId: string; siteId: string; pagePath: string; apiPath: string } | null> {
+  const teamId = await demoTeamId(srv);
+  const [row] = await srv.db
+    .select({ projectId: project.id, planId: plan.id, versionId: planVersion.id, siteId: plan.siteId })
+    .from(planVersion)
+    .innerJoin(plan, eq(plan.id, planVersion.planId))
+    .innerJoin(project, eq(project.id, plan.projectId))
+    .where(and(eq(project.teamId, teamId), eq(project.name, demoProject.name), eq(plan.name, demoProject.planName), eq(planVersion.number, 1)));
+  if (!row) return null;
+  return {
+    teamId, ...row,
+    pagePath: `/projects/${row.projectId}/plans/${row.planId}/versions/${row.versionId}`,
+    apiPath: `/api/teams/${teamId}/plans/${row.planId}/versions/${row.versionId}`,
+  };
 }
