@@ -1,7 +1,8 @@
 /** The mission input of a plan (CLI, API, plan form): zod schema with the terrain core's ranges and defaults. */
 import { z } from 'zod';
 import { missionCoverageFieldsSchema } from './coverage';
-import { MISSION_DEFAULTS, MISSION_RANGES, checkArea, type NumberRange } from '../terrain/mission';
+import { MISSION_DEFAULTS, MISSION_RANGES, type NumberRange } from '../terrain/mission';
+import { areaRingsProblem, surveyAreaProblem } from '../terrain/survey-area';
 import { layoutBySchema, solveSettingsSchema } from './solve';
 
 /** A number in a mission range, with a message that says the range. */
@@ -45,46 +46,12 @@ export const cameraSchema = z
     }
   });
 
-/**
- * Most corners a survey area may have, over all its rings (closing positions not counted). Drawn and imported
- * survey outlines have tens to hundreds of corners; 2,000 leaves room for a traced boundary while keeping every
- * geometry check of a plan within milliseconds. The schema and its message both use this one figure.
- */
-export const MAX_AREA_CORNERS = 2000;
+export { MAX_AREA_CORNERS } from '../terrain/survey-area';
 
-/** The message for an area with more than MAX_AREA_CORNERS corners. */
-export function tooManyCornersMessage(corners: number): string {
-  return `The survey area has ${thousands(corners)} corners; the limit is ${thousands(MAX_AREA_CORNERS)}. Simplify the outline (for example with a tolerance of a metre) or split it into several plans.`;
-}
-
-/** 12345 -> "12,345" (toLocaleString loads ICU data on first use: a tenth of a second on a busy server). */
-function thousands(n: number): string {
-  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
-}
-
-/** What is wrong with a Polygon's `coordinates` (rings of at least 4 [lon, lat] positions), or null. */
-function ringsProblem(v: unknown): string | null {
-  if (!Array.isArray(v) || v.length === 0) return 'area.coordinates must be a list of rings, the outer ring first.';
-  for (let r = 0; r < v.length; r++) {
-    const ring: unknown = v[r];
-    if (!Array.isArray(ring) || ring.length < 4) return 'An area ring needs at least 4 positions (3 corners and the closing one).';
-    for (let i = 0; i < ring.length; i++) {
-      const p: unknown = ring[i];
-      if (!Array.isArray(p) || p.length < 2 || !p.every((x) => typeof x === 'number' && Number.isFinite(x))) {
-        return `area ring ${r} position ${i} must be [lon, lat] numbers.`;
-      }
-    }
-  }
-  return null;
-}
-
-/**
- * Polygon coordinates, checked by one plain loop: zod's nested arrays cost about 35 µs per position here, which
- * made a 10,000-corner outline hold the server for a quarter of a second before any limit applied.
- */
+/** Polygon coordinates, checked by the survey-area rules' one plain loop (zod's nested arrays were far slower). */
 const ringsSchema = z.custom<number[][][]>().superRefine((v, ctx) => {
-  const problem = ringsProblem(v);
-  if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  const problem = areaRingsProblem(v, false);
+  if (problem) ctx.addIssue({ code: 'custom', message: problem.message });
 });
 
 /** The GeoJSON Polygon shape of a survey area, without the geometry checks (for areas already checked when saved). */
@@ -93,19 +60,10 @@ export const areaPolygonShapeSchema = z.object({
   coordinates: ringsSchema,
 });
 
-/** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the terrain core's checks). */
+/** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the rules of terrain/survey-area.ts). */
 export const areaPolygonSchema = areaPolygonShapeSchema.superRefine((a, ctx) => {
-  // count the corners before the geometry check: an oversized outline is refused at the cost of one loop
-  const corners = a.coordinates.reduce((n, ring) => n + Math.max(0, ring.length - 1), 0);
-  if (corners > MAX_AREA_CORNERS) {
-    ctx.addIssue({ code: 'custom', message: tooManyCornersMessage(corners) });
-    return;
-  }
-  try {
-    checkArea(a);
-  } catch (err) {
-    ctx.addIssue({ code: 'custom', message: (err as Error).message });
-  }
+  const problem = surveyAreaProblem(a);
+  if (problem) ctx.addIssue({ code: 'custom', message: problem.message });
 });
 
 export const lonLatSchema = z.object({ lon: z.number().gte(-180).lte(180), lat: z.number().gte(-90).lte(90) });
