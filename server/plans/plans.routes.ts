@@ -30,7 +30,7 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
   api.get(projectPlans, guards.permission('plan:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
     const projectId = idParam(req, 'projectId', 'Project');
-    if (!(await projects.get(teamId, projectId))) throw errors.notFound('Project');
+    if (!(await projects.get(teamId, projectId))) throw errors.not_found('Project');
     sendJson(res, planListSchema, { plans: await plans.list(teamId, projectId) });
   });
 
@@ -40,7 +40,7 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
 
   api.get(onePlan, guards.permission('plan:read'), async (req, res) => {
     const found = await plans.get(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'));
-    if (!found) throw errors.notFound('Plan');
+    if (!found) throw errors.not_found('Plan');
     sendJson(res, planSchema, found);
   });
 
@@ -63,7 +63,7 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
   api.get(`${onePlan}/versions`, guards.permission('plan:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
     const planId = idParam(req, 'planId', 'Plan');
-    if (!(await plans.get(teamId, planId))) throw errors.notFound('Plan');
+    if (!(await plans.get(teamId, planId))) throw errors.not_found('Plan');
     sendJson(res, versionListSchema, { versions: await plans.versions(teamId, planId) });
   });
 
@@ -72,10 +72,10 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
     const planId = idParam(req, 'planId', 'Plan');
     const versionId = idParam(req, 'versionId', 'Version');
     const summary = await plans.versionSummary(teamId, planId, versionId);
-    if (!summary) throw errors.notFound('Version');
+    if (!summary) throw errors.not_found('Version');
     const load = async () => {
       const v = await plans.version(teamId, planId, versionId);
-      if (!v) throw errors.notFound('Version');
+      if (!v) throw errors.not_found('Version');
       return v;
     };
     if (summary.analysisState !== 'done' && summary.analysisState !== 'failed') {
@@ -92,7 +92,7 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
 
   api.get(`${oneVersion}/status`, guards.permission('plan:read'), async (req, res) => {
     const s = await plans.status(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'), idParam(req, 'versionId', 'Version'));
-    if (!s) throw errors.notFound('Version');
+    if (!s) throw errors.not_found('Version');
     res.setHeader('Cache-Control', 'no-store');
     sendJson(res, versionStatusSchema, s);
   });

@@ -45,7 +45,7 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
 
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
     const v = await deps.versions.find(q);
-    if (!v) throw errors.notFound('Plan version');
+    if (!v) throw errors.not_found('Plan version');
     requireAnalysed(v);
     return v;
   }
