@@ -19,17 +19,17 @@ const R = MISSION_RANGES;
 const D = MISSION_DEFAULTS;
 const positive = (name: string, max: number) => z.number({ error: `${name} must be a number.` }).gt(0, { error: `${name} must be above 0.` }).lte(max, { error: `${name} must be at most ${max}.` });
 
-export const altitudeModes = ['hold', 'steps', 'follow'] as const;
+const altitudeModes = ['hold', 'steps', 'follow'] as const;
 /** Altitude modes: one altitude per line, a few level legs, or sloped legs that track the ground. */
 export const altitudeModeSchema = z.enum(altitudeModes);
 
-export const distortionSchema = z.object({
+const distortionSchema = z.object({
   k1: z.number().gt(-10).lt(10), k2: z.number().gt(-10).lt(10), k3: z.number().gt(-10).lt(10),
   p1: z.number().gt(-10).lt(10), p2: z.number().gt(-10).lt(10),
 });
 
 /** Camera: sensor (mm), lens (mm), image (px); which image side runs along track; optional principal point and Brown distortion. */
-export const cameraSchema = z
+const cameraSchema = z
   .object({
     sensorWidthMm: positive('camera.sensorWidthMm', 500),
     sensorHeightMm: positive('camera.sensorHeightMm', 500),
@@ -55,18 +55,18 @@ const ringsSchema = z.custom<number[][][]>().superRefine((v, ctx) => {
 });
 
 /** The GeoJSON Polygon shape of a survey area, without the geometry checks (for areas already checked when saved). */
-export const areaPolygonShapeSchema = z.object({
+const areaPolygonShapeSchema = z.object({
   type: z.literal('Polygon', { error: 'area.type must be "Polygon".' }),
   coordinates: ringsSchema,
 });
 
 /** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the rules of terrain/survey-area.ts). */
-export const areaPolygonSchema = areaPolygonShapeSchema.superRefine((a, ctx) => {
+const areaPolygonSchema = areaPolygonShapeSchema.superRefine((a, ctx) => {
   const problem = surveyAreaProblem(a);
   if (problem) ctx.addIssue({ code: 'custom', message: problem.message });
 });
 
-export const lonLatSchema = z.object({ lon: z.number().gte(-180).lte(180), lat: z.number().gte(-90).lte(90) });
+const lonLatSchema = z.object({ lon: z.number().gte(-180).lte(180), lat: z.number().gte(-90).lte(90) });
 
 /** The mission's fields; `area` is given by the two schemas below. */
 const missionFields = z.object({
@@ -114,8 +114,5 @@ export const missionSchema = missionFields
  * responses without the area's geometry checks, so listing plans never repeats them.
  */
 export const storedMissionSchema = missionFields;
-
-/** A mission as a user writes it (optional fields may be left out). */
-export type MissionInput = z.input<typeof missionSchema>;
 /** A mission with every default applied. */
 export type MissionValues = z.output<typeof missionSchema>;

@@ -27,14 +27,14 @@ export type LonLat = [number, number];
  */
 export const MAX_AREA_CORNERS = 2000;
 /** Largest survey area accepted, km² (bigger areas should be split into several plans). */
-export const MAX_AREA_KM2 = 100;
+const MAX_AREA_KM2 = 100;
 /** Smallest ground an area must enclose, m²: below it the corners lie on one line. */
 const MIN_AREA_M2 = 1;
 /** Latitudes a plan may reach (the UTM zones' range, in which the lines are laid out). */
 const LAT_MIN = -80;
 const LAT_MAX = 84;
 
-export type AreaProblemCode = 'not-polygon' | 'too-few-corners' | 'bad-position' | 'not-closed' | 'too-many-corners' | 'crosses-itself' | 'no-area' | 'too-large' | 'outside-grid';
+type AreaProblemCode = 'not-polygon' | 'too-few-corners' | 'bad-position' | 'not-closed' | 'too-many-corners' | 'crosses-itself' | 'no-area' | 'too-large' | 'outside-grid';
 
 /** Why an area is refused, in words the planner can act on. */
 export interface AreaProblem {
@@ -56,7 +56,7 @@ function degrees([lon, lat]: readonly number[]): string {
 }
 
 /** The message for an area with more than MAX_AREA_CORNERS corners (drawn or written alike). */
-export function tooManyCornersMessage(corners: number): string {
+function tooManyCornersMessage(corners: number): string {
   return `The survey area has ${thousands(corners)} corners; the limit is ${thousands(MAX_AREA_CORNERS)}. Simplify the outline (for example with a tolerance of a metre) or split it into several plans.`;
 }
 

@@ -9,7 +9,7 @@ export const meKeys = {
 };
 
 /** Fetches the signed-in user; a 401 ApiError means "no session". */
-export function fetchMe(signal?: AbortSignal) {
+function fetchMe(signal?: AbortSignal) {
   return apiFetch('/api/me', { schema: meSchema, signal });
 }
 

@@ -15,7 +15,7 @@ export const flightKeys = {
 const teamPath = (teamId: string) => `/api/teams/${encodeURIComponent(teamId)}`;
 
 /** API path of a version's leg sheet. */
-export const legSheetPath = (teamId: string, versionId: string) => `${teamPath(teamId)}/flights/${encodeURIComponent(versionId)}/leg-sheet`;
+const legSheetPath = (teamId: string, versionId: string) => `${teamPath(teamId)}/flights/${encodeURIComponent(versionId)}/leg-sheet`;
 
 /** API path of one export of a version (GeoJSON, KML, GPX, CSV). */
 export const exportPath = (teamId: string, planId: string, versionId: string, format: ExportFormat) =>

@@ -1,15 +1,2 @@
 /** Plans, versions and their analysis states as contracts/plans.ts defines them (one import point for the client). */
-export {
-  analysisStateLabels,
-  planListSchema,
-  planSchema,
-  planVersionSchema,
-  versionListSchema,
-  versionStatusSchema,
-  versionSummarySchema,
-  type AnalysisState,
-  type Plan,
-  type PlanVersion,
-  type VersionStatus,
-  type VersionSummary,
-} from '../../contracts/plans';
+export { analysisStateLabels, planListSchema, planSchema, planVersionSchema, versionListSchema, versionStatusSchema, versionSummarySchema, type AnalysisState, type Plan, type VersionStatus, type VersionSummary } from '../../contracts/plans';

@@ -16,14 +16,14 @@ export const planKeys = {
 };
 
 const team = (teamId: string) => `/api/teams/${encodeURIComponent(teamId)}`;
-export const projectPlansPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/plans`;
+const projectPlansPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/plans`;
 export const planPath = (teamId: string, planId: string) => `${team(teamId)}/plans/${encodeURIComponent(planId)}`;
-export const versionsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/versions`;
-export const versionPath = (teamId: string, planId: string, versionId: string) => `${versionsPath(teamId, planId)}/${encodeURIComponent(versionId)}`;
-export const runsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/runs`;
+const versionsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/versions`;
+const versionPath = (teamId: string, planId: string, versionId: string) => `${versionsPath(teamId, planId)}/${encodeURIComponent(versionId)}`;
+const runsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/runs`;
 
 /** A version still being analysed is asked again this often. */
-export const pollIntervalMs = 1000;
+const pollIntervalMs = 1000;
 
 export function isSettled(v: Pick<VersionStatus, 'analysisState'> | undefined): boolean {
   return v?.analysisState === 'done' || v?.analysisState === 'failed';
@@ -78,7 +78,7 @@ export function useVersion(teamId: string | undefined, planId: string | undefine
   });
 }
 
-export interface PlanDraft {
+interface PlanDraft {
   name: string;
   siteId: string;
   input: Record<string, unknown>;

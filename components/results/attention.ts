@@ -6,7 +6,7 @@
 import type { PlanResult } from '../../terrain/plan';
 import { stationStatus, statusLooks, type StationStatus } from './station-status';
 
-export interface AttentionItem {
+interface AttentionItem {
   key: string;
   /** What is wrong, in words. */
   title: string;

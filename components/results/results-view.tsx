@@ -23,7 +23,7 @@ import { StatusLegend } from './status-legend';
 import { SummaryFigures } from './summary-figures';
 import { useResultsView } from './use-results-view';
 
-export type ResultsViewProps = {
+type ResultsViewProps = {
   result: PlanResult;
   area: number[][][] | null;
   georef: ImageGeoref;

@@ -8,7 +8,7 @@ export type StationStatus = (typeof stationStatuses)[number];
 /** Marker shapes: the status reads from the shape alone, so colour is never the only cue. */
 export type MarkerShape = 'circle' | 'square' | 'triangle' | 'diamond' | 'cross';
 
-export interface StatusLook {
+interface StatusLook {
   label: string;
   /** One sentence for the legend. */
   meaning: string;

@@ -4,7 +4,7 @@ import { workListSchema } from '../../contracts/work';
 import { apiFetch } from '../api/api-fetch';
 
 /** Query keys for work lists, per team (review changes invalidate the whole team prefix). */
-export const workKeys = {
+const workKeys = {
   all: ['work'] as const,
   team: (teamId: string) => [...workKeys.all, teamId] as const,
 };

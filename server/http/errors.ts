@@ -91,7 +91,7 @@ function pgErrorOf(err: unknown): { code?: string; message?: string } | null {
  * SQLSTATE classes 08 (connection exception) and 57P (operator intervention), and the socket errors of a
  * server that is not listening.
  */
-export function isDatabaseUnavailable(err: unknown): boolean {
+function isDatabaseUnavailable(err: unknown): boolean {
   const pgErr = pgErrorOf(err);
   if (!pgErr) return false;
   const { code = '', message = '' } = pgErr;

@@ -16,7 +16,7 @@ export type { SessionUser } from './request-auth';
 /** What a guard demands: only a session, or a permission within the team named by `:teamId`. */
 export type GuardMeta = { kind: 'public' } | { kind: 'session' } | { kind: 'permission'; permission: Permission };
 
-export const guardMetaKey = Symbol.for('loftline.guard');
+const guardMetaKey = Symbol.for('loftline.guard');
 
 declare module 'express-serve-static-core' {
   interface Request {

@@ -24,7 +24,7 @@ import { createReviewsRepository } from '../reviews/reviews.repository';
 import { createInvitationsRepository, type AcceptOutcome } from './invitations.repository';
 
 /** Our status of a stored row: better-auth's 'canceled'/'rejected' read as revoked; pending past its date as expired. */
-export function statusOf(row: { status: string; expiresAt: Date }, now: Date): InvitationStatus {
+function statusOf(row: { status: string; expiresAt: Date }, now: Date): InvitationStatus {
   if (row.status === 'accepted') return 'accepted';
   if (row.status !== 'pending') return 'revoked';
   return row.expiresAt.getTime() <= now.getTime() ? 'expired' : 'pending';

@@ -10,7 +10,7 @@ import { createTransform, crsFromProj4, WGS84, type GridMetadata } from '../../t
 import { areaOffGridProblem } from '../../terrain/survey-area';
 
 /** One field problem, as the 422 body lists them. */
-export interface FieldProblem {
+interface FieldProblem {
   path: string;
   message: string;
 }
@@ -19,7 +19,7 @@ export interface FieldProblem {
 const EDGE_STEPS = 32;
 
 /** The outline of the grid (its CRS bounds) as a WGS 84 polygon, edges followed point by point. */
-export function gridOutlineWgs84(meta: Pick<GridMetadata, 'bounds' | 'crs'>): Feature<Polygon> {
+function gridOutlineWgs84(meta: Pick<GridMetadata, 'bounds' | 'crs'>): Feature<Polygon> {
   const tr = createTransform(crsFromProj4(meta.crs.proj4, meta.crs.name, meta.crs.epsg), WGS84);
   const [x0, y0, x1, y1] = meta.bounds;
   const corners: Array<[number, number]> = [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];

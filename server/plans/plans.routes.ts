@@ -16,7 +16,7 @@ import { createSitesRepository } from '../sites/sites.repository';
 import { createPlansRepository, type PlansRepository } from './plans.repository';
 import { createPlansUsecases, type PlansUsecases } from './plans.usecases';
 
-export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: PlansRepository; projects: ProjectsRepository; usecases: PlansUsecases; bodyCache: BodyCache }) {
+function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: PlansRepository; projects: ProjectsRepository; usecases: PlansUsecases; bodyCache: BodyCache }) {
   const { guards, plans, projects, usecases, bodyCache } = deps;
   const projectPlans = '/teams/:teamId/projects/:projectId/plans';
   const onePlan = '/teams/:teamId/plans/:planId';

@@ -8,7 +8,7 @@ import type { RouteGroup } from '../route-group';
 import { createProjectsRepository, type ProjectsRepository } from './projects.repository';
 import { idParam } from '../http/ids';
 
-export function registerProjectRoutes(api: Router, deps: { guards: Guards; projects: ProjectsRepository }) {
+function registerProjectRoutes(api: Router, deps: { guards: Guards; projects: ProjectsRepository }) {
   const { guards, projects } = deps;
   const base = '/teams/:teamId/projects';
 

@@ -23,7 +23,7 @@ type Checks = { latest(teamId: string, versionId: string): Promise<{ check: AsFl
 const LOST_BY = 1e-6;
 
 /** The spec items a check shows lost against the plan, worded as the check card words them. */
-export function shortfallsOf(check: AsFlownCheck): FlownShortfall[] {
+function shortfallsOf(check: AsFlownCheck): FlownShortfall[] {
   const d = check.document;
   return d.flown.items
     .map((it) => ({ key: it.item, label: itemTitle(it.item, d.spec), planned: d.planned.items.find((p) => p.item === it.item)?.share ?? 0, flown: it.share }))

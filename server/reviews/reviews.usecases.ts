@@ -32,7 +32,7 @@ function list(states: readonly ReviewState[]): string {
 }
 
 /** The 409 message: the current state, what the action needs, and what can be done from here. */
-export function refusalMessage(action: ReviewAction, refusal: Exclude<TransitionRefusal, { reason: 'not_found' }>): string {
+function refusalMessage(action: ReviewAction, refusal: Exclude<TransitionRefusal, { reason: 'not_found' }>): string {
   if (refusal.reason === 'independence') {
     const did = refusal.role === 'created' ? 'ran' : 'sent for review';
     return `Version ${refusal.number} needs an independent check: you ${did} it, so another surveyor or owner of the team must sign it off.`;

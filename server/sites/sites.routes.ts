@@ -24,7 +24,7 @@ interface SiteRouteDeps {
   uploadLimitBytes: number;
 }
 
-export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
+function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
   const { guards, projects, sites, usecases, storage } = deps;
   const log = (err: unknown) => console.error(err);
   const base = '/teams/:teamId/projects/:projectId/sites';

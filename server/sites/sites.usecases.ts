@@ -27,7 +27,7 @@ function refusal(err: unknown): unknown {
 }
 
 /** A file name safe to show and store: its last path part, control characters removed, at most 200 characters. */
-export function cleanFileName(name: string | undefined): string {
+function cleanFileName(name: string | undefined): string {
   const base = (name ?? '').split(/[\\/]/).pop() ?? '';
   return base.replace(/[\u0000-\u001f\u007f]/g, '').trim().slice(0, 200) || 'dem.tif';
 }
@@ -41,7 +41,7 @@ async function storedGrid(storage: Storage, key: string): Promise<DemFile> {
   return new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }
 
-export type UploadOutcome = { site: Site } | { duplicateOf: string };
+type UploadOutcome = { site: Site } | { duplicateOf: string };
 
 export function createSitesUsecases(deps: { sites: SitesRepository; storage: Storage; terrain: TerrainRunner; maxPixels?: number; log?: (err: unknown) => void }) {
   const { sites, storage, terrain, maxPixels } = deps;
