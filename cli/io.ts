@@ -40,7 +40,7 @@ const NEGATIVE_NUMBER = /^-(\d|\.\d)/;
  * value starting with "-" as a possible option and refuses it as ambiguous; a coordinate west of Greenwich or
  * south of the equator always starts that way.
  */
-export function joinNegativeValues(args: readonly string[], options: NonNullable<ParseArgsConfig['options']>): string[] {
+function joinNegativeValues(args: readonly string[], options: NonNullable<ParseArgsConfig['options']>): string[] {
   const out: string[] = [];
   for (let i = 0; i < args.length; i++) {
     const a = args[i];

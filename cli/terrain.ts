@@ -4,7 +4,7 @@ import { loadDatumGrids } from '../server/analysis/datum-grids';
 import { installNodeCodecs } from '../server/analysis/node-codecs';
 
 /** What every command file exports. */
-export interface Command {
+interface Command {
   usage: string;
   run(args: string[]): Promise<unknown>;
 }

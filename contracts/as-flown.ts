@@ -7,13 +7,13 @@ const lonLat = z.object({ lon: z.number(), lat: z.number() });
 const nullableM = z.number().nullable();
 
 /** How one line was flown: photos against stations, drift across the line, altitude error against its legs. */
-export const lineFlownSchema = z.object({
+const lineFlownSchema = z.object({
   line: z.number().int().min(1), stations: z.number().int(), photos: z.number().int(), missed: z.number().int(),
   crossTrackMeanM: nullableM, crossTrackMaxAbsM: nullableM, crossTrackRmsM: nullableM,
   altitudeErrorMeanM: nullableM, altitudeErrorMaxAbsM: nullableM, offTrack: z.boolean(), outOfOrder: z.number().int(),
 });
 
-export const photoMatchSchema = z.object({
+const photoMatchSchema = z.object({
   limits: z.object({ gateM: z.number(), lineReachM: z.number(), offTrackM: z.number(), focalToleranceMm: z.number() }),
   matched: z.number().int(),
   missed: z.array(z.object({ line: z.number().int(), station: z.number().int(), lon: z.number(), lat: z.number(), distanceM: z.number() })),
@@ -85,7 +85,7 @@ export const asFlownDocSchema = z.object({
 export type AsFlownDoc = z.infer<typeof asFlownDocSchema>;
 
 /** Where a check's photo log came from: the photos' EXIF/XMP read on the device, or a CSV photo log. */
-export const asFlownSources = ['photos', 'csv'] as const;
+const asFlownSources = ['photos', 'csv'] as const;
 
 /** POST …/flights/:versionId/as-flown-checks: only the photos' metadata travels, never the photos. */
 export const newAsFlownCheckSchema = z.object({
@@ -96,7 +96,7 @@ export const newAsFlownCheckSchema = z.object({
 export type NewAsFlownCheck = z.infer<typeof newAsFlownCheckSchema>;
 
 /** A check in lists: who ran it, when, on how many photos, and its headline figures. */
-export const asFlownCheckSummarySchema = z.object({
+const asFlownCheckSummarySchema = z.object({
   id: z.uuid(),
   versionId: z.uuid(),
   source: z.enum(asFlownSources),

@@ -16,7 +16,7 @@ export const generalCautions: readonly string[] = [
   regulationsCaution,
 ];
 
-export interface CautionFacts {
+interface CautionFacts {
   surfaceKind: 'bare-earth' | 'surface';
   verticalDatum: string;
   maxAglM: number;

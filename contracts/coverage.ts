@@ -11,17 +11,17 @@ function ranged(name: string, r: Range) {
 const R = COVERAGE_RANGES;
 
 /** What every ground cell must meet, one-sided; left-out items take the mission's defaults (GSD band's coarse end, 2 views). */
-export const coverageSpecSchema = z.object({
+const coverageSpecSchema = z.object({
   maxGsdCm: ranged('spec.maxGsdCm', R.maxGsdCm).optional(),
   minViews: ranged('spec.minViews', R.minViews).int({ error: 'spec.minViews must be a whole number.' }).optional(),
   maxSigmaVerticalM: ranged('spec.maxSigmaVerticalM', R.maxSigmaM).nullable().optional(),
   maxSigmaHorizontalM: ranged('spec.maxSigmaHorizontalM', R.maxSigmaM).nullable().optional(),
 });
 
-export const envelopePresets = ['multirotor', 'fixed-wing'] as const;
+const envelopePresets = ['multirotor', 'fixed-wing'] as const;
 
 /** Wind, airspeed and attitude limits a guaranteed view must hold under; a preset fills what is left out. */
-export const attitudeEnvelopeSchema = z.object({
+const attitudeEnvelopeSchema = z.object({
   preset: z.enum(envelopePresets, { error: 'envelope.preset must be "multirotor" or "fixed-wing".' }).optional(),
   rollDeg: ranged('envelope.rollDeg', R.rollDeg).optional(),
   pitchDeg: ranged('envelope.pitchDeg', R.pitchDeg).optional(),
@@ -33,7 +33,7 @@ export const attitudeEnvelopeSchema = z.object({
 });
 
 /** Raster settings: cell size (default the grid's resolution), cell cap, image measurement error, occlusion. */
-export const coverageSettingsSchema = z.object({
+const coverageSettingsSchema = z.object({
   cellM: ranged('coverage.cellM', R.cellM).nullable().optional(),
   maxCells: ranged('coverage.maxCells', R.maxCells).int({ error: 'coverage.maxCells must be a whole number.' }).optional(),
   imageErrorPx: ranged('coverage.imageErrorPx', R.imageErrorPx).optional(),
@@ -64,12 +64,11 @@ export const coverageComplianceSchema = z.object({
     centroid: z.object({ lon: z.number(), lat: z.number() }), worst: z.number().nullable(),
   })),
 });
-export type CoverageComplianceDoc = z.infer<typeof coverageComplianceSchema>;
 
 const spread = z.object({ min: z.number().nullable(), median: z.number().nullable(), max: z.number().nullable() });
 
 /** The coverage document of a plan (terrain/coverage-document.ts builds it; the command line prints it with the raster's path). */
-export const coverageDocumentSchema = coverageComplianceSchema.extend({
+const coverageDocumentSchema = coverageComplianceSchema.extend({
   raster: z.object({
     width: z.number().int(), height: z.number().int(), cellM: z.number(), cellAreaM2: z.number(),
     crs: z.object({ epsg: z.number().int().nullable(), name: z.string() }),
@@ -93,7 +92,7 @@ export type CoverageDocument = z.infer<typeof coverageDocumentSchema>;
 export const coverageMeasureSchema = z.enum(coverageMeasures, { error: 'The coverage measure must be "gsd", "views" or "sigma".' });
 
 /** How one map layer colours a measure: the ends of its scale, the spec's limit, which end is better, legend stops. */
-export const coverageLayerInfoSchema = z.object({
+const coverageLayerInfoSchema = z.object({
   measure: coverageMeasureSchema,
   label: z.string(),
   unit: z.string(),

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 
 export const exportFormats = ['geojson', 'kml', 'gpx', 'csv'] as const;
-export const exportFormatSchema = z.enum(exportFormats);
+const exportFormatSchema = z.enum(exportFormats);
 export type ExportFormat = z.infer<typeof exportFormatSchema>;
 
 /** Media types (IANA registrations) and file extensions of the formats. */
@@ -14,11 +14,11 @@ export const exportMedia: Record<ExportFormat, { mime: string; ext: string; labe
 };
 
 /** How the grid's vertical datum was read: EGM96 orthometric, WGS 84 ellipsoidal, or another (national) height system. */
-export const datumKindSchema = z.enum(['egm96', 'ellipsoid', 'other']);
+const datumKindSchema = z.enum(['egm96', 'ellipsoid', 'other']);
 export type DatumKind = z.infer<typeof datumKindSchema>;
 
 /** One waypoint: a line's start, a change of leg, or a line's end, in flying order. */
-export const waypointSchema = z.object({
+const waypointSchema = z.object({
   /** 1-based across the whole plan, in flying order. */
   seq: z.number().int(),
   line: z.number().int(),

@@ -5,7 +5,7 @@ const deg = (min: number, max: number) => z.number().min(min).max(max);
 const metres = z.number().min(-1000).max(20000);
 
 /** One photo: position (WGS 84), altitudes with their references, attitude, time. */
-export const flightTriggerSchema = z.object({
+const flightTriggerSchema = z.object({
   /** CAMERA_FEEDBACK img_idx. */
   imageIndex: z.number().int().min(0).max(65535),
   lat: deg(-90, 90),
@@ -27,7 +27,6 @@ export const recordTriggersSchema = z.object({
   sortie: z.uuid(),
   triggers: z.array(flightTriggerSchema).min(1).max(1000),
 });
-export type RecordTriggers = z.infer<typeof recordTriggersSchema>;
 
 export const recordedTriggersSchema = z.object({
   /** New photos stored from this batch (a photo sent again is kept once). */

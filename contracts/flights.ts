@@ -8,7 +8,7 @@ const lonLat = z.object({ lon: n, lat: n });
 const along = lonLat.extend({ distanceM: n });
 
 /** One signed-off version in the flights list. */
-export const flightSummarySchema = z.object({
+const flightSummarySchema = z.object({
   versionId: z.string(),
   planId: z.string(),
   number: z.number().int(),
@@ -26,7 +26,7 @@ export type FlightSummary = z.infer<typeof flightSummarySchema>;
 export const flightListSchema = z.object({ flights: z.array(flightSummarySchema) });
 
 /** One straight altitude leg of a line, in flying direction. */
-export const sheetLegSchema = z.object({
+const sheetLegSchema = z.object({
   number: z.number().int(),
   start: along,
   end: along,
@@ -45,7 +45,7 @@ export const sheetLegSchema = z.object({
 });
 export type SheetLeg = z.infer<typeof sheetLegSchema>;
 
-export const sheetLineSchema = z.object({
+const sheetLineSchema = z.object({
   /** Flying order, 1 first. */
   number: z.number().int(),
   headingDeg: nn,
@@ -60,7 +60,7 @@ export const sheetLineSchema = z.object({
 export type SheetLine = z.infer<typeof sheetLineSchema>;
 
 /** Lines grouped into battery packs in flying order; each pack starts and ends at the takeoff point. */
-export const batteryPlanSchema = z.object({
+const batteryPlanSchema = z.object({
   enduranceMin: n,
   reserve: n,
   usablePerBatteryS: n,
@@ -78,7 +78,7 @@ export const batteryPlanSchema = z.object({
 });
 export type BatteryPlan = z.infer<typeof batteryPlanSchema>;
 
-export const checklistItemSchema = z.object({ id: z.string(), kind: z.enum(['caution', 'check']), text: z.string() });
+const checklistItemSchema = z.object({ id: z.string(), kind: z.enum(['caution', 'check']), text: z.string() });
 export type ChecklistItem = z.infer<typeof checklistItemSchema>;
 
 export const legSheetSchema = z.object({

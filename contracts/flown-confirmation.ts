@@ -23,7 +23,7 @@ export const updateTeamSettingsSchema = z.object({
 });
 
 /** An item of the spec the flight lost against the plan: its share of the area as planned and as flown. */
-export const flownShortfallSchema = z.object({ key: z.string(), label: z.string(), planned: z.number(), flown: z.number() });
+const flownShortfallSchema = z.object({ key: z.string(), label: z.string(), planned: z.number(), flown: z.number() });
 export type FlownShortfall = z.infer<typeof flownShortfallSchema>;
 
 /** The as-flown confirmation of a version, as its review status reports it. */
@@ -48,4 +48,3 @@ export const confirmFlownSchema = z.object({
   comment: userText().trim().max(4000, 'Keep the note under 4000 characters.').optional(),
   reasons: z.array(signOffReasonSchema).max(20).optional(),
 });
-export type ConfirmFlownBody = z.infer<typeof confirmFlownSchema>;

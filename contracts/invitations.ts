@@ -9,8 +9,8 @@ export const createInvitationSchema = z.object({
 });
 export type CreateInvitation = z.infer<typeof createInvitationSchema>;
 
-export const invitationStatuses = ['pending', 'accepted', 'revoked', 'expired'] as const;
-export const invitationStatusSchema = z.enum(invitationStatuses);
+const invitationStatuses = ['pending', 'accepted', 'revoked', 'expired'] as const;
+const invitationStatusSchema = z.enum(invitationStatuses);
 export type InvitationStatus = z.infer<typeof invitationStatusSchema>;
 
 /** One invitation as the owner sees it. */
@@ -43,8 +43,6 @@ export const invitationPreviewSchema = z.object({
   status: invitationStatusSchema,
   expiresAt: z.string(),
 });
-export type InvitationPreview = z.infer<typeof invitationPreviewSchema>;
 
 /** Answer of POST /api/invitations/:token/accept. */
 export const acceptedInvitationSchema = z.object({ teamId: z.string(), teamName: z.string(), role: roleSchema });
-export type AcceptedInvitation = z.infer<typeof acceptedInvitationSchema>;

@@ -2,8 +2,8 @@
 import { z } from 'zod';
 
 /** The link's steps, in order; `not-ready` ends a run whose upload or read-back failed. */
-export const linkSteps = ['connecting', 'uploading', 'verifying', 'ready', 'following', 'finished', 'not-ready'] as const;
-export const linkStepSchema = z.enum(linkSteps);
+const linkSteps = ['connecting', 'uploading', 'verifying', 'ready', 'following', 'finished', 'not-ready'] as const;
+const linkStepSchema = z.enum(linkSteps);
 export type LinkStep = z.infer<typeof linkStepSchema>;
 
 /** POST body: one report from one run of the link. */

@@ -8,7 +8,7 @@ const n = z.number();
 const lonLat = z.object({ lon: n, lat: n });
 
 /** A patch of ground cells the aircraft has passed that fall short of the spec, to re-fly before landing. */
-export const livePatchSchema = z.object({ cells: z.number().int(), areaM2: n, centroid: lonLat });
+const livePatchSchema = z.object({ cells: z.number().int(), areaM2: n, centroid: lonLat });
 
 export const liveCoverageSchema = z.object({
   versionId: z.string(),

@@ -11,12 +11,12 @@ const param = z.number().nullable();
 const int32 = z.number().int().min(-2147483648).max(2147483647);
 
 /** What an item does in the plan (our names); `home` is the placeholder the link adds for autopilots that keep home as item 0. */
-export const missionItemKinds = ['home', 'takeoff', 'line-start', 'speed', 'first-photo', 'camera-on', 'camera-spacing', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
-export const missionItemKindSchema = z.enum(missionItemKinds);
+const missionItemKinds = ['home', 'takeoff', 'line-start', 'speed', 'first-photo', 'camera-on', 'camera-spacing', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
+const missionItemKindSchema = z.enum(missionItemKinds);
 export type MissionItemKind = z.infer<typeof missionItemKindSchema>;
 
 /** One MISSION_ITEM_INT (message 73) without its target ids. */
-export const missionItemSchema = z.object({
+const missionItemSchema = z.object({
   seq: z.number().int().min(0).max(65535),
   /** MAV_FRAME value: 6 (MAV_FRAME_GLOBAL_RELATIVE_ALT_INT) for positions, 2 (MAV_FRAME_MISSION) for commands. */
   frame: z.number().int().min(0).max(255),
@@ -49,17 +49,16 @@ export const missionItemSchema = z.object({
 export type MissionItem = z.infer<typeof missionItemSchema>;
 
 /** Per leg of a line: the ground speed and photo spacing in force on it. */
-export const missionLegSettingSchema = z.object({
+const missionLegSettingSchema = z.object({
   leg: z.number().int(),
   /** Ground speed, m/s (MAV_CMD_DO_CHANGE_SPEED param2). */
   speedMps: n,
   /** Distance between photos, metres (MAV_CMD_DO_SET_CAM_TRIGG_DIST param1). */
   triggerDistanceM: n,
 });
-export type MissionLegSetting = z.infer<typeof missionLegSettingSchema>;
 
 /** Per line: what the camera and the speed items set. */
-export const missionLineSchema = z.object({
+const missionLineSchema = z.object({
   number: z.number().int(),
   /** Distance between photos when the camera starts, metres (MAV_CMD_DO_SET_CAM_TRIGG_DIST param1). */
   triggerDistanceM: n,

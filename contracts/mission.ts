@@ -1,7 +1,8 @@
 /** The mission input of a plan (CLI, API, plan form): zod schema with the terrain core's ranges and defaults. */
 import { z } from 'zod';
 import { missionCoverageFieldsSchema } from './coverage';
-import { MISSION_DEFAULTS, MISSION_RANGES, checkArea, type NumberRange } from '../terrain/mission';
+import { MISSION_DEFAULTS, MISSION_RANGES, type NumberRange } from '../terrain/mission';
+import { areaRingsProblem, surveyAreaProblem } from '../terrain/survey-area';
 import { layoutBySchema, solveSettingsSchema } from './solve';
 
 /** A number in a mission range, with a message that says the range. */
@@ -18,17 +19,17 @@ const R = MISSION_RANGES;
 const D = MISSION_DEFAULTS;
 const positive = (name: string, max: number) => z.number({ error: `${name} must be a number.` }).gt(0, { error: `${name} must be above 0.` }).lte(max, { error: `${name} must be at most ${max}.` });
 
-export const altitudeModes = ['hold', 'steps', 'follow'] as const;
+const altitudeModes = ['hold', 'steps', 'follow'] as const;
 /** Altitude modes: one altitude per line, a few level legs, or sloped legs that track the ground. */
 export const altitudeModeSchema = z.enum(altitudeModes);
 
-export const distortionSchema = z.object({
+const distortionSchema = z.object({
   k1: z.number().gt(-10).lt(10), k2: z.number().gt(-10).lt(10), k3: z.number().gt(-10).lt(10),
   p1: z.number().gt(-10).lt(10), p2: z.number().gt(-10).lt(10),
 });
 
 /** Camera: sensor (mm), lens (mm), image (px); which image side runs along track; optional principal point and Brown distortion. */
-export const cameraSchema = z
+const cameraSchema = z
   .object({
     sensorWidthMm: positive('camera.sensorWidthMm', 500),
     sensorHeightMm: positive('camera.sensorHeightMm', 500),
@@ -45,70 +46,27 @@ export const cameraSchema = z
     }
   });
 
-/**
- * Most corners a survey area may have, over all its rings (closing positions not counted). Drawn and imported
- * survey outlines have tens to hundreds of corners; 2,000 leaves room for a traced boundary while keeping every
- * geometry check of a plan within milliseconds. The schema and its message both use this one figure.
- */
-export const MAX_AREA_CORNERS = 2000;
+export { MAX_AREA_CORNERS } from '../terrain/survey-area';
 
-/** The message for an area with more than MAX_AREA_CORNERS corners. */
-export function tooManyCornersMessage(corners: number): string {
-  return `The survey area has ${thousands(corners)} corners; the limit is ${thousands(MAX_AREA_CORNERS)}. Simplify the outline (for example with a tolerance of a metre) or split it into several plans.`;
-}
-
-/** 12345 -> "12,345" (toLocaleString loads ICU data on first use: a tenth of a second on a busy server). */
-function thousands(n: number): string {
-  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
-}
-
-/** What is wrong with a Polygon's `coordinates` (rings of at least 4 [lon, lat] positions), or null. */
-function ringsProblem(v: unknown): string | null {
-  if (!Array.isArray(v) || v.length === 0) return 'area.coordinates must be a list of rings, the outer ring first.';
-  for (let r = 0; r < v.length; r++) {
-    const ring: unknown = v[r];
-    if (!Array.isArray(ring) || ring.length < 4) return 'An area ring needs at least 4 positions (3 corners and the closing one).';
-    for (let i = 0; i < ring.length; i++) {
-      const p: unknown = ring[i];
-      if (!Array.isArray(p) || p.length < 2 || !p.every((x) => typeof x === 'number' && Number.isFinite(x))) {
-        return `area ring ${r} position ${i} must be [lon, lat] numbers.`;
-      }
-    }
-  }
-  return null;
-}
-
-/**
- * Polygon coordinates, checked by one plain loop: zod's nested arrays cost about 35 µs per position here, which
- * made a 10,000-corner outline hold the server for a quarter of a second before any limit applied.
- */
+/** Polygon coordinates, checked by the survey-area rules' one plain loop (zod's nested arrays were far slower). */
 const ringsSchema = z.custom<number[][][]>().superRefine((v, ctx) => {
-  const problem = ringsProblem(v);
-  if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  const problem = areaRingsProblem(v, false);
+  if (problem) ctx.addIssue({ code: 'custom', message: problem.message });
 });
 
 /** The GeoJSON Polygon shape of a survey area, without the geometry checks (for areas already checked when saved). */
-export const areaPolygonShapeSchema = z.object({
+const areaPolygonShapeSchema = z.object({
   type: z.literal('Polygon', { error: 'area.type must be "Polygon".' }),
   coordinates: ringsSchema,
 });
 
-/** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the terrain core's checks). */
-export const areaPolygonSchema = areaPolygonShapeSchema.superRefine((a, ctx) => {
-  // count the corners before the geometry check: an oversized outline is refused at the cost of one loop
-  const corners = a.coordinates.reduce((n, ring) => n + Math.max(0, ring.length - 1), 0);
-  if (corners > MAX_AREA_CORNERS) {
-    ctx.addIssue({ code: 'custom', message: tooManyCornersMessage(corners) });
-    return;
-  }
-  try {
-    checkArea(a);
-  } catch (err) {
-    ctx.addIssue({ code: 'custom', message: (err as Error).message });
-  }
+/** Survey area: a closed, simple GeoJSON Polygon in WGS 84 longitude/latitude (the rules of terrain/survey-area.ts). */
+const areaPolygonSchema = areaPolygonShapeSchema.superRefine((a, ctx) => {
+  const problem = surveyAreaProblem(a);
+  if (problem) ctx.addIssue({ code: 'custom', message: problem.message });
 });
 
-export const lonLatSchema = z.object({ lon: z.number().gte(-180).lte(180), lat: z.number().gte(-90).lte(90) });
+const lonLatSchema = z.object({ lon: z.number().gte(-180).lte(180), lat: z.number().gte(-90).lte(90) });
 
 /** The mission's fields; `area` is given by the two schemas below. */
 const missionFields = z.object({
@@ -156,8 +114,5 @@ export const missionSchema = missionFields
  * responses without the area's geometry checks, so listing plans never repeats them.
  */
 export const storedMissionSchema = missionFields;
-
-/** A mission as a user writes it (optional fields may be left out). */
-export type MissionInput = z.input<typeof missionSchema>;
 /** A mission with every default applied. */
 export type MissionValues = z.output<typeof missionSchema>;

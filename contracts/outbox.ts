@@ -1,7 +1,7 @@
 /** The development outbox: what the in-process fake SMTP server received for one team. */
 import { z } from 'zod';
 
-export const outboxMessageSchema = z.object({
+const outboxMessageSchema = z.object({
   id: z.string(),
   to: z.array(z.string()),
   from: z.string(),
@@ -17,4 +17,3 @@ export const outboxSchema = z.object({
   fake: z.literal(true),
   messages: z.array(outboxMessageSchema),
 });
-export type Outbox = z.infer<typeof outboxSchema>;

@@ -11,12 +11,11 @@ import { z } from 'zod';
  * height), `datum` the elevation grid's vertical datum (mean sea level as the receiver's geoid model has it is
  * taken as this), `takeoff` the ground at the plan's takeoff point.
  */
-export const altitudeRefs = ['ellipsoid', 'datum', 'takeoff'] as const;
-export type AltitudeRef = (typeof altitudeRefs)[number];
+const altitudeRefs = ['ellipsoid', 'datum', 'takeoff'] as const;
 
 /** The CSV columns, in this order; `focalLengthMm` and `cameraModel` may follow. */
 export const PHOTO_LOG_COLUMNS = ['file', 'lon', 'lat', 'altitudeM', 'altitudeRef', 'yawDeg', 'pitchDeg', 'rollDeg', 'time'] as const;
-export const PHOTO_LOG_OPTIONAL_COLUMNS = ['focalLengthMm', 'cameraModel'] as const;
+const PHOTO_LOG_OPTIONAL_COLUMNS = ['focalLengthMm', 'cameraModel'] as const;
 
 /** Most photos one log may hold (a long survey day; the coverage of more should be split by flight). */
 export const MAX_PHOTO_LOG_ROWS = 20_000;

@@ -7,13 +7,13 @@ const n = z.number();
 const nn = z.number().nullable();
 const fraction = z.number().gte(0).lte(1);
 
-export const stationFlagCodes = ['ground-unknown', 'footprint-off-grid', 'forward-overlap-low', 'side-overlap-low', 'forward-overlap-envelope', 'side-overlap-envelope', 'gsd-coarse', 'gsd-fine', 'above-max-agl', 'below-clearance'] as const;
-export const unmetReasons = ['ground-unknown', 'above-max-agl', 'max-agl-ahead', 'band-above-max-agl', 'clearance-above-band', 'climb-limit', 'descent-limit', 'hold', 'steps', 'leg-limits'] as const;
+const stationFlagCodes = ['ground-unknown', 'footprint-off-grid', 'forward-overlap-low', 'side-overlap-low', 'forward-overlap-envelope', 'side-overlap-envelope', 'gsd-coarse', 'gsd-fine', 'above-max-agl', 'below-clearance'] as const;
+const unmetReasons = ['ground-unknown', 'above-max-agl', 'max-agl-ahead', 'band-above-max-agl', 'clearance-above-band', 'climb-limit', 'descent-limit', 'hold', 'steps', 'leg-limits'] as const;
 
-export const stationFlagSchema = z.object({ code: z.enum(stationFlagCodes), reason: z.string() });
-export const planWarningSchema = z.object({ code: z.string(), message: z.string() });
+const stationFlagSchema = z.object({ code: z.enum(stationFlagCodes), reason: z.string() });
+const planWarningSchema = z.object({ code: z.string(), message: z.string() });
 
-export const planPointSchema = z.object({ lon: n, lat: n, distanceM: n });
+const planPointSchema = z.object({ lon: n, lat: n, distanceM: n });
 
 /** One exposure station; heights above the grid's vertical datum unless named "AboveTakeoff". */
 export const planStationSchema = z.object({
@@ -34,7 +34,7 @@ export const planLegSchema = z.object({
   speedMps: n.optional(), triggerDistanceM: z.object({ min: n, max: n }).optional(),
 });
 
-export const unmetStretchSchema = z.object({ startM: n, endM: n, reason: z.enum(unmetReasons), message: z.string() });
+const unmetStretchSchema = z.object({ startM: n, endM: n, reason: z.enum(unmetReasons), message: z.string() });
 
 export const planLineSchema = z.object({
   index: z.number().int(), headingDeg: n, lengthM: n,
@@ -45,12 +45,12 @@ export const planLineSchema = z.object({
 });
 
 /** The attitude envelope the guaranteed overlaps hold under (angles in degrees, speeds in m/s). */
-export const overlapEnvelopeSchema = z.object({
+const overlapEnvelopeSchema = z.object({
   rollDeg: n, pitchDeg: n, windMps: n, windFromDeg: n, airspeedMps: n, crabs: z.boolean(), crabDegMax: n, stepDeg: n,
   marginPx: n, attitudeCount: z.number().int(), words: z.string(),
 });
 
-export const planSummarySchema = z.object({
+const planSummarySchema = z.object({
   lineCount: z.number().int(), photoCount: z.number().int(), flightDistanceM: n, flightTimeS: n, batteries: z.number().int(),
   gsdCm: z.object({ min: nn, median: nn, max: nn }),
   forwardOverlapMin: fraction.nullable(), sideOverlapMin: fraction.nullable(), aglMinM: nn, aglMaxM: nn,
@@ -62,7 +62,7 @@ export const planSummarySchema = z.object({
   lineSpacingM: n, triggerDistanceM: n, footprintAcrossM: n, footprintAlongM: n, maxDistanceFromTakeoffM: n,
 });
 
-export const headingOptionSchema = z.object({ headingDeg: n, lineCount: z.number().int(), flightDistanceM: n, aglSpreadM: n, aglRangeMaxM: n });
+const headingOptionSchema = z.object({ headingDeg: n, lineCount: z.number().int(), flightDistanceM: n, aglSpreadM: n, aglRangeMaxM: n });
 
 /** The whole analysis. */
 export const planResultSchema = z.object({

@@ -27,7 +27,7 @@ export const updatePlanSchema = z
   .refine((v) => Object.keys(v).length > 0, { message: 'Send at least one field to change.' });
 export type UpdatePlan = z.input<typeof updatePlanSchema>;
 
-export const analysisStates = ['queued', 'running', 'done', 'failed'] as const;
+const analysisStates = ['queued', 'running', 'done', 'failed'] as const;
 /** Where a version's analysis stands: queued -> running -> done | failed. */
 export const analysisStateSchema = z.enum(analysisStates);
 export type AnalysisState = z.infer<typeof analysisStateSchema>;
@@ -74,10 +74,8 @@ export const planVersionOverviewSchema = versionSummarySchema.extend({
   input: storedMissionSchema,
   result: resultOverviewSchema.nullable(),
 });
-export type PlanVersionOverview = z.infer<typeof planVersionOverviewSchema>;
 
 export const versionListSchema = z.object({ versions: z.array(versionSummarySchema) });
-export type VersionList = z.infer<typeof versionListSchema>;
 
 export const planSchema = z.object({
   id: z.string().uuid(),
@@ -95,7 +93,6 @@ export const planSchema = z.object({
 export type Plan = z.infer<typeof planSchema>;
 
 export const planListSchema = z.object({ plans: z.array(planSchema) });
-export type PlanList = z.infer<typeof planListSchema>;
 
 /** Body of POST /teams/:teamId/plans/:planId/runs (nothing needed: the saved plan is what runs). */
 export const runPlanSchema = z.object({}).strict();

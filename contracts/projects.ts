@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { userText } from './text';
 
-export const unitSystems = ['metric', 'imperial'] as const;
+const unitSystems = ['metric', 'imperial'] as const;
 /** Display units: metric, or imperial (feet for heights, and speeds in feet per second or knots on screen). */
 export const unitSystemSchema = z.enum(unitSystems);
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
@@ -32,7 +32,7 @@ export const updateProjectSchema = z
   .refine((v) => Object.keys(v).length > 0, { message: 'Send at least one field to change.' });
 export type UpdateProject = z.infer<typeof updateProjectSchema>;
 
-export const projectSortKeys = ['name', 'updated', 'created'] as const;
+const projectSortKeys = ['name', 'updated', 'created'] as const;
 
 /** Query string of the project list: search text, sort key and order, archived filter. */
 export const projectListQuerySchema = z.object({
@@ -61,4 +61,3 @@ export const projectSchema = z.object({
 export type Project = z.infer<typeof projectSchema>;
 
 export const projectListSchema = z.object({ projects: z.array(projectSchema) });
-export type ProjectList = z.infer<typeof projectListSchema>;

@@ -7,7 +7,7 @@ const num = z.number();
 const nullableNum = z.number().nullable();
 
 /** Figures over a set of stations (one line, or all). Overlaps are fractions (0.75); null where no station had a value. */
-export const stationStatsSchema = z.object({
+const stationStatsSchema = z.object({
   stationCount: z.number().int(),
   /** Stations with a known ground height (the rest fell on nodata or outside the grid). */
   knownCount: z.number().int(),
@@ -22,7 +22,7 @@ export const stationStatsSchema = z.object({
 export type StationStats = z.infer<typeof stationStatsSchema>;
 
 /** One requirement of the spec against what the plan achieves. */
-export const specCheckSchema = z.object({
+const specCheckSchema = z.object({
   key: z.enum(['gsd-band', 'forward-overlap', 'side-overlap', 'clearance', 'height-limit', 'cells', 'cells-gsd', 'cells-views', 'cells-sigma-vertical', 'cells-sigma-horizontal', 'cells-ground-unknown']),
   label: z.string(),
   required: z.string(),
@@ -31,7 +31,7 @@ export const specCheckSchema = z.object({
 });
 export type SpecCheck = z.infer<typeof specCheckSchema>;
 
-export const reportLineSchema = stationStatsSchema.extend({
+const reportLineSchema = stationStatsSchema.extend({
   /** Position in the flying order, 1 first (as printed). */
   number: z.number().int(),
   lengthM: num,
@@ -43,7 +43,7 @@ export const reportLineSchema = stationStatsSchema.extend({
 });
 export type ReportLine = z.infer<typeof reportLineSchema>;
 
-export const reportCoverageSchema = z.object({
+const reportCoverageSchema = z.object({
   state: z.enum(['ready', 'refused', 'none']),
   /** How views were counted (ready), or why there is no coverage. */
   note: z.string(),
@@ -59,7 +59,7 @@ export const reportCoverageSchema = z.object({
 export type ReportCoverage = z.infer<typeof reportCoverageSchema>;
 
 /** The latest check of the photos as flown (when one was made): the spec as flown next to as planned. */
-export const reportAsFlownSchema = z.object({
+const reportAsFlownSchema = z.object({
   checkedAt: z.string(),
   checkedBy: z.string().nullable(),
   label: z.string(),
@@ -83,7 +83,7 @@ export const reportAsFlownSchema = z.object({
 export type ReportAsFlown = z.infer<typeof reportAsFlownSchema>;
 
 /** The version's confirmation as flown, after the flight (see contracts/flown-confirmation.ts). */
-export const reportFlownSchema = z.object({
+const reportFlownSchema = z.object({
   required: z.boolean(),
   confirmedBy: z.string().nullable(),
   confirmedAt: z.string().nullable(),

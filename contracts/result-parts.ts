@@ -13,7 +13,7 @@ type PlanLineData = PlanResultData['lines'][number];
 const nn = z.number().nullable();
 
 /** A line's figures over its stations (null where no station had a value). */
-export const lineDigestSchema = z.object({
+const lineDigestSchema = z.object({
   photos: z.number().int(),
   gsdMinCm: nn, gsdMedianCm: nn, gsdMaxCm: nn,
   forwardOverlapMin: nn, sideOverlapMin: nn,
@@ -26,16 +26,15 @@ export const lineDigestSchema = z.object({
   worst: z.enum(stationStatuses),
   statusCounts: z.record(z.enum(stationStatuses), z.number().int()),
 });
-export type LineDigest = z.infer<typeof lineDigestSchema>;
+type LineDigest = z.infer<typeof lineDigestSchema>;
 
 /**
  * One mark per station for the overview map, as parallel arrays: WGS 84 position rounded to 1e-7° (about 1 cm)
  * and the index of the station's status in `stationStatuses`.
  */
-export const stationMarksSchema = z.object({ lon: z.array(z.number()), lat: z.array(z.number()), status: z.array(z.number().int().min(0).max(stationStatuses.length - 1)) });
-export type StationMarks = z.infer<typeof stationMarksSchema>;
+const stationMarksSchema = z.object({ lon: z.array(z.number()), lat: z.array(z.number()), status: z.array(z.number().int().min(0).max(stationStatuses.length - 1)) });
 
-export const overviewLineSchema = planLineSchema.omit({ stations: true }).extend({ digest: lineDigestSchema, marks: stationMarksSchema });
+const overviewLineSchema = planLineSchema.omit({ stations: true }).extend({ digest: lineDigestSchema, marks: stationMarksSchema });
 export type OverviewLine = z.infer<typeof overviewLineSchema>;
 
 export const resultOverviewSchema = planResultSchema.extend({ lines: z.array(overviewLineSchema) });
@@ -43,7 +42,6 @@ export type ResultOverview = z.infer<typeof resultOverviewSchema>;
 
 /** One line with its stations (`GET …/versions/:versionId/lines/:lineIndex`). */
 export const resultLineSchema = z.object({ versionId: z.string().uuid(), line: planLineSchema });
-export type ResultLine = z.infer<typeof resultLineSchema>;
 
 function median(sorted: number[]): number | null {
   if (sorted.length === 0) return null;
@@ -58,7 +56,7 @@ function minOf(values: Array<number | null | undefined>): number | null {
 }
 
 /** A line's figures over its stations. */
-export function lineDigest(line: PlanLineData): LineDigest {
+function lineDigest(line: PlanLineData): LineDigest {
   const gsd = line.stations.map((s) => s.gsdCm).filter((v): v is number => v !== null).sort((a, b) => a - b);
   const statusCounts: Record<StationStatus, number> = { unknown: 0, height: 0, gsd: 0, overlap: 0, meets: 0 };
   let worst = stationStatuses.length - 1;

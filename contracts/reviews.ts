@@ -16,7 +16,7 @@ export const reviewStateLabels: Record<ReviewState, string> = {
 };
 
 export const reviewActions = ['submit', 'sign-off', 'return'] as const;
-export const reviewActionSchema = z.enum(reviewActions);
+const reviewActionSchema = z.enum(reviewActions);
 export type ReviewAction = z.infer<typeof reviewActionSchema>;
 
 /** Each action: the states it may start from, the state it leads to, the permission it needs, its audit name. */
@@ -48,10 +48,9 @@ export function isLocked(state: ReviewState): boolean {
 export const reviewNoteSchema = z.object({
   comment: userText().trim().max(4000, 'Keep the note under 4000 characters.').optional(),
 });
-export type ReviewNote = z.infer<typeof reviewNoteSchema>;
 
 /** One unmet requirement of the client's spec, as the compliance report words it (key as in the report's checks). */
-export const unmetRequirementSchema = z.object({ key: z.string(), label: z.string(), required: z.string(), achieved: z.string() });
+const unmetRequirementSchema = z.object({ key: z.string(), label: z.string(), required: z.string(), achieved: z.string() });
 export type UnmetRequirement = z.infer<typeof unmetRequirementSchema>;
 
 /** The surveyor's reason for signing off although one requirement is unmet; printed in the report and its PDF. */
@@ -68,7 +67,6 @@ export type SignOffReason = z.infer<typeof signOffReasonSchema>;
 export const signOffSchema = reviewNoteSchema.extend({
   reasons: z.array(signOffReasonSchema).max(20).optional(),
 });
-export type SignOffBody = z.infer<typeof signOffSchema>;
 
 /** Body of POST .../return: the surveyor must say what to change. */
 export const returnSchema = z.object({
@@ -77,12 +75,11 @@ export const returnSchema = z.object({
     .min(1, 'Say what the planner should change.')
     .max(4000, 'Keep the comment under 4000 characters.'),
 });
-export type ReturnBody = z.infer<typeof returnSchema>;
 
 const personSchema = z.object({ id: z.string(), name: z.string() });
 
 /** What happened to the e-mail a transition sends: sending never blocks the change of state. */
-export const notificationSchema = z.object({
+const notificationSchema = z.object({
   status: z.enum(['queued', 'skipped']),
   /** Why nothing was sent (no recipient, mail switched off). */
   reason: z.string().optional(),
@@ -110,7 +107,7 @@ export const versionReviewSchema = z.object({
 export type VersionReview = z.infer<typeof versionReviewSchema>;
 
 /** One entry of a plan's audit trail. */
-export const auditEventSchema = z.object({
+const auditEventSchema = z.object({
   id: z.string(),
   action: z.string(),
   actor: personSchema.nullable(),

@@ -18,7 +18,6 @@ export const siteUploadFieldsSchema = z.object({
   surfaceKind: surfaceKindSchema,
   verticalDatum: userText().trim().min(1, 'State the vertical datum of the heights (for example "EGM96").').max(80, 'Keep the datum under 80 characters.').optional(),
 });
-export type SiteUploadFields = z.infer<typeof siteUploadFieldsSchema>;
 
 /** Name of the multipart part that carries the DEM. */
 export const siteFileField = 'file';
@@ -37,7 +36,7 @@ const bbox = z.tuple([z.number(), z.number(), z.number(), z.number()]);
 const lengthUnit = z.enum(['metre', 'foot', 'us-survey-foot', 'degree']);
 
 /** The terrain engine's GridMetadata (terrain/metadata.ts). */
-export const gridMetadataSchema = z.object({
+const gridMetadataSchema = z.object({
   width: z.number().int(),
   height: z.number().int(),
   crs: z.object({ epsg: z.number().int().nullable(), proj4: z.string(), name: z.string() }),
@@ -53,7 +52,7 @@ const _metadataMatches: [GridMetadata, z.infer<typeof gridMetadataSchema>] = [{}
 void _metadataMatches;
 
 /** What the file itself says about its encoding and datum (from the GeoTIFF header). */
-export const demFileInfoSchema = z.object({
+const demFileInfoSchema = z.object({
   compression: z.string(),
   sampleType: z.string(),
   tiled: z.boolean(),
@@ -64,7 +63,7 @@ export const demFileInfoSchema = z.object({
 export type DemFileInfo = z.infer<typeof demFileInfoSchema>;
 
 /** Where the hillshade image lies: its size, WGS 84 bounds and grid-CRS geotransform of its pixels (GDAL order). */
-export const hillshadeInfoSchema = z.object({
+const hillshadeInfoSchema = z.object({
   width: z.number().int(),
   height: z.number().int(),
   boundsWgs84: bbox,
@@ -98,7 +97,7 @@ export type Site = z.infer<typeof siteSchema>;
  * A stored site whose record no longer reads as a site (for example metadata written before a check existed):
  * listed apart so the list still answers and the site can be deleted.
  */
-export const unreadableSiteSchema = z.object({
+const unreadableSiteSchema = z.object({
   id: z.string().uuid(),
   name: z.string(),
   fileName: z.string(),
@@ -108,7 +107,6 @@ export const unreadableSiteSchema = z.object({
 export type UnreadableSite = z.infer<typeof unreadableSiteSchema>;
 
 export const siteListSchema = z.object({ sites: z.array(siteSchema), unreadable: z.array(unreadableSiteSchema).default([]) });
-export type SiteList = z.infer<typeof siteListSchema>;
 
 /** 409 body when the same file (same SHA-256) is already a site of the project. */
 export const duplicateSiteErrorSchema = apiErrorSchema.extend({

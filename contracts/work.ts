@@ -8,8 +8,8 @@ import type { Role } from './roles';
  * Kinds of waiting work, each a list of its own: versions in review (surveyors sign them off or return them),
  * versions returned with comments and analysed drafts not yet sent (planners), signed-off versions (pilots fly them).
  */
-export const workKinds = ['review', 'returned', 'send', 'flight'] as const;
-export const workKindSchema = z.enum(workKinds);
+const workKinds = ['review', 'returned', 'send', 'flight'] as const;
+const workKindSchema = z.enum(workKinds);
 export type WorkKind = z.infer<typeof workKindSchema>;
 
 /** Which lists each role's home shows, in order: the first is the one that role acts on most. */
@@ -45,7 +45,7 @@ export const workKindWords: Record<WorkKind, { title: string; empty: string; not
 };
 
 /** One version waiting in a list. */
-export const workItemSchema = z.object({
+const workItemSchema = z.object({
   versionId: z.string(),
   planId: z.string(),
   projectId: z.string(),
@@ -64,7 +64,7 @@ export const workItemSchema = z.object({
 });
 export type WorkItem = z.infer<typeof workItemSchema>;
 
-export const workSectionSchema = z.object({ kind: workKindSchema, items: z.array(workItemSchema) });
+const workSectionSchema = z.object({ kind: workKindSchema, items: z.array(workItemSchema) });
 export type WorkSection = z.infer<typeof workSectionSchema>;
 
 /** Answer of GET /teams/:teamId/work: the caller's role and its lists, in `workKindsByRole` order. */

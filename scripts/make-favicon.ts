@@ -61,7 +61,7 @@ function paintAt(x: number, y: number, size: number): Paint {
 }
 
 /** Renders the mark, `size` px square, into a PNG buffer. */
-export function drawMark(size: number): Buffer {
+function drawMark(size: number): Buffer {
   const png = new PNG({ width: size, height: size });
   const fills: Record<Exclude<Paint, 'none'>, [number, number, number]> = {
     tile: rgb(colors.primary),

@@ -12,7 +12,7 @@ import type { Config } from './config';
 import { registerHealthRoutes } from './health/health.routes';
 import { dataPreloader } from './http/data-preload';
 import { logServerError } from './http/error-log';
-import { AppError, apiNotFound, errorMiddleware } from './http/errors';
+import { apiNotFound, errorMiddleware, errors } from './http/errors';
 import { createGuards, type Guards } from './http/guard';
 import { requireSameOrigin, trustedOriginsOf } from './http/origin';
 import { screenPreloader } from './http/screen-preload';
@@ -50,7 +50,7 @@ const requireJsonBody: RequestHandler = (req, _res, next) => {
   const hasBody = Number(req.headers['content-length'] ?? 0) > 0 || req.headers['transfer-encoding'] !== undefined;
   if (!hasBody || !['POST', 'PUT', 'PATCH', 'DELETE'].includes(req.method)) return next();
   if (req.is('application/json') || req.is('multipart/form-data')) return next();
-  next(new AppError(415, 'unsupported_media_type', 'Send the request body as JSON (Content-Type: application/json).'));
+  next(errors.unsupported_media_type());
 };
 
 /** The client address, set from the socket so that sign-in rate limits cannot be dodged with a forged header. */

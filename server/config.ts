@@ -72,7 +72,7 @@ const envSchema = z.object({
   NODE_ENV: z.string().default('development'),
 });
 
-export type Env = z.infer<typeof envSchema>;
+type Env = z.infer<typeof envSchema>;
 
 export interface Config {
   port: number;

@@ -38,7 +38,7 @@ export interface Services {
   bodyCache: BodyCache;
 }
 
-export interface ServicesOptions {
+interface ServicesOptions {
   /** Analysis workers started in this process (0: it only queues; another process works the queue). */
   workers: number;
   /** Start the mailer (and, with no SMTP_HOST, the fake SMTP server); the worker script sends no mail. */
@@ -51,7 +51,7 @@ export interface ServicesOptions {
   queueError?: (err: unknown) => void;
 }
 
-export interface ServicesHandle {
+interface ServicesHandle {
   services: Services;
   /** Stop everything started, in reverse start-up order; never throws. */
   close(): Promise<void>;

@@ -15,7 +15,7 @@ export interface Corridor {
 }
 
 /** Climb and descent limits as positive gradients (rise or fall over run). */
-export interface Gradients {
+interface Gradients {
   climb: number;
   descent: number;
 }
@@ -33,7 +33,7 @@ const SLOPE_TOL = 1e-9;
 const BAND_EPS_M = 1e-6;
 
 /** Leg-shape limits. */
-export interface LegLimits {
+interface LegLimits {
   minLegLengthM: number;
   roundingM: number;
 }
@@ -45,7 +45,7 @@ function median(values: number[]): number {
 }
 
 /** Round an altitude up to the next multiple of `step` (no rounding when step is 0). */
-export function roundUp(z: number, step: number): number {
+function roundUp(z: number, step: number): number {
   return step > 0 ? Math.ceil(z / step - 1e-9) * step : z;
 }
 
@@ -54,7 +54,7 @@ export function roundUp(z: number, step: number): number {
  * highest clearance floor there; ties go to the altitude nearest the median target. A sweep over the band
  * interval ends (an O(n log n) "most overlapping intervals" count).
  */
-export function bestLevel(c: Corridor, i0: number, i1: number): number {
+function bestLevel(c: Corridor, i0: number, i1: number): number {
   let zMin = -Infinity;
   let capMin = Infinity;
   const targets: number[] = [];
@@ -183,7 +183,7 @@ function levelCones(lv: Array<{ x0: number; x1: number; z: number }>, g: Gradien
 }
 
 /** Smallest gradient-feasible profile above a sequence of level stretches, as exact breakpoints. */
-export function joinLevels(lv: Array<{ x0: number; x1: number; z: number }>, g: Gradients): Breakpoints {
+function joinLevels(lv: Array<{ x0: number; x1: number; z: number }>, g: Gradients): Breakpoints {
   const m = lv.length;
   const { R, L } = levelCones(lv, g);
   const xs: number[] = [];
@@ -214,7 +214,7 @@ export function joinLevels(lv: Array<{ x0: number; x1: number; z: number }>, g: 
  * Raise the lower end of any leg that rounding noise left a hair steeper than the limits (raising only,
  * so clearance is kept); legs are otherwise built at or inside the limits.
  */
-export function enforceGradients(bp: Breakpoints, g: Gradients): Breakpoints {
+function enforceGradients(bp: Breakpoints, g: Gradients): Breakpoints {
   const { x, z } = bp;
   for (let pass = 0; pass < 1000; pass++) {
     let changed = false;
@@ -229,7 +229,7 @@ export function enforceGradients(bp: Breakpoints, g: Gradients): Breakpoints {
 }
 
 /** Drop breakpoints where the slope does not change. */
-export function simplify(bp: Breakpoints): Breakpoints {
+function simplify(bp: Breakpoints): Breakpoints {
   const x = [bp.x[0]], z = [bp.z[0]];
   for (let i = 1; i < bp.x.length - 1; i++) {
     const s0 = (bp.z[i] - z[z.length - 1]) / (bp.x[i] - x[x.length - 1]);
@@ -313,7 +313,7 @@ function hardSlope(c: Corridor, g: Gradients, a: number, b: number, za: number):
  * Round breakpoint altitudes up to the rounding step, then raise the lower end of any leg the rounding made
  * too steep, until every leg is within the gradients again (raising only, so clearance is kept).
  */
-export function roundFollow(bp: Breakpoints, g: Gradients, step: number): Breakpoints {
+function roundFollow(bp: Breakpoints, g: Gradients, step: number): Breakpoints {
   if (!(step > 0)) return bp;
   const z = bp.z.map((v) => roundUp(v, step));
   const x = bp.x;

@@ -35,7 +35,7 @@ export interface AltitudeLeg {
 }
 
 /** Why the band could not be held on a stretch. */
-export type UnmetReason =
+type UnmetReason =
   | 'ground-unknown'
   | 'above-max-agl'
   | 'max-agl-ahead'
@@ -69,7 +69,7 @@ export interface AltitudeProfile {
 }
 
 /** Throw `invalid-input` unless the limits make sense together. */
-export function checkAltitudeLimits(l: AltitudeLimits): void {
+function checkAltitudeLimits(l: AltitudeLimits): void {
   const pos = (name: keyof AltitudeLimits) => check(Number.isFinite(l[name]) && l[name] > 0, `${name} must be a positive number, got ${l[name]}.`);
   pos('targetHeightM'); pos('bandLowM'); pos('bandHighM'); pos('maxAglM'); pos('climbGradient'); pos('descentGradient');
   check(l.bandLowM <= l.targetHeightM && l.targetHeightM <= l.bandHighM, `the band ${l.bandLowM}..${l.bandHighM} m must contain the target height ${l.targetHeightM} m.`);
@@ -118,7 +118,7 @@ export function safeProfile(x: Float64Array, floor: Float64Array, climb: number,
  * The largest profile below `ceiling` within the climb and descent limits (the mirror of `safeProfile`):
  * a forward pass bounds climbs, a backward pass bounds descents.
  */
-export function ceilingProfile(x: Float64Array, ceiling: Float64Array, climb: number, descent: number): { high: Float64Array; forward: Float64Array } {
+function ceilingProfile(x: Float64Array, ceiling: Float64Array, climb: number, descent: number): { high: Float64Array; forward: Float64Array } {
   const n = x.length;
   const f = new Float64Array(n);
   const z = new Float64Array(n);

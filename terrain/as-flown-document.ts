@@ -27,7 +27,7 @@ function complianceDoc(c: Compliance) {
   };
 }
 
-export interface AsFlownCheckOptions {
+interface AsFlownCheckOptions {
   /** The grid's vertical datum (named in the document's height reference). */
   verticalDatum: { epsg: number | null; name: string } | null;
   /** Cell size asked for (metres); else the mission's coverage setting, else the grid's own resolution. */

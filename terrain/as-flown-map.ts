@@ -24,9 +24,9 @@ export const AS_FLOWN_MAP_LEGEND = [
 const rgb = (hex: string): [number, number, number] => [parseInt(hex.slice(1, 3), 16), parseInt(hex.slice(3, 5), 16), parseInt(hex.slice(5, 7), 16)];
 
 /** A stretch to draw, as two points in the raster's CRS. */
-export interface MapSegment { x0: number; y0: number; x1: number; y1: number }
+interface MapSegment { x0: number; y0: number; x1: number; y1: number }
 
-export interface AsFlownMap {
+interface AsFlownMap {
   png: Uint8Array;
   widthPx: number;
   heightPx: number;

@@ -6,7 +6,7 @@ import { ellipsoidToEgm96 } from './heights';
 import { check } from './errors';
 
 /** What a photo's altitude is measured from (see `contracts/photo-log.ts`). */
-export type FlownAltitudeRef = 'ellipsoid' | 'datum' | 'takeoff';
+type FlownAltitudeRef = 'ellipsoid' | 'datum' | 'takeoff';
 
 /** One photo as flown (the photo-log record). Attitude 0/0 looks straight down; null when the photo does not say. */
 export interface FlownPhoto {
@@ -35,7 +35,7 @@ export function altitudeInGridDatumM(p: Pick<FlownPhoto, 'lon' | 'lat' | 'altitu
 }
 
 /** One planned station matched to a photo. */
-export interface MatchedPhoto {
+interface MatchedPhoto {
   /** Index of the photo in the log (0-based) and its file. */
   photo: number;
   file: string;
@@ -51,10 +51,10 @@ export interface MatchedPhoto {
 }
 
 /** A planned station no photo was taken at. */
-export interface MissedTrigger { line: number; station: number; lon: number; lat: number; distanceM: number }
+interface MissedTrigger { line: number; station: number; lon: number; lat: number; distanceM: number }
 
 /** A photo no station claims. */
-export interface ExtraPhoto {
+interface ExtraPhoto {
   photo: number;
   file: string;
   reason: 'off-lines' | 'no-station-near';
@@ -64,7 +64,7 @@ export interface ExtraPhoto {
 }
 
 /** How one line was flown. */
-export interface LineFlown {
+interface LineFlown {
   line: number;
   stations: number;
   photos: number;

@@ -22,7 +22,7 @@ export interface AsFlownSettings {
  * without a heading takes its line's heading (the one it was matched to, else the nearest); one without pitch
  * or roll looks straight down. `assumed` lists the photos (0-based) for which anything was assumed.
  */
-export function flownPoses(photos: readonly FlownPhoto[], match: PhotoMatch, plan: PlanResult): { poses: CoveragePhoto[]; assumed: number[] } {
+function flownPoses(photos: readonly FlownPhoto[], match: PhotoMatch, plan: PlanResult): { poses: CoveragePhoto[]; assumed: number[] } {
   const poses: CoveragePhoto[] = [];
   const assumed: number[] = [];
   photos.forEach((p, k) => {
@@ -70,7 +70,7 @@ export function maskPatches(mask: Uint8Array, width: number, height: number): In
 }
 
 /** Planned against flown, cell by cell. */
-export interface CoverageDifference {
+interface CoverageDifference {
   /** 1 where the cell meets the whole spec as planned but not as flown. */
   lost: Uint8Array;
   lostCells: number;

@@ -46,7 +46,7 @@ export function crabAngleDeg(trackDeg: number, windMps: number, windFromDeg: num
 }
 
 /** The attitudes a view is tested at for one photo, and the image margin that makes the test hold between them. */
-export interface EnvelopeSamples {
+interface EnvelopeSamples {
   /** Camera-to-local rotations, 9 numbers each. */
   rotations: Float64Array;
   count: number;

@@ -2,14 +2,14 @@
 import { check } from './errors';
 
 /** Which image side lies along the flight direction: the image height (default) or the image width. */
-export type AlongTrackSide = 'height' | 'width';
+type AlongTrackSide = 'height' | 'width';
 
 /**
  * Brown lens distortion in the convention of OpenCV's calibration model (undistorted normalised image
  * coordinates x = X/Z, y = Y/Z to distorted ones): radial k1, k2, k3 and tangential (decentring) p1, p2.
  * Source: D. C. Brown, "Decentering distortion of lenses", Photogrammetric Engineering 32(3), 1966.
  */
-export interface BrownDistortion {
+interface BrownDistortion {
   k1: number;
   k2: number;
   k3: number;
@@ -32,7 +32,7 @@ export interface Camera {
 }
 
 /** A generic camera class (format, resolution, lens); no maker's model. */
-export interface CameraPreset {
+interface CameraPreset {
   id: string;
   label: string;
   camera: Camera;

@@ -18,7 +18,7 @@ import { TerrainError } from './errors';
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
 
 /** Most failing patches the document lists (largest first); `patchCount` gives them all. */
-export const MAX_LISTED_PATCHES = 100;
+const MAX_LISTED_PATCHES = 100;
 
 type Spread = { min: number | null; median: number | null; max: number | null };
 
@@ -35,7 +35,7 @@ function spread(band: ArrayLike<number>, inside: Uint8Array, digits: number): Sp
 }
 
 /** What one coverage run gives: the raster (for the file and the map layers), its compliance and the document. */
-export interface CoverageRun {
+interface CoverageRun {
   raster: CoverageRaster;
   spec: CoverageSpec;
   envelope: AttitudeEnvelope | null;
@@ -44,7 +44,7 @@ export interface CoverageRun {
 }
 
 /** The coverage document (contracts/coverage.ts coverageDocumentSchema is its zod shape). */
-export interface CoverageDocument {
+interface CoverageDocument {
   raster: {
     width: number; height: number; cellM: number; cellAreaM2: number;
     crs: { epsg: number | null; name: string };
@@ -67,7 +67,7 @@ export interface CoverageDocument {
 }
 
 /** The cell size a run uses: the asked one, else the mission's setting, else the grid's own resolution. */
-export function coverageCellM(grid: Grid, mission: Mission, settingCellM: number | null, asked: number | null = null): number {
+function coverageCellM(grid: Grid, mission: Mission, settingCellM: number | null, asked: number | null = null): number {
   const ring = mission.area.coordinates[0];
   const meanLat = ring.slice(0, -1).reduce((t, p) => t + p[1], 0) / (ring.length - 1);
   return asked ?? settingCellM ?? gridCellM(grid, meanLat);

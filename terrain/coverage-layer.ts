@@ -12,9 +12,9 @@ import { encodePng } from './png-encode';
 import type { CoverageMeasure } from './coverage-measures';
 
 /** One legend stop: a value of the measure and its colour (#rrggbb). */
-export interface LegendStop { value: number; colour: string }
+interface LegendStop { value: number; colour: string }
 
-export interface CoverageLayer {
+interface CoverageLayer {
   measure: CoverageMeasure;
   /** What the colour shows, in words. */
   label: string;
@@ -30,7 +30,7 @@ export interface CoverageLayer {
   png: Uint8Array;
 }
 
-export interface CoverageLayers {
+interface CoverageLayers {
   width: number;
   height: number;
   layers: CoverageLayer[];
@@ -72,7 +72,7 @@ function p95(band: ArrayLike<number>, inside: Uint8Array): number | null {
 const nice = (v: number, digits: number) => Number(v.toFixed(digits));
 
 /** Whether a cell fails any item of the spec (the rules of coverageCompliance: unknown ground fails every item). */
-export function cellFails(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
+function cellFails(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
   if (!(r.cells.z[i] === r.cells.z[i])) return true;
   if (!(r.finestGsdCm[i] <= spec.maxGsdCm)) return true;
   if (r.views[i] < spec.minViews) return true;

@@ -19,7 +19,7 @@ function inOrientedBox(o: Float64Array, at: number, dx: number, dy: number): boo
 }
 
 /** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
-export interface CellPass {
+interface CellPass {
   th: number; tw: number; tileLists: Int32Array[];
   /** Per tile, parallel to its photo list: the steepest ground a ray from the tile's cells to that camera crosses. */
   tileSlopes: Float64Array[]; width: number; height: number; inside: Uint8Array; cells: CoverageCells;

@@ -32,8 +32,6 @@ export interface CoverageSettings {
   occlusion: boolean;
 }
 
-export { COVERAGE_RANGES } from './coverage-ranges';
-
 type R = keyof typeof COVERAGE_RANGES;
 
 function num(obj: Record<string, unknown>, where: string, key: string, range: R, fallback: number): number;
@@ -99,10 +97,10 @@ export function resolveCoverageInput(input: unknown, mission: Mission): { spec: 
 }
 
 /** Why a cell fails the spec. */
-export type CoverageFailure = 'gsd' | 'views' | 'sigma-vertical' | 'sigma-horizontal' | 'ground-unknown';
+type CoverageFailure = 'gsd' | 'views' | 'sigma-vertical' | 'sigma-horizontal' | 'ground-unknown';
 
 /** One spec item's outcome over the area. */
-export interface ComplianceItem {
+interface ComplianceItem {
   item: CoverageFailure;
   /** What the item asks, in words. */
   asks: string;
@@ -112,7 +110,7 @@ export interface ComplianceItem {
 }
 
 /** Connected failing cells (4-neighbour) with one reason. */
-export interface FailingPatch {
+interface FailingPatch {
   reason: CoverageFailure;
   message: string;
   cells: number;

@@ -19,7 +19,7 @@ import type { CoveragePhoto } from './coverage-photo';
 export type { CoveragePhoto } from './coverage-photo';
 
 /** Settings of one coverage computation. */
-export interface CoverageOptions {
+interface CoverageOptions {
   /** Cell side, metres. */
   cellM: number;
   maxCells?: number;

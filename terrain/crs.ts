@@ -15,7 +15,7 @@ export const WGS84: GridCrs = Object.freeze({
 });
 
 /** Web Mercator (EPSG:3857), metres on a sphere of the WGS 84 semi-major axis. */
-export const WEB_MERCATOR: GridCrs = Object.freeze({
+const WEB_MERCATOR: GridCrs = Object.freeze({
   epsg: 3857,
   proj4:
     '+proj=merc +a=6378137 +b=6378137 +lat_ts=0 +lon_0=0 +x_0=0 +y_0=0 +k=1 +units=m +nadgrids=@null +wktext +no_defs',
@@ -195,7 +195,7 @@ export function crsFromString(text: string): GridCrs {
 }
 
 /** A point transform between two CRSs; x = lon/easting, y = lat/northing in both. */
-export interface Transform {
+interface Transform {
   forward(x: number, y: number): [number, number];
   inverse(x: number, y: number): [number, number];
   /** In-place forward transform of coordinate arrays (the hot-loop form: one converter, one scratch pair). */

@@ -17,7 +17,7 @@ export const JPEG = 7;
 const OLD_JPEG = 6;
 
 /** An .xz stream to its bytes (libtiff's LZMA blocks are whole .xz streams); given by the server or command line. */
-export type XzDecodeFn = (data: Uint8Array) => Uint8Array | Promise<Uint8Array>;
+type XzDecodeFn = (data: Uint8Array) => Uint8Array | Promise<Uint8Array>;
 let xzDecode: XzDecodeFn | null = null;
 
 /**

@@ -21,7 +21,7 @@ const COLOUR_PHOTOMETRICS: Record<number, string> = {
 };
 
 /** The header facts the content checks need. */
-export interface ContentFacts {
+interface ContentFacts {
   photometric: number | undefined;
   hasColorMap: boolean;
   sampleType: SampleType;

@@ -6,7 +6,7 @@
 import { TerrainError } from './errors';
 
 /** The block layout a message needs. */
-export interface BlockLayout {
+interface BlockLayout {
   tiled: boolean;
   blockHeight: number;
   blocksAcross: number;

@@ -68,7 +68,7 @@ export interface ByteRangeSource {
 }
 
 /** Bytes already in memory as a range source: each read is a view (no copy). */
-export function memoryRangeSource(bytes: Uint8Array): ByteRangeSource {
+function memoryRangeSource(bytes: Uint8Array): ByteRangeSource {
   return { byteLength: bytes.byteLength, read: async (offset, length) => bytes.subarray(offset, offset + length) };
 }
 
@@ -91,7 +91,7 @@ function geotiffSource(src: ByteRangeSource) {
 }
 
 /** The bytes as a Uint8Array view (no copy). */
-export function asBytes(input: ArrayBuffer | Uint8Array): Uint8Array {
+function asBytes(input: ArrayBuffer | Uint8Array): Uint8Array {
   // a plain view, so that slice() copies even when the caller passes a Node Buffer (whose slice() does not)
   if (input instanceof Uint8Array) return new Uint8Array(input.buffer, input.byteOffset, input.byteLength);
   if (input instanceof ArrayBuffer) return new Uint8Array(input);

@@ -10,13 +10,13 @@ import { openDem, type ByteRangeSource, type InflateFn } from './dem';
 import { gridMetadata, HeightStats, type GridMetadata } from './metadata';
 import { hillshadeOfOverview, Overview, overviewFactor, type Hillshade, type HillshadeOptions } from './hillshade';
 
-export interface SurveyDemOptions extends HillshadeOptions {
+interface SurveyDemOptions extends HillshadeOptions {
   inflate?: InflateFn;
   /** About how many pixels one band holds (default 2^22 = 16 MiB of Float32); whole blocks of rows at least. */
   bandPixels?: number;
 }
 
-export interface DemSurvey {
+interface DemSurvey {
   metadata: GridMetadata;
   hillshade: Hillshade;
 }

@@ -13,14 +13,14 @@ export type { ByteRangeSource, DemHeader } from './dem-header';
 export type { InflateFn } from './dem-decoders';
 
 /** A map-coordinate window: bbox [minx, miny, maxx, maxy] in `crs` (default the grid's), widened by `marginPx` pixels (default 1). */
-export interface DemWindow {
+interface DemWindow {
   bbox: readonly [number, number, number, number];
   crs?: GridCrs;
   marginPx?: number;
 }
 
 /** Options for reading: a window, a pixel limit (default 2^28 pixels = 1 GiB of Float32), and a fast inflate. */
-export interface ReadDemOptions {
+interface ReadDemOptions {
   window?: DemWindow;
   /** A window in pixels [col0, row0, col1, row1) (end exclusive); wins over `window`. */
   pixelWindow?: readonly [number, number, number, number];

@@ -2,7 +2,7 @@
 import { check } from './errors';
 
 /** Inputs of the estimate; distances in metres, speeds in m/s. */
-export interface EstimateInput {
+interface EstimateInput {
   photoCount: number;
   /** Distance along the flight lines (run-ins included). */
   lineDistanceM: number;
@@ -22,7 +22,7 @@ export interface EstimateInput {
 }
 
 /** The estimate. */
-export interface Estimate {
+interface Estimate {
   photoCount: number;
   flightDistanceM: number;
   flightTimeS: number;

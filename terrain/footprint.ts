@@ -10,7 +10,7 @@ export { cameraToLocal } from './camera-pose';
 import { cameraToLocal, type CameraPose, type HeightAt } from './camera-pose';
 
 /** Options of the ray–terrain intersection. */
-export interface IntersectOptions {
+interface IntersectOptions {
   /** Stop when successive ground heights differ by less than this (default 1e-4 m). */
   toleranceM?: number;
   /** Fixed-point iterations before falling back to marching along the ray (default 12). */
@@ -22,7 +22,7 @@ export interface IntersectOptions {
 }
 
 /** A ground point hit by a ray: local x, y and the ground height z. */
-export type GroundPoint = [number, number, number];
+type GroundPoint = [number, number, number];
 
 
 /**
@@ -101,7 +101,7 @@ export function castPixel(camera: Camera, pose: CameraPose, rot: Float64Array, u
 }
 
 /** The rigorous ground footprint of one photo and the GSD at its image centre. */
-export interface PhotoFootprint {
+interface PhotoFootprint {
   /** Ground points of the image corners: top-left, top-right, bottom-right, bottom-left; null where a ray misses. */
   corners: Array<GroundPoint | null>;
   /** Ground point under the principal point. */
@@ -146,7 +146,7 @@ export function photoFootprint(camera: Camera, pose: CameraPose, heightAt: Heigh
 }
 
 /** A camera pose given in WGS 84 longitude/latitude with the altitude above the grid's vertical datum. */
-export interface GeoCameraPose {
+interface GeoCameraPose {
   lon: number;
   lat: number;
   altitudeM: number;
@@ -157,7 +157,7 @@ export interface GeoCameraPose {
 }
 
 /** A footprint ground point in WGS 84 with the grid height there. */
-export interface GeoGroundPoint {
+interface GeoGroundPoint {
   lon: number;
   lat: number;
   groundM: number;

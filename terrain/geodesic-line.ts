@@ -13,7 +13,7 @@ const LATLON = Geodesic.LATITUDE | Geodesic.LONGITUDE;
  * and linear in between. Over 25 m a geodesic and a UTM-projected curve leave the chord by less than
  * L^2 / (8 R) = 1.2e-5 m (R = 6.4e6 m), far below any DEM pixel; tests/terrain/sample.test.ts checks 1 mm.
  */
-export const KNOT_SPACING_M = 25;
+const KNOT_SPACING_M = 25;
 
 /** Stations every `stepM` metres (plus the end point) with exact geodesic distances; grid-CRS x/y when `crs` is given. */
 export function lineStations(

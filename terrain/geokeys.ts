@@ -17,7 +17,7 @@ function num(keys: GeoKeys, name: string): number | undefined {
 }
 
 /** EPSG unit-of-measure code (9001 metre, 9002 foot, 9003 US survey foot) to our unit; null when unknown. */
-export function lengthUnitFromCode(code: number | undefined): LengthUnit | null {
+function lengthUnitFromCode(code: number | undefined): LengthUnit | null {
   if (code === undefined || code === 9001) return 'metre';
   if (code === 9002 || code === 9005 || code === 9095) return 'foot'; // international, Clarke's (close), British 1936 (close)
   if (code === 9003) return 'us-survey-foot';

@@ -32,7 +32,7 @@ function halve(l: Level): Level {
 }
 
 /** Options: tile side (a multiple of 16, TIFF 6.0 section 15). */
-export interface CogOptions { tilePx?: number }
+interface CogOptions { tilePx?: number }
 
 /** The raster as a COG: band-separate tiles of `tilePx` (default 256), overviews by halving until one tile holds it. */
 export function writeCloudOptimisedGeoTiff(r: Float32GeoTiff, opts: CogOptions = {}): Uint8Array {

@@ -11,7 +11,7 @@ import { check } from './errors';
 export type LocalPolygon = Array<Array<[number, number]>>;
 
 /** Options for laying out flight lines. */
-export interface FlightLineOptions {
+interface FlightLineOptions {
   /** Flight direction of the first line, degrees clockwise from north; lines alternate from there. */
   headingDeg: number;
   lineSpacingM: number;

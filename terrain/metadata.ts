@@ -23,7 +23,7 @@ export interface GridMetadata {
 }
 
 /** Bounds of the pixel rectangle [c0, c1] x [r0, r1] under `t`, in the transform's CRS. */
-export function pixelBounds(t: GeoTransform, c0: number, r0: number, c1: number, r1: number): [number, number, number, number] {
+function pixelBounds(t: GeoTransform, c0: number, r0: number, c1: number, r1: number): [number, number, number, number] {
   const corners = [pixelToMap(t, c0, r0), pixelToMap(t, c1, r0), pixelToMap(t, c0, r1), pixelToMap(t, c1, r1)];
   const xs = corners.map((p) => p[0]);
   const ys = corners.map((p) => p[1]);

@@ -3,13 +3,9 @@ import type { Camera } from './camera';
 import { checkCamera } from './camera';
 import type { AltitudeMode } from './altitude';
 import { TerrainError, check } from './errors';
-import { findRingCrossing } from './ring-crossings';
+import { surveyAreaProblem, type AreaPolygon } from './survey-area';
 
-/** A GeoJSON Polygon in WGS 84 longitude/latitude (outer ring first, then holes; rings closed). */
-export interface AreaPolygon {
-  type: 'Polygon';
-  coordinates: number[][][];
-}
+export type { AreaPolygon } from './survey-area';
 
 /** Everything a plan analysis needs; heights in metres, overlaps and tolerances as fractions, speeds in m/s. */
 export interface Mission {
@@ -101,53 +97,17 @@ export const MISSION_DEFAULTS = Object.freeze({
   stationStepM: null as number | null,
 });
 
-/** Largest survey area accepted, km² (bigger areas should be split into several plans). */
-export const MAX_AREA_KM2 = 100;
-
 function inRange(name: string, v: unknown, r: NumberRange): number {
   const ok = typeof v === 'number' && Number.isFinite(v) && (r.exclusiveMin ? v > r.min : v >= r.min) && v <= r.max && (!r.integer || Number.isInteger(v));
   check(ok, `${name} must be ${r.integer ? 'a whole number' : 'a number'} ${r.exclusiveMin ? 'above' : 'from'} ${r.min} to ${r.max}, got ${JSON.stringify(v)}.`);
   return v as number;
 }
 
-/** Spherical polygon ring area in m² (Chamberlain & Duquette, "Some algorithms for polygons on a sphere", JPL 2007). */
-export function ringAreaM2(ring: number[][]): number {
-  const R = 6371008.8;
-  let s = 0;
-  for (let i = 0; i + 1 < ring.length; i++) {
-    const [l1, p1] = ring[i], [l2, p2] = ring[i + 1];
-    s += ((l2 - l1) * Math.PI / 180) * (2 + Math.sin((p1 * Math.PI) / 180) + Math.sin((p2 * Math.PI) / 180));
-  }
-  return Math.abs((s * R * R) / 2);
-}
-
-/** Throw `invalid-input` unless `area` is a closed, simple WGS 84 polygon of sensible size. */
+/** Throw `invalid-input` unless `area` is a closed, simple WGS 84 polygon of sensible size (the rules: survey-area.ts). */
 export function checkArea(area: unknown): AreaPolygon {
-  const a = area as AreaPolygon;
-  check(a !== null && typeof a === 'object' && a.type === 'Polygon' && Array.isArray(a.coordinates) && a.coordinates.length > 0,
-    `area must be a GeoJSON Polygon ({ "type": "Polygon", "coordinates": [[[lon, lat], …]] }), got ${JSON.stringify(area)?.slice(0, 80)}.`);
-  a.coordinates.forEach((ring, r) => {
-    check(Array.isArray(ring) && ring.length >= 4, `area ring ${r} needs at least 4 positions (3 corners and the closing one), got ${Array.isArray(ring) ? ring.length : typeof ring}.`);
-    ring.forEach((p, i) => {
-      // the message is built only on failure: building it per position cost more than the whole crossing check
-      if (!(Array.isArray(p) && p.length >= 2 && Number.isFinite(p[0]) && Number.isFinite(p[1]) && Math.abs(p[0]) <= 180 && p[1] > -80 && p[1] < 84)) {
-        check(false, `area ring ${r} position ${i} must be [lon, lat] with lon in -180..180 and lat in -80..84 (UTM range), got ${JSON.stringify(p)}.`);
-      }
-    });
-    const f = ring[0], l = ring[ring.length - 1];
-    check(f[0] === l[0] && f[1] === l[1], `area ring ${r} must be closed: its last position must repeat the first ${JSON.stringify(f)}, got ${JSON.stringify(l)}.`);
-  });
-  const x = findRingCrossing(a.coordinates);
-  if (x) {
-    const near = `near lon ${x.at[0].toFixed(5)}, lat ${x.at[1].toFixed(5)}`;
-    check(false, x.ringA === x.ringB
-      ? `area ring ${x.ringA} crosses itself (edges ${x.edgeA} and ${x.edgeB}, ${near}); draw the polygon without crossings.`
-      : `area ring ${x.ringA} crosses ring ${x.ringB} (edge ${x.edgeA} and edge ${x.edgeB}, ${near}); draw the rings without crossings.`);
-  }
-  const km2 = ringAreaM2(a.coordinates[0]) / 1e6;
-  check(km2 > 1e-6, 'area encloses no ground (all corners on one line).');
-  check(km2 <= MAX_AREA_KM2, `area is ${km2.toFixed(1)} km², more than the ${MAX_AREA_KM2} km² one plan takes; split it into several plans.`);
-  return a;
+  const problem = surveyAreaProblem(area);
+  if (problem) throw new TerrainError('invalid-input', problem.message);
+  return area as AreaPolygon;
 }
 
 /** Apply defaults and range checks to a mission written by a user; throws TerrainError('invalid-input') saying what is wrong. */

@@ -5,8 +5,6 @@ import { crabAngleDeg, envelopeSamples, type AttitudeEnvelope } from './attitude
 import { photoExtents, STRIDE, type LinePhotos } from './overlap';
 import type { GuaranteedExtents } from './guaranteed-extents';
 
-export type { GuaranteedExtents } from './guaranteed-extents';
-
 
 /**
  * Cells per attitude axis the least overlap is taken over. The side overlap weighs every cell of a photo against

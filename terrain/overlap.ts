@@ -28,7 +28,7 @@ export interface OverlapTargets {
 }
 
 /** Why a station is flagged. */
-export type StationFlagCode =
+type StationFlagCode =
   | 'ground-unknown'
   | 'footprint-off-grid'
   | 'forward-overlap-low'
@@ -65,7 +65,7 @@ export interface StationResult {
 }
 
 /** The attitude envelope's figures for the guaranteed overlaps: per line its guaranteed extents, and the envelope in words. */
-export interface GuaranteedOverlapInput {
+interface GuaranteedOverlapInput {
   extentsFor: (lineIndex: number, planned: Float64Array) => GuaranteedExtents;
   words: string;
 }
@@ -79,7 +79,7 @@ const f1 = (v: number) => v.toFixed(1);
 const down2 = (v: number) => (Math.floor(v * 100 + 1e-7) / 100).toFixed(2);
 
 /** Another attitude than the planned one (the same for every photo of the line) and an inset of the image edges. */
-export interface ExtentOptions {
+interface ExtentOptions {
   /** Camera-to-local rotation used for every photo instead of the planned one (level, yaw along the line). */
   rot?: Float64Array;
   /** Pixels the edge points move into the image (negative: out of it). */
@@ -87,7 +87,7 @@ export interface ExtentOptions {
 }
 
 /** Image points cast along the front and the back image edge of every photo for its forward overlap (16 segments each). */
-export const EDGE_SEGMENTS = 8;
+const EDGE_SEGMENTS = 8;
 
 /**
  * Ground extents of each photo in the layout frame (a along `layoutHeadingDeg`, c to its right):
@@ -252,7 +252,7 @@ export function intervalOverlap(a0: number, a1: number, b0: number, b1: number):
  * ground every attitude sees (the ends) over the longest footprint any attitude gives (the lengths), so neither
  * half of the fraction is optimistic.
  */
-export function sharedOverlap(a0: number, a1: number, aLen: number, b0: number, b1: number, bLen: number): number {
+function sharedOverlap(a0: number, a1: number, aLen: number, b0: number, b1: number, bLen: number): number {
   const shared = Math.min(a1, b1) - Math.max(a0, b0);
   const mean = (aLen + bLen) / 2;
   if (!(mean > 0) || Number.isNaN(shared)) return NaN;

@@ -5,8 +5,6 @@ import type { StationFlag } from './overlap';
 import type { HeadingAdvice } from './heading';
 import type { PlanWarning } from './plan-warnings';
 
-export type { PlanWarning } from './plan-warnings';
-
 /** A point of a line: longitude, latitude and distance from the line start. */
 export interface PlanPoint { lon: number; lat: number; distanceM: number }
 
@@ -67,7 +65,7 @@ export interface PlanLine {
 }
 
 /** The attitude envelope of the guaranteed overlaps, as the analysis used it. */
-export interface OverlapEnvelopeSummary {
+interface OverlapEnvelopeSummary {
   rollDeg: number;
   pitchDeg: number;
   windMps: number;

@@ -8,7 +8,7 @@
  */
 
 /** Compresses bytes into a zlib stream (RFC 1950), e.g. node:zlib's deflateSync. */
-export type DeflateFn = (data: Uint8Array) => Uint8Array;
+type DeflateFn = (data: Uint8Array) => Uint8Array;
 
 let deflate: DeflateFn = storedZlib;
 
@@ -18,7 +18,7 @@ export function setPngDeflate(fn: DeflateFn | null): void {
 }
 
 /** PNG colour types this encoder writes: 4 grey with alpha (grey from the red byte), 6 RGBA. */
-export type PngColourType = 4 | 6;
+type PngColourType = 4 | 6;
 
 /** RGBA pixels (row-major, 4 bytes each) as PNG bytes of the given colour type. */
 export function encodePng(width: number, height: number, rgba: Uint8Array, colourType: PngColourType = 6): Uint8Array {

@@ -17,7 +17,7 @@ import { cellMeetsSpec, type AsFlown, type AsFlownSettings } from './as-flown';
 import { MIN_REFLIGHT_PATCH_SHARE } from './reflight';
 
 /** One leg of a stretch: the signed-off leg's straight climb or descent between two distances along its line. */
-export interface StretchLeg {
+interface StretchLeg {
   fromM: number;
   toM: number;
   altitudeStartAboveTakeoffM: number;
@@ -27,7 +27,7 @@ export interface StretchLeg {
 }
 
 /** One stretch of one signed-off line. */
-export interface ReflightStretch {
+interface ReflightStretch {
   /** Line number on the signed-off leg sheet (1-based, flying order). */
   line: number;
   /** Distances along the line from its start (metres): half a photo spacing before the first station to half after the last. */
@@ -46,7 +46,7 @@ export interface ReflightStretch {
   timeS: number;
 }
 
-export interface ReflightStretches {
+interface ReflightStretches {
   stretches: ReflightStretch[];
   /** Lost cells in patches worth re-flying, and how many meet the whole spec with the stretches' photos added to those taken. */
   targetCells: number;

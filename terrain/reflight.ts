@@ -13,7 +13,7 @@ import { cellMeetsSpec, type AsFlown, type AsFlownSettings } from './as-flown';
 const DEG = Math.PI / 180;
 
 /** One re-flight area: a rectangle along the plan's heading over one or more lost patches. */
-export interface ReflightArea {
+interface ReflightArea {
   /** Lost patches (connected cells) it takes in (their indices in the patch list), and their cells and ground area. */
   patches: number;
   patchIndices: number[];
@@ -42,7 +42,7 @@ export const MIN_REFLIGHT_PATCH_SHARE = 0.25;
  * lines exactly on the original ones (same ground geometry, so the same GSD the plan promised). Patches smaller
  * than `MIN_REFLIGHT_PATCH_SHARE` of one station's ground are not re-flown.
  */
-export function reflightAreas(plan: PlanResult, frame: LocalFrame, cells: CoverageCells, patches: readonly Int32Array[], extraLines: number | readonly number[] = 0): ReflightArea[] {
+function reflightAreas(plan: PlanResult, frame: LocalFrame, cells: CoverageCells, patches: readonly Int32Array[], extraLines: number | readonly number[] = 0): ReflightArea[] {
   const h = plan.summary.headingDeg * DEG;
   const sin = Math.sin(h), cos = Math.cos(h);
   const half = cells.cellM / 2;
@@ -101,7 +101,7 @@ export function reflightAreas(plan: PlanResult, frame: LocalFrame, cells: Covera
 }
 
 /** A proposed re-flight: its missions (one per area, each a complete mission the plan analysis takes), their plans, and what they cover. */
-export interface Reflight {
+interface Reflight {
   areas: ReflightArea[];
   missions: Array<Record<string, unknown>>;
   plans: PlanResult[];

@@ -6,7 +6,7 @@
 import Flatbush from 'flatbush';
 
 /** A crossing of two edges: ring and edge indexes (edge k runs from position k to k + 1) and the point where they cross. */
-export interface RingCrossing {
+interface RingCrossing {
   ringA: number;
   edgeA: number;
   ringB: number;

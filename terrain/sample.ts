@@ -9,7 +9,7 @@ import { lineStations } from './geodesic-line';
 export type SampleMethod = 'bilinear' | 'nearest';
 
 /** Options for point sampling: the CRS of the given points (default WGS 84 lon/lat) and the method (default bilinear). */
-export interface SampleOptions {
+interface SampleOptions {
   crs?: GridCrs;
   method?: SampleMethod;
 }

@@ -13,7 +13,7 @@ export interface LayoutRow {
 }
 
 /** Why two neighbouring rows are as far apart as they are. */
-export interface SpacingReason {
+interface SpacingReason {
   spacingM: number;
   /** Highest ground between the rows where the bound is tightest, metres above the grid's datum, and its local position. */
   groundM: number;

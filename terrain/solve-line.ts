@@ -36,7 +36,7 @@ export interface FittedLine {
 }
 
 /** Altitude limits of a solved line: the band's top at the spec's GSD height times `factor` (never above the height limit), the gradients at `speedMps`. */
-export function solvedLimits(ctx: LineContext, factor: number, speedMps: number): AltitudeLimits {
+function solvedLimits(ctx: LineContext, factor: number, speedMps: number): AltitudeLimits {
   const m = ctx.mission;
   const clearanceM = m.clearanceM + m.obstacleAllowanceM;
   const top = Math.max(clearanceM + 1, Math.min(m.maxAglM, ctx.geometry.specHeightM * factor));
@@ -97,7 +97,7 @@ export function stripLowM(ctx: LineContext, line: FlightLine, x: Float64Array, s
 }
 
 /** Ground profile of a laid line at the plan analysis's sample distances, and the ground its band is measured from. */
-export function lineProfile(ctx: LineContext, line: FlightLine, strip: Strip, bandTopM: number): { x: Float64Array; groundM: Float64Array; bandGroundM: Float64Array } {
+function lineProfile(ctx: LineContext, line: FlightLine, strip: Strip, bandTopM: number): { x: Float64Array; groundM: Float64Array; bandGroundM: Float64Array } {
   const { x } = profileDistances(line, ctx.stepM);
   const xs = new Float64Array(x.length), ys = new Float64Array(x.length), g = new Float64Array(x.length);
   const dx = (line.end[0] - line.start[0]) / (line.lengthM || 1), dy = (line.end[1] - line.start[1]) / (line.lengthM || 1);
@@ -107,7 +107,7 @@ export function lineProfile(ctx: LineContext, line: FlightLine, strip: Strip, ba
 }
 
 /** Speeds tried, fastest first: the mission's, then slower steps down to the slowest allowed. */
-export function speedSteps(missionSpeedMps: number, minSpeedMps: number): number[] {
+function speedSteps(missionSpeedMps: number, minSpeedMps: number): number[] {
   const out: number[] = [];
   for (const f of [1, 0.75, 0.5, 0.35, 0.25, 0.15, 0.1]) {
     const v = missionSpeedMps * f;
@@ -148,7 +148,7 @@ export function layRow(ctx: LineContext, cM: number, belowM: number, aboveM: num
 }
 
 /** The same line flown the other way (distances measured from the other end). */
-export function reverse(l: FlightLine): FlightLine {
+function reverse(l: FlightLine): FlightLine {
   const st = new Float64Array(l.stationsM.length);
   for (let i = 0; i < st.length; i++) st[i] = l.lengthM - l.stationsM[l.stationsM.length - 1 - i];
   return { ...l, headingDeg: (l.headingDeg + 180) % 360, start: l.end, end: l.start, areaStartM: l.lengthM - l.areaEndM, areaEndM: l.lengthM - l.areaStartM, stationsM: st };

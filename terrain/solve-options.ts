@@ -9,7 +9,7 @@ import { check } from './errors';
 export type SolvePattern = 'furrow' | 'lattice';
 
 /** The solver's settings. */
-export interface SolveOptions {
+interface SolveOptions {
   pattern: SolvePattern;
   /** Slowest ground speed a leg may be flown at to follow steep ground within the vertical-speed limits, m/s. */
   minSpeedMps: number;

@@ -3,8 +3,6 @@ import type { CoverageCells } from './coverage-grid';
 import type { CoverageRaster } from './coverage';
 import type { CoverageSpec } from './coverage-spec';
 
-export type UnreachableReason = 'ground-unknown' | 'slope-gsd';
-
 /** Per cell: 0 reachable, 1 unknown ground, 2 slope; and the slope of each cell (degrees, NaN unknown). */
 export interface Reach {
   code: Uint8Array;

@@ -3,7 +3,7 @@ import type { FlightLine } from './lines';
 import type { LocalHeights } from './local-frame';
 
 /** Photo spacing along one line and what set its tightest step. */
-export interface LineTriggers {
+interface LineTriggers {
   stationsM: Float64Array;
   /** Smallest and largest spacing used, metres. */
   minM: number;

@@ -38,7 +38,7 @@ export interface Verifier {
  * The cell size the solver proves plans on: the mission's `coverage.cellM`, else the grid's own cell but at least
  * 4 m (a 4 m raster of the demo takes half a second; the whole solve makes a dozen).
  */
-export function solverCellM(grid: Grid, mission: Mission, settings: CoverageSettings): number {
+function solverCellM(grid: Grid, mission: Mission, settings: CoverageSettings): number {
   const ring = mission.area.coordinates[0];
   const lat = ring.slice(0, -1).reduce((t, p) => t + p[1], 0) / (ring.length - 1);
   return settings.cellM ?? Math.max(4, gridCellM(grid, lat));

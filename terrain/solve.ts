@@ -20,7 +20,7 @@ import { bestUniform, type UniformOutcome, type UniformSetting } from './solve-u
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
 
 /** Why one line is where it is and flies as it does. */
-export interface LineChoice {
+interface LineChoice {
   line: number;
   offsetM: number;
   spacingToNextM: number | null;
@@ -31,7 +31,7 @@ export interface LineChoice {
 }
 
 /** A group of cells no plan of the pattern can meet within the limits. */
-export interface UnreachableGroup {
+interface UnreachableGroup {
   reason: 'ground-unknown' | 'slope-gsd';
   message: string;
   cells: number;
@@ -40,7 +40,7 @@ export interface UnreachableGroup {
 }
 
 /** Reachable cells the solved plan still leaves short, by spec item. */
-export interface ShortGroup {
+interface ShortGroup {
   item: 'gsd' | 'views' | 'other';
   cells: number;
   areaM2: number;
@@ -50,7 +50,7 @@ export interface ShortGroup {
 }
 
 /** What the solver adds to the plan document. */
-export interface SolveReport {
+interface SolveReport {
   pattern: SolvePattern;
   choices: { headingDeg: number; heading: string; pattern: string; lines: LineChoice[]; fallback: string | null; summary: string };
   unreachable: UnreachableGroup[];
@@ -70,7 +70,7 @@ export interface SolveReport {
 export type SolvedPlan = PlanResult & SolveReport;
 
 /** Options of one solve. */
-export interface SolveOptionsArg extends AnalyseOptions {
+interface SolveOptionsArg extends AnalyseOptions {
   /** Uniform settings to compare with besides the mission's own (the bench passes the sweep's best). */
   uniform?: UniformSetting[];
   /**

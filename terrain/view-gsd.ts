@@ -19,7 +19,7 @@
  * (GSD / sin of the elevation angle; Leachtenauer et al., "General Image-Quality Equation: GIQE", Applied Optics
  * 36(32), 1997, from memory). Lens distortion changes the local scale by a few per cent at most and is left out.
  */
-export function axisGsdCm(
+function axisGsdCm(
   slantM: number, cosOffAxis: number, focalPx: number,
   ex: number, ey: number, ez: number, rx: number, ry: number, rz: number, nx: number, ny: number, nz: number,
 ): number {

@@ -13,7 +13,7 @@ import type { MavlinkChannel } from './mavlink-channel';
 const deg = (rad: number) => (rad * 180) / Math.PI;
 
 /** A photo as Loftline stores it (CAMERA_FEEDBACK lat/lng in degE7, angles in radians, altitudes in metres). */
-export function triggerOf(m: InstanceType<typeof ardupilotmega.CameraFeedback>, at: Date): FlightTrigger {
+function triggerOf(m: InstanceType<typeof ardupilotmega.CameraFeedback>, at: Date): FlightTrigger {
   return {
     imageIndex: m.imgIdx,
     lat: m.lat / 1e7,

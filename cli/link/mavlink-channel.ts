@@ -10,8 +10,8 @@ import type { Transport } from './transport';
 const REGISTRY: MavLinkPacketRegistry = { ...minimal.REGISTRY, ...common.REGISTRY, ...ardupilotmega.REGISTRY };
 
 /** A ground station's ids (255 / MAV_COMP_ID_MISSIONPLANNER 190: common practice for ground software). */
-export const GCS_SYSID = 255;
-export const GCS_COMPID = 190;
+const GCS_SYSID = 255;
+const GCS_COMPID = 190;
 
 export interface Incoming {
   msg: MavLinkData;
@@ -25,7 +25,7 @@ export interface Incoming {
  * node-mavlink's v1 serializer writes the whole v2 payload: cut the extensions off and sign the shorter frame again
  * with the message's CRC_EXTRA.
  */
-export function encodeFrame(msg: MavLinkData, seq: number, version: 1 | 2, sysid = GCS_SYSID, compid = GCS_COMPID): Buffer {
+function encodeFrame(msg: MavLinkData, seq: number, version: 1 | 2, sysid = GCS_SYSID, compid = GCS_COMPID): Buffer {
   if (version === 2) return new MavLinkProtocolV2(sysid, compid).serialize(msg, seq);
   const full = new MavLinkProtocolV1(sysid, compid).serialize(msg, seq);
   const def = msg.constructor as unknown as { FIELDS: Array<{ extension: boolean; offset: number; size: number; length: number }>; MAGIC_NUMBER: number };

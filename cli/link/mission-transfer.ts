@@ -11,7 +11,7 @@ import type { Incoming, MavlinkChannel } from './mavlink-channel';
 
 const { MissionCount, MissionItemInt, MissionRequest, MissionRequestInt, MissionAck, MissionRequestList, MavMissionResult, MavMissionType } = common;
 
-export interface TransferOptions {
+interface TransferOptions {
   timeoutMs: number;
   retries: number;
   log: (line: string) => void;
@@ -20,7 +20,7 @@ export interface TransferOptions {
 const nan = (p: number | null) => (p === null ? Number.NaN : p);
 
 /** MISSION_ITEM_INT of one JSON item, addressed to the aircraft. */
-export function toMessage(item: MissionItem, target: { sysid: number; compid: number }): InstanceType<typeof MissionItemInt> {
+function toMessage(item: MissionItem, target: { sysid: number; compid: number }): InstanceType<typeof MissionItemInt> {
   const m = new MissionItemInt();
   m.targetSystem = target.sysid;
   m.targetComponent = target.compid;

@@ -1,7 +1,7 @@
 /** The client-side error for a failed API call, built from the server's JSON error body. */
 import { apiErrorSchema } from '../../contracts/errors';
 
-export type FieldProblem = { path: string; message: string };
+type FieldProblem = { path: string; message: string };
 
 /** An API failure with the HTTP status, the server's code and message, and field problems for validation errors. */
 export class ApiError extends Error {

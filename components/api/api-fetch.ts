@@ -2,7 +2,7 @@
 import type { z } from 'zod';
 import { ApiError, apiErrorFrom, networkErrorStatus } from './api-error';
 
-export type ApiRequest<S extends z.ZodType | undefined> = {
+type ApiRequest<S extends z.ZodType | undefined> = {
   method?: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
   body?: unknown;
   /** Schema the JSON answer must satisfy; without one the answer is ignored (e.g. 204 No Content). */

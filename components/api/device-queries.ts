@@ -19,7 +19,7 @@ function storage(): Storage | null {
 }
 
 /** Only settled answers of the signed-in user and their flights list; never sheets, errors or other screens. */
-export function keptOnDevice(q: Pick<Query, 'queryKey' | 'state'>): boolean {
+function keptOnDevice(q: Pick<Query, 'queryKey' | 'state'>): boolean {
   if (q.state.status !== 'success') return false;
   const [head, , kind] = q.queryKey as readonly unknown[];
   return head === 'me' || (head === 'flights' && kind === 'list');

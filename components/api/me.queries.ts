@@ -10,7 +10,7 @@ export const meKeys = {
 };
 
 /** Fetches the signed-in user; a 401 ApiError means "no session". */
-export function fetchMe(signal?: AbortSignal) {
+function fetchMe(signal?: AbortSignal) {
   return apiFetch(apiPaths.me, { schema: meSchema, signal });
 }
 

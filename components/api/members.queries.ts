@@ -6,7 +6,7 @@ import { apiFetch } from './api-fetch';
 import { meKeys } from './me.queries';
 
 /** Query keys for members, one list per team. */
-export const memberKeys = {
+const memberKeys = {
   all: ['members'] as const,
   list: (teamId: string) => [...memberKeys.all, teamId] as const,
 };

@@ -5,7 +5,7 @@ import { apiFetch } from './api-fetch';
 import { meKeys } from './me.queries';
 
 /** Query keys for teams (the list itself lives under meKeys). */
-export const teamKeys = {
+const teamKeys = {
   all: ['teams'] as const,
 };
 

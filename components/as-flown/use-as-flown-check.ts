@@ -9,7 +9,7 @@ import { errorMessage } from '../api/api-error';
 import { useCurrentTeam } from '../team/current-team-context';
 import { useAsFlownCheckQuery, useAsFlownChecksQuery, useCreateAsFlownCheck } from './as-flown.queries';
 
-export type CheckPhase =
+type CheckPhase =
   | { kind: 'idle' }
   | { kind: 'reading'; done: number; total: number }
   | { kind: 'sending'; count: number }

@@ -19,14 +19,14 @@ export interface ReflightOrigin {
   versionNumber: number;
 }
 
-export type ReflightPlans =
+type ReflightPlans =
   | { kind: 'idle' }
   | { kind: 'saving'; done: number; total: number }
   | { kind: 'saved'; plans: Array<{ id: string; name: string; href: string }> }
   | { kind: 'failed'; message: string };
 
 /** "Re-flight 2 of 4 for Face and heap v3 (check of 3 Dec 2026)". */
-export function reflightPlanName(origin: ReflightOrigin, k: number, total: number, checkedOn: string): string {
+function reflightPlanName(origin: ReflightOrigin, k: number, total: number, checkedOn: string): string {
   return `Re-flight ${k + 1} of ${total} for ${origin.planName} v${origin.versionNumber} (photos checked ${checkedOn})`.slice(0, 200);
 }
 

@@ -8,7 +8,7 @@
  */
 
 /** What a call gives back: nothing, or better-auth's refusal with its status (0 when the server was not reached). */
-export type AuthResult = { error: { message?: string; status: number; statusText?: string } | null };
+type AuthResult = { error: { message?: string; status: number; statusText?: string } | null };
 
 async function authPost(path: string, body: Record<string, string> = {}): Promise<AuthResult> {
   let response: Response;
@@ -40,7 +40,7 @@ export const authClient = {
 };
 
 /** What a failed call gives back, reduced to what the forms show. */
-export type AuthFailure = { message: string; status: number };
+type AuthFailure = { message: string; status: number };
 
 /** Turns a refusal into a message shown word for word (the server never hints whether an e-mail exists). */
 export function authFailureFrom(error: AuthResult['error'] | undefined): AuthFailure | null {

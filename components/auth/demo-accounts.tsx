@@ -6,7 +6,7 @@ import { colors, layout, radii, space } from '../theme';
 import { Text } from '../ui';
 
 /** The seeded demo users (fictional people on the reserved .example domain), from the one list the seed uses. */
-export const demoAccounts = demoUsers;
+const demoAccounts = demoUsers;
 
 /**
  * Tapping an account fills in its e-mail; nothing is submitted on the user's behalf. The shared password is not in

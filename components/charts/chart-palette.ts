@@ -5,7 +5,7 @@
  */
 import { colors } from '../theme';
 
-export type LineStyle = 'solid' | 'dashed' | 'dotted';
+type LineStyle = 'solid' | 'dashed' | 'dotted';
 
 export interface SeriesLook {
   label: string;

@@ -22,7 +22,7 @@ function LegendItem({ look, testID }: { look: SeriesLook; testID?: string }) {
   );
 }
 
-export type ProfileChartProps = {
+type ProfileChartProps = {
   line: PlanLine;
   clearanceTotalM: number;
   units: UnitSystem;

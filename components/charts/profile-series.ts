@@ -5,7 +5,7 @@ import { toDisplayLength } from '../projects/units';
 import { niceDomain } from '../../contracts/format/ticks';
 
 /** One chart row; the chart joins each series over its own rows (null = no value of that series here). */
-export interface ProfileRow extends Record<string, unknown> {
+interface ProfileRow extends Record<string, unknown> {
   /** Distance from the line start, display unit. */
   distance: number;
   ground: number | null;
@@ -16,7 +16,7 @@ export interface ProfileRow extends Record<string, unknown> {
   gsd: number | null;
 }
 
-export interface LegMark {
+interface LegMark {
   number: number;
   startDistance: number;
   endDistance: number;

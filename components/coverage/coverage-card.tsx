@@ -17,7 +17,7 @@ import { CoverageLegend } from './coverage-legend';
 import { areaWords, basisWords, itemTitle, shareWords, specWords } from '../../contracts/coverage-words';
 import { useCoverageView } from './use-coverage-view';
 
-export type CoverageCardProps = {
+type CoverageCardProps = {
   teamId: string | undefined;
   planId: string;
   versionId: string;

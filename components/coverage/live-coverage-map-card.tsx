@@ -12,7 +12,7 @@ import { space } from '../theme';
 import { Banner, Card, Heading, Loading, Text } from '../ui';
 import { liveLayersOf } from './live-coverage-layers';
 
-export type LiveCoverageMapCardProps = {
+type LiveCoverageMapCardProps = {
   teamId: string | undefined;
   versionId: string;
   hillshade: HillshadeInfo;

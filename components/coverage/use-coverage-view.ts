@@ -8,7 +8,7 @@ import { colors } from '../theme';
 import { useCoverageCell, useVersionCoverage } from './coverage.queries';
 import { rasterRect } from './coverage-placement';
 
-export interface CoverageViewArgs {
+interface CoverageViewArgs {
   teamId: string | undefined;
   planId: string;
   versionId: string;

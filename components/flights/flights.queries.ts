@@ -13,9 +13,6 @@ export const flightKeys = {
   sheet: (teamId: string, versionId: string) => [...flightKeys.team(teamId), 'sheet', versionId] as const,
 };
 
-/** API path of a version's leg sheet. */
-export const legSheetPath = apiPaths.legSheet;
-
 /** API path of one export of a version (GeoJSON, KML, GPX, CSV). */
 export const exportPath = (teamId: string, planId: string, versionId: string, format: ExportFormat) =>
   `${apiPaths.version(teamId, planId, versionId)}/export.${format}`;
@@ -34,7 +31,7 @@ export function useFlights(teamId: string | undefined) {
 export function useLegSheetQuery(teamId: string | undefined, versionId: string | undefined) {
   return useQuery({
     queryKey: flightKeys.sheet(teamId ?? '', versionId ?? ''),
-    queryFn: ({ signal }) => apiFetch(legSheetPath(teamId!, versionId!), { schema: legSheetSchema, signal }),
+    queryFn: ({ signal }) => apiFetch(apiPaths.legSheet(teamId!, versionId!), { schema: legSheetSchema, signal }),
     enabled: Boolean(teamId && versionId),
     // A sheet changes only with its version; no need to ask again while the page stays open.
     staleTime: Infinity,

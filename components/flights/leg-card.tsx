@@ -10,7 +10,7 @@ import { Text } from '../ui';
 import { formatAltitudePair, formatDatumPair, formatGsdRange, formatLatLon, formatRange, legKindLabel } from './leg-format';
 import { altitudeFigureType } from './leg-type';
 
-export type LegCardProps = { leg: SheetLeg; lineNumber: number; units: UnitSystem; datumName: string };
+type LegCardProps = { leg: SheetLeg; lineNumber: number; units: UnitSystem; datumName: string };
 
 /** testIDs: leg-L-N (the card), leg-L-N-altitude (the figure a pilot sets). */
 export function LegCard({ leg, lineNumber, units, datumName }: LegCardProps) {

@@ -4,7 +4,7 @@ import type { UnitSystem } from '../../contracts/projects';
 import { formatDecimal, formatDuration, formatLength, lengthUnit, toDisplayLength } from '../projects/units';
 
 /** Below this difference (in metres) a leg's start and end altitude print as one figure: the server calls it level too. */
-export const levelToleranceM = 0.05;
+const levelToleranceM = 0.05;
 
 function whole(metres: number, units: UnitSystem): string {
   return formatDecimal(Math.round(toDisplayLength(metres, units)), 0, 0);

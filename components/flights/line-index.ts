@@ -3,7 +3,7 @@ import { Platform } from 'react-native';
 import type { LegSheet } from '../../contracts/flights';
 import { formatCount, formatLength } from '../projects/units';
 
-export type LineIndexEntry = {
+type LineIndexEntry = {
   number: number;
   /** "Line 3" */
   title: string;

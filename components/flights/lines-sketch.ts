@@ -9,7 +9,7 @@ import { scaleBar, type ScaleBar } from '../map/scale-bar';
 type LonLat = { lon: number; lat: number };
 const RAD = Math.PI / 180;
 
-export interface SketchLine {
+interface SketchLine {
   number: number;
   x1: number;
   y1: number;
@@ -17,7 +17,7 @@ export interface SketchLine {
   y2: number;
 }
 
-export interface LinesSketch {
+interface LinesSketch {
   widthPx: number;
   heightPx: number;
   lines: SketchLine[];

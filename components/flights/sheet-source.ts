@@ -5,13 +5,13 @@ import type { StoredSheet } from './leg-sheet-storage';
 
 export type OfflineReason = 'checking' | 'no-connection' | 'unreachable';
 
-export type SheetSource =
+type SheetSource =
   | { kind: 'live'; sheet: LegSheet }
   | { kind: 'offline'; sheet: LegSheet; savedAt: string; reason: OfflineReason; message: string | null }
   | { kind: 'loading'; waitingForConnection: boolean }
   | { kind: 'error'; error: unknown };
 
-export type SheetQueryState = {
+type SheetQueryState = {
   data: LegSheet | undefined;
   error: unknown;
   /** TanStack Query's fetch status: "paused" while the browser says it is offline. */

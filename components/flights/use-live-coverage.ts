@@ -10,13 +10,13 @@ import { formatLatLon } from './leg-format';
 /** API path of a version's live coverage stream. */
 export const liveCoveragePath = (teamId: string, versionId: string, map = false) => `/api/teams/${encodeURIComponent(teamId)}/flights/${encodeURIComponent(versionId)}/live${map ? '?map=1' : ''}`;
 
-export type LiveState =
+type LiveState =
   | { kind: 'unavailable'; reason: string }
   | { kind: 'waiting' }
   | { kind: 'live'; doc: LiveCoverage; connected: boolean };
 
 /** What the card shows of one document: a headline, the spec items, and the short patches to re-fly (largest first). */
-export interface LiveView {
+interface LiveView {
   headline: string;
   items: string[];
   patches: string[];

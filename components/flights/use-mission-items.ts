@@ -6,7 +6,7 @@ import { errorMessage } from '../api/api-error';
 import { formatLength, formatSpeed } from '../projects/units';
 import { missionItemsPath, useFlightTriggersQuery, useMissionItemsQuery } from './mission-items.queries';
 
-export type MissionHandoff =
+type MissionHandoff =
   | { kind: 'unavailable'; reason: string }
   | { kind: 'loading' }
   | { kind: 'error'; message: string }
@@ -25,7 +25,7 @@ export type MissionHandoff =
     };
 
 /** A line as the card shows it: photo spacing and ground speed as ranges over its legs. */
-export interface HandoffLine {
+interface HandoffLine {
   number: number;
   photoCount: number;
   firstSeq: number;
@@ -37,7 +37,7 @@ export interface HandoffLine {
 }
 
 /** One item in short: its MAVLink command without the MAV_CMD_ prefix, where it belongs, and the figure it sets. */
-export interface ItemRow {
+interface ItemRow {
   seq: number;
   command: string;
   line: number | null;

@@ -12,7 +12,7 @@ import { apiFetch } from '../api/api-fetch';
 import { meKeys } from '../api/me.queries';
 
 /** Query keys for invitations. */
-export const invitationKeys = {
+const invitationKeys = {
   all: ['invitations'] as const,
   list: (teamId: string) => [...invitationKeys.all, 'team', teamId] as const,
   preview: (token: string) => [...invitationKeys.all, 'token', token] as const,

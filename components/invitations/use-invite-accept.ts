@@ -10,7 +10,7 @@ import { rememberTeam } from '../team/team-storage';
 import { useAcceptInvitation, useInvitationPreview } from './invitations.queries';
 import { forgetDeviceQueries } from '../api/device-queries';
 
-export type InviteStage = 'checking' | 'signed-out' | 'session-failed' | 'signed-in';
+type InviteStage = 'checking' | 'signed-out' | 'session-failed' | 'signed-in';
 
 /** After accepting, the new team becomes current on this device and the user lands on their role's home screen. */
 export function useInviteAccept() {

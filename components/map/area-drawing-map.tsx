@@ -15,7 +15,7 @@ const toolChoices: { value: DrawTool; label: string }[] = [
   { value: 'takeoff', label: 'Set takeoff point' },
 ];
 
-export type AreaDrawingMapProps = {
+type AreaDrawingMapProps = {
   drawing: AreaDrawing;
   /** Where the hillshade lies on the ground (true shape, scale bar, north arrow). */
   georef?: ImageGeoref;

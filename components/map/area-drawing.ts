@@ -19,7 +19,7 @@ export interface DrawingState {
   reopened?: boolean;
 }
 
-export type DrawingAction =
+type DrawingAction =
   | { type: 'tap'; at: LonLat }
   | { type: 'undo' }
   | { type: 'close' }

@@ -4,7 +4,7 @@ import type { Geometry, GeoJsonObject, Polygon, Position } from 'geojson';
 import { openRing, type LonLat } from './area-check';
 
 /** An imported outer ring (open: the first corner is not repeated), with a note when something was left out. */
-export interface ImportedArea {
+interface ImportedArea {
   ring: LonLat[];
   note: string | null;
 }
@@ -18,7 +18,7 @@ export class AreaImportError extends Error {
 }
 
 /** Parses XML text into a DOM document (the browser's DOMParser by default; tests pass @xmldom/xmldom's). */
-export type XmlParser = (text: string) => Document;
+type XmlParser = (text: string) => Document;
 
 const browserXml: XmlParser = (text) => {
   if (typeof DOMParser === 'undefined') throw new AreaImportError('This browser cannot read KML files (no DOMParser).');

@@ -6,7 +6,7 @@
  */
 import type { ImageGeoref } from './image-georef';
 
-export type LonLat = readonly [number, number];
+type LonLat = readonly [number, number];
 export type NudgeDirection = 'up' | 'down' | 'left' | 'right';
 
 /** Image pixels per step in each direction (x right, y down, as the image's pixels run). */

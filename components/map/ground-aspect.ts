@@ -24,12 +24,12 @@ export function metresPerRadian(latDeg: number): { northM: number; eastM: number
 }
 
 /** Ground distance (m) of a small step (dLon, dLat degrees) at latitude `latDeg`, from the local radii. */
-export function smallStepM(latDeg: number, dLonDeg: number, dLatDeg: number): number {
+function smallStepM(latDeg: number, dLonDeg: number, dLatDeg: number): number {
   const r = metresPerRadian(latDeg);
   return Math.hypot(r.eastM * dLonDeg * RAD, r.northM * dLatDeg * RAD);
 }
 
-export interface GroundScale {
+interface GroundScale {
   /** Ground metres per image pixel along the image's x axis and its y axis, at the image's centre. */
   metresPerPxX: number;
   metresPerPxY: number;

@@ -58,7 +58,7 @@ export function boundsGeoref(widthPx: number, heightPx: number, boundsWgs84: rea
 }
 
 /** The hillshade part of a site record: image size, WGS 84 bounds and, where known, the grid-CRS transform. */
-export interface HillshadePlacement {
+interface HillshadePlacement {
   width: number;
   height: number;
   boundsWgs84: [number, number, number, number];

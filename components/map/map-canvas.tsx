@@ -3,7 +3,7 @@ import { EmptyState } from '../ui';
 import type { ImageGeoref } from './image-georef';
 import type { DragMove, MapImageLayer, MapShape, PxPoint } from './map-shapes';
 
-export type MapCanvasProps = {
+type MapCanvasProps = {
   imageUrl: string;
   widthPx: number;
   heightPx: number;

@@ -15,7 +15,7 @@ import { MAX_ZOOM, panView, zoomOf, zoomView, type View as ViewBox } from './map
 import { scaleBar } from './scale-bar';
 import type { ImageGeoref } from './image-georef';
 
-export type MapCanvasProps = {
+type MapCanvasProps = {
   imageUrl: string;
   widthPx: number;
   heightPx: number;

@@ -25,7 +25,7 @@ function MapButton({ glyph, label, onPress, disabled, testID }: { glyph: string;
   );
 }
 
-export type MapZoomControlsProps = {
+type MapZoomControlsProps = {
   zoom: number;
   maxZoom: number;
   onZoom: (factor: number) => void;

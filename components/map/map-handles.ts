@@ -3,9 +3,9 @@
  * and where a marker's label goes so it hides no other marker.
  */
 
-export type ScreenPoint = readonly [number, number];
+type ScreenPoint = readonly [number, number];
 
-export type Handle = { kind: 'corner'; index: number } | { kind: 'takeoff' };
+type Handle = { kind: 'corner'; index: number } | { kind: 'takeoff' };
 
 /**
  * The handle under a press at `at`: the nearest corner within `reachPx` (screen pixels) wins over the takeoff
@@ -29,7 +29,7 @@ export function pickHandle(at: ScreenPoint, corners: readonly ScreenPoint[], tak
 }
 
 /** Where a label sits against its marker: its text anchor and the offset of its baseline start, in marker radii. */
-export interface LabelPlace {
+interface LabelPlace {
   anchor: 'start' | 'end';
   dx: number;
   dy: number;

@@ -1,7 +1,7 @@
 /** The signed-in area's navigation items and which of them a role sees. */
 import { can, type Permission, type Role } from '../../contracts/roles';
 
-export type NavKey = 'work' | 'projects' | 'flights' | 'team' | 'profile';
+type NavKey = 'work' | 'projects' | 'flights' | 'team' | 'profile';
 
 export type NavItem = {
   key: NavKey;

@@ -6,7 +6,7 @@ import { LinkPressable, Text, type WebPressState } from '../ui';
 import { ariaCurrentPage } from '../ui/web-a11y';
 import type { NavItem } from './nav-items';
 
-export type NavLinkProps = { item: NavItem; active: boolean; placement: 'side' | 'tab' };
+type NavLinkProps = { item: NavItem; active: boolean; placement: 'side' | 'tab' };
 
 /** Active items carry aria-current="page" and a bar in the primary colour (left in the column, top in the tab bar). */
 export function NavLink({ item, active, placement }: NavLinkProps) {

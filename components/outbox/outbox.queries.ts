@@ -5,7 +5,7 @@ import { ApiError } from '../api/api-error';
 import { apiFetch } from '../api/api-fetch';
 
 /** Query keys for the outbox, per team. */
-export const outboxKeys = {
+const outboxKeys = {
   all: ['outbox'] as const,
   team: (teamId: string) => [...outboxKeys.all, teamId] as const,
 };

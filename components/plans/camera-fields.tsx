@@ -15,7 +15,7 @@ const custom = 'custom';
 const keys = ['sensorWidthMm', 'sensorHeightMm', 'focalLengthMm', 'imageWidthPx', 'imageHeightPx'] as const;
 
 /** The preset whose values the camera has, or 'custom'. */
-export function presetIdOf(camera: Partial<Camera> | undefined): string {
+function presetIdOf(camera: Partial<Camera> | undefined): string {
   const p = CAMERA_PRESETS.find((c) => keys.every((k) => c.camera[k] === camera?.[k]));
   return p ? p.id : custom;
 }

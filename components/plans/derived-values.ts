@@ -3,7 +3,7 @@ import type { Camera } from '../../terrain/camera';
 import { airBaseM, footprintM, heightForGsdM, lineSpacingM } from '../../terrain/gsd';
 
 /** Inputs, as far as the form has them (any may still be missing or out of range while typing). */
-export interface DerivedInput {
+interface DerivedInput {
   camera: Partial<Camera> | null | undefined;
   targetGsdCm: number | undefined;
   gsdTolerance: number | undefined;
@@ -13,7 +13,7 @@ export interface DerivedInput {
 }
 
 /** Flat-ground planning figures; the analysis then checks them station by station over the real terrain. */
-export interface DerivedValues {
+interface DerivedValues {
   /** Height above ground that gives the target GSD. */
   heightM: number;
   /** Heights that give the tolerance band's finest and coarsest GSD. */

@@ -5,7 +5,7 @@ import { TextField } from '../ui';
 import { numberToText, parseNumberText, scaleRangeMessage } from './number-text';
 import { fieldMessage } from './plan-form-schema';
 
-export type NumberFieldProps<T extends FieldValues> = {
+type NumberFieldProps<T extends FieldValues> = {
   control: Control<T>;
   name: FieldPath<T>;
   label: string;

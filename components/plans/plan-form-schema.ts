@@ -6,7 +6,7 @@ import { missionSchema } from '../../contracts/mission';
 import { MISSION_DEFAULTS } from '../../terrain/mission';
 import { CAMERA_PRESETS, type Camera } from '../../terrain/camera';
 
-export const planFormSchema = z.object({
+const planFormSchema = z.object({
   name: z.string().trim().min(2, 'Name the plan (at least 2 characters).').max(120, 'Keep the plan name under 120 characters.'),
   mission: missionSchema,
 });
@@ -14,7 +14,7 @@ export type PlanFormIn = z.input<typeof planFormSchema>;
 export type PlanFormOut = z.output<typeof planFormSchema>;
 
 /** The preset a new plan starts with (a 1-inch, 20 MP, 8.8 mm survey camera class). */
-export const defaultCamera: Camera = { ...CAMERA_PRESETS[1].camera };
+const defaultCamera: Camera = { ...CAMERA_PRESETS[1].camera };
 /** Said under an emptied endurance field: the battery plan rests on it, so the form never fills it in unseen. */
 export const emptyEnduranceMessage = 'Enter the endurance per battery in minutes: the battery plan on the leg sheet is built from it.';
 
@@ -33,7 +33,7 @@ export const planFormResolver: Resolver<PlanFormIn, unknown, PlanFormOut> = asyn
 };
 
 /** A new plan's target GSD: 3 cm is a common survey figure (common practice). */
-export const defaultTargetGsdCm = 3;
+const defaultTargetGsdCm = 3;
 
 /** Form values of a new plan, or of a saved one (its input laid over the defaults). */
 export function planFormDefaults(name: string, saved?: Record<string, unknown> | null): PlanFormIn {

@@ -1,16 +1,3 @@
 /** Plans, versions and their analysis states as contracts/plans.ts defines them (one import point for the client). */
-export {
-  analysisStateLabels,
-  planListSchema,
-  planSchema,
-  planVersionOverviewSchema,
-  versionListSchema,
-  versionStatusSchema,
-  versionSummarySchema,
-  type AnalysisState,
-  type Plan,
-  type PlanVersionOverview,
-  type VersionStatus,
-  type VersionSummary,
-} from '../../contracts/plans';
-export { resultLineSchema, type OverviewLine, type ResultOverview } from '../../contracts/result-parts';
+export { analysisStateLabels, planListSchema, planSchema, planVersionOverviewSchema, versionListSchema, versionStatusSchema, versionSummarySchema, type AnalysisState, type Plan, type VersionStatus, type VersionSummary } from '../../contracts/plans';
+export { resultLineSchema } from '../../contracts/result-parts';

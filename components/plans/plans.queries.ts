@@ -17,14 +17,14 @@ export const planKeys = {
   line: (teamId: string, planId: string, versionId: string, lineIndex: number) => [...planKeys.version(teamId, planId, versionId), 'line', lineIndex] as const,
 };
 
-export const projectPlansPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/plans`;
+const projectPlansPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/plans`;
 export const planPath = apiPaths.plan;
-export const versionsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/versions`;
-export const versionPath = apiPaths.version;
-export const runsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/runs`;
+const versionsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/versions`;
+const versionPath = apiPaths.version;
+const runsPath = (teamId: string, planId: string) => `${planPath(teamId, planId)}/runs`;
 
 /** A version still being analysed is asked again this often. */
-export const pollIntervalMs = 1000;
+const pollIntervalMs = 1000;
 
 export function isSettled(v: Pick<VersionStatus, 'analysisState'> | undefined): boolean {
   return v?.analysisState === 'done' || v?.analysisState === 'failed';
@@ -92,7 +92,7 @@ export function useVersionLine(teamId: string | undefined, planId: string, versi
   });
 }
 
-export interface PlanDraft {
+interface PlanDraft {
   name: string;
   siteId: string;
   input: Record<string, unknown>;

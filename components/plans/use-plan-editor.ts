@@ -14,7 +14,7 @@ import type { Plan } from './plan-shape';
 import { formPathOf, planFormDefaults, planFormResolver, type PlanFormIn, type PlanFormOut } from './plan-form-schema';
 import { useCreatePlan, useRunPlan, useUpdatePlan } from './plans.queries';
 
-export type PlanEditorInput = { project: Project; site: Site; plan: Plan | null };
+type PlanEditorInput = { project: Project; site: Site; plan: Plan | null };
 
 export function usePlanEditor({ project, site, plan }: PlanEditorInput) {
   const { team, role } = useCurrentTeam();

@@ -12,12 +12,12 @@ import { Banner, Button, ChoiceGroup, Text, TextField } from '../ui';
 type FormIn = z.input<typeof createProjectSchema>;
 type FormOut = z.output<typeof createProjectSchema>;
 
-export const unitChoices: { value: UnitSystem; label: string }[] = [
+const unitChoices: { value: UnitSystem; label: string }[] = [
   { value: 'metric', label: 'Metric (m, m/s)' },
   { value: 'imperial', label: 'Imperial (ft, ft/s)' },
 ];
 
-export type ProjectFormProps = {
+type ProjectFormProps = {
   initial?: Partial<FormOut>;
   submitLabel: string;
   onSubmit: (values: FormOut) => Promise<unknown>;

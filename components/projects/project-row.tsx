@@ -5,7 +5,7 @@ import { colors, layout, radii, space } from '../theme';
 import { Badge, Button, LinkPressable, Text } from '../ui';
 import { formatDay } from './format-date';
 
-export type ProjectRowProps = {
+type ProjectRowProps = {
   project: Project;
   mayWrite: boolean;
   busy: boolean;

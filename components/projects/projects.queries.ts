@@ -20,11 +20,11 @@ export const projectKeys = {
 };
 
 /** /api/teams/:teamId/projects, the root of every project-owned resource. */
-export const projectsPath = (teamId: string) => `/api/teams/${encodeURIComponent(teamId)}/projects`;
+const projectsPath = (teamId: string) => `/api/teams/${encodeURIComponent(teamId)}/projects`;
 export const projectPath = (teamId: string, projectId: string) => `${projectsPath(teamId)}/${encodeURIComponent(projectId)}`;
 
 /** The query string of a list request; empty search text is left out. */
-export function listQueryString(query: ProjectListQuery): string {
+function listQueryString(query: ProjectListQuery): string {
   const p = new URLSearchParams();
   if (query.q && query.q.trim()) p.set('q', query.q.trim());
   if (query.sort) p.set('sort', query.sort);

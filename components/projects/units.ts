@@ -12,7 +12,7 @@ export function lengthUnit(units: UnitSystem): 'm' | 'ft' {
 }
 
 /** The unit label for speeds and vertical rates. */
-export function speedUnit(units: UnitSystem): 'm/s' | 'ft/s' {
+function speedUnit(units: UnitSystem): 'm/s' | 'ft/s' {
   return units === 'imperial' ? 'ft/s' : 'm/s';
 }
 

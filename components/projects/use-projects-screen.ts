@@ -12,7 +12,7 @@ export type ArchivedChoice = 'active' | 'archived' | 'all';
 const searchDelayMs = 250;
 
 /** Names first A→Z; dates newest first. */
-export function orderFor(sort: SortChoice): 'asc' | 'desc' {
+function orderFor(sort: SortChoice): 'asc' | 'desc' {
   return sort === 'name' ? 'asc' : 'desc';
 }
 

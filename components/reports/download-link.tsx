@@ -6,7 +6,7 @@ import { Text } from '../ui';
 
 type WebPressState = PressableStateCallbackType & { hovered?: boolean; focused?: boolean };
 
-export type DownloadLinkProps = { href: string; label: string; detail?: string; testID?: string };
+type DownloadLinkProps = { href: string; label: string; detail?: string; testID?: string };
 
 /**
  * Drawn like a secondary button so it is an easy target outdoors; React Native Web renders `href` with

@@ -5,7 +5,7 @@ export type GsdPoint = { distanceM: number; gsdCm: number | null };
 
 export type ChartBox = { widthPx: number; heightPx: number; padLeftPx: number; padRightPx: number; padTopPx: number; padBottomPx: number };
 
-export type GsdChartGeometry = {
+type GsdChartGeometry = {
   /** SVG path data, one "M…L…" run per stretch of known stations (an unknown station breaks the line). */
   path: string;
   /** Lone known stations between two unknown ones, drawn as dots since a path of one point is invisible. */

@@ -12,7 +12,7 @@ export function formatHeading(deg: number | null | undefined): string {
 }
 
 /** The station figures every line and the whole plan share. */
-export function statsFigures(s: StationStats): Figure[] {
+function statsFigures(s: StationStats): Figure[] {
   return [
     // figures against a target are rounded toward failing (contracts/target-rounding.ts)
     { key: 'share', label: 'Stations meeting the GSD target', value: formatPercent(s.shareMeetingGsd, 1, 'min') },

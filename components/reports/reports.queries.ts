@@ -5,7 +5,7 @@ import { apiFetch } from '../api/api-fetch';
 import { versionApiPath } from '../reviews/reviews.queries';
 
 /** Query keys for reports, per team. */
-export const reportKeys = {
+const reportKeys = {
   all: ['reports'] as const,
   team: (teamId: string) => [...reportKeys.all, teamId] as const,
   report: (teamId: string, planId: string, versionId: string) => [...reportKeys.team(teamId), planId, versionId] as const,

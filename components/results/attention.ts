@@ -7,7 +7,7 @@ import type { ResultOverview } from '../../contracts/result-parts';
 import { statusLooks } from './station-status';
 import type { StationStatus } from '../../contracts/station-status';
 
-export interface AttentionItem {
+interface AttentionItem {
   key: string;
   /** What is wrong, in words. */
   title: string;

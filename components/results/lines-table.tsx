@@ -11,7 +11,7 @@ import { statusLooks } from './station-status';
 
 type WebPressState = PressableStateCallbackType & { hovered?: boolean; focused?: boolean };
 
-export type LinesTableProps = {
+type LinesTableProps = {
   rows: LineRow[];
   units: UnitSystem;
   sortKey: LineSortKey;

@@ -25,7 +25,7 @@ import { StatusLegend } from './status-legend';
 import { SummaryFigures } from './summary-figures';
 import { useResultsView } from './use-results-view';
 
-export type ResultsViewProps = {
+type ResultsViewProps = {
   result: ResultOverview;
   /** The version the result belongs to: a chosen line's stations are fetched from it. */
   source: { teamId: string | undefined; planId: string; versionId: string };

@@ -1,12 +1,10 @@
 /** How each station status looks: a colour, a marker shape and words (the statuses themselves: contracts/station-status.ts). */
 import type { StationStatus } from '../../contracts/station-status';
 
-export { countStatuses, stationStatus, stationStatuses, type StationStatus } from '../../contracts/station-status';
-
 /** Marker shapes: the status reads from the shape alone, so colour is never the only cue. */
 export type MarkerShape = 'circle' | 'square' | 'triangle' | 'diamond' | 'cross';
 
-export interface StatusLook {
+interface StatusLook {
   label: string;
   /** One sentence for the legend. */
   meaning: string;

@@ -3,7 +3,8 @@ import { StyleSheet, View } from 'react-native';
 import { MarkerGlyph } from '../map/marker-glyph';
 import { space } from '../theme';
 import { Text } from '../ui';
-import { stationStatuses, statusLooks, type StationStatus } from './station-status';
+import { statusLooks } from './station-status';
+import { stationStatuses, type StationStatus } from '../../contracts/station-status';
 
 export function StatusLegend({ counts, compact }: { counts: Record<StationStatus, number>; compact?: boolean }) {
   // Worst first reads as a checklist; statuses with no station are still listed so the scheme is always complete.

@@ -10,7 +10,7 @@ import { nearestLine, overviewShapes, overviewView } from './overview-shapes';
 const tapReachPx = 12;
 
 /** The line shown first: the one with the most photos off target (ties: flying order), where a planner looks first. */
-export function firstLineToShow(result: ResultOverview): number | null {
+function firstLineToShow(result: ResultOverview): number | null {
   const rows = lineRows(result.lines);
   if (rows.length === 0) return null;
   return sortLineRows(rows, 'flagged', 'desc')[0].index;

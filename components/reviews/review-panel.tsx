@@ -10,7 +10,7 @@ import { AuditTrail } from './audit-trail';
 import { lockedNote, reviewStateNotes, reviewStateTones } from './review-state';
 import { useReviewPanel } from './use-review-panel';
 
-export type ReviewPanelProps = {
+type ReviewPanelProps = {
   projectId: string;
   planId: string;
   versionId: string;

@@ -5,7 +5,7 @@ import { errorMessage } from '../api/api-error';
 import { useCurrentTeam } from '../team/current-team-context';
 import { useAuditTrail, useReviewAction, useVersionReview } from './reviews.queries';
 
-export type ReviewPanelIds = { planId: string; versionId: string };
+type ReviewPanelIds = { planId: string; versionId: string };
 
 /** Opening an action shows its comment box first: a sign-off or return is never one accidental tap. */
 export function useReviewPanel({ planId, versionId }: ReviewPanelIds) {

@@ -5,7 +5,7 @@ import { space } from '../theme';
 import { Banner, Text } from '../ui';
 
 /** The caution lines (contracts/cautions.ts), also used by reports, exports and mail so the wording stays the same. */
-export const flightCautions = generalCautions;
+const flightCautions = generalCautions;
 
 /** A caution banner with the standard list; `compact` shows the first sentence of each line. */
 export function FlightCautions({ compact = false }: { compact?: boolean }) {

@@ -1,7 +1,7 @@
 /** Native builds have no file chooser yet; Loftline ships for the web (see file-picker.web.tsx). */
 import { Button, type ButtonVariant } from '../ui';
 
-export type FilePickerProps = {
+type FilePickerProps = {
   label: string;
   accept: string;
   onPick: (file: File) => void;

@@ -2,7 +2,7 @@
 import { useRef } from 'react';
 import { Button, type ButtonVariant } from '../ui';
 
-export type FilePickerProps = {
+type FilePickerProps = {
   label: string;
   /** The input's accept list, e.g. ".tif,.tiff,image/tiff". */
   accept: string;

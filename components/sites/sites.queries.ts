@@ -9,15 +9,15 @@ import { siteFileField } from '../../contracts/sites';
 import { uploadWithProgress, type UploadProgress } from './upload-request';
 
 /** Query keys for sites, per project. */
-export const siteKeys = {
+const siteKeys = {
   all: ['sites'] as const,
   project: (teamId: string, projectId: string) => [...siteKeys.all, teamId, projectId] as const,
   list: (teamId: string, projectId: string) => [...siteKeys.project(teamId, projectId), 'list'] as const,
   detail: (teamId: string, projectId: string, siteId: string) => [...siteKeys.project(teamId, projectId), 'detail', siteId] as const,
 };
 
-export const sitesPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/sites`;
-export const sitePath = (teamId: string, projectId: string, siteId: string) => `${sitesPath(teamId, projectId)}/${encodeURIComponent(siteId)}`;
+const sitesPath = (teamId: string, projectId: string) => `${projectPath(teamId, projectId)}/sites`;
+const sitePath = (teamId: string, projectId: string, siteId: string) => `${sitesPath(teamId, projectId)}/${encodeURIComponent(siteId)}`;
 
 /** The project's sites. */
 export function useSites(teamId: string | undefined, projectId: string | undefined) {
@@ -46,7 +46,7 @@ export class DuplicateSiteError extends ApiError {
 }
 
 /** What the upload form sends next to the file. */
-export interface SiteUploadFields {
+interface SiteUploadFields {
   name: string;
   surfaceKind: SurfaceKind;
   /** Null: as the file's GeoKeys declare it. */

@@ -4,7 +4,7 @@ import { ApiError, apiErrorFrom, networkErrorStatus } from '../api/api-error';
 
 export type UploadProgress = { loadedBytes: number; totalBytes: number; fraction: number };
 
-export type UploadRequest<S extends z.ZodType> = {
+type UploadRequest<S extends z.ZodType> = {
   url: string;
   form: FormData;
   schema: S;

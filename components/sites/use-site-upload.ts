@@ -15,18 +15,18 @@ export const datumPresets = ['EGM96 geoid (EPSG:5773)', 'EGM2008 geoid (EPSG:385
 /** The datum value meaning "as the file's GeoKeys declare it" (sent as no datum; the server refuses when the file has none). */
 export const datumFromFile = 'from-file';
 
-export const siteUploadFormSchema = z.object({
+const siteUploadFormSchema = z.object({
   name: z.string().trim().min(2, 'Name the grid (at least 2 characters).').max(120, 'Keep the name under 120 characters.'),
   surfaceKind: z.enum(surfaceKinds, { error: 'Say whether the grid is bare earth or a surface model.' }),
   verticalDatum: z.string().trim().min(2, 'Say which vertical datum the heights refer to.').max(80, 'Keep the datum under 80 characters.'),
 });
-export type SiteUploadForm = z.infer<typeof siteUploadFormSchema>;
+type SiteUploadForm = z.infer<typeof siteUploadFormSchema>;
 
 /** Browsers report GeoTIFFs under several types, so the file name decides what the picker offers. */
 export const geotiffAccept = '.tif,.tiff,image/tiff,image/geotiff';
 
 /** The name a grid gets from its file name ("upper-field_2m.tif" -> "upper-field 2m"). */
-export function nameFromFile(fileName: string): string {
+function nameFromFile(fileName: string): string {
   return fileName.replace(/\.[^.]+$/, '').replace(/[_]+/g, ' ').trim().slice(0, 120);
 }
 

@@ -5,7 +5,7 @@ import type { Me, TeamSummary } from '../../contracts/teams';
 import { pickCurrentTeam } from './current-team';
 import { readRememberedTeam, rememberTeam } from './team-storage';
 
-export type CurrentTeamValue = {
+type CurrentTeamValue = {
   me: Me;
   team: TeamSummary | null;
   role: Role | null;

@@ -8,7 +8,7 @@ import { Badge, Button, ChoiceGroup, Text } from '../ui';
 
 const roleChoices = roles.map((role) => ({ value: role, label: roleLabels[role] }));
 
-export type MemberRowProps = {
+type MemberRowProps = {
   member: Member;
   isSelf: boolean;
   manage: boolean;

@@ -4,7 +4,7 @@ import { StyleSheet, View } from 'react-native';
 import { colors, layout, radii, space } from '../theme';
 import { Text, type TextTone } from './text';
 
-export type BannerTone = 'danger' | 'caution' | 'info' | 'success';
+type BannerTone = 'danger' | 'caution' | 'info' | 'success';
 
 const look: Record<BannerTone, { fill: string; edge: string; ink: TextTone }> = {
   danger: { fill: colors.dangerSoft, edge: colors.danger, ink: 'danger' },
@@ -13,7 +13,7 @@ const look: Record<BannerTone, { fill: string; edge: string; ink: TextTone }> = 
   success: { fill: colors.successSoft, edge: colors.success, ink: 'success' },
 };
 
-export type BannerProps = { tone: BannerTone; title?: string; message?: string; children?: ReactNode; testID?: string; nativeID?: string };
+type BannerProps = { tone: BannerTone; title?: string; message?: string; children?: ReactNode; testID?: string; nativeID?: string };
 
 /** Errors are announced at once (role "alert"); the other tones are polite status messages. */
 export function Banner({ tone, title, message, children, testID, nativeID }: BannerProps) {

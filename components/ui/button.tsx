@@ -6,7 +6,7 @@ import { Text, type TextTone } from './text';
 
 export type ButtonVariant = 'primary' | 'secondary' | 'danger' | 'quiet';
 
-export type ButtonProps = {
+type ButtonProps = {
   label: string;
   onPress?: () => void;
   variant?: ButtonVariant;

@@ -3,7 +3,7 @@ import type { ReactNode } from 'react';
 import { StyleSheet, View, type StyleProp, type ViewStyle } from 'react-native';
 import { colors, layout, radii, space } from '../theme';
 
-export type CardProps = { children: ReactNode; style?: StyleProp<ViewStyle>; testID?: string; padded?: boolean };
+type CardProps = { children: ReactNode; style?: StyleProp<ViewStyle>; testID?: string; padded?: boolean };
 
 /** A white panel with a hairline border; `padded={false}` for lists that draw their own row padding. */
 export function Card({ children, style, testID, padded = true }: CardProps) {

@@ -6,9 +6,9 @@ import { colors, layout, opacity, radii, space } from '../theme';
 import { showFocusRing } from './focus-modality';
 import { Text } from './text';
 
-export type Choice<T extends string> = { value: T; label: string };
+type Choice<T extends string> = { value: T; label: string };
 
-export type ChoiceGroupProps<T extends string> = {
+type ChoiceGroupProps<T extends string> = {
   /** Names the whole group for screen readers, e.g. "Role of Rhea Castellan". */
   label: string;
   choices: readonly Choice<T>[];

@@ -5,7 +5,7 @@ import { colors, layout, radii, space } from '../theme';
 import { Heading, Text } from './text';
 
 /** `level` 1 where the panel is the whole screen (no other main heading). */
-export type EmptyStateProps = { title: string; message?: string; action?: ReactNode; testID?: string; level?: 1 | 2 };
+type EmptyStateProps = { title: string; message?: string; action?: ReactNode; testID?: string; level?: 1 | 2 };
 
 /** A dashed panel with a title, one explaining sentence and an optional action. */
 export function EmptyState({ title, message, action, testID, level = 2 }: EmptyStateProps) {

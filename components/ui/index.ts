@@ -1,9 +1,9 @@
 /** UI atoms re-exported from one place. */
 export { Badge, type BadgeTone } from './badge';
-export { Banner, type BannerTone } from './banner';
+export { Banner } from './banner';
 export { Button, type ButtonVariant } from './button';
 export { Card } from './card';
-export { ChoiceGroup, type Choice } from './choice-group';
+export { ChoiceGroup } from './choice-group';
 export { EmptyState } from './empty-state';
 export { List } from './list';
 export { Loading } from './loading';

@@ -6,7 +6,7 @@ import { Pressable, type GestureResponderEvent, type PressableStateCallbackType,
 /** React Native Web adds hover and focus to the pressable state; native only has `pressed`. */
 export type WebPressState = PressableStateCallbackType & { hovered?: boolean; focused?: boolean };
 
-export type LinkPressableProps = {
+type LinkPressableProps = {
   href: Href & string;
   children: ReactNode;
   style: (state: WebPressState) => StyleProp<ViewStyle>;

@@ -5,7 +5,7 @@
 import { Children, type ReactNode } from 'react';
 import { View, type StyleProp, type ViewStyle } from 'react-native';
 
-export type ListProps = { label?: string; testID?: string; style?: StyleProp<ViewStyle>; itemStyle?: StyleProp<ViewStyle>; children: ReactNode };
+type ListProps = { label?: string; testID?: string; style?: StyleProp<ViewStyle>; itemStyle?: StyleProp<ViewStyle>; children: ReactNode };
 
 export function List({ label, testID, style, itemStyle, children }: ListProps) {
   return (

@@ -5,7 +5,7 @@ import { useBreakpoint } from '../layout/use-breakpoint';
 import { colors, layout, space } from '../theme';
 import { Heading, Text } from './text';
 
-export type ScreenProps = {
+type ScreenProps = {
   title?: string;
   subtitle?: string;
   /** Buttons beside the title (below it on phones). */
@@ -21,7 +21,7 @@ export type ScreenProps = {
 };
 
 /** Every screen names itself in the document title, so tabs, history and screen readers tell screens apart. */
-export function useDocumentTitle(name: string | undefined): void {
+function useDocumentTitle(name: string | undefined): void {
   useEffect(() => {
     if (Platform.OS === 'web' && name) document.title = `${name} · Loftline`;
   }, [name]);

@@ -17,7 +17,7 @@ const toneColor: Record<TextTone, string> = {
 };
 
 /** `ref` is an ordinary prop in React 19; `tabIndex` is react-native-web's (-1: focusable by script only). */
-export type TextProps = RNTextProps & { variant?: TypeVariant; tone?: TextTone; ref?: Ref<RNText>; tabIndex?: 0 | -1 };
+type TextProps = RNTextProps & { variant?: TypeVariant; tone?: TextTone; ref?: Ref<RNText>; tabIndex?: 0 | -1 };
 
 /** Text in a theme variant and tone; extra styles come last so layouts can add margins. */
 export function Text({ variant = 'body', tone = 'default', style, ...rest }: TextProps) {

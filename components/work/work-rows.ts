@@ -25,12 +25,12 @@ const verbs: Record<WorkKind, string> = {
 };
 
 /** Flights open the leg sheet; everything else opens the version's screen (results, report, review panel). */
-export function hrefOf(kind: WorkKind, item: WorkItem): string {
+function hrefOf(kind: WorkKind, item: WorkItem): string {
   if (kind === 'flight') return `/flights/${item.versionId}`;
   return `/projects/${item.projectId}/plans/${item.planId}/versions/${item.versionId}`;
 }
 
-export function workRowOf(kind: WorkKind, item: WorkItem): WorkRow {
+function workRowOf(kind: WorkKind, item: WorkItem): WorkRow {
   return {
     key: item.versionId,
     href: hrefOf(kind, item),

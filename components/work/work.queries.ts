@@ -5,7 +5,7 @@ import { apiFetch } from '../api/api-fetch';
 import { apiPaths } from '../../contracts/api-paths';
 
 /** Query keys for work lists, per team (review changes invalidate the whole team prefix). */
-export const workKeys = {
+const workKeys = {
   all: ['work'] as const,
   team: (teamId: string) => [...workKeys.all, teamId] as const,
 };

@@ -44,7 +44,7 @@ function rehashedName(name: string, content: string): string {
   return name.replace(/-[0-9a-f]{32}\.js$/, `-${hash}.js`);
 }
 
-export interface FoldResult {
+interface FoldResult {
   /** Bytes (uncompressed) the first screen no longer loads; 0 when the build had no shared chunk. */
   commonBytes: number;
   /** The screen-group files that received the shared modules, by their new names. */

@@ -22,7 +22,7 @@ const sources: Record<string, string> = {
 };
 
 /** Printable ASCII, Latin-1 (names of people and places), and the symbols the screens print. */
-export const fontCharacters = (() => {
+const fontCharacters = (() => {
   let s = '';
   for (let c = 0x20; c <= 0x7e; c++) s += String.fromCharCode(c);
   for (let c = 0xa0; c <= 0x17f; c++) s += String.fromCharCode(c);

@@ -12,7 +12,7 @@ import { sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { jobsDbOf, type Jobs } from '../jobs/jobs.service';
 
-export interface SupervisorOptions {
+interface SupervisorOptions {
   /** A running analysis with no heartbeat for this long is taken as lost. */
   staleSeconds: number;
   /** How often to look. */

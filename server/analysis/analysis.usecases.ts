@@ -16,12 +16,12 @@ import { coverageKeys } from '../coverage/coverage-keys';
 import type { CoverageMeasure } from '../../terrain/coverage-measures';
 
 /** What one attempt ended with. */
-export type AnalysisOutcome = 'done' | 'failed' | 'skipped';
+type AnalysisOutcome = 'done' | 'failed' | 'skipped';
 
 /** A failure that no retry can mend (bad input, missing grid): the version is marked failed at once. */
 class FinalAnalysisError extends Error {}
 
-export interface AttemptInfo {
+interface AttemptInfo {
   /** 1 for the first attempt. */
   attempt: number;
   /** No retry follows this attempt: a failure marks the version failed. */
@@ -180,5 +180,3 @@ export function createAnalysisUsecases(deps: { db: Db; storage: Storage; terrain
     },
   };
 }
-
-export type AnalysisUsecases = ReturnType<typeof createAnalysisUsecases>;

@@ -7,7 +7,7 @@ import { createAnalysisUsecases } from './analysis.usecases';
 import type { TerrainRunner } from './terrain-pool';
 
 /** What the workers use of the process's services. */
-export interface AnalysisWorkerDeps {
+interface AnalysisWorkerDeps {
   db: Db;
   storage: Storage;
   terrain: TerrainRunner;

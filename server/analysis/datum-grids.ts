@@ -10,7 +10,7 @@ import { datumGridFiles } from '../../terrain/epsg-table';
 import { registerDatumGrid, registeredDatumGrids } from '../../terrain/crs';
 
 /** Where the grids are read from when nothing is configured (Debian proj-data). */
-export const DEFAULT_DATUM_GRID_DIR = '/usr/share/proj';
+const DEFAULT_DATUM_GRID_DIR = '/usr/share/proj';
 
 /** Load every grid the table names from `dir`; returns the names loaded and those not found there. */
 export function loadDatumGrids(dir: string = process.env.DATUM_GRID_DIR || DEFAULT_DATUM_GRID_DIR): { loaded: string[]; missing: string[] } {

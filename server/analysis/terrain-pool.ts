@@ -25,7 +25,7 @@ export type ThreadTask =
   | { id: number; kind: 'live-coverage'; bytes: Uint8Array; mission: unknown; plan: PlanResult; photos: FlownPhoto[] };
 
 /** A grid as a terrain thread gets it. */
-export type ThreadGrid = Uint8Array | { path: string } | { remote: { byteLength: number } };
+type ThreadGrid = Uint8Array | { path: string } | { remote: { byteLength: number } };
 
 export type ThreadReply =
   | { id: number; progress: number }
@@ -34,7 +34,7 @@ export type ThreadReply =
   | { id: number; ok: false; error: { name: string; code?: string; message: string; stack?: string } };
 
 /** Options of an upload's inspection: preview size, pixel limit, and a time limit for this task alone. */
-export interface InspectOptions {
+interface InspectOptions {
   maxSizePx?: number;
   maxPixels?: number;
   timeoutMs?: number;

@@ -35,7 +35,7 @@ export function isRangeSource(f: unknown): f is ByteRangeSource {
  * Run `fn` over a range source of `grid`: a local file is opened once and read block by block through its handle,
  * so an analysis holds the header and the blocks of its window, never the whole file.
  */
-export async function withDemSource<T>(grid: DemFile, fn: (src: Uint8Array | ByteRangeSource) => Promise<T>): Promise<T> {
+async function withDemSource<T>(grid: DemFile, fn: (src: Uint8Array | ByteRangeSource) => Promise<T>): Promise<T> {
   if (grid instanceof Uint8Array || isRangeSource(grid)) return fn(grid);
   const handle = await fsp.open(grid.path, 'r');
   try {
@@ -61,7 +61,7 @@ export async function withDemSource<T>(grid: DemFile, fn: (src: Uint8Array | Byt
 }
 
 /** Largest analysis window (2^28 pixels = 1 GiB of float32); whole uploads are bounded by DEM_MAX_PIXELS. */
-export const MAX_DEM_PIXELS = 2 ** 28;
+const MAX_DEM_PIXELS = 2 ** 28;
 
 /**
  * node:zlib's inflate (about 4x faster than geotiff.js's), never producing more than the block's declared size:

@@ -21,7 +21,7 @@ export const registerAsFlownRoutes: RouteGroup = (api: Router, { guards, service
 
   async function versionOf(teamId: string, role: Parameters<typeof versions.find>[0]['role'], versionId: string) {
     const v = await versions.find({ teamId, role, versionId });
-    if (!v) throw errors.notFound('Flight');
+    if (!v) throw errors.not_found('Flight');
     return v;
   }
 
@@ -46,7 +46,7 @@ export const registerAsFlownRoutes: RouteGroup = (api: Router, { guards, service
     const { teamId, role } = requireTeam(req);
     const v = await versionOf(teamId, role, String(req.params.versionId));
     const check = await repo.find(teamId, v.id, String(req.params.checkId));
-    if (!check) throw errors.notFound('As-flown check');
+    if (!check) throw errors.not_found('As-flown check');
     // a check never changes once written
     res.setHeader('Cache-Control', 'private, max-age=3600');
     sendJson(res, asFlownCheckSchema, check);

@@ -9,11 +9,12 @@ import type { Db } from '../../db/client';
 import { site } from '../../db/schema';
 import { TerrainError } from '../../terrain/errors';
 import { TerrainTimeoutError, type TerrainRunner } from '../analysis/terrain-pool';
-import { AppError } from '../http/errors';
 import { requireAnalysed } from '../versions/result-view';
 import type { VersionRecord } from '../versions/versions.repository';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 import type { createAsFlownRepository } from './as-flown.repository';
+import { terrainRefusal } from '../http/terrain.errors';
+import { asFlownErrors } from './as-flown.errors';
 
 export function createAsFlownUsecases(deps: { db: Db; storage: Storage; terrain: TerrainRunner; repo: ReturnType<typeof createAsFlownRepository> }) {
   const { db, storage, terrain, repo } = deps;
@@ -22,20 +23,20 @@ export function createAsFlownUsecases(deps: { db: Db; storage: Storage; terrain:
     async check(v: VersionRecord, userId: string, input: NewAsFlownCheck): Promise<string> {
       requireAnalysed(v);
       const [s] = await db.select({ storageKey: site.storageKey, verticalDatum: site.verticalDatum }).from(site).where(and(eq(site.id, v.siteId), eq(site.teamId, v.teamId))).limit(1);
-      if (!s) throw new AppError(409, 'site_missing', 'The elevation grid of this version is gone; the photos cannot be checked against it.');
+      if (!s) throw asFlownErrors.site_missing(false);
       let bytes: Buffer;
       try {
         bytes = await storage.getBytes(s.storageKey);
       } catch (err) {
-        if (err instanceof StorageNotFoundError) throw new AppError(409, 'site_missing', 'The stored elevation grid file of this version is missing; upload it again to check photos against it.');
+        if (err instanceof StorageNotFoundError) throw asFlownErrors.site_missing(true);
         throw err;
       }
       let raw;
       try {
         raw = await terrain.asFlown(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), v.input, input.photos, { siteVerticalDatum: s.verticalDatum });
       } catch (err) {
-        if (err instanceof TerrainError) throw new AppError(422, err.code, `The photos cannot be checked: ${err.message}`, [{ path: 'photos', message: err.message }]);
-        if (err instanceof TerrainTimeoutError) throw new AppError(503, 'check_timeout', `${err.message} Check fewer photos at a time (one flight per check), or try again when the server is less busy.`);
+        if (err instanceof TerrainError) throw terrainRefusal(err, 'photos', `The photos cannot be checked: ${err.message}`);
+        if (err instanceof TerrainTimeoutError) throw asFlownErrors.check_timeout(err.message);
         throw err;
       }
       const parsed = asFlownDocSchema.safeParse({ ...raw, cautions: [...generalCautions] });

@@ -8,7 +8,9 @@
  *   or sockets cannot try one account's password without bound.
  */
 import { toNodeHandler } from 'better-auth/node';
+import type { AppError } from '../http/errors';
 import type { Auth } from './auth';
+import { authErrors } from './auth.errors';
 
 const closedPrefix = '/api/auth/organization';
 
@@ -60,8 +62,8 @@ async function stripTokens(res: Response): Promise<Response> {
   return new Response(JSON.stringify(withoutTokens(body)), { status: res.status, statusText: res.statusText, headers });
 }
 
-const jsonError = (status: number, code: string, message: string, extra: Record<string, string> = {}) =>
-  new Response(JSON.stringify({ code, message }), { status, headers: { 'content-type': 'application/json', ...extra } });
+const jsonError = (e: AppError, extra: Record<string, string> = {}) =>
+  new Response(JSON.stringify({ code: e.code, message: e.message }), { status: e.status, headers: { 'content-type': 'application/json', ...extra } });
 
 /** The Node handler to mount on /api/auth/{*any}. */
 export function authHttpHandler(auth: Auth, opts: { failuresPerAccount: number; windowS: number }) {
@@ -69,7 +71,7 @@ export function authHttpHandler(auth: Auth, opts: { failuresPerAccount: number; 
   return toNodeHandler(async (request: Request) => {
     const url = new URL(request.url);
     if (url.pathname === closedPrefix || url.pathname.startsWith(`${closedPrefix}/`)) {
-      return jsonError(404, 'NOT_FOUND', 'Teams, members and invitations are managed through /api/teams.');
+      return jsonError(authErrors.NOT_FOUND());
     }
     let account: string | null = null;
     if (request.method === 'POST' && url.pathname === '/api/auth/sign-in/email') {
@@ -80,7 +82,7 @@ export function authHttpHandler(auth: Auth, opts: { failuresPerAccount: number; 
       if (typeof body?.email === 'string') account = body.email.trim().toLowerCase();
       const wait = account ? failures.blockedFor(account) : null;
       if (wait !== null) {
-        return jsonError(429, 'TOO_MANY_REQUESTS', `Too many failed sign-ins for this account; try again in ${wait} s.`, { 'retry-after': String(wait) });
+        return jsonError(authErrors.TOO_MANY_REQUESTS(wait), { 'retry-after': String(wait) });
       }
     }
     const res = await auth.handler(request);

@@ -8,7 +8,7 @@ import type { Config } from '../config';
 import { trustedOriginsOf } from '../http/origin';
 import { ac, acRoles } from './access';
 
-export interface AuthHooks {
+interface AuthHooks {
   /** Called when someone tries to sign up with an address that already has an account (no hint is given to them). */
   onExistingSignUp?: (user: { email: string; name: string }) => Promise<void>;
 }

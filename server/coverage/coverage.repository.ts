@@ -18,5 +18,3 @@ export function createCoverageRepository(deps: { db: Db }) {
     },
   };
 }
-
-export type CoverageRepository = ReturnType<typeof createCoverageRepository>;

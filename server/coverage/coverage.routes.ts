@@ -7,7 +7,8 @@ import type { Request, Response, Router } from 'express';
 import { z } from 'zod';
 import { coverageCellSchema, coverageMeasureSchema, storedCoverageSchema, versionCoverageSchema, type VersionCoverage } from '../../contracts/coverage';
 import { coverageMeasures } from '../../terrain/coverage-measures';
-import { AppError, errors } from '../http/errors';
+import { errors } from '../http/errors';
+import { coverageErrors } from './coverage.errors';
 import { requireTeam } from '../http/guard';
 import { idParam } from '../http/ids';
 import { parseInput, sendJson } from '../http/validate';
@@ -33,7 +34,7 @@ export const registerCoverageRoutes: RouteGroup = (api: Router, { guards, servic
     const planId = idParam(req, 'planId', 'Plan');
     const versionId = idParam(req, 'versionId', 'Version');
     const v = await repo.find(teamId, planId, versionId);
-    if (!v) throw errors.notFound('Version');
+    if (!v) throw errors.not_found('Version');
     const stored = v.coverage === null ? null : storedCoverageSchema.parse(v.coverage);
     return { teamId, planId, versionId, v, stored, base: `/api/teams/${teamId}/plans/${planId}/versions/${versionId}` };
   }
@@ -41,7 +42,7 @@ export const registerCoverageRoutes: RouteGroup = (api: Router, { guards, servic
   /** The ready coverage of the version, or 409 saying why there is none. */
   async function readyOf(req: Request) {
     const found = await versionOf(req);
-    if (found.stored?.state !== 'ready') throw new AppError(409, 'coverage_unavailable', noneReason(found.v.analysisState, found.stored));
+    if (found.stored?.state !== 'ready') throw coverageErrors.coverage_unavailable(noneReason(found.v.analysisState, found.stored));
     return { ...found, stored: found.stored };
   }
 
@@ -50,7 +51,7 @@ export const registerCoverageRoutes: RouteGroup = (api: Router, { guards, servic
     try {
       stream = await storage().getStream(key);
     } catch (err) {
-      if (err instanceof StorageNotFoundError) throw errors.notFound('The stored coverage file');
+      if (err instanceof StorageNotFoundError) throw errors.not_found('The stored coverage file');
       throw err;
     }
     res.setHeader('Content-Type', type);
@@ -87,7 +88,7 @@ export const registerCoverageRoutes: RouteGroup = (api: Router, { guards, servic
 
   api.get(`${oneVersion}/coverage-layers/:measure.png`, guards.permission('plan:read'), async (req, res) => {
     const measure = coverageMeasureSchema.safeParse(String(req.params.measure));
-    if (!measure.success) throw errors.notFound(`The coverage layer (one of ${coverageMeasures.join(', ')})`);
+    if (!measure.success) throw errors.not_found(`The coverage layer (one of ${coverageMeasures.join(', ')})`);
     const { teamId, versionId } = await readyOf(req);
     await sendObject(res, coverageKeys.layer(teamId, versionId, measure.data), 'image/png');
   });

@@ -26,7 +26,7 @@ export const registerExportRoutes: RouteGroup = (api: Router, { guards, services
     api.get(`/teams/:teamId/plans/:planId/versions/:versionId/export.${format}`, guards.permission('flight:read'), async (req, res) => {
       const { teamId, role } = requireTeam(req);
       const v = await versions.find({ teamId, role, planId: String(req.params.planId), versionId: String(req.params.versionId) });
-      if (!v) throw errors.notFound('Plan version');
+      if (!v) throw errors.not_found('Plan version');
       requireAnalysed(v);
       const ctx = exportContext(v);
       const media = exportMedia[format];

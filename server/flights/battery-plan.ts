@@ -14,7 +14,7 @@ export interface BatteryLine {
   toTakeoffM: number;
 }
 
-export interface BatteryOptions {
+interface BatteryOptions {
   enduranceMin: number;
   /** Fraction of each battery kept in reserve (0.25 = land with a quarter left). */
   reserve: number;

@@ -28,11 +28,11 @@ export const registerFlightRoutes: RouteGroup = (api: Router, { guards, services
     const { teamId, role } = requireTeam(req);
     const q = { teamId, versionId: String(req.params.versionId), role };
     const stamp = await versions.stamp(q);
-    if (!stamp) throw errors.notFound('Flight');
+    if (!stamp) throw errors.not_found('Flight');
     // Sheets change only with the version (the stamp); a short private cache lets a phone keep it when the network drops.
     await bodyCache.send(req, res, `leg-sheet:${stamp}`, async () => {
       const v = await versions.find(q);
-      if (!v) throw errors.notFound('Flight');
+      if (!v) throw errors.not_found('Flight');
       requireAnalysed(v);
       return legSheetSchema.parse(buildLegSheet(v));
     }, 'private, max-age=300');

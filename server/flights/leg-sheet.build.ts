@@ -9,7 +9,7 @@ import type { VersionRecord } from '../versions/versions.repository';
 import { planBatteries } from './battery-plan';
 
 /** A leg as the pilot reads it; time at the cruise speed over the leg's horizontal length. */
-export function sheetLeg(leg: LegView, number: number, speedMps: number): SheetLeg {
+function sheetLeg(leg: LegView, number: number, speedMps: number): SheetLeg {
   const lengthM = Math.abs(leg.end.distanceM - leg.start.distanceM);
   const rise = leg.altitudeEndM - leg.altitudeStartM;
   return {

@@ -3,7 +3,8 @@ import { sql } from 'drizzle-orm';
 import type { Router } from 'express';
 import { healthSchema } from '../../contracts/teams';
 import type { Db } from '../../db/client';
-import { AppError, DATABASE_RETRY_AFTER_S } from '../http/errors';
+import { DATABASE_RETRY_AFTER_S } from '../http/errors';
+import { healthErrors } from './health.errors';
 import type { Guards } from '../http/guard';
 import { sendJson } from '../http/validate';
 
@@ -13,7 +14,7 @@ export function registerHealthRoutes(api: Router, deps: { guards: Guards; db: Db
       await deps.db.execute(sql`select 1`);
     } catch {
       res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_S));
-      throw new AppError(503, 'db_down', 'The database is not answering.');
+      throw healthErrors.db_down();
     }
     sendJson(res, healthSchema, { ok: true, db: 'up' });
   });

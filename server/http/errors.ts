@@ -15,24 +15,65 @@ export class AppError extends Error {
   }
 }
 
-export const errors = {
-  unauthenticated: () => new AppError(401, 'unauthenticated', 'Sign in to continue.'),
-  forbidden: (what = 'do this') => new AppError(403, 'forbidden', `Your role in this team does not allow you to ${what}.`),
-  notFound: (what = 'That item') => new AppError(404, 'not_found', `${what} was not found.`),
-  conflict: (message: string) => new AppError(409, 'conflict', message),
-  invalid: (message: string, fields?: { path: string; message: string }[]) => new AppError(422, 'invalid', message, fields),
+/** Field problems of a 422: dotted path -> message. */
+export type FieldProblem = { path: string; message: string };
+
+/**
+ * One declared error: its HTTP status and the template of its message (the template's parameters are what a
+ * thrower passes); `fields` gives a 422's field problems from the same parameters.
+ */
+export interface ErrorDeclaration<A extends unknown[] = never[]> {
+  status: number;
+  message: (...args: A) => string;
+  fields?: (...args: A) => FieldProblem[] | undefined;
+}
+
+// `any[]`, not `unknown[]`: a declaration's own parameter list must fit where the table is typed
+type AnyDeclaration = ErrorDeclaration<any[]>;
+
+/** One factory per declared code: call it with the template's parameters to get the AppError to throw. */
+type ErrorFactories<T extends Record<string, AnyDeclaration>> = {
+  readonly [K in keyof T]: (...args: Parameters<T[K]['message']>) => AppError;
 };
+
+/**
+ * A domain's error codes as data: code -> status and message template. Each code is declared once in server/
+ * (tests/architecture/error-codes.test.ts checks it, and that every declared code is used), so the same code
+ * always answers with the same status.
+ */
+export function defineErrors<T extends Record<string, AnyDeclaration>>(_domain: string, table: T): ErrorFactories<T> {
+  const out: Record<string, (...args: unknown[]) => AppError> = {};
+  for (const [code, d] of Object.entries(table)) out[code] = (...args) => new AppError(d.status, code, d.message(...args), d.fields?.(...args));
+  return out as ErrorFactories<T>;
+}
+
+/** The codes any route may answer with: sign-in, roles, missing things, bad requests and server trouble. */
+export const errors = defineErrors('http', {
+  unauthenticated: { status: 401, message: () => 'Sign in to continue.' },
+  forbidden: { status: 403, message: (what = 'do this') => `Your role in this team does not allow you to ${what}.` },
+  cross_origin: { status: 403, message: (why: string) => `${why} Loftline accepts changes only from its own pages; open Loftline at its own address and try again.` },
+  /** `what` was not found; `sentence` replaces the whole message where a bare "not found" would not say why. */
+  not_found: { status: 404, message: (what = 'That item', sentence?: string) => sentence ?? `${what} was not found.` },
+  invalid: { status: 422, message: (message: string, _fields?: FieldProblem[]) => message, fields: (_message: string, fields?: FieldProblem[]) => fields },
+  malformed_json: { status: 400, message: () => 'The request body is not valid JSON.' },
+  /** Any other client error express reports (see the middleware: it keeps the library's 4xx status). */
+  bad_request: { status: 400, message: (message: string) => message },
+  too_large: { status: 413, message: (message = 'The request body is too large.') => message },
+  unsupported_media_type: { status: 415, message: (message = 'Send the request body as JSON (Content-Type: application/json).') => message },
+  db_unavailable: { status: 503, message: (retryAfterS: number) => `The database is not answering; nothing was changed. Try again in ${retryAfterS} seconds.` },
+  internal: { status: 500, message: () => 'Something went wrong on the server. Nothing you saved was lost; try again.' },
+});
 
 /** Field-by-field 422 from a zod failure. */
 export function fromZod(err: ZodError): AppError {
   const fields = err.issues.map((i) => ({ path: i.path.join('.') || '(body)', message: i.message }));
   const first = fields[0];
-  return new AppError(422, 'invalid', first ? `${first.path}: ${first.message}` : 'The request is not valid.', fields);
+  return errors.invalid(first ? `${first.path}: ${first.message}` : 'The request is not valid.', fields);
 }
 
 /** 404 for any /api path no route answered. */
 export const apiNotFound: RequestHandler = (req) => {
-  throw new AppError(404, 'not_found', `No API route ${req.method} ${req.path}.`);
+  throw errors.not_found(undefined, `No API route ${req.method} ${req.path}.`);
 };
 
 /** node-postgres errors, wherever Drizzle wrapped them (DrizzleQueryError keeps the driver's error as `cause`). */
@@ -50,7 +91,7 @@ function pgErrorOf(err: unknown): { code?: string; message?: string } | null {
  * SQLSTATE classes 08 (connection exception) and 57P (operator intervention), and the socket errors of a
  * server that is not listening.
  */
-export function isDatabaseUnavailable(err: unknown): boolean {
+function isDatabaseUnavailable(err: unknown): boolean {
   const pgErr = pgErrorOf(err);
   if (!pgErr) return false;
   const { code = '', message = '' } = pgErr;
@@ -67,21 +108,24 @@ export function errorMiddleware(log: (err: unknown) => void = console.error): Er
     let e: AppError;
     if (err instanceof AppError) e = err;
     else if (err instanceof ZodError) e = fromZod(err);
-    else if (err?.type === 'entity.parse.failed') e = new AppError(400, 'malformed_json', 'The request body is not valid JSON.');
-    else if (err?.type === 'entity.too.large') e = new AppError(413, 'too_large', 'The request body is too large.');
-    else if (err?.code === 'LIMIT_FILE_SIZE') e = new AppError(413, 'too_large', err.message ?? 'The file is too large.');
+    else if (err?.type === 'entity.parse.failed') e = errors.malformed_json();
+    else if (err?.type === 'entity.too.large') e = errors.too_large();
+    else if (err?.code === 'LIMIT_FILE_SIZE') e = errors.too_large(err.message ?? 'The file is too large.');
     else if (typeof err?.status === 'number' && err.status >= 400 && err.status < 500 && err.expose) {
-      e = new AppError(err.status, 'bad_request', String(err.message));
+      // express's other client errors: declared as 400, but one the library answers with another 4xx (415 for
+      // an unknown charset, say) keeps that status, as it always has
+      const declared = errors.bad_request(String(err.message));
+      e = err.status === declared.status ? declared : new AppError(err.status, declared.code, declared.message);
     } else if (isDatabaseUnavailable(err)) {
       // nothing to fix in the request: the pool reconnects on its own once the database is back
       res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_S));
-      e = new AppError(503, 'db_unavailable', `The database is not answering; nothing was changed. Try again in ${DATABASE_RETRY_AFTER_S} seconds.`);
+      e = errors.db_unavailable(DATABASE_RETRY_AFTER_S);
     } else if (['22021', '22P05'].includes(pgErrorOf(err)?.code ?? '')) {
       // a NUL or an invalid byte sequence that got past the text checks: the text is at fault, not the server
-      e = new AppError(422, 'invalid', 'The request holds a character the database cannot store (such as NUL, U+0000); remove it and send again.');
+      e = errors.invalid('The request holds a character the database cannot store (such as NUL, U+0000); remove it and send again.');
     } else {
       log(err);
-      e = new AppError(500, 'internal', 'Something went wrong on the server. Nothing you saved was lost; try again.');
+      e = errors.internal();
     }
     const body: ApiErrorBody = { error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}) } };
     if (res.headersSent) return;

@@ -11,12 +11,12 @@ import { createSessionCache, sessionTokenOf, type SessionCache } from './session
 import { membershipCacheOf, type MembershipCache } from './membership-cache';
 import type { RequestAuth } from './request-auth';
 
-export type { RequestAuth, SessionUser } from './request-auth';
+export type { SessionUser } from './request-auth';
 
 /** What a guard demands: only a session, or a permission within the team named by `:teamId`. */
 export type GuardMeta = { kind: 'public' } | { kind: 'session' } | { kind: 'permission'; permission: Permission };
 
-export const guardMetaKey = Symbol.for('loftline.guard');
+const guardMetaKey = Symbol.for('loftline.guard');
 
 declare module 'express-serve-static-core' {
   interface Request {
@@ -143,7 +143,7 @@ export function createGuards(deps: { auth: Auth; db: Db; sessions?: SessionCache
         const teamId = String(req.params.teamId ?? '');
         if (!teamId) throw new Error(`permission guard '${permission}' on a route without :teamId`);
         const role = await roleIn(a.user.id, teamId);
-        if (!role) throw errors.notFound('Team');
+        if (!role) throw errors.not_found('Team');
         if (!can(role, permission)) throw errors.forbidden(describe(permission));
         req.auth = { ...a, teamId, role };
         next();

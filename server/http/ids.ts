@@ -12,6 +12,6 @@ export function isUuid(s: unknown): s is string {
 /** The UUID in `req.params[name]`, or a 404 naming `what`. */
 export function idParam(req: Request, name: string, what: string): string {
   const v = req.params[name];
-  if (!isUuid(v)) throw errors.notFound(what);
+  if (!isUuid(v)) throw errors.not_found(what);
   return v;
 }

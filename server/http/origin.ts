@@ -6,7 +6,7 @@
  * standard headers" defence of the OWASP Cross-Site Request Forgery Prevention Cheat Sheet.
  */
 import type { RequestHandler } from 'express';
-import { AppError } from './errors';
+import { errors } from './errors';
 
 const stateChanging = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
@@ -27,8 +27,7 @@ function originOfUrl(url: string): string | null {
   }
 }
 
-const refused = (why: string) =>
-  new AppError(403, 'cross_origin', `${why} Loftline accepts changes only from its own pages; open Loftline at its own address and try again.`);
+const refused = (why: string) => errors.cross_origin(why);
 
 /** Middleware: 403 for a state-changing request from another site (or of unknown origin while carrying a cookie). */
 export function requireSameOrigin(trusted: string[]): RequestHandler {

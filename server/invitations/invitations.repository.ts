@@ -11,7 +11,7 @@ import { changingMembers } from '../http/membership-cache';
 import { jobsDbOf, type JobsDb } from '../jobs/jobs.service';
 
 /** A new unguessable token (192 bits). */
-export function newInvitationToken(): string {
+function newInvitationToken(): string {
   return crypto.randomBytes(24).toString('base64url');
 }
 
@@ -122,5 +122,3 @@ export function createInvitationsRepository({ db }: { db: Db }) {
     },
   };
 }
-
-export type InvitationsRepository = ReturnType<typeof createInvitationsRepository>;

@@ -14,7 +14,8 @@ import {
 } from '../../contracts/invitations';
 import { roleLabels, roleSchema } from '../../contracts/roles';
 import { errorForLog } from '../http/error-log';
-import { AppError, errors } from '../http/errors';
+import { errors, type AppError } from '../http/errors';
+import { invitationErrors } from './invitations.errors';
 import { requireAuth, requireTeam } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { invitationMail, links } from '../mail/templates';
@@ -23,21 +24,19 @@ import { createReviewsRepository } from '../reviews/reviews.repository';
 import { createInvitationsRepository, type AcceptOutcome } from './invitations.repository';
 
 /** Our status of a stored row: better-auth's 'canceled'/'rejected' read as revoked; pending past its date as expired. */
-export function statusOf(row: { status: string; expiresAt: Date }, now: Date): InvitationStatus {
+function statusOf(row: { status: string; expiresAt: Date }, now: Date): InvitationStatus {
   if (row.status === 'accepted') return 'accepted';
   if (row.status !== 'pending') return 'revoked';
   return row.expiresAt.getTime() <= now.getTime() ? 'expired' : 'pending';
 }
 
 const refusals: Record<Exclude<AcceptOutcome, { ok: true }>['reason'], (role?: string) => AppError> = {
-  not_found: () => errors.notFound('Invitation'),
-  other_address: () =>
-    new AppError(403, 'invitation_other_address', 'This invitation was sent to another e-mail address. Sign in with the address it was sent to.'),
-  used: () => new AppError(409, 'invitation_used', 'This invitation has already been used. Ask the team owner for a new one if you need it.'),
-  revoked: () => new AppError(410, 'invitation_revoked', 'This invitation was revoked by the team owner.'),
-  expired: () => new AppError(410, 'invitation_expired', 'This invitation has expired. Ask the team owner to send a new one.'),
-  already_member: (role) =>
-    new AppError(409, 'already_member', `You are already a member of this team${role ? ` (as ${roleLabels[roleSchema.parse(role)]})` : ''}; ask the owner to change your role instead.`),
+  not_found: () => errors.not_found('Invitation'),
+  other_address: () => invitationErrors.invitation_other_address(),
+  used: () => invitationErrors.invitation_used(),
+  revoked: () => invitationErrors.invitation_revoked(),
+  expired: () => invitationErrors.invitation_expired(),
+  already_member: (role) => invitationErrors.already_member('you', role ? roleLabels[roleSchema.parse(role)] : undefined),
 };
 
 /** Route group: invitations. */
@@ -72,10 +71,10 @@ export const registerInvitationRoutes: RouteGroup = (api: Router, { guards, serv
     const body = parseInput(createInvitationSchema, req.body);
     const now = new Date();
     const role = await invitations.memberRole(teamId, body.email);
-    if (role) throw new AppError(409, 'already_member', `${body.email} is already a member of this team (as ${roleLabels[roleSchema.parse(role)]}).`);
+    if (role) throw invitationErrors.already_member(body.email, roleLabels[roleSchema.parse(role)]);
     const open = await invitations.openInvitation(teamId, body.email, now);
     if (open) {
-      throw new AppError(409, 'already_invited', `${body.email} already has a pending invitation (until ${open.expiresAt.toISOString().slice(0, 10)}); revoke it to send a new one.`);
+      throw invitationErrors.already_invited(body.email, open.expiresAt.toISOString().slice(0, 10));
     }
     const expiresAt = new Date(now.getTime() + days * 24 * 3600 * 1000);
     const mailer = services.mail;
@@ -94,7 +93,7 @@ export const registerInvitationRoutes: RouteGroup = (api: Router, { guards, serv
       .catch((err: unknown) => {
         if (queueFailure !== err) throw err;
         console.error(`loftline: queueing an invitation mail failed: ${errorForLog(err)}`); // no query values (the address) in the log
-        throw new AppError(503, 'mail_queue_unavailable', 'The invitation e-mail could not be queued, so the invitation was not made. Nothing was saved: try again in a moment.');
+        throw invitationErrors.mail_queue_unavailable();
       });
     const notification =
       mailer.mode === 'off'
@@ -106,17 +105,17 @@ export const registerInvitationRoutes: RouteGroup = (api: Router, { guards, serv
   api.delete('/teams/:teamId/invitations/:invitationId', guards.permission('invitation:manage'), async (req, res) => {
     const { teamId, user } = requireTeam(req);
     const row = await invitations.revoke({ teamId, id: String(req.params.invitationId), actorId: user.id });
-    if (!row) throw errors.notFound('Invitation');
+    if (!row) throw errors.not_found('Invitation');
     const now = new Date();
     const was = statusOf(row, now);
-    if (was !== 'pending') throw new AppError(409, 'invitation_not_pending', `This invitation is ${was}; only a pending invitation can be revoked.`);
+    if (was !== 'pending') throw invitationErrors.invitation_not_pending(was);
     sendJson(res, invitationSchema, view({ ...row, status: 'canceled', invitedBy: null }, now));
   });
 
   api.get('/invitations/:token', guards.session(), async (req, res) => {
     const { user } = requireAuth(req);
     const row = await invitations.byToken(String(req.params.token));
-    if (!row) throw errors.notFound('Invitation');
+    if (!row) throw errors.not_found('Invitation');
     // Only the invited address learns which team and role the link offers.
     if (row.email.toLowerCase() !== user.email.toLowerCase()) throw refusals.other_address();
     sendJson(res, invitationPreviewSchema, {

@@ -13,7 +13,7 @@ import { devMail } from '../../db/schema';
 export const teamHeader = 'x-loftline-team';
 
 /** One message as the fake server received it, attachments included byte for byte. */
-export interface ReceivedMail {
+interface ReceivedMail {
   id: string;
   teamId: string | null;
   /** Envelope recipients (what the server was asked to deliver to). */

@@ -20,7 +20,7 @@ const mailKindWords: Record<string, string> = {
   invitation: 'Invitation',
 };
 
-export type MailMode = 'smtp' | 'fake' | 'off';
+type MailMode = 'smtp' | 'fake' | 'off';
 
 /** A message ready to send. */
 export interface OutgoingMail {
@@ -31,7 +31,7 @@ export interface OutgoingMail {
 }
 
 /** Where the outcome of a send is recorded. */
-export interface MailContext {
+interface MailContext {
   /** What the mail is about, e.g. 'review.signed_off' or 'invitation'. */
   kind: string;
   teamId: string;
@@ -67,7 +67,7 @@ export interface Mailer {
 }
 
 /** Choose the mode from the configuration: a host means real SMTP; otherwise the fake, unless DEV_OUTBOX=0. */
-export function mailModeOf(config: Config): MailMode {
+function mailModeOf(config: Config): MailMode {
   if (config.env.SMTP_HOST) return 'smtp';
   return config.env.DEV_OUTBOX === false ? 'off' : 'fake';
 }

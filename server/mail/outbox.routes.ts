@@ -3,7 +3,7 @@ import { desc, eq } from 'drizzle-orm';
 import type { Router } from 'express';
 import { outboxSchema } from '../../contracts/outbox';
 import { devMail } from '../../db/schema';
-import { AppError } from '../http/errors';
+import { errors } from '../http/errors';
 import { requireTeam } from '../http/guard';
 import { sendJson } from '../http/validate';
 import type { RouteGroup } from '../route-group';
@@ -15,7 +15,7 @@ export const registerOutboxRoutes: RouteGroup = (api: Router, { guards, services
   api.get('/teams/:teamId/dev/outbox', guards.permission('outbox:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
     if (services.mail.mode !== 'fake') {
-      throw new AppError(404, 'not_found', 'The development outbox is off: this server sends mail through SMTP_HOST (or not at all).');
+      throw errors.not_found(undefined, 'The development outbox is off: this server sends mail through SMTP_HOST (or not at all).');
     }
     const rows = await services.db
       .select()

@@ -21,7 +21,7 @@ import type { Storage } from '../storage/storage';
 import { createFlightTriggersRepository } from './flight-triggers.repository';
 
 /** A watcher of one version: its coverage documents and its link's reports. */
-export interface LiveListener {
+interface LiveListener {
   coverage: (doc: LiveCoverage) => void;
   link: (state: LinkState) => void;
 }
@@ -43,7 +43,7 @@ interface VersionState {
 }
 
 /** A recorded photo as the as-flown engine reads it: its height above the takeoff point, as the autopilot measured it. */
-export function flownPhotoOf(t: FlightTrigger & { sortie: string }): FlownPhoto {
+function flownPhotoOf(t: FlightTrigger & { sortie: string }): FlownPhoto {
   return {
     file: `${t.sortie.slice(0, 8)}-${t.imageIndex}`,
     lon: t.lon,
@@ -155,5 +155,3 @@ export function createLiveCoverageHub(deps: { db: Db; storage: Storage; terrain:
     },
   };
 }
-
-export type LiveCoverageHub = ReturnType<typeof createLiveCoverageHub>;

@@ -18,13 +18,13 @@ import type { MissionItem, MissionItemKind, MissionLine } from '../../contracts/
 const { MavCmd, MavFrame, SpeedType } = common;
 
 /** A point along a line as the builder needs it. */
-export interface AlongPoint {
+interface AlongPoint {
   lon: number;
   lat: number;
   distanceM: number;
 }
 
-export interface BuilderLeg {
+interface BuilderLeg {
   start: AlongPoint;
   end: AlongPoint;
   altitudeStartAboveTakeoffM: number;
@@ -87,7 +87,7 @@ interface Stop {
 }
 
 /** Per leg, the speed and photo spacing in force on it: its own, else carried from the leg before, else the line's. */
-export function legSettings(line: BuilderLine): Array<{ speedMps: number; triggerDistanceM: number }> {
+function legSettings(line: BuilderLine): Array<{ speedMps: number; triggerDistanceM: number }> {
   const ownTrigger = (g: BuilderLeg) => (g.triggerDistanceM !== undefined && g.triggerDistanceM > 0 ? g.triggerDistanceM : undefined);
   // Legs before the first one with a spacing of its own take that one (solved legs with one station state none).
   let trigger = ownTrigger(line.legs.find((g) => ownTrigger(g) !== undefined) ?? line.legs[0] ?? ({} as BuilderLeg)) ?? line.triggerDistanceM;

@@ -27,7 +27,7 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
       const { teamId, role } = requireTeam(req);
       const planId = req.params.planId === undefined ? undefined : String(req.params.planId);
       const v = await versions.find({ teamId, role, planId, versionId: String(req.params.versionId) });
-      if (!v) throw errors.notFound(planId === undefined ? 'Flight' : 'Plan version');
+      if (!v) throw errors.not_found(planId === undefined ? 'Flight' : 'Plan version');
       const doc = missionItemsOf(v);
       res.setHeader('Cache-Control', 'private, no-store');
       if (req.query.download === '1') {
@@ -52,7 +52,7 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
     const { teamId, role, user } = requireTeam(req);
     const body = parseInput(recordTriggersSchema, req.body);
     const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
-    if (!v) throw errors.notFound('Flight');
+    if (!v) throw errors.not_found('Flight');
     requireSignedOff(v);
     const recorded = await triggers.record({ teamId, versionId: v.id, sortie: body.sortie, userId: user.id, triggers: body.triggers });
     if (recorded.stored > 0) live.notify(v.id);
@@ -64,7 +64,7 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
     const { teamId, role, user } = requireTeam(req);
     const body = parseInput(reportLinkStateSchema, req.body);
     const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
-    if (!v) throw errors.notFound('Flight');
+    if (!v) throw errors.not_found('Flight');
     requireSignedOff(v);
     const state = { ...body, reportedAt: new Date().toISOString(), reportedBy: user.name ?? user.email };
     live.reportLink(v.id, state);
@@ -79,7 +79,7 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
   api.get('/teams/:teamId/flights/:versionId/live', guards.permission('flight:read'), async (req, res) => {
     const { teamId, role } = requireTeam(req);
     const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
-    if (!v) throw errors.notFound('Flight');
+    if (!v) throw errors.not_found('Flight');
     requireSignedOff(v);
     // no-transform: the compression middleware leaves the stream alone, so each event leaves at once.
     res.writeHead(200, { 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'private, no-cache, no-transform', Connection: 'keep-alive', 'X-Accel-Buffering': 'no' });
@@ -103,7 +103,7 @@ export const registerMissionItemRoutes: RouteGroup = (api: Router, { guards, ser
   api.get('/teams/:teamId/flights/:versionId/triggers', guards.permission('flight:read'), async (req, res) => {
     const { teamId, role } = requireTeam(req);
     const v = await versions.find({ teamId, role, versionId: String(req.params.versionId) });
-    if (!v) throw errors.notFound('Flight');
+    if (!v) throw errors.not_found('Flight');
     res.setHeader('Cache-Control', 'private, no-store');
     sendJson(res, triggerListSchema, { triggers: await triggers.list(teamId, v.id) });
   });

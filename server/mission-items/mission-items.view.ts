@@ -3,11 +3,11 @@ import { missionCautions } from '../../contracts/cautions';
 import { planLegSchema } from '../../contracts/plan-result';
 import type { MissionItems } from '../../contracts/mission-items';
 import { reviewStateSchema } from '../../contracts/reviews';
-import { AppError } from '../http/errors';
 import { heightDatumOf, readMission, readResult, requireAnalysed, takeoffGroundM, type ResultView } from '../versions/result-view';
 import type { Mission } from '../../terrain/mission';
 import type { VersionRecord } from '../versions/versions.repository';
 import { altitudeFrame, buildMissionItems, protocolUsed, type BuilderLine } from './mission-items.build';
+import { versionErrors } from '../versions/versions.errors';
 
 /** The per-leg figures a solved plan adds to a leg (contracts/plan-result.ts), read where present. */
 const solvedLegSchema = planLegSchema.pick({ speedMps: true, triggerDistanceM: true });
@@ -18,7 +18,7 @@ const finite = (x: unknown): number | undefined => (typeof x === 'number' && Num
 export function requireSignedOff(v: Pick<VersionRecord, 'reviewState' | 'number'>): void {
   const state = reviewStateSchema.parse(v.reviewState);
   if (state !== 'signed_off') {
-    throw new AppError(409, 'not_signed_off', `Version ${v.number} is not signed off (it is ${state.replace('_', ' ')}): mission items are made from signed-off versions only. Have a surveyor sign it off first.`);
+    throw versionErrors.not_signed_off(`Version ${v.number} is not signed off (it is ${state.replace('_', ' ')}): mission items are made from signed-off versions only. Have a surveyor sign it off first.`);
   }
 }
 

@@ -11,13 +11,14 @@ import { parseInput, sendJson } from '../http/validate';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
 import { idParam } from '../http/ids';
 import { resultLineSchema, resultOverview } from '../../contracts/result-parts';
+import { versionErrors } from '../versions/versions.errors';
 import type { BodyCache } from '../http/body-cache';
 import type { RouteGroup } from '../route-group';
 import { createSitesRepository } from '../sites/sites.repository';
 import { createPlansRepository, type PlansRepository } from './plans.repository';
 import { createPlansUsecases, type PlansUsecases } from './plans.usecases';
 
-export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: PlansRepository; projects: ProjectsRepository; usecases: PlansUsecases; bodyCache: BodyCache }) {
+function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: PlansRepository; projects: ProjectsRepository; usecases: PlansUsecases; bodyCache: BodyCache }) {
   const { guards, plans, projects, usecases, bodyCache } = deps;
   const projectPlans = '/teams/:teamId/projects/:projectId/plans';
   const onePlan = '/teams/:teamId/plans/:planId';
@@ -31,7 +32,7 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
   api.get(projectPlans, guards.permission('plan:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
     const projectId = idParam(req, 'projectId', 'Project');
-    if (!(await projects.get(teamId, projectId))) throw errors.notFound('Project');
+    if (!(await projects.get(teamId, projectId))) throw errors.not_found('Project');
     sendJson(res, planListSchema, { plans: await plans.list(teamId, projectId) });
   });
 
@@ -41,7 +42,7 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
 
   api.get(onePlan, guards.permission('plan:read'), async (req, res) => {
     const found = await plans.get(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'));
-    if (!found) throw errors.notFound('Plan');
+    if (!found) throw errors.not_found('Plan');
     sendJson(res, planSchema, found);
   });
 
@@ -64,7 +65,7 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
   api.get(`${onePlan}/versions`, guards.permission('plan:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
     const planId = idParam(req, 'planId', 'Plan');
-    if (!(await plans.get(teamId, planId))) throw errors.notFound('Plan');
+    if (!(await plans.get(teamId, planId))) throw errors.not_found('Plan');
     sendJson(res, versionListSchema, { versions: await plans.versions(teamId, planId) });
   });
 
@@ -82,10 +83,10 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
     const versionId = idParam(req, 'versionId', 'Version');
     const part = versionPart(req);
     const summary = await plans.versionSummary(teamId, planId, versionId);
-    if (!summary) throw errors.notFound('Version');
+    if (!summary) throw errors.not_found('Version');
     const load = async () => {
       const v = await plans.version(teamId, planId, versionId);
-      if (!v) throw errors.notFound('Version');
+      if (!v) throw errors.not_found('Version');
       return v;
     };
     if (summary.analysisState !== 'done' && summary.analysisState !== 'failed') {
@@ -112,18 +113,18 @@ export function registerPlanRoutes(api: Router, deps: { guards: Guards; plans: P
     if (!/^\d{1,6}$/.test(raw)) throw errors.invalid(`Line index ${JSON.stringify(raw.slice(0, 20))} is not a whole number: lines are numbered from 0 in flying order (line 1 is index 0).`);
     const lineIndex = Number(raw);
     const summary = await plans.versionSummary(teamId, planId, versionId);
-    if (!summary) throw errors.notFound('Version');
-    if (summary.analysisState !== 'done') throw errors.conflict('This version has no result yet: its lines can be read once its analysis is done.');
+    if (!summary) throw errors.not_found('Version');
+    if (summary.analysisState !== 'done') throw versionErrors.analysis_not_done('This version has no result yet: its lines can be read once its analysis is done.');
     await bodyCache.send(req, res, `version-line:${versionId}:${lineIndex}`, async () => {
       const line = await plans.versionLine(teamId, planId, versionId, lineIndex);
-      if (!line) throw errors.notFound('Line');
+      if (!line) throw errors.not_found('Line');
       return resultLineSchema.parse({ versionId, line });
     });
   });
 
   api.get(`${oneVersion}/status`, guards.permission('plan:read'), async (req, res) => {
     const s = await plans.status(requireTeam(req).teamId, idParam(req, 'planId', 'Plan'), idParam(req, 'versionId', 'Version'));
-    if (!s) throw errors.notFound('Version');
+    if (!s) throw errors.not_found('Version');
     res.setHeader('Cache-Control', 'no-store');
     sendJson(res, versionStatusSchema, s);
   });

@@ -2,7 +2,9 @@
 import type { CreatePlan, Plan, UpdatePlan, VersionSummary } from '../../contracts/plans';
 import { createPlanSchema, updatePlanSchema } from '../../contracts/plans';
 import type { Db } from '../../db/client';
-import { AppError, errors } from '../http/errors';
+import { errors, type AppError } from '../http/errors';
+import { projectErrors } from '../projects/projects.errors';
+import { planErrors } from './plans.errors';
 import { parseInput } from '../http/validate';
 import type { Jobs } from '../jobs/jobs.service';
 import type { ProjectsRepository } from '../projects/projects.repository';
@@ -17,7 +19,7 @@ interface Actor {
 }
 
 function archived(): AppError {
-  return new AppError(409, 'project_archived', 'This project is archived; restore it before changing or running its plans.');
+  return projectErrors.project_archived('changing or running its plans');
 }
 
 export function createPlansUsecases(deps: { db: Db; plans: PlansRepository; projects: ProjectsRepository; sites: SitesRepository; jobs: Jobs }) {
@@ -33,7 +35,7 @@ export function createPlansUsecases(deps: { db: Db; plans: PlansRepository; proj
 
   async function openProject(teamId: string, projectId: string) {
     const p = await projects.get(teamId, projectId);
-    if (!p) throw errors.notFound('Project');
+    if (!p) throw errors.not_found('Project');
     if (p.archivedAt) throw archived();
     return p;
   }
@@ -50,23 +52,23 @@ export function createPlansUsecases(deps: { db: Db; plans: PlansRepository; proj
 
     async update(a: Actor, planId: string, body: UpdatePlan | unknown): Promise<Plan> {
       const current = await plans.get(a.teamId, planId);
-      if (!current) throw errors.notFound('Plan');
+      if (!current) throw errors.not_found('Plan');
       const change = parseInput(updatePlanSchema, body);
       await openProject(a.teamId, current.projectId);
       if (change.siteId !== undefined || change.input !== undefined) {
         await checkOverSite(a.teamId, current.projectId, change.siteId ?? current.siteId, change.input ?? current.input);
       }
       const updated = await plans.update(a.teamId, planId, change);
-      if (!updated) throw errors.notFound('Plan');
+      if (!updated) throw errors.not_found('Plan');
       await projects.touch(a.teamId, current.projectId);
       return updated;
     },
 
     async remove(a: Actor, planId: string): Promise<void> {
       const current = await plans.get(a.teamId, planId);
-      if (!current) throw errors.notFound('Plan');
+      if (!current) throw errors.not_found('Plan');
       if ((await plans.reviewedVersionCount(a.teamId, planId)) > 0) {
-        throw new AppError(409, 'plan_reviewed', 'This plan has versions in review or signed off; their record is kept, so the plan cannot be deleted.');
+        throw planErrors.plan_reviewed();
       }
       await plans.remove(a.teamId, planId);
       await projects.touch(a.teamId, current.projectId);
@@ -78,7 +80,7 @@ export function createPlansUsecases(deps: { db: Db; plans: PlansRepository; proj
      */
     async run(a: Actor, planId: string): Promise<VersionSummary> {
       const current = await plans.get(a.teamId, planId);
-      if (!current) throw errors.notFound('Plan');
+      if (!current) throw errors.not_found('Plan');
       await openProject(a.teamId, current.projectId);
       const client = await db.$client.connect();
       let versionId: string;
@@ -86,7 +88,7 @@ export function createPlansUsecases(deps: { db: Db; plans: PlansRepository; proj
         await client.query('begin');
         // the plan row lock serialises concurrent runs, so version numbers never collide
         const locked = await client.query<{ site_id: string; input: unknown }>('select site_id, input from plan where id = $1 and team_id = $2 for update', [planId, a.teamId]);
-        if (locked.rowCount === 0) throw errors.notFound('Plan');
+        if (locked.rowCount === 0) throw errors.not_found('Plan');
         const { site_id: siteId, input } = locked.rows[0];
         const inserted = await client.query<{ id: string; number: number }>(
           `insert into plan_version (team_id, plan_id, number, site_id, input, created_by)

@@ -8,7 +8,7 @@ import type { RouteGroup } from '../route-group';
 import { createProjectsRepository, type ProjectsRepository } from './projects.repository';
 import { idParam } from '../http/ids';
 
-export function registerProjectRoutes(api: Router, deps: { guards: Guards; projects: ProjectsRepository }) {
+function registerProjectRoutes(api: Router, deps: { guards: Guards; projects: ProjectsRepository }) {
   const { guards, projects } = deps;
   const base = '/teams/:teamId/projects';
 
@@ -27,7 +27,7 @@ export function registerProjectRoutes(api: Router, deps: { guards: Guards; proje
   api.get(`${base}/:projectId`, guards.permission('project:read'), async (req, res) => {
     const { teamId } = requireTeam(req);
     const found = await projects.get(teamId, idParam(req, 'projectId', 'Project'));
-    if (!found) throw errors.notFound('Project');
+    if (!found) throw errors.not_found('Project');
     sendJson(res, projectSchema, found);
   });
 
@@ -36,7 +36,7 @@ export function registerProjectRoutes(api: Router, deps: { guards: Guards; proje
     const projectId = idParam(req, 'projectId', 'Project');
     const body = parseInput(updateProjectSchema, req.body);
     const updated = await projects.update(teamId, projectId, body);
-    if (!updated) throw errors.notFound('Project');
+    if (!updated) throw errors.not_found('Project');
     sendJson(res, projectSchema, updated);
   });
 }

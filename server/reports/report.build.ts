@@ -39,7 +39,7 @@ export function stationStats(stations: StationView[], band: [number, number], le
 }
 
 /** The least overlaps as guaranteed under the mission's attitude envelope, or null when it has none (as planned only). */
-export interface GuaranteedOverlaps { words: string; forwardMin: number | null; sideMin: number | null }
+interface GuaranteedOverlaps { words: string; forwardMin: number | null; sideMin: number | null }
 
 function guaranteedOverlaps(view: ReturnType<typeof readResult>): GuaranteedOverlaps | null {
   const env = view.summary.overlapEnvelope;

@@ -13,12 +13,12 @@ import { coverageKeys } from '../coverage/coverage-keys';
 import { StorageNotFoundError, type Storage } from '../storage/storage';
 
 /** The as-flown checks a report reads (server/as-flown/as-flown.repository.ts). */
-export interface AsFlownSource {
+interface AsFlownSource {
   latest(teamId: string, versionId: string): Promise<{ check: AsFlownCheck | null; count: number }>;
 }
 
 /** The team's rules the report states (whether a confirmation as flown is required). */
-export interface TeamRulesSource {
+interface TeamRulesSource {
   get(teamId: string): Promise<{ requireFlownConfirmation: boolean }>;
 }
 
@@ -45,7 +45,7 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
 
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
     const v = await deps.versions.find(q);
-    if (!v) throw errors.notFound('Plan version');
+    if (!v) throw errors.not_found('Plan version');
     requireAnalysed(v);
     return v;
   }
@@ -68,5 +68,3 @@ export function createReportService(deps: { versions: VersionsRepository; now?: 
     pdf: async (q: { teamId: string; planId: string; versionId: string; role: Role }) => pdfOf(await load(q)),
   };
 }
-
-export type ReportService = ReturnType<typeof createReportService>;

@@ -11,7 +11,9 @@ import type { SignOffReason } from '../../contracts/reviews';
 import { can, type Role } from '../../contracts/roles';
 import type { Db } from '../../db/client';
 import { auditEvent, flownConfirmation } from '../../db/schema';
-import { AppError, errors } from '../http/errors';
+import { errors } from '../http/errors';
+import { versionErrors } from '../versions/versions.errors';
+import { reviewErrors } from './reviews.errors';
 import type { TeamSettingsRepository } from '../teams/team-settings.repository';
 import type { VersionRecord, VersionsRepository } from '../versions/versions.repository';
 
@@ -21,7 +23,7 @@ type Checks = { latest(teamId: string, versionId: string): Promise<{ check: AsFl
 const LOST_BY = 1e-6;
 
 /** The spec items a check shows lost against the plan, worded as the check card words them. */
-export function shortfallsOf(check: AsFlownCheck): FlownShortfall[] {
+function shortfallsOf(check: AsFlownCheck): FlownShortfall[] {
   const d = check.document;
   return d.flown.items
     .map((it) => ({ key: it.item, label: itemTitle(it.item, d.spec), planned: d.planned.items.find((p) => p.item === it.item)?.share ?? 0, flown: it.share }))
@@ -35,7 +37,7 @@ export function createFlownConfirmation(deps: { db: Db; versions: VersionsReposi
 
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
     const v = await versions.find(q);
-    if (!v) throw errors.notFound('Plan version');
+    if (!v) throw errors.not_found('Plan version');
     return v;
   }
 
@@ -75,14 +77,12 @@ export function createFlownConfirmation(deps: { db: Db; versions: VersionsReposi
       const v = await load(q);
       const status = await statusOf(v, q.role);
       if (!status.mayConfirm || !status.check) {
-        const code = v.flownConfirmedAt ? 'already_confirmed' : v.reviewState !== 'signed_off' ? 'not_signed_off' : 'as_flown_required';
-        throw new AppError(409, code, `Version ${v.number} cannot be confirmed as flown: ${status.blockedBecause}`);
+        const message = `Version ${v.number} cannot be confirmed as flown: ${status.blockedBecause}`;
+        throw v.flownConfirmedAt ? reviewErrors.already_confirmed(message) : v.reviewState !== 'signed_off' ? versionErrors.not_signed_off(message) : reviewErrors.as_flown_required(message);
       }
       const missing = status.shortfalls.filter((s) => !q.reasons.some((r) => r.key === s.key && r.reason.trim().length > 0));
       if (missing.length) {
-        throw new AppError(
-          422,
-          'reasons_required',
+        throw reviewErrors.reasons_required(
           `The latest check of the photos (${status.check.label}) shows the flight lost ground against the plan on ${missing.length === 1 ? 'one item' : `${missing.length} items`} (${missing
             .map((m) => `${m.label}: ${pct(m.flown)} of the area as flown, ${pct(m.planned)} as planned`)
             .join('; ')}). Give a reason for confirming despite each (e.g. re-flown and checked again), or re-fly and check the photos again.`,
@@ -106,7 +106,7 @@ export function createFlownConfirmation(deps: { db: Db; versions: VersionsReposi
         });
         return true;
       });
-      if (!done) throw new AppError(409, 'already_confirmed', `Version ${v.number} was confirmed as flown a moment ago by someone else.`);
+      if (!done) throw reviewErrors.already_confirmed(`Version ${v.number} was confirmed as flown a moment ago by someone else.`);
       return statusOf(await load(q), q.role);
     },
   };

@@ -9,7 +9,7 @@ import type { ReviewsRepository } from './reviews.repository';
 import type { VersionRecord } from '../versions/versions.repository';
 
 /** A transition's mail, prepared before the change: the job (given the transition's time) and what to tell the caller. */
-export interface PreparedNotification {
+interface PreparedNotification {
   notification: Notification;
   /** The queue job, made inside the transaction once its time is known; null when nobody is to be told. */
   job: ((at: Date) => MailJob) | null;

@@ -14,7 +14,9 @@ import {
 } from '../../contracts/reviews';
 import { requirementChecks } from '../reports/report.build';
 import type { Role } from '../../contracts/roles';
-import { AppError, errors } from '../http/errors';
+import { errors } from '../http/errors';
+import { versionErrors } from '../versions/versions.errors';
+import { reviewErrors } from './reviews.errors';
 import type { SessionUser } from '../http/guard';
 import type { JobsDb } from '../jobs/jobs.service';
 import type { Mailer } from '../mail/mailer';
@@ -30,7 +32,7 @@ function list(states: readonly ReviewState[]): string {
 }
 
 /** The 409 message: the current state, what the action needs, and what can be done from here. */
-export function refusalMessage(action: ReviewAction, refusal: Exclude<TransitionRefusal, { reason: 'not_found' }>): string {
+function refusalMessage(action: ReviewAction, refusal: Exclude<TransitionRefusal, { reason: 'not_found' }>): string {
   if (refusal.reason === 'independence') {
     const did = refusal.role === 'created' ? 'ran' : 'sent for review';
     return `Version ${refusal.number} needs an independent check: you ${did} it, so another surveyor or owner of the team must sign it off.`;
@@ -87,9 +89,7 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
     const unmet = unmetOf(v);
     const missing = unmet.filter((u) => !given.some((g) => g.key === u.key && g.reason.trim().length > 0));
     if (missing.length) {
-      throw new AppError(
-        422,
-        'reasons_required',
+      throw reviewErrors.reasons_required(
         `Version ${v.number} does not meet ${missing.length === 1 ? 'one requirement' : `${missing.length} requirements`} of the spec (${missing
           .map((m) => `${m.label}: required ${m.required}, achieved ${m.achieved}`)
           .join('; ')}). Give a reason for signing off despite each, or return the version to the planner.`,
@@ -101,7 +101,7 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
 
   async function load(q: { teamId: string; planId: string; versionId: string; role: Role }): Promise<VersionRecord> {
     const v = await versions.find(q);
-    if (!v) throw errors.notFound('Plan version');
+    if (!v) throw errors.not_found('Plan version');
     return v;
   }
 
@@ -119,9 +119,9 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
       const enqueue = prepared.job ? (db: JobsDb, at: Date) => deps.mailer().enqueue(prepared.job!(at), db) : undefined;
       const r = await reviews.transition({ teamId: q.teamId, versionId: q.versionId, action: q.action, actorId: q.actor.id, comment: q.comment, reasons, enqueue });
       if (!r.ok) {
-        if (r.refusal.reason === 'not_found') throw errors.notFound('Plan version');
-        const code = r.refusal.reason === 'analysis' ? 'analysis_not_done' : r.refusal.reason === 'independence' ? 'not_independent' : 'invalid_transition';
-        throw new AppError(409, code, refusalMessage(q.action, r.refusal));
+        if (r.refusal.reason === 'not_found') throw errors.not_found('Plan version');
+        const message = refusalMessage(q.action, r.refusal);
+        throw r.refusal.reason === 'analysis' ? versionErrors.analysis_not_done(message) : r.refusal.reason === 'independence' ? reviewErrors.not_independent(message) : reviewErrors.invalid_transition(message);
       }
       const after = await load(q);
       return { ...(await statusOf(after, q.role, q.actor.id)), notification: prepared.notification };
@@ -129,7 +129,7 @@ export function createReviewsUsecases(deps: { versions: VersionsRepository; revi
 
     /** The plan's audit trail. */
     async audit(q: { teamId: string; planId: string }): Promise<AuditTrail> {
-      if (!(await versions.planExists(q.teamId, q.planId))) throw errors.notFound('Plan');
+      if (!(await versions.planExists(q.teamId, q.planId))) throw errors.not_found('Plan');
       const rows = await reviews.auditOf(q.teamId, q.planId);
       return {
         planId: q.planId,

@@ -51,7 +51,7 @@ async function demoDemBytes(): Promise<Buffer> {
 }
 
 /** Seed the demo project into the demo team (the team is new, so nothing is there yet). */
-export async function seedDemoProject(ctx: { db: Db; storage: Storage; teamId: string; plannerId: string; surveyorId?: string }): Promise<{ projectId: string; siteId: string; planId: string; versionId: string }> {
+async function seedDemoProject(ctx: { db: Db; storage: Storage; teamId: string; plannerId: string; surveyorId?: string }): Promise<{ projectId: string; siteId: string; planId: string; versionId: string }> {
   const { db, storage, teamId, plannerId } = ctx;
   const terrain = createInlineTerrainRunner();
   const projects = createProjectsRepository({ db });

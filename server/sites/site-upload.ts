@@ -6,7 +6,8 @@ import { PassThrough } from 'node:stream';
 import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import { siteFileField } from '../../contracts/sites';
-import { AppError } from '../http/errors';
+import { errors } from '../http/errors';
+import { siteErrors } from './sites.errors';
 import { formatBytes } from '../../contracts/format/bytes';
 import { StorageLimitError, type Storage } from '../storage/storage';
 
@@ -55,18 +56,18 @@ function engine(storage: Storage, limitBytes: number): multer.StorageEngine {
 
 /** multer's error codes as API errors with a message for a person. */
 function uploadError(err: unknown, limitBytes: number): unknown {
-  if (err instanceof StorageLimitError) return new AppError(413, 'too_large', `The file is larger than the upload limit of ${formatBytes(limitBytes, 'limit')}; crop or resample the DEM (gdal_translate -projwin / -tr) and try again.`);
+  if (err instanceof StorageLimitError) return errors.too_large(`The file is larger than the upload limit of ${formatBytes(limitBytes, 'limit')}; crop or resample the DEM (gdal_translate -projwin / -tr) and try again.`);
   if (err instanceof multer.MulterError) {
     switch (err.code) {
       case 'LIMIT_FILE_COUNT':
       case 'LIMIT_UNEXPECTED_FILE':
-        return new AppError(422, 'invalid', `Send one DEM file, in the form part named "${siteFileField}".`, [{ path: siteFileField, message: 'One GeoTIFF file, in this part only.' }]);
+        return errors.invalid(`Send one DEM file, in the form part named "${siteFileField}".`, [{ path: siteFileField, message: 'One GeoTIFF file, in this part only.' }]);
       default:
-        return new AppError(422, 'invalid', `The upload form is not valid (${err.message}).`);
+        return errors.invalid(`The upload form is not valid (${err.message}).`);
     }
   }
   if (err instanceof Error && /Unexpected end of form|Request aborted|Request closed|Malformed part header/i.test(err.message)) {
-    return new AppError(400, 'upload_incomplete', 'The upload ended before the whole form arrived; nothing was kept. Try again.');
+    return siteErrors.upload_incomplete();
   }
   return err;
 }
@@ -76,7 +77,7 @@ export function receiveDemUpload(storage: Storage, limitBytes: number): RequestH
   const upload = multer({ storage: engine(storage, limitBytes), limits: { files: 1, fields: 20, fieldSize: 16 * 1024, parts: 24 } }).single(siteFileField);
   return (req, res, next) => {
     if (!req.is('multipart/form-data')) {
-      return next(new AppError(415, 'unsupported_media_type', `Send the DEM as multipart/form-data, the file in the part named "${siteFileField}".`));
+      return next(errors.unsupported_media_type(`Send the DEM as multipart/form-data, the file in the part named "${siteFileField}".`));
     }
     upload(req, res, (err?: unknown) => next(err ? uploadError(err, limitBytes) : undefined));
   };

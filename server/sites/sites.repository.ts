@@ -6,7 +6,7 @@ import type { Db } from '../../db/client';
 import { plan, planVersion, site } from '../../db/schema';
 import type { GridMetadata } from '../../terrain/index';
 
-export type SiteRow = typeof site.$inferSelect;
+type SiteRow = typeof site.$inferSelect;
 
 /** What the metadata column holds: the engine's GridMetadata plus what the file header said. */
 export type StoredSiteMetadata = GridMetadata & { file: DemFileInfo };
@@ -36,7 +36,7 @@ export function toSite(row: SiteRow & { planCount: number }): Site {
   };
 }
 
-export interface NewSite {
+interface NewSite {
   id: string;
   teamId: string;
   projectId: string;

@@ -2,7 +2,9 @@
 import crypto from 'node:crypto';
 import type { NextFunction, Request, Response, Router } from 'express';
 import { duplicateSiteErrorSchema, siteListSchema, siteSchema, siteUpdateSchema, type DuplicateSiteError, type Site, type UnreadableSite } from '../../contracts/sites';
-import { AppError, errors } from '../http/errors';
+import { errors } from '../http/errors';
+import { projectErrors } from '../projects/projects.errors';
+import { siteErrors } from './sites.errors';
 import { requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import { createProjectsRepository, type ProjectsRepository } from '../projects/projects.repository';
@@ -22,7 +24,7 @@ interface SiteRouteDeps {
   uploadLimitBytes: number;
 }
 
-export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
+function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
   const { guards, projects, sites, usecases, storage } = deps;
   const log = (err: unknown) => console.error(err);
   const base = '/teams/:teamId/projects/:projectId/sites';
@@ -31,14 +33,14 @@ export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
   async function projectOf(req: Request) {
     const { teamId } = requireTeam(req);
     const found = await projects.get(teamId, idParam(req, 'projectId', 'Project'));
-    if (!found) throw errors.notFound('Project');
+    if (!found) throw errors.not_found('Project');
     return found;
   }
 
   /** Before the body is read: the project must exist and be open; then fix where the file goes. */
   async function prepareUpload(req: Request, _res: Response, next: NextFunction) {
     const p = await projectOf(req);
-    if (p.archivedAt) throw new AppError(409, 'project_archived', 'This project is archived; restore it before adding elevation grids.');
+    if (p.archivedAt) throw projectErrors.project_archived('adding elevation grids');
     const siteId = crypto.randomUUID();
     req.params.siteId = siteId;
     setUploadKey(req, siteKeys.dem(p.teamId, siteId));
@@ -53,10 +55,10 @@ export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
     }
     const out = await usecases.finishUpload({ teamId, projectId: String(req.params.projectId), siteId: String(req.params.siteId), userId: user.id, file, body: req.body });
     if ('duplicateOf' in out) {
-      const body: DuplicateSiteError = {
-        error: { code: 'duplicate_site', message: 'This project already has this elevation grid (same file checksum); use the existing site.', existingSiteId: out.duplicateOf },
-      };
-      res.status(409).json(duplicateSiteErrorSchema.parse(body));
+      // the one error body with more than code and message: the client opens the existing site
+      const e = siteErrors.duplicate_site();
+      const body: DuplicateSiteError = { error: { code: 'duplicate_site', message: e.message, existingSiteId: out.duplicateOf } };
+      res.status(e.status).json(duplicateSiteErrorSchema.parse(body));
       return;
     }
     await projects.touch(teamId, out.site.projectId);
@@ -89,7 +91,7 @@ export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
   async function siteOf(req: Request) {
     const p = await projectOf(req);
     const row = await sites.get(p.teamId, idParam(req, 'siteId', 'Site'), p.id);
-    if (!row) throw errors.notFound('Site');
+    if (!row) throw errors.not_found('Site');
     return row;
   }
 
@@ -103,7 +105,7 @@ export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
     try {
       stream = await storage.getStream(key);
     } catch (err) {
-      if (err instanceof StorageNotFoundError) throw errors.notFound('The stored file');
+      if (err instanceof StorageNotFoundError) throw errors.not_found('The stored file');
       throw err;
     }
     res.setHeader('Content-Type', type);
@@ -134,7 +136,7 @@ export function registerSiteRoutes(api: Router, deps: SiteRouteDeps) {
       // what the heights mean is part of every analysed version over this site: fixed once one exists
       const use = await sites.usage(row.teamId, row.id);
       if (use.versions > 0 && ((change.surfaceKind ?? row.surfaceKind) !== row.surfaceKind || (change.verticalDatum ?? row.verticalDatum) !== row.verticalDatum)) {
-        throw new AppError(409, 'site_in_use', 'Plan versions were analysed over this grid as it is described now; upload the file again as a new site to describe it differently.');
+        throw siteErrors.site_in_use(null);
       }
     }
     const updated = await sites.update(row.teamId, row.id, change);

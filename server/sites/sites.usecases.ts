@@ -4,7 +4,9 @@ import { siteSchema, siteUploadFieldsSchema } from '../../contracts/sites';
 import { TerrainError } from '../../terrain/errors';
 import { TerrainTimeoutError, type TerrainRunner } from '../analysis/terrain-pool';
 import { inspectDemHeader, type DemFile } from '../analysis/terrain-tasks';
-import { AppError, errors } from '../http/errors';
+import { errors, type AppError } from '../http/errors';
+import { terrainRefusal } from '../http/terrain.errors';
+import { siteErrors } from './sites.errors';
 import { nulProblem } from '../http/text-guard';
 import { parseInput } from '../http/validate';
 import type { Storage } from '../storage/storage';
@@ -19,16 +21,13 @@ export const siteKeys = {
 
 /** The engine's reason as a 422 (error code = TerrainError code). */
 function refusal(err: unknown): unknown {
-  if (err instanceof TerrainError) return new AppError(422, err.code, err.message, [{ path: 'file', message: err.message }]);
-  if (err instanceof TerrainTimeoutError) {
-    const message = `Reading the grid took longer than this server allows (${Math.round(err.limitMs / 1000)} s, TERRAIN_TASK_SECONDS) and was stopped; nothing was kept. Crop or resample the DEM (gdal_translate -projwin / -tr) and upload it again.`;
-    return new AppError(422, 'too-slow', message, [{ path: 'file', message }]);
-  }
+  if (err instanceof TerrainError) return terrainRefusal(err, 'file');
+  if (err instanceof TerrainTimeoutError) return siteErrors['too-slow'](err.limitMs);
   return err;
 }
 
 /** A file name safe to show and store: its last path part, control characters removed, at most 200 characters. */
-export function cleanFileName(name: string | undefined): string {
+function cleanFileName(name: string | undefined): string {
   const base = (name ?? '').split(/[\\/]/).pop() ?? '';
   return base.replace(/[\u0000-\u001f\u007f]/g, '').trim().slice(0, 200) || 'dem.tif';
 }
@@ -42,7 +41,7 @@ async function storedGrid(storage: Storage, key: string): Promise<DemFile> {
   return new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }
 
-export type UploadOutcome = { site: Site } | { duplicateOf: string };
+type UploadOutcome = { site: Site } | { duplicateOf: string };
 
 export function createSitesUsecases(deps: { sites: SitesRepository; storage: Storage; terrain: TerrainRunner; maxPixels?: number; log?: (err: unknown) => void }) {
   const { sites, storage, terrain, maxPixels } = deps;
@@ -99,7 +98,7 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
         const readBack = siteSchema.safeParse(toSite({ ...values, planCount: 0, createdAt: new Date() } as Parameters<typeof toSite>[0]));
         if (!readBack.success) {
           const where = readBack.error.issues[0]?.path.join('.') ?? 'metadata';
-          throw new AppError(422, 'unreadable-grid', `The grid's description has a value Loftline cannot use (${where}); check the file's georeference and heights in your GIS and export it again.`, [{ path: 'file', message: `Unusable value at ${where}.` }]);
+          throw siteErrors['unreadable-grid'](where);
         }
         const row = await sites.insert(values);
         if (!row) {
@@ -118,7 +117,7 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
     /** Delete a site and its stored objects; refused while a plan or plan version uses it. */
     async remove(teamId: string, projectId: string, siteId: string): Promise<void> {
       const found = await sites.get(teamId, siteId, projectId);
-      if (!found) throw errors.notFound('Site');
+      if (!found) throw errors.not_found('Site');
       const use = await sites.usage(teamId, siteId);
       if (use.plans > 0 || use.versions > 0) throw inUse(use.plans);
       let removed;
@@ -129,14 +128,14 @@ export function createSitesUsecases(deps: { sites: SitesRepository; storage: Sto
         if ((err as { cause?: { code?: string }; code?: string }).code === '23503' || (err as { cause?: { code?: string } }).cause?.code === '23503') throw inUse(1);
         throw err;
       }
-      if (!removed) throw errors.notFound('Site');
+      if (!removed) throw errors.not_found('Site');
       for (const key of [removed.storageKey, removed.hillshadeKey]) await storage.delete(key).catch(log);
     },
   };
 }
 
 function inUse(plans: number): AppError {
-  return new AppError(409, 'site_in_use', `This elevation grid is used by ${plans === 1 ? 'a plan' : `${plans} plans`} (or their analysed versions); delete those plans first.`);
+  return siteErrors.site_in_use(plans);
 }
 
 export type SitesUsecases = ReturnType<typeof createSitesUsecases>;

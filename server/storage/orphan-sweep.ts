@@ -14,7 +14,7 @@ import type { Storage } from './storage';
 const siteObjectKey = /^teams\/[^/]+\/sites\/([0-9a-f-]{36})\/[^/]+$/;
 
 /** What one sweep removed. */
-export interface SweepResult {
+interface SweepResult {
   partial: string[];
   orphans: string[];
 }

@@ -18,7 +18,7 @@ import {
 import { Readable } from 'node:stream';
 import { checkKey, MeterStream, StorageNotFoundError, toReadable, type Storage } from './storage';
 
-export interface S3StorageConfig {
+interface S3StorageConfig {
   endpoint?: string;
   bucket: string;
   region: string;

@@ -9,7 +9,7 @@ import type { Storage } from './storage';
 const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 
 /** Default folder of the disk driver: the git-ignored .data/storage of the checkout. */
-export const defaultStorageDir = path.join(projectRoot, '.data', 'storage');
+const defaultStorageDir = path.join(projectRoot, '.data', 'storage');
 
 /** Build the configured storage driver. */
 export function createStorageFromConfig(config: Pick<Config, 'env'>): Storage {

@@ -4,13 +4,13 @@ import { Readable, Transform, type TransformCallback } from 'node:stream';
 import { formatBytes } from '../../contracts/format/bytes';
 
 /** What `put` measured while the bytes streamed through. */
-export interface PutResult {
+interface PutResult {
   sizeBytes: number;
   /** Lower-case hex SHA-256 of the stored bytes. */
   sha256: string;
 }
 
-export interface PutOptions {
+interface PutOptions {
   /** Refuse (and store nothing) once more than this many bytes have streamed. */
   limitBytes?: number;
   contentType?: string;

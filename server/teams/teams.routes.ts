@@ -2,7 +2,8 @@
 import type { Router } from 'express';
 import { createTeamSchema, meSchema, memberSchema, membersSchema, teamSummarySchema, updateMemberRoleSchema } from '../../contracts/teams';
 import { roleSchema } from '../../contracts/roles';
-import { AppError, errors } from '../http/errors';
+import { errors } from '../http/errors';
+import { teamErrors } from './teams.errors';
 import { requireAuth, requireTeam, type Guards } from '../http/guard';
 import { parseInput, sendJson } from '../http/validate';
 import type { TeamsRepository } from './teams.repository';
@@ -48,7 +49,7 @@ export function registerTeamRoutes(api: Router, deps: { guards: Guards; teams: T
     const { teamId } = requireTeam(req);
     const body = parseInput(updateMemberRoleSchema, req.body);
     const r = await teams.changeMember(teamId, String(req.params.memberId), { role: body.role });
-    if (!r.ok) throw r.reason === 'not_found' ? errors.notFound('Member') : lastOwner();
+    if (!r.ok) throw r.reason === 'not_found' ? errors.not_found('Member') : lastOwner();
     const updated = (await teams.members(teamId)).find((m) => m.id === req.params.memberId)!;
     sendJson(res, memberSchema, { ...updated, role: roleSchema.parse(updated.role), joinedAt: updated.joinedAt.toISOString() });
   });
@@ -56,11 +57,11 @@ export function registerTeamRoutes(api: Router, deps: { guards: Guards; teams: T
   api.delete('/teams/:teamId/members/:memberId', guards.permission('member:manage'), async (req, res) => {
     const { teamId } = requireTeam(req);
     const r = await teams.changeMember(teamId, String(req.params.memberId), { remove: true });
-    if (!r.ok) throw r.reason === 'not_found' ? errors.notFound('Member') : lastOwner();
+    if (!r.ok) throw r.reason === 'not_found' ? errors.not_found('Member') : lastOwner();
     res.status(204).end();
   });
 }
 
 function lastOwner() {
-  return new AppError(409, 'last_owner', 'A team needs at least one owner: make another member an owner first.');
+  return teamErrors.last_owner();
 }

@@ -5,7 +5,7 @@
  */
 import { planResultSchema, type PlanResultData } from '../../contracts/plan-result';
 import { resolveMission, type Mission } from '../../terrain/mission';
-import { AppError } from '../http/errors';
+import { versionErrors } from './versions.errors';
 
 export type ResultView = PlanResultData;
 export type LineView = ResultView['lines'][number];
@@ -60,6 +60,6 @@ export function heightDatumOf(v: { result: unknown; siteVerticalDatum: string })
 /** A version can be reported on only once its analysis is done. */
 export function requireAnalysed(v: { analysisState: string; result: unknown; number: number }): void {
   if (v.analysisState !== 'done' || v.result === null || v.result === undefined) {
-    throw new AppError(409, 'analysis_not_done', `Version ${v.number} has no finished analysis yet (it is ${v.analysisState}).`);
+    throw versionErrors.analysis_not_done(`Version ${v.number} has no finished analysis yet (it is ${v.analysisState}).`);
   }
 }

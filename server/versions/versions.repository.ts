@@ -12,7 +12,7 @@ const signer = alias(user, 'signer');
 const confirmer = alias(user, 'confirmer');
 
 /** Roles that may only ever see signed-off versions. */
-export function seesSignedOffOnly(role: Role): boolean {
+function seesSignedOffOnly(role: Role): boolean {
   return role === 'pilot';
 }
 

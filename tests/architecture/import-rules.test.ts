@@ -28,7 +28,7 @@ interface Import {
 }
 
 /** The module specifiers of one file: import/export declarations, `import x = require()`, `import()` and `require()`. */
-export function importsOf(fileName: string, text: string): Import[] {
+function importsOf(fileName: string, text: string): Import[] {
   const sf = ts.createSourceFile(fileName, text, ts.ScriptTarget.Latest, false, fileName.endsWith('x') ? ts.ScriptKind.TSX : ts.ScriptKind.TS);
   const out: Import[] = [];
   const visit = (node: ts.Node) => {
@@ -127,7 +127,7 @@ function nodeImports(from: string[]): string[] {
 }
 
 /** Every cycle of the graph as a path `a → b → … → a`: one per strongly connected component (Tarjan), walked from its first file. */
-export function cyclesOf(g: Map<string, Edge[]>): string[] {
+function cyclesOf(g: Map<string, Edge[]>): string[] {
   let index = 0;
   const idx = new Map<string, number>();
   const low = new Map<string, number>();

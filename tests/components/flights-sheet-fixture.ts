@@ -1,7 +1,7 @@
 /** A small valid leg sheet (invented plan, fictional names) for the leg-sheet unit tests. */
 import { legSheetSchema, type LegSheet, type SheetLeg } from '../../contracts/flights';
 
-export function leg(number: number, over: Partial<SheetLeg> = {}): SheetLeg {
+function leg(number: number, over: Partial<SheetLeg> = {}): SheetLeg {
   return {
     number,
     start: { lon: -2.5, lat: 54.3, distanceM: 0 },

@@ -23,7 +23,7 @@ import type { TestServer } from './test-server';
 
 export const fixturePassword = 'fixture password 1';
 
-export interface FixtureUser {
+interface FixtureUser {
   id: string;
   email: string;
   name: string;

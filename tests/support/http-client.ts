@@ -1,5 +1,5 @@
 /** A cookie-keeping JSON client for API tests over real HTTP. */
-export interface JsonResponse<T = any> {
+interface JsonResponse<T = any> {
   status: number;
   body: T;
   headers: Headers;

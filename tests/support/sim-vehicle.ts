@@ -47,7 +47,7 @@ export function enumValue(m: MavlinkType, name: string): number {
   throw new Error(`enum entry ${name} not in the independent definitions`);
 }
 
-export interface SimVehicleOptions {
+interface SimVehicleOptions {
   sysid?: number;
   compid?: number;
   /** Ignore the first MISSION_ITEM_INT with each of these seq numbers (as if it were lost on the way). */
@@ -77,7 +77,7 @@ export interface SimVehicle {
   stop(): Promise<void>;
 }
 
-export interface FlightOptions {
+interface FlightOptions {
   /** Steady drift of the aircraft off its track, metres east and north (wind). */
   driftEastM?: number;
   driftNorthM?: number;

@@ -7,7 +7,7 @@
 const TYPE_SIZE: Record<number, number> = { 1: 1, 2: 1, 3: 2, 4: 4, 5: 8, 6: 1, 7: 1, 8: 2, 9: 4, 10: 8, 11: 4, 12: 8 };
 
 /** One IFD entry: where it sits and where its values are. */
-export interface IfdEntry {
+interface IfdEntry {
   tag: number;
   type: number;
   count: number;
@@ -63,7 +63,7 @@ export function ifdEntries(b: Uint8Array): IfdEntry[] {
 }
 
 /** The entry of `tag`, or throws (a fixture without it is a mistake in the test). */
-export function entry(b: Uint8Array, tag: number): IfdEntry {
+function entry(b: Uint8Array, tag: number): IfdEntry {
   const e = ifdEntries(b).find((x) => x.tag === tag);
   if (!e) throw new Error(`The TIFF has no tag ${tag}.`);
   return e;
@@ -84,13 +84,6 @@ export function setInt(b: Uint8Array, tag: number, value: number, k = 0): void {
   if (e.type === 3) v.setUint16(e.valuesAt + 2 * k, value, littleEndian(b));
   else if (e.type === 4) v.setUint32(e.valuesAt + 4 * k, value >>> 0, littleEndian(b));
   else throw new Error(`Tag ${tag} is of type ${e.type}, not SHORT or LONG.`);
-}
-
-/** The values of a SHORT or LONG entry. */
-export function getInts(b: Uint8Array, tag: number): number[] {
-  const e = entry(b, tag);
-  const v = view(b);
-  return Array.from({ length: e.count }, (_, k) => (e.type === 3 ? v.getUint16(e.valuesAt + 2 * k, littleEndian(b)) : v.getUint32(e.valuesAt + 4 * k, littleEndian(b))));
 }
 
 /** Point an entry whose values do not fit in the entry at another place in the file (e.g. past its end). */

@@ -12,12 +12,10 @@ import type { CoveragePhoto } from '../../terrain/coverage';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import { flyPlan, type FlownLog } from '../../datasets/simulated-flight';
 
-export { flyPlan, type FlownLog };
-
-export const CAMERA = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
+const CAMERA = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
 
 /** Rolling hills: 25 m of relief over a few hundred metres. */
-export const hills = (x: number, y: number) => 200 + 15 * Math.sin(x / 80) + 10 * Math.cos(y / 60) + 0.02 * x;
+const hills = (x: number, y: number) => 200 + 15 * Math.sin(x / 80) + 10 * Math.cos(y / 60) + 0.02 * x;
 
 export interface SimulatedFlight {
   site: Site;
@@ -41,7 +39,7 @@ export interface SimulatedFlight {
 }
 
 /** The site, the mission over a 300 m x 200 m block (east–west lines) and its plan. */
-export function simulatedSite(): { site: Site; missionInput: Record<string, unknown>; mission: Mission; plan: PlanResult; frame: LocalFrame } {
+function simulatedSite(): { site: Site; missionInput: Record<string, unknown>; mission: Mission; plan: PlanResult; frame: LocalFrame } {
   const site = syntheticSite(400, 2, hills);
   const area = site.area(-150, -100, 150, 100);
   const [tlon, tlat] = site.frame.toLonLat(-170, -120);

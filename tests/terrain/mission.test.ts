@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { MISSION_DEFAULTS, checkArea, resolveMission, ringAreaM2 } from '../../terrain/mission';
+import { MISSION_DEFAULTS, checkArea, resolveMission } from '../../terrain/mission';
+import { ringAreaM2 } from '../../terrain/survey-area';
 import { TerrainError } from '../../terrain/errors';
 
 import { baseMission } from './plan-fixtures';
