@@ -27,10 +27,13 @@ function coverageBands(r: CoverageRaster): Float32GeoTiff {
   const { cells } = r;
   check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
   const n = cells.width * cells.height;
-  const measures: ArrayLike<number>[] = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM];
+  const measures: Array<Uint16Array | Float32Array> = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM];
   const bands = measures.map((b) => {
+    // the values as Float32 in one copy, then nodata outside the area
     const out = new Float32Array(n);
-    for (let i = 0; i < n; i++) out[i] = cells.inside[i] ? b[i] : COVERAGE_NODATA;
+    out.set(b);
+    const inside = cells.inside;
+    for (let i = 0; i < n; i++) if (inside[i] === 0) out[i] = COVERAGE_NODATA;
     return out;
   });
   return {

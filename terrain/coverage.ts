@@ -12,7 +12,8 @@ import { fillCells, TILE } from './coverage-pass';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
 import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
 import { latticeRange, rangeBlocks } from './lattice-range';
-import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
+import { blend, coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
+import { normalisedBounds } from './image-bounds';
 import { check } from './errors';
 import type { CoveragePhoto } from './coverage-photo';
 
@@ -46,6 +47,11 @@ export interface CoverageOptions {
    * `stoppedAtCell` then names that cell; cells not visited yet keep their initial values (0 views, NaN figures).
    */
   stopAt?: (cell: number, raster: CoverageRaster) => boolean;
+  /**
+   * Project every cell into every candidate photo instead of deciding blocks of cells at once (the same figures,
+   * slower): the reference the tests hold the block decisions to.
+   */
+  exactPass?: boolean;
 }
 
 /** The coverage raster: the cell lattice and one value per cell and measure (counts 0 and figures NaN outside the area; NaN inside where a figure has no value). */
@@ -70,23 +76,37 @@ export interface CoverageRaster {
 }
 
 
+/** Camera-frame rays (normalised x, y) through 17 points of each image edge, distortion included: the same for every photo. */
+function edgeRays(camera: Camera): Float64Array {
+  const W = camera.imageWidthPx, H = camera.imageHeightPx, N = 16;
+  const out = new Float64Array((N + 1) * 8);
+  let at = 0;
+  for (let k = 0; k <= N; k++) {
+    for (let e = 0; e < 4; e++) {
+      const u = e < 2 ? (W * k) / N : e === 2 ? 0 : W, v = e === 0 ? 0 : e === 1 ? H : (H * k) / N;
+      const [xn, yn] = pixelRay(camera, u, v);
+      out[at++] = xn; out[at++] = yn;
+    }
+  }
+  return out;
+}
+
 /** Horizontal bounding box of everything a photo can see between the lowest and highest ground (border rays through distortion). */
-function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: number, zHigh: number, oriented?: Float64Array, at = 0): [number, number, number, number] {
+function photoBox(pose: CameraPose, edge: Float64Array, rot: Float64Array, zLow: number, zHigh: number, oriented?: Float64Array, at = 0): [number, number, number, number] {
   let x0 = pose.xM, x1 = pose.xM, y0 = pose.yM, y1 = pose.yM;
   // the same box in the photo's heading frame (along = sin ψ·dx + cos ψ·dy, across = cos ψ·dx − sin ψ·dy, from the camera)
   const sp = Math.sin((pose.yawDeg * Math.PI) / 180), cp = Math.cos((pose.yawDeg * Math.PI) / 180);
   let a0 = 0, a1 = 0, c0 = 0, c1 = 0;
-  const W = camera.imageWidthPx, H = camera.imageHeightPx;
-  const N = 16;
-  for (let k = 0; k <= N; k++) {
-    for (const [u, v] of [[(W * k) / N, 0], [(W * k) / N, H], [0, (H * k) / N], [W, (H * k) / N]]) {
-      const [xn, yn] = pixelRay(camera, u, v);
+  for (let k = 0; k < edge.length; k += 2) {
+    {
+      const xn = edge[k], yn = edge[k + 1];
       const dx = rot[0] * xn + rot[1] * yn + rot[2], dy = rot[3] * xn + rot[4] * yn + rot[5], dz = rot[6] * xn + rot[7] * yn + rot[8];
       if (!(dz < -1e-9)) {
         if (oriented) oriented.set([0, 1, -Infinity, Infinity, -Infinity, Infinity], at);
         return [-Infinity, -Infinity, Infinity, Infinity];
       }
-      for (const z of [zLow, Math.min(zHigh, pose.altitudeM)]) {
+      for (let zi = 0; zi < 2; zi++) {
+        const z = zi === 0 ? zLow : Math.min(zHigh, pose.altitudeM);
         const t = (z - pose.altitudeM) / dz;
         const x = pose.xM + t * dx, y = pose.yM + t * dy;
         if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
@@ -102,11 +122,13 @@ function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: num
 /** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
 function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  const n = cells.x.length;
-  for (let i = 0; i < n; i++) {
-    if (!cells.inside[i]) continue;
-    const x = cells.x[i], y = cells.y[i];
-    if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+  const { width, height, inside, nodes } = cells;
+  for (let r = 0; r < height; r++) {
+    for (let c = 0; c < width; c++) {
+      if (!inside[r * width + c]) continue;
+      const x = blend(nodes, nodes.x, r, c), y = blend(nodes, nodes.y, r, c);
+      if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+    }
   }
   for (const p of photos) { x0 = Math.min(x0, p.xM); x1 = Math.max(x1, p.xM); y0 = Math.min(y0, p.yM); y1 = Math.max(y1, p.yM); }
   let step = stepM;
@@ -161,6 +183,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   let marginPx = 0;
   const envByAngles = new Map<string, ReturnType<typeof envelopeSamples>>();
   const ranges = rangeBlocks(lattice);
+  const edge = edgeRays(camera);
   for (let j = 0; j < P; j++) {
     const p = photos[j];
     check(Number.isFinite(p.xM) && Number.isFinite(p.yM) && Number.isFinite(p.altitudeM) && Number.isFinite(p.yawDeg), `photo ${j + 1} needs a finite position, altitude and yaw, got ${JSON.stringify(p)}.`);
@@ -168,14 +191,14 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     rots.push(rot);
     // the box between the lowest and highest ground of the whole lattice, then again between the lowest and
     // highest ground inside that box (tighter where the relief is in another part of the area)
-    let b = photoBox(camera, p, rot, lattice.minM, lattice.maxM);
+    let b = photoBox(p, edge, rot, lattice.minM, lattice.maxM);
     for (let pass = 0; pass < 2 && Number.isFinite(b[0]); pass++) {
       const [lo, hi] = latticeRange(lattice, ranges, b);
       if (!(lo <= hi)) break;
-      b = photoBox(camera, p, rot, lo, hi);
+      b = photoBox(p, edge, rot, lo, hi);
     }
     const [oLo, oHi] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, b) : [lattice.minM, lattice.maxM];
-    photoBox(camera, p, rot, oLo, oHi, obox, j * 6);
+    photoBox(p, edge, rot, oLo, oHi, obox, j * 6);
     // the highest ground in the box: a ray from a point in it to the camera (also in it) never meets higher ground
     const pb = 4 * Math.max(opts.cellM, lattice.stepM);
     boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
@@ -198,15 +221,15 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
   const tileLists: Int32Array[] = [];
   const tileSlopes: Float64Array[] = [];
+  const noSlopes = new Float64Array(0); // no occlusion: no slope bound is read
   let longest = 0;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
       let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
       for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
         for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
-          const i = r * width + c;
-          if (!inside[i]) continue;
-          const x = cells.x[i], y = cells.y[i];
+          if (!inside[r * width + c]) continue;
+          const x = blend(cells.nodes, cells.nodes.x, r, c), y = blend(cells.nodes, cells.nodes.y, r, c);
           if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
         }
       }
@@ -217,8 +240,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
           // and the tile's corners, turned into the photo's heading frame, against its oriented box
           const o = j * 6, sp = obox[o], cp = obox[o + 1];
           let a0 = Infinity, a1 = -Infinity, c0 = Infinity, c1 = -Infinity;
-          for (const [x, y] of [[x0, y0], [x1, y0], [x0, y1], [x1, y1]]) {
-            const dx = x - pos[j * 3], dy = y - pos[j * 3 + 1];
+          for (let k = 0; k < 4; k++) {
+            const dx = (k & 1 ? x1 : x0) - pos[j * 3], dy = (k & 2 ? y1 : y0) - pos[j * 3 + 1];
             const a = sp * dx + cp * dy, c = cp * dx - sp * dy;
             if (a < a0) a0 = a; if (a > a1) a1 = a; if (c < c0) c0 = c; if (c > c1) c1 = c;
           }
@@ -228,7 +251,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
       tileLists.push(Int32Array.from(list));
       // per photo of the tile: the steepest ground any ray from the tile's cells to that camera crosses
       const pb = 4 * Math.max(opts.cellM, lattice.stepM);
-      tileSlopes.push(Float64Array.from(list, (j) => Math.min(boxSlope[j], slopeIn(lattice, [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb]))));
+      tileSlopes.push(!useOcclusion ? noSlopes : Float64Array.from(list, (j) => Math.min(boxSlope[j], slopeIn(lattice, [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb]))));
       if (list.length > longest) longest = list.length;
     }
   }
@@ -245,7 +268,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const hStep = lattice.stepM;
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
   const stopAt = opts.stopAt;
-  const stopped = fillCells({ th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
+  const stopped = fillCells({ pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }
