@@ -42,6 +42,8 @@ export interface CellPass {
   exact: boolean;
   /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point. */
   pt: Float64Array; ray: Float64Array; around: Float64Array;
+  /** Scratch: cos and sin of each ray's angle from the vertical (2 per view). */
+  tilt: Float64Array;
   /** Scratch: the local positions of the current tile's cells (row-major, TILE per row). */
   px: Float64Array; py: Float64Array;
   /** Longest photo list of a tile. */
@@ -224,6 +226,51 @@ function hiddenFrom(c: CellPass, ox: number, oy: number, oz: number, maxM: numbe
   return occludedRay(c.lattice, a);
 }
 
+/**
+ * The smallest dot product of two of the `v` unit rays (x, y, z from `rays`): the largest angle between two views.
+ * Exactly the minimum over every pair, with pairs that cannot reach it skipped: for rays at angles θa and θb from
+ * the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the sphere), so once the steepest ray m
+ * has been paired with every other, a ray a with cos(θa + θm) above the minimum so far meets no ray that gives less
+ * (θb ≤ θm for every b). Applies while every ray points up (all angles below 90°); else every pair is read.
+ */
+function minRayDot(rays: Float64Array, v: number, tilt: Float64Array): number {
+  let m = 0, up = true;
+  for (let a = 0; a < v; a++) {
+    const cz = rays[a * 3 + 2];
+    if (!(cz > 0)) up = false;
+    tilt[a * 2] = cz;
+    tilt[a * 2 + 1] = Math.sqrt(Math.max(0, 1 - cz * cz));
+    if (cz < rays[m * 3 + 2]) m = a;
+  }
+  let minDot = 1;
+  if (!up) {
+    for (let a = 0; a < v; a++) {
+      const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
+      for (let b = a + 1; b < v; b++) {
+        const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
+        if (d < minDot) minDot = d;
+      }
+    }
+    return minDot;
+  }
+  const mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], cm = tilt[m * 2], sm = tilt[m * 2 + 1];
+  for (let b = 0; b < v; b++) {
+    if (b === m) continue;
+    const d = b < m ? rays[b * 3] * mx + rays[b * 3 + 1] * my + rays[b * 3 + 2] * mz : mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
+    if (d < minDot) minDot = d;
+  }
+  for (let a = 0; a < v; a++) {
+    if (a === m || tilt[a * 2] * cm - tilt[a * 2 + 1] * sm > minDot + 1e-12) continue;
+    const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
+    for (let b = 0; b < v; b++) {
+      if (b === a) continue;
+      const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
+      if (d < minDot) minDot = d;
+    }
+  }
+  return minDot;
+}
+
 /** One cell: the photos of its block that see its ground point, and the figures from them (small, so it is optimised early). */
 function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
   const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, photos, model, rots, boxTop, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
@@ -259,7 +306,7 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   const nearSurface = lift <= tol;
   let planned = 0, v = 0, atSpec = 0, finest = Infinity;
   let n0 = 0, n1 = 0, n2 = 0, n3 = 0, n4 = 0, n5 = 0;
-  const fxPx = model.fxPx, fyPx = model.fyPx;
+  const ifx2 = 1 / (model.fxPx * model.fxPx), ify2 = 1 / (model.fyPx * model.fyPx), fxs = model.fxPx / sigmaPx, fys = model.fyPx / sigmaPx;
   for (let e = 0; e < picked; e++) {
     const li = picks[at + e], code = codes[at + e];
     const j = list[li];
@@ -268,32 +315,36 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
     const rot = rots[j];
     const dx = px - p.xM, dy = py - p.yM, dz = pz - p.altitudeM;
     const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    const rx = dx / R, ry = dy / R, rz = dz / R;
-    if (-(nx * rx + ny * ry + nz * rz) < MIN_COS_INCIDENCE) continue;
-    if (useOcclusion && !(nearSurface && -dz >= slopes[li] * Math.sqrt(dx * dx + dy * dy)) && hiddenFrom(c, p.xM, p.yM, p.altitudeM, boxTop[j])) continue;
+    // n·d = R·(n·r̂): the incidence test −n·r̂ < MIN_COS_INCIDENCE without dividing
+    const nd = nx * dx + ny * dy + nz * dz;
+    if (-nd < MIN_COS_INCIDENCE * R) continue;
+    // the slope bound (occlusion.ts blockSlope) squared: −dz ≥ slope · horizontal distance
+    const sl = slopes[li];
+    if (useOcclusion && !(nearSurface && dz <= 0 && dz * dz >= sl * sl * (dx * dx + dy * dy)) && hiddenFrom(c, p.xM, p.yM, p.altitudeM, boxTop[j])) continue;
     planned++;
     const enc = code >> 2;
     if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
-    // viewGsdCm and addView written out here, step for step the same arithmetic: the engine does not inline them
-    // into a function this size, and a call boxes every number it passes
+    // viewGsdCm and addView written out here (the engine does not inline them into a function this size, and a
+    // call boxes every number it passes), with their divisions shared: R·cos α = qz (the depth along the axis) and
+    // r̂·(n·e)/(n·r̂) = d·(n·e)/(n·d), so GSD_e = qz / f_e · |e − d (n·e)/(n·d)| · 100
     const r0 = rot[0], r1 = rot[1], r2 = rot[2], r3 = rot[3], r4 = rot[4], r5 = rot[5], r6 = rot[6], r7 = rot[7], r8 = rot[8];
-    const cosOff = rx * r2 + ry * r5 + rz * r8;
-    const nr = nx * rx + ny * ry + nz * rz;
-    const kx = (nx * r0 + ny * r3 + nz * r6) / nr;
-    const gxx = r0 - rx * kx, gxy = r3 - ry * kx, gxz = r6 - rz * kx;
-    const gsdX = ((R * cosOff) / fxPx) * Math.sqrt(gxx * gxx + gxy * gxy + gxz * gxz) * 100;
-    const ky = (nx * r1 + ny * r4 + nz * r7) / nr;
-    const gyx = r1 - rx * ky, gyy = r4 - ry * ky, gyz = r7 - rz * ky;
-    const gsdY = ((R * cosOff) / fyPx) * Math.sqrt(gyx * gyx + gyy * gyy + gyz * gyz) * 100;
-    const g = gsdX > gsdY ? gsdX : gsdY;
-    if (g < finest) finest = g;
-    if (g <= spec) atSpec++;
-    rays[v * 3] = -rx; rays[v * 3 + 1] = -ry; rays[v * 3 + 2] = -rz;
     const qx = r0 * dx + r3 * dy + r6 * dz;
     const qy = r1 * dx + r4 * dy + r7 * dz;
     const qz = r2 * dx + r5 * dy + r8 * dz;
-    const xn = qx / qz, yn = qy / qz;
-    const sx = fxPx / (qz * sigmaPx), sy = fyPx / (qz * sigmaPx);
+    const ind = 1 / nd;
+    const kx = (nx * r0 + ny * r3 + nz * r6) * ind;
+    const gxx = r0 - dx * kx, gxy = r3 - dy * kx, gxz = r6 - dz * kx;
+    const ky = (nx * r1 + ny * r4 + nz * r7) * ind;
+    const gyx = r1 - dx * ky, gyy = r4 - dy * ky, gyz = r7 - dz * ky;
+    const ex = (gxx * gxx + gxy * gxy + gxz * gxz) * ifx2, ey = (gyx * gyx + gyy * gyy + gyz * gyz) * ify2;
+    const g = qz * Math.sqrt(ex > ey ? ex : ey) * 100;
+    if (g < finest) finest = g;
+    if (g <= spec) atSpec++;
+    const iR = 1 / R;
+    rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = -dz * iR;
+    const iq = 1 / qz;
+    const xn = qx * iq, yn = qy * iq;
+    const sx = fxs * iq, sy = fys * iq;
     const ax = (r0 - xn * r2) * sx, ay = (r3 - xn * r5) * sx, az = (r6 - xn * r8) * sx;
     const bx = (r1 - yn * r2) * sy, by = (r4 - yn * r5) * sy, bz = (r7 - yn * r8) * sy;
     n0 += ax * ax + bx * bx;
@@ -309,14 +360,7 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   viewsAtSpecGsd[i] = atSpec;
   if (v > 0) finestGsdCm[i] = finest;
   if (v > 1) {
-    let minDot = 1;
-    for (let a = 0; a < v; a++) {
-      const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
-      for (let bI = a + 1; bI < v; bI++) {
-        const d = ax * rays[bI * 3] + ay * rays[bI * 3 + 1] + az * rays[bI * 3 + 2];
-        if (d < minDot) minDot = d;
-      }
-    }
+    const minDot = minRayDot(rays, v, c.tilt);
     maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
     N[0] = n0; N[1] = n1; N[2] = n2; N[3] = n3; N[4] = n4; N[5] = n5;
     sigmaFromNormal(N, 0, sig);

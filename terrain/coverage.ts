@@ -119,6 +119,28 @@ function photoBox(pose: CameraPose, edge: Float64Array, rot: Float64Array, zLow:
   return [x0, y0, x1, y1];
 }
 
+/**
+ * A rise (metres up per metre along the ground) that a ray from a tile's ground point to a camera can have, at
+ * the least, and still be proven clear of the terrain without the march, when the point is on the lattice's
+ * surface (within the tolerance): `slope` bounds the ground between the whole tile and the camera, but the march
+ * stops once the ray is above `top` (the highest ground around the photo) by the tolerance, which a ray rising at
+ * ρ from a height ≥ `zLow` reaches within L = (top + tol − zLow) / ρ. So ρ ≥ max(ρ1, steepest ground within L1 of
+ * the tile) proves it for any ρ1; a few ρ1 below `slope` are tried and the least such bound kept.
+ */
+function riseNeeded(L: HeightLattice, around: readonly [number, number, number, number], tile: readonly [number, number, number, number], zLow: number, top: number, tol: number, pb: number, slope: number): number {
+  let best = slope;
+  if (!(zLow <= top + tol) || !(slope > 0)) return best;
+  for (let k = 1; k <= 4; k++) {
+    const rho = slope / 2 ** k;
+    const reach = (top + tol - zLow) / rho + pb;
+    const g = slopeIn(L, [Math.max(around[0], tile[0] - reach), Math.max(around[1], tile[1] - reach), Math.min(around[2], tile[2] + reach), Math.min(around[3], tile[3] + reach)]);
+    const bound = Math.max(rho, Math.min(g, slope));
+    if (bound < best) best = bound;
+    if (g > rho) break; // smaller ρ1 reach farther: no better
+  }
+  return best;
+}
+
 /** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
 function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
@@ -225,10 +247,11 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   let longest = 0;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
-      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, zLow = Infinity;
       for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
         for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
           if (!inside[r * width + c]) continue;
+          if (cells.z[r * width + c] < zLow) zLow = cells.z[r * width + c];
           const x = blend(cells.nodes, cells.nodes.x, r, c), y = blend(cells.nodes, cells.nodes.y, r, c);
           if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
         }
@@ -251,7 +274,10 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
       tileLists.push(Int32Array.from(list));
       // per photo of the tile: the steepest ground any ray from the tile's cells to that camera crosses
       const pb = 4 * Math.max(opts.cellM, lattice.stepM);
-      tileSlopes.push(!useOcclusion ? noSlopes : Float64Array.from(list, (j) => Math.min(boxSlope[j], slopeIn(lattice, [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb]))));
+      tileSlopes.push(!useOcclusion ? noSlopes : Float64Array.from(list, (j) => {
+        const around: [number, number, number, number] = [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb];
+        return riseNeeded(lattice, around, [x0, y0, x1, y1], zLow, boxTop[j], tol, pb, Math.min(boxSlope[j], slopeIn(lattice, around)));
+      }));
       if (list.length > longest) longest = list.length;
     }
   }
@@ -269,7 +295,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
   const stopAt = opts.stopAt;
   const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
-  const stopped = fillCells({ pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const stopped = fillCells({ tilt: new Float64Array(2 * Math.max(1, longest)), pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }
