@@ -75,6 +75,35 @@ export function blend(n: CellNodes, v: Float64Array, r: number, c: number): numb
   return top + (bottom - top) * tr;
 }
 
+/** Per raster column: its node column and its share of the way to the next (as `blend` works them out). */
+export interface ColumnBlend { k: Int32Array; t: Float64Array }
+
+export function columnBlend(n: CellNodes, width: number): ColumnBlend {
+  const k = new Int32Array(width), t = new Float64Array(width);
+  for (let c = 0; c < width; c++) {
+    let kc = Math.floor(c / n.step);
+    if (kc > n.cols - 2) kc = n.cols - 2;
+    k[c] = kc;
+    t[c] = (c - kc * n.step) / n.step;
+  }
+  return { k, t };
+}
+
+/** The positions of row r's cells c0..c1 − 1 into xs, ys from index `at`: bit for bit `blend`, without its per-cell divisions. */
+export function rowPositions(n: CellNodes, cb: ColumnBlend, r: number, c0: number, c1: number, xs: Float64Array, ys: Float64Array, at: number): void {
+  let kr = Math.floor(r / n.step);
+  if (kr > n.rows - 2) kr = n.rows - 2;
+  const tr = (r - kr * n.step) / n.step;
+  const vx = n.x, vy = n.y, cols = n.cols, base = kr * cols;
+  for (let c = c0; c < c1; c++) {
+    const o = base + cb.k[c], tc = cb.t[c], d = o + cols;
+    const tx = vx[o] + (vx[o + 1] - vx[o]) * tc, bx = vx[d] + (vx[d + 1] - vx[d]) * tc;
+    const ty = vy[o] + (vy[o + 1] - vy[o]) * tc, by = vy[d] + (vy[d + 1] - vy[d]) * tc;
+    xs[at + c - c0] = tx + (bx - tx) * tr;
+    ys[at + c - c0] = ty + (by - ty) * tr;
+  }
+}
+
 /** 12345 -> "12,345". */
 function thousands(n: number): string {
   return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ',');

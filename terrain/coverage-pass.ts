@@ -1,5 +1,5 @@
 /** The per-cell pass of the coverage raster: for each cell the candidate photos of its tile, the views that count and the figures from them. */
-import { blend, type CoverageCells } from './coverage-grid';
+import { rowPositions, type ColumnBlend, type CoverageCells } from './coverage-grid';
 import { classifyBox, IN, MIXED, OUT } from './coverage-blocks';
 import type { NormalisedBounds } from './image-bounds';
 import type { CoveragePhoto } from './coverage-photo';
@@ -44,6 +44,8 @@ export interface CellPass {
   pt: Float64Array; ray: Float64Array; around: Float64Array;
   /** Scratch: cos and sin of each ray's angle from the vertical (2 per view). */
   tilt: Float64Array;
+  /** Per raster column, how its position blends between nodes (`rowPositions`). */
+  cb: ColumnBlend;
   /** Scratch: the local positions of the current tile's cells (row-major, TILE per row). */
   px: Float64Array; py: Float64Array;
   /** Longest photo list of a tile. */
@@ -70,16 +72,10 @@ export function fillCells(c: CellPass): number {
       const list = tileLists[ty * tw + tx], slopes = tileSlopes[ty * tw + tx];
       const r0 = ty * TILE, c0 = tx * TILE, r1 = Math.min(height, r0 + TILE), c1 = Math.min(width, c0 + TILE);
       let any = false;
-      for (let r = r0; r < r1; r++) {
-        for (let col = c0; col < c1; col++) {
-          if (!inside[r * width + col]) continue;
-          const k = (r - r0) * TILE + (col - c0);
-          px[k] = blend(cells.nodes, cells.nodes.x, r, col);
-          py[k] = blend(cells.nodes, cells.nodes.y, r, col);
-          any = true;
-        }
-      }
+      for (let i = r0 * width + c0; i < r0 * width + c1 && !any; i++) any = inside[i] === 1;
+      for (let r = r0 + 1; r < r1 && !any; r++) for (let i = r * width + c0; i < r * width + c1 && !any; i++) any = inside[i] === 1;
       if (!any) continue;
+      for (let r = r0; r < r1; r++) rowPositions(cells.nodes, c.cb, r, c0, c1, px, py, (r - r0) * TILE);
       decideTile(c, list, r0, c0, r1, c1, px, py, tileCodes, picks, codes, picked, sure);
       for (let r = r0; r < r1; r++) {
         for (let col = c0; col < c1; col++) {

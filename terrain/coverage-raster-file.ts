@@ -27,15 +27,18 @@ function coverageBands(r: CoverageRaster): Float32GeoTiff {
   const { cells } = r;
   check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
   const n = cells.width * cells.height;
-  const measures: Array<Uint16Array | Float32Array> = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM];
-  const bands = measures.map((b) => {
-    // the values as Float32 in one copy, then nodata outside the area
-    const out = new Float32Array(n);
-    out.set(b);
-    const inside = cells.inside;
-    for (let i = 0; i < n; i++) if (inside[i] === 0) out[i] = COVERAGE_NODATA;
+  // one loop per array type, so each stays monomorphic
+  const counts = (b: Uint16Array) => {
+    const out = new Float32Array(n), inside = cells.inside;
+    for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i];
     return out;
-  });
+  };
+  const figures = (b: Float32Array) => {
+    const out = new Float32Array(n), inside = cells.inside;
+    for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i];
+    return out;
+  };
+  const bands = [counts(r.views), figures(r.finestGsdCm), counts(r.viewsAtSpecGsd), figures(r.maxRayAngleDeg), figures(r.sigmaVerticalM)];
   return {
     width: cells.width, height: cells.height, bands, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,

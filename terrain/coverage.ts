@@ -11,8 +11,8 @@ import { imageModel } from './pose';
 import { fillCells, TILE } from './coverage-pass';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
 import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
-import { latticeRange, rangeBlocks } from './lattice-range';
-import { blend, coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
+import { latticeRange, rangeBlocks, type RangeBlocks } from './lattice-range';
+import { columnBlend, coverageCells, gridCellM, rowPositions, type CoverageCells } from './coverage-grid';
 import { normalisedBounds } from './image-bounds';
 import { check } from './errors';
 import type { CoveragePhoto } from './coverage-photo';
@@ -43,8 +43,10 @@ export interface CoverageOptions {
   latticeStepM?: number;
   /**
    * Stop the pass at the first cell this says true for (called once a cell's figures are in `raster`): a yes/no
-   * question such as "does any cell fall short?" is answered at the first cell that says no. The raster's
-   * `stoppedAtCell` then names that cell; cells not visited yet keep their initial values (0 views, NaN figures).
+   * question such as "does any cell fall short?" is answered at the first cell that says no. Cells are visited
+   * tile by tile (TILE x TILE cells, tiles in row order), row by row within a tile, every cell of the area once;
+   * `stoppedAtCell` then names the first cell in that order the question said true for (not the first in plain
+   * row order); cells not visited yet keep their initial values (0 views, NaN figures).
    */
   stopAt?: (cell: number, raster: CoverageRaster) => boolean;
   /**
@@ -142,16 +144,8 @@ function riseNeeded(L: HeightLattice, around: readonly [number, number, number, 
 }
 
 /** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
-function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  const { width, height, inside, nodes } = cells;
-  for (let r = 0; r < height; r++) {
-    for (let c = 0; c < width; c++) {
-      if (!inside[r * width + c]) continue;
-      const x = blend(nodes, nodes.x, r, c), y = blend(nodes, nodes.y, r, c);
-      if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
-    }
-  }
+function buildLattice(grid: Grid, frame: LocalFrame, cellBox: readonly [number, number, number, number], photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
+  let [x0, y0, x1, y1] = cellBox;
   for (const p of photos) { x0 = Math.min(x0, p.xM); x1 = Math.max(x1, p.xM); y0 = Math.min(y0, p.yM); y1 = Math.max(y1, p.yM); }
   let step = stepM;
   const span = (x1 - x0 + 4 * step) * (y1 - y0 + 4 * step);
@@ -173,6 +167,8 @@ function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photo
   return lattice;
 }
 
+const rangesOf = new WeakMap<HeightLattice, RangeBlocks>();
+
 /** The last lattice built per grid and frame (read only once built; dropped with the grid or the frame). */
 const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattice: HeightLattice }>>();
 
@@ -182,7 +178,10 @@ const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattic
  * number of views at or below the spec's GSD (`view-gsd.ts`), the largest angle between two viewing rays and the
  * advisory precision of a least-squares intersection of the rays (`ray-intersection.ts`). With an envelope only
  * the views that hold at every attitude in it count (`attitude-envelope.ts`). Work is bounded by each photo's
- * ground box: cells are visited tile by tile against the photos whose box meets the tile.
+ * ground box: cells are visited tile by tile against the photos whose box meets the tile, and each 4 x 4 block of
+ * a tile is decided against each photo at once where its whole box of ground points lands inside or outside the
+ * image (`coverage-blocks.ts`); only cells of blocks on a footprint's edge are projected one by one. The figures are
+ * exactly those of projecting every cell (`exactPass`, which the tests compare cell for cell).
  */
 export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon, camera: Camera, photos: readonly CoveragePhoto[], opts: CoverageOptions): CoverageRaster {
   checkCamera(camera);
@@ -196,7 +195,29 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const viewsOnly = opts.viewsOnly ?? false;
   const useOcclusion = !viewsOnly && (opts.occlusion ?? true);
   const lat = area.coordinates[0][0][1];
-  const lattice = buildLattice(grid, frame, cells, photos, opts.latticeStepM ?? gridCellM(grid, lat));
+  // each tile's box of cell positions (and its lowest ground): the cells' box is their union
+  const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
+  const cb = columnBlend(cells.nodes, width);
+  const tileBox = new Float64Array(tw * th * 5);
+  for (let t = 0; t < tw * th; t++) tileBox.set([Infinity, Infinity, -Infinity, -Infinity, Infinity], t * 5);
+  const rowX = new Float64Array(width), rowY = new Float64Array(width);
+  for (let r = 0; r < height; r++) {
+    rowPositions(cells.nodes, cb, r, 0, width, rowX, rowY, 0);
+    for (let c = 0; c < width; c++) {
+      const i = r * width + c;
+      if (!inside[i]) continue;
+      const t = (Math.floor(r / TILE) * tw + Math.floor(c / TILE)) * 5, x = rowX[c], y = rowY[c];
+      if (x < tileBox[t]) tileBox[t] = x; if (y < tileBox[t + 1]) tileBox[t + 1] = y;
+      if (x > tileBox[t + 2]) tileBox[t + 2] = x; if (y > tileBox[t + 3]) tileBox[t + 3] = y;
+      if (cells.z[i] < tileBox[t + 4]) tileBox[t + 4] = cells.z[i];
+    }
+  }
+  const cellBox: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (let t = 0; t < tw * th; t++) {
+    cellBox[0] = Math.min(cellBox[0], tileBox[t * 5]); cellBox[1] = Math.min(cellBox[1], tileBox[t * 5 + 1]);
+    cellBox[2] = Math.max(cellBox[2], tileBox[t * 5 + 2]); cellBox[3] = Math.max(cellBox[3], tileBox[t * 5 + 3]);
+  }
+  const lattice = buildLattice(grid, frame, cellBox, photos, opts.latticeStepM ?? gridCellM(grid, lat));
   const model = imageModel(camera);
   const env = opts.envelope ?? null;
   // per photo: rotation, position, ground box, envelope rotations
@@ -204,7 +225,9 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), boxTop = new Float64Array(P), boxSlope = new Float64Array(P), envRots: Float64Array[] = [], envCount = new Int32Array(P);
   let marginPx = 0;
   const envByAngles = new Map<string, ReturnType<typeof envelopeSamples>>();
-  const ranges = rangeBlocks(lattice);
+  // the lattice is kept across runs over one site (buildLattice), and so are its row ranges
+  let ranges = rangesOf.get(lattice);
+  if (!ranges) { ranges = rangeBlocks(lattice); rangesOf.set(lattice, ranges); }
   const edge = edgeRays(camera);
   for (let j = 0; j < P; j++) {
     const p = photos[j];
@@ -223,9 +246,11 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     photoBox(p, edge, rot, oLo, oHi, obox, j * 6);
     // the highest ground in the box: a ray from a point in it to the camera (also in it) never meets higher ground
     const pb = 4 * Math.max(opts.cellM, lattice.stepM);
-    boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
+    if (!useOcclusion) boxTop[j] = oHi;
+    else boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
     // the steepest ground any ray from the box to the camera crosses (the box and the camera's own position)
-    boxSlope[j] = Number.isFinite(b[0]) ? slopeIn(lattice, [Math.min(b[0], p.xM) - pb, Math.min(b[1], p.yM) - pb, Math.max(b[2], p.xM) + pb, Math.max(b[3], p.yM) + pb]) : Infinity;
+    if (!useOcclusion) boxSlope[j] = Infinity;
+    else boxSlope[j] = Number.isFinite(b[0]) ? slopeIn(lattice, [Math.min(b[0], p.xM) - pb, Math.min(b[1], p.yM) - pb, Math.max(b[2], p.xM) + pb, Math.max(b[3], p.yM) + pb]) : Infinity;
     const padO = 2 * opts.cellM;
     obox[j * 6 + 2] -= padO; obox[j * 6 + 3] += padO; obox[j * 6 + 4] -= padO; obox[j * 6 + 5] += padO;
     pos[j * 3] = p.xM; pos[j * 3 + 1] = p.yM; pos[j * 3 + 2] = p.altitudeM;
@@ -240,22 +265,14 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     }
   }
   // tiles of cells and the photos whose box meets each tile
-  const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
   const tileLists: Int32Array[] = [];
   const tileSlopes: Float64Array[] = [];
   const noSlopes = new Float64Array(0); // no occlusion: no slope bound is read
   let longest = 0;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
-      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, zLow = Infinity;
-      for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
-        for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
-          if (!inside[r * width + c]) continue;
-          if (cells.z[r * width + c] < zLow) zLow = cells.z[r * width + c];
-          const x = blend(cells.nodes, cells.nodes.x, r, c), y = blend(cells.nodes, cells.nodes.y, r, c);
-          if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
-        }
-      }
+      const tb = (ty * tw + tx) * 5;
+      const x0 = tileBox[tb], y0 = tileBox[tb + 1], x1 = tileBox[tb + 2], y1 = tileBox[tb + 3], zLow = tileBox[tb + 4];
       const list: number[] = [];
       if (x0 <= x1) {
         for (let j = 0; j < P; j++) {
@@ -295,7 +312,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
   const stopAt = opts.stopAt;
   const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
-  const stopped = fillCells({ tilt: new Float64Array(2 * Math.max(1, longest)), pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const stopped = fillCells({ cb, tilt: new Float64Array(2 * Math.max(1, longest)), pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }
