@@ -201,15 +201,22 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const tileBox = new Float64Array(tw * th * 5);
   for (let t = 0; t < tw * th; t++) tileBox.set([Infinity, Infinity, -Infinity, -Infinity, Infinity], t * 5);
   const rowX = new Float64Array(width), rowY = new Float64Array(width);
+  const z = cells.z;
   for (let r = 0; r < height; r++) {
     rowPositions(cells.nodes, cb, r, 0, width, rowX, rowY, 0);
-    for (let c = 0; c < width; c++) {
-      const i = r * width + c;
-      if (!inside[i]) continue;
-      const t = (Math.floor(r / TILE) * tw + Math.floor(c / TILE)) * 5, x = rowX[c], y = rowY[c];
-      if (x < tileBox[t]) tileBox[t] = x; if (y < tileBox[t + 1]) tileBox[t + 1] = y;
-      if (x > tileBox[t + 2]) tileBox[t + 2] = x; if (y > tileBox[t + 3]) tileBox[t + 3] = y;
-      if (cells.z[i] < tileBox[t + 4]) tileBox[t + 4] = cells.z[i];
+    const row = r * width;
+    for (let tx = 0; tx < tw; tx++) {
+      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, zLow = Infinity;
+      for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
+        if (inside[row + c] === 0) continue;
+        const x = rowX[c], y = rowY[c], h = z[row + c];
+        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y; if (h < zLow) zLow = h;
+      }
+      if (!(x0 <= x1)) continue;
+      const t = (Math.floor(r / TILE) * tw + tx) * 5;
+      if (x0 < tileBox[t]) tileBox[t] = x0; if (y0 < tileBox[t + 1]) tileBox[t + 1] = y0;
+      if (x1 > tileBox[t + 2]) tileBox[t + 2] = x1; if (y1 > tileBox[t + 3]) tileBox[t + 3] = y1;
+      if (zLow < tileBox[t + 4]) tileBox[t + 4] = zLow;
     }
   }
   const cellBox: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
