@@ -75,7 +75,7 @@ export async function benchCoverage(rounds = 3): Promise<string[]> {
   if (last) {
     const c = last;
     // what the finished raster holds (cell positions, heights, mask, counts and figures) against the five Float32 bands it writes
-    held = c.cells.x.byteLength + c.cells.y.byteLength + c.cells.z.byteLength + c.cells.inside.byteLength
+    held = c.cells.nodes.x.byteLength + c.cells.nodes.y.byteLength + c.cells.z.byteLength + c.cells.inside.byteLength
       + [c.views, c.viewsPlanned, c.finestGsdCm, c.viewsAtSpecGsd, c.maxRayAngleDeg, c.sigmaVerticalM, c.sigmaHorizontalM].reduce((s, b) => s + b.byteLength, 0);
     rasterBytes = 5 * 4 * c.cells.width * c.cells.height;
   }

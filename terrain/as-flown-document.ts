@@ -8,7 +8,7 @@ import type { Grid } from './grid';
 import { WGS84, createTransform } from './crs';
 import { analysePlan } from './plan';
 import { resolveMission } from './mission';
-import { coverageLayout, gridCellM } from './coverage-grid';
+import { cellX, cellY, coverageLayout, gridCellM } from './coverage-grid';
 import { resolveCoverageInput, type Compliance } from './coverage-spec';
 import { analyseAsFlown } from './as-flown';
 import type { FlownPhoto } from './as-flown-match';
@@ -110,7 +110,7 @@ export function runAsFlownCheck(grid: Grid, input: Record<string, unknown>, phot
       note: 'lost: cells meeting the whole spec as planned but not as flown; failing as planned too: a re-flight of the same plan would not mend them (change the plan)',
       patches: a.difference.lostPatches.slice(0, 100).map((p) => {
         let sx = 0, sy = 0;
-        for (const i of p) { sx += cells.x[i]; sy += cells.y[i]; }
+        for (const i of p) { sx += cellX(cells, i); sy += cellY(cells, i); }
         return { cells: p.length, areaM2: round(p.length * cells.cellAreaM2, 1), centroid: ll(sx / p.length, sy / p.length) };
       }),
     },

@@ -24,13 +24,84 @@ export interface CoverageCells {
   /** 1 where the cell centre lies inside the survey area. */
   inside: Uint8Array;
   /**
-   * Cell centre in the local frame (x east, y north, metres) and the grid's ground height there (NaN unknown);
-   * Float32 (0.5 mm steps within 5 km of the frame's origin) to keep the raster's memory near its bands'.
+   * The grid's ground height at each cell centre (NaN unknown). The centre's position in the local frame is not
+   * stored per cell: `cellX` / `cellY` interpolate it from exact positions at nodes every `nodeStep` cells (see
+   * `CellNodes`), which keeps the raster's memory near its bands'.
    */
-  x: Float32Array;
-  y: Float32Array;
   z: Float32Array;
+  nodes: CellNodes;
   insideCount: number;
+}
+
+/**
+ * Exact local-frame positions (x east, y north, metres) of the cell centres at rows and columns 0, S, 2S, …
+ * (S = `step`; the last node row and column may lie past the raster's edge), row-major, `cols` nodes per row.
+ * Between nodes a cell's position is the bilinear blend of its four nodes: the grid's CRS maps to the local frame
+ * by a smooth transform that is all but affine over a node span of at most `NODE_SPAN_M` (the tests bound the
+ * blend's error against the exact transform).
+ */
+export interface CellNodes { step: number; cols: number; rows: number; x: Float64Array; y: Float64Array }
+
+/** Widest ground span between two position nodes, metres (the blend's error grows with its square). */
+export const NODE_SPAN_M = 32;
+/** Most cells between two position nodes (a tile of the coverage pass is a multiple of it). */
+export const NODE_STEP_MAX = 16;
+
+/** Node spacing in cells for a cell size: at most NODE_STEP_MAX cells and NODE_SPAN_M metres, a power of two. */
+export function nodeStepFor(cellM: number): number {
+  let s = NODE_STEP_MAX;
+  while (s > 1 && s * cellM > NODE_SPAN_M) s /= 2;
+  return s;
+}
+
+/** Local-frame x of cell `i` (bilinear between its nodes). */
+export function cellX(cells: CoverageCells, i: number): number {
+  return blend(cells.nodes, cells.nodes.x, Math.floor(i / cells.width), i % cells.width);
+}
+
+/** Local-frame y of cell `i` (bilinear between its nodes). */
+export function cellY(cells: CoverageCells, i: number): number {
+  return blend(cells.nodes, cells.nodes.y, Math.floor(i / cells.width), i % cells.width);
+}
+
+/** The blend of one coordinate at cell row r, column c. */
+export function blend(n: CellNodes, v: Float64Array, r: number, c: number): number {
+  let kr = Math.floor(r / n.step), kc = Math.floor(c / n.step);
+  if (kr > n.rows - 2) kr = n.rows - 2;
+  if (kc > n.cols - 2) kc = n.cols - 2;
+  const tr = (r - kr * n.step) / n.step, tc = (c - kc * n.step) / n.step;
+  const o = kr * n.cols + kc;
+  const top = v[o] + (v[o + 1] - v[o]) * tc, bottom = v[o + n.cols] + (v[o + n.cols + 1] - v[o + n.cols]) * tc;
+  return top + (bottom - top) * tr;
+}
+
+/** Per raster column: its node column and its share of the way to the next (as `blend` works them out). */
+export interface ColumnBlend { k: Int32Array; t: Float64Array }
+
+export function columnBlend(n: CellNodes, width: number): ColumnBlend {
+  const k = new Int32Array(width), t = new Float64Array(width);
+  for (let c = 0; c < width; c++) {
+    let kc = Math.floor(c / n.step);
+    if (kc > n.cols - 2) kc = n.cols - 2;
+    k[c] = kc;
+    t[c] = (c - kc * n.step) / n.step;
+  }
+  return { k, t };
+}
+
+/** The positions of row r's cells c0..c1 − 1 into xs, ys from index `at`: bit for bit `blend`, without its per-cell divisions. */
+export function rowPositions(n: CellNodes, cb: ColumnBlend, r: number, c0: number, c1: number, xs: Float64Array, ys: Float64Array, at: number): void {
+  let kr = Math.floor(r / n.step);
+  if (kr > n.rows - 2) kr = n.rows - 2;
+  const tr = (r - kr * n.step) / n.step;
+  const vx = n.x, vy = n.y, cols = n.cols, base = kr * cols;
+  for (let c = c0; c < c1; c++) {
+    const o = base + cb.k[c], tc = cb.t[c], d = o + cols;
+    const tx = vx[o] + (vx[o + 1] - vx[o]) * tc, bx = vx[d] + (vx[d + 1] - vx[d]) * tc;
+    const ty = vy[o] + (vy[o + 1] - vy[o]) * tc, by = vy[d] + (vy[d + 1] - vy[d]) * tc;
+    xs[at + c - c0] = tx + (bx - tx) * tr;
+    ys[at + c - c0] = ty + (by - ty) * tr;
+  }
 }
 
 /** 12345 -> "12,345". */
@@ -105,23 +176,32 @@ export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, 
       for (let c = c0; c <= c1; c++) { if (!inside[r * width + c]) insideCount++; inside[r * width + c] = 1; }
     }
   }
-  // cell centres: grid heights in the grid CRS, positions in the local frame
-  const gx = new Float64Array(n), gy = new Float64Array(n);
-  for (let r = 0; r < height; r++) for (let c = 0; c < width; c++) { gx[r * width + c] = x0 + (c + 0.5) * sx; gy[r * width + c] = yTop - (r + 0.5) * sy; }
+  // cell centres: grid heights in the grid CRS, one row at a time
   const z = new Float32Array(n);
-  sampleGridCoords(grid, gx, gy, z);
-  const toFrame = createTransform(grid.crs, frame.crs);
-  toFrame.forwardArrays(gx, gy);
+  const gx = new Float64Array(width), gy = new Float64Array(width), row = new Float32Array(width);
+  for (let c = 0; c < width; c++) gx[c] = x0 + (c + 0.5) * sx;
+  for (let r = 0; r < height; r++) {
+    gy.fill(yTop - (r + 0.5) * sy);
+    sampleGridCoords(grid, gx, gy, row);
+    z.set(row, r * width);
+  }
+  // positions in the local frame at the nodes (exact), in between blended
+  const step = nodeStepFor(cellM);
+  const cols = Math.max(1, Math.ceil((width - 1) / step)) + 1, rows = Math.max(1, Math.ceil((height - 1) / step)) + 1;
+  const nxs = new Float64Array(cols * rows), nys = new Float64Array(cols * rows);
+  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) { nxs[r * cols + c] = x0 + (c * step + 0.5) * sx; nys[r * cols + c] = yTop - (r * step + 0.5) * sy; }
+  createTransform(grid.crs, frame.crs).forwardArrays(nxs, nys);
   const k = frame.scale;
-  const x = new Float32Array(n), y = new Float32Array(n);
-  for (let i = 0; i < n; i++) { x[i] = (gx[i] - frame.originE) / k; y[i] = (gy[i] - frame.originN) / k; }
+  for (let i = 0; i < nxs.length; i++) { nxs[i] = (nxs[i] - frame.originE) / k; nys[i] = (nys[i] - frame.originN) / k; }
+  const nodes: CellNodes = { step, cols, rows, x: nxs, y: nys };
   // one cell's ground area from the local positions of its neighbours near the area's middle
-  const mid = Math.floor(height / 2) * width + Math.floor(width / 2);
-  const right = width > 1 ? mid + 1 : mid, down = height > 1 ? mid + width : mid;
+  const mr = Math.floor(height / 2), mc = Math.floor(width / 2);
   let cellAreaM2 = cellM * cellM;
-  if (right !== mid && down !== mid) {
-    const ax = x[right] - x[mid], ay = y[right] - y[mid], bx = x[down] - x[mid], by = y[down] - y[mid];
+  if (width > 1 && height > 1) {
+    const px = blend(nodes, nxs, mr, mc), py = blend(nodes, nys, mr, mc);
+    const ax = blend(nodes, nxs, mr, mc + 1) - px, ay = blend(nodes, nys, mr, mc + 1) - py;
+    const bx = blend(nodes, nxs, mr + 1, mc) - px, by = blend(nodes, nys, mr + 1, mc) - py;
     cellAreaM2 = Math.abs(ax * by - ay * bx);
   }
-  return { width, height, transform, crs: grid.crs, cellM, cellAreaM2, inside, x, y, z, insideCount };
+  return { width, height, transform, crs: grid.crs, cellM, cellAreaM2, inside, z, nodes, insideCount };
 }

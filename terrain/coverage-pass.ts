@@ -1,14 +1,20 @@
 /** The per-cell pass of the coverage raster: for each cell the candidate photos of its tile, the views that count and the figures from them. */
-import type { CoverageCells } from './coverage-grid';
+import { rowPositions, type ColumnBlend, type CoverageCells } from './coverage-grid';
+import { classifyBox, IN, MIXED, OUT } from './coverage-blocks';
+import type { NormalisedBounds } from './image-bounds';
 import type { CoveragePhoto } from './coverage-photo';
 import type { AttitudeEnvelope } from './attitude-envelope';
 import { insideImage, projectPoint, type ImageModel } from './pose';
-import { viewGsdCm } from './view-gsd';
-import { addView, sigmaFromNormal } from './ray-intersection';
-import { latticeHeight, occluded, type HeightLattice } from './occlusion';
+import { sigmaFromNormal } from './ray-intersection';
+import { heightsAround, occludedRay, type HeightLattice } from './occlusion';
 
-/** Cells per tile side; each tile is matched once against the photos' boxes. */
+/** Cells per tile side; each tile is matched once against the photos' boxes (a multiple of the cells' node step). */
 export const TILE = 16;
+/** Cells per block side: each block of a tile is decided at once against each photo of the tile (`coverage-blocks.ts`). */
+const BLOCK = 4;
+const BLOCKS = (TILE / BLOCK) * (TILE / BLOCK);
+/** Slack of the decisions on the photos' horizontal boxes, metres (the rounding of a point's offset is far below). */
+const BOX_SLACK = 1e-9;
 /** A surface seen at less than about 1.1° (cos of the incidence below 0.02) is treated as unseen: back-facing or grazing. */
 const MIN_COS_INCIDENCE = 0.02;
 
@@ -30,21 +36,54 @@ interface CellPass {
   /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
   boxSlope: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
   rays: Float64Array; sigmaPx: number; sig: Float64Array;
+  /** Where the planned image and the envelope's shrunk image hold a whole box of ground points (`image-bounds.ts`). */
+  bounds: NormalisedBounds; envBounds: NormalisedBounds;
+  /** Test every candidate photo at every cell, deciding no block at once (the reference the block decisions are checked against). */
+  exact: boolean;
+  /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point. */
+  pt: Float64Array; ray: Float64Array; around: Float64Array;
+  /** Scratch: cos and sin of each ray's angle from the vertical (2 per view). */
+  tilt: Float64Array;
+  /** Per raster column, how its position blends between nodes (`rowPositions`). */
+  cb: ColumnBlend;
+  /** Scratch: the local positions of the current tile's cells (row-major, TILE per row). */
+  px: Float64Array; py: Float64Array;
+  /** Longest photo list of a tile. */
+  longest: number;
   /** Stop after the first cell for which this says true (null: visit every cell). */
   stop: ((cell: number) => boolean) | null;
 }
 
-/** The per-cell pass over the tiles: views and the figures from them. Returns the cell it stopped at (`stop`), else -1. */
+/**
+ * The per-cell pass over the tiles: views and the figures from them. Returns the cell it stopped at (`stop`), else
+ * -1. Cells are visited in the same order with or without block decisions (tile by tile, row by row in a tile), so
+ * `stop` sees the same first cell either way.
+ */
 export function fillCells(c: CellPass): number {
-  const { th, tw, tileLists, tileSlopes, width, height, inside, stop } = c;
+  const { th, tw, tileLists, tileSlopes, width, height, inside, stop, cells, longest } = c;
+  const z = cells.z;
+  // per tile: the cells' positions; per block: the photos that may see some of its cells and how far each is decided
+  const { px, py } = c;
+  const picks = new Int32Array(BLOCKS * Math.max(1, longest)), codes = new Uint8Array(BLOCKS * Math.max(1, longest));
+  const picked = new Int32Array(BLOCKS), sure = new Int32Array(BLOCKS), tileCodes = new Int8Array(Math.max(1, longest));
+  const nb = TILE / BLOCK;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
       const list = tileLists[ty * tw + tx], slopes = tileSlopes[ty * tw + tx];
-      for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
-        for (let col = tx * TILE; col < Math.min(width, (tx + 1) * TILE); col++) {
+      const r0 = ty * TILE, c0 = tx * TILE, r1 = Math.min(height, r0 + TILE), c1 = Math.min(width, c0 + TILE);
+      let any = false;
+      for (let i = r0 * width + c0; i < r0 * width + c1 && !any; i++) any = inside[i] === 1;
+      for (let r = r0 + 1; r < r1 && !any; r++) for (let i = r * width + c0; i < r * width + c1 && !any; i++) any = inside[i] === 1;
+      if (!any) continue;
+      for (let r = r0; r < r1; r++) rowPositions(cells.nodes, c.cb, r, c0, c1, px, py, (r - r0) * TILE);
+      decideTile(c, list, r0, c0, r1, c1, px, py, tileCodes, picks, codes, picked, sure);
+      for (let r = r0; r < r1; r++) {
+        for (let col = c0; col < c1; col++) {
           const i = r * width + col;
           if (!inside[i]) continue;
-          visitCell(c, list, slopes, i);
+          const k = (r - r0) * TILE + (col - c0);
+          const b = Math.floor((r - r0) / BLOCK) * nb + Math.floor((col - c0) / BLOCK);
+          visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
           if (stop !== null && stop(i)) return i;
         }
       }
@@ -53,86 +92,273 @@ export function fillCells(c: CellPass): number {
   return -1;
 }
 
-/** One cell: the photos of its tile that see its ground point, and the figures from them (small, so it is optimised early). */
-function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number): void {
-  const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
-  const px = cells.x[i], py = cells.y[i], pz = cells.z[i];
-  if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
-  if (viewsOnly) {
-    let count = 0;
-    for (let li = 0; li < list.length; li++) {
-      const j = list[li];
-      const b = j * 4;
-      if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) continue;
-      if (!inOrientedBox(obox, j * 6, px - pos[j * 3], py - pos[j * 3 + 1])) continue;
-      const p = photos[j];
-      if (!projectPoint(model, rots[j], p.xM, p.yM, p.altitudeM, px, py, pz, uv) || !insideImage(model, uv[0], uv[1])) continue;
-      if (env) {
-        let ok = true;
-        for (let s = 0; s < envCount[j] && ok; s++) ok = projectPoint(model, envRots[j], p.xM, p.yM, p.altitudeM, px, py, pz, uv, s * 9) && insideImage(model, uv[0], uv[1], marginPx);
-        if (!ok) continue;
+/** Codes of a photo against a box of cells: the planned decision (ground boxes and image) | the envelope's << 2; DROP when no cell can count it. */
+const DROP = -1;
+const ALL_IN = IN | (IN << 2);
+
+/**
+ * One photo against a box of ground points (horizontal extent x0..x1, y0..y1, heights around mz ± hz): the planned
+ * decision takes the photo's axis-aligned ground box, its box in the heading frame and the image; the envelope's
+ * decision every attitude of it. `known` is the code of a box holding this one (a tile around a block): what it
+ * decided holds here too and is not worked out again.
+ */
+function decidePhoto(c: CellPass, j: number, x0: number, x1: number, y0: number, y1: number, mz: number, hz: number, known: number): number {
+  const { boxes, obox, pos, rots, env, envRots, envCount, bounds, envBounds, viewsOnly } = c;
+  let planned = known & 3, enc = known >> 2;
+  const mx = (x0 + x1) / 2, my = (y0 + y1) / 2, hx = (x1 - x0) / 2, hy = (y1 - y0) / 2;
+  const dx = mx - pos[j * 3], dy = my - pos[j * 3 + 1], dz = mz - pos[j * 3 + 2];
+  if (planned === MIXED) {
+    const q = j * 4;
+    if (x1 < boxes[q] || x0 > boxes[q + 2] || y1 < boxes[q + 1] || y0 > boxes[q + 3]) return DROP;
+    let boxIn = x0 >= boxes[q] && x1 <= boxes[q + 2] && y0 >= boxes[q + 1] && y1 <= boxes[q + 3];
+    const o = j * 6, sp = obox[o], cp = obox[o + 1];
+    const a = sp * dx + cp * dy, e = cp * dx - sp * dy;
+    const sa = Math.abs(sp) * hx + Math.abs(cp) * hy + BOX_SLACK, se = Math.abs(cp) * hx + Math.abs(sp) * hy + BOX_SLACK;
+    if (a + sa < obox[o + 2] || a - sa > obox[o + 3] || e + se < obox[o + 4] || e - se > obox[o + 5]) return DROP;
+    boxIn = boxIn && a - sa >= obox[o + 2] && a + sa <= obox[o + 3] && e - se >= obox[o + 4] && e + se <= obox[o + 5];
+    const seen = classifyBox(rots[j], 0, bounds.inner, bounds.outer, dx, dy, dz, hx, hy, hz);
+    if (seen === OUT) return DROP;
+    planned = seen === IN && boxIn ? IN : MIXED;
+  }
+  if (env && enc === MIXED) {
+    enc = IN;
+    for (let k = 0; k < envCount[j] && enc !== OUT; k++) {
+      const d = classifyBox(envRots[j], k * 9, envBounds.inner, envBounds.outer, dx, dy, dz, hx, hy, hz);
+      if (d < enc) enc = d;
+    }
+  }
+  if (enc === OUT && viewsOnly) return DROP;
+  return planned | (enc << 2);
+}
+
+/**
+ * The tile's photos against its whole box (`codes` per photo of the tile list), then each block of it: which
+ * photos may see some of the block's cells (`picks`, in the tile list's order, so each cell meets its photos in the
+ * same order as without blocks) and their codes. Counting views only, photos IN on both are counted in `sure`
+ * instead of picked. Returns false (nothing picked) when the tile has no cell with a known height.
+ */
+function decideTile(
+  c: CellPass, list: Int32Array, r0: number, c0: number, r1: number, c1: number, px: Float64Array, py: Float64Array,
+  tileCodes: Int8Array, picks: Int32Array, codes: Uint8Array, picked: Int32Array, sure: Int32Array,
+): boolean {
+  const { width, inside, cells, exact, longest, env, viewsOnly } = c;
+  const z = cells.z;
+  const nb = TILE / BLOCK;
+  const mixed = MIXED | ((env ? MIXED : IN) << 2);
+  // each block's box, and the tile's
+  let t0 = Infinity, t1 = -Infinity, u0 = Infinity, u1 = -Infinity, w0 = Infinity, w1 = -Infinity;
+  const bx = boxScratch;
+  for (let b = 0; b < BLOCKS; b++) {
+    const br = r0 + Math.floor(b / nb) * BLOCK, bc = c0 + (b % nb) * BLOCK;
+    let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
+    for (let r = br; r < Math.min(r1, br + BLOCK); r++) {
+      for (let col = bc; col < Math.min(c1, bc + BLOCK); col++) {
+        const i = r * width + col;
+        const h = z[i];
+        if (!inside[i] || !(h === h)) continue;
+        const k = (r - r0) * TILE + (col - c0);
+        const x = px[k], y = py[k];
+        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y; if (h < z0) z0 = h; if (h > z1) z1 = h;
       }
+    }
+    bx[b * 6] = x0; bx[b * 6 + 1] = x1; bx[b * 6 + 2] = y0; bx[b * 6 + 3] = y1; bx[b * 6 + 4] = z0; bx[b * 6 + 5] = z1;
+    if (x0 < t0) t0 = x0; if (x1 > t1) t1 = x1; if (y0 < u0) u0 = y0; if (y1 > u1) u1 = y1; if (z0 < w0) w0 = z0; if (z1 > w1) w1 = z1;
+    picked[b] = 0; sure[b] = 0;
+  }
+  if (!(t0 <= t1)) return false; // no cell with a known height: none is visited past its first line
+  for (let li = 0; li < list.length; li++) tileCodes[li] = exact ? mixed : decidePhoto(c, list[li], t0, t1, u0, u1, (w0 + w1) / 2, (w1 - w0) / 2, mixed);
+  for (let b = 0; b < BLOCKS; b++) {
+    const x0 = bx[b * 6], x1 = bx[b * 6 + 1], y0 = bx[b * 6 + 2], y1 = bx[b * 6 + 3], z0 = bx[b * 6 + 4], z1 = bx[b * 6 + 5];
+    if (!(x0 <= x1)) continue;
+    const at = b * longest;
+    let n = 0, s = 0;
+    for (let li = 0; li < list.length; li++) {
+      const t = tileCodes[li];
+      if (t === DROP) continue;
+      const code = t === ALL_IN || exact ? t : decidePhoto(c, list[li], x0, x1, y0, y1, (z0 + z1) / 2, (z1 - z0) / 2, t);
+      if (code === DROP) continue;
+      if (viewsOnly && code === ALL_IN) { s++; continue; }
+      picks[at + n] = li;
+      codes[at + n] = code;
+      n++;
+    }
+    picked[b] = n; sure[b] = s;
+  }
+  return true;
+}
+
+/** Each block's box while its tile is decided (x0, x1, y0, y1, z0, z1 per block). */
+const boxScratch = new Float64Array(BLOCKS * 6);
+
+/**
+ * Whether the cell's ground point (c.pt[0..2]) lies in a photo's ground boxes and its image: the test the block
+ * decisions stand in for. Numbers pass through `c.pt`: a call boxes each number it passes.
+ */
+function seenAt(c: CellPass, j: number): boolean {
+  const { boxes, obox, pos, photos, model, rots, uv, pt } = c;
+  const px = pt[0], py = pt[1], pz = pt[2];
+  const b = j * 4;
+  if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) return false;
+  if (!inOrientedBox(obox, j * 6, px - pos[j * 3], py - pos[j * 3 + 1])) return false;
+  const p = photos[j];
+  return projectPoint(model, rots[j], p.xM, p.yM, p.altitudeM, px, py, pz, uv) && insideImage(model, uv[0], uv[1]);
+}
+
+/** Whether the cell's ground point (c.pt[0..2]) stays in the image (shrunk by the envelope's margin) at every attitude of a photo's envelope. */
+function heldAt(c: CellPass, j: number): boolean {
+  const { photos, model, uv, envCount, envRots, marginPx, pt } = c;
+  const px = pt[0], py = pt[1], pz = pt[2];
+  const p = photos[j], er = envRots[j];
+  for (let s = 0; s < envCount[j]; s++) {
+    if (!(projectPoint(model, er, p.xM, p.yM, p.altitudeM, px, py, pz, uv, s * 9) && insideImage(model, uv[0], uv[1], marginPx))) return false;
+  }
+  return true;
+}
+
+/** Whether terrain hides the cell's ground point (c.pt[0..2]) from a camera (`occludedRay`, numbers passed in an array). */
+function hiddenFrom(c: CellPass, ox: number, oy: number, oz: number, maxM: number): boolean {
+  const a = c.ray, pt = c.pt;
+  a[0] = pt[0]; a[1] = pt[1]; a[2] = pt[2]; a[3] = ox; a[4] = oy; a[5] = oz; a[6] = c.tol; a[7] = maxM;
+  return occludedRay(c.lattice, a);
+}
+
+/**
+ * The smallest dot product of two of the `v` unit rays (x, y, z from `rays`): the largest angle between two views.
+ * Exactly the minimum over every pair, with pairs that cannot reach it skipped: for rays at angles θa and θb from
+ * the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the sphere), so once the steepest ray m
+ * has been paired with every other, a ray a with cos(θa + θm) above the minimum so far meets no ray that gives less
+ * (θb ≤ θm for every b). Applies while every ray points up (all angles below 90°); else every pair is read.
+ */
+function minRayDot(rays: Float64Array, v: number, tilt: Float64Array): number {
+  let m = 0, up = true;
+  for (let a = 0; a < v; a++) {
+    const cz = rays[a * 3 + 2];
+    if (!(cz > 0)) up = false;
+    tilt[a * 2] = cz;
+    tilt[a * 2 + 1] = Math.sqrt(Math.max(0, 1 - cz * cz));
+    if (cz < rays[m * 3 + 2]) m = a;
+  }
+  let minDot = 1;
+  if (!up) {
+    for (let a = 0; a < v; a++) {
+      const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
+      for (let b = a + 1; b < v; b++) {
+        const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
+        if (d < minDot) minDot = d;
+      }
+    }
+    return minDot;
+  }
+  const mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], cm = tilt[m * 2], sm = tilt[m * 2 + 1];
+  for (let b = 0; b < v; b++) {
+    if (b === m) continue;
+    const d = b < m ? rays[b * 3] * mx + rays[b * 3 + 1] * my + rays[b * 3 + 2] * mz : mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
+    if (d < minDot) minDot = d;
+  }
+  for (let a = 0; a < v; a++) {
+    if (a === m || tilt[a * 2] * cm - tilt[a * 2 + 1] * sm > minDot + 1e-12) continue;
+    const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
+    for (let b = 0; b < v; b++) {
+      if (b === a) continue;
+      const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
+      if (d < minDot) minDot = d;
+    }
+  }
+  return minDot;
+}
+
+/** One cell: the photos of its block that see its ground point, and the figures from them (small, so it is optimised early). */
+function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
+  const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, photos, model, rots, boxTop, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
+  const pz = cells.z[i];
+  if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
+  const pt = c.pt, px = c.px[k], py = c.py[k];
+  pt[0] = px; pt[1] = py; pt[2] = pz;
+  if (viewsOnly) {
+    let count = sure;
+    for (let e = 0; e < picked; e++) {
+      const j = list[picks[at + e]], code = codes[at + e];
+      if ((code & 3) !== IN && !seenAt(c, j)) continue;
+      const enc = code >> 2;
+      if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
       count++;
     }
     views[i] = count;
     return;
   }
   // ground normal from the lattice (central differences); level where unknown
-  let gx = (latticeHeight(lattice, px + hStep, py) - latticeHeight(lattice, px - hStep, py)) / (2 * hStep);
-  let gy = (latticeHeight(lattice, px, py + hStep) - latticeHeight(lattice, px, py - hStep)) / (2 * hStep);
+  const around = c.around;
+  around[0] = px; around[1] = py; around[2] = hStep;
+  heightsAround(lattice, around);
+  let gx = (around[3] - around[4]) / (2 * hStep);
+  let gy = (around[5] - around[6]) / (2 * hStep);
   if (!(gx === gx)) gx = 0;
   if (!(gy === gy)) gy = 0;
   const nl = Math.sqrt(gx * gx + gy * gy + 1);
   const nx = -gx / nl, ny = -gy / nl, nz = 1 / nl;
   // the lattice's surface at the point against the cell's own height: a ray leaving the surface and rising faster
   // than any ground it crosses can rise cannot meet that ground (occlusion.ts blockSlope)
-  const lift = latticeHeight(lattice, px, py) - pz;
+  const lift = around[7] - pz;
   const nearSurface = lift <= tol;
-  let planned = 0, k = 0, atSpec = 0, finest = Infinity;
-  N.fill(0);
-  for (let li = 0; li < list.length; li++) {
+  let planned = 0, v = 0, atSpec = 0, finest = Infinity;
+  let n0 = 0, n1 = 0, n2 = 0, n3 = 0, n4 = 0, n5 = 0;
+  const ifx2 = 1 / (model.fxPx * model.fxPx), ify2 = 1 / (model.fyPx * model.fyPx), fxs = model.fxPx / sigmaPx, fys = model.fyPx / sigmaPx;
+  for (let e = 0; e < picked; e++) {
+    const li = picks[at + e], code = codes[at + e];
     const j = list[li];
-    const b = j * 4;
-    if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) continue;
-    if (!inOrientedBox(obox, j * 6, px - pos[j * 3], py - pos[j * 3 + 1])) continue;
+    if ((code & 3) !== IN && !seenAt(c, j)) continue;
     const p = photos[j];
     const rot = rots[j];
-    if (!projectPoint(model, rot, p.xM, p.yM, p.altitudeM, px, py, pz, uv) || !insideImage(model, uv[0], uv[1])) continue;
     const dx = px - p.xM, dy = py - p.yM, dz = pz - p.altitudeM;
     const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    const rx = dx / R, ry = dy / R, rz = dz / R;
-    if (-(nx * rx + ny * ry + nz * rz) < MIN_COS_INCIDENCE) continue;
-    if (useOcclusion && !(nearSurface && -dz >= slopes[li] * Math.sqrt(dx * dx + dy * dy)) && occluded(lattice, px, py, pz, p.xM, p.yM, p.altitudeM, tol, boxTop[j])) continue;
+    // n·d = R·(n·r̂): the incidence test −n·r̂ < MIN_COS_INCIDENCE without dividing
+    const nd = nx * dx + ny * dy + nz * dz;
+    if (-nd < MIN_COS_INCIDENCE * R) continue;
+    // the slope bound (occlusion.ts blockSlope) squared: −dz ≥ slope · horizontal distance
+    const sl = slopes[li];
+    if (useOcclusion && !(nearSurface && dz <= 0 && dz * dz >= sl * sl * (dx * dx + dy * dy)) && hiddenFrom(c, p.xM, p.yM, p.altitudeM, boxTop[j])) continue;
     planned++;
-    if (env) {
-      const er = envRots[j];
-      let ok = true;
-      for (let s = 0; s < envCount[j] && ok; s++) {
-        ok = projectPoint(model, er, p.xM, p.yM, p.altitudeM, px, py, pz, uv, s * 9) && insideImage(model, uv[0], uv[1], marginPx);
-      }
-      if (!ok) continue;
-    }
-    const g = viewGsdCm(rot, model.fxPx, model.fyPx, R, rx, ry, rz, nx, ny, nz);
+    const enc = code >> 2;
+    if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
+    // viewGsdCm and addView written out here (the engine does not inline them into a function this size, and a
+    // call boxes every number it passes), with their divisions shared: R·cos α = qz (the depth along the axis) and
+    // r̂·(n·e)/(n·r̂) = d·(n·e)/(n·d), so GSD_e = qz / f_e · |e − d (n·e)/(n·d)| · 100
+    const r0 = rot[0], r1 = rot[1], r2 = rot[2], r3 = rot[3], r4 = rot[4], r5 = rot[5], r6 = rot[6], r7 = rot[7], r8 = rot[8];
+    const qx = r0 * dx + r3 * dy + r6 * dz;
+    const qy = r1 * dx + r4 * dy + r7 * dz;
+    const qz = r2 * dx + r5 * dy + r8 * dz;
+    const ind = 1 / nd;
+    const kx = (nx * r0 + ny * r3 + nz * r6) * ind;
+    const gxx = r0 - dx * kx, gxy = r3 - dy * kx, gxz = r6 - dz * kx;
+    const ky = (nx * r1 + ny * r4 + nz * r7) * ind;
+    const gyx = r1 - dx * ky, gyy = r4 - dy * ky, gyz = r7 - dz * ky;
+    const ex = (gxx * gxx + gxy * gxy + gxz * gxz) * ifx2, ey = (gyx * gyx + gyy * gyy + gyz * gyz) * ify2;
+    const g = qz * Math.sqrt(ex > ey ? ex : ey) * 100;
     if (g < finest) finest = g;
     if (g <= spec) atSpec++;
-    rays[k * 3] = -rx; rays[k * 3 + 1] = -ry; rays[k * 3 + 2] = -rz;
-    addView(N, 0, rot, model.fxPx, model.fyPx, dx, dy, dz, sigmaPx);
-    k++;
+    const iR = 1 / R;
+    rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = -dz * iR;
+    const iq = 1 / qz;
+    const xn = qx * iq, yn = qy * iq;
+    const sx = fxs * iq, sy = fys * iq;
+    const ax = (r0 - xn * r2) * sx, ay = (r3 - xn * r5) * sx, az = (r6 - xn * r8) * sx;
+    const bx = (r1 - yn * r2) * sy, by = (r4 - yn * r5) * sy, bz = (r7 - yn * r8) * sy;
+    n0 += ax * ax + bx * bx;
+    n1 += ax * ay + bx * by;
+    n2 += ax * az + bx * bz;
+    n3 += ay * ay + by * by;
+    n4 += ay * az + by * bz;
+    n5 += az * az + bz * bz;
+    v++;
   }
-  views[i] = k;
+  views[i] = v;
   viewsPlanned[i] = planned;
   viewsAtSpecGsd[i] = atSpec;
-  if (k > 0) finestGsdCm[i] = finest;
-  if (k > 1) {
-    let minDot = 1;
-    for (let a = 0; a < k; a++) {
-      const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
-      for (let bI = a + 1; bI < k; bI++) {
-        const d = ax * rays[bI * 3] + ay * rays[bI * 3 + 1] + az * rays[bI * 3 + 2];
-        if (d < minDot) minDot = d;
-      }
-    }
+  if (v > 0) finestGsdCm[i] = finest;
+  if (v > 1) {
+    const minDot = minRayDot(rays, v, c.tilt);
     maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
+    N[0] = n0; N[1] = n1; N[2] = n2; N[3] = n3; N[4] = n4; N[5] = n5;
     sigmaFromNormal(N, 0, sig);
     sigmaHorizontalM[i] = sig[0];
     sigmaVerticalM[i] = sig[1];

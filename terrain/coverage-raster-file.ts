@@ -27,12 +27,18 @@ function coverageBands(r: CoverageRaster): Float32GeoTiff {
   const { cells } = r;
   check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
   const n = cells.width * cells.height;
-  const measures: ArrayLike<number>[] = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM];
-  const bands = measures.map((b) => {
-    const out = new Float32Array(n);
-    for (let i = 0; i < n; i++) out[i] = cells.inside[i] ? b[i] : COVERAGE_NODATA;
+  // one loop per array type, so each stays monomorphic
+  const counts = (b: Uint16Array) => {
+    const out = new Float32Array(n), inside = cells.inside;
+    for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i];
     return out;
-  });
+  };
+  const figures = (b: Float32Array) => {
+    const out = new Float32Array(n), inside = cells.inside;
+    for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i];
+    return out;
+  };
+  const bands = [counts(r.views), figures(r.finestGsdCm), counts(r.viewsAtSpecGsd), figures(r.maxRayAngleDeg), figures(r.sigmaVerticalM)];
   return {
     width: cells.width, height: cells.height, bands, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
@@ -40,7 +46,17 @@ function coverageBands(r: CoverageRaster): Float32GeoTiff {
 }
 
 export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
-  return writeFloat32GeoTiff(coverageBands(r));
+  const { cells } = r;
+  check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
+  const inside = cells.inside, n = cells.width * cells.height;
+  // each band written straight into the file (one loop per array type, so each stays monomorphic)
+  const counts = (b: Uint16Array) => (out: Float32Array) => { for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i]; };
+  const figures = (b: Float32Array) => (out: Float32Array) => { for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i]; };
+  return writeFloat32GeoTiff({
+    width: cells.width, height: cells.height, bandNames: coverageBandNames(r), transform: cells.transform,
+    epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
+    bands: [counts(r.views), figures(r.finestGsdCm), counts(r.viewsAtSpecGsd), figures(r.maxRayAngleDeg), figures(r.sigmaVerticalM)],
+  });
 }
 
 /** The same bands as a Cloud-Optimised GeoTIFF (tiled, with overviews), for downloads a GIS may read in parts. */

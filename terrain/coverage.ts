@@ -11,8 +11,9 @@ import { imageModel } from './pose';
 import { fillCells, TILE } from './coverage-pass';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
 import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
-import { latticeRange, rangeBlocks } from './lattice-range';
-import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
+import { latticeRange, rangeBlocks, type RangeBlocks } from './lattice-range';
+import { columnBlend, coverageCells, gridCellM, rowPositions, type CoverageCells } from './coverage-grid';
+import { normalisedBounds } from './image-bounds';
 import { check } from './errors';
 import type { CoveragePhoto } from './coverage-photo';
 
@@ -42,10 +43,17 @@ interface CoverageOptions {
   latticeStepM?: number;
   /**
    * Stop the pass at the first cell this says true for (called once a cell's figures are in `raster`): a yes/no
-   * question such as "does any cell fall short?" is answered at the first cell that says no. The raster's
-   * `stoppedAtCell` then names that cell; cells not visited yet keep their initial values (0 views, NaN figures).
+   * question such as "does any cell fall short?" is answered at the first cell that says no. Cells are visited
+   * tile by tile (TILE x TILE cells, tiles in row order), row by row within a tile, every cell of the area once;
+   * `stoppedAtCell` then names the first cell in that order the question said true for (not the first in plain
+   * row order); cells not visited yet keep their initial values (0 views, NaN figures).
    */
   stopAt?: (cell: number, raster: CoverageRaster) => boolean;
+  /**
+   * Project every cell into every candidate photo instead of deciding blocks of cells at once (the same figures,
+   * slower): the reference the tests hold the block decisions to.
+   */
+  exactPass?: boolean;
 }
 
 /** The coverage raster: the cell lattice and one value per cell and measure (counts 0 and figures NaN outside the area; NaN inside where a figure has no value). */
@@ -70,23 +78,37 @@ export interface CoverageRaster {
 }
 
 
+/** Camera-frame rays (normalised x, y) through 17 points of each image edge, distortion included: the same for every photo. */
+function edgeRays(camera: Camera): Float64Array {
+  const W = camera.imageWidthPx, H = camera.imageHeightPx, N = 16;
+  const out = new Float64Array((N + 1) * 8);
+  let at = 0;
+  for (let k = 0; k <= N; k++) {
+    for (let e = 0; e < 4; e++) {
+      const u = e < 2 ? (W * k) / N : e === 2 ? 0 : W, v = e === 0 ? 0 : e === 1 ? H : (H * k) / N;
+      const [xn, yn] = pixelRay(camera, u, v);
+      out[at++] = xn; out[at++] = yn;
+    }
+  }
+  return out;
+}
+
 /** Horizontal bounding box of everything a photo can see between the lowest and highest ground (border rays through distortion). */
-function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: number, zHigh: number, oriented?: Float64Array, at = 0): [number, number, number, number] {
+function photoBox(pose: CameraPose, edge: Float64Array, rot: Float64Array, zLow: number, zHigh: number, oriented?: Float64Array, at = 0): [number, number, number, number] {
   let x0 = pose.xM, x1 = pose.xM, y0 = pose.yM, y1 = pose.yM;
   // the same box in the photo's heading frame (along = sin ψ·dx + cos ψ·dy, across = cos ψ·dx − sin ψ·dy, from the camera)
   const sp = Math.sin((pose.yawDeg * Math.PI) / 180), cp = Math.cos((pose.yawDeg * Math.PI) / 180);
   let a0 = 0, a1 = 0, c0 = 0, c1 = 0;
-  const W = camera.imageWidthPx, H = camera.imageHeightPx;
-  const N = 16;
-  for (let k = 0; k <= N; k++) {
-    for (const [u, v] of [[(W * k) / N, 0], [(W * k) / N, H], [0, (H * k) / N], [W, (H * k) / N]]) {
-      const [xn, yn] = pixelRay(camera, u, v);
+  for (let k = 0; k < edge.length; k += 2) {
+    {
+      const xn = edge[k], yn = edge[k + 1];
       const dx = rot[0] * xn + rot[1] * yn + rot[2], dy = rot[3] * xn + rot[4] * yn + rot[5], dz = rot[6] * xn + rot[7] * yn + rot[8];
       if (!(dz < -1e-9)) {
         if (oriented) oriented.set([0, 1, -Infinity, Infinity, -Infinity, Infinity], at);
         return [-Infinity, -Infinity, Infinity, Infinity];
       }
-      for (const z of [zLow, Math.min(zHigh, pose.altitudeM)]) {
+      for (let zi = 0; zi < 2; zi++) {
+        const z = zi === 0 ? zLow : Math.min(zHigh, pose.altitudeM);
         const t = (z - pose.altitudeM) / dz;
         const x = pose.xM + t * dx, y = pose.yM + t * dy;
         if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
@@ -99,15 +121,31 @@ function photoBox(camera: Camera, pose: CameraPose, rot: Float64Array, zLow: num
   return [x0, y0, x1, y1];
 }
 
-/** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
-function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  const n = cells.x.length;
-  for (let i = 0; i < n; i++) {
-    if (!cells.inside[i]) continue;
-    const x = cells.x[i], y = cells.y[i];
-    if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
+/**
+ * A rise (metres up per metre along the ground) that a ray from a tile's ground point to a camera can have, at
+ * the least, and still be proven clear of the terrain without the march, when the point is on the lattice's
+ * surface (within the tolerance): `slope` bounds the ground between the whole tile and the camera, but the march
+ * stops once the ray is above `top` (the highest ground around the photo) by the tolerance, which a ray rising at
+ * ρ from a height ≥ `zLow` reaches within L = (top + tol − zLow) / ρ. So ρ ≥ max(ρ1, steepest ground within L1 of
+ * the tile) proves it for any ρ1; a few ρ1 below `slope` are tried and the least such bound kept.
+ */
+function riseNeeded(L: HeightLattice, around: readonly [number, number, number, number], tile: readonly [number, number, number, number], zLow: number, top: number, tol: number, pb: number, slope: number): number {
+  let best = slope;
+  if (!(zLow <= top + tol) || !(slope > 0)) return best;
+  for (let k = 1; k <= 4; k++) {
+    const rho = slope / 2 ** k;
+    const reach = (top + tol - zLow) / rho + pb;
+    const g = slopeIn(L, [Math.max(around[0], tile[0] - reach), Math.max(around[1], tile[1] - reach), Math.min(around[2], tile[2] + reach), Math.min(around[3], tile[3] + reach)]);
+    const bound = Math.max(rho, Math.min(g, slope));
+    if (bound < best) best = bound;
+    if (g > rho) break; // smaller ρ1 reach farther: no better
   }
+  return best;
+}
+
+/** Heights of the grid on a lattice of the local frame covering the cells and the cameras (the occlusion march runs on it). */
+function buildLattice(grid: Grid, frame: LocalFrame, cellBox: readonly [number, number, number, number], photos: readonly CoveragePhoto[], stepM: number): HeightLattice {
+  let [x0, y0, x1, y1] = cellBox;
   for (const p of photos) { x0 = Math.min(x0, p.xM); x1 = Math.max(x1, p.xM); y0 = Math.min(y0, p.yM); y1 = Math.max(y1, p.yM); }
   let step = stepM;
   const span = (x1 - x0 + 4 * step) * (y1 - y0 + 4 * step);
@@ -129,6 +167,8 @@ function buildLattice(grid: Grid, frame: LocalFrame, cells: CoverageCells, photo
   return lattice;
 }
 
+const rangesOf = new WeakMap<HeightLattice, RangeBlocks>();
+
 /** The last lattice built per grid and frame (read only once built; dropped with the grid or the frame). */
 const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattice: HeightLattice }>>();
 
@@ -138,7 +178,10 @@ const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattic
  * number of views at or below the spec's GSD (`view-gsd.ts`), the largest angle between two viewing rays and the
  * advisory precision of a least-squares intersection of the rays (`ray-intersection.ts`). With an envelope only
  * the views that hold at every attitude in it count (`attitude-envelope.ts`). Work is bounded by each photo's
- * ground box: cells are visited tile by tile against the photos whose box meets the tile.
+ * ground box: cells are visited tile by tile against the photos whose box meets the tile, and each 4 x 4 block of
+ * a tile is decided against each photo at once where its whole box of ground points lands inside or outside the
+ * image (`coverage-blocks.ts`); only cells of blocks on a footprint's edge are projected one by one. The figures are
+ * exactly those of projecting every cell (`exactPass`, which the tests compare cell for cell).
  */
 export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon, camera: Camera, photos: readonly CoveragePhoto[], opts: CoverageOptions): CoverageRaster {
   checkCamera(camera);
@@ -152,7 +195,36 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const viewsOnly = opts.viewsOnly ?? false;
   const useOcclusion = !viewsOnly && (opts.occlusion ?? true);
   const lat = area.coordinates[0][0][1];
-  const lattice = buildLattice(grid, frame, cells, photos, opts.latticeStepM ?? gridCellM(grid, lat));
+  // each tile's box of cell positions (and its lowest ground): the cells' box is their union
+  const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
+  const cb = columnBlend(cells.nodes, width);
+  const tileBox = new Float64Array(tw * th * 5);
+  for (let t = 0; t < tw * th; t++) tileBox.set([Infinity, Infinity, -Infinity, -Infinity, Infinity], t * 5);
+  const rowX = new Float64Array(width), rowY = new Float64Array(width);
+  const z = cells.z;
+  for (let r = 0; r < height; r++) {
+    rowPositions(cells.nodes, cb, r, 0, width, rowX, rowY, 0);
+    const row = r * width;
+    for (let tx = 0; tx < tw; tx++) {
+      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, zLow = Infinity;
+      for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
+        if (inside[row + c] === 0) continue;
+        const x = rowX[c], y = rowY[c], h = z[row + c];
+        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y; if (h < zLow) zLow = h;
+      }
+      if (!(x0 <= x1)) continue;
+      const t = (Math.floor(r / TILE) * tw + tx) * 5;
+      if (x0 < tileBox[t]) tileBox[t] = x0; if (y0 < tileBox[t + 1]) tileBox[t + 1] = y0;
+      if (x1 > tileBox[t + 2]) tileBox[t + 2] = x1; if (y1 > tileBox[t + 3]) tileBox[t + 3] = y1;
+      if (zLow < tileBox[t + 4]) tileBox[t + 4] = zLow;
+    }
+  }
+  const cellBox: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (let t = 0; t < tw * th; t++) {
+    cellBox[0] = Math.min(cellBox[0], tileBox[t * 5]); cellBox[1] = Math.min(cellBox[1], tileBox[t * 5 + 1]);
+    cellBox[2] = Math.max(cellBox[2], tileBox[t * 5 + 2]); cellBox[3] = Math.max(cellBox[3], tileBox[t * 5 + 3]);
+  }
+  const lattice = buildLattice(grid, frame, cellBox, photos, opts.latticeStepM ?? gridCellM(grid, lat));
   const model = imageModel(camera);
   const env = opts.envelope ?? null;
   // per photo: rotation, position, ground box, envelope rotations
@@ -160,7 +232,10 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const rots: Float64Array[] = [], boxes = new Float64Array(P * 4), obox = new Float64Array(P * 6), pos = new Float64Array(P * 3), boxTop = new Float64Array(P), boxSlope = new Float64Array(P), envRots: Float64Array[] = [], envCount = new Int32Array(P);
   let marginPx = 0;
   const envByAngles = new Map<string, ReturnType<typeof envelopeSamples>>();
-  const ranges = rangeBlocks(lattice);
+  // the lattice is kept across runs over one site (buildLattice), and so are its row ranges
+  let ranges = rangesOf.get(lattice);
+  if (!ranges) { ranges = rangeBlocks(lattice); rangesOf.set(lattice, ranges); }
+  const edge = edgeRays(camera);
   for (let j = 0; j < P; j++) {
     const p = photos[j];
     check(Number.isFinite(p.xM) && Number.isFinite(p.yM) && Number.isFinite(p.altitudeM) && Number.isFinite(p.yawDeg), `photo ${j + 1} needs a finite position, altitude and yaw, got ${JSON.stringify(p)}.`);
@@ -168,19 +243,21 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     rots.push(rot);
     // the box between the lowest and highest ground of the whole lattice, then again between the lowest and
     // highest ground inside that box (tighter where the relief is in another part of the area)
-    let b = photoBox(camera, p, rot, lattice.minM, lattice.maxM);
+    let b = photoBox(p, edge, rot, lattice.minM, lattice.maxM);
     for (let pass = 0; pass < 2 && Number.isFinite(b[0]); pass++) {
       const [lo, hi] = latticeRange(lattice, ranges, b);
       if (!(lo <= hi)) break;
-      b = photoBox(camera, p, rot, lo, hi);
+      b = photoBox(p, edge, rot, lo, hi);
     }
     const [oLo, oHi] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, b) : [lattice.minM, lattice.maxM];
-    photoBox(camera, p, rot, oLo, oHi, obox, j * 6);
+    photoBox(p, edge, rot, oLo, oHi, obox, j * 6);
     // the highest ground in the box: a ray from a point in it to the camera (also in it) never meets higher ground
     const pb = 4 * Math.max(opts.cellM, lattice.stepM);
-    boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
+    if (!useOcclusion) boxTop[j] = oHi;
+    else boxTop[j] = Number.isFinite(b[0]) ? latticeRange(lattice, ranges, [b[0] - pb, b[1] - pb, b[2] + pb, b[3] + pb])[1] : oHi;
     // the steepest ground any ray from the box to the camera crosses (the box and the camera's own position)
-    boxSlope[j] = Number.isFinite(b[0]) ? slopeIn(lattice, [Math.min(b[0], p.xM) - pb, Math.min(b[1], p.yM) - pb, Math.max(b[2], p.xM) + pb, Math.max(b[3], p.yM) + pb]) : Infinity;
+    if (!useOcclusion) boxSlope[j] = Infinity;
+    else boxSlope[j] = Number.isFinite(b[0]) ? slopeIn(lattice, [Math.min(b[0], p.xM) - pb, Math.min(b[1], p.yM) - pb, Math.max(b[2], p.xM) + pb, Math.max(b[3], p.yM) + pb]) : Infinity;
     const padO = 2 * opts.cellM;
     obox[j * 6 + 2] -= padO; obox[j * 6 + 3] += padO; obox[j * 6 + 4] -= padO; obox[j * 6 + 5] += padO;
     pos[j * 3] = p.xM; pos[j * 3 + 1] = p.yM; pos[j * 3 + 2] = p.altitudeM;
@@ -195,21 +272,14 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     }
   }
   // tiles of cells and the photos whose box meets each tile
-  const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
   const tileLists: Int32Array[] = [];
   const tileSlopes: Float64Array[] = [];
+  const noSlopes = new Float64Array(0); // no occlusion: no slope bound is read
   let longest = 0;
   for (let ty = 0; ty < th; ty++) {
     for (let tx = 0; tx < tw; tx++) {
-      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-      for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) {
-        for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
-          const i = r * width + c;
-          if (!inside[i]) continue;
-          const x = cells.x[i], y = cells.y[i];
-          if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y;
-        }
-      }
+      const tb = (ty * tw + tx) * 5;
+      const x0 = tileBox[tb], y0 = tileBox[tb + 1], x1 = tileBox[tb + 2], y1 = tileBox[tb + 3], zLow = tileBox[tb + 4];
       const list: number[] = [];
       if (x0 <= x1) {
         for (let j = 0; j < P; j++) {
@@ -217,8 +287,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
           // and the tile's corners, turned into the photo's heading frame, against its oriented box
           const o = j * 6, sp = obox[o], cp = obox[o + 1];
           let a0 = Infinity, a1 = -Infinity, c0 = Infinity, c1 = -Infinity;
-          for (const [x, y] of [[x0, y0], [x1, y0], [x0, y1], [x1, y1]]) {
-            const dx = x - pos[j * 3], dy = y - pos[j * 3 + 1];
+          for (let k = 0; k < 4; k++) {
+            const dx = (k & 1 ? x1 : x0) - pos[j * 3], dy = (k & 2 ? y1 : y0) - pos[j * 3 + 1];
             const a = sp * dx + cp * dy, c = cp * dx - sp * dy;
             if (a < a0) a0 = a; if (a > a1) a1 = a; if (c < c0) c0 = c; if (c > c1) c1 = c;
           }
@@ -228,7 +298,10 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
       tileLists.push(Int32Array.from(list));
       // per photo of the tile: the steepest ground any ray from the tile's cells to that camera crosses
       const pb = 4 * Math.max(opts.cellM, lattice.stepM);
-      tileSlopes.push(Float64Array.from(list, (j) => Math.min(boxSlope[j], slopeIn(lattice, [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb]))));
+      tileSlopes.push(!useOcclusion ? noSlopes : Float64Array.from(list, (j) => {
+        const around: [number, number, number, number] = [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb];
+        return riseNeeded(lattice, around, [x0, y0, x1, y1], zLow, boxTop[j], tol, pb, Math.min(boxSlope[j], slopeIn(lattice, around)));
+      }));
       if (list.length > longest) longest = list.length;
     }
   }
@@ -245,7 +318,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const hStep = lattice.stepM;
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
   const stopAt = opts.stopAt;
-  const stopped = fillCells({ th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
+  const stopped = fillCells({ cb, tilt: new Float64Array(2 * Math.max(1, longest)), pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }

@@ -16,6 +16,12 @@ export interface Float32GeoTiff {
   nodata: number;
 }
 
+/**
+ * A band's values, or a function that writes them into the array it is given: where the host is little-endian
+ * that array is the file's own bytes, so a large raster is not held twice.
+ */
+export type BandSource = Float32Array | ((out: Float32Array) => void);
+
 const SHORT = 3, LONG = 4, DOUBLE = 12, ASCII = 2;
 const TYPE_BYTES: Record<number, number> = { [SHORT]: 2, [LONG]: 4, [DOUBLE]: 8, [ASCII]: 1 };
 
@@ -31,11 +37,11 @@ const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replac
  * GeoKeyDirectory naming the EPSG CRS (ProjectedCSTypeGeoKey or GeographicTypeGeoKey), plus GDAL's own
  * GDAL_NODATA (42113) and GDAL_METADATA (42112) tags. Refuses rotated transforms (no ModelTransformation here).
  */
-export function writeFloat32GeoTiff(r: Float32GeoTiff): Uint8Array {
+export function writeFloat32GeoTiff(r: Omit<Float32GeoTiff, 'bands'> & { bands: readonly BandSource[] }): Uint8Array {
   const nb = r.bands.length;
   check(nb >= 1 && r.bandNames.length === nb, `a GeoTIFF needs at least one band and one name per band, got ${nb} bands and ${r.bandNames.length} names.`);
   check(r.transform[2] === 0 && r.transform[4] === 0, 'the raster must be north up (no rotation terms) to be written.');
-  for (const b of r.bands) check(b.length === r.width * r.height, `every band must hold ${r.width} x ${r.height} values, got ${b.length}.`);
+  for (const b of r.bands) if (typeof b !== 'function') check(b.length === r.width * r.height, `every band must hold ${r.width} x ${r.height} values, got ${b.length}.`);
   const bandBytes = r.width * r.height * 4;
   const meta = `<GDALMetadata>${r.bandNames.map((name, i) => `<Item name="DESCRIPTION" sample="${i}" role="description">${esc(name)}</Item>`).join('')}</GDALMetadata>`;
   const keys = r.geographic
@@ -98,8 +104,11 @@ export function writeFloat32GeoTiff(r: Float32GeoTiff): Uint8Array {
   });
   dv.setUint32(10 + entries.length * 12, 0, true);
   for (let b = 0; b < nb; b++) {
-    const band = r.bands[b];
+    const source = r.bands[b];
     const at = dataAt + b * bandBytes;
+    if (typeof source === 'function' && LITTLE_ENDIAN_HOST && at % 4 === 0) { source(new Float32Array(out.buffer, at, r.width * r.height)); continue; }
+    let band: Float32Array;
+    if (typeof source === 'function') { band = new Float32Array(r.width * r.height); source(band); } else band = source;
     if (LITTLE_ENDIAN_HOST) out.set(new Uint8Array(band.buffer, band.byteOffset, bandBytes), at);
     else for (let i = 0; i < band.length; i++) dv.setFloat32(at + 4 * i, band[i], true);
   }

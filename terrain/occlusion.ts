@@ -22,6 +22,11 @@ export interface HeightLattice {
    * cells' edge differences, 0 where no cell of the block has four known nodes.
    */
   blockSlope: Float32Array;
+  /**
+   * Along each row of blocks, the steepest rise over runs of 2^k blocks (level k starting at block i, row-major
+   * per level): any run of a row is the union of two of them, so `slopeIn` reads two values per row.
+   */
+  slopeRuns: Float32Array[];
 }
 
 const BLOCK = 8;
@@ -59,7 +64,13 @@ export function heightLattice(x0: number, y0: number, stepM: number, nx: number,
       if (g > blockSlope[k]) blockSlope[k] = g;
     }
   }
-  return { x0, y0, stepM, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax, blockSlope };
+  const slopeRuns = [blockSlope];
+  for (let w = 1; 2 * w <= bnx; w *= 2) {
+    const prev = slopeRuns[slopeRuns.length - 1], next = new Float32Array(bnx * bny);
+    for (let j = 0; j < bny; j++) for (let i = 0; i + 2 * w <= bnx; i++) next[j * bnx + i] = Math.max(prev[j * bnx + i], prev[j * bnx + i + w]);
+    slopeRuns.push(next);
+  }
+  return { x0, y0, stepM, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax, blockSlope, slopeRuns };
 }
 
 /** The steepest rise of the lattice's surface over a local box [x0, y0, x1, y1] (block bound; 0 off the lattice). */
@@ -68,7 +79,16 @@ export function slopeIn(L: HeightLattice, box: readonly [number, number, number,
   const b0 = Math.max(0, Math.floor((box[0] - L.x0) / span)), b1 = Math.min(L.bnx - 1, Math.floor((box[2] - L.x0) / span));
   const c0 = Math.max(0, Math.floor((box[1] - L.y0) / span)), c1 = Math.min(L.bny - 1, Math.floor((box[3] - L.y0) / span));
   let g = 0;
-  for (let j = c0; j <= c1; j++) for (let i = b0; i <= b1; i++) if (L.blockSlope[j * L.bnx + i] > g) g = L.blockSlope[j * L.bnx + i];
+  if (b0 > b1) return g;
+  // the run b0..b1 of each row as two runs of 2^k blocks that overlap
+  let k = 0;
+  while (2 << k <= b1 - b0 + 1) k++;
+  const level = L.slopeRuns[k], w = 1 << k;
+  for (let j = c0; j <= c1; j++) {
+    const a = level[j * L.bnx + b0], b = level[j * L.bnx + b1 - w + 1];
+    if (a > g) g = a;
+    if (b > g) g = b;
+  }
   return g;
 }
 
@@ -90,6 +110,19 @@ export function latticeHeight(L: HeightLattice, x: number, y: number): number {
 }
 
 /**
+ * The lattice around a point, for its ground normal and surface height: reads x, y from a[0], a[1] and writes the
+ * heights at x + d, x − d, y + d, y − d (d = `a[2]`) and at the point itself into a[3..7] (as `latticeHeight`).
+ */
+export function heightsAround(L: HeightLattice, a: Float64Array): void {
+  const x = a[0], y = a[1], d = a[2];
+  a[3] = latticeHeight(L, x + d, y);
+  a[4] = latticeHeight(L, x - d, y);
+  a[5] = latticeHeight(L, x, y + d);
+  a[6] = latticeHeight(L, x, y - d);
+  a[7] = latticeHeight(L, x, y);
+}
+
+/**
  * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
  * (ox, oy, oz) by more than `toleranceM` anywhere between (a ray march on the lattice: fixed steps of the
  * lattice spacing, from one step away from the point, stopping once the ray is above every height of the
@@ -98,6 +131,19 @@ export function latticeHeight(L: HeightLattice, x: number, y: number): number {
  * jumps to the block's far side). Unknown heights never hide a point.
  */
 export function occluded(L: HeightLattice, px: number, py: number, pz: number, ox: number, oy: number, oz: number, toleranceM: number, maxM = L.maxM): boolean {
+  const a = rayScratch;
+  a[0] = px; a[1] = py; a[2] = pz; a[3] = ox; a[4] = oy; a[5] = oz; a[6] = toleranceM; a[7] = maxM;
+  return occludedRay(L, a);
+}
+
+const rayScratch = new Float64Array(8);
+
+/**
+ * `occluded` with its numbers in one array (px, py, pz, ox, oy, oz, toleranceM, maxM): a hot loop calling it
+ * passes one reference instead of eight numbers the engine would box on every call.
+ */
+export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
+  const px = a[0], py = a[1], pz = a[2], ox = a[3], oy = a[4], oz = a[5], toleranceM = a[6], maxM = a[7];
   const hx = ox - px, hy = oy - py;
   const lenH = Math.sqrt(hx * hx + hy * hy);
   if (lenH < L.stepM) return false;

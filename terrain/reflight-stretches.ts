@@ -5,6 +5,7 @@
  * meets the spec again by construction (the check recomputes it with the photos already taken). A pilot can fly
  * these at once: they are parts of the reviewed plan, at its reviewed heights, so nothing new needs a sign-off.
  */
+import { cellX, cellY } from './coverage-grid';
 import type { Grid } from './grid';
 import type { Mission } from './mission';
 import type { PlanLine } from './plan-result';
@@ -116,7 +117,7 @@ export function reflightStretches(grid: Grid, mission: Mission, a: AsFlown, spec
     const p = photos[k++];
     const rot = cameraToLocal(mission.camera, p);
     for (const i of target) {
-      if (projectPoint(model, rot, p.xM, p.yM, p.altitudeM, cells.x[i], cells.y[i], cells.z[i], uv) && insideImage(model, uv[0], uv[1])) {
+      if (projectPoint(model, rot, p.xM, p.yM, p.altitudeM, cellX(cells, i), cellY(cells, i), cells.z[i], uv) && insideImage(model, uv[0], uv[1])) {
         needed[li][si] = true;
         neededStations++;
         break;

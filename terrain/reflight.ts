@@ -3,7 +3,7 @@ import type { Grid } from './grid';
 import type { AreaPolygon, Mission } from './mission';
 import type { PlanResult } from './plan-result';
 import type { LocalFrame } from './local-frame';
-import type { CoverageCells } from './coverage-grid';
+import { cellX, cellY, type CoverageCells } from './coverage-grid';
 import type { CoverageSpec } from './coverage-spec';
 import { analysePlan, type AnalyseOptions } from './plan';
 import { planPhotos } from './coverage-photos';
@@ -56,7 +56,7 @@ function reflightAreas(plan: PlanResult, frame: LocalFrame, cells: CoverageCells
     if (p.length < minCells) return;
     let a0 = Infinity, a1 = -Infinity, c0 = Infinity, c1 = -Infinity;
     for (const i of p) {
-      const a = cells.x[i] * sin + cells.y[i] * cos, c = cells.x[i] * cos - cells.y[i] * sin;
+      const a = cellX(cells, i) * sin + cellY(cells, i) * cos, c = cellX(cells, i) * cos - cellY(cells, i) * sin;
       a0 = Math.min(a0, a - half); a1 = Math.max(a1, a + half); c0 = Math.min(c0, c - half); c1 = Math.max(c1, c + half);
     }
     boxes.push({ box: [a0 - padA, a1 + padA, c0, c1], patches: [pi], cells: p.length });

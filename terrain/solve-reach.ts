@@ -1,5 +1,5 @@
 /** Cells no nadir plan can meet within the limits, with the reason: unknown ground, or a slope that makes the GSD at the clearance height coarser than the spec. */
-import type { CoverageCells } from './coverage-grid';
+import { cellX, cellY, type CoverageCells } from './coverage-grid';
 import type { CoverageRaster } from './coverage';
 import type { CoverageSpec } from './coverage-spec';
 
@@ -15,7 +15,7 @@ export interface Reach {
  * incidence factor of `view-gsd.ts`). Where even that is coarser than the spec no plan of this pattern meets it.
  */
 export function reachability(cells: CoverageCells, spec: CoverageSpec, lowestAglM: number, gsdPerM: number): Reach {
-  const { width, height, z, x, y, inside } = cells;
+  const { width, height, z, inside } = cells;
   const n = width * height;
   const code = new Uint8Array(n);
   const slopeDeg = new Float32Array(n).fill(NaN);
@@ -29,7 +29,7 @@ export function reachability(cells: CoverageCells, spec: CoverageSpec, lowestAgl
       const slope = (i0: number, i1: number) => {
         const a = i0 >= 0 && z[i0] === z[i0] ? i0 : i, b = i1 >= 0 && z[i1] === z[i1] ? i1 : i;
         if (a === b) return 0;
-        const d = Math.hypot(x[b] - x[a], y[b] - y[a]);
+        const d = Math.hypot(cellX(cells, b) - cellX(cells, a), cellY(cells, b) - cellY(cells, a));
         return d > 0 ? (z[b] - z[a]) / d : 0;
       };
       const gx = slope(at(r, c - 1), at(r, c + 1)), gy = slope(at(r - 1, c), at(r + 1, c));

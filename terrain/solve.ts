@@ -1,5 +1,6 @@
 /** Spec in, plan out: the plan that meets the coverage spec on every reachable cell in the least flight time found, every choice explained, proved by its own coverage raster. */
 import type { Grid } from './grid';
+import { cellX, cellY } from './coverage-grid';
 import { resolveMission, type Mission } from './mission';
 import { resolveCoverageInput } from './coverage-spec';
 import { localHeights } from './local-frame';
@@ -221,7 +222,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     const offsets = built.rows.map((r) => r.offsetM);
     const hitLower = new Set<number>(), hitViews = new Set<number>();
     for (const f of verdict.failing) {
-      const c = rot.c(verifier.cells.x[f.cell], verifier.cells.y[f.cell]);
+      const c = rot.c(cellX(verifier.cells, f.cell), cellY(verifier.cells, f.cell));
       let k = 0;
       for (let j = 1; j < offsets.length; j++) if (Math.abs(offsets[j] - c) < Math.abs(offsets[k] - c)) k = j;
       (f.item === 'gsd' ? hitLower : hitViews).add(k);
@@ -320,7 +321,7 @@ function shortGroups(v: Verifier, verdict: Verdict, maxGsdCm: number, rounds: nu
     if (cells.length === 0) continue;
     let sx = 0, sy = 0, lo = Infinity, hi = -Infinity, worst = 0;
     for (const i of cells) {
-      sx += v.cells.x[i]; sy += v.cells.y[i];
+      sx += cellX(v.cells, i); sy += cellY(v.cells, i);
       const b = v.reach.slopeDeg[i];
       if (b < lo) lo = b;
       if (b > hi) hi = b;
@@ -349,7 +350,7 @@ function unreachableGroups(v: Verifier, maxGsdCm: number, m: Mission): Unreachab
     let n = 0, sx = 0, sy = 0, slopeMax = 0;
     for (let i = 0; i < reach.code.length; i++) {
       if (!cells.inside[i] || reach.code[i] !== code) continue;
-      n++; sx += cells.x[i]; sy += cells.y[i];
+      n++; sx += cellX(cells, i); sy += cellY(cells, i);
       if (code === 2 && reach.slopeDeg[i] > slopeMax) slopeMax = reach.slopeDeg[i];
     }
     if (n === 0) continue;

@@ -4,7 +4,7 @@
  */
 import { analyseAsFlown, maskPatches } from '../../terrain/as-flown';
 import { computeCoverage } from '../../terrain/coverage';
-import { coverageLayout, gridCellM } from '../../terrain/coverage-grid';
+import { cellX, cellY, coverageLayout, gridCellM } from '../../terrain/coverage-grid';
 import { planPhotos } from '../../terrain/coverage-photos';
 import { resolveCoverageInput } from '../../terrain/coverage-spec';
 import { cellMeetsSpec } from '../../terrain/as-flown';
@@ -55,7 +55,7 @@ export async function analyseLiveCoverage(bytes: Uint8Array, input: unknown, pla
   }
   const patches = maskPatches(short, cells.width, cells.height).sort((p, q) => q.length - p.length).slice(0, 50).map((p) => {
     let sx = 0, sy = 0;
-    for (const i of p) { sx += cells.x[i]; sy += cells.y[i]; }
+    for (const i of p) { sx += cellX(cells, i); sy += cellY(cells, i); }
     const [lon, lat] = a.frame.toLonLat(sx / p.length, sy / p.length);
     return { cells: p.length, areaM2: round(p.length * cells.cellAreaM2, 1), centroid: { lon: round(lon, 7), lat: round(lat, 7) } };
   });

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { cellX, cellY } from '../../terrain/coverage-grid';
 import { simulateFlight, type SimulatedFlight } from './as-flown-flight';
 import { analyseAsFlown, cellMeetsSpec, maskPatches, type AsFlown } from '../../terrain/as-flown';
 import { altitudeInGridDatumM, matchPhotos, plannedAltitudeAtM } from '../../terrain/as-flown-match';
@@ -127,14 +128,14 @@ describe('as-flown coverage', () => {
     // the six-photo gap leaves one large patch; the single skip on line 4 leaves nothing (80 % forward overlap)
     expect(patches[0].length).toBeGreaterThan(100);
     let sx = 0, sy = 0;
-    for (const i of patches[0]) { sx += c.x[i]; sy += c.y[i]; }
+    for (const i of patches[0]) { sx += cellX(c, i); sy += cellY(c, i); }
     const gap = sim.allPoses.filter((_, i) => sim.skippedPose[i]).slice(0, 6);
     const gx = gap.reduce((t, p) => t + p.xM, 0) / 6, gy = gap[0].yM;
     // it lies under the gap: centred along it, between line 2 and the area's south edge (y = −100)
     expect(Math.abs(sx / patches[0].length - gx)).toBeLessThan(20);
     expect(sy / patches[0].length).toBeLessThan(gy);
     const line4 = sim.allPoses.filter((_, i) => sim.skippedPose[i])[6];
-    for (const p of patches) for (const i of p) expect(Math.hypot(c.x[i] - line4.xM, c.y[i] - line4.yM)).toBeGreaterThan(40);
+    for (const p of patches) for (const i of p) expect(Math.hypot(cellX(c, i) - line4.xM, cellY(c, i) - line4.yM)).toBeGreaterThan(40);
     // every cell of it fails as flown, and the compliance names a views patch there
     for (const i of patches[0]) expect(asFlown.flown.views[i]).toBeLessThan(spec.minViews);
     const viewsPatches = asFlown.compliance.flown.patches.filter((p) => p.reason === 'views');

@@ -5,6 +5,7 @@ import { cameraToLocal } from '../../terrain/footprint';
 import { imageModel, insideImage, projectPoint } from '../../terrain/pose';
 import type { Camera } from '../../terrain/camera';
 import { syntheticSite } from './coverage-site';
+import { cellX, cellY } from '../../terrain/coverage-grid';
 
 const camera: Camera = {
   sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648,
@@ -61,9 +62,10 @@ describe('guaranteed views under the attitude envelope', () => {
       const opts = { cellM: 4, specGsdCm: 10, occlusion: false };
       const guaranteed = computeCoverage(site.grid, site.frame, site.area(-150, -150, 150, 150), camera, photos, { ...opts, envelope: env });
       const { cells } = guaranteed;
-      const brute = bruteForce(photos, env, cells.x, cells.y, cells.z, cells.inside);
+      const xs = Float64Array.from(cells.z, (_, i) => cellX(cells, i)), ys = Float64Array.from(cells.z, (_, i) => cellY(cells, i));
+      const brute = bruteForce(photos, env, xs, ys, cells.z, cells.inside);
       let ours = 0, theirs = 0, planned = 0;
-      for (let i = 0; i < cells.x.length; i++) {
+      for (let i = 0; i < cells.z.length; i++) {
         if (!cells.inside[i]) continue;
         expect(guaranteed.views[i], `cell ${i}`).toBeLessThanOrEqual(brute[i]);
         ours += guaranteed.views[i]; theirs += brute[i]; planned += guaranteed.viewsPlanned[i];

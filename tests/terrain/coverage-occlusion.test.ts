@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { computeCoverage } from '../../terrain/coverage';
 import type { Camera } from '../../terrain/camera';
 import { syntheticSite } from './coverage-site';
+import { cellX, cellY } from '../../terrain/coverage-grid';
 
 const camera: Camera = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
 
@@ -26,9 +27,9 @@ describe('terrain occlusion along viewing rays', () => {
     const raster = computeCoverage(site.grid, site.frame, site.area(-20, -15, 30, 15), camera, [{ xM: -a, yM: 0, altitudeM: Z, yawDeg: 0 }], { cellM: 0.5, specGsdCm: 10 });
     const { cells } = raster;
     let hidden = 0, seen = 0, checked = 0;
-    for (let i = 0; i < cells.x.length; i++) {
+    for (let i = 0; i < cells.z.length; i++) {
       if (!cells.inside[i]) continue;
-      const x = cells.x[i];
+      const x = cellX(cells, i);
       // cells within a metre of the edge or the shadow's end are left out: the grid's bilinear slope and the
       // height lattice's resampling blur both by up to a pixel
       if (Math.abs(x - edgeX) < 1.5 || Math.abs(x - xStar) < 1) continue;

@@ -4,6 +4,7 @@ import { cameraToLocal } from '../../terrain/footprint';
 import { computeCoverage } from '../../terrain/coverage';
 import type { Camera } from '../../terrain/camera';
 import { syntheticSite } from './coverage-site';
+import { cellX, cellY } from '../../terrain/coverage-grid';
 
 const camera: Camera = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
 const pitchMm = 13.2 / 5472;
@@ -44,9 +45,9 @@ describe('advisory point precision from the least-squares intersection of rays',
       { cellM: 1, specGsdCm: 3, imageErrorPx: 0.5 });
     const { cells } = raster;
     let best = -1, dist = Infinity;
-    for (let i = 0; i < cells.x.length; i++) {
+    for (let i = 0; i < cells.z.length; i++) {
       if (!cells.inside[i]) continue;
-      const d = Math.hypot(cells.x[i], cells.y[i]);
+      const d = Math.hypot(cellX(cells, i), cellY(cells, i));
       if (d < dist) { dist = d; best = i; }
     }
     expect(dist).toBeLessThan(0.8);

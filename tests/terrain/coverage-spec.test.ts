@@ -11,7 +11,7 @@ function raster(): CoverageRaster {
   inside[0] = 0;
   const f = (v: number) => new Float32Array(n).fill(v);
   return {
-    cells: { width: w, height: h, transform: [1000, 2, 0, 2000, 0, -2], crs: utmCrs(31, false), cellM: 2, cellAreaM2: 4, inside, x: f(0), y: f(0), z: f(10), insideCount: n - 1 },
+    cells: { width: w, height: h, transform: [1000, 2, 0, 2000, 0, -2], crs: utmCrs(31, false), cellM: 2, cellAreaM2: 4, inside, z: f(10), nodes: { step: 16, cols: 2, rows: 2, x: new Float64Array(4), y: new Float64Array(4) }, insideCount: n - 1 },
     views: new Uint16Array(n).fill(6), viewsPlanned: new Uint16Array(n).fill(6), viewsAtSpecGsd: new Uint16Array(n).fill(6),
     finestGsdCm: f(2), maxRayAngleDeg: f(40), sigmaVerticalM: f(0.01), sigmaHorizontalM: f(0.005),
     guaranteed: true, envelopeMarginPx: 10, imageErrorPx: 0.5,

@@ -10,6 +10,7 @@ import { reflightStretches } from '../../terrain/reflight-stretches';
 import { AS_FLOWN_MAP_LEGEND, asFlownMap } from '../../terrain/as-flown-map';
 import proj4 from 'proj4';
 import pngjs from 'pngjs';
+import { cellX, cellY } from '../../terrain/coverage-grid';
 
 const { PNG } = pngjs;
 
@@ -34,7 +35,7 @@ describe('re-flight as stretches of the signed-off lines', () => {
     const { heightAt } = localHeights(sim.site.grid, asFlown.frame);
     const W = sim.mission.camera.imageWidthPx, H = sim.mission.camera.imageHeightPx, N = 16;
     const ll = (x: number, y: number) => asFlown.frame.toLonLat(x, y);
-    const lostPoints = target.map((i) => point(ll(cells.x[i], cells.y[i])));
+    const lostPoints = target.map((i) => point(ll(cellX(cells, i), cellY(cells, i))));
     let clearlyNeeded = 0;
     sim.plan.lines.forEach((line, li) => line.stations.forEach((st, si) => {
       const [x, y] = asFlown.frame.toLocal(st.lon, st.lat);

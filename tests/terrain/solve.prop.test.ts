@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { cellX, cellY } from '../../terrain/coverage-grid';
 import fc from 'fast-check';
 import { solvePlan, type SolvedPlan } from '../../terrain/solve';
 import { resolveMission } from '../../terrain/mission';
@@ -56,11 +57,12 @@ describe('solver (properties, fixed seed)', () => {
       // unreachable cells, recomputed from the raster's own ground: slope so steep that a photo straight above at the clearance is too coarse
       const gsdPerM = (pixelPitchMm(camera) / camera.focalLengthMm) * 100;
       let failing = 0, unreachable = 0;
-      const { width, height, z, x, y, inside } = raster.cells;
+      const { width, height, z, inside } = raster.cells;
+      const x = (i: number) => cellX(raster.cells, i), y = (i: number) => cellY(raster.cells, i);
       for (let row = 0; row < height; row++) for (let c = 0; c < width; c++) {
         const i = row * width + c;
         if (!inside[i]) continue;
-        const d = (a: number, b: number) => (a >= 0 && b >= 0 ? (z[b] - z[a]) / Math.hypot(x[b] - x[a], y[b] - y[a]) : 0);
+        const d = (a: number, b: number) => (a >= 0 && b >= 0 ? (z[b] - z[a]) / Math.hypot(x(b) - x(a), y(b) - y(a)) : 0);
         const gx = d(c > 0 ? i - 1 : i, c < width - 1 ? i + 1 : i), gy = d(row > 0 ? i - width : i, row < height - 1 ? i + width : i);
         if ((30 * gsdPerM) / Math.cos(Math.atan(Math.hypot(gx, gy))) > spec.maxGsdCm) { unreachable++; continue; }
         if (!(raster.finestGsdCm[i] <= spec.maxGsdCm) || raster.views[i] < spec.minViews) failing++;
