@@ -40,15 +40,15 @@ export interface CoverageCells {
  * by a smooth transform that is all but affine over a node span of at most `NODE_SPAN_M` (the tests bound the
  * blend's error against the exact transform).
  */
-export interface CellNodes { step: number; cols: number; rows: number; x: Float64Array; y: Float64Array }
+interface CellNodes { step: number; cols: number; rows: number; x: Float64Array; y: Float64Array }
 
 /** Widest ground span between two position nodes, metres (the blend's error grows with its square). */
-export const NODE_SPAN_M = 32;
+const NODE_SPAN_M = 32;
 /** Most cells between two position nodes (a tile of the coverage pass is a multiple of it). */
-export const NODE_STEP_MAX = 16;
+const NODE_STEP_MAX = 16;
 
 /** Node spacing in cells for a cell size: at most NODE_STEP_MAX cells and NODE_SPAN_M metres, a power of two. */
-export function nodeStepFor(cellM: number): number {
+function nodeStepFor(cellM: number): number {
   let s = NODE_STEP_MAX;
   while (s > 1 && s * cellM > NODE_SPAN_M) s /= 2;
   return s;
@@ -65,7 +65,7 @@ export function cellY(cells: CoverageCells, i: number): number {
 }
 
 /** The blend of one coordinate at cell row r, column c. */
-export function blend(n: CellNodes, v: Float64Array, r: number, c: number): number {
+function blend(n: CellNodes, v: Float64Array, r: number, c: number): number {
   let kr = Math.floor(r / n.step), kc = Math.floor(c / n.step);
   if (kr > n.rows - 2) kr = n.rows - 2;
   if (kc > n.cols - 2) kc = n.cols - 2;

@@ -20,7 +20,7 @@ import type { CoveragePhoto } from './coverage-photo';
 export type { CoveragePhoto } from './coverage-photo';
 
 /** Settings of one coverage computation. */
-interface CoverageOptions {
+export interface CoverageOptions {
   /** Cell side, metres. */
   cellM: number;
   maxCells?: number;

@@ -20,7 +20,7 @@ export interface Float32GeoTiff {
  * A band's values, or a function that writes them into the array it is given: where the host is little-endian
  * that array is the file's own bytes, so a large raster is not held twice.
  */
-export type BandSource = Float32Array | ((out: Float32Array) => void);
+type BandSource = Float32Array | ((out: Float32Array) => void);
 
 const SHORT = 3, LONG = 4, DOUBLE = 12, ASCII = 2;
 const TYPE_BYTES: Record<number, number> = { [SHORT]: 2, [LONG]: 4, [DOUBLE]: 8, [ASCII]: 1 };

@@ -5,7 +5,7 @@ import type { HeightLattice } from './occlusion';
 const RUN = 16;
 
 /** Per lattice row, the lowest and highest known height of each run of RUN nodes (+Infinity / -Infinity when none is known). */
-interface RangeBlocks { runs: number; lo: Float32Array; hi: Float32Array }
+export interface RangeBlocks { runs: number; lo: Float32Array; hi: Float32Array }
 
 export function rangeBlocks(L: HeightLattice): RangeBlocks {
   const runs = Math.ceil(L.nx / RUN);

@@ -93,7 +93,7 @@ export function slopeIn(L: HeightLattice, box: readonly [number, number, number,
 }
 
 /** Bilinear height of the lattice at local (x, y); NaN off the lattice or beside unknown nodes. */
-export function latticeHeight(L: HeightLattice, x: number, y: number): number {
+function latticeHeight(L: HeightLattice, x: number, y: number): number {
   const fx = (x - L.x0) / L.stepM, fy = (y - L.y0) / L.stepM;
   if (!(fx >= 0 && fy >= 0 && fx <= L.nx - 1 && fy <= L.ny - 1)) return NaN;
   let i = Math.floor(fx), j = Math.floor(fy);
@@ -122,25 +122,16 @@ export function heightsAround(L: HeightLattice, a: Float64Array): void {
   a[7] = latticeHeight(L, x, y);
 }
 
+
 /**
  * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
  * (ox, oy, oz) by more than `toleranceM` anywhere between (a ray march on the lattice: fixed steps of the
  * lattice spacing, from one step away from the point, stopping once the ray is above every height of the
  * lattice, or above `maxM` when the caller knows the highest ground around the whole ray (e.g. under a photo's
  * box, which holds the point and the camera and so the ray); where the ray is above a block's highest height it
- * jumps to the block's far side). Unknown heights never hide a point.
- */
-export function occluded(L: HeightLattice, px: number, py: number, pz: number, ox: number, oy: number, oz: number, toleranceM: number, maxM = L.maxM): boolean {
-  const a = rayScratch;
-  a[0] = px; a[1] = py; a[2] = pz; a[3] = ox; a[4] = oy; a[5] = oz; a[6] = toleranceM; a[7] = maxM;
-  return occludedRay(L, a);
-}
-
-const rayScratch = new Float64Array(8);
-
-/**
- * `occluded` with its numbers in one array (px, py, pz, ox, oy, oz, toleranceM, maxM): a hot loop calling it
- * passes one reference instead of eight numbers the engine would box on every call.
+ * jumps to the block's far side). Unknown heights never hide a point. The numbers come in one array
+ * (px, py, pz, ox, oy, oz, toleranceM, maxM): a hot loop passes one reference instead of eight numbers the engine
+ * would box on every call.
  */
 export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const px = a[0], py = a[1], pz = a[2], ox = a[3], oy = a[4], oz = a[5], toleranceM = a[6], maxM = a[7];
