@@ -122,7 +122,6 @@ export function heightsAround(L: HeightLattice, a: Float64Array): void {
   a[7] = latticeHeight(L, x, y);
 }
 
-
 /**
  * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
  * (ox, oy, oz) by more than `toleranceM` anywhere between (a ray march on the lattice: fixed steps of the
