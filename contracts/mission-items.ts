@@ -10,8 +10,11 @@ const n = z.number();
 const param = z.number().nullable();
 const int32 = z.number().int().min(-2147483648).max(2147483647);
 
-/** What an item does in the plan (our names); `home` is the placeholder the link adds for autopilots that keep home as item 0. */
-const missionItemKinds = ['home', 'takeoff', 'line-start', 'speed', 'first-photo', 'camera-on', 'camera-spacing', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
+/**
+ * What an item does in the plan (our names); `home` is the placeholder the link adds for autopilots that keep home
+ * as item 0; `transit` holds the flight between two lines at the higher of their two altitudes.
+ */
+const missionItemKinds = ['home', 'takeoff', 'transit', 'line-start', 'speed', 'first-photo', 'camera-on', 'camera-spacing', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
 const missionItemKindSchema = z.enum(missionItemKinds);
 export type MissionItemKind = z.infer<typeof missionItemKindSchema>;
 

@@ -22,6 +22,7 @@ export const solveSettingsSchema = z.object({
   minForwardOverlap: ranged('minForwardOverlap', 0, 0.95).optional(),
   headingCandidates: ranged('headingCandidates', 1, 12).int({ error: 'solve.headingCandidates must be a whole number.' }).optional(),
   repairRounds: ranged('repairRounds', 0, 12).int({ error: 'solve.repairRounds must be a whole number.' }).optional(),
+  spotRounds: ranged('spotRounds', 0, 8).int({ error: 'solve.spotRounds must be a whole number.' }).optional(),
 });
 
 const n = z.number();
@@ -33,7 +34,8 @@ export const solveReportSchema = z.object({
   choices: z.object({
     headingDeg: n, heading: z.string(), pattern: z.string(), fallback: z.string().nullable(), summary: z.string(),
     lines: z.array(z.object({
-      line: z.number().int(), offsetM: n, spacingToNextM: n.nullable(),
+      // stored before spot photos existed: every line was a line of the layout
+      line: z.number().int(), kind: z.enum(['line', 'spot']).default('line'), offsetM: n, spacingToNextM: n.nullable(),
       speedMps: z.object({ min: n, max: n }), triggerDistanceM: z.object({ min: n, max: n }), legs: z.number().int(), reasons: z.array(z.string()),
     })),
   }),

@@ -10,7 +10,7 @@ import { cameraToLocal } from './footprint';
 import { imageModel } from './pose';
 import { fillCells, TILE } from './coverage-pass';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
-import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
+import { heightLattice, heightsAround, slopeIn, type HeightLattice } from './occlusion';
 import { latticeRange, rangeBlocks, type RangeBlocks } from './lattice-range';
 import { columnBlend, coverageCells, gridCellM, rowPositions, type CoverageCells } from './coverage-grid';
 import { normalisedBounds } from './image-bounds';
@@ -150,7 +150,10 @@ function buildLattice(grid: Grid, frame: LocalFrame, cellBox: readonly [number, 
   let step = stepM;
   const span = (x1 - x0 + 4 * step) * (y1 - y0 + 4 * step);
   if (span / (step * step) > 16_000_000) step = Math.sqrt(span / 16_000_000);
-  x0 -= 2 * step; y0 -= 2 * step;
+  // nodes on the cells' own lattice (a whole number of steps from their corner), however far the cameras reach:
+  // a cell's ground normal, so its GSD, must not move with photos elsewhere in the plan
+  x0 = cellBox[0] - Math.ceil((cellBox[0] - x0) / step + 2) * step;
+  y0 = cellBox[1] - Math.ceil((cellBox[1] - y0) / step + 2) * step;
   const nx = Math.ceil((x1 + 2 * step - x0) / step) + 1, ny = Math.ceil((y1 + 2 * step - y0) / step) + 1;
   // the same grid, frame and nodes give the same lattice: a run of rasters over one site (the solver's checks)
   // samples it once
@@ -324,3 +327,41 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   return raster;
 }
 
+
+/**
+ * Each cell's ground slope (degrees; NaN outside the area) as the raster's GSD sees it: the normal from central
+ * differences on the same height lattice at its own spacing (`visitCell` in coverage-pass.ts), level where the
+ * ground is unknown. The lattice's nodes are anchored on the cells (buildLattice), so this is the slope every
+ * raster over these cells uses, whatever its photos. The solver's reach test reads it, so a cell it calls
+ * reachable is judged on the ground the raster judges it on.
+ */
+export function cellSlopesDeg(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells?: number, latticeStepM?: number): Float32Array {
+  const cells = coverageCells(grid, frame, area, cellM, maxCells);
+  const { width, height, inside } = cells;
+  const cb = columnBlend(cells.nodes, width);
+  const xs = new Float64Array(width * height), ys = new Float64Array(width * height);
+  const box: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (let r = 0; r < height; r++) {
+    rowPositions(cells.nodes, cb, r, 0, width, xs, ys, r * width);
+    for (let c = 0; c < width; c++) {
+      const i = r * width + c;
+      if (inside[i] === 0) continue;
+      if (xs[i] < box[0]) box[0] = xs[i]; if (ys[i] < box[1]) box[1] = ys[i];
+      if (xs[i] > box[2]) box[2] = xs[i]; if (ys[i] > box[3]) box[3] = ys[i];
+    }
+  }
+  const out = new Float32Array(width * height).fill(NaN);
+  if (!(box[0] <= box[2])) return out;
+  const lattice = buildLattice(grid, frame, box, [], latticeStepM ?? gridCellM(grid, area.coordinates[0][0][1]));
+  const h = lattice.stepM, a = new Float64Array(8);
+  for (let i = 0; i < width * height; i++) {
+    if (inside[i] === 0) continue;
+    a[0] = xs[i]; a[1] = ys[i]; a[2] = h;
+    heightsAround(lattice, a);
+    let gx = (a[3] - a[4]) / (2 * h), gy = (a[5] - a[6]) / (2 * h);
+    if (!(gx === gx)) gx = 0;
+    if (!(gy === gy)) gy = 0;
+    out[i] = (Math.atan(Math.sqrt(gx * gx + gy * gy)) * 180) / Math.PI;
+  }
+  return out;
+}

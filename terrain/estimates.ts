@@ -11,7 +11,7 @@ interface EstimateInput {
   lineCount: number;
   speedMps: number;
   turnTimeS: number;
-  /** Total climb and total descent flown (metres), at the vertical speeds. */
+  /** Climb and descent flown vertically (metres), at the vertical speeds: off the takeoff point, back onto it, and between lines. */
   climbM?: number;
   descentM?: number;
   climbMps?: number;
@@ -34,7 +34,8 @@ interface Estimate {
 /**
  * Time = horizontal distance / speed + one turn per change of line + vertical travel at the vertical
  * speeds beyond what the horizontal legs already cover (climbs on the lines ride on the forward speed, so
- * only the takeoff climb and the final descent are added, as `climbM` / `descentM`).
+ * only the takeoff climb, the final descent and the changes of altitude between lines are added, as
+ * `climbM` / `descentM`).
  */
 export function estimateMission(e: EstimateInput): Estimate {
   check(e.speedMps > 0 && Number.isFinite(e.speedMps), `speed must be positive, got ${e.speedMps}.`);

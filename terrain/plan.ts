@@ -344,13 +344,21 @@ function flightEstimate(mission: Mission, lines: FlightLine[], profiles: LinePro
   });
   const first = lines[0], last = lines[lines.length - 1];
   transitDistanceM += Math.hypot(first.start[0] - g.takeoffXY[0], first.start[1] - g.takeoffXY[1]) + Math.hypot(last.end[0] - g.takeoffXY[0], last.end[1] - g.takeoffXY[1]);
-  const firstAlt = profiles[0].fit.legs[0]?.altitudeStartM ?? NaN;
-  const lastLegs = profiles[profiles.length - 1].fit.legs;
-  const lastAlt = lastLegs[lastLegs.length - 1]?.altitudeEndM ?? NaN;
+  const startAlt = (i: number) => profiles[i].fit.legs[0]?.altitudeStartM ?? NaN;
+  const endAlt = (i: number) => { const legs = profiles[i].fit.legs; return legs[legs.length - 1]?.altitudeEndM ?? NaN; };
+  const firstAlt = startAlt(0), lastAlt = endAlt(profiles.length - 1);
+  // a transit is flown at the higher of its two ends (climb before, descend after: see transitWarnings), so the
+  // change of altitude between lines is flown vertically, at the vertical speeds, on top of the level distance
+  let climbM = Number.isFinite(firstAlt) ? Math.max(0, firstAlt - g.takeoffGroundM) : 0;
+  let descentM = Number.isFinite(lastAlt) ? Math.max(0, lastAlt - g.takeoffGroundM) : 0;
+  for (let i = 1; i < profiles.length; i++) {
+    const dz = startAlt(i) - endAlt(i - 1);
+    if (dz > 0) climbM += dz;
+    else if (dz < 0) descentM -= dz;
+  }
   return estimateMission({
     photoCount, lineDistanceM, transitDistanceM, lineCount: lines.length, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS,
-    climbM: Number.isFinite(firstAlt) ? Math.max(0, firstAlt - g.takeoffGroundM) : 0,
-    descentM: Number.isFinite(lastAlt) ? Math.max(0, lastAlt - g.takeoffGroundM) : 0,
+    climbM, descentM,
     climbMps: mission.climbMps, descentMps: mission.descentMps, enduranceMin: mission.enduranceMin, batteryReserve: mission.batteryReserve,
   });
 }

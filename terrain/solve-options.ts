@@ -21,6 +21,8 @@ interface SolveOptions {
   headingCandidates: number;
   /** Rounds of checking the coverage raster and tightening where cells fall short. */
   repairRounds: number;
+  /** Rounds of adding spot photos over the cells the lines still leave short of the GSD (0: none). */
+  spotRounds: number;
 }
 
 function numberIn(o: Record<string, unknown>, key: string, def: number, lo: number, hi: number): number {
@@ -49,5 +51,6 @@ export function resolveSolveOptions(input: unknown, mission: Mission): SolveOpti
     minForwardOverlap: numberIn(o, 'minForwardOverlap', 0, 0, 0.95),
     headingCandidates: numberIn(o, 'headingCandidates', 3, 1, 12),
     repairRounds: numberIn(o, 'repairRounds', 4, 0, 12),
+    spotRounds: Math.round(numberIn(o, 'spotRounds', 5, 0, 8)),
   };
 }

@@ -4,7 +4,7 @@ import type { Mission } from './mission';
 import type { PlanResult } from './plan-result';
 import type { AttitudeEnvelope } from './attitude-envelope';
 import type { LocalFrame } from './local-frame';
-import { computeCoverage, type CoverageRaster } from './coverage';
+import { cellSlopesDeg, computeCoverage, type CoverageRaster } from './coverage';
 import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
 import { coverageCompliance, type Compliance, type CoverageSpec, type CoverageSettings } from './coverage-spec';
 import { coverageFrame, planPhotos } from './coverage-photos';
@@ -48,7 +48,7 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
   const frame = coverageFrame(mission.area);
   const cellM = solverCellM(grid, mission, settings);
   const cells = coverageCells(grid, frame, mission.area, cellM, settings.maxCells);
-  const reach = reachability(cells, spec, mission.clearanceM + mission.obstacleAllowanceM, gsdPerM);
+  const reach = reachability(cells, cellSlopesDeg(grid, frame, mission.area, cellM, settings.maxCells), spec, mission.clearanceM + mission.obstacleAllowanceM, gsdPerM);
   /** The first spec item a reachable cell fails, or null (unreachable cells and cells that meet every item). */
   const shortOf = (raster: CoverageRaster, i: number): Verdict['failing'][number]['item'] | null => {
     if (reach.code[i]) return null;

@@ -17,12 +17,15 @@ import { placeTriggers } from './solve-triggers';
 import { flightTimeWithLegSpeedsS, legSpeedMps } from './solve-speed';
 import { makeVerifier, type Verdict, type Verifier } from './solve-verify';
 import { bestUniform, type UniformOutcome, type UniformSetting } from './solve-uniform';
+import { placeSpots, spotLimits, spotLine, tourGap, tourOrder, type Spot } from './solve-spots';
 
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
 
 /** Why one line is where it is and flies as it does. */
 interface LineChoice {
   line: number;
+  /** A line of the layout, or a spot photo's short line flown after it. */
+  kind: 'line' | 'spot';
   offsetM: number;
   spacingToNextM: number | null;
   speedMps: { min: number; max: number };
@@ -124,7 +127,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     }
     headingWhy = `candidates ${headings.map((h) => `${h}°`).join(', ')} (the least spread of height above ground in the heading advice)`;
   }
-  const build = (headingDeg: number, rep: Repairs): Built => {
+  const build = (headingDeg: number, rep: Repairs, spots: Spot[] = []): Built => {
     const ctx: LineContext = { area, headingDeg, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
     const near = (list: number[], c: number) => list.filter((v) => Math.abs(v - c) <= nominalS / 2).length;
     const factorAt = (c: number) => 0.97 * 0.92 ** near(rep.lower, c);
@@ -134,7 +137,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     const laid = planFlightLines(area, { headingDeg, lineSpacingM: nominalS, triggerDistanceM: Math.max(5, baseHalf), runInM: mission.runInM, offsetsM: offsets, takeoff: takeoffXY });
     const limitsBy = new Map<FlightLine, AltitudeLimits>();
     const stripBy = new Map<FlightLine, Strip>();
-    const info: Array<{ line: FlightLine; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean }> = [];
+    const info: Array<{ line: FlightLine; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean; spot?: Spot }> = [];
     const lines = laid.map((l) => {
       const row = offsets.findIndex((c) => Math.abs(c - l.offsetM) < 1e-6);
       const factor = factorAt(l.offsetM);
@@ -154,6 +157,37 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       info.push({ line, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length });
       return line;
     });
+    // spot photos as one tour between two lines of the layout (both ends high: the transits to and from the tour
+    // are flown at the lines' altitude), in the gap where its transits keep the clearance at the least detour
+    if (spots.length > 0 && lines.length > 0) {
+      const rot = rotated(headingDeg);
+      // the lines' altitudes are fitted later: the band's low end (0.6 of its top) stands for them, the lower the
+      // stricter for a transit flown at the higher of its two ends
+      const at = (p: [number, number]): [number, number, number] => [p[0], p[1], heights.heightAt(p[0], p[1]) + 0.6 * geometry.specHeightM * 0.97];
+      const gaps = lines.slice(0, -1).map((l, k) => ({ from: at(l.end), to: at(lines[k + 1].start) }));
+      const takeoffAt: [number, number, number] = [takeoffXY[0], takeoffXY[1], heights.heightAt(takeoffXY[0], takeoffXY[1])];
+      if (gaps.length === 0) gaps.push({ from: at(lines[0].end), to: takeoffAt });
+      const tour = tourOrder(spots, gaps[gaps.length - 1].from, gaps[gaps.length - 1].to, mission, heights.heightAt);
+      const { gap, reversed } = tourGap(tour, gaps, mission, heights.heightAt);
+      const ordered = reversed ? [...tour].reverse() : tour;
+      const spotLines = ordered.map((sp) => {
+        const line = spotLine(sp, rot.c(sp.x, sp.y));
+        limitsBy.set(line, spotLimits(sp, mission));
+        return { line, info: { line, row: -1, fitSpeed: mission.speedMps, slowedForM: 0, factor: sp.heightM / geometry.specHeightM, trig: { stationsM: line.stationsM, minM: 0, maxM: 0, tightestGroundM: sp.groundM, tightestAtM: 0 }, fwd: 0, views: 1, plannable: Number.isFinite(sp.groundM), spot: sp } };
+      });
+      const all = [...info.slice(0, gap + 1), ...spotLines.map((q) => q.info), ...info.slice(gap + 1)];
+      lines.length = 0;
+      info.length = 0;
+      // renumbered in flying order; the maps are keyed by the line objects
+      all.forEach((it, k) => {
+        const line = { ...it.line, index: k };
+        const lim = limitsBy.get(it.line), strip = stripBy.get(it.line);
+        if (lim) limitsBy.set(line, lim);
+        if (strip) stripBy.set(line, strip);
+        lines.push(line);
+        info.push({ ...it, line });
+      });
+    }
     // the analysed mission's GSD band is the spec's (finer is never a fault), so station flags speak of the spec
     const finish = (overlaps: boolean): Built => {
       const plan = analysePlan(grid, { ...inputObj, headingDeg, mode: 'follow', targetGsdCm: spec.maxGsdCm / 1.5, gsdTolerance: 0.5, forwardOverlap: Math.min(0.95, forwardOverlapForViews(spec.minViews, so.minForwardOverlap)), sideOverlap: so.minSideOverlap }, {
@@ -175,7 +209,12 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         }
         const row = it ? rows[it.row] : undefined;
         const reasons: string[] = [];
-        if (it && row) {
+        const sp = it?.spot;
+        if (sp) {
+          const [lon, lat2] = frame.toLonLat(sp.x, sp.y);
+          const gsdAt = (sp.heightM * geometry.gsdPerM) / Math.cos((sp.slopeDeg * Math.PI) / 180);
+          reasons.push(`spot photo straight above ground sloping ${round(sp.slopeDeg, 0)}° at ${round(sp.groundM, 1)} m above ${datum} (lon ${round(lon, 6)}, lat ${round(lat2, 6)}): the layout's photos see ${sp.cells} cell${sp.cells === 1 ? '' : 's'} here no finer than the spec's ${spec.maxGsdCm} cm. ${round(sp.heightM, 1)} m above the ground gives about ${round(gsdAt, 2)} cm along the slope (height × pixel pitch / focal length / cos slope), never below the ${mission.clearanceM + mission.obstacleAllowanceM} m clearance and allowance; the aircraft stops, takes one photo and moves on.`);
+        } else if (it && row) {
           const nx = row.next;
           const rowNo = (r: number) => { const k = kept.findIndex((q) => q.row === r); return k >= 0 ? k + 1 : null; };
           if (nx) {
@@ -188,7 +227,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
           reasons.push(`photos every ${round(it.trig.minM, 1)}–${round(it.trig.maxM, 1)} m: ${round(it.fwd * 100, 0)} % forward overlap (${it.views} views along the line) over the highest ground under each photo; the tightest where ground reaches ${round(it.trig.tightestGroundM, 1)} m above ${datum}, ${round(it.trig.tightestAtM, 0)} m along.`);
         }
         return {
-          line: li + 1, offsetM: it ? round(it.line.offsetM, 2) : NaN, spacingToNextM: row?.next ? round(row.next.spacingM, 2) : null,
+          line: li + 1, kind: sp ? 'spot' : 'line', offsetM: it ? round(it.line.offsetM, 2) : NaN, spacingToNextM: row?.next ? round(row.next.spacingM, 2) : null,
           speedMps: { min: round(vMin, 2), max: round(vMax, 2) },
           triggerDistanceM: { min: it ? round(it.trig.minM, 2) : 0, max: it ? round(it.trig.maxM, 2) : 0 },
           legs: pl.legs.length, reasons,
@@ -216,7 +255,8 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const rep: Repairs = { lower: [], views: [] };
   let verdict: Verdict = verifier.check(built.plan);
   let rounds = 0;
-  let best = { built, verdict };
+  const snapshot = (r: Repairs): Repairs => ({ lower: [...r.lower], views: [...r.views] });
+  let best = { built, verdict, rep: snapshot(rep) };
   while (!verdict.meets && rounds < so.repairRounds) {
     rounds++;
     const offsets = built.rows.map((r) => r.offsetM);
@@ -231,12 +271,29 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     for (const k of hitViews) rep.views.push(offsets[k]);
     built = build(headingDeg, rep);
     verdict = verifier.check(built.plan);
-    if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict };
+    if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict, rep: snapshot(rep) };
   }
   ({ built, verdict } = best);
+  // 3. spot photos where reachable cells are still short of the GSD: one photo straight above each, lower again
+  // where a spot of an earlier round did not do
+  let spots: Spot[] = [];
+  let spotRounds = 0;
+  while (!verdict.meets && spotRounds < so.spotRounds) {
+    const short = verdict.failing.filter((f) => f.item !== 'other').map((f) => ({ x: cellX(verifier.cells, f.cell), y: cellY(verifier.cells, f.cell), z: verifier.cells.z[f.cell], slopeDeg: verifier.reach.slopeDeg[f.cell], finestGsdCm: verdict.raster.finestGsdCm[f.cell], item: f.item === 'gsd' ? 'gsd' as const : 'views' as const }));
+    if (short.length === 0) break;
+    spotRounds++;
+    const added = placeSpots(short, geometry, mission, 0.95, spots, heights.heightAt, headingDeg);
+    // a lower spot replaces the earlier one over the same cell
+    if (added.length === 0) break;
+    const next = [...spots.filter((s0) => !added.some((a) => a.x === s0.x && a.y === s0.y)), ...added];
+    const b = build(headingDeg, best.rep, next);
+    const v = verifier.check(b.plan);
+    if (v.failing.length >= verdict.failing.length) break;
+    built = b; verdict = v; spots = next;
+  }
   // the chosen layout with every figure: the same lines, stations and legs (so the same raster and verdict)
   built = built.full();
-  // 3. the yardstick: uniform settings; fall back when one meets the spec in no more time (or the solved plan does not meet it)
+  // 4. the yardstick: uniform settings; fall back when one meets the spec in no more time (or the solved plan does not meet it)
   const own: UniformSetting = { forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, mode: mission.mode, headingDeg: typeof mission.headingDeg === 'number' ? mission.headingDeg : headingDeg };
   // the mission's own overlaps in each altitude mode, and any settings the caller adds
   const modes = (['hold', 'steps', 'follow'] as const).filter((m) => m !== own.mode).map((mode) => ({ ...own, mode }));
@@ -269,9 +326,10 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   if (!fallback && choiceLines.length > 0) {
     // spacing and photo spacing vary by line: the summary gives the tightest of each (every line's own in choices),
     // and the height the bands are topped at
-    const gaps = choiceLines.map((c) => c.spacingToNextM).filter((v): v is number => v !== null);
+    const layoutLines = choiceLines.filter((c) => c.kind === 'line');
+    const gaps = layoutLines.map((c) => c.spacingToNextM).filter((v): v is number => v !== null);
     if (gaps.length) plan.summary.lineSpacingM = Math.min(...gaps);
-    plan.summary.triggerDistanceM = Math.min(...choiceLines.map((c) => c.triggerDistanceM.min));
+    if (layoutLines.length) plan.summary.triggerDistanceM = Math.min(...layoutLines.map((c) => c.triggerDistanceM.min));
     plan.summary.plannedHeightM = round(geometry.specHeightM * 0.97, 3);
   }
   const usable = mission.enduranceMin * 60 * (1 - mission.batteryReserve);

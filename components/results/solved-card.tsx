@@ -19,6 +19,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
   const [all, setAll] = useState(false);
   const c = s.comparison;
   const lines = all ? s.choices.lines : s.choices.lines.slice(0, FIRST_LINES);
+  const spots = s.choices.lines.filter((l) => l.kind === 'spot').length;
   return (
     <Card testID="solved-card">
       <Heading level={2}>How Loftline laid the lines out</Heading>
@@ -35,7 +36,8 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
           { key: 'solved', label: 'Flight time, solved', value: formatDuration(c.solvedFlightTimeS) },
           { key: 'uniform', label: 'Best uniform setting tried', value: c.bestUniformFlightTimeS === null ? 'none meets the spec' : formatDuration(c.bestUniformFlightTimeS) },
           { key: 'ratio', label: 'Solved ÷ uniform', value: c.ratio === null ? '–' : c.ratio.toFixed(2) },
-          { key: 'lines', label: 'Lines', value: String(s.choices.lines.length) },
+          { key: 'lines', label: 'Lines', value: String(s.choices.lines.length - spots) },
+          { key: 'spots', label: 'Spot photos (one photo straight above short ground)', value: String(spots) },
         ]}
       />
       <Text testID="solved-heading">Heading: {s.choices.heading}</Text>
@@ -57,7 +59,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
         <Heading level={3}>Why each line is where it is</Heading>
         {lines.map((l) => (
           <View key={l.line} style={styles.line}>
-            <Text variant="bodyStrong">Line {l.line}</Text>
+            <Text variant="bodyStrong">Line {l.line}{l.kind === 'spot' ? ' · spot photo' : ''}</Text>
             <BulletList items={l.reasons} />
           </View>
         ))}

@@ -9,6 +9,9 @@
  *   DO_CHANGE_SPEED where the leg's speed differs from the one in force, and DO_SET_CAM_TRIGG_DIST where its photo
  *   spacing differs once the camera runs), NAV_WAYPOINT line end, DO_SET_CAM_TRIGG_DIST 0 (camera off); finally
  *   MAV_CMD_NAV_RETURN_TO_LAUNCH.
+ * Between two lines at different altitudes a NAV_WAYPOINT holds the transit at the higher of the two (climb over the
+ * end of the one line, or arrive over the start of the next and descend), as the plan's transit clearance check
+ * assumes: a straight slant from a high line to a low one (a spot photo over a pit) would cut below it.
  * A DO command runs once the aircraft reaches the NAV item before it, so the camera starts on the first station
  * (the run-in before it stays free of photos, and later photos fall on the planned stations) and stops at the line end.
  */
@@ -160,9 +163,19 @@ export function buildMissionItems(input: BuilderInput): { items: MissionItem[]; 
   // Takeoff: climb over the takeoff point to the first line's start altitude; yaw NaN keeps the heading as it is.
   positioned('takeoff', MavCmd.NAV_TAKEOFF, input.takeoff, firstLeg.altitudeStartAboveTakeoffM, null, null, [0, 0, 0, null]);
 
+  let lastEnd: { point: AlongPoint; altitudeM: number } | null = null;
   input.lines.forEach((line, li) => {
     if (line.legs.length === 0) return;
     const number = li + 1;
+    const start = line.legs[0];
+    if (lastEnd) {
+      // below half a metre the slant and the level-then-vertical transit are the same flight
+      const a = lastEnd.altitudeM, b = start.altitudeStartAboveTakeoffM;
+      if (b > a + 0.5) positioned('transit', MavCmd.NAV_WAYPOINT, lastEnd.point, b, null, null, [0, 0, 0, null]);
+      else if (a > b + 0.5) positioned('transit', MavCmd.NAV_WAYPOINT, start.start, a, null, null, [0, 0, 0, null]);
+    }
+    const end = line.legs[line.legs.length - 1];
+    lastEnd = { point: end.end, altitudeM: end.altitudeEndAboveTakeoffM };
     const firstSeq = items.length;
     const settings = legSettings(line);
     // Speed is set at every line start (the turn before it may have flown at another); later only where it changes.

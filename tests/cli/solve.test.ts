@@ -32,7 +32,14 @@ describe('terrain solve', () => {
       // spacing varies line by line, and each spacing names the ground that set it, with its datum
       const spacings = doc.choices.lines.map((l: { spacingToNextM: number | null }) => l.spacingToNextM).filter((s: number | null) => s !== null);
       expect(new Set(spacings.map((s: number) => Math.round(s))).size).toBeGreaterThan(2);
-      for (const l of doc.choices.lines.slice(0, -1)) expect(l.reasons[0]).toMatch(/^ground at [\d.]+ m above EGM96 .* between lines \d+ and \d+ .* [\d.]+ m spacing keeps the 10 % side overlap floor/);
+      const layout = doc.choices.lines.filter((l: { kind: string }) => l.kind === 'line');
+      for (const l of layout.slice(0, -1)) expect(l.reasons[0]).toMatch(/^ground at [\d.]+ m above EGM96 .* between lines \d+ and \d+ .* [\d.]+ m spacing keeps the 10 % side overlap floor/);
+      // spot photos: one station each, over ground the layout's photos see too coarsely, with the height and its GSD
+      const spots = doc.choices.lines.filter((l: { kind: string }) => l.kind === 'spot');
+      for (const l of spots) {
+        expect(doc.lines[l.line - 1].stations).toHaveLength(1);
+        expect(l.reasons[0]).toMatch(/^spot photo straight above ground sloping \d+° at [\d.]+ m above EGM96 .* no finer than the spec's 2.75 cm\. [\d.]+ m above the ground gives about [\d.]+ cm along the slope/);
+      }
       // every leg carries its speed and photo spacing; no leg is faster than the mission's speed
       for (const line of doc.lines) for (const g of line.legs) {
         expect(g.speedMps).toBeGreaterThan(0);
@@ -43,6 +50,8 @@ describe('terrain solve', () => {
     expect(doc.proof.cellsInArea).toBeGreaterThan(30_000);
     expect(doc.proof.reachableCells).toBe(doc.proof.cellsInArea - doc.unreachable.reduce((t: number, u: { cells: number }) => t + u.cells, 0));
     expect(doc.proof.shortCells === 0).toBe(doc.proof.meets);
+    // the layout and its spot photos meet the spec on every reachable cell of the demo
+    expect(doc.proof.meets).toBe(true);
     const slope = doc.unreachable.find((u: { reason: string }) => u.reason === 'slope-gsd');
     expect(slope.message).toMatch(/ground sloping up to [\d.]+°: .* 35 m clearance and allowance .* 2.75 cm/);
     expect(doc.comparison.uniform[0].setting).toMatchObject({ forwardOverlap: 0.8, sideOverlap: 0.7, mode: 'follow' });

@@ -162,6 +162,26 @@ describe('mission items of a plan', () => {
     expect(items[4].z).toBeCloseTo(110, 9);
   });
 
+  it('holds each transit between lines at the higher of their altitudes: climb over the last line\'s end, or arrive over the next start and descend', () => {
+    // three short level lines due east at 54° N, flown at 100, 60 and 60 m above takeoff, then back up to 90 m
+    const level = (lon0: number, altM: number) => ({
+      triggerDistanceM: 10, speedMps: 8, stations: [{ lon: lon0 + 0.0001, lat: 54, distanceM: 6.6 }],
+      legs: [{ start: { lon: lon0, lat: 54, distanceM: 0 }, end: { lon: lon0 + 0.0003, lat: 54, distanceM: 19.7 }, altitudeStartAboveTakeoffM: altM, altitudeEndAboveTakeoffM: altM }],
+    });
+    const lines = [level(0, 100), level(0.001, 60), level(0.002, 60.3), level(0.003, 90)];
+    const { items } = buildMissionItems({ takeoff: { lon: 0, lat: 54 }, lines });
+    const transits = items.filter((i) => i.about.kind === 'transit');
+    expect(transits.every((t) => t.command === cmd('MAV_CMD_NAV_WAYPOINT') && t.about.line === null)).toBe(true);
+    // 100 -> 60: level at 100 m to over the second line's start, then down; 60 -> 60.3: none (under half a metre);
+    // 60.3 -> 90: up to 90 m over the third line's end, then level
+    expect(transits.map((t) => [t.x, t.y, t.z])).toEqual([
+      [degE7(54), degE7(0.001), 100],
+      [degE7(54), degE7(0.0023), 90],
+    ]);
+    // each sits just before the line it leads to
+    for (const t of transits) expect(items[t.seq + 1].about.kind).toBe('line-start');
+  });
+
   it('does not mutate its input', () => {
     const i = input();
     const before = JSON.stringify(i);

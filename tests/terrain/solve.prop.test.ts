@@ -54,25 +54,34 @@ describe('solver (properties, fixed seed)', () => {
       const { photos } = planPhotos(r, frame, envelope);
       const raster = computeCoverage(site.grid, frame, mission.area, camera, photos, { cellM: r.proof.cellM, specGsdCm: spec.maxGsdCm, envelope });
       expect(raster.cells.insideCount).toBe(r.proof.cellsInArea);
-      // unreachable cells, recomputed from the raster's own ground: slope so steep that a photo straight above at the clearance is too coarse
+      // unreachable cells, recomputed from the ground: slope (central differences of the grid's heights one grid
+      // step either side of the cell) so steep that a photo straight above at the clearance is too coarse. The
+      // raster's normal comes from its own height lattice, not the grid itself, so cells within 3 % of the limit
+      // may fall either way
       const gsdPerM = (pixelPitchMm(camera) / camera.focalLengthMm) * 100;
-      let failing = 0, unreachable = 0;
-      const { width, height, z, inside } = raster.cells;
-      const x = (i: number) => cellX(raster.cells, i), y = (i: number) => cellY(raster.cells, i);
+      const { heightAt } = localHeights(site.grid, frame);
+      let unreachable = 0, borderline = 0, failingClear = 0, failingBorder = 0;
+      const { width, height, inside } = raster.cells;
       for (let row = 0; row < height; row++) for (let c = 0; c < width; c++) {
         const i = row * width + c;
         if (!inside[i]) continue;
-        const d = (a: number, b: number) => (a >= 0 && b >= 0 ? (z[b] - z[a]) / Math.hypot(x(b) - x(a), y(b) - y(a)) : 0);
-        const gx = d(c > 0 ? i - 1 : i, c < width - 1 ? i + 1 : i), gy = d(row > 0 ? i - width : i, row < height - 1 ? i + width : i);
-        if ((30 * gsdPerM) / Math.cos(Math.atan(Math.hypot(gx, gy))) > spec.maxGsdCm) { unreachable++; continue; }
-        if (!(raster.finestGsdCm[i] <= spec.maxGsdCm) || raster.views[i] < spec.minViews) failing++;
+        const x = cellX(raster.cells, i), y = cellY(raster.cells, i), d = 4;
+        const gx = (heightAt(x + d, y) - heightAt(x - d, y)) / (2 * d), gy = (heightAt(x, y + d) - heightAt(x, y - d)) / (2 * d);
+        const atClearance = (30 * gsdPerM) / Math.cos(Math.atan(Math.hypot(gx || 0, gy || 0)));
+        const fails = !(raster.finestGsdCm[i] <= spec.maxGsdCm) || raster.views[i] < spec.minViews;
+        if (atClearance > spec.maxGsdCm * 1.03) { unreachable++; continue; }
+        if (atClearance >= spec.maxGsdCm * 0.97) { borderline++; if (fails) failingBorder++; continue; }
+        if (fails) failingClear++;
       }
-      expect(r.proof.reachableCells).toBe(r.proof.cellsInArea - unreachable);
-      expect(failing).toBe(r.proof.shortCells);
-      expect(r.proof.meets).toBe(failing === 0);
-      // the share it claims is the share of reachable cells the recomputed raster says meet the spec
-      expect(r.proof.shareReachableMeeting).toBeCloseTo(1 - failing / (r.proof.cellsInArea - unreachable), 6);
-      expect(r.proof.shareReachableMeeting).toBeGreaterThan(0.99);
+      expect(r.proof.reachableCells).toBeGreaterThanOrEqual(r.proof.cellsInArea - unreachable - borderline);
+      expect(r.proof.reachableCells).toBeLessThanOrEqual(r.proof.cellsInArea - unreachable);
+      // every clearly reachable cell the recomputed raster fails is counted short, and nothing else is
+      expect(r.proof.shortCells).toBeGreaterThanOrEqual(failingClear);
+      expect(r.proof.shortCells).toBeLessThanOrEqual(failingClear + failingBorder);
+      // with spot photos the solved plan meets the spec on every reachable cell
+      expect(r.proof.meets).toBe(true);
+      expect(r.proof.shareReachableMeeting).toBe(1);
+      expect(failingClear).toBe(0);
       // and never slower than a uniform plan it compared with that meets the spec
       for (const u of r.comparison.uniform) if (u.meets) expect(r.summary.flightTimeS).toBeLessThanOrEqual(u.flightTimeS + 0.05);
     }), SEED);
@@ -110,6 +119,12 @@ describe('solver (properties, fixed seed)', () => {
         }
       }
       void slowLegs;
+      // no transit to or from a spot photo comes inside the clearance (the tour is ordered and placed so)
+      const spotNos = new Set(r.choices.lines.filter((c) => c.kind === 'spot').map((c) => c.line));
+      for (const w of r.warnings.filter((x) => x.code === 'transit-clearance')) {
+        const m = /^Line (\d+) to line (\d+)/.exec(w.message);
+        if (m) expect(spotNos.has(Number(m[1])) || spotNos.has(Number(m[2])), w.message).toBe(false);
+      }
     }), SEED);
   }, 300_000);
 
