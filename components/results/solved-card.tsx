@@ -64,7 +64,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
           </View>
         ))}
         {s.choices.lines.length > FIRST_LINES ? (
-          <Button size="compact" variant="secondary" label={all ? 'Show the first lines only' : `Show all ${s.choices.lines.length} lines`} onPress={() => setAll(!all)} testID="solved-lines-toggle" />
+          <Button size="compact" variant="secondary" label={all ? 'Show the first lines only' : `Show all ${s.choices.lines.length} lines${spots ? ` (${spots} of them spot photos)` : ''}`} onPress={() => setAll(!all)} testID="solved-lines-toggle" />
         ) : null}
       </View>
     </Card>
