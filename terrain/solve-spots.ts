@@ -53,7 +53,7 @@ export function placeSpots(short: ShortCell[], geometry: ViewGeometry, mission: 
   const order = [...short].sort((p, q) => q.slopeDeg - p.slopeDeg);
   const out: Spot[] = [];
   // a cell within a tenth of a spot's height of it (at least 2 m) is seen by it at nearly the same slant
-  const reach = (s: Spot) => Math.max(2, 0.1 * s.heightM);
+  const reach = (s: Spot) => Math.max(4.5, 0.12 * s.heightM);
   const near = (s: Spot, c: ShortCell) => Math.hypot(s.x - c.x, s.y - c.y) <= reach(s) && Math.abs(s.groundM - c.z) <= reach(s);
   const low = mission.clearanceM + mission.obstacleAllowanceM;
   for (const c of order) {
