@@ -1,7 +1,8 @@
 /**
  * Battery plan: lines in flying order packed greedily into battery packs. Each pack flies out from the takeoff point
  * to its first line, its lines with a turn between each, and back; a pack closes when the next line would push it past
- * the usable time (endurance less the reserve). Transits are straight at the cruise speed, in still air.
+ * the usable time (endurance less the reserve). Transits are straight at the cruise speed, in still air; between lines
+ * the caller may give each line's transit from the one before (spot photos are reached that way).
  */
 import type { BatteryPlan } from '../../contracts/flights';
 
@@ -12,6 +13,8 @@ export interface BatteryLine {
   /** Straight distance from the takeoff point to the line's start and from its end, metres. */
   fromTakeoffM: number;
   toTakeoffM: number;
+  /** Transit from the end of the line before it in flying order, seconds (0 when not known): added on top of the turn. */
+  fromPreviousS?: number;
 }
 
 interface BatteryOptions {
@@ -43,9 +46,10 @@ export function planBatteries(lines: readonly BatteryLine[], o: BatteryOptions):
 
   for (const line of lines) {
     if (cur) {
-      const withLine = cur.timeS + o.turnTimeS + line.timeS + line.toTakeoffM / o.speedMps;
+      const step = o.turnTimeS + (line.fromPreviousS ?? 0) + line.timeS;
+      const withLine = cur.timeS + step + line.toTakeoffM / o.speedMps;
       if (withLine <= usable + 1e-9) {
-        cur.timeS += o.turnTimeS + line.timeS;
+        cur.timeS += step;
         cur.lines.push(line);
         continue;
       }

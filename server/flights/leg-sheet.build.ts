@@ -8,9 +8,10 @@ import { heightDatumOf, planWarnings, readMission, readResult, takeoffGroundM, t
 import type { VersionRecord } from '../versions/versions.repository';
 import { planBatteries } from './battery-plan';
 
-/** A leg as the pilot reads it; time at the cruise speed over the leg's horizontal length. */
+/** A leg as the pilot reads it; time over the leg's horizontal length at its own speed (solved plans), else the cruise speed. */
 function sheetLeg(leg: LegView, number: number, speedMps: number): SheetLeg {
   const lengthM = Math.abs(leg.end.distanceM - leg.start.distanceM);
+  const v = leg.speedMps !== undefined && leg.speedMps > 0 ? leg.speedMps : speedMps;
   const rise = leg.altitudeEndM - leg.altitudeStartM;
   return {
     number,
@@ -22,7 +23,7 @@ function sheetLeg(leg: LegView, number: number, speedMps: number): SheetLeg {
     gsdCm: { min: leg.gsdMinCm, max: leg.gsdMaxCm },
     headingDeg: azimuthDeg(leg.start, leg.end),
     lengthM,
-    timeS: lengthM / speedMps,
+    timeS: lengthM / v,
     gradientPct: leg.gradient * 100,
     kind: Math.abs(rise) < 0.05 ? 'level' : rise > 0 ? 'climb' : 'descent',
   };
@@ -32,15 +33,18 @@ function sheetLine(line: LineView, number: number, speedMps: number): SheetLine 
   const first = line.legs[0]?.start ?? line.stations[0];
   const last = line.legs[line.legs.length - 1]?.end ?? line.stations[line.stations.length - 1];
   const lengthM = line.lengthM;
+  const legs = line.legs.map((l, i) => sheetLeg(l, i + 1, speedMps));
+  // the legs at their own speeds, and any run-in or run-out beyond them at the cruise speed
+  const legLengthM = legs.reduce((t, g) => t + g.lengthM, 0);
   return {
     number,
     headingDeg: line.headingDeg,
     lengthM,
-    timeS: lengthM / speedMps,
+    timeS: legs.reduce((t, g) => t + g.timeS, 0) + Math.max(0, lengthM - legLengthM) / speedMps,
     photoCount: line.stations.length,
     start: { lon: first.lon, lat: first.lat },
     end: { lon: last.lon, lat: last.lat },
-    legs: line.legs.map((l, i) => sheetLeg(l, i + 1, speedMps)),
+    legs,
     warnings: [...line.warnings.map((w) => w.message), ...line.unmet.map((u) => u.message)],
   };
 }
@@ -55,7 +59,17 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
   const lines = view.lines.map((l, i) => sheetLine(l, i + 1, mission.speedMps));
   const takeoff = mission.takeoff;
   const batteries = planBatteries(
-    lines.map((l) => ({ number: l.number, timeS: l.timeS, fromTakeoffM: distanceM(takeoff, l.start), toTakeoffM: distanceM(l.end, takeoff) })),
+    lines.map((l, i) => {
+      // the transit from the line before, flown level at the higher of the two altitudes (climb first or descend
+      // last, as the MAVLink export flies it): the level distance at the cruise speed plus the change of altitude
+      const prev = lines[i - 1];
+      let fromPreviousS = 0;
+      if (prev && prev.legs.length && l.legs.length) {
+        const dz = l.legs[0].altitudeAboveDatumM.start - prev.legs[prev.legs.length - 1].altitudeAboveDatumM.end;
+        fromPreviousS = distanceM(prev.end, l.start) / mission.speedMps + (dz > 0 ? dz / mission.climbMps : -dz / mission.descentMps);
+      }
+      return { number: l.number, timeS: l.timeS, fromTakeoffM: distanceM(takeoff, l.start), toTakeoffM: distanceM(l.end, takeoff), fromPreviousS };
+    }),
     { enduranceMin: mission.enduranceMin, reserve: mission.batteryReserve, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS },
   );
   const groundM = takeoffGroundM(view);

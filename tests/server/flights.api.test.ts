@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { legSheetSchema, type LegSheet } from '../../contracts/flights';
-import { analysedResult, createVersion, freshTeam, type FreshTeam } from '../support/fixtures';
+import { analysedResult, createVersion, freshTeam, solvedMission, solvedResult, type FreshTeam } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { readMission } from '../../server/versions/result-view';
 
 let srv: TestServer;
 let team: FreshTeam;
@@ -94,6 +95,46 @@ describe('the leg sheet', () => {
     expect(sheet.datum.takeoffGroundM).toBe(result.takeoff.groundM);
     const leg = result.lines[0].legs[0];
     expect(sheet.datum.takeoffGroundM!).toBeCloseTo(leg.altitudeStartM - leg.altitudeStartAboveTakeoffM, 1);
+  });
+
+  it('times a solved plan\'s legs at their own speeds, and packs batteries with the transits between lines', async () => {
+    const result = solvedResult();
+    const input = solvedMission();
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', result, input });
+    const sheet: LegSheet = legSheetSchema.parse((await team.clients.pilot.get(sheetPath(v.versionId))).body);
+    let slow = 0;
+    result.lines.forEach((line, i) => line.legs.forEach((leg, g) => {
+      const lengthM = Math.abs(leg.end.distanceM - leg.start.distanceM);
+      expect(leg.speedMps).toBeGreaterThan(0);
+      if (leg.speedMps! < 10 - 1e-9) slow++;
+      expect(sheet.lines[i].legs[g].timeS).toBeCloseTo(lengthM / leg.speedMps!, 6);
+    }));
+    // the fixture climbs at 0.2 m/s: some legs are slowed, and their time is the longer one
+    expect(slow).toBeGreaterThan(0);
+    // each pack: out from the takeoff, its lines, a turn and the transit between each (level at 10 m/s plus the
+    // change of altitude at 0.2 m/s up or down), and back
+    const mission = readMission(input);
+    const speed = mission.speedMps, turn = mission.turnTimeS;
+    expect([speed, mission.climbMps, mission.descentMps]).toEqual([10, 0.2, 0.2]);
+    const hav = (a: { lon: number; lat: number }, b: { lon: number; lat: number }) => {
+      // haversine on a 6,371,008.8 m sphere (IUGG mean Earth radius, from memory): within 0.5 % of the geodesic here
+      const r = Math.PI / 180, dLat = (b.lat - a.lat) * r, dLon = (b.lon - a.lon) * r;
+      const h = Math.sin(dLat / 2) ** 2 + Math.cos(a.lat * r) * Math.cos(b.lat * r) * Math.sin(dLon / 2) ** 2;
+      return 2 * 6_371_008.8 * Math.asin(Math.sqrt(h));
+    };
+    const takeoff = mission.takeoff;
+    for (const p of sheet.batteries.packs) {
+      const ls = p.lines.map((n) => sheet.lines[n - 1]);
+      let t = hav(takeoff, ls[0].start) / speed + ls[0].timeS;
+      for (let k = 1; k < ls.length; k++) {
+        const a = ls[k - 1], b = ls[k];
+        const dz = b.legs[0].altitudeAboveDatumM.start - a.legs.at(-1)!.altitudeAboveDatumM.end;
+        t += turn + hav(a.end, b.start) / speed + Math.abs(dz) / 0.2 + b.timeS;
+      }
+      t += hav(ls.at(-1)!.end, takeoff) / speed;
+      expect(p.flightTimeS / t).toBeGreaterThan(0.995);
+      expect(p.flightTimeS / t).toBeLessThan(1.005);
+    }
   });
 
   it('plans the batteries and carries the pre-flight checklist with the cautions', async () => {

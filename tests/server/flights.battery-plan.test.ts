@@ -18,6 +18,16 @@ describe('the battery plan', () => {
     expect(plan.packs.every((p) => !p.overBudget)).toBe(true);
   });
 
+  it('adds each line\'s transit from the one before on top of the turn', () => {
+    // Pack 1: 30 + 100 + (10 + 60) + 100 = 300 s, + 30 back = 330 s; a third line would make 300 + (10 + 60) + 100
+    // + 30 = 500 s > 480 s (without the transits all three fit: 380 s). Pack 2: 30 + 100 + 30 = 160 s (a pack's
+    // first line is reached from the takeoff).
+    const plan = planBatteries([1, 2, 3].map((n) => ({ ...line(n, 100), fromPreviousS: 60 })), opts);
+    expect(plan.packs.map((p) => p.lines)).toEqual([[1, 2], [3]]);
+    expect(plan.packs[0].flightTimeS).toBeCloseTo(330, 9);
+    expect(plan.packs[1].flightTimeS).toBeCloseTo(160, 9);
+  });
+
   it('flags a line that alone needs more than one battery', () => {
     const plan = planBatteries([line(1, 100), line(2, 500)], opts);
     expect(plan.packs.map((p) => [p.lines, p.overBudget])).toEqual([[[1], false], [[2], true]]);
