@@ -272,6 +272,9 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     built = build(headingDeg, rep);
     verdict = verifier.check(built.plan);
     if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict, rep: snapshot(rep) };
+    // a round that left more cells short than the best one lowered lines past where it helps: spot photos close
+    // the rest at less cost than more rounds from here
+    else if (!verdict.meets) break;
   }
   ({ built, verdict } = best);
   // 3. spot photos where reachable cells are still short of the GSD: one photo straight above each, lower again
