@@ -103,7 +103,27 @@ describe('spec for every ground cell in the plan editor', () => {
     const restore = await growToContent(page);
     await card.screenshot({ path: path.join(shotDir, 'solved-wide.png') });
     await restore();
+    // the spot photos are counted beside the lines, and each names its ground in its reasons
+    const spots = result.solved.choices.lines.filter((l: { kind: string }) => l.kind === 'spot').length;
+    expect(await card.getByTestId('solved-comparison').textContent()).toContain(`Spot photos (one photo straight above short ground)${spots}`);
     expect(pageErrors).toEqual([]);
     await context.close();
+    // the same card on a phone: nothing wider than the screen
+    const phone = await openPage(browser, viewports.phone);
+    await phone.page.goto(`${srv.url}/sign-in`);
+    await phone.page.getByTestId('sign-in-email').fill(team.users.planner.email);
+    await phone.page.getByTestId('sign-in-password').fill(fixturePassword);
+    await phone.page.getByTestId('sign-in-submit').click();
+    await phone.page.getByTestId('nav-profile').waitFor();
+    await phone.page.goto(`${srv.url}/projects/${projectId}/plans/${planId}/versions/${versionId}`);
+    const phoneCard = phone.page.getByTestId('solved-card');
+    await phoneCard.waitFor({ timeout: 60_000 });
+    const box = await phoneCard.boundingBox();
+    expect(box!.x + box!.width).toBeLessThanOrEqual(viewports.phone.width + 1);
+    const restorePhone = await growToContent(phone.page);
+    await phoneCard.screenshot({ path: path.join(shotDir, 'solved-phone.png') });
+    await restorePhone();
+    expect(phone.pageErrors).toEqual([]);
+    await phone.context.close();
   }, 240_000);
 });
