@@ -33,6 +33,22 @@ export function planSafetyWarnings(m: Mission, s: { maxDistanceFromTakeoffM: num
 }
 
 /**
+ * How far a level transit from a to b at `altM` comes inside the clearance over the ground between them, sampled
+ * every 5 m (negative: clear by that much; −Infinity over unknown ground only).
+ */
+export function transitShortfallM(a: readonly number[], b: readonly number[], altM: number, heightAt: HeightAt, clearanceM: number): number {
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  const n = Math.max(2, Math.ceil(len / 5) + 1);
+  let worst = -Infinity;
+  for (let i = 0; i < n; i++) {
+    const f = i / (n - 1);
+    const h = heightAt(a[0] + (b[0] - a[0]) * f, a[1] + (b[1] - a[1]) * f);
+    if (h === h) worst = Math.max(worst, h + clearanceM - altM);
+  }
+  return worst;
+}
+
+/**
  * Clearance over the transits (takeoff to the first line, between lines, last line back to takeoff), flown
  * straight at the higher of the two end altitudes (climb before, descend after; at the takeoff point the
  * aircraft climbs and descends vertically): warn where the ground plus clearance rises above that.
@@ -45,14 +61,7 @@ export function transitWarnings(
   const endAlt = (i: number) => legs[i][legs[i].length - 1]?.altitudeEndM ?? NaN;
   const check = (label: string, a: [number, number], b: [number, number], altM: number) => {
     if (!Number.isFinite(altM)) return;
-    const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
-    const n = Math.max(2, Math.ceil(len / 5) + 1);
-    let worst = -Infinity;
-    for (let i = 0; i < n; i++) {
-      const f = i / (n - 1);
-      const h = heightAt(a[0] + (b[0] - a[0]) * f, a[1] + (b[1] - a[1]) * f);
-      if (h === h) worst = Math.max(worst, h + clearanceM - altM);
-    }
+    const worst = transitShortfallM(a, b, altM, heightAt, clearanceM);
     if (worst > 0) {
       // Both heights name their reference: the pilot sets the one above takeoff, the datum figure ties it to the grid.
       const flown = `${Math.round(altM)} m above the datum (${Math.round(altM - takeoffGroundM)} m above takeoff)`;

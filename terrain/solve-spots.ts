@@ -8,6 +8,7 @@ import type { AltitudeLimits } from './altitude';
 import type { Mission } from './mission';
 import type { ViewGeometry } from './solve-geometry';
 import type { HeightAt } from './footprint';
+import { transitShortfallM } from './plan-warnings';
 
 const DEG = Math.PI / 180;
 
@@ -81,20 +82,9 @@ export function placeSpots(short: ShortCell[], geometry: ViewGeometry, mission: 
 /** Where the tour starts and ends: a point and the altitude there (metres above the grid's datum). */
 type Anchor = [number, number, number];
 
-/**
- * Whether a transit from a to b, flown straight at the higher of the two altitudes (climb before, descend after,
- * as `transitWarnings` assumes), keeps the clearance over the ground between them (sampled every 5 m).
- */
+/** Whether a transit from a to b, flown level at the higher of the two altitudes (climb before, descend after, as `transitWarnings` checks it), keeps the clearance. */
 function hopClears(a: Anchor, b: Anchor, heightAt: HeightAt, clearanceM: number): boolean {
-  const alt = Math.max(a[2], b[2]);
-  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
-  const n = Math.max(2, Math.ceil(len / 5) + 1);
-  for (let i = 0; i < n; i++) {
-    const f = i / (n - 1);
-    const h = heightAt(a[0] + (b[0] - a[0]) * f, a[1] + (b[1] - a[1]) * f);
-    if (h === h && h + clearanceM > alt) return false;
-  }
-  return true;
+  return !(transitShortfallM(a, b, Math.max(a[2], b[2]), heightAt, clearanceM) > 0);
 }
 
 /** Greedy order from `start`: the quickest next spot whose transit keeps the clearance (any spot when none does). */
