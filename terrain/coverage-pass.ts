@@ -42,8 +42,8 @@ interface CellPass {
   exact: boolean;
   /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point. */
   pt: Float64Array; ray: Float64Array; around: Float64Array;
-  /** Scratch: cos and sin of each ray's angle from the vertical (2 per view). */
-  tilt: Float64Array;
+  /** Scratch: cos and sin of each ray's angle from the vertical (2 per view), and the rays `minRayDot` keeps. */
+  tilt: Float64Array; kept: Int32Array;
   /** Per raster column, how its position blends between nodes (`rowPositions`). */
   cb: ColumnBlend;
   /** Scratch: the local positions of the current tile's cells (row-major, TILE per row). */
@@ -227,9 +227,10 @@ function hiddenFrom(c: CellPass, ox: number, oy: number, oz: number, maxM: numbe
  * Exactly the minimum over every pair, with pairs that cannot reach it skipped: for rays at angles θa and θb from
  * the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the sphere), so once the steepest ray m
  * has been paired with every other, a ray a with cos(θa + θm) above the minimum so far meets no ray that gives less
- * (θb ≤ θm for every b). Applies while every ray points up (all angles below 90°); else every pair is read.
+ * (θb ≤ θm for every b). The minimum is then among the pairs of the rays left (`kept`, scratch), each pair read
+ * once. Applies while every ray points up (all angles below 90°); else every pair is read.
  */
-function minRayDot(rays: Float64Array, v: number, tilt: Float64Array): number {
+function minRayDot(rays: Float64Array, v: number, tilt: Float64Array, kept: Int32Array): number {
   let m = 0, up = true;
   for (let a = 0; a < v; a++) {
     const cz = rays[a * 3 + 2];
@@ -252,14 +253,16 @@ function minRayDot(rays: Float64Array, v: number, tilt: Float64Array): number {
   const mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], cm = tilt[m * 2], sm = tilt[m * 2 + 1];
   for (let b = 0; b < v; b++) {
     if (b === m) continue;
-    const d = b < m ? rays[b * 3] * mx + rays[b * 3 + 1] * my + rays[b * 3 + 2] * mz : mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
+    const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
     if (d < minDot) minDot = d;
   }
-  for (let a = 0; a < v; a++) {
-    if (a === m || tilt[a * 2] * cm - tilt[a * 2 + 1] * sm > minDot + 1e-12) continue;
-    const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
-    for (let b = 0; b < v; b++) {
-      if (b === a) continue;
+  // a pair with a ray left out gives more than minDot now, so more than the minimum found in the end
+  let nk = 0;
+  for (let a = 0; a < v; a++) if (a !== m && !(tilt[a * 2] * cm - tilt[a * 2 + 1] * sm > minDot + 1e-12)) kept[nk++] = a;
+  for (let p = 0; p < nk; p++) {
+    const a = kept[p], ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
+    for (let q = p + 1; q < nk; q++) {
+      const b = kept[q];
       const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
       if (d < minDot) minDot = d;
     }
@@ -356,7 +359,7 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   viewsAtSpecGsd[i] = atSpec;
   if (v > 0) finestGsdCm[i] = finest;
   if (v > 1) {
-    const minDot = minRayDot(rays, v, c.tilt);
+    const minDot = minRayDot(rays, v, c.tilt, c.kept);
     maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
     N[0] = n0; N[1] = n1; N[2] = n2; N[3] = n3; N[4] = n4; N[5] = n5;
     sigmaFromNormal(N, 0, sig);
