@@ -141,6 +141,7 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const rise = (oz - pz) / lenH; // metres up per metre along the ground
   const step = L.stepM;
   const cellsPerBlock = L.block * step;
+  const hs = L.heights, nx = L.nx;
   let s = step;
   while (s < lenH) {
     const z = pz + s * rise;
@@ -158,7 +159,11 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
       s += (jump > 0 ? jump : 0) + 1e-6 * step;
       continue;
     }
-    const h = latticeHeight(L, x, y);
+    // latticeHeight written out (a call would box the height it returns); inside the lattice, as tested above
+    const i = Math.floor(fi), j = Math.floor(fj), tx = fi - i, ty = fj - j, o = j * nx + i;
+    const ha = hs[o], hb = hs[o + 1], hc = hs[o + nx], hd = hs[o + nx + 1];
+    const top = ha + (hb - ha) * tx;
+    const h = top + (hc + (hd - hc) * tx - top) * ty;
     if (h - toleranceM > z) return true;
     s += step;
   }
