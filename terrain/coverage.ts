@@ -10,9 +10,10 @@ import { cameraToLocal } from './footprint';
 import { imageModel } from './pose';
 import { fillCells, TILE } from './coverage-pass';
 import { tileBoxes, tilePhotoLists } from './coverage-tiles';
+import { CLEARANCE_STRIDE } from './ray-clearance';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
 import { heightLattice, slopeIn, type HeightLattice } from './occlusion';
-import { latticeRange, rangeBlocks, type RangeBlocks } from './lattice-range';
+import { latticeRange, maxRuns, rangeBlocks, type MaxRuns, type RangeBlocks } from './lattice-range';
 import { columnBlend, coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
 import { normalisedBounds } from './image-bounds';
 import { check } from './errors';
@@ -52,8 +53,9 @@ export interface CoverageOptions {
    */
   stopAt?: (cell: number, raster: CoverageRaster) => boolean;
   /**
-   * Project every cell into every candidate photo instead of deciding blocks of cells at once (the same figures,
-   * slower): the reference the tests hold the block decisions to.
+   * Project every cell into every candidate photo instead of deciding blocks of cells at once, and march every ray
+   * the slope bound does not clear instead of proving parts of rays clear by tile (`ray-clearance.ts`): the same
+   * figures, slower; the reference the tests hold the block decisions and the clearance proofs to.
    */
   exactPass?: boolean;
 }
@@ -184,6 +186,14 @@ function slopesToPhotos(lattice: HeightLattice, tileBox: Float64Array, tileLists
 }
 
 const rangesOf = new WeakMap<HeightLattice, RangeBlocks>();
+const maxesOf = new WeakMap<HeightLattice, MaxRuns>();
+
+/** The lattice's block maxima (`maxRuns`), kept with the lattice. */
+function maxRunsOf(lattice: HeightLattice): MaxRuns {
+  let m = maxesOf.get(lattice);
+  if (!m) { m = maxRuns(lattice); maxesOf.set(lattice, m); }
+  return m;
+}
 
 /** The last lattice built per grid and frame (read only once built; dropped with the grid or the frame). */
 const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattice: HeightLattice }>>();
@@ -196,8 +206,10 @@ const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattic
  * the views that hold at every attitude in it count (`attitude-envelope.ts`). Work is bounded by each photo's
  * ground box: cells are visited tile by tile against the photos whose box meets the tile, and each 4 x 4 block of
  * a tile is decided against each photo at once where its whole box of ground points lands inside or outside the
- * image (`coverage-blocks.ts`); only cells of blocks on a footprint's edge are projected one by one. The figures are
- * exactly those of projecting every cell (`exactPass`, which the tests compare cell for cell).
+ * image (`coverage-blocks.ts`); only cells of blocks on a footprint's edge are projected one by one. A ray that
+ * the tile's slope bound does not clear is marched only over the part its tile's clearance profile for that camera
+ * does not prove clear (`ray-clearance.ts`). The figures are exactly those of projecting every cell and marching
+ * every such ray in full (`exactPass`, which the tests compare cell for cell).
  */
 export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon, camera: Camera, photos: readonly CoveragePhoto[], opts: CoverageOptions): CoverageRaster {
   checkCamera(camera);
@@ -291,7 +303,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
   const stopAt = opts.stopAt;
   const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
-  const stopped = fillCells({ cb, tilt: new Float64Array(2 * Math.max(1, longest)), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const stopped = fillCells({ cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, tilt: new Float64Array(2 * Math.max(1, longest)), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(9), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }

@@ -130,12 +130,14 @@ export function heightsAround(L: HeightLattice, a: Float64Array): void {
  * box, which holds the point and the camera and so the ray); where the ray is above a block's highest height it
  * jumps to the block's far side). Unknown heights never hide a point. The numbers come in one array
  * (px, py, pz, ox, oy, oz, toleranceM, maxM): a hot loop passes one reference instead of eight numbers the engine
- * would box on every call.
+ * would box on every call; a ninth, when given, ends the march at that distance along the ground (where the
+ * caller has proven the rest of the ray clear: `ray-clearance.ts`).
  */
 export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const px = a[0], py = a[1], pz = a[2], ox = a[3], oy = a[4], oz = a[5], toleranceM = a[6], maxM = a[7];
   const hx = ox - px, hy = oy - py;
   const lenH = Math.sqrt(hx * hx + hy * hy);
+  const end = a.length > 8 && a[8] < lenH ? a[8] : lenH;
   if (lenH < L.stepM) return false;
   const ux = hx / lenH, uy = hy / lenH;
   const rise = (oz - pz) / lenH; // metres up per metre along the ground
@@ -143,7 +145,7 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const cellsPerBlock = L.block * step;
   const hs = L.heights, nx = L.nx;
   let s = step;
-  while (s < lenH) {
+  while (s < end) {
     const z = pz + s * rise;
     if (z - toleranceM > maxM) return false;
     const x = px + s * ux, y = py + s * uy;
