@@ -64,7 +64,14 @@ export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
   // each band written straight into the file: the values copied and converted by the engine in one call, then
   // nodata over the runs of cells outside the area (a few per row), not a test per cell
   const runs = outsideRuns(cells.inside);
-  const band = (b: Uint16Array | Float32Array) => (out: Float32Array) => fillBand(out, b, runs);
+  // one writer per distinct array: a views-only raster's measures share arrays (`viewsOnly`), and the file then
+  // holds each once
+  const writers = new Map<Uint16Array | Float32Array, (out: Float32Array) => void>();
+  const band = (b: Uint16Array | Float32Array) => {
+    let w = writers.get(b);
+    if (!w) { w = (out: Float32Array) => fillBand(out, b, runs); writers.set(b, w); }
+    return w;
+  };
   return writeFloat32GeoTiff({
     width: cells.width, height: cells.height, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
