@@ -11,6 +11,8 @@ import { CLEARANCE_STRIDE, clearanceProfile, HIGHEST_AT, STEEPEST_AT } from './r
 
 /** Cells per tile side; each tile is matched once against the photos' boxes (a multiple of the cells' node step). */
 export const TILE = 16;
+/** Numbers per tile in `tileBoxes` (coverage-tiles.ts): x0, y0, x1, y1 of its cells' local positions, its lowest and highest ground. */
+export const TILE_BOX = 6;
 /** Cells per block side: each block of a tile is decided at once against each photo of the tile (`coverage-blocks.ts`). */
 const BLOCK = 4;
 const BLOCKS = (TILE / BLOCK) * (TILE / BLOCK);
@@ -51,7 +53,7 @@ interface CellPass {
   px: Float64Array; py: Float64Array;
   /** Longest photo list of a tile. */
   longest: number;
-  /** Per tile x0, y0, x1, y1, lowest ground (`tileBoxes`); the tile being visited; the lattice's block maxima. */
+  /** Per tile its box and ground range (`tileBoxes`); the tile being visited; the lattice's block maxima. */
   tileBox: Float64Array; tile: number; maxRuns: MaxRuns;
   /** Per photo of the tile being visited: its clearance profile (CLEARANCE_STRIDE numbers, count 0 until worked out), and the narrowest bin, metres. */
   profiles: Float64Array; binM: number;
@@ -252,14 +254,13 @@ function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): 
   if (!(dz < 0) || c.exact) return NO_PROOF;
   const prof = c.profiles, base = li * CLEARANCE_STRIDE;
   if (!(prof[base] > 0)) {
-    const t = c.tile * 5, tb = c.tileBox;
-    clearanceProfile(c.lattice, c.maxRuns, tb[t], tb[t + 1], tb[t + 2], tb[t + 3], c.pos[j * 3], c.pos[j * 3 + 1], c.binM, prof, base);
+    clearanceProfile(c.lattice, c.maxRuns, c.tileBox, c.tile * TILE_BOX, pos[j * 3], pos[j * 3 + 1], pos[j * 3 + 2], c.tol, c.binM, prof, base);
   }
-  const K = prof[base], W = prof[base + 1];
+  const W = prof[base + 1];
   const rho = -dz / Math.sqrt(dx * dx + dy * dy);
   // bins from the last down that the ray clears: pz + ρ·S_k ≥ H_k − tolerance, with a hair for rounding
   const lift = c.pt[2] + c.tol - 1e-6;
-  let k = K;
+  let k = prof[base + 2];
   while (k > 0 && lift + (k - 1) * W * rho >= prof[base + HIGHEST_AT + k - 1]) k--;
   if (k === 0 || (nearSurface && rho >= prof[base + STEEPEST_AT + k])) return 0;
   return k;

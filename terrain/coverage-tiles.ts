@@ -4,32 +4,33 @@
  * optimised on its own the first time and stays so, whatever else the raster's options change.
  */
 import { rowPositions, type ColumnBlend, type CoverageCells } from './coverage-grid';
-import { TILE } from './coverage-pass';
+import { TILE, TILE_BOX } from './coverage-pass';
 
-/** Per tile x0, y0, x1, y1 of its cells' local positions and its lowest ground (tiles with no cell in the area keep ±Infinity). */
+/** Per tile its box and ground range (TILE_BOX numbers; tiles with no cell in the area keep ±Infinity). */
 export function tileBoxes(cells: CoverageCells, cb: ColumnBlend, tw: number, th: number): Float64Array {
   const { width, height, inside, z } = cells;
-  const tileBox = new Float64Array(tw * th * 5);
+  const tileBox = new Float64Array(tw * th * TILE_BOX);
   for (let t = 0; t < tw * th; t++) {
-    tileBox[t * 5] = Infinity; tileBox[t * 5 + 1] = Infinity; tileBox[t * 5 + 2] = -Infinity; tileBox[t * 5 + 3] = -Infinity; tileBox[t * 5 + 4] = Infinity;
+    const o = t * TILE_BOX;
+    tileBox[o] = Infinity; tileBox[o + 1] = Infinity; tileBox[o + 2] = -Infinity; tileBox[o + 3] = -Infinity; tileBox[o + 4] = Infinity; tileBox[o + 5] = -Infinity;
   }
   const rowX = new Float64Array(width), rowY = new Float64Array(width);
   for (let r = 0; r < height; r++) {
     rowPositions(cells.nodes, cb, r, 0, width, rowX, rowY, 0);
     const row = r * width;
     for (let tx = 0; tx < tw; tx++) {
-      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, zLow = Infinity;
+      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, zLow = Infinity, zHigh = -Infinity;
       const end = Math.min(width, (tx + 1) * TILE);
       for (let c = tx * TILE; c < end; c++) {
         if (inside[row + c] === 0) continue;
         const x = rowX[c], y = rowY[c], h = z[row + c];
-        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y; if (h < zLow) zLow = h;
+        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y; if (h < zLow) zLow = h; if (h > zHigh) zHigh = h;
       }
       if (!(x0 <= x1)) continue;
-      const t = (Math.floor(r / TILE) * tw + tx) * 5;
+      const t = (Math.floor(r / TILE) * tw + tx) * TILE_BOX;
       if (x0 < tileBox[t]) tileBox[t] = x0; if (y0 < tileBox[t + 1]) tileBox[t + 1] = y0;
       if (x1 > tileBox[t + 2]) tileBox[t + 2] = x1; if (y1 > tileBox[t + 3]) tileBox[t + 3] = y1;
-      if (zLow < tileBox[t + 4]) tileBox[t + 4] = zLow;
+      if (zLow < tileBox[t + 4]) tileBox[t + 4] = zLow; if (zHigh > tileBox[t + 5]) tileBox[t + 5] = zHigh;
     }
   }
   return tileBox;
@@ -45,7 +46,7 @@ export function tileBoxes(cells: CoverageCells, cb: ColumnBlend, tw: number, th:
 export function tilePhotoLists(tileBox: Float64Array, tiles: number, boxes: Float64Array, obox: Float64Array, pos: Float64Array, P: number): Int32Array[] {
   let gx0 = Infinity, gy0 = Infinity, gx1 = -Infinity, gy1 = -Infinity, span = 0;
   for (let t = 0; t < tiles; t++) {
-    const x0 = tileBox[t * 5], y0 = tileBox[t * 5 + 1], x1 = tileBox[t * 5 + 2], y1 = tileBox[t * 5 + 3];
+    const x0 = tileBox[t * TILE_BOX], y0 = tileBox[t * TILE_BOX + 1], x1 = tileBox[t * TILE_BOX + 2], y1 = tileBox[t * TILE_BOX + 3];
     if (!(x0 <= x1)) continue;
     if (x0 < gx0) gx0 = x0; if (y0 < gy0) gy0 = y0; if (x1 > gx1) gx1 = x1; if (y1 > gy1) gy1 = y1;
     span = Math.max(span, x1 - x0, y1 - y0);
@@ -61,11 +62,11 @@ export function tilePhotoLists(tileBox: Float64Array, tiles: number, boxes: Floa
   // tiles per bin (counting, then filling: one flat array)
   const count = new Int32Array(bnx * bny + 1);
   const each = (t: number, f: (b: number) => void) => {
-    const i0 = binOf(tileBox[t * 5], gx0, bnx), i1 = binOf(tileBox[t * 5 + 2], gx0, bnx);
-    const j0 = binOf(tileBox[t * 5 + 1], gy0, bny), j1 = binOf(tileBox[t * 5 + 3], gy0, bny);
+    const i0 = binOf(tileBox[t * TILE_BOX], gx0, bnx), i1 = binOf(tileBox[t * TILE_BOX + 2], gx0, bnx);
+    const j0 = binOf(tileBox[t * TILE_BOX + 1], gy0, bny), j1 = binOf(tileBox[t * TILE_BOX + 3], gy0, bny);
     for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) f(j * bnx + i);
   };
-  const filled = (t: number) => tileBox[t * 5] <= tileBox[t * 5 + 2];
+  const filled = (t: number) => tileBox[t * TILE_BOX] <= tileBox[t * TILE_BOX + 2];
   for (let t = 0; t < tiles; t++) if (filled(t)) each(t, (b) => { count[b + 1]++; });
   for (let b = 0; b < bnx * bny; b++) count[b + 1] += count[b];
   const inBin = new Int32Array(count[bnx * bny]), at = count.slice(0, bnx * bny);
@@ -92,7 +93,7 @@ export function tilePhotoLists(tileBox: Float64Array, tiles: number, boxes: Floa
 
 /** Whether photo j's boxes meet tile t's box (the axis-aligned box, then the tile's corners in the photo's heading frame). */
 function meets(tileBox: Float64Array, t: number, boxes: Float64Array, obox: Float64Array, pos: Float64Array, j: number): boolean {
-  const x0 = tileBox[t * 5], y0 = tileBox[t * 5 + 1], x1 = tileBox[t * 5 + 2], y1 = tileBox[t * 5 + 3];
+  const x0 = tileBox[t * TILE_BOX], y0 = tileBox[t * TILE_BOX + 1], x1 = tileBox[t * TILE_BOX + 2], y1 = tileBox[t * TILE_BOX + 3];
   if (!(boxes[j * 4] <= x1 && boxes[j * 4 + 2] >= x0 && boxes[j * 4 + 1] <= y1 && boxes[j * 4 + 3] >= y0)) return false;
   const o = j * 6, sp = obox[o], cp = obox[o + 1];
   let a0 = Infinity, a1 = -Infinity, c0 = Infinity, c1 = -Infinity;

@@ -8,7 +8,7 @@ import { localHeights } from './local-frame';
 import type { CameraPose } from './footprint';
 import { cameraToLocal } from './footprint';
 import { imageModel } from './pose';
-import { fillCells, TILE } from './coverage-pass';
+import { fillCells, TILE, TILE_BOX } from './coverage-pass';
 import { tileBoxes, tilePhotoLists } from './coverage-tiles';
 import { CLEARANCE_STRIDE } from './ray-clearance';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
@@ -177,7 +177,7 @@ const noSlopes = new Float64Array(0);
 /** Per tile, parallel to its photo list: the steepest ground a ray from the tile's cells to that camera crosses (`riseNeeded`). */
 function slopesToPhotos(lattice: HeightLattice, tileBox: Float64Array, tileLists: readonly Int32Array[], pos: Float64Array, boxTop: Float64Array, boxSlope: Float64Array, tol: number, pb: number): Float64Array[] {
   return tileLists.map((list, t) => {
-    const x0 = tileBox[t * 5], y0 = tileBox[t * 5 + 1], x1 = tileBox[t * 5 + 2], y1 = tileBox[t * 5 + 3], zLow = tileBox[t * 5 + 4];
+    const o = t * TILE_BOX, x0 = tileBox[o], y0 = tileBox[o + 1], x1 = tileBox[o + 2], y1 = tileBox[o + 3], zLow = tileBox[o + 4];
     return Float64Array.from(list, (j) => {
       const around: [number, number, number, number] = [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb];
       return riseNeeded(lattice, around, [x0, y0, x1, y1], zLow, boxTop[j], tol, pb, Math.min(boxSlope[j], slopeIn(lattice, around)));
@@ -229,8 +229,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const tileBox = tileBoxes(cells, cb, tw, th);
   const cellBox: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
   for (let t = 0; t < tw * th; t++) {
-    cellBox[0] = Math.min(cellBox[0], tileBox[t * 5]); cellBox[1] = Math.min(cellBox[1], tileBox[t * 5 + 1]);
-    cellBox[2] = Math.max(cellBox[2], tileBox[t * 5 + 2]); cellBox[3] = Math.max(cellBox[3], tileBox[t * 5 + 3]);
+    cellBox[0] = Math.min(cellBox[0], tileBox[t * TILE_BOX]); cellBox[1] = Math.min(cellBox[1], tileBox[t * TILE_BOX + 1]);
+    cellBox[2] = Math.max(cellBox[2], tileBox[t * TILE_BOX + 2]); cellBox[3] = Math.max(cellBox[3], tileBox[t * TILE_BOX + 3]);
   }
   const lattice = buildLattice(grid, frame, cellBox, photos, opts.latticeStepM ?? gridCellM(grid, lat));
   const model = imageModel(camera);

@@ -15,12 +15,13 @@ import { latticeMax, type MaxRuns } from './lattice-range';
 /** Most bins per tile and camera. */
 export const CLEAR_BINS = 24;
 /**
- * Numbers per profile: bin count K, bin width W, then the highest ground of each bin (CLEAR_BINS slots), then the
- * steepest ground of bins 0..k−1 for k = 0..CLEAR_BINS (CLEAR_BINS + 1 slots).
+ * Numbers per profile: bin count K, bin width W, the first bin K0 from which every ray of the tile is proven clear
+ * (from the tile's lowest ground and the slowest rise of its rays), then the highest ground of each bin (CLEAR_BINS
+ * slots), then the steepest ground of bins 0..k−1 for k = 0..CLEAR_BINS (CLEAR_BINS + 1 slots).
  */
-export const CLEARANCE_STRIDE = 2 + 2 * CLEAR_BINS + 1;
+export const CLEARANCE_STRIDE = 3 + 2 * CLEAR_BINS + 1;
 /** Offset of the highest-ground slots and of the steepest-ground slots in a profile. */
-export const HIGHEST_AT = 2, STEEPEST_AT = 2 + CLEAR_BINS;
+export const HIGHEST_AT = 3, STEEPEST_AT = 3 + CLEAR_BINS;
 
 /** Range of cos and sin over the angles [lo, hi] (hi − lo < 2π). */
 function angleRange(lo: number, hi: number): [number, number, number, number] {
@@ -36,11 +37,12 @@ function angleRange(lo: number, hi: number): [number, number, number, number] {
 }
 
 /**
- * The profile of the rays from the tile box [x0, y0, x1, y1] (the horizontal positions of its cells) to a camera
- * at (ox, oy), written into `out` from `at` (CLEARANCE_STRIDE numbers). Bins are `minBinM` wide, or wider where the
- * camera is farther than CLEAR_BINS of them from the tile's far corner.
+ * The profile of the rays from a tile (x0, y0, x1, y1 of its cells' horizontal positions, their lowest and highest
+ * ground: `tb` from `t`) to a camera at (ox, oy, oz), written into `out` from `at` (CLEARANCE_STRIDE numbers). Bins
+ * are `minBinM` wide, or wider where the camera is farther than CLEAR_BINS of them from the tile's far corner.
  */
-export function clearanceProfile(L: HeightLattice, M: MaxRuns, x0: number, y0: number, x1: number, y1: number, ox: number, oy: number, minBinM: number, out: Float64Array, at: number): void {
+export function clearanceProfile(L: HeightLattice, M: MaxRuns, tb: Float64Array, t: number, ox: number, oy: number, oz: number, toleranceM: number, minBinM: number, out: Float64Array, at: number): void {
+  const x0 = tb[t], y0 = tb[t + 1], x1 = tb[t + 2], y1 = tb[t + 3], zLow = tb[t + 4], zHigh = tb[t + 5];
   // the directions u = (o − p)/|o − p| from points p of the box: from outside it, an angle range ending at corners
   let ux0 = -1, ux1 = 1, uy0 = -1, uy1 = 1;
   const pad = 1e-6;
@@ -79,4 +81,10 @@ export function clearanceProfile(L: HeightLattice, M: MaxRuns, x0: number, y0: n
     box[0] = bx0; box[1] = by0; box[2] = bx1; box[3] = by1;
     out[at + STEEPEST_AT + k + 1] = slopeIn(L, box);
   }
+  // every ray of the tile starts at or above zLow and rises at least (oz − zHigh) / dmax: the bins it clears from
+  // the last down are cleared by each ray, whose own test can start there
+  const rise = (oz - zHigh) / dmax, lift = zLow + toleranceM - 1e-6;
+  let k0 = K;
+  if (rise > 0) while (k0 > 0 && lift + (k0 - 1) * W * rise >= out[at + HIGHEST_AT + k0 - 1]) k0--;
+  out[at + 2] = k0;
 }
