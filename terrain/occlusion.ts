@@ -115,11 +115,26 @@ function latticeHeight(L: HeightLattice, x: number, y: number): number {
  */
 export function heightsAround(L: HeightLattice, a: Float64Array): void {
   const x = a[0], y = a[1], d = a[2];
+  if (interiorAt(L, x + d, y, 3, a) && interiorAt(L, x - d, y, 4, a) && interiorAt(L, x, y + d, 5, a) && interiorAt(L, x, y - d, 6, a) && interiorAt(L, x, y, 7, a)) return;
   a[3] = latticeHeight(L, x + d, y);
   a[4] = latticeHeight(L, x - d, y);
   a[5] = latticeHeight(L, x, y + d);
   a[6] = latticeHeight(L, x, y - d);
   a[7] = latticeHeight(L, x, y);
+}
+
+/**
+ * `latticeHeight` at (x, y) into a[k] where the point lies inside the lattice's last row and column (no clamping
+ * there: the same arithmetic); false, writing nothing, elsewhere. Writing into the array keeps the height from
+ * being boxed on its way out.
+ */
+function interiorAt(L: HeightLattice, x: number, y: number, k: number, a: Float64Array): boolean {
+  const fx = (x - L.x0) / L.stepM, fy = (y - L.y0) / L.stepM;
+  if (!(fx >= 0 && fy >= 0 && fx < L.nx - 1 && fy < L.ny - 1)) return false;
+  const i = Math.floor(fx), j = Math.floor(fy), tx = fx - i, ty = fy - j, nx = L.nx, o = j * nx + i, h = L.heights;
+  const top = h[o] + (h[o + 1] - h[o]) * tx;
+  a[k] = top + (h[o + nx] + (h[o + nx + 1] - h[o + nx]) * tx - top) * ty;
+  return true;
 }
 
 /**
