@@ -92,7 +92,8 @@ export function fillCells(c: CellPass): number {
           if (!inside[i]) continue;
           const k = (r - r0) * TILE + (col - c0);
           const b = Math.floor((r - r0) / BLOCK) * nb + Math.floor((col - c0) / BLOCK);
-          visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
+          if (c.viewsOnly) countViews(c, list, i, k, picks, codes, b * longest, picked[b], sure[b]);
+          else visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
           if (stop !== null && stop(i)) return i;
         }
       }
@@ -316,25 +317,30 @@ function minRayDot(rays: Float64Array, v: number, tilt: Float64Array, kept: Int3
   tilt[0] = minDot;
 }
 
+/** One cell, counting views only: `sure` views decided for its whole block and those of the other photos picked for the block that see its ground point (small: it is inlined into the pass). */
+function countViews(c: CellPass, list: Int32Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
+  const pz = c.cells.z[i];
+  if (!(pz === pz)) { c.views[i] = 0; return; }
+  const pt = c.pt;
+  pt[0] = c.px[k]; pt[1] = c.py[k]; pt[2] = pz;
+  let count = sure;
+  for (let e = 0; e < picked; e++) {
+    const j = list[picks[at + e]], code = codes[at + e];
+    if ((code & 3) !== IN && !seenAt(c, j)) continue;
+    const enc = code >> 2;
+    if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
+    count++;
+  }
+  c.views[i] = count;
+}
+
 /** One cell: the photos of its block that see its ground point, and the figures from them (small, so it is optimised early). */
 function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
-  const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, pos, model, rots, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
+  const { cells, views, viewsPlanned, viewsAtSpecGsd, pos, model, rots, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
   const pz = cells.z[i];
   if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
   const pt = c.pt, px = c.px[k], py = c.py[k];
   pt[0] = px; pt[1] = py; pt[2] = pz;
-  if (viewsOnly) {
-    let count = sure;
-    for (let e = 0; e < picked; e++) {
-      const j = list[picks[at + e]], code = codes[at + e];
-      if ((code & 3) !== IN && !seenAt(c, j)) continue;
-      const enc = code >> 2;
-      if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
-      count++;
-    }
-    views[i] = count;
-    return;
-  }
   // ground normal from the lattice (central differences); level where unknown
   const around = c.around;
   around[0] = px; around[1] = py; around[2] = hStep;
