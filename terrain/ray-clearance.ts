@@ -13,7 +13,7 @@ import { slopeIn } from './occlusion';
 import { latticeMax, type MaxRuns } from './lattice-range';
 
 /** Most bins per tile and camera. */
-export const CLEAR_BINS = 24;
+const CLEAR_BINS = 24;
 /**
  * Numbers per profile: bin count K, bin width W, the first bin K0 from which every ray of the tile is proven clear
  * (from the tile's lowest ground and the slowest rise of its rays), then the highest ground of each bin (CLEAR_BINS
