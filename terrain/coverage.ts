@@ -133,13 +133,15 @@ function photoBox(pose: CameraPose, edge: Float64Array, rot: Float64Array, zLow:
  * ρ from a height ≥ `zLow` reaches within L = (top + tol − zLow) / ρ. So ρ ≥ max(ρ1, steepest ground within L1 of
  * the tile) proves it for any ρ1; a few ρ1 below `slope` are tried and the least such bound kept.
  */
-function riseNeeded(L: HeightLattice, around: readonly [number, number, number, number], tile: readonly [number, number, number, number], zLow: number, top: number, tol: number, pb: number, slope: number): number {
+function riseNeeded(L: HeightLattice, around: readonly [number, number, number, number], tile: readonly [number, number, number, number], zLow: number, top: number, tol: number, pb: number, slope: number, scratch: [number, number, number, number]): number {
   let best = slope;
   if (!(zLow <= top + tol) || !(slope > 0)) return best;
   for (let k = 1; k <= 4; k++) {
     const rho = slope / 2 ** k;
     const reach = (top + tol - zLow) / rho + pb;
-    const g = slopeIn(L, [Math.max(around[0], tile[0] - reach), Math.max(around[1], tile[1] - reach), Math.min(around[2], tile[2] + reach), Math.min(around[3], tile[3] + reach)]);
+    scratch[0] = Math.max(around[0], tile[0] - reach); scratch[1] = Math.max(around[1], tile[1] - reach);
+    scratch[2] = Math.min(around[2], tile[2] + reach); scratch[3] = Math.min(around[3], tile[3] + reach);
+    const g = slopeIn(L, scratch);
     const bound = Math.max(rho, Math.min(g, slope));
     if (bound < best) best = bound;
     if (g > rho) break; // smaller ρ1 reach farther: no better
@@ -176,12 +178,19 @@ const noSlopes = new Float64Array(0);
 
 /** Per tile, parallel to its photo list: the steepest ground a ray from the tile's cells to that camera crosses (`riseNeeded`). */
 function slopesToPhotos(lattice: HeightLattice, tileBox: Float64Array, tileLists: readonly Int32Array[], pos: Float64Array, boxTop: Float64Array, boxSlope: Float64Array, tol: number, pb: number): Float64Array[] {
+  // boxes reused from pair to pair (slopeIn reads them at once)
+  const around: [number, number, number, number] = [0, 0, 0, 0], tile: [number, number, number, number] = [0, 0, 0, 0], scratch: [number, number, number, number] = [0, 0, 0, 0];
   return tileLists.map((list, t) => {
     const o = t * TILE_BOX, x0 = tileBox[o], y0 = tileBox[o + 1], x1 = tileBox[o + 2], y1 = tileBox[o + 3], zLow = tileBox[o + 4];
-    return Float64Array.from(list, (j) => {
-      const around: [number, number, number, number] = [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb];
-      return riseNeeded(lattice, around, [x0, y0, x1, y1], zLow, boxTop[j], tol, pb, Math.min(boxSlope[j], slopeIn(lattice, around)));
-    });
+    tile[0] = x0; tile[1] = y0; tile[2] = x1; tile[3] = y1;
+    const out = new Float64Array(list.length);
+    for (let li = 0; li < list.length; li++) {
+      const j = list[li];
+      around[0] = Math.min(x0, pos[j * 3]) - pb; around[1] = Math.min(y0, pos[j * 3 + 1]) - pb;
+      around[2] = Math.max(x1, pos[j * 3]) + pb; around[3] = Math.max(y1, pos[j * 3 + 1]) + pb;
+      out[li] = riseNeeded(lattice, around, tile, zLow, boxTop[j], tol, pb, Math.min(boxSlope[j], slopeIn(lattice, around)), scratch);
+    }
+    return out;
   });
 }
 
