@@ -3,7 +3,7 @@ import { rowPositions, type ColumnBlend, type CoverageCells } from './coverage-g
 import { classifyBox, IN, MIXED, OUT } from './coverage-blocks';
 import type { NormalisedBounds } from './image-bounds';
 import type { AttitudeEnvelope } from './attitude-envelope';
-import { insideImage, projectPoint, type ImageModel } from './pose';
+import { insideImageAt, projectFrom, type ImageModel } from './pose';
 import { sigmaFromNormal } from './ray-intersection';
 import { heightsAround, occludedRay, type HeightLattice } from './occlusion';
 import type { MaxRuns } from './lattice-range';
@@ -20,12 +20,6 @@ const BLOCKS = (TILE / BLOCK) * (TILE / BLOCK);
 const BOX_SLACK = 1e-9;
 /** A surface seen at less than about 1.1° (cos of the incidence below 0.02) is treated as unseen: back-facing or grazing. */
 const MIN_COS_INCIDENCE = 0.02;
-
-/** Whether the offset (dx, dy) from a camera lies in its box in the heading frame (6 numbers from `at`: sin ψ, cos ψ, along and across bounds). */
-function inOrientedBox(o: Float64Array, at: number, dx: number, dy: number): boolean {
-  const a = o[at] * dx + o[at + 1] * dy, c = o[at + 1] * dx - o[at] * dy;
-  return a >= o[at + 2] && a <= o[at + 3] && c >= o[at + 4] && c <= o[at + 5];
-}
 
 /** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
 interface CellPass {
@@ -210,20 +204,22 @@ const boxScratch = new Float64Array((BLOCKS + 1) * 6);
  */
 function seenAt(c: CellPass, j: number): boolean {
   const { boxes, obox, pos, model, rots, uv, pt } = c;
-  const px = pt[0], py = pt[1], pz = pt[2];
+  const px = pt[0], py = pt[1];
   const b = j * 4;
   if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) return false;
-  if (!inOrientedBox(obox, j * 6, px - pos[j * 3], py - pos[j * 3 + 1])) return false;
-  return projectPoint(model, rots[j], pos[j * 3], pos[j * 3 + 1], pos[j * 3 + 2], px, py, pz, uv) && insideImage(model, uv[0], uv[1]);
+  // inOrientedBox written out (its offsets would be boxed on the way in)
+  const o = j * 6, dx = px - pos[j * 3], dy = py - pos[j * 3 + 1];
+  const a = obox[o] * dx + obox[o + 1] * dy, e = obox[o + 1] * dx - obox[o] * dy;
+  if (!(a >= obox[o + 2] && a <= obox[o + 3] && e >= obox[o + 4] && e <= obox[o + 5])) return false;
+  return projectFrom(model, rots[j], 0, pos, j * 3, pt, uv) && insideImageAt(model, uv, 0);
 }
 
 /** Whether the cell's ground point (c.pt[0..2]) stays in the image (shrunk by the envelope's margin) at every attitude of a photo's envelope. */
 function heldAt(c: CellPass, j: number): boolean {
-  const { model, uv, envCount, envRots, marginPx, pt } = c;
-  const px = pt[0], py = pt[1], pz = pt[2];
-  const er = envRots[j], ox = c.pos[j * 3], oy = c.pos[j * 3 + 1], oz = c.pos[j * 3 + 2];
+  const { model, uv, envCount, envRots, marginPx, pt, pos } = c;
+  const er = envRots[j];
   for (let s = 0; s < envCount[j]; s++) {
-    if (!(projectPoint(model, er, ox, oy, oz, px, py, pz, uv, s * 9) && insideImage(model, uv[0], uv[1], marginPx))) return false;
+    if (!(projectFrom(model, er, s * 9, pos, j * 3, pt, uv) && insideImageAt(model, uv, marginPx))) return false;
   }
   return true;
 }
