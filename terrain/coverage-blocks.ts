@@ -14,15 +14,16 @@ export const MIXED = 1;
 export const IN = 2;
 
 /**
- * The box with centre (dx, dy, dz) relative to the camera and half-extents (hx, hy, hz) against the camera-to-local
- * rotation read from `at` (columns: image x, image y, optical axis). A linear function a·d over the box ranges over
+ * The box with centre (dx, dy, dz) relative to the camera and half-extents (hx, hy, hz), from `q` in that order,
+ * against the camera-to-local rotation read from `at` (columns: image x, image y, optical axis; numbers come in
+ * arrays: a call boxes each fraction it passes). A linear function a·d over the box ranges over
  * a·centre ± (|ax|·hx + |ay|·hy + |az|·hz); "x ≤ xb" is qx − xb·qz ≤ 0 where qz > 0 (and a point with qz ≤ 0 is
  * outside anyway), so a bound every point breaks puts the box outside and bounds every point keeps put it inside.
  */
 export function classifyBox(
-  rot: Float64Array, at: number, inner: NormalisedRect | null, outer: NormalisedRect | null,
-  dx: number, dy: number, dz: number, hx: number, hy: number, hz: number,
+  rot: Float64Array, at: number, inner: NormalisedRect | null, outer: NormalisedRect | null, q: Float64Array,
 ): number {
+  const dx = q[0], dy = q[1], dz = q[2], hx = q[3], hy = q[4], hz = q[5];
   const Xx = rot[at], Xy = rot[at + 3], Xz = rot[at + 6];
   const Yx = rot[at + 1], Yy = rot[at + 4], Yz = rot[at + 7];
   const Zx = rot[at + 2], Zy = rot[at + 5], Zz = rot[at + 8];

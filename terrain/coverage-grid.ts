@@ -150,14 +150,9 @@ export function coverageLayout(grid: Grid, area: AreaPolygon, cellM: number, max
   return { width, height, transform: [x0, sx, 0, yTop, 0, -sy], rings };
 }
 
-/** The cells of `coverageLayout` with the area mask and each cell's ground point in the local frame. */
-export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells = DEFAULT_MAX_COVERAGE_CELLS): CoverageCells {
-  const { width, height, transform, rings } = coverageLayout(grid, area, cellM, maxCells);
-  const n = width * height;
-  const [x0, sx, , yTop, , negSy] = transform;
-  const sy = -negSy;
-  // area mask by scanlines at the cell centres (even-odd rule over every ring, so holes stay out)
-  const inside = new Uint8Array(n);
+/** 1 where a cell centre lies inside the rings (scanlines at the cell centres, even-odd rule over every ring, so holes stay out). */
+function areaMask(rings: Array<Array<[number, number]>>, width: number, height: number, x0: number, sx: number, yTop: number, sy: number): { inside: Uint8Array; insideCount: number } {
+  const inside = new Uint8Array(width * height);
   const xs: number[] = [];
   let insideCount = 0;
   for (let r = 0; r < height; r++) {
@@ -176,15 +171,32 @@ export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, 
       for (let c = c0; c <= c1; c++) { if (!inside[r * width + c]) insideCount++; inside[r * width + c] = 1; }
     }
   }
-  // cell centres: grid heights in the grid CRS, one row at a time
-  const z = new Float32Array(n);
-  const gx = new Float64Array(width), gy = new Float64Array(width), row = new Float32Array(width);
+  return { inside, insideCount };
+}
+
+/**
+ * The grid's heights at the cell centres, one row at a time (sampled into doubles, as every other caller of the
+ * sampler does, then stored as Float32).
+ */
+function cellHeights(grid: Grid, width: number, height: number, x0: number, sx: number, yTop: number, sy: number): Float32Array {
+  const z = new Float32Array(width * height);
+  const gx = new Float64Array(width), gy = new Float64Array(width), row = new Float64Array(width);
   for (let c = 0; c < width; c++) gx[c] = x0 + (c + 0.5) * sx;
   for (let r = 0; r < height; r++) {
     gy.fill(yTop - (r + 0.5) * sy);
     sampleGridCoords(grid, gx, gy, row);
     z.set(row, r * width);
   }
+  return z;
+}
+
+/** The cells of `coverageLayout` with the area mask and each cell's ground point in the local frame. */
+export function coverageCells(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells = DEFAULT_MAX_COVERAGE_CELLS): CoverageCells {
+  const { width, height, transform, rings } = coverageLayout(grid, area, cellM, maxCells);
+  const [x0, sx, , yTop, , negSy] = transform;
+  const sy = -negSy;
+  const { inside, insideCount } = areaMask(rings, width, height, x0, sx, yTop, sy);
+  const z = cellHeights(grid, width, height, x0, sx, yTop, sy);
   // positions in the local frame at the nodes (exact), in between blended
   const step = nodeStepFor(cellM);
   const cols = Math.max(1, Math.ceil((width - 1) / step)) + 1, rows = Math.max(1, Math.ceil((height - 1) / step)) + 1;

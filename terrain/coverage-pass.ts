@@ -2,14 +2,17 @@
 import { rowPositions, type ColumnBlend, type CoverageCells } from './coverage-grid';
 import { classifyBox, IN, MIXED, OUT } from './coverage-blocks';
 import type { NormalisedBounds } from './image-bounds';
-import type { CoveragePhoto } from './coverage-photo';
 import type { AttitudeEnvelope } from './attitude-envelope';
-import { insideImage, projectPoint, type ImageModel } from './pose';
+import { insideImageAt, projectFrom, type ImageModel } from './pose';
 import { sigmaFromNormal } from './ray-intersection';
 import { heightsAround, occludedRay, type HeightLattice } from './occlusion';
+import type { MaxRuns } from './lattice-range';
+import { CLEARANCE_STRIDE, clearanceProfile, HIGHEST_AT, STEEPEST_AT } from './ray-clearance';
 
 /** Cells per tile side; each tile is matched once against the photos' boxes (a multiple of the cells' node step). */
 export const TILE = 16;
+/** Numbers per tile in `tileBoxes` (coverage-tiles.ts): x0, y0, x1, y1 of its cells' local positions, its lowest and highest ground. */
+export const TILE_BOX = 6;
 /** Cells per block side: each block of a tile is decided at once against each photo of the tile (`coverage-blocks.ts`). */
 const BLOCK = 4;
 const BLOCKS = (TILE / BLOCK) * (TILE / BLOCK);
@@ -18,12 +21,6 @@ const BOX_SLACK = 1e-9;
 /** A surface seen at less than about 1.1° (cos of the incidence below 0.02) is treated as unseen: back-facing or grazing. */
 const MIN_COS_INCIDENCE = 0.02;
 
-/** Whether the offset (dx, dy) from a camera lies in its box in the heading frame (6 numbers from `at`: sin ψ, cos ψ, along and across bounds). */
-function inOrientedBox(o: Float64Array, at: number, dx: number, dy: number): boolean {
-  const a = o[at] * dx + o[at + 1] * dy, c = o[at + 1] * dx - o[at] * dy;
-  return a >= o[at + 2] && a <= o[at + 3] && c >= o[at + 4] && c <= o[at + 5];
-}
-
 /** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
 interface CellPass {
   th: number; tw: number; tileLists: Int32Array[];
@@ -31,7 +28,7 @@ interface CellPass {
   tileSlopes: Float64Array[]; width: number; height: number; inside: Uint8Array; cells: CoverageCells;
   views: Uint16Array; viewsPlanned: Uint16Array; viewsAtSpecGsd: Uint16Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
   sigmaHorizontalM: Float32Array; sigmaVerticalM: Float32Array; viewsOnly: boolean; boxes: Float64Array; obox: Float64Array; pos: Float64Array;
-  photos: readonly CoveragePhoto[]; model: ImageModel; rots: Float64Array[]; uv: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
+  model: ImageModel; rots: Float64Array[]; uv: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
   envRots: Float64Array[]; boxTop: Float64Array;
   /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
   boxSlope: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
@@ -40,16 +37,20 @@ interface CellPass {
   bounds: NormalisedBounds; envBounds: NormalisedBounds;
   /** Test every candidate photo at every cell, deciding no block at once (the reference the block decisions are checked against). */
   exact: boolean;
-  /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point. */
-  pt: Float64Array; ray: Float64Array; around: Float64Array;
-  /** Scratch: cos and sin of each ray's angle from the vertical (2 per view). */
-  tilt: Float64Array;
+  /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point, a box against a photo (`classifyBox`). */
+  pt: Float64Array; ray: Float64Array; around: Float64Array; q: Float64Array;
+  /** Scratch: cos and sin of each ray's angle from the vertical (2 per view), and the rays `minRayDot` keeps. */
+  tilt: Float64Array; kept: Int32Array;
   /** Per raster column, how its position blends between nodes (`rowPositions`). */
   cb: ColumnBlend;
   /** Scratch: the local positions of the current tile's cells (row-major, TILE per row). */
   px: Float64Array; py: Float64Array;
   /** Longest photo list of a tile. */
   longest: number;
+  /** Per tile its box and ground range (`tileBoxes`); the tile being visited; the lattice's block maxima. */
+  tileBox: Float64Array; tile: number; maxRuns: MaxRuns;
+  /** Per photo of the tile being visited: its clearance profile (CLEARANCE_STRIDE numbers, count 0 until worked out), and the narrowest bin, metres. */
+  profiles: Float64Array; binM: number;
   /** Stop after the first cell for which this says true (null: visit every cell). */
   stop: ((cell: number) => boolean) | null;
 }
@@ -76,6 +77,8 @@ export function fillCells(c: CellPass): number {
       for (let r = r0 + 1; r < r1 && !any; r++) for (let i = r * width + c0; i < r * width + c1 && !any; i++) any = inside[i] === 1;
       if (!any) continue;
       for (let r = r0; r < r1; r++) rowPositions(cells.nodes, c.cb, r, c0, c1, px, py, (r - r0) * TILE);
+      c.tile = ty * tw + tx;
+      for (let li = 0; li < list.length; li++) c.profiles[li * CLEARANCE_STRIDE] = 0;
       decideTile(c, list, r0, c0, r1, c1, px, py, tileCodes, picks, codes, picked, sure);
       for (let r = r0; r < r1; r++) {
         for (let col = c0; col < c1; col++) {
@@ -83,7 +86,8 @@ export function fillCells(c: CellPass): number {
           if (!inside[i]) continue;
           const k = (r - r0) * TILE + (col - c0);
           const b = Math.floor((r - r0) / BLOCK) * nb + Math.floor((col - c0) / BLOCK);
-          visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
+          if (c.viewsOnly) countViews(c, list, i, k, picks, codes, b * longest, picked[b], sure[b]);
+          else visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
           if (stop !== null && stop(i)) return i;
         }
       }
@@ -97,33 +101,36 @@ const DROP = -1;
 const ALL_IN = IN | (IN << 2);
 
 /**
- * One photo against a box of ground points (horizontal extent x0..x1, y0..y1, heights around mz ± hz): the planned
+ * One photo against a box of ground points (x0, x1, y0, y1, z0, z1 from `bx` at `at`): the planned
  * decision takes the photo's axis-aligned ground box, its box in the heading frame and the image; the envelope's
  * decision every attitude of it. `known` is the code of a box holding this one (a tile around a block): what it
  * decided holds here too and is not worked out again.
  */
-function decidePhoto(c: CellPass, j: number, x0: number, x1: number, y0: number, y1: number, mz: number, hz: number, known: number): number {
-  const { boxes, obox, pos, rots, env, envRots, envCount, bounds, envBounds, viewsOnly } = c;
+function decidePhoto(c: CellPass, j: number, bx: Float64Array, at: number, known: number): number {
+  const { boxes, obox, pos, rots, env, envRots, envCount, bounds, envBounds, viewsOnly, q } = c;
+  const x0 = bx[at], x1 = bx[at + 1], y0 = bx[at + 2], y1 = bx[at + 3], z0 = bx[at + 4], z1 = bx[at + 5];
+  const mz = (z0 + z1) / 2, hz = (z1 - z0) / 2;
   let planned = known & 3, enc = known >> 2;
   const mx = (x0 + x1) / 2, my = (y0 + y1) / 2, hx = (x1 - x0) / 2, hy = (y1 - y0) / 2;
   const dx = mx - pos[j * 3], dy = my - pos[j * 3 + 1], dz = mz - pos[j * 3 + 2];
+  q[0] = dx; q[1] = dy; q[2] = dz; q[3] = hx; q[4] = hy; q[5] = hz;
   if (planned === MIXED) {
-    const q = j * 4;
-    if (x1 < boxes[q] || x0 > boxes[q + 2] || y1 < boxes[q + 1] || y0 > boxes[q + 3]) return DROP;
-    let boxIn = x0 >= boxes[q] && x1 <= boxes[q + 2] && y0 >= boxes[q + 1] && y1 <= boxes[q + 3];
+    const g = j * 4;
+    if (x1 < boxes[g] || x0 > boxes[g + 2] || y1 < boxes[g + 1] || y0 > boxes[g + 3]) return DROP;
+    let boxIn = x0 >= boxes[g] && x1 <= boxes[g + 2] && y0 >= boxes[g + 1] && y1 <= boxes[g + 3];
     const o = j * 6, sp = obox[o], cp = obox[o + 1];
     const a = sp * dx + cp * dy, e = cp * dx - sp * dy;
     const sa = Math.abs(sp) * hx + Math.abs(cp) * hy + BOX_SLACK, se = Math.abs(cp) * hx + Math.abs(sp) * hy + BOX_SLACK;
     if (a + sa < obox[o + 2] || a - sa > obox[o + 3] || e + se < obox[o + 4] || e - se > obox[o + 5]) return DROP;
     boxIn = boxIn && a - sa >= obox[o + 2] && a + sa <= obox[o + 3] && e - se >= obox[o + 4] && e + se <= obox[o + 5];
-    const seen = classifyBox(rots[j], 0, bounds.inner, bounds.outer, dx, dy, dz, hx, hy, hz);
+    const seen = classifyBox(rots[j], 0, bounds.inner, bounds.outer, q);
     if (seen === OUT) return DROP;
     planned = seen === IN && boxIn ? IN : MIXED;
   }
   if (env && enc === MIXED) {
     enc = IN;
     for (let k = 0; k < envCount[j] && enc !== OUT; k++) {
-      const d = classifyBox(envRots[j], k * 9, envBounds.inner, envBounds.outer, dx, dy, dz, hx, hy, hz);
+      const d = classifyBox(envRots[j], k * 9, envBounds.inner, envBounds.outer, q);
       if (d < enc) enc = d;
     }
   }
@@ -165,17 +172,18 @@ function decideTile(
     if (x0 < t0) t0 = x0; if (x1 > t1) t1 = x1; if (y0 < u0) u0 = y0; if (y1 > u1) u1 = y1; if (z0 < w0) w0 = z0; if (z1 > w1) w1 = z1;
     picked[b] = 0; sure[b] = 0;
   }
+  const tb = BLOCKS * 6;
+  bx[tb] = t0; bx[tb + 1] = t1; bx[tb + 2] = u0; bx[tb + 3] = u1; bx[tb + 4] = w0; bx[tb + 5] = w1;
   if (!(t0 <= t1)) return false; // no cell with a known height: none is visited past its first line
-  for (let li = 0; li < list.length; li++) tileCodes[li] = exact ? mixed : decidePhoto(c, list[li], t0, t1, u0, u1, (w0 + w1) / 2, (w1 - w0) / 2, mixed);
+  for (let li = 0; li < list.length; li++) tileCodes[li] = exact ? mixed : decidePhoto(c, list[li], bx, tb, mixed);
   for (let b = 0; b < BLOCKS; b++) {
-    const x0 = bx[b * 6], x1 = bx[b * 6 + 1], y0 = bx[b * 6 + 2], y1 = bx[b * 6 + 3], z0 = bx[b * 6 + 4], z1 = bx[b * 6 + 5];
-    if (!(x0 <= x1)) continue;
+    if (!(bx[b * 6] <= bx[b * 6 + 1])) continue;
     const at = b * longest;
     let n = 0, s = 0;
     for (let li = 0; li < list.length; li++) {
       const t = tileCodes[li];
       if (t === DROP) continue;
-      const code = t === ALL_IN || exact ? t : decidePhoto(c, list[li], x0, x1, y0, y1, (z0 + z1) / 2, (z1 - z0) / 2, t);
+      const code = t === ALL_IN || exact ? t : decidePhoto(c, list[li], bx, b * 6, t);
       if (code === DROP) continue;
       if (viewsOnly && code === ALL_IN) { s++; continue; }
       picks[at + n] = li;
@@ -187,39 +195,72 @@ function decideTile(
   return true;
 }
 
-/** Each block's box while its tile is decided (x0, x1, y0, y1, z0, z1 per block). */
-const boxScratch = new Float64Array(BLOCKS * 6);
+/** Each block's box while its tile is decided (x0, x1, y0, y1, z0, z1 per block), then the tile's. */
+const boxScratch = new Float64Array((BLOCKS + 1) * 6);
 
 /**
  * Whether the cell's ground point (c.pt[0..2]) lies in a photo's ground boxes and its image: the test the block
  * decisions stand in for. Numbers pass through `c.pt`: a call boxes each number it passes.
  */
 function seenAt(c: CellPass, j: number): boolean {
-  const { boxes, obox, pos, photos, model, rots, uv, pt } = c;
-  const px = pt[0], py = pt[1], pz = pt[2];
+  const { boxes, obox, pos, model, rots, uv, pt } = c;
+  const px = pt[0], py = pt[1];
   const b = j * 4;
   if (px < boxes[b] || px > boxes[b + 2] || py < boxes[b + 1] || py > boxes[b + 3]) return false;
-  if (!inOrientedBox(obox, j * 6, px - pos[j * 3], py - pos[j * 3 + 1])) return false;
-  const p = photos[j];
-  return projectPoint(model, rots[j], p.xM, p.yM, p.altitudeM, px, py, pz, uv) && insideImage(model, uv[0], uv[1]);
+  // inOrientedBox written out (its offsets would be boxed on the way in)
+  const o = j * 6, dx = px - pos[j * 3], dy = py - pos[j * 3 + 1];
+  const a = obox[o] * dx + obox[o + 1] * dy, e = obox[o + 1] * dx - obox[o] * dy;
+  if (!(a >= obox[o + 2] && a <= obox[o + 3] && e >= obox[o + 4] && e <= obox[o + 5])) return false;
+  return projectFrom(model, rots[j], 0, pos, j * 3, pt, uv) && insideImageAt(model, uv, 0);
 }
 
 /** Whether the cell's ground point (c.pt[0..2]) stays in the image (shrunk by the envelope's margin) at every attitude of a photo's envelope. */
 function heldAt(c: CellPass, j: number): boolean {
-  const { photos, model, uv, envCount, envRots, marginPx, pt } = c;
-  const px = pt[0], py = pt[1], pz = pt[2];
-  const p = photos[j], er = envRots[j];
+  const { model, uv, envCount, envRots, marginPx, pt, pos } = c;
+  const er = envRots[j];
   for (let s = 0; s < envCount[j]; s++) {
-    if (!(projectPoint(model, er, p.xM, p.yM, p.altitudeM, px, py, pz, uv, s * 9) && insideImage(model, uv[0], uv[1], marginPx))) return false;
+    if (!(projectFrom(model, er, s * 9, pos, j * 3, pt, uv) && insideImageAt(model, uv, marginPx))) return false;
   }
   return true;
 }
 
-/** Whether terrain hides the cell's ground point (c.pt[0..2]) from a camera (`occludedRay`, numbers passed in an array). */
-function hiddenFrom(c: CellPass, ox: number, oy: number, oz: number, maxM: number): boolean {
-  const a = c.ray, pt = c.pt;
-  a[0] = pt[0]; a[1] = pt[1]; a[2] = pt[2]; a[3] = ox; a[4] = oy; a[5] = oz; a[6] = c.tol; a[7] = maxM;
+/**
+ * Whether terrain hides the cell's ground point (c.pt[0..2]) from photo j (`occludedRay`, numbers passed in an
+ * array), marching no farther than `bins` bins of the tile's clearance profile for photo `li` of its list (all the
+ * way for NO_PROOF).
+ */
+function hiddenFrom(c: CellPass, j: number, li: number, bins: number): boolean {
+  const a = c.ray, pt = c.pt, pos = c.pos;
+  a[0] = pt[0]; a[1] = pt[1]; a[2] = pt[2]; a[3] = pos[j * 3]; a[4] = pos[j * 3 + 1]; a[5] = pos[j * 3 + 2]; a[6] = c.tol; a[7] = c.boxTop[j];
+  a[8] = bins === NO_PROOF ? Infinity : bins * c.profiles[li * CLEARANCE_STRIDE + 1];
   return occludedRay(c.lattice, a);
+}
+
+/** `marchNeeded`: no bin of the ray is proven clear, march it all. */
+const NO_PROOF = -1;
+
+/**
+ * How many bins of the clearance profile of the tile and photo `li` of its list (worked out on first use) the ray
+ * from the cell (c.pt) to photo j must still be marched through: 0 when the profile proves the whole ray clear
+ * (`ray-clearance.ts`), NO_PROOF when it is not used. Whole numbers in and out (a call boxes each fraction it
+ * passes).
+ */
+function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): number {
+  const pt = c.pt, pos = c.pos;
+  const dx = pt[0] - pos[j * 3], dy = pt[1] - pos[j * 3 + 1], dz = pt[2] - pos[j * 3 + 2];
+  if (!(dz < 0) || c.exact) return NO_PROOF;
+  const prof = c.profiles, base = li * CLEARANCE_STRIDE;
+  if (!(prof[base] > 0)) {
+    clearanceProfile(c.lattice, c.maxRuns, c.tileBox, c.tile * TILE_BOX, pos[j * 3], pos[j * 3 + 1], pos[j * 3 + 2], c.tol, c.binM, prof, base);
+  }
+  const W = prof[base + 1];
+  const rho = -dz / Math.sqrt(dx * dx + dy * dy);
+  // bins from the last down that the ray clears: pz + ρ·S_k ≥ H_k − tolerance, with a hair for rounding
+  const lift = c.pt[2] + c.tol - 1e-6;
+  let k = prof[base + 2];
+  while (k > 0 && lift + (k - 1) * W * rho >= prof[base + HIGHEST_AT + k - 1]) k--;
+  if (k === 0 || (nearSurface && rho >= prof[base + STEEPEST_AT + k])) return 0;
+  return k;
 }
 
 /**
@@ -227,9 +268,11 @@ function hiddenFrom(c: CellPass, ox: number, oy: number, oz: number, maxM: numbe
  * Exactly the minimum over every pair, with pairs that cannot reach it skipped: for rays at angles θa and θb from
  * the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the sphere), so once the steepest ray m
  * has been paired with every other, a ray a with cos(θa + θm) above the minimum so far meets no ray that gives less
- * (θb ≤ θm for every b). Applies while every ray points up (all angles below 90°); else every pair is read.
+ * (θb ≤ θm for every b). The minimum is then among the pairs of the rays left (`kept`, scratch), each pair read
+ * once. Applies while every ray points up (all angles below 90°); else every pair is read. The minimum is written
+ * into tilt[0] (a returned fraction would be boxed).
  */
-function minRayDot(rays: Float64Array, v: number, tilt: Float64Array): number {
+function minRayDot(rays: Float64Array, v: number, tilt: Float64Array, kept: Int32Array): void {
   let m = 0, up = true;
   for (let a = 0; a < v; a++) {
     const cz = rays[a * 3 + 2];
@@ -247,45 +290,53 @@ function minRayDot(rays: Float64Array, v: number, tilt: Float64Array): number {
         if (d < minDot) minDot = d;
       }
     }
-    return minDot;
+    tilt[0] = minDot;
+    return;
   }
   const mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], cm = tilt[m * 2], sm = tilt[m * 2 + 1];
   for (let b = 0; b < v; b++) {
     if (b === m) continue;
-    const d = b < m ? rays[b * 3] * mx + rays[b * 3 + 1] * my + rays[b * 3 + 2] * mz : mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
+    const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
     if (d < minDot) minDot = d;
   }
-  for (let a = 0; a < v; a++) {
-    if (a === m || tilt[a * 2] * cm - tilt[a * 2 + 1] * sm > minDot + 1e-12) continue;
-    const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
-    for (let b = 0; b < v; b++) {
-      if (b === a) continue;
+  // a pair with a ray left out gives more than minDot now, so more than the minimum found in the end
+  let nk = 0;
+  for (let a = 0; a < v; a++) if (a !== m && !(tilt[a * 2] * cm - tilt[a * 2 + 1] * sm > minDot + 1e-12)) kept[nk++] = a;
+  for (let p = 0; p < nk; p++) {
+    const a = kept[p], ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
+    for (let q = p + 1; q < nk; q++) {
+      const b = kept[q];
       const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
       if (d < minDot) minDot = d;
     }
   }
-  return minDot;
+  tilt[0] = minDot;
+}
+
+/** One cell, counting views only: `sure` views decided for its whole block and those of the other photos picked for the block that see its ground point (small: it is inlined into the pass). */
+function countViews(c: CellPass, list: Int32Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
+  const pz = c.cells.z[i];
+  if (!(pz === pz)) { c.views[i] = 0; return; }
+  const pt = c.pt;
+  pt[0] = c.px[k]; pt[1] = c.py[k]; pt[2] = pz;
+  let count = sure;
+  for (let e = 0; e < picked; e++) {
+    const j = list[picks[at + e]], code = codes[at + e];
+    if ((code & 3) !== IN && !seenAt(c, j)) continue;
+    const enc = code >> 2;
+    if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
+    count++;
+  }
+  c.views[i] = count;
 }
 
 /** One cell: the photos of its block that see its ground point, and the figures from them (small, so it is optimised early). */
 function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
-  const { cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, photos, model, rots, boxTop, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
+  const { cells, views, viewsPlanned, viewsAtSpecGsd, pos, model, rots, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
   const pz = cells.z[i];
   if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
   const pt = c.pt, px = c.px[k], py = c.py[k];
   pt[0] = px; pt[1] = py; pt[2] = pz;
-  if (viewsOnly) {
-    let count = sure;
-    for (let e = 0; e < picked; e++) {
-      const j = list[picks[at + e]], code = codes[at + e];
-      if ((code & 3) !== IN && !seenAt(c, j)) continue;
-      const enc = code >> 2;
-      if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
-      count++;
-    }
-    views[i] = count;
-    return;
-  }
   // ground normal from the lattice (central differences); level where unknown
   const around = c.around;
   around[0] = px; around[1] = py; around[2] = hStep;
@@ -307,16 +358,19 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
     const li = picks[at + e], code = codes[at + e];
     const j = list[li];
     if ((code & 3) !== IN && !seenAt(c, j)) continue;
-    const p = photos[j];
+    const ox = pos[j * 3], oy = pos[j * 3 + 1], oz = pos[j * 3 + 2];
     const rot = rots[j];
-    const dx = px - p.xM, dy = py - p.yM, dz = pz - p.altitudeM;
+    const dx = px - ox, dy = py - oy, dz = pz - oz;
     const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
     // n·d = R·(n·r̂): the incidence test −n·r̂ < MIN_COS_INCIDENCE without dividing
     const nd = nx * dx + ny * dy + nz * dz;
     if (-nd < MIN_COS_INCIDENCE * R) continue;
     // the slope bound (occlusion.ts blockSlope) squared: −dz ≥ slope · horizontal distance
     const sl = slopes[li];
-    if (useOcclusion && !(nearSurface && dz <= 0 && dz * dz >= sl * sl * (dx * dx + dy * dy)) && hiddenFrom(c, p.xM, p.yM, p.altitudeM, boxTop[j])) continue;
+    if (useOcclusion && !(nearSurface && dz <= 0 && dz * dz >= sl * sl * (dx * dx + dy * dy))) {
+      const bins = marchNeeded(c, li, j, nearSurface);
+      if (bins !== 0 && hiddenFrom(c, j, li, bins)) continue;
+    }
     planned++;
     const enc = code >> 2;
     if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
@@ -356,7 +410,8 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   viewsAtSpecGsd[i] = atSpec;
   if (v > 0) finestGsdCm[i] = finest;
   if (v > 1) {
-    const minDot = minRayDot(rays, v, c.tilt);
+    minRayDot(rays, v, c.tilt, c.kept);
+    const minDot = c.tilt[0];
     maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
     N[0] = n0; N[1] = n1; N[2] = n2; N[3] = n3; N[4] = n4; N[5] = n5;
     sigmaFromNormal(N, 0, sig);

@@ -19,6 +19,28 @@ export function coverageBandNames(r: CoverageRaster): string[] {
   ];
 }
 
+/** The runs of cells outside the area (0 in the mask), as start and end (exclusive) pairs in cell order. */
+function outsideRuns(inside: Uint8Array): Int32Array {
+  const out: number[] = [];
+  let i = 0;
+  const n = inside.length;
+  while (i < n) {
+    i = inside.indexOf(0, i);
+    if (i < 0) break;
+    let e = inside.indexOf(1, i);
+    if (e < 0) e = n;
+    out.push(i, e);
+    i = e;
+  }
+  return Int32Array.from(out);
+}
+
+/** A band's values (counts exact in Float32) with nodata over the cells outside the area. */
+function fillBand(out: Float32Array, values: Uint16Array | Float32Array, outside: Int32Array): void {
+  out.set(values);
+  for (let k = 0; k < outside.length; k += 2) out.fill(COVERAGE_NODATA, outside[k], outside[k + 1]);
+}
+
 /**
  * Band 1 views, 2 finest GSD (cm), 3 views at or below the spec's GSD, 4 largest angle between rays (degrees),
  * 5 predicted vertical σ (m); -9999 outside the area, NaN inside where a measure has no value.
@@ -27,18 +49,9 @@ function coverageBands(r: CoverageRaster): Float32GeoTiff {
   const { cells } = r;
   check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
   const n = cells.width * cells.height;
-  // one loop per array type, so each stays monomorphic
-  const counts = (b: Uint16Array) => {
-    const out = new Float32Array(n), inside = cells.inside;
-    for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i];
-    return out;
-  };
-  const figures = (b: Float32Array) => {
-    const out = new Float32Array(n), inside = cells.inside;
-    for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i];
-    return out;
-  };
-  const bands = [counts(r.views), figures(r.finestGsdCm), counts(r.viewsAtSpecGsd), figures(r.maxRayAngleDeg), figures(r.sigmaVerticalM)];
+  const runs = outsideRuns(cells.inside);
+  const band = (b: Uint16Array | Float32Array) => { const out = new Float32Array(n); fillBand(out, b, runs); return out; };
+  const bands = [band(r.views), band(r.finestGsdCm), band(r.viewsAtSpecGsd), band(r.maxRayAngleDeg), band(r.sigmaVerticalM)];
   return {
     width: cells.width, height: cells.height, bands, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
@@ -48,14 +61,21 @@ function coverageBands(r: CoverageRaster): Float32GeoTiff {
 export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
   const { cells } = r;
   check(cells.crs.epsg !== null, `the grid's CRS (${cells.crs.name}) has no EPSG code to write into the raster.`);
-  const inside = cells.inside, n = cells.width * cells.height;
-  // each band written straight into the file (one loop per array type, so each stays monomorphic)
-  const counts = (b: Uint16Array) => (out: Float32Array) => { for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i]; };
-  const figures = (b: Float32Array) => (out: Float32Array) => { for (let i = 0; i < n; i++) out[i] = inside[i] === 0 ? COVERAGE_NODATA : b[i]; };
+  // each band written straight into the file: the values copied and converted by the engine in one call, then
+  // nodata over the runs of cells outside the area (a few per row), not a test per cell
+  const runs = outsideRuns(cells.inside);
+  // one writer per distinct array: a views-only raster's measures share arrays (`viewsOnly`), and the file then
+  // holds each once
+  const writers = new Map<Uint16Array | Float32Array, (out: Float32Array) => void>();
+  const band = (b: Uint16Array | Float32Array) => {
+    let w = writers.get(b);
+    if (!w) { w = (out: Float32Array) => fillBand(out, b, runs); writers.set(b, w); }
+    return w;
+  };
   return writeFloat32GeoTiff({
     width: cells.width, height: cells.height, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
-    bands: [counts(r.views), figures(r.finestGsdCm), counts(r.viewsAtSpecGsd), figures(r.maxRayAngleDeg), figures(r.sigmaVerticalM)],
+    bands: [band(r.views), band(r.finestGsdCm), band(r.viewsAtSpecGsd), band(r.maxRayAngleDeg), band(r.sigmaVerticalM)],
   });
 }
 

@@ -8,10 +8,12 @@ import { localHeights } from './local-frame';
 import type { CameraPose } from './footprint';
 import { cameraToLocal } from './footprint';
 import { imageModel } from './pose';
-import { fillCells, TILE } from './coverage-pass';
+import { fillCells, TILE, TILE_BOX } from './coverage-pass';
+import { tileBoxes, tilePhotoLists } from './coverage-tiles';
+import { CLEARANCE_STRIDE } from './ray-clearance';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
 import { heightLattice, heightsAround, slopeIn, type HeightLattice } from './occlusion';
-import { latticeRange, rangeBlocks, type RangeBlocks } from './lattice-range';
+import { latticeRange, maxRuns, rangeBlocks, type MaxRuns, type RangeBlocks } from './lattice-range';
 import { columnBlend, coverageCells, gridCellM, rowPositions, type CoverageCells } from './coverage-grid';
 import { normalisedBounds } from './image-bounds';
 import { check } from './errors';
@@ -36,7 +38,8 @@ export interface CoverageOptions {
   occlusionToleranceM?: number;
   /**
    * Count views only (inside the image, at the planned attitude and under the envelope): no occlusion, slope,
-   * GSD, angle or σ; what a rasterisation of the footprints gives, for comparing with one.
+   * GSD, angle or σ; what a rasterisation of the footprints gives, for comparing with one. The other counts are 0
+   * and the figures NaN (one shared array each: read them, do not write them).
    */
   viewsOnly?: boolean;
   /** Spacing of the height lattice the occlusion march runs on (default: the grid's pixel, at most 16 million nodes). */
@@ -50,8 +53,9 @@ export interface CoverageOptions {
    */
   stopAt?: (cell: number, raster: CoverageRaster) => boolean;
   /**
-   * Project every cell into every candidate photo instead of deciding blocks of cells at once (the same figures,
-   * slower): the reference the tests hold the block decisions to.
+   * Project every cell into every candidate photo instead of deciding blocks of cells at once, and march every ray
+   * the slope bound does not clear instead of proving parts of rays clear by tile (`ray-clearance.ts`): the same
+   * figures, slower; the reference the tests hold the block decisions and the clearance proofs to.
    */
   exactPass?: boolean;
 }
@@ -129,13 +133,15 @@ function photoBox(pose: CameraPose, edge: Float64Array, rot: Float64Array, zLow:
  * ρ from a height ≥ `zLow` reaches within L = (top + tol − zLow) / ρ. So ρ ≥ max(ρ1, steepest ground within L1 of
  * the tile) proves it for any ρ1; a few ρ1 below `slope` are tried and the least such bound kept.
  */
-function riseNeeded(L: HeightLattice, around: readonly [number, number, number, number], tile: readonly [number, number, number, number], zLow: number, top: number, tol: number, pb: number, slope: number): number {
+function riseNeeded(L: HeightLattice, around: readonly [number, number, number, number], tile: readonly [number, number, number, number], zLow: number, top: number, tol: number, pb: number, slope: number, scratch: [number, number, number, number]): number {
   let best = slope;
   if (!(zLow <= top + tol) || !(slope > 0)) return best;
   for (let k = 1; k <= 4; k++) {
     const rho = slope / 2 ** k;
     const reach = (top + tol - zLow) / rho + pb;
-    const g = slopeIn(L, [Math.max(around[0], tile[0] - reach), Math.max(around[1], tile[1] - reach), Math.min(around[2], tile[2] + reach), Math.min(around[3], tile[3] + reach)]);
+    scratch[0] = Math.max(around[0], tile[0] - reach); scratch[1] = Math.max(around[1], tile[1] - reach);
+    scratch[2] = Math.min(around[2], tile[2] + reach); scratch[3] = Math.min(around[3], tile[3] + reach);
+    const g = slopeIn(L, scratch);
     const bound = Math.max(rho, Math.min(g, slope));
     if (bound < best) best = bound;
     if (g > rho) break; // smaller ρ1 reach farther: no better
@@ -170,7 +176,36 @@ function buildLattice(grid: Grid, frame: LocalFrame, cellBox: readonly [number, 
   return lattice;
 }
 
+/** No occlusion: no slope bound is read. */
+const noSlopes = new Float64Array(0);
+
+/** Per tile, parallel to its photo list: the steepest ground a ray from the tile's cells to that camera crosses (`riseNeeded`). */
+function slopesToPhotos(lattice: HeightLattice, tileBox: Float64Array, tileLists: readonly Int32Array[], pos: Float64Array, boxTop: Float64Array, boxSlope: Float64Array, tol: number, pb: number): Float64Array[] {
+  // boxes reused from pair to pair (slopeIn reads them at once)
+  const around: [number, number, number, number] = [0, 0, 0, 0], tile: [number, number, number, number] = [0, 0, 0, 0], scratch: [number, number, number, number] = [0, 0, 0, 0];
+  return tileLists.map((list, t) => {
+    const o = t * TILE_BOX, x0 = tileBox[o], y0 = tileBox[o + 1], x1 = tileBox[o + 2], y1 = tileBox[o + 3], zLow = tileBox[o + 4];
+    tile[0] = x0; tile[1] = y0; tile[2] = x1; tile[3] = y1;
+    const out = new Float64Array(list.length);
+    for (let li = 0; li < list.length; li++) {
+      const j = list[li];
+      around[0] = Math.min(x0, pos[j * 3]) - pb; around[1] = Math.min(y0, pos[j * 3 + 1]) - pb;
+      around[2] = Math.max(x1, pos[j * 3]) + pb; around[3] = Math.max(y1, pos[j * 3 + 1]) + pb;
+      out[li] = riseNeeded(lattice, around, tile, zLow, boxTop[j], tol, pb, Math.min(boxSlope[j], slopeIn(lattice, around)), scratch);
+    }
+    return out;
+  });
+}
+
 const rangesOf = new WeakMap<HeightLattice, RangeBlocks>();
+const maxesOf = new WeakMap<HeightLattice, MaxRuns>();
+
+/** The lattice's block maxima (`maxRuns`), kept with the lattice. */
+function maxRunsOf(lattice: HeightLattice): MaxRuns {
+  let m = maxesOf.get(lattice);
+  if (!m) { m = maxRuns(lattice); maxesOf.set(lattice, m); }
+  return m;
+}
 
 /** The last lattice built per grid and frame (read only once built; dropped with the grid or the frame). */
 const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattice: HeightLattice }>>();
@@ -183,8 +218,10 @@ const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattic
  * the views that hold at every attitude in it count (`attitude-envelope.ts`). Work is bounded by each photo's
  * ground box: cells are visited tile by tile against the photos whose box meets the tile, and each 4 x 4 block of
  * a tile is decided against each photo at once where its whole box of ground points lands inside or outside the
- * image (`coverage-blocks.ts`); only cells of blocks on a footprint's edge are projected one by one. The figures are
- * exactly those of projecting every cell (`exactPass`, which the tests compare cell for cell).
+ * image (`coverage-blocks.ts`); only cells of blocks on a footprint's edge are projected one by one. A ray that
+ * the tile's slope bound does not clear is marched only over the part its tile's clearance profile for that camera
+ * does not prove clear (`ray-clearance.ts`). The figures are exactly those of projecting every cell and marching
+ * every such ray in full (`exactPass`, which the tests compare cell for cell).
  */
 export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon, camera: Camera, photos: readonly CoveragePhoto[], opts: CoverageOptions): CoverageRaster {
   checkCamera(camera);
@@ -201,31 +238,11 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   // each tile's box of cell positions (and its lowest ground): the cells' box is their union
   const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
   const cb = columnBlend(cells.nodes, width);
-  const tileBox = new Float64Array(tw * th * 5);
-  for (let t = 0; t < tw * th; t++) tileBox.set([Infinity, Infinity, -Infinity, -Infinity, Infinity], t * 5);
-  const rowX = new Float64Array(width), rowY = new Float64Array(width);
-  const z = cells.z;
-  for (let r = 0; r < height; r++) {
-    rowPositions(cells.nodes, cb, r, 0, width, rowX, rowY, 0);
-    const row = r * width;
-    for (let tx = 0; tx < tw; tx++) {
-      let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, zLow = Infinity;
-      for (let c = tx * TILE; c < Math.min(width, (tx + 1) * TILE); c++) {
-        if (inside[row + c] === 0) continue;
-        const x = rowX[c], y = rowY[c], h = z[row + c];
-        if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y; if (h < zLow) zLow = h;
-      }
-      if (!(x0 <= x1)) continue;
-      const t = (Math.floor(r / TILE) * tw + tx) * 5;
-      if (x0 < tileBox[t]) tileBox[t] = x0; if (y0 < tileBox[t + 1]) tileBox[t + 1] = y0;
-      if (x1 > tileBox[t + 2]) tileBox[t + 2] = x1; if (y1 > tileBox[t + 3]) tileBox[t + 3] = y1;
-      if (zLow < tileBox[t + 4]) tileBox[t + 4] = zLow;
-    }
-  }
+  const tileBox = tileBoxes(cells, cb, tw, th);
   const cellBox: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
   for (let t = 0; t < tw * th; t++) {
-    cellBox[0] = Math.min(cellBox[0], tileBox[t * 5]); cellBox[1] = Math.min(cellBox[1], tileBox[t * 5 + 1]);
-    cellBox[2] = Math.max(cellBox[2], tileBox[t * 5 + 2]); cellBox[3] = Math.max(cellBox[3], tileBox[t * 5 + 3]);
+    cellBox[0] = Math.min(cellBox[0], tileBox[t * TILE_BOX]); cellBox[1] = Math.min(cellBox[1], tileBox[t * TILE_BOX + 1]);
+    cellBox[2] = Math.max(cellBox[2], tileBox[t * TILE_BOX + 2]); cellBox[3] = Math.max(cellBox[3], tileBox[t * TILE_BOX + 3]);
   }
   const lattice = buildLattice(grid, frame, cellBox, photos, opts.latticeStepM ?? gridCellM(grid, lat));
   const model = imageModel(camera);
@@ -275,43 +292,19 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     }
   }
   // tiles of cells and the photos whose box meets each tile
-  const tileLists: Int32Array[] = [];
-  const tileSlopes: Float64Array[] = [];
-  const noSlopes = new Float64Array(0); // no occlusion: no slope bound is read
+  const tileLists = tilePhotoLists(tileBox, tw * th, boxes, obox, pos, P);
   let longest = 0;
-  for (let ty = 0; ty < th; ty++) {
-    for (let tx = 0; tx < tw; tx++) {
-      const tb = (ty * tw + tx) * 5;
-      const x0 = tileBox[tb], y0 = tileBox[tb + 1], x1 = tileBox[tb + 2], y1 = tileBox[tb + 3], zLow = tileBox[tb + 4];
-      const list: number[] = [];
-      if (x0 <= x1) {
-        for (let j = 0; j < P; j++) {
-          if (!(boxes[j * 4] <= x1 && boxes[j * 4 + 2] >= x0 && boxes[j * 4 + 1] <= y1 && boxes[j * 4 + 3] >= y0)) continue;
-          // and the tile's corners, turned into the photo's heading frame, against its oriented box
-          const o = j * 6, sp = obox[o], cp = obox[o + 1];
-          let a0 = Infinity, a1 = -Infinity, c0 = Infinity, c1 = -Infinity;
-          for (let k = 0; k < 4; k++) {
-            const dx = (k & 1 ? x1 : x0) - pos[j * 3], dy = (k & 2 ? y1 : y0) - pos[j * 3 + 1];
-            const a = sp * dx + cp * dy, c = cp * dx - sp * dy;
-            if (a < a0) a0 = a; if (a > a1) a1 = a; if (c < c0) c0 = c; if (c > c1) c1 = c;
-          }
-          if (a0 <= obox[o + 3] && a1 >= obox[o + 2] && c0 <= obox[o + 5] && c1 >= obox[o + 4]) list.push(j);
-        }
-      }
-      tileLists.push(Int32Array.from(list));
-      // per photo of the tile: the steepest ground any ray from the tile's cells to that camera crosses
-      const pb = 4 * Math.max(opts.cellM, lattice.stepM);
-      tileSlopes.push(!useOcclusion ? noSlopes : Float64Array.from(list, (j) => {
-        const around: [number, number, number, number] = [Math.min(x0, pos[j * 3]) - pb, Math.min(y0, pos[j * 3 + 1]) - pb, Math.max(x1, pos[j * 3]) + pb, Math.max(y1, pos[j * 3 + 1]) + pb];
-        return riseNeeded(lattice, around, [x0, y0, x1, y1], zLow, boxTop[j], tol, pb, Math.min(boxSlope[j], slopeIn(lattice, around)));
-      }));
-      if (list.length > longest) longest = list.length;
-    }
-  }
-  const nan = () => new Float32Array(n).fill(NaN);
-  // counts are whole numbers (0 outside the area: the mask says where the area is)
-  const views = new Uint16Array(n), viewsPlanned = new Uint16Array(n), viewsAtSpecGsd = new Uint16Array(n);
-  const finestGsdCm = nan(), maxRayAngleDeg = nan(), sigmaVerticalM = nan(), sigmaHorizontalM = nan();
+  for (const l of tileLists) if (l.length > longest) longest = l.length;
+  const tileSlopes = useOcclusion ? slopesToPhotos(lattice, tileBox, tileLists, pos, boxTop, boxSlope, tol, 4 * Math.max(opts.cellM, lattice.stepM)) : tileLists.map(() => noSlopes);
+  // counts are whole numbers (0 outside the area: the mask says where the area is); counting views only, no other
+  // measure is worked out, and one array of zeros and one of NaN stand for the other counts and the figures (a
+  // fresh array costs its first writes: tens of milliseconds for the four figure bands of a large raster)
+  const views = new Uint16Array(n), viewsPlanned = new Uint16Array(n);
+  const viewsAtSpecGsd = viewsOnly ? viewsPlanned : new Uint16Array(n);
+  const finestGsdCm = new Float32Array(n).fill(NaN);
+  const maxRayAngleDeg = viewsOnly ? finestGsdCm : new Float32Array(n).fill(NaN);
+  const sigmaVerticalM = viewsOnly ? finestGsdCm : new Float32Array(n).fill(NaN);
+  const sigmaHorizontalM = viewsOnly ? finestGsdCm : new Float32Array(n).fill(NaN);
   // scratch, allocated once: unit rays from the point to each camera that counts, normal matrix, outputs
   const rays = new Float64Array(3 * Math.max(1, longest));
   const N = new Float64Array(6);
@@ -322,7 +315,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
   const stopAt = opts.stopAt;
   const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
-  const stopped = fillCells({ cb, tilt: new Float64Array(2 * Math.max(1, longest)), pt: new Float64Array(3), ray: new Float64Array(8), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, photos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const stopped = fillCells({ cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, tilt: new Float64Array(2 * Math.max(1, longest)), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(9), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }

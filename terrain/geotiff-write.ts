@@ -36,6 +36,8 @@ const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replac
  * IEEE float) with the GeoTIFF 1.1 tags GDAL reads: ModelPixelScale, ModelTiepoint (pixel-is-area corner) and a
  * GeoKeyDirectory naming the EPSG CRS (ProjectedCSTypeGeoKey or GeographicTypeGeoKey), plus GDAL's own
  * GDAL_NODATA (42113) and GDAL_METADATA (42112) tags. Refuses rotated transforms (no ModelTransformation here).
+ * Bands given by the very same source (the same array or function) are written once, their strips pointing at the
+ * same bytes (TIFF 6.0 asks only that each strip offset point at its strip's data).
  */
 export function writeFloat32GeoTiff(r: Omit<Float32GeoTiff, 'bands'> & { bands: readonly BandSource[] }): Uint8Array {
   const nb = r.bands.length;
@@ -78,9 +80,12 @@ export function writeFloat32GeoTiff(r: Omit<Float32GeoTiff, 'bands'> & { bands: 
   }
   const dataAt = extra + ((8 - (extra % 8)) % 8);
   const offsets = entries.find((e) => e.tag === 273)!.values as number[];
-  for (let b = 0; b < nb; b++) offsets[b] = dataAt + b * bandBytes;
-  check(dataAt + nb * bandBytes < 2 ** 32, 'the raster is too large for a classic TIFF (4 GiB); use larger cells.');
-  const out = new Uint8Array(dataAt + nb * bandBytes);
+  // each distinct source once, in band order
+  const firstOf = r.bands.map((s) => r.bands.indexOf(s));
+  let stored = 0;
+  for (let b = 0; b < nb; b++) offsets[b] = firstOf[b] === b ? dataAt + stored++ * bandBytes : offsets[firstOf[b]];
+  check(dataAt + stored * bandBytes < 2 ** 32, 'the raster is too large for a classic TIFF (4 GiB); use larger cells.');
+  const out = new Uint8Array(dataAt + stored * bandBytes);
   const dv = new DataView(out.buffer);
   out.set([0x49, 0x49, 42, 0]);
   dv.setUint32(4, 8, true);
@@ -104,8 +109,9 @@ export function writeFloat32GeoTiff(r: Omit<Float32GeoTiff, 'bands'> & { bands: 
   });
   dv.setUint32(10 + entries.length * 12, 0, true);
   for (let b = 0; b < nb; b++) {
+    if (firstOf[b] !== b) continue;
     const source = r.bands[b];
-    const at = dataAt + b * bandBytes;
+    const at = offsets[b];
     if (typeof source === 'function' && LITTLE_ENDIAN_HOST && at % 4 === 0) { source(new Float32Array(out.buffer, at, r.width * r.height)); continue; }
     let band: Float32Array;
     if (typeof source === 'function') { band = new Float32Array(r.width * r.height); source(band); } else band = source;

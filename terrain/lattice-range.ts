@@ -52,3 +52,54 @@ export function latticeRange(L: HeightLattice, R: RangeBlocks, box: [number, num
   }
   return [lo, hi];
 }
+
+/** Lattice nodes per side of the blocks `maxRuns` keeps the highest height of. */
+const MAX_BLOCK = 4;
+
+/**
+ * The highest known height of each MAX_BLOCK x MAX_BLOCK block of lattice nodes (-Infinity when none is known),
+ * and along each row of blocks the highest over runs of 2^k blocks (level k from block i, row-major per level):
+ * any run of a row is the union of two of them, so `latticeMax` reads two values per row of blocks.
+ */
+export interface MaxRuns { bnx: number; bny: number; levels: Float32Array[] }
+
+export function maxRuns(L: HeightLattice): MaxRuns {
+  const bnx = Math.ceil(L.nx / MAX_BLOCK), bny = Math.ceil(L.ny / MAX_BLOCK);
+  const first = new Float32Array(bnx * bny).fill(-Infinity);
+  for (let j = 0; j < L.ny; j++) {
+    const row = Math.floor(j / MAX_BLOCK) * bnx;
+    for (let i = 0; i < L.nx; i++) {
+      const h = L.heights[j * L.nx + i], b = row + Math.floor(i / MAX_BLOCK);
+      if (h > first[b]) first[b] = h;
+    }
+  }
+  const levels = [first];
+  for (let w = 1; 2 * w <= bnx; w *= 2) {
+    const prev = levels[levels.length - 1], next = new Float32Array(bnx * bny).fill(-Infinity);
+    for (let j = 0; j < bny; j++) for (let i = 0; i + 2 * w <= bnx; i++) next[j * bnx + i] = Math.max(prev[j * bnx + i], prev[j * bnx + i + w]);
+    levels.push(next);
+  }
+  return { bnx, bny, levels };
+}
+
+/**
+ * At least the highest known node `latticeRange` reads for a box, and at most the highest within MAX_BLOCK − 1 nodes
+ * of those (the blocks holding them): a bound for the ground over the box in a few reads, -Infinity when nothing is
+ * known there.
+ */
+export function latticeMax(L: HeightLattice, M: MaxRuns, box: readonly [number, number, number, number]): number {
+  const i0 = Math.max(0, Math.floor((box[0] - L.x0) / L.stepM)), i1 = Math.min(L.nx - 1, Math.ceil((box[2] - L.x0) / L.stepM));
+  const j0 = Math.max(0, Math.floor((box[1] - L.y0) / L.stepM)), j1 = Math.min(L.ny - 1, Math.ceil((box[3] - L.y0) / L.stepM));
+  let hi = -Infinity;
+  if (!(i0 <= i1 && j0 <= j1)) return hi;
+  const b0 = Math.floor(i0 / MAX_BLOCK), b1 = Math.floor(i1 / MAX_BLOCK);
+  let k = 0;
+  while (2 << k <= b1 - b0 + 1) k++;
+  const level = M.levels[k], w = 1 << k;
+  for (let c = Math.floor(j0 / MAX_BLOCK); c <= Math.floor(j1 / MAX_BLOCK); c++) {
+    const a = level[c * M.bnx + b0], b = level[c * M.bnx + b1 - w + 1];
+    if (a > hi) hi = a;
+    if (b > hi) hi = b;
+  }
+  return hi;
+}

@@ -115,11 +115,26 @@ function latticeHeight(L: HeightLattice, x: number, y: number): number {
  */
 export function heightsAround(L: HeightLattice, a: Float64Array): void {
   const x = a[0], y = a[1], d = a[2];
+  if (interiorAt(L, x + d, y, 3, a) && interiorAt(L, x - d, y, 4, a) && interiorAt(L, x, y + d, 5, a) && interiorAt(L, x, y - d, 6, a) && interiorAt(L, x, y, 7, a)) return;
   a[3] = latticeHeight(L, x + d, y);
   a[4] = latticeHeight(L, x - d, y);
   a[5] = latticeHeight(L, x, y + d);
   a[6] = latticeHeight(L, x, y - d);
   a[7] = latticeHeight(L, x, y);
+}
+
+/**
+ * `latticeHeight` at (x, y) into a[k] where the point lies inside the lattice's last row and column (no clamping
+ * there: the same arithmetic); false, writing nothing, elsewhere. Writing into the array keeps the height from
+ * being boxed on its way out.
+ */
+function interiorAt(L: HeightLattice, x: number, y: number, k: number, a: Float64Array): boolean {
+  const fx = (x - L.x0) / L.stepM, fy = (y - L.y0) / L.stepM;
+  if (!(fx >= 0 && fy >= 0 && fx < L.nx - 1 && fy < L.ny - 1)) return false;
+  const i = Math.floor(fx), j = Math.floor(fy), tx = fx - i, ty = fy - j, nx = L.nx, o = j * nx + i, h = L.heights;
+  const top = h[o] + (h[o + 1] - h[o]) * tx;
+  a[k] = top + (h[o + nx] + (h[o + nx + 1] - h[o + nx]) * tx - top) * ty;
+  return true;
 }
 
 /**
@@ -130,19 +145,22 @@ export function heightsAround(L: HeightLattice, a: Float64Array): void {
  * box, which holds the point and the camera and so the ray); where the ray is above a block's highest height it
  * jumps to the block's far side). Unknown heights never hide a point. The numbers come in one array
  * (px, py, pz, ox, oy, oz, toleranceM, maxM): a hot loop passes one reference instead of eight numbers the engine
- * would box on every call.
+ * would box on every call; a ninth, when given, ends the march at that distance along the ground (where the
+ * caller has proven the rest of the ray clear: `ray-clearance.ts`).
  */
 export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const px = a[0], py = a[1], pz = a[2], ox = a[3], oy = a[4], oz = a[5], toleranceM = a[6], maxM = a[7];
   const hx = ox - px, hy = oy - py;
   const lenH = Math.sqrt(hx * hx + hy * hy);
+  const end = a.length > 8 && a[8] < lenH ? a[8] : lenH;
   if (lenH < L.stepM) return false;
   const ux = hx / lenH, uy = hy / lenH;
   const rise = (oz - pz) / lenH; // metres up per metre along the ground
   const step = L.stepM;
   const cellsPerBlock = L.block * step;
+  const hs = L.heights, nx = L.nx;
   let s = step;
-  while (s < lenH) {
+  while (s < end) {
     const z = pz + s * rise;
     if (z - toleranceM > maxM) return false;
     const x = px + s * ux, y = py + s * uy;
@@ -158,7 +176,11 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
       s += (jump > 0 ? jump : 0) + 1e-6 * step;
       continue;
     }
-    const h = latticeHeight(L, x, y);
+    // latticeHeight written out (a call would box the height it returns); inside the lattice, as tested above
+    const i = Math.floor(fi), j = Math.floor(fj), tx = fi - i, ty = fj - j, o = j * nx + i;
+    const ha = hs[o], hb = hs[o + 1], hc = hs[o + nx], hd = hs[o + nx + 1];
+    const top = ha + (hb - ha) * tx;
+    const h = top + (hc + (hd - hc) * tx - top) * ty;
     if (h - toleranceM > z) return true;
     s += step;
   }

@@ -64,6 +64,35 @@ export function projectPoint(
   return true;
 }
 
+/**
+ * `projectPoint` with the camera at o[oi..oi+2] and the point at p[0..2]: the same arithmetic, for hot loops (a
+ * call boxes each fraction it passes, and these pass none).
+ */
+export function projectFrom(m: ImageModel, rot: Float64Array, at: number, o: Float64Array, oi: number, p: Float64Array, out: Float64Array): boolean {
+  const dx = p[0] - o[oi], dy = p[1] - o[oi + 1], dz = p[2] - o[oi + 2];
+  const qx = rot[at] * dx + rot[at + 3] * dy + rot[at + 6] * dz;
+  const qy = rot[at + 1] * dx + rot[at + 4] * dy + rot[at + 7] * dz;
+  const qz = rot[at + 2] * dx + rot[at + 5] * dy + rot[at + 8] * dz;
+  if (!(qz > 0)) { out[0] = NaN; out[1] = NaN; return false; }
+  let xn = qx / qz, yn = qy / qz;
+  if (m.distorted) {
+    const r2 = xn * xn + yn * yn;
+    const radial = 1 + r2 * (m.k1 + r2 * (m.k2 + r2 * m.k3));
+    const xd = xn * radial + 2 * m.p1 * xn * yn + m.p2 * (r2 + 2 * xn * xn);
+    const yd = yn * radial + m.p1 * (r2 + 2 * yn * yn) + 2 * m.p2 * xn * yn;
+    xn = xd; yn = yd;
+  }
+  out[0] = m.cxPx + xn * m.fxPx;
+  out[1] = m.cyPx + yn * m.fyPx;
+  return true;
+}
+
+/** `insideImage` of out[0], out[1] (from `projectFrom`): the pixel position is read, not passed. */
+export function insideImageAt(m: ImageModel, out: Float64Array, marginPx: number): boolean {
+  const u = out[0], v = out[1];
+  return u >= marginPx && v >= marginPx && u <= m.widthPx - marginPx && v <= m.heightPx - marginPx;
+}
+
 /** True when (u, v) lies in the image shrunk by `marginPx` on every side (0 <= u <= width, 0 <= v <= height). */
 export function insideImage(m: ImageModel, u: number, v: number, marginPx = 0): boolean {
   return u >= marginPx && v >= marginPx && u <= m.widthPx - marginPx && v <= m.heightPx - marginPx;

@@ -1,5 +1,5 @@
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -11,11 +11,11 @@ import { syntheticSite } from './coverage-site';
 const camera: Camera = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
 
 /** A raster wider than two tiles (so it is tiled and has overviews), with cells outside the area. */
-function raster() {
+function raster(viewsOnly = false) {
   const site = syntheticSite(700, 2, (x, y) => 20 * Math.sin(x / 90) + 15 * Math.cos(y / 60));
   const photos: CoveragePhoto[] = [];
   for (let line = 0; line < 5; line++) for (let k = 0; k < 12; k++) photos.push({ xM: -500 + line * 250, yM: -550 + k * 100, altitudeM: 200, yawDeg: 0 });
-  return computeCoverage(site.grid, site.frame, site.area(-600, -640, 600, 600), camera, photos, { cellM: 2, specGsdCm: 5 });
+  return computeCoverage(site.grid, site.frame, site.area(-600, -640, 600, 600), camera, photos, { cellM: 2, specGsdCm: 5, viewsOnly });
 }
 
 describe('coverage raster as a Cloud-Optimised GeoTIFF', () => {
@@ -56,5 +56,32 @@ describe('coverage raster as a Cloud-Optimised GeoTIFF', () => {
       const views = execFileSync('gdallocationinfo', ['-valonly', '-b', '1', cogPath, String(c), String(row)], { encoding: 'utf8' }).trim();
       expect(Number(views)).toBe(r.cells.inside[i] ? r.views[i] : COVERAGE_NODATA);
     }
+  });
+});
+
+describe('views-only coverage raster as a strip GeoTIFF', () => {
+  it('holds each band its measures share once, and GDAL reads every band cell for cell as the raster has it', () => {
+    // Reference: gdal_translate -of ENVI from GDAL 3.6.2 (Debian gdal-bin): band-sequential little-endian Float32
+    // as GDAL decodes the file; each band's strip offset points at the bytes it shares.
+    const r = raster(true);
+    const { width, height, inside } = r.cells;
+    const n = width * height;
+    const dir = mkdtempSync(join(tmpdir(), 'loftline-views-'));
+    const tif = join(dir, 'views.tif'), raw = join(dir, 'views.raw');
+    const bytes = coverageGeoTiff(r);
+    writeFileSync(tif, bytes);
+    // views, the figures' one NaN array and the other counts' one zero array: three bands' bytes, not five
+    expect(bytes.length).toBeLessThan(3 * 4 * n + 4096);
+    execFileSync('gdal_translate', ['-q', '-of', 'ENVI', tif, raw]);
+    const read = new Float32Array(new Uint8Array(readFileSync(raw)).buffer);
+    expect(read.length).toBe(5 * n);
+    let inArea = 0, seen = 0;
+    for (let i = 0; i < n; i++) {
+      const want = inside[i] ? [r.views[i], NaN, 0, NaN, NaN] : [COVERAGE_NODATA, COVERAGE_NODATA, COVERAGE_NODATA, COVERAGE_NODATA, COVERAGE_NODATA];
+      for (let b = 0; b < 5; b++) if (!Object.is(read[b * n + i], want[b])) expect(`band ${b + 1} cell ${i}: ${read[b * n + i]}`).toBe(`band ${b + 1} cell ${i}: ${want[b]}`);
+      if (inside[i]) { inArea++; if (r.views[i] > 0) seen++; }
+    }
+    expect(inArea).toBeGreaterThan(10_000);
+    expect(seen).toBeGreaterThan(inArea / 2);
   });
 });
