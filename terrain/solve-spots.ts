@@ -87,6 +87,12 @@ function hopClears(a: Anchor, b: Anchor, heightAt: HeightAt, clearanceM: number)
   return !(transitShortfallM(a, b, Math.max(a[2], b[2]), heightAt, clearanceM) > 0);
 }
 
+/** Time of a transit as it is flown: the level distance at the speed plus the change of height at the vertical speeds. */
+function hopTimeS(a: Anchor, b: Anchor, mission: Pick<Mission, 'speedMps' | 'climbMps' | 'descentMps'>): number {
+  const dz = b[2] - a[2];
+  return Math.hypot(b[0] - a[0], b[1] - a[1]) / mission.speedMps + (dz > 0 ? dz / mission.climbMps : -dz / mission.descentMps);
+}
+
 /** Greedy order from `start`: the quickest next spot whose transit keeps the clearance (any spot when none does). */
 function greedy(spots: Spot[], start: Anchor, mission: Pick<Mission, 'speedMps' | 'climbMps' | 'descentMps'>, clears: (a: Anchor, b: Anchor) => boolean): Spot[] {
   const left = [...spots];
@@ -96,8 +102,7 @@ function greedy(spots: Spot[], start: Anchor, mission: Pick<Mission, 'speedMps' 
     let k = -1, best = Infinity;
     for (let i = 0; i < left.length; i++) {
       const s = left[i];
-      const dz = s.groundM + s.heightM - at[2];
-      const t = Math.hypot(s.x - at[0], s.y - at[1]) / mission.speedMps + (dz > 0 ? dz / mission.climbMps : -dz / mission.descentMps);
+      const t = hopTimeS(at, where(s), mission);
       if (t < best && clears(at, where(s))) { best = t; k = i; }
     }
     if (k < 0) k = 0;
@@ -139,7 +144,7 @@ export function tourOrder(spots: Spot[], from: Anchor, to: Anchor, mission: Pick
  */
 export function tourGap(tour: Spot[], gaps: Array<{ from: Anchor; to: Anchor }>, mission: Pick<Mission, 'speedMps' | 'climbMps' | 'descentMps' | 'clearanceM' | 'obstacleAllowanceM'>, heightAt: HeightAt): { gap: number; reversed: boolean } {
   const clearanceM = mission.clearanceM + mission.obstacleAllowanceM;
-  const time = (a: Anchor, b: Anchor) => { const dz = b[2] - a[2]; return Math.hypot(b[0] - a[0], b[1] - a[1]) / mission.speedMps + (dz > 0 ? dz / mission.climbMps : -dz / mission.descentMps); };
+  const time = (a: Anchor, b: Anchor) => hopTimeS(a, b, mission);
   const first = where(tour[0]), last = where(tour[tour.length - 1]);
   let best = { gap: gaps.length - 1, reversed: false }, bestT = Infinity;
   gaps.forEach((g, k) => {

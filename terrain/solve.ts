@@ -24,7 +24,7 @@ const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v
 /** Why one line is where it is and flies as it does. */
 interface LineChoice {
   line: number;
-  /** A line of the layout, or a spot photo's short line flown after it. */
+  /** A line of the layout, or a spot photo's short line (flown in a tour between two layout lines). */
   kind: 'line' | 'spot';
   offsetM: number;
   spacingToNextM: number | null;
@@ -286,8 +286,8 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     if (short.length === 0) break;
     spotRounds++;
     const added = placeSpots(short, geometry, mission, 0.95, spots, heights.heightAt, headingDeg);
-    // a lower spot replaces the earlier one over the same cell
     if (added.length === 0) break;
+    // a lower spot replaces the earlier one over the same cell
     const next = [...spots.filter((s0) => !added.some((a) => a.x === s0.x && a.y === s0.y)), ...added];
     const b = build(headingDeg, best.rep, next);
     const v = verifier.check(b.plan);
