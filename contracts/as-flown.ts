@@ -41,6 +41,7 @@ export const asFlownDocSchema = z.object({
   matching: photoMatchSchema,
   spec: z.object({
     maxGsdCm: z.number(), minViews: z.number().int(), maxSigmaVerticalM: z.number().nullable(), maxSigmaHorizontalM: z.number().nullable(), basis: z.string(),
+    maxDirectionGapDeg: z.number().nullable().default(null), obliqueDeg: z.number().default(30),
   }),
   raster: z.object({ width: z.number().int(), height: z.number().int(), cellM: z.number(), cellAreaM2: z.number(), crs: z.object({ epsg: z.number().int().nullable(), name: z.string() }) }),
   planned: complianceSchema,

@@ -8,6 +8,7 @@ export function specWords(spec: CoverageDocument['spec']): string {
   const parts = [`GSD ≤ ${spec.maxGsdCm} cm`, `≥ ${spec.minViews} views`];
   if (spec.maxSigmaVerticalM !== null) parts.push(`vertical σ ≤ ${spec.maxSigmaVerticalM} m`);
   if (spec.maxSigmaHorizontalM !== null) parts.push(`horizontal σ ≤ ${spec.maxSigmaHorizontalM} m`);
+  if (spec.maxDirectionGapDeg !== null) parts.push(`seen from all round (no gap over ${spec.maxDirectionGapDeg}° between views ≥ ${spec.obliqueDeg}° from vertical)`);
   return `${parts.join(', ')} in every cell`;
 }
 
@@ -25,6 +26,7 @@ export function itemTitle(item: Item['item'], spec: CoverageDocument['spec']): s
     case 'views': return `Seen often enough: ≥ ${spec.minViews} views`;
     case 'sigma-vertical': return `Vertical σ ≤ ${spec.maxSigmaVerticalM} m (advisory)`;
     case 'sigma-horizontal': return `Horizontal σ ≤ ${spec.maxSigmaHorizontalM} m (advisory)`;
+    case 'directions': return `Seen from all round: no gap over ${spec.maxDirectionGapDeg}° between views ≥ ${spec.obliqueDeg}° from vertical`;
     case 'ground-unknown': return 'Ground height known';
   }
 }

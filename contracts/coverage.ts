@@ -16,6 +16,9 @@ const coverageSpecSchema = z.object({
   minViews: ranged('spec.minViews', R.minViews).int({ error: 'spec.minViews must be a whole number.' }).optional(),
   maxSigmaVerticalM: ranged('spec.maxSigmaVerticalM', R.maxSigmaM).nullable().optional(),
   maxSigmaHorizontalM: ranged('spec.maxSigmaHorizontalM', R.maxSigmaM).nullable().optional(),
+  // views from all round (3D): the widest gap between the directions of views at least obliqueDeg from the vertical
+  maxDirectionGapDeg: ranged('spec.maxDirectionGapDeg', R.maxDirectionGapDeg).nullable().optional(),
+  obliqueDeg: ranged('spec.obliqueDeg', R.obliqueDeg).optional(),
 });
 
 const envelopePresets = ['multirotor', 'fixed-wing'] as const;
@@ -47,7 +50,7 @@ export const missionCoverageFieldsSchema = z.object({
   coverage: coverageSettingsSchema.optional(),
 });
 
-export const coverageFailureSchema = z.enum(['gsd', 'views', 'sigma-vertical', 'sigma-horizontal', 'ground-unknown']);
+export const coverageFailureSchema = z.enum(['gsd', 'views', 'sigma-vertical', 'sigma-horizontal', 'directions', 'ground-unknown']);
 
 /** The compliance part of the `terrain coverage` document: share of area per spec item and the failing patches. */
 export const coverageComplianceSchema = z.object({
@@ -76,6 +79,8 @@ const coverageDocumentSchema = coverageComplianceSchema.extend({
   }),
   spec: z.object({
     maxGsdCm: z.number(), minViews: z.number().int(), maxSigmaVerticalM: z.number().nullable(), maxSigmaHorizontalM: z.number().nullable(), basis: z.string(),
+    // documents stored before the views-from-all-round item had neither field
+    maxDirectionGapDeg: z.number().nullable().default(null), obliqueDeg: z.number().default(30),
   }),
   envelope: z.object({
     rollDeg: z.number(), pitchDeg: z.number(), windMps: z.number(), windFromDeg: z.number(), airspeedMps: z.number(), crabs: z.boolean(), stepDeg: z.number(),

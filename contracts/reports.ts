@@ -23,7 +23,7 @@ export type StationStats = z.infer<typeof stationStatsSchema>;
 
 /** One requirement of the spec against what the plan achieves. */
 const specCheckSchema = z.object({
-  key: z.enum(['gsd-band', 'forward-overlap', 'side-overlap', 'clearance', 'height-limit', 'cells', 'cells-gsd', 'cells-views', 'cells-sigma-vertical', 'cells-sigma-horizontal', 'cells-ground-unknown']),
+  key: z.enum(['gsd-band', 'forward-overlap', 'side-overlap', 'clearance', 'height-limit', 'cells', 'cells-gsd', 'cells-views', 'cells-sigma-vertical', 'cells-sigma-horizontal', 'cells-directions', 'cells-ground-unknown']),
   label: z.string(),
   required: z.string(),
   achieved: z.string(),

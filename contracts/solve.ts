@@ -15,14 +15,16 @@ const ranged = (name: string, lo: number, hi: number) => {
 
 /** The solver's settings (all optional; terrain/solve-options.ts has the defaults and why). */
 export const solveSettingsSchema = z.object({
-  // `lattice` (a second set of lines across the first, for 3D) is named but not built yet: refused, not ignored
-  pattern: z.enum(['furrow'], { error: 'solve.pattern must be "furrow" (one set of parallel lines); "lattice" is not available yet.' }).optional(),
+  // left out, the spec decides: a lattice when it asks for views from all round, else a furrow
+  pattern: z.enum(['furrow', 'lattice'], { error: 'solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (a second set across the first).' }).optional(),
   minSpeedMps: ranged('minSpeedMps', 0.5, 30).optional(),
   minSideOverlap: ranged('minSideOverlap', 0, 0.9).optional(),
   minForwardOverlap: ranged('minForwardOverlap', 0, 0.95).optional(),
   headingCandidates: ranged('headingCandidates', 1, 12).int({ error: 'solve.headingCandidates must be a whole number.' }).optional(),
   repairRounds: ranged('repairRounds', 0, 12).int({ error: 'solve.repairRounds must be a whole number.' }).optional(),
   spotRounds: ranged('spotRounds', 0, 8).int({ error: 'solve.spotRounds must be a whole number.' }).optional(),
+  // lines may be laid this far beyond the boundary (only where flying over the neighbouring ground is allowed)
+  beyondEdgeM: ranged('beyondEdgeM', 0, 100).optional(),
 });
 
 const n = z.number();
@@ -36,6 +38,8 @@ export const solveReportSchema = z.object({
     lines: z.array(z.object({
       // stored before spot photos existed: every line was a line of the layout
       line: z.number().int(), kind: z.enum(['line', 'spot']).default('line'), offsetM: n, spacingToNextM: n.nullable(),
+      // which set of lines: 1, or 2 for the lattice's second set across the first (stored before lattices: 1)
+      set: z.number().int().default(1),
       speedMps: z.object({ min: n, max: n }), triggerDistanceM: z.object({ min: n, max: n }), legs: z.number().int(), reasons: z.array(z.string()),
     })),
   }),

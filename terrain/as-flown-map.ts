@@ -6,8 +6,7 @@
  * in black and white. North up, white outside the area.
  */
 import type { AsFlown } from './as-flown';
-import { cellMeetsSpec } from './as-flown';
-import type { CoverageSpec } from './coverage-spec';
+import { cellMeetsSpec, type CoverageSpec } from './coverage-spec';
 import { encode } from './coverage-layer';
 import type { GeoTransform } from './grid';
 

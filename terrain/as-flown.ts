@@ -5,7 +5,7 @@ import type { PlanResult } from './plan-result';
 import type { LocalFrame } from './local-frame';
 import { computeCoverage, type CoveragePhoto, type CoverageRaster } from './coverage';
 import { coverageFrame, planPhotos } from './coverage-photos';
-import { coverageCompliance, type Compliance, type CoverageSpec } from './coverage-spec';
+import { cellMeetsSpec, coverageCompliance, specRasterOptions, type Compliance, type CoverageSpec } from './coverage-spec';
 import { matchPhotos, type FlownPhoto, type PhotoMatch } from './as-flown-match';
 
 /** Raster settings of an as-flown analysis (the mission's `coverage` settings with the cell size resolved). */
@@ -35,15 +35,6 @@ function flownPoses(photos: readonly FlownPhoto[], match: PhotoMatch, plan: Plan
     });
   });
   return { poses, assumed };
-}
-
-/** Whether cell `i` meets every item of the spec (as `coverageCompliance` counts them). */
-export function cellMeetsSpec(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
-  if (!(r.cells.z[i] === r.cells.z[i])) return false;
-  if (!(r.finestGsdCm[i] <= spec.maxGsdCm) || r.views[i] < spec.minViews) return false;
-  if (spec.maxSigmaVerticalM !== null && !(r.sigmaVerticalM[i] <= spec.maxSigmaVerticalM)) return false;
-  if (spec.maxSigmaHorizontalM !== null && !(r.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM)) return false;
-  return true;
 }
 
 /** Connected cells (4-neighbour) of a mask, each as its cell indices. */
@@ -122,7 +113,7 @@ export function analyseAsFlown(grid: Grid, mission: Mission, plan: PlanResult, p
     if (!ok) farAway.push(k);
     return ok;
   });
-  const opts = { cellM: settings.cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion };
+  const opts = { cellM: settings.cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion };
   const planned = computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, null).photos, opts);
   const flown = computeCoverage(grid, frame, mission.area, mission.camera, near, opts);
   const { width, height, inside, cellAreaM2 } = flown.cells;

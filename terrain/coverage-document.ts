@@ -10,7 +10,7 @@ import type { Mission } from './mission';
 import { coverageFrame, planPhotos } from './coverage-photos';
 import { computeCoverage, type CoverageRaster } from './coverage';
 import { coverageLayout, gridCellM } from './coverage-grid';
-import { coverageCompliance, resolveCoverageInput, type Compliance, type CoverageSpec } from './coverage-spec';
+import { coverageCompliance, resolveCoverageInput, specRasterOptions, type Compliance, type CoverageSpec } from './coverage-spec';
 import { coverageBandNames, COVERAGE_NODATA } from './coverage-raster-file';
 import type { AttitudeEnvelope } from './attitude-envelope';
 import { TerrainError } from './errors';
@@ -94,7 +94,7 @@ export function runCoverage(grid: Grid, input: unknown, mission: Mission, plan: 
   const frame = coverageFrame(mission.area);
   const { photos, lines: crabLines } = planPhotos(plan, frame, envelope);
   const raster = computeCoverage(grid, frame, mission.area, mission.camera, photos, {
-    cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
+    cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
   });
   const compliance = coverageCompliance(raster, spec);
   const t1 = now();

@@ -6,7 +6,7 @@
  */
 import { interpolateViridis } from 'd3-scale-chromatic';
 import type { CoverageRaster } from './coverage';
-import type { CoverageSpec } from './coverage-spec';
+import { cellMeetsSpec, type CoverageSpec } from './coverage-spec';
 import { encodePng } from './png-encode';
 
 import type { CoverageMeasure } from './coverage-measures';
@@ -71,16 +71,6 @@ function p95(band: ArrayLike<number>, inside: Uint8Array): number | null {
 
 const nice = (v: number, digits: number) => Number(v.toFixed(digits));
 
-/** Whether a cell fails any item of the spec (the rules of coverageCompliance: unknown ground fails every item). */
-function cellFails(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
-  if (!(r.cells.z[i] === r.cells.z[i])) return true;
-  if (!(r.finestGsdCm[i] <= spec.maxGsdCm)) return true;
-  if (r.views[i] < spec.minViews) return true;
-  if (spec.maxSigmaVerticalM !== null && !(r.sigmaVerticalM[i] <= spec.maxSigmaVerticalM)) return true;
-  if (spec.maxSigmaHorizontalM !== null && !(r.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM)) return true;
-  return false;
-}
-
 /** A mask as a map image: white and opaque where `mask[i]` is set, transparent elsewhere (one pixel per cell). */
 export function maskPng(width: number, height: number, mask: Uint8Array): Uint8Array {
   const rgba = new Uint8Array(width * height * 4);
@@ -121,7 +111,7 @@ export function coverageLayers(r: CoverageRaster, spec: CoverageSpec): CoverageL
   });
   const mask = new Uint8Array(n * 4);
   for (let i = 0; i < n; i++) {
-    if (!inside[i] || !cellFails(r, spec, i)) continue;
+    if (!inside[i] || cellMeetsSpec(r, spec, i)) continue;
     const o = i * 4;
     mask[o] = mask[o + 1] = mask[o + 2] = mask[o + 3] = 255;
   }
@@ -147,7 +137,7 @@ function printImage(r: CoverageRaster, spec: CoverageSpec, gsd: CoverageLayer): 
       if (!inside[i]) continue;
       const v = r.finestGsdCm[i];
       const [cr, cg, cb] = v === v ? paletteAt((v - gsd.min) / span, 'low') : [235, 235, 235];
-      const fails = cellFails(r, spec, i);
+      const fails = !cellMeetsSpec(r, spec, i);
       for (let y = row * k; y < (row + 1) * k; y++) {
         for (let x = col * k; x < (col + 1) * k; x++) {
           const o = (y * w + x) * 4;

@@ -1,4 +1,5 @@
 /** The per-cell pass of the coverage raster: for each cell the candidate photos of its tile, the views that count and the figures from them. */
+import { directionGapDeg } from './view-directions';
 import { rowPositions, type ColumnBlend, type CoverageCells } from './coverage-grid';
 import { classifyBox, IN, MIXED, OUT } from './coverage-blocks';
 import type { NormalisedBounds } from './image-bounds';
@@ -33,6 +34,8 @@ interface CellPass {
   /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
   boxSlope: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
   rays: Float64Array; sigmaPx: number; sig: Float64Array;
+  /** The widest gap between oblique view directions (`view-directions.ts`), when the spec asks for views from all round; null otherwise. */
+  directionGap: Float32Array | null; cosOblique: number; azimuths: Float64Array;
   /** Where the planned image and the envelope's shrunk image hold a whole box of ground points (`image-bounds.ts`). */
   bounds: NormalisedBounds; envBounds: NormalisedBounds;
   /** Test every candidate photo at every cell, deciding no block at once (the reference the block decisions are checked against). */
@@ -409,6 +412,7 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   viewsPlanned[i] = planned;
   viewsAtSpecGsd[i] = atSpec;
   if (v > 0) finestGsdCm[i] = finest;
+  if (c.directionGap) c.directionGap[i] = directionGapDeg(rays, v, c.cosOblique, c.azimuths);
   if (v > 1) {
     minRayDot(rays, v, c.tilt, c.kept);
     const minDot = c.tilt[0];

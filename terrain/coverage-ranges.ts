@@ -4,6 +4,8 @@ export const COVERAGE_RANGES = Object.freeze({
   maxGsdCm: { min: 0.1, max: 100 },
   minViews: { min: 1, max: 100 },
   maxSigmaM: { min: 0.001, max: 100 },
+  maxDirectionGapDeg: { min: 60, max: 359 },
+  obliqueDeg: { min: 5, max: 80 },
   rollDeg: { min: 0, max: 45 },
   pitchDeg: { min: 0, max: 45 },
   windMps: { min: 0, max: 40 },

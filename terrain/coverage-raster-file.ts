@@ -1,4 +1,4 @@
-/** The coverage raster as a GeoTIFF: five Float32 bands in the grid's CRS, nodata outside the area. */
+/** The coverage raster as a GeoTIFF: five Float32 bands in the grid's CRS (a sixth when the spec asks for views from all round), nodata outside the area. */
 import type { CoverageRaster } from './coverage';
 import { writeFloat32GeoTiff, type Float32GeoTiff } from './geotiff-write';
 import { writeCloudOptimisedGeoTiff } from './geotiff-cog';
@@ -16,6 +16,8 @@ export function coverageBandNames(r: CoverageRaster): string[] {
     'views at or below the spec GSD',
     'largest angle between viewing rays, degrees',
     `predicted vertical sigma, m (advisory, ${r.imageErrorPx} px image error)`,
+    // only when the spec asks for views from all round
+    ...(r.directionGapDeg ? ['widest gap between the directions of the oblique views, degrees'] : []),
   ];
 }
 
@@ -43,7 +45,8 @@ function fillBand(out: Float32Array, values: Uint16Array | Float32Array, outside
 
 /**
  * Band 1 views, 2 finest GSD (cm), 3 views at or below the spec's GSD, 4 largest angle between rays (degrees),
- * 5 predicted vertical σ (m); -9999 outside the area, NaN inside where a measure has no value.
+ * 5 predicted vertical σ (m), 6 (when the spec asks for it) the widest gap between oblique view directions
+ * (degrees); -9999 outside the area, NaN inside where a measure has no value.
  */
 function coverageBands(r: CoverageRaster): Float32GeoTiff {
   const { cells } = r;
@@ -51,7 +54,7 @@ function coverageBands(r: CoverageRaster): Float32GeoTiff {
   const n = cells.width * cells.height;
   const runs = outsideRuns(cells.inside);
   const band = (b: Uint16Array | Float32Array) => { const out = new Float32Array(n); fillBand(out, b, runs); return out; };
-  const bands = [band(r.views), band(r.finestGsdCm), band(r.viewsAtSpecGsd), band(r.maxRayAngleDeg), band(r.sigmaVerticalM)];
+  const bands = [band(r.views), band(r.finestGsdCm), band(r.viewsAtSpecGsd), band(r.maxRayAngleDeg), band(r.sigmaVerticalM), ...(r.directionGapDeg ? [band(r.directionGapDeg)] : [])];
   return {
     width: cells.width, height: cells.height, bands, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
@@ -75,7 +78,7 @@ export function coverageGeoTiff(r: CoverageRaster): Uint8Array {
   return writeFloat32GeoTiff({
     width: cells.width, height: cells.height, bandNames: coverageBandNames(r), transform: cells.transform,
     epsg: cells.crs.epsg!, geographic: cells.crs.geographic, nodata: COVERAGE_NODATA,
-    bands: [band(r.views), band(r.finestGsdCm), band(r.viewsAtSpecGsd), band(r.maxRayAngleDeg), band(r.sigmaVerticalM)],
+    bands: [band(r.views), band(r.finestGsdCm), band(r.viewsAtSpecGsd), band(r.maxRayAngleDeg), band(r.sigmaVerticalM), ...(r.directionGapDeg ? [band(r.directionGapDeg)] : [])],
   });
 }
 

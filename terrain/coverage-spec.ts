@@ -21,6 +21,25 @@ export interface CoverageSpec {
   /** Largest advisory predicted vertical / horizontal σ allowed (m), or null when the spec has none. */
   maxSigmaVerticalM: number | null;
   maxSigmaHorizontalM: number | null;
+  /**
+   * Views from all round (for 3D): the widest gap allowed between the compass directions of a cell's oblique views
+   * (`view-directions.ts`), degrees, or null when the spec does not ask for it.
+   */
+  maxDirectionGapDeg: number | null;
+  /** The least angle from the vertical at which a view counts as oblique for that item, degrees. */
+  obliqueDeg: number;
+}
+
+/** The raster options a spec needs beyond the GSD: the oblique angle when it asks for views from all round. */
+export function specRasterOptions(spec: CoverageSpec): { specGsdCm: number; obliqueDeg?: number } {
+  return spec.maxDirectionGapDeg === null ? { specGsdCm: spec.maxGsdCm } : { specGsdCm: spec.maxGsdCm, obliqueDeg: spec.obliqueDeg };
+}
+
+/** Whether cell `i` meets the views-from-all-round item (true when the spec has none). */
+function meetsDirections(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
+  if (spec.maxDirectionGapDeg === null) return true;
+  const gap = r.directionGapDeg ? r.directionGapDeg[i] : NaN;
+  return gap <= spec.maxDirectionGapDeg;
 }
 
 /** Raster settings. */
@@ -30,6 +49,15 @@ export interface CoverageSettings {
   maxCells: number;
   imageErrorPx: number;
   occlusion: boolean;
+}
+
+/** Whether cell `i` meets every item of the spec (as `coverageCompliance` counts them: unknown ground meets none). */
+export function cellMeetsSpec(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
+  if (!(r.cells.z[i] === r.cells.z[i])) return false;
+  if (!(r.finestGsdCm[i] <= spec.maxGsdCm) || r.views[i] < spec.minViews) return false;
+  if (spec.maxSigmaVerticalM !== null && !(r.sigmaVerticalM[i] <= spec.maxSigmaVerticalM)) return false;
+  if (spec.maxSigmaHorizontalM !== null && !(r.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM)) return false;
+  return meetsDirections(r, spec, i);
 }
 
 type R = keyof typeof COVERAGE_RANGES;
@@ -66,6 +94,9 @@ export function resolveCoverageInput(input: unknown, mission: Mission): { spec: 
     minViews,
     maxSigmaVerticalM: num(s, 'spec', 'maxSigmaVerticalM', 'maxSigmaM', null),
     maxSigmaHorizontalM: num(s, 'spec', 'maxSigmaHorizontalM', 'maxSigmaM', null),
+    maxDirectionGapDeg: num(s, 'spec', 'maxDirectionGapDeg', 'maxDirectionGapDeg', null),
+    // 30° from the vertical: a slant at which a face is seen well enough to match (our choice, common practice for oblique capture)
+    obliqueDeg: num(s, 'spec', 'obliqueDeg', 'obliqueDeg', 30),
   };
   let envelope: AttitudeEnvelope | null = null;
   if (m.envelope !== undefined && m.envelope !== null) {
@@ -97,7 +128,7 @@ export function resolveCoverageInput(input: unknown, mission: Mission): { spec: 
 }
 
 /** Why a cell fails the spec. */
-type CoverageFailure = 'gsd' | 'views' | 'sigma-vertical' | 'sigma-horizontal' | 'ground-unknown';
+type CoverageFailure = 'gsd' | 'views' | 'sigma-vertical' | 'sigma-horizontal' | 'directions' | 'ground-unknown';
 
 /** One spec item's outcome over the area. */
 interface ComplianceItem {
@@ -170,6 +201,15 @@ export function coverageCompliance(raster: CoverageRaster, spec: CoverageSpec): 
       fails: (i) => !unknown(i) && !(raster.sigmaHorizontalM[i] <= lim),
       worstOf: (i) => raster.sigmaHorizontalM[i], worse: (a, b) => !(a <= b),
       what: (w) => `predicted horizontal σ above ${lim} m (advisory); worst there ${w === null || !Number.isFinite(w) ? 'not determined (fewer than 2 views)' : `${w.toFixed(3)} m`}`,
+    });
+  }
+  if (spec.maxDirectionGapDeg !== null) {
+    const lim = spec.maxDirectionGapDeg;
+    items.push({
+      item: 'directions', asks: `views from all round: no gap wider than ${lim}° between the directions of views at least ${spec.obliqueDeg}° from the vertical`,
+      fails: (i) => !unknown(i) && !meetsDirections(raster, spec, i),
+      worstOf: (i) => (raster.directionGapDeg ? raster.directionGapDeg[i] : NaN), worse: (a, b) => !(a <= b),
+      what: (w) => `seen from too few sides (${basis}): widest gap between views at least ${spec.obliqueDeg}° from the vertical ${w === null || !Number.isFinite(w) ? 'not known' : w >= 360 ? '360° (fewer than 2 such views)' : `${w.toFixed(0)}°`}, the spec allows ${lim}°`,
     });
   }
   items.push({ item: 'ground-unknown', asks: 'known ground height', fails: unknown, worstOf: () => NaN, worse: () => false, what: () => 'the elevation grid has no height here' });

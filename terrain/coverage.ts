@@ -28,6 +28,11 @@ export interface CoverageOptions {
   maxCells?: number;
   /** GSD the spec asks for at most (cm): views at or below it are counted. */
   specGsdCm: number;
+  /**
+   * Work out the widest gap between the compass directions of each cell's views at least this many degrees from the
+   * vertical (`directionGapDeg`): given when the spec asks for views from all round; left out, the raster has none.
+   */
+  obliqueDeg?: number;
   /** Image measurement error for the predicted precision, pixels (default 0.5). */
   imageErrorPx?: number;
   /** When given, a view counts only if the point stays in the image at every attitude of the envelope. */
@@ -72,6 +77,8 @@ export interface CoverageRaster {
   maxRayAngleDeg: Float32Array;
   sigmaVerticalM: Float32Array;
   sigmaHorizontalM: Float32Array;
+  /** Widest gap between the compass directions of the oblique views, degrees (360: fewer than two); only when asked (`obliqueDeg`). */
+  directionGapDeg?: Float32Array;
   /** Whether `views` and the figures from them are the guaranteed ones. */
   guaranteed: boolean;
   /** Safety margin the envelope test keeps from the image edges, pixels (0 without an envelope). */
@@ -312,10 +319,14 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const sig = new Float64Array(2);
   const spec = opts.specGsdCm * (1 + 1e-9);
   const hStep = lattice.stepM;
+  const oblique = opts.obliqueDeg;
+  check(oblique === undefined || (Number.isFinite(oblique) && oblique >= 0 && oblique < 90), `the least angle from the vertical of an oblique view must be from 0 to 90 degrees, got ${oblique}.`);
+  const directionGap = oblique === undefined || viewsOnly ? null : new Float32Array(n).fill(NaN);
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
+  if (directionGap) raster.directionGapDeg = directionGap;
   const stopAt = opts.stopAt;
   const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
-  const stopped = fillCells({ cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, tilt: new Float64Array(2 * Math.max(1, longest)), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(9), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const stopped = fillCells({ cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, tilt: new Float64Array(2 * Math.max(1, longest)), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(9), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, directionGap, cosOblique: Math.cos(((oblique ?? 0) * Math.PI) / 180), azimuths: new Float64Array(Math.max(1, longest)), stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }

@@ -45,7 +45,10 @@ export function missionBboxWgs84(input: unknown): [number, number, number, numbe
   let lo0 = m.takeoff.lon, la0 = m.takeoff.lat, lo1 = lo0, la1 = la0;
   for (const [lon, lat] of m.area.coordinates[0]) { lo0 = Math.min(lo0, lon); lo1 = Math.max(lo1, lon); la0 = Math.min(la0, lat); la1 = Math.max(la1, lat); }
   const fp = footprintM(m.camera, m.maxAglM);
-  const marginM = m.runInM + Math.max(fp.acrossM, fp.alongM) * 1.5 + 50;
+  // the solver may lay lines beyond the boundary (solve.beyondEdgeM, checked there): the window takes them in
+  const solve = (input as { solve?: { beyondEdgeM?: unknown } }).solve;
+  const beyondM = typeof solve?.beyondEdgeM === 'number' && Number.isFinite(solve.beyondEdgeM) ? Math.min(100, Math.max(0, solve.beyondEdgeM)) : 0;
+  const marginM = m.runInM + Math.max(fp.acrossM, fp.alongM) * 1.5 + 50 + beyondM;
   const dLat = marginM / 110_574;
   const dLon = marginM / (111_320 * Math.max(0.05, Math.cos((((la0 + la1) / 2) * Math.PI) / 180)));
   return [lo0 - dLon, la0 - dLat, lo1 + dLon, la1 + dLat];
@@ -209,9 +212,29 @@ function fitLines(laid: FlightLine[], g: PlanGround, mission: Mission, lim: Alti
 
 type LinePhotoStations = { headingDeg: number; row: number; x: Float64Array; y: Float64Array; altitudeM: Float64Array };
 
-/** Each line's photo stations in the local frame at their fitted altitudes, with the line's row across the area. */
-function stationPhotos(lines: FlightLine[], profiles: LineProfile[]): LinePhotoStations[] {
-  const offsets = [...new Set(lines.map((l) => l.offsetM))].sort((a, b) => a - b);
+/**
+ * The sets of lines by the direction they run: one set for parallel lines, two when a second set crosses the first
+ * (the solver's lattice). Each set's layout heading is the layout's own turned by the set's angle to it; lines flown
+ * either way along one direction are one set. Overlaps are between neighbouring lines of one set only.
+ */
+function lineSets(lines: ReadonlyArray<{ headingDeg: number }>, layoutHeadingDeg: number): Array<{ headingDeg: number; members: number[] }> {
+  const sets: Array<{ key: number; headingDeg: number; members: number[] }> = [];
+  lines.forEach((l, li) => {
+    const key = Math.round(((((l.headingDeg - layoutHeadingDeg) % 180) + 180) % 180) * 1e6) / 1e6 % 180;
+    let set = sets.find((t) => t.key === key);
+    if (!set) { set = { key, headingDeg: layoutHeadingDeg + key, members: [] }; sets.push(set); }
+    set.members.push(li);
+  });
+  return sets;
+}
+
+/** Each line's photo stations in the local frame at their fitted altitudes, with the line's row across the area (within its set). */
+function stationPhotos(lines: FlightLine[], profiles: LineProfile[], layoutHeadingDeg: number): LinePhotoStations[] {
+  const rowOf = new Map<FlightLine, number>();
+  for (const set of lineSets(lines, layoutHeadingDeg)) {
+    const offsets = [...new Set(set.members.map((li) => lines[li].offsetM))].sort((a, b) => a - b);
+    for (const li of set.members) rowOf.set(lines[li], offsets.indexOf(lines[li].offsetM));
+  }
   return lines.map((line, li) => {
     const { stationIdx, fit } = profiles[li];
     const n = line.stationsM.length;
@@ -221,7 +244,7 @@ function stationPhotos(lines: FlightLine[], profiles: LineProfile[]): LinePhotoS
       px[s] = p[0]; py[s] = p[1];
       alt[s] = fit.altitudeM[stationIdx[s]];
     }
-    return { headingDeg: line.headingDeg, row: offsets.indexOf(line.offsetM), x: px, y: py, altitudeM: alt };
+    return { headingDeg: line.headingDeg, row: rowOf.get(line)!, x: px, y: py, altitudeM: alt };
   });
 }
 
@@ -254,15 +277,25 @@ function overlapsOf(mission: Mission, g: PlanGround, photos: LinePhotoStations[]
     forwardOverlap: mission.forwardOverlap, sideOverlap: mission.sideOverlap, gsdMinCm: band.min, gsdMaxCm: band.max,
     maxAglM: mission.maxAglM, clearanceM: lim.clearanceM, plannedHeightM: g.targetHeightM,
   };
-  const results = !withOverlaps ? stationHeights(cam, g.heights.heightAt, photos, targets) : stationOverlaps(cam, g.heights.heightAt, photos, headingDeg, targets, envelope ? {
+  const overlapsOfSet = (set: LinePhotoStations[], setHeadingDeg: number) => stationOverlaps(cam, g.heights.heightAt, set, setHeadingDeg, targets, envelope ? {
     extentsFor: (li, planned) => {
-      const ge = guaranteedExtents(cam, g.heights.heightAt, photos[li], headingDeg, planned, envelope);
+      const ge = guaranteedExtents(cam, g.heights.heightAt, set[li], setHeadingDeg, planned, envelope);
       marginPx = Math.max(marginPx, ge.marginPx);
       attitudeCount = Math.max(attitudeCount, ge.attitudeCount);
       return ge;
     },
     words: envelopeWords(envelope, crabDegMax),
   } : null);
+  let results: StationResult[][];
+  if (!withOverlaps) results = stationHeights(cam, g.heights.heightAt, photos, targets);
+  else {
+    // each set of lines against its own neighbours, along its own heading
+    results = new Array<StationResult[]>(photos.length);
+    for (const set of lineSets(photos, headingDeg)) {
+      const r = overlapsOfSet(set.members.map((li) => photos[li]), set.headingDeg);
+      set.members.forEach((li, k) => { results[li] = r[k]; });
+    }
+  }
   // read after stationOverlaps ran: the margins are gathered as the extents are computed
   return { results, band, lattice: () => ({ marginPx, attitudeCount }) };
 }
@@ -371,7 +404,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
   const { lines: laid, headingDeg, headingAdvice } = layLines(mission, g, opts);
   const lim = altitudeLimits(mission, g.targetHeightM);
   const { lines, profiles, leftOut } = fitLines(laid, g, mission, lim, opts);
-  const photos = stationPhotos(lines, profiles);
+  const photos = stationPhotos(lines, profiles, headingDeg);
   const env = missionEnvelope(missionInput, mission, photos);
   const { envelope, crabDegMax } = env;
   const { results, band, lattice } = overlapsOf(mission, g, photos, headingDeg, lim, env, opts.overlaps !== false);

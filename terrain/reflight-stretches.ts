@@ -9,12 +9,12 @@ import { cellX, cellY } from './coverage-grid';
 import type { Grid } from './grid';
 import type { Mission } from './mission';
 import type { PlanLine } from './plan-result';
-import type { CoverageSpec } from './coverage-spec';
+import { cellMeetsSpec, specRasterOptions, type CoverageSpec } from './coverage-spec';
 import { planPhotos } from './coverage-photos';
 import { computeCoverage } from './coverage';
 import { cameraToLocal } from './footprint';
 import { imageModel, insideImage, projectPoint } from './pose';
-import { cellMeetsSpec, type AsFlown, type AsFlownSettings } from './as-flown';
+import type { AsFlown, AsFlownSettings } from './as-flown';
 import { MIN_REFLIGHT_PATCH_SHARE } from './reflight';
 
 /** One leg of a stretch: the signed-off leg's straight climb or descent between two distances along its line. */
@@ -144,7 +144,7 @@ export function reflightStretches(grid: Grid, mission: Mission, a: AsFlown, spec
     const lineStart = plan.lines.reduce<number[]>((acc, l, li) => { acc.push(li === 0 ? 0 : acc[li - 1] + plan.lines[li - 1].stations.length); return acc; }, []);
     const again = stretches.flatMap((st) => photos.slice(lineStart[st.line - 1] + st.firstPhoto - 1, lineStart[st.line - 1] + st.lastPhoto));
     const after = computeCoverage(grid, a.frame, mission.area, mission.camera, [...flown, ...again], {
-      cellM: settings.cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion,
+      cellM: settings.cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion,
     });
     for (const i of target) if (cellMeetsSpec(after, spec, i)) coveredCells++;
   }

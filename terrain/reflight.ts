@@ -4,11 +4,11 @@ import type { AreaPolygon, Mission } from './mission';
 import type { PlanResult } from './plan-result';
 import type { LocalFrame } from './local-frame';
 import { cellX, cellY, type CoverageCells } from './coverage-grid';
-import type { CoverageSpec } from './coverage-spec';
+import { cellMeetsSpec, specRasterOptions, type CoverageSpec } from './coverage-spec';
 import { analysePlan, type AnalyseOptions } from './plan';
 import { planPhotos } from './coverage-photos';
 import { computeCoverage } from './coverage';
-import { cellMeetsSpec, type AsFlown, type AsFlownSettings } from './as-flown';
+import type { AsFlown, AsFlownSettings } from './as-flown';
 
 const DEG = Math.PI / 180;
 
@@ -153,7 +153,7 @@ export function planReflight(grid: Grid, missionInput: Record<string, unknown>, 
     const plans = missions.map((m) => analysePlan(grid, m, opts));
     const extra = plans.flatMap((p) => planPhotos(p, frame, null).photos);
     const after = computeCoverage(grid, frame, mission.area, mission.camera, [...asFlown.poses.filter((_, k) => !asFlown.farAway.includes(k)), ...extra], {
-      cellM: settings.cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion,
+      cellM: settings.cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion,
     });
     let covered = 0, meets = 0;
     const { inside } = after.cells;

@@ -43,3 +43,15 @@ export function forwardOverlapForViews(views: number, floor: number): number {
   const need = views <= 1 ? 0.1 : 1 - 1 / views + 0.05;
   return Math.min(0.95, Math.max(floor, need));
 }
+
+/**
+ * Forward overlap a nadir line needs so that every point along it is also seen from ahead and from behind at least
+ * `obliqueDeg` from the vertical (views from all round): a photo must fall between h·tan θ and h·tan(half-angle
+ * along) ahead of the point, so photos are at most h·(tan(half-angle) − tan θ) apart, with the same 5-point margin.
+ * Null when the camera's guaranteed half-angle along the track is no wider than θ (no nadir photo sees that slant).
+ */
+export function forwardOverlapForSlant(g: ViewGeometry, obliqueDeg: number): number | null {
+  const t = Math.tan(obliqueDeg * DEG);
+  if (!(g.tanAlong > t)) return null;
+  return Math.min(0.95, 1 - (g.tanAlong - t) / (2 * g.tanAlong) + 0.05);
+}

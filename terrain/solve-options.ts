@@ -10,17 +10,26 @@ export type SolvePattern = 'furrow' | 'lattice';
 
 /** The solver's settings. */
 interface SolveOptions {
-  pattern: SolvePattern;
+  /** The pattern asked for; null lets the spec decide (a lattice when it asks for views from all round). */
+  pattern: SolvePattern | null;
   /** Slowest ground speed a leg may be flown at to follow steep ground within the vertical-speed limits, m/s. */
   minSpeedMps: number;
-  /** Side overlap every pair of neighbouring lines keeps over the highest ground between them, under the attitude envelope (fraction). */
-  minSideOverlap: number;
+  /**
+   * Side overlap every pair of neighbouring lines keeps over the highest ground between them, under the attitude
+   * envelope (fraction); null lets the pattern decide (solve.ts: 0.1 for a furrow, 0.55 for a lattice).
+   */
+  minSideOverlap: number | null;
   /** Forward overlap floor along every line (fraction); the view count may ask for more. */
   minForwardOverlap: number;
   /** Heading candidates tried (the best ones of the heading advice). */
   headingCandidates: number;
   /** Rounds of checking the coverage raster and tightening where cells fall short. */
   repairRounds: number;
+  /**
+   * How far beyond the area's boundary lines may be laid, metres (0: inside only). A lattice's edge is seen from
+   * inside only unless lines fly past it; only where flying over the neighbouring ground is allowed.
+   */
+  beyondEdgeM: number;
   /** Rounds of adding spot photos over the cells the lines still leave short of the GSD (0: none). */
   spotRounds: number;
 }
@@ -33,24 +42,25 @@ function numberIn(o: Record<string, unknown>, key: string, def: number, lo: numb
 
 /**
  * The `solve` settings of a mission written by a user. Defaults (our choices, common practice rather than any
- * standard): legs may slow to a quarter of the mission's speed (at least 1 m/s); neighbouring strips overlap by
- * at least 10 % so they join under the envelope's roll; the forward floor is what the spec's view count needs.
+ * standard): legs may slow to a quarter of the mission's speed (at least 1 m/s); the side overlap floor is the
+ * pattern's (solve.ts); the forward floor is what the spec's view count needs.
  */
 export function resolveSolveOptions(input: unknown, mission: Mission): SolveOptions {
   const raw = (input as Record<string, unknown>).solve;
   check(raw === undefined || (raw !== null && typeof raw === 'object' && !Array.isArray(raw)), `solve must be an object, got ${JSON.stringify(raw)}.`);
   const o = (raw ?? {}) as Record<string, unknown>;
-  const pattern = (o.pattern ?? 'furrow') as SolvePattern;
-  check(pattern === 'furrow' || pattern === 'lattice', `solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (two sets across each other), got ${JSON.stringify(o.pattern)}.`);
+  const pattern = (o.pattern ?? null) as SolvePattern | null;
+  check(pattern === null || pattern === 'furrow' || pattern === 'lattice', `solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (two sets across each other), got ${JSON.stringify(o.pattern)}.`);
   const minSpeedMps = numberIn(o, 'minSpeedMps', Math.min(mission.speedMps, Math.max(1, mission.speedMps / 4)), 0.5, mission.speedMps);
   return {
     pattern,
     minSpeedMps,
-    minSideOverlap: numberIn(o, 'minSideOverlap', 0.1, 0, 0.9),
+    minSideOverlap: o.minSideOverlap === undefined ? null : numberIn(o, 'minSideOverlap', 0.1, 0, 0.9),
     // v views along a line need each point in v photos: a photo spacing of at most 1/v of the footprint
     minForwardOverlap: numberIn(o, 'minForwardOverlap', 0, 0, 0.95),
     headingCandidates: numberIn(o, 'headingCandidates', 3, 1, 12),
     repairRounds: numberIn(o, 'repairRounds', 4, 0, 12),
     spotRounds: Math.round(numberIn(o, 'spotRounds', 5, 0, 8)),
+    beyondEdgeM: numberIn(o, 'beyondEdgeM', 0, 0, 100),
   };
 }

@@ -6,7 +6,7 @@ import type { AttitudeEnvelope } from './attitude-envelope';
 import type { LocalFrame } from './local-frame';
 import { cellSlopesDeg, computeCoverage, type CoverageRaster } from './coverage';
 import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
-import { coverageCompliance, type Compliance, type CoverageSpec, type CoverageSettings } from './coverage-spec';
+import { coverageCompliance, specRasterOptions, type Compliance, type CoverageSpec, type CoverageSettings } from './coverage-spec';
 import { coverageFrame, planPhotos } from './coverage-photos';
 import { reachability, reachableOnly, type Reach } from './solve-reach';
 
@@ -17,7 +17,7 @@ export interface Verdict {
   compliance: Compliance;
   meets: boolean;
   /** Reachable cells that fail some item (indices into the raster's cells) with the first item they fail. */
-  failing: Array<{ cell: number; item: 'gsd' | 'views' | 'other' }>;
+  failing: Array<{ cell: number; item: 'gsd' | 'views' | 'directions' | 'other' }>;
 }
 
 /** Checks plans over one site with one spec. */
@@ -56,10 +56,11 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
     const views = raster.views[i] < spec.minViews;
     const sv = spec.maxSigmaVerticalM !== null && !(raster.sigmaVerticalM[i] <= spec.maxSigmaVerticalM);
     const sh = spec.maxSigmaHorizontalM !== null && !(raster.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM);
-    return gsd ? 'gsd' : views ? 'views' : sv || sh ? 'other' : null;
+    const dirs = spec.maxDirectionGapDeg !== null && !((raster.directionGapDeg ? raster.directionGapDeg[i] : NaN) <= spec.maxDirectionGapDeg);
+    return gsd ? 'gsd' : views ? 'views' : dirs ? 'directions' : sv || sh ? 'other' : null;
   };
   const rasterOf = (plan: PlanResult, stopAtShort: boolean) => computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, envelope).photos, {
-    cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
+    cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
     stopAt: stopAtShort ? (i, r) => shortOf(r, i) !== null : undefined,
   });
   const verdictOf = (raster: CoverageRaster): Verdict => {

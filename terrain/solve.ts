@@ -10,13 +10,14 @@ import { analysePlan, autoStepM, type AnalyseOptions } from './plan';
 import type { AltitudeLimits } from './altitude';
 import type { PlanResult } from './plan-result';
 import { resolveSolveOptions, type SolvePattern } from './solve-options';
-import { forwardOverlapForViews, viewGeometry } from './solve-geometry';
+import { forwardOverlapForSlant, forwardOverlapForViews, viewGeometry } from './solve-geometry';
 import { fitAtBestSpeed, stripLowM, type LineContext, type Strip } from './solve-line';
 import { layoutRows, rotated, type LayoutRow } from './solve-layout';
 import { placeTriggers } from './solve-triggers';
 import { flightTimeWithLegSpeedsS, legSpeedMps } from './solve-speed';
 import { makeVerifier, type Verdict, type Verifier } from './solve-verify';
 import { bestUniform, type UniformOutcome, type UniformSetting } from './solve-uniform';
+import { areaBeyond } from './area-beyond';
 import { placeSpots, spotLimits, spotLine, tourGap, tourOrder, type Spot } from './solve-spots';
 
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
@@ -26,6 +27,8 @@ interface LineChoice {
   line: number;
   /** A line of the layout, or a spot photo's short line (flown in a tour between two layout lines). */
   kind: 'line' | 'spot';
+  /** Which set of lines: 1, or 2 for the lattice's second set across the first (a spot counts with set 1). */
+  set: number;
   offsetM: number;
   spacingToNextM: number | null;
   speedMps: { min: number; max: number };
@@ -45,7 +48,7 @@ interface UnreachableGroup {
 
 /** Reachable cells the solved plan still leaves short, by spec item. */
 interface ShortGroup {
-  item: 'gsd' | 'views' | 'other';
+  item: 'gsd' | 'views' | 'directions' | 'other';
   cells: number;
   areaM2: number;
   slopeDeg: { min: number; max: number };
@@ -86,12 +89,13 @@ interface SolveOptionsArg extends AnalyseOptions {
 }
 
 interface Built {
-  plan: PlanResult; rows: LayoutRow[]; choices: LineChoice[]; flightTimeS: number;
+  /** Per set of lines (one, or two for a lattice), its rows across the area at its own heading. */
+  plan: PlanResult; rows: LayoutRow[][]; choices: LineChoice[]; flightTimeS: number;
   /** The same layout analysed with every figure (overlaps as planned and guaranteed). */
   full: () => Built;
 }
 
-/** Repairs found by checking the raster: places (cross-track) that need a lower line or more photos along. */
+/** Repairs found by checking the raster, per set of lines: places (cross-track) that need a lower line or more photos along. */
 interface Repairs { lower: number[]; views: number[] }
 
 export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}): SolvedPlan {
@@ -103,14 +107,29 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const frame = verifier.frame;
   const heights = localHeights(grid, frame);
   const area = polygonToLocal(mission.area as never, frame.toLocal);
+  // where lines are laid: the area, or the area grown by solve.beyondEdgeM (the proof stays over the area's own cells)
+  const layArea = so.beyondEdgeM > 0 ? polygonToLocal(areaBeyond(mission.area, so.beyondEdgeM) as never, frame.toLocal) : area;
   const ring = mission.area.coordinates[0];
   const lat = ring.slice(0, -1).reduce((t, p) => t + p[1], 0) / (ring.length - 1);
   const stepM = mission.stationStepM ?? autoStepM(grid, lat);
   const takeoffXY = frame.toLocal(mission.takeoff.lon, mission.takeoff.lat);
   const datum = opts.verticalDatum ? opts.verticalDatum.name : "the grid's vertical datum";
   const inputObj = input as Record<string, unknown>;
+  // the lattice: a second set of lines across the first, when asked for or when the spec asks for views from all round
+  const lattice = so.pattern === 'lattice' || (so.pattern === null && spec.maxDirectionGapDeg !== null);
+  const setCount = lattice ? 2 : 1;
+  // every point is seen from both sets of a lattice: each set carries half the views the spec asks for
+  const viewsPerSet = lattice ? Math.ceil(Math.max(1, spec.minViews) / 2) : Math.max(1, spec.minViews);
+  // the side overlap floor: a furrow's strips need only join (10 %) under the envelope's roll; a lattice's point
+  // straight under a line must also be seen, slanting, by the lines either side, so neighbours are at most 0.9 of
+  // a half strip apart (55 %): with the spacing of a furrow, 13 % of the demo's cells were seen from too few sides
+  // at 15° from the vertical, with 55 % under 2 % (our measurement; tests/terrain/solve-lattice.test.ts)
+  const sideFloor = so.minSideOverlap ?? (lattice ? 0.55 : 0.1);
+  // along a lattice's lines the same: each point seen from ahead and behind at the spec's slant (null: the spec asks
+  // for none, or the camera's half-angle along the track is too narrow for it and the raster shows what is left)
+  const slantForward = lattice && spec.maxDirectionGapDeg !== null ? forwardOverlapForSlant(geometry, spec.obliqueDeg) : null;
   const baseHalf = geometry.specHeightM * geometry.tanAcross;
-  const nominalS = 2 * baseHalf * (1 - so.minSideOverlap);
+  const nominalS = 2 * baseHalf * (1 - sideFloor);
   // heading candidates: the advice's best headings under the solver's nominal spacing
   let headings: number[];
   let headingWhy: string;
@@ -127,36 +146,50 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     }
     headingWhy = `candidates ${headings.map((h) => `${h}°`).join(', ')} (the least spread of height above ground in the heading advice)`;
   }
-  const build = (headingDeg: number, rep: Repairs, spots: Spot[] = []): Built => {
-    const ctx: LineContext = { area, headingDeg, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
+  const build = (headingDeg: number, reps: Repairs[], spots: Spot[] = []): Built => {
     const near = (list: number[], c: number) => list.filter((v) => Math.abs(v - c) <= nominalS / 2).length;
-    const factorAt = (c: number) => 0.97 * 0.92 ** near(rep.lower, c);
-    const viewsAt = (c: number) => Math.max(1, spec.minViews) + near(rep.views, c);
-    const rows = layoutRows(ctx, factorAt, so.minSideOverlap);
-    const offsets = rows.map((r) => r.offsetM);
-    const laid = planFlightLines(area, { headingDeg, lineSpacingM: nominalS, triggerDistanceM: Math.max(5, baseHalf), runInM: mission.runInM, offsetsM: offsets, takeoff: takeoffXY });
+    const lines: FlightLine[] = [];
+    const rowsBySet: LayoutRow[][] = [];
     const limitsBy = new Map<FlightLine, AltitudeLimits>();
     const stripBy = new Map<FlightLine, Strip>();
-    const info: Array<{ line: FlightLine; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean; spot?: Spot }> = [];
-    const lines = laid.map((l) => {
-      const row = offsets.findIndex((c) => Math.abs(c - l.offsetM) < 1e-6);
-      const factor = factorAt(l.offsetM);
-      // strip sides in the flying direction: a line flown against the layout heading has its neighbours swapped
-      const lower = row > 0 ? (offsets[row] - offsets[row - 1]) / 2 : baseHalf;
-      const upper = row + 1 < offsets.length ? (offsets[row + 1] - offsets[row]) / 2 : baseHalf;
-      const d = (((l.headingDeg - headingDeg) % 360) + 360) % 360;
-      const along = d < 90 || d > 270;
-      const belowM = along ? lower : upper, aboveM = along ? upper : lower;
-      const fitted = fitAtBestSpeed(ctx, l, factor, { belowM, aboveM });
-      const views = viewsAt(l.offsetM);
-      const fwd = forwardOverlapForViews(views, so.minForwardOverlap);
-      const trig = placeTriggers(l, fitted.x, fitted.fit.altitudeM, heights, { belowM, aboveM }, geometry.tanAlong, fwd, 2 * geometry.specHeightM * factor * geometry.tanAlong);
-      const line: FlightLine = { ...l, stationsM: trig.stationsM };
-      limitsBy.set(line, fitted.limits);
-      stripBy.set(line, { belowM, aboveM });
-      info.push({ line, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length });
-      return line;
-    });
+    const ctxBy = new Map<FlightLine, LineContext>();
+    const info: Array<{ line: FlightLine; set: number; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean; spot?: Spot }> = [];
+    // the second set starts where the first ends
+    let startNear: [number, number] = takeoffXY;
+    for (let set = 0; set < setCount; set++) {
+      const setHeading = (headingDeg + 90 * set) % 360;
+      const rep = reps[set] ?? { lower: [], views: [] };
+      const ctx: LineContext = { area: layArea, headingDeg: setHeading, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
+      const factorAt = (c: number) => 0.97 * 0.92 ** near(rep.lower, c);
+      const viewsAt = (c: number) => viewsPerSet + near(rep.views, c);
+      const rows = layoutRows(ctx, factorAt, sideFloor);
+      rowsBySet.push(rows);
+      const offsets = rows.map((r) => r.offsetM);
+      const laid = planFlightLines(layArea, { headingDeg: setHeading, lineSpacingM: nominalS, triggerDistanceM: Math.max(5, baseHalf), runInM: mission.runInM, offsetsM: offsets, takeoff: startNear });
+      for (const l of laid) {
+        const row = offsets.findIndex((c) => Math.abs(c - l.offsetM) < 1e-6);
+        const factor = factorAt(l.offsetM);
+        // strip sides in the flying direction: a line flown against the layout heading has its neighbours swapped
+        const lower = row > 0 ? (offsets[row] - offsets[row - 1]) / 2 : baseHalf;
+        const upper = row + 1 < offsets.length ? (offsets[row + 1] - offsets[row]) / 2 : baseHalf;
+        const d = (((l.headingDeg - setHeading) % 360) + 360) % 360;
+        const along = d < 90 || d > 270;
+        const belowM = along ? lower : upper, aboveM = along ? upper : lower;
+        const fitted = fitAtBestSpeed(ctx, l, factor, { belowM, aboveM });
+        const views = viewsAt(l.offsetM);
+        const fwd = Math.max(forwardOverlapForViews(views, so.minForwardOverlap), slantForward ?? 0);
+        const trig = placeTriggers(l, fitted.x, fitted.fit.altitudeM, heights, { belowM, aboveM }, geometry.tanAlong, fwd, 2 * geometry.specHeightM * factor * geometry.tanAlong);
+        const line: FlightLine = { ...l, index: lines.length, stationsM: trig.stationsM };
+        limitsBy.set(line, fitted.limits);
+        stripBy.set(line, { belowM, aboveM });
+        ctxBy.set(line, ctx);
+        info.push({ line, set, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length });
+        lines.push(line);
+      }
+      if (lines.length > 0) startNear = lines[lines.length - 1].end;
+    }
+    const rows = rowsBySet[0];
+    const ctx: LineContext = { area: layArea, headingDeg, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
     // spot photos as one tour between two lines of the layout (both ends high: the transits to and from the tour
     // are flown at the lines' altitude), in the gap where its transits keep the clearance at the least detour
     if (spots.length > 0 && lines.length > 0) {
@@ -173,7 +206,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       const spotLines = ordered.map((sp) => {
         const line = spotLine(sp, rot.c(sp.x, sp.y));
         limitsBy.set(line, spotLimits(sp, mission));
-        return { line, info: { line, row: -1, fitSpeed: mission.speedMps, slowedForM: 0, factor: sp.heightM / geometry.specHeightM, trig: { stationsM: line.stationsM, minM: 0, maxM: 0, tightestGroundM: sp.groundM, tightestAtM: 0 }, fwd: 0, views: 1, plannable: Number.isFinite(sp.groundM), spot: sp } };
+        return { line, info: { line, set: 0, row: -1, fitSpeed: mission.speedMps, slowedForM: 0, factor: sp.heightM / geometry.specHeightM, trig: { stationsM: line.stationsM, minM: 0, maxM: 0, tightestGroundM: sp.groundM, tightestAtM: 0 }, fwd: 0, views: 1, plannable: Number.isFinite(sp.groundM), spot: sp } };
       });
       const all = [...info.slice(0, gap + 1), ...spotLines.map((q) => q.info), ...info.slice(gap + 1)];
       lines.length = 0;
@@ -181,18 +214,19 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       // renumbered in flying order; the maps are keyed by the line objects
       all.forEach((it, k) => {
         const line = { ...it.line, index: k };
-        const lim = limitsBy.get(it.line), strip = stripBy.get(it.line);
+        const lim = limitsBy.get(it.line), strip = stripBy.get(it.line), lc = ctxBy.get(it.line);
         if (lim) limitsBy.set(line, lim);
         if (strip) stripBy.set(line, strip);
+        if (lc) ctxBy.set(line, lc);
         lines.push(line);
         info.push({ ...it, line });
       });
     }
     // the analysed mission's GSD band is the spec's (finer is never a fault), so station flags speak of the spec
     const finish = (overlaps: boolean): Built => {
-      const plan = analysePlan(grid, { ...inputObj, headingDeg, mode: 'follow', targetGsdCm: spec.maxGsdCm / 1.5, gsdTolerance: 0.5, forwardOverlap: Math.min(0.95, forwardOverlapForViews(spec.minViews, so.minForwardOverlap)), sideOverlap: so.minSideOverlap }, {
+      const plan = analysePlan(grid, { ...inputObj, headingDeg, mode: 'follow', targetGsdCm: spec.maxGsdCm / 1.5, gsdTolerance: 0.5, forwardOverlap: Math.min(0.95, forwardOverlapForViews(spec.minViews, so.minForwardOverlap)), sideOverlap: sideFloor }, {
         verticalDatum: opts.verticalDatum, lines, limitsFor: (line, lim) => limitsBy.get(line) ?? lim,
-        bandGroundFor: (line, x) => { const s = stripBy.get(line); const lim = limitsBy.get(line); return s && lim ? stripLowM(ctx, line, x, s, lim.bandHighM) : undefined; },
+        bandGroundFor: (line, x) => { const s = stripBy.get(line); const lim = limitsBy.get(line); return s && lim ? stripLowM(ctxBy.get(line) ?? ctx, line, x, s, lim.bandHighM) : undefined; },
         overlaps,
       });
       const kept = info.filter((i) => i.plannable);
@@ -207,7 +241,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
           const d = st.slice(1).map((v2, k) => v2 - st[k]);
           if (d.length) g.triggerDistanceM = { min: round(Math.min(...d), 2), max: round(Math.max(...d), 2) };
         }
-        const row = it ? rows[it.row] : undefined;
+        const row = it && !it.spot ? rowsBySet[it.set][it.row] : undefined;
         const reasons: string[] = [];
         const sp = it?.spot;
         if (sp) {
@@ -216,10 +250,11 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
           reasons.push(`spot photo straight above ground sloping ${round(sp.slopeDeg, 0)}° at ${round(sp.groundM, 1)} m above ${datum} (lon ${round(lon, 6)}, lat ${round(lat2, 6)}): the layout's photos see ${sp.cells} cell${sp.cells === 1 ? '' : 's'} here no finer than the spec's ${spec.maxGsdCm} cm. ${round(sp.heightM, 1)} m above the ground gives about ${round(gsdAt, 2)} cm along the slope (height × pixel pitch / focal length / cos slope), never below the ${mission.clearanceM + mission.obstacleAllowanceM} m clearance and allowance; the aircraft stops, takes one photo and moves on.`);
         } else if (it && row) {
           const nx = row.next;
-          const rowNo = (r: number) => { const k = kept.findIndex((q) => q.row === r); return k >= 0 ? k + 1 : null; };
+          const rowNo = (r: number) => { const k = kept.findIndex((q) => !q.spot && q.set === it.set && q.row === r); return k >= 0 ? k + 1 : null; };
+          if (setCount > 1) reasons.push(it.set === 0 ? `first set of the lattice, flown at ${headingDeg}°.` : `second set of the lattice, across the first at ${(headingDeg + 90) % 360}°: every point is seen from four sides, not two.`);
           if (nx) {
             const [lon, lat2] = frame.toLonLat(nx.atX, nx.atY);
-            reasons.push(`ground at ${round(nx.groundM, 1)} m above ${datum} between lines ${li + 1} and ${rowNo(it.row + 1) ?? '?'} (lon ${round(lon, 5)}, lat ${round(lat2, 5)}) leaves ${round(nx.halfLeftM, 1)} m and ${round(nx.halfRightM, 1)} m of footprint either side under the ${geometry.rollDeg}° roll: ${round(nx.spacingM, 1)} m spacing keeps the ${round(so.minSideOverlap * 100, 0)} % side overlap floor${nx.held ? '' : ' (not held after 7 tries: the raster check decides)'}.`);
+            reasons.push(`ground at ${round(nx.groundM, 1)} m above ${datum} between lines ${li + 1} and ${rowNo(it.row + 1) ?? '?'} (lon ${round(lon, 5)}, lat ${round(lat2, 5)}) leaves ${round(nx.halfLeftM, 1)} m and ${round(nx.halfRightM, 1)} m of footprint either side under the ${geometry.rollDeg}° roll: ${round(nx.spacingM, 1)} m spacing keeps the ${round(sideFloor * 100, 0)} % side overlap floor${nx.held ? '' : ' (not held after 7 tries: the raster check decides)'}.`);
           } else reasons.push('last line of the layout: its footprint reaches the area\'s far edge.');
           reasons.push(`altitude legs under ${round(it.factor * geometry.specHeightM, 1)} m above ground (${round(it.factor * 100, 0)} % of the ${round(geometry.specHeightM, 1)} m that gives the spec's ${spec.maxGsdCm} cm GSD), never below the ${mission.clearanceM + mission.obstacleAllowanceM} m clearance and allowance, under the ${mission.maxAglM} m height limit.`);
           if (it.fitSpeed < mission.speedMps - 1e-9) reasons.push(`at ${mission.speedMps} m/s the climb/descent limits (${mission.climbMps}/${mission.descentMps} m/s) miss the GSD band over ${round(it.slowedForM, 0)} m of this line; legs were fitted for ${round(it.fitSpeed, 2)} m/s (gradients ${round(mission.climbMps / it.fitSpeed, 3)} up, ${round(mission.descentMps / it.fitSpeed, 3)} down) and each flies as fast as its own gradient allows (${round(vMin, 2)}–${round(vMax, 2)} m/s).`);
@@ -227,48 +262,51 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
           reasons.push(`photos every ${round(it.trig.minM, 1)}–${round(it.trig.maxM, 1)} m: ${round(it.fwd * 100, 0)} % forward overlap (${it.views} views along the line) over the highest ground under each photo; the tightest where ground reaches ${round(it.trig.tightestGroundM, 1)} m above ${datum}, ${round(it.trig.tightestAtM, 0)} m along.`);
         }
         return {
-          line: li + 1, kind: sp ? 'spot' : 'line', offsetM: it ? round(it.line.offsetM, 2) : NaN, spacingToNextM: row?.next ? round(row.next.spacingM, 2) : null,
+          line: li + 1, kind: sp ? 'spot' : 'line', set: it ? it.set + 1 : 1, offsetM: it ? round(it.line.offsetM, 2) : NaN, spacingToNextM: row?.next ? round(row.next.spacingM, 2) : null,
           speedMps: { min: round(vMin, 2), max: round(vMax, 2) },
           triggerDistanceM: { min: it ? round(it.trig.minM, 2) : 0, max: it ? round(it.trig.maxM, 2) : 0 },
           legs: pl.legs.length, reasons,
         };
       });
       const flightTimeS = flightTimeWithLegSpeedsS(plan, mission);
-      const out: Built = { plan, rows, choices, flightTimeS, full: () => (overlaps ? out : finish(true)) };
+      const out: Built = { plan, rows: rowsBySet, choices, flightTimeS, full: () => (overlaps ? out : finish(true)) };
       return out;
     };
     // candidates are analysed without overlaps (no choice reads them: the raster decides), the chosen one in full
     return finish(opts.candidatesInFull ?? false);
   };
   // 1. heading: the candidate whose layout flies fastest
-  const none: Repairs = { lower: [], views: [] };
+  const none = (): Repairs[] => Array.from({ length: setCount }, () => ({ lower: [], views: [] }));
   let headingDeg = headings[0];
-  let built = build(headingDeg, none);
+  let built = build(headingDeg, none());
   const tried: string[] = [`${headingDeg}°: ${round(built.flightTimeS, 0)} s`];
   for (const h of headings.slice(1)) {
-    const b = build(h, none);
+    const b = build(h, none());
     tried.push(`${h}°: ${round(b.flightTimeS, 0)} s`);
     if (b.flightTimeS < built.flightTimeS) { built = b; headingDeg = h; }
   }
-  // 2. prove, and tighten where reachable cells fall short
-  const rot = rotated(headingDeg);
-  const rep: Repairs = { lower: [], views: [] };
+  // 2. prove, and tighten where reachable cells fall short: in each set, the row nearest the short cell
+  const rots = Array.from({ length: setCount }, (_, set) => rotated((headingDeg + 90 * set) % 360));
+  const rep = none();
   let verdict: Verdict = verifier.check(built.plan);
   let rounds = 0;
-  const snapshot = (r: Repairs): Repairs => ({ lower: [...r.lower], views: [...r.views] });
+  const snapshot = (r: Repairs[]): Repairs[] => r.map((q) => ({ lower: [...q.lower], views: [...q.views] }));
   let best = { built, verdict, rep: snapshot(rep) };
   while (!verdict.meets && rounds < so.repairRounds) {
     rounds++;
-    const offsets = built.rows.map((r) => r.offsetM);
-    const hitLower = new Set<number>(), hitViews = new Set<number>();
-    for (const f of verdict.failing) {
-      const c = rot.c(cellX(verifier.cells, f.cell), cellY(verifier.cells, f.cell));
-      let k = 0;
-      for (let j = 1; j < offsets.length; j++) if (Math.abs(offsets[j] - c) < Math.abs(offsets[k] - c)) k = j;
-      (f.item === 'gsd' ? hitLower : hitViews).add(k);
+    for (let set = 0; set < setCount; set++) {
+      const offsets = built.rows[set].map((r) => r.offsetM);
+      const hitLower = new Set<number>(), hitViews = new Set<number>();
+      for (const f of verdict.failing) {
+        const c = rots[set].c(cellX(verifier.cells, f.cell), cellY(verifier.cells, f.cell));
+        let k = 0;
+        for (let j = 1; j < offsets.length; j++) if (Math.abs(offsets[j] - c) < Math.abs(offsets[k] - c)) k = j;
+        // too few views, or too few sides: more photos along the nearest rows
+        (f.item === 'gsd' ? hitLower : hitViews).add(k);
+      }
+      for (const k of hitLower) rep[set].lower.push(offsets[k]);
+      for (const k of hitViews) rep[set].views.push(offsets[k]);
     }
-    for (const k of hitLower) rep.lower.push(offsets[k]);
-    for (const k of hitViews) rep.views.push(offsets[k]);
     built = build(headingDeg, rep);
     verdict = verifier.check(built.plan);
     if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict, rep: snapshot(rep) };
@@ -282,7 +320,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   let spots: Spot[] = [];
   let spotRounds = 0;
   while (!verdict.meets && spotRounds < so.spotRounds) {
-    const short = verdict.failing.filter((f) => f.item !== 'other').map((f) => ({ x: cellX(verifier.cells, f.cell), y: cellY(verifier.cells, f.cell), z: verifier.cells.z[f.cell], slopeDeg: verifier.reach.slopeDeg[f.cell], finestGsdCm: verdict.raster.finestGsdCm[f.cell], item: f.item === 'gsd' ? 'gsd' as const : 'views' as const }));
+    const short = verdict.failing.filter((f) => f.item === 'gsd' || f.item === 'views').map((f) => ({ x: cellX(verifier.cells, f.cell), y: cellY(verifier.cells, f.cell), z: verifier.cells.z[f.cell], slopeDeg: verifier.reach.slopeDeg[f.cell], finestGsdCm: verdict.raster.finestGsdCm[f.cell], item: f.item === 'gsd' ? 'gsd' as const : 'views' as const }));
     if (short.length === 0) break;
     spotRounds++;
     const added = placeSpots(short, geometry, mission, 0.95, spots, heights.heightAt, headingDeg);
@@ -342,13 +380,14 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const bestUni = meetingUniform ? meetingUniform.flightTimeS : null;
   return {
     ...plan,
-    pattern: 'furrow', // the only pattern built so far; choices.pattern says so when lattice was asked for
+    pattern: lattice ? 'lattice' : 'furrow',
     choices: {
       headingDeg,
       heading: `${headingDeg}° flies fastest of ${headingWhy}: ${tried.join(', ')}.`,
-      pattern: so.pattern === 'furrow'
-        ? 'furrow: one set of parallel lines, nadir camera (mapping).'
-        : 'lattice was asked for, but only the furrow pattern (one set of parallel lines) is built so far: this is a furrow plan.',
+      pattern: (lattice
+        ? `lattice: a second set of parallel lines across the first (${headingDeg}° and ${(headingDeg + 90) % 360}°), nadir camera, each set with half the spec's views (${viewsPerSet}), so every point is seen from four sides${so.pattern === 'lattice' ? ' (the mission asks for it)' : ` (the spec asks for views from all round: no gap over ${spec.maxDirectionGapDeg}° between views at least ${spec.obliqueDeg}° from the vertical)`}.`
+        : `furrow: one set of parallel lines, nadir camera (mapping)${spec.maxDirectionGapDeg !== null ? '; the mission asks for it although the spec asks for views from all round, which one set seldom gives (the proof shows where)' : ''}.`)
+        + (so.beyondEdgeM > 0 ? ` Lines are laid up to ${so.beyondEdgeM} m beyond the area's boundary (solve.beyondEdgeM), so ground at the edge is seen from outside too: fly there only where that is allowed.` : ''),
       lines: choiceLines,
       fallback,
       summary: fallback
@@ -361,7 +400,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       shareReachableMeeting: round(verdict.compliance.shareAll, 6), meets: verdict.meets,
       items: verdict.compliance.items.map((it) => ({ item: it.item, asks: it.asks, share: round(it.share, 6) })),
       shortCells: verdict.failing.length,
-      short: shortGroups(verifier, verdict, spec.maxGsdCm, rounds),
+      short: shortGroups(verifier, verdict, spec.maxGsdCm, rounds, so.beyondEdgeM),
       basis: envelope ? 'coverage raster of the solved plan, guaranteed under the attitude envelope' : 'coverage raster of the solved plan, as planned (no attitude envelope in the mission)',
     },
     comparison: {
@@ -375,9 +414,9 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
 }
 
 /** Short cells grouped by item, with the slopes under them. */
-function shortGroups(v: Verifier, verdict: Verdict, maxGsdCm: number, rounds: number): ShortGroup[] {
+function shortGroups(v: Verifier, verdict: Verdict, maxGsdCm: number, rounds: number, beyondEdgeM: number): ShortGroup[] {
   const out: ShortGroup[] = [];
-  for (const item of ['gsd', 'views', 'other'] as const) {
+  for (const item of ['gsd', 'views', 'directions', 'other'] as const) {
     const cells = verdict.failing.filter((f) => f.item === item).map((f) => f.cell);
     if (cells.length === 0) continue;
     let sx = 0, sy = 0, lo = Infinity, hi = -Infinity, worst = 0;
@@ -397,6 +436,7 @@ function shortGroups(v: Verifier, verdict: Verdict, maxGsdCm: number, rounds: nu
       message: item === 'gsd'
         ? `no view at or finer than ${maxGsdCm} cm after ${rounds} tightening rounds (finest there up to ${Number.isFinite(worst) ? `${round(worst, 2)} cm` : 'none'}) on ground sloping ${round(lo, 0)}–${round(hi, 0)}°${steep ? ': steep faces that nadir photos from lines beside them see too obliquely; a line straight over the face or a tilted camera is needed' : ''}.`
         : item === 'views' ? `fewer views than the spec asks after ${rounds} tightening rounds (terrain hides them, or the strip edges under the envelope).`
+          : item === 'directions' ? `seen from too few sides after ${rounds} tightening rounds: the oblique views leave a wider gap between their directions than the spec allows (near the area's edge a point has lines on one side only${beyondEdgeM > 0 ? '' : ': solve.beyondEdgeM lets lines fly past the edge where flying over the neighbouring ground is allowed'}; terrain can hide one side).`
           : `the advisory σ items are not met here after ${rounds} rounds (the solver does not steer by them).`,
     });
   }

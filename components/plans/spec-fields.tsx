@@ -1,6 +1,6 @@
 /**
  * The client's spec for every ground cell and the attitude the aircraft really flies: what the ground proof checks
- * (maximum GSD, views per point, optional precision) and the envelope it must hold under (roll, pitch, wind). Left
+ * (maximum GSD, views per point, optional precision and views from all round) and the envelope it must hold under (roll, pitch, wind). Left
  * empty, an item takes the mission's default (the GSD band's coarse end, 2 views) or the preset's value.
  */
 import { useController, useWatch, type Control, type UseFormSetValue } from 'react-hook-form';
@@ -43,6 +43,8 @@ export function SpecFields({ control, setValue, readOnly }: Props) {
       <FieldCell><NumberField control={control} name="mission.spec.maxGsdCm" label="Finest view no coarser than" unit="cm" hint="Every cell needs a view at or finer than this GSD." testID="plan-spec-gsd" disabled={readOnly} /></FieldCell>
       <FieldCell><NumberField control={control} name="mission.spec.minViews" label="Views per point, at least" testID="plan-spec-views" hint="Photos that see each cell; 5 or more is usual for surveys (common practice)." disabled={readOnly} /></FieldCell>
       <FieldCell><NumberField control={control} name="mission.spec.maxSigmaVerticalM" label="Height precision, σ no more than" unit="m" hint="Optional; advisory, from the rays' geometry." testID="plan-spec-sigma" disabled={readOnly} /></FieldCell>
+      <FieldCell><NumberField control={control} name="mission.spec.maxDirectionGapDeg" label="Seen from all round: widest gap" unit="°" hint="Optional, for 3D: the widest gap between the directions of a cell's slanting views (90° is four sides, 180° two). Loftline then flies a second set of lines across the first." testID="plan-spec-direction-gap" disabled={readOnly} /></FieldCell>
+      <FieldCell><NumberField control={control} name="mission.spec.obliqueDeg" label="A slanting view is at least" unit="° from vertical" hint="Empty: 30°." testID="plan-spec-oblique" disabled={readOnly} /></FieldCell>
       <FieldCell wide>
         <View style={styles.stack}>
           <Text variant="label">Attitude the proof must hold under</Text>
@@ -79,6 +81,9 @@ export function SpecFields({ control, setValue, readOnly }: Props) {
           </Text>
         </View>
       </FieldCell>
+      {solver ? (
+        <FieldCell><NumberField control={control} name="mission.solve.beyondEdgeM" label="Lines may fly past the edge by" unit="m" hint="Empty: 0, lines stay over the area. Only where flying over the neighbouring ground is allowed: edge ground is then seen from outside too." testID="plan-solve-beyond" disabled={readOnly} /></FieldCell>
+      ) : null}
       {defaults ? (
         <>
           <FieldCell><NumberField control={control} name="mission.envelope.rollDeg" label="Roll, up to ±" unit="°" hint={`Empty: ${defaults.rollDeg}°.`} testID="plan-envelope-roll" disabled={readOnly} /></FieldCell>

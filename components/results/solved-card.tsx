@@ -20,6 +20,8 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
   const c = s.comparison;
   const lines = all ? s.choices.lines : s.choices.lines.slice(0, FIRST_LINES);
   const spots = s.choices.lines.filter((l) => l.kind === 'spot').length;
+  // a lattice's second set of lines, across the first
+  const secondSet = s.choices.lines.filter((l) => l.kind === 'line' && l.set === 2).length;
   return (
     <Card testID="solved-card">
       <Heading level={2}>How Loftline laid the lines out</Heading>
@@ -36,7 +38,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
           { key: 'solved', label: 'Flight time, solved', value: formatDuration(c.solvedFlightTimeS) },
           { key: 'uniform', label: 'Best uniform setting tried', value: c.bestUniformFlightTimeS === null ? 'none meets the spec' : formatDuration(c.bestUniformFlightTimeS) },
           { key: 'ratio', label: 'Solved ÷ uniform', value: c.ratio === null ? '–' : c.ratio.toFixed(2) },
-          { key: 'lines', label: 'Lines', value: String(s.choices.lines.length - spots) },
+          { key: 'lines', label: secondSet ? 'Lines (first set + second set across it)' : 'Lines', value: secondSet ? `${s.choices.lines.length - spots - secondSet} + ${secondSet}` : String(s.choices.lines.length - spots) },
           { key: 'spots', label: 'Spot photos (one photo straight above short ground)', value: String(spots) },
         ]}
       />
@@ -59,7 +61,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
         <Heading level={3}>Why each line is where it is</Heading>
         {lines.map((l) => (
           <View key={l.line} style={styles.line}>
-            <Text variant="bodyStrong">Line {l.line}{l.kind === 'spot' ? ' · spot photo' : ''}</Text>
+            <Text variant="bodyStrong">Line {l.line}{l.kind === 'spot' ? ' · spot photo' : secondSet ? ` · set ${l.set}` : ''}</Text>
             <BulletList items={l.reasons} />
           </View>
         ))}

@@ -6,8 +6,7 @@ import { analyseAsFlown, maskPatches } from '../../terrain/as-flown';
 import { computeCoverage } from '../../terrain/coverage';
 import { cellX, cellY, coverageLayout, gridCellM } from '../../terrain/coverage-grid';
 import { planPhotos } from '../../terrain/coverage-photos';
-import { resolveCoverageInput } from '../../terrain/coverage-spec';
-import { cellMeetsSpec } from '../../terrain/as-flown';
+import { cellMeetsSpec, resolveCoverageInput, specRasterOptions } from '../../terrain/coverage-spec';
 import { coverageLayers, maskPng } from '../../terrain/coverage-layer';
 import type { FlownPhoto } from '../../terrain/as-flown-match';
 import { missionBboxWgs84, readDem, WGS84, type PlanResult } from '../../terrain/index';
@@ -42,7 +41,7 @@ export async function analyseLiveCoverage(bytes: Uint8Array, input: unknown, pla
   const upTo = (line: number, station: number) => progress !== null && (line < progress.line || (line === progress.line && station <= progress.station));
   // the planned stations up to the progress, in flying order (plan lines are in flying order, stations along each)
   const soFarPlan: PlanResult = { ...plan, lines: plan.lines.map((l, li) => ({ ...l, stations: l.stations.filter((_, si) => upTo(li + 1, si + 1)) })) };
-  const opts = { cellM, maxCells: settings.maxCells, specGsdCm: spec.maxGsdCm, imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion };
+  const opts = { cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope: null, occlusion: settings.occlusion };
   const soFar = computeCoverage(grid, a.frame, mission.area, mission.camera, planPhotos(soFarPlan, a.frame, null).photos, opts);
   const { cells } = a.flown;
   const total = cells.width * cells.height;

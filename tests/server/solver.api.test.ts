@@ -77,12 +77,12 @@ describe('plans laid out by the solver', () => {
     for (const sp of speeds) expect(legSpeeds).toContain(sp);
   });
 
-  it('refuses a pattern that is not built, saying which is', async () => {
-    const input = { ...JSON.parse(fs.readFileSync(EXAMPLE_MISSION, 'utf8')), layoutBy: 'solver', solve: { pattern: 'lattice' } };
+  it('refuses a pattern it does not know, naming the ones it does', async () => {
+    const input = { ...JSON.parse(fs.readFileSync(EXAMPLE_MISSION, 'utf8')), layoutBy: 'solver', solve: { pattern: 'spiral' } };
     const site = (await team.clients.planner.get(`/api/teams/${team.teamId}/projects/${ids.projectId}/sites`)).body.sites[0];
-    const r = await team.clients.planner.post(`/api/teams/${team.teamId}/projects/${ids.projectId}/plans`, { name: 'Lattice', siteId: site.id, input });
+    const r = await team.clients.planner.post(`/api/teams/${team.teamId}/projects/${ids.projectId}/plans`, { name: 'Spiral', siteId: site.id, input });
     expect(r.status).toBe(422);
     expect(r.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['input.solve.pattern']);
-    expect(r.body.error.message).toContain('"lattice" is not available yet');
+    expect(r.body.error.message).toContain('solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (a second set across the first)');
   });
 });

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { cellX, cellY } from '../../terrain/coverage-grid';
 import { simulateFlight, type SimulatedFlight } from './as-flown-flight';
-import { analyseAsFlown, cellMeetsSpec, maskPatches, type AsFlown } from '../../terrain/as-flown';
+import { analyseAsFlown, maskPatches, type AsFlown } from '../../terrain/as-flown';
+import { cellMeetsSpec } from '../../terrain/coverage-spec';
 import { altitudeInGridDatumM, matchPhotos, plannedAltitudeAtM } from '../../terrain/as-flown-match';
 import { computeCoverage } from '../../terrain/coverage';
 import { resolveCoverageInput, type CoverageSpec } from '../../terrain/coverage-spec';

@@ -29,7 +29,7 @@ describe('compliance of a coverage raster with the spec', () => {
     r.finestGsdCm[at(0, 3)] = 3; r.finestGsdCm[at(0, 4)] = 3.4; r.finestGsdCm[at(0, 5)] = NaN;
     // the cell outside the area fails everything but is not counted
     r.views[0] = 0; r.finestGsdCm[0] = NaN;
-    const c = coverageCompliance(r, { maxGsdCm: 2.5, minViews: 5, maxSigmaVerticalM: null, maxSigmaHorizontalM: null });
+    const c = coverageCompliance(r, { maxGsdCm: 2.5, minViews: 5, maxSigmaVerticalM: null, maxSigmaHorizontalM: null, maxDirectionGapDeg: null, obliqueDeg: 30 });
     expect(c.cellsInArea).toBe(23);
     expect(c.areaM2).toBe(92);
     const item = (name: string) => c.items.find((it) => it.item === name)!;
@@ -56,7 +56,7 @@ describe('compliance of a coverage raster with the spec', () => {
     const r = raster();
     r.cells.z[7] = NaN;
     r.sigmaVerticalM[10] = 0.05;
-    const c = coverageCompliance(r, { maxGsdCm: 2.5, minViews: 5, maxSigmaVerticalM: 0.02, maxSigmaHorizontalM: null });
+    const c = coverageCompliance(r, { maxGsdCm: 2.5, minViews: 5, maxSigmaVerticalM: 0.02, maxSigmaHorizontalM: null, maxDirectionGapDeg: null, obliqueDeg: 30 });
     expect(c.items.map((it) => it.item)).toEqual(['gsd', 'views', 'sigma-vertical', 'ground-unknown']);
     expect(c.patches.map((p) => p.reason).sort()).toEqual(['ground-unknown', 'sigma-vertical']);
     expect(c.patches.find((p) => p.reason === 'sigma-vertical')!.worst).toBeCloseTo(0.05, 6);
@@ -69,7 +69,7 @@ describe('compliance of a coverage raster with the spec', () => {
       targetGsdCm: 2.5, takeoff: { lon: 4.48, lat: 46.76 },
     };
     const plain = resolveCoverageInput(base, resolveMission(base));
-    expect(plain.spec).toEqual({ maxGsdCm: 2.5 * 1.1, minViews: 2, maxSigmaVerticalM: null, maxSigmaHorizontalM: null });
+    expect(plain.spec).toEqual({ maxGsdCm: 2.5 * 1.1, minViews: 2, maxSigmaVerticalM: null, maxSigmaHorizontalM: null, maxDirectionGapDeg: null, obliqueDeg: 30 });
     expect(plain.envelope).toBeNull();
     expect(plain.settings).toEqual({ cellM: null, maxCells: 4_000_000, imageErrorPx: 0.5, occlusion: true });
     const fw = { ...base, envelope: { preset: 'fixed-wing', windMps: 7, rollDeg: 10 } };

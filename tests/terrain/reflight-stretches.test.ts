@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { booleanPointInPolygon, point, polygon, lineString, pointToLineDistance, polygonToLine } from '@turf/turf';
 import { simulateFlight } from './as-flown-flight';
-import { analyseAsFlown, cellMeetsSpec } from '../../terrain/as-flown';
+import { analyseAsFlown } from '../../terrain/as-flown';
+import { cellMeetsSpec } from '../../terrain/coverage-spec';
 import { resolveCoverageInput } from '../../terrain/coverage-spec';
 import { MIN_REFLIGHT_PATCH_SHARE, planReflight } from '../../terrain/reflight';
 import { cameraToLocal, castPixel } from '../../terrain/footprint';

@@ -10,7 +10,7 @@ import { syntheticSite } from './coverage-site';
 
 // A 1-inch-type survey camera (13.2 x 8.8 mm, 8.8 mm lens, 5472 x 3648 px), as in the demo mission.
 const camera = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
-const spec = { maxGsdCm: 2.5, minViews: 1, maxSigmaVerticalM: null, maxSigmaHorizontalM: null };
+const spec = { maxGsdCm: 2.5, minViews: 1, maxSigmaVerticalM: null, maxSigmaHorizontalM: null, maxDirectionGapDeg: null, obliqueDeg: 30 };
 const DEG = Math.PI / 180;
 
 function missionOn(site: ReturnType<typeof syntheticSite>) {
