@@ -52,6 +52,8 @@ const sheetLineSchema = z.object({
   lengthM: n,
   timeS: n,
   photoCount: z.number().int(),
+  /** Camera tilt on its mount towards the nose, degrees from straight down; absent: straight down. */
+  cameraTiltDeg: n.optional(),
   start: lonLat,
   end: lonLat,
   legs: z.array(sheetLegSchema),

@@ -12,9 +12,10 @@ const int32 = z.number().int().min(-2147483648).max(2147483647);
 
 /**
  * What an item does in the plan (our names); `home` is the placeholder the link adds for autopilots that keep home
- * as item 0; `transit` holds the flight between two lines at the higher of their two altitudes.
+ * as item 0; `transit` holds the flight between two lines at the higher of their two altitudes; `camera-tilt` points
+ * the gimbal for a line of oblique capture (and back straight down before the return).
  */
-const missionItemKinds = ['home', 'takeoff', 'transit', 'line-start', 'speed', 'first-photo', 'camera-on', 'camera-spacing', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
+const missionItemKinds = ['home', 'takeoff', 'transit', 'camera-tilt', 'line-start', 'speed', 'first-photo', 'camera-on', 'camera-spacing', 'leg-change', 'line-end', 'camera-off', 'return'] as const;
 const missionItemKindSchema = z.enum(missionItemKinds);
 export type MissionItemKind = z.infer<typeof missionItemKindSchema>;
 

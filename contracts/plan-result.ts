@@ -40,6 +40,8 @@ export const planLineSchema = z.object({
   index: z.number().int(), headingDeg: n, lengthM: n,
   start: z.object({ lon: n, lat: n }), end: z.object({ lon: n, lat: n }),
   areaStartM: n, areaEndM: n,
+  // oblique capture: the camera tilted on its mount towards the nose, degrees from straight down (absent: straight down)
+  cameraTiltDeg: n.optional(),
   stations: z.array(planStationSchema), legs: z.array(planLegSchema),
   unmet: z.array(unmetStretchSchema), warnings: z.array(planWarningSchema),
 });

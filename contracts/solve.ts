@@ -16,7 +16,9 @@ const ranged = (name: string, lo: number, hi: number) => {
 /** The solver's settings (all optional; terrain/solve-options.ts has the defaults and why). */
 export const solveSettingsSchema = z.object({
   // left out, the spec decides: a lattice when it asks for views from all round, else a furrow
-  pattern: z.enum(['furrow', 'lattice'], { error: 'solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (a second set across the first).' }).optional(),
+  pattern: z.enum(['furrow', 'lattice', 'slant'], { error: 'solve.pattern must be "furrow" (one set of parallel lines), "lattice" (a second set across the first) or "slant" (a lattice with the camera tilted).' }).optional(),
+  // the slant pattern's camera tilt, degrees from straight down towards the nose
+  tiltDeg: ranged('tiltDeg', 10, 60).optional(),
   minSpeedMps: ranged('minSpeedMps', 0.5, 30).optional(),
   minSideOverlap: ranged('minSideOverlap', 0, 0.9).optional(),
   minForwardOverlap: ranged('minForwardOverlap', 0, 0.95).optional(),

@@ -22,7 +22,7 @@ export function planPhotos(plan: PlanResult, frame: LocalFrame, envelope: Attitu
     lines.push({ line: line.index + 1, headingDeg: line.headingDeg, crabDeg });
     for (const s of line.stations) {
       const [x, y] = frame.toLocal(s.lon, s.lat);
-      photos.push({ xM: x, yM: y, altitudeM: s.altitudeM, yawDeg: line.headingDeg, crabDeg });
+      photos.push({ xM: x, yM: y, altitudeM: s.altitudeM, yawDeg: line.headingDeg, crabDeg, ...(line.cameraTiltDeg ? { mountTiltDeg: line.cameraTiltDeg } : {}) });
     }
   }
   return { photos, lines };

@@ -50,6 +50,11 @@ export interface FlightLine {
   areaEndM: number;
   /** Exposure stations as distances from the start. */
   stationsM: Float64Array;
+  /**
+   * Tilt of the camera on its mount along this line, degrees from straight down towards the nose (oblique
+   * capture); absent or 0: straight down.
+   */
+  mountTiltDeg?: number;
 }
 
 const DEG = Math.PI / 180;

@@ -33,7 +33,7 @@ export function lineCrabDeg(headingDeg: number, env: AttitudeEnvelope): number {
 export function guaranteedExtents(camera: Camera, heightAt: HeightAt, line: LinePhotos, layoutHeadingDeg: number, planned: Float64Array, env: AttitudeEnvelope): GuaranteedExtents {
   const n = line.x.length;
   // the lattice's rotations depend on the attitude only, the same for every photo of the line
-  const samples = envelopeSamples(camera, { xM: 0, yM: 0, altitudeM: 0, yawDeg: line.headingDeg }, env, lineCrabDeg(line.headingDeg, env));
+  const samples = envelopeSamples(camera, { xM: 0, yM: 0, altitudeM: 0, yawDeg: line.headingDeg, mountTiltDeg: line.mountTiltDeg }, env, lineCrabDeg(line.headingDeg, env));
   const [ny, np, nr] = samples.shape;
   const m = samples.marginPx;
   const shrunk: Float64Array[] = [], grown: Float64Array[] = [];

@@ -13,6 +13,27 @@ export interface LinePhotos {
   x: Float64Array;
   y: Float64Array;
   altitudeM: Float64Array;
+  /** Camera tilt on its mount towards the nose, degrees (absent: straight down). */
+  mountTiltDeg?: number;
+}
+
+/**
+ * GSD of a station's photo, cm: straight down, height above the ground under it × pixel pitch / focal length; a
+ * tilted camera, at the image centre where its ray meets the ground, on the ground's horizontal plane there:
+ * R·p/f / cos θ with R the slant range and θ the ray's angle from the vertical (R²·p / (f·Δz)), the coarser side of
+ * the pixel's footprint (h·p / (f·cos² t) on level ground: the scale of a tilted photograph at its principal point
+ * along the tilt, Wolf, Dewitt & Wilkinson, Elements of Photogrammetry, ch. 10, from memory). Null where unknown.
+ */
+function stationGsdCm(camera: Camera, heightAt: HeightAt, line: LinePhotos, s: number, aglM: number | null, pitchOverF: number): number | null {
+  if (aglM === null || aglM <= 0) return null;
+  const t = line.mountTiltDeg ?? 0;
+  if (t === 0) return aglM * pitchOverF * 100;
+  const pose = { xM: line.x[s], yM: line.y[s], altitudeM: line.altitudeM[s], yawDeg: line.headingDeg, mountTiltDeg: t };
+  const g = castPixel(camera, pose, cameraToLocal(camera, pose), camera.imageWidthPx / 2, camera.imageHeightPx / 2, heightAt, { startHeightM: heightAt(pose.xM, pose.yM) });
+  if (!g) return null;
+  const dx = g[0] - pose.xM, dy = g[1] - pose.yM, dz = pose.altitudeM - g[2];
+  if (!(dz > 0)) return null;
+  return ((dx * dx + dy * dy + dz * dz) / dz) * pitchOverF * 100;
 }
 
 /** Targets that stations are checked against. */
@@ -126,7 +147,7 @@ function castPhotos(camera: Camera, heightAt: HeightAt, line: LinePhotos, layout
   // the 3 x 3 image points of the extents: rows front, centre, back; columns left, centre, right
   const grid9 = [0, mid, P - 1, 2 * P, -1, 2 * P + 1, P, P + mid, 2 * P - 1];
   for (let s = 0; s < n; s++) {
-    const pose = { xM: line.x[s], yM: line.y[s], altitudeM: line.altitudeM[s], yawDeg: line.headingDeg };
+    const pose = { xM: line.x[s], yM: line.y[s], altitudeM: line.altitudeM[s], yawDeg: line.headingDeg, mountTiltDeg: line.mountTiltDeg };
     const rot = opts.rot ?? cameraToLocal(camera, pose);
     const startHeightM = heightAt(pose.xM, pose.yM);
     for (let k = 0; k < pts.length; k++) {
@@ -295,7 +316,7 @@ export function stationOverlaps(camera: Camera, heightAt: HeightAt, lines: LineP
       const g = heightAt(l.x[s], l.y[s]);
       const groundM = Number.isFinite(g) ? g : null;
       const aglM = groundM === null ? null : l.altitudeM[s] - groundM;
-      const gsdCm = aglM === null || aglM <= 0 ? null : aglM * pitchOverF * 100;
+      const gsdCm = stationGsdCm(camera, heightAt, l, s, aglM, pitchOverF);
       const o = s * STRIDE;
       let complete = true;
       for (let k = 0; k < STRIDE; k++) if (Number.isNaN(e[o + k])) complete = false;
@@ -394,7 +415,7 @@ export function stationHeights(camera: Camera, heightAt: HeightAt, lines: LinePh
       const g = heightAt(l.x[s], l.y[s]);
       const groundM = Number.isFinite(g) ? g : null;
       const aglM = groundM === null ? null : l.altitudeM[s] - groundM;
-      const gsdCm = aglM === null || aglM <= 0 ? null : aglM * pitchOverF * 100;
+      const gsdCm = stationGsdCm(camera, heightAt, l, s, aglM, pitchOverF);
       out.push({ groundM, aglM, gsdCm, forwardOverlap: null, sideOverlap: null, forwardOverlapGuaranteed: null, sideOverlapGuaranteed: null, flags: [...(groundM === null ? [{ ...GROUND_UNKNOWN }] : []), ...heightFlags(aglM, gsdCm, t)] });
     }
     return out;

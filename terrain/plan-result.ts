@@ -58,6 +58,8 @@ export interface PlanLine {
   /** Where the line is over the survey area (distances from its start); outside it are the run-in and run-out. */
   areaStartM: number;
   areaEndM: number;
+  /** Camera tilt on its mount along the line, degrees from straight down towards the nose (oblique capture); absent: straight down. */
+  cameraTiltDeg?: number;
   stations: PlanStation[];
   legs: PlanLeg[];
   unmet: UnmetStretch[];

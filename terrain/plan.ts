@@ -210,7 +210,7 @@ function fitLines(laid: FlightLine[], g: PlanGround, mission: Mission, lim: Alti
   return { lines, profiles: laidProfiles.filter((_, i) => plannable[i]), leftOut: laid.filter((_, i) => !plannable[i]) };
 }
 
-type LinePhotoStations = { headingDeg: number; row: number; x: Float64Array; y: Float64Array; altitudeM: Float64Array };
+type LinePhotoStations = { headingDeg: number; row: number; x: Float64Array; y: Float64Array; altitudeM: Float64Array; mountTiltDeg?: number };
 
 /**
  * The sets of lines by the direction they run: one set for parallel lines, two when a second set crosses the first
@@ -244,7 +244,7 @@ function stationPhotos(lines: FlightLine[], profiles: LineProfile[], layoutHeadi
       px[s] = p[0]; py[s] = p[1];
       alt[s] = fit.altitudeM[stationIdx[s]];
     }
-    return { headingDeg: line.headingDeg, row: rowOf.get(line)!, x: px, y: py, altitudeM: alt };
+    return { headingDeg: line.headingDeg, row: rowOf.get(line)!, x: px, y: py, altitudeM: alt, ...(line.mountTiltDeg ? { mountTiltDeg: line.mountTiltDeg } : {}) };
   });
 }
 
@@ -323,6 +323,7 @@ function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profi
       flags: r.flags,
     }));
     const at = (d: number): PlanPoint => { const p = pointAlong(line, d); return { ...ll(p[0], p[1]), distanceM: round(d, 3) }; };
+    const tiltCos2 = Math.cos(((line.mountTiltDeg ?? 0) * Math.PI) / 180) ** 2;
     const legs: PlanLeg[] = fit.legs.map((leg) => ({
       start: at(leg.startM),
       end: at(leg.endM),
@@ -332,8 +333,9 @@ function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profi
       altitudeEndAboveTakeoffM: aboveTakeoff(leg.altitudeEndM),
       aglMinM: round(leg.aglMinM, 3),
       aglMaxM: round(leg.aglMaxM, 3),
-      gsdMinCm: round(leg.aglMinM * gsdPerM, 4),
-      gsdMaxCm: round(leg.aglMaxM * gsdPerM, 4),
+      // a tilted camera's GSD at the image centre on level ground: h·p / (f·cos² t) (stationGsdCm in overlap.ts)
+      gsdMinCm: round((leg.aglMinM * gsdPerM) / tiltCos2, 4),
+      gsdMaxCm: round((leg.aglMaxM * gsdPerM) / tiltCos2, 4),
       gradient: round(leg.gradient, 6),
     }));
     const warnings: PlanWarning[] = shortLegWarnings(li, line.lengthM, legs, mission.minLegLengthM);
@@ -344,6 +346,7 @@ function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profi
       index: li, headingDeg: round(line.headingDeg, 6), lengthM: round(line.lengthM, 3),
       start: ll(line.start[0], line.start[1]), end: ll(line.end[0], line.end[1]),
       areaStartM: round(line.areaStartM, 3), areaEndM: round(line.areaEndM, 3),
+      ...(line.mountTiltDeg ? { cameraTiltDeg: round(line.mountTiltDeg, 3) } : {}),
       stations, legs, unmet: fit.unmet.map((u) => ({ ...u, startM: round(u.startM, 3), endM: round(u.endM, 3) })), warnings,
     };
   });

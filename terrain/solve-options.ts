@@ -4,9 +4,11 @@ import { check } from './errors';
 
 /**
  * Loftline's names for the patterns: `furrow`, one set of parallel lines (mapping); `lattice`, a second set
- * across the first, for specs that ask for views from several directions (3D).
+ * across the first, for specs that ask for views from several directions (3D); `slant`, the lattice flown with the
+ * camera tilted towards the nose, so every line looks one way along it and the lines flown each way of both sets
+ * look from four headings (oblique capture, when a nadir lattice cannot see that slant).
  */
-export type SolvePattern = 'furrow' | 'lattice';
+export type SolvePattern = 'furrow' | 'lattice' | 'slant';
 
 /** The solver's settings. */
 interface SolveOptions {
@@ -30,6 +32,8 @@ interface SolveOptions {
    * inside only unless lines fly past it; only where flying over the neighbouring ground is allowed.
    */
   beyondEdgeM: number;
+  /** Camera tilt on its mount for the `slant` pattern, degrees from straight down; null: the spec's oblique angle + 5°. */
+  tiltDeg: number | null;
   /** Rounds of adding spot photos over the cells the lines still leave short of the GSD (0: none). */
   spotRounds: number;
 }
@@ -50,7 +54,7 @@ export function resolveSolveOptions(input: unknown, mission: Mission): SolveOpti
   check(raw === undefined || (raw !== null && typeof raw === 'object' && !Array.isArray(raw)), `solve must be an object, got ${JSON.stringify(raw)}.`);
   const o = (raw ?? {}) as Record<string, unknown>;
   const pattern = (o.pattern ?? null) as SolvePattern | null;
-  check(pattern === null || pattern === 'furrow' || pattern === 'lattice', `solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (two sets across each other), got ${JSON.stringify(o.pattern)}.`);
+  check(pattern === null || pattern === 'furrow' || pattern === 'lattice' || pattern === 'slant', `solve.pattern must be "furrow" (one set of parallel lines), "lattice" (two sets across each other) or "slant" (a lattice with the camera tilted), got ${JSON.stringify(o.pattern)}.`);
   const minSpeedMps = numberIn(o, 'minSpeedMps', Math.min(mission.speedMps, Math.max(1, mission.speedMps / 4)), 0.5, mission.speedMps);
   return {
     pattern,
@@ -62,5 +66,6 @@ export function resolveSolveOptions(input: unknown, mission: Mission): SolveOpti
     repairRounds: numberIn(o, 'repairRounds', 4, 0, 12),
     spotRounds: Math.round(numberIn(o, 'spotRounds', 5, 0, 8)),
     beyondEdgeM: numberIn(o, 'beyondEdgeM', 0, 0, 100),
+    tiltDeg: o.tiltDeg === undefined ? null : numberIn(o, 'tiltDeg', 35, 10, 60),
   };
 }

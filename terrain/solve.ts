@@ -115,8 +115,18 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const takeoffXY = frame.toLocal(mission.takeoff.lon, mission.takeoff.lat);
   const datum = opts.verticalDatum ? opts.verticalDatum.name : "the grid's vertical datum";
   const inputObj = input as Record<string, unknown>;
-  // the lattice: a second set of lines across the first, when asked for or when the spec asks for views from all round
-  const lattice = so.pattern === 'lattice' || (so.pattern === null && spec.maxDirectionGapDeg !== null);
+  // the pattern: asked for, or a lattice when the spec asks for views from all round and nadir photos can see its
+  // slant from the lines either side (spacing at least 2h·tan θ so a point between lines is seen slanting from both,
+  // at most 0.9·h·tan(half-angle across) so a point under a line is in its neighbours' photos), else the lattice
+  // with the camera tilted (slant)
+  const nadirSeesSlant = 2 * Math.tan((spec.obliqueDeg * Math.PI) / 180) <= 0.9 * geometry.tanAcross && forwardOverlapForSlant(geometry, spec.obliqueDeg) !== null;
+  const pattern: SolvePattern = so.pattern ?? (spec.maxDirectionGapDeg === null ? 'furrow' : nadirSeesSlant ? 'lattice' : 'slant');
+  // a second set of lines across the first
+  const lattice = pattern !== 'furrow';
+  // slant: the camera tilted towards the nose on every line; lines fly lower by cos² t, so the GSD at the image
+  // centre on level ground, h·p / (f·cos² t), is the one a nadir photo has at the height the spec allows
+  const tiltDeg = pattern === 'slant' ? (so.tiltDeg ?? Math.min(60, spec.obliqueDeg + 5)) : 0;
+  const tiltFactor = Math.cos((tiltDeg * Math.PI) / 180) ** 2;
   const setCount = lattice ? 2 : 1;
   // every point is seen from both sets of a lattice: each set carries half the views the spec asks for
   const viewsPerSet = lattice ? Math.ceil(Math.max(1, spec.minViews) / 2) : Math.max(1, spec.minViews);
@@ -127,7 +137,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const sideFloor = so.minSideOverlap ?? (lattice ? 0.55 : 0.1);
   // along a lattice's lines the same: each point seen from ahead and behind at the spec's slant (null: the spec asks
   // for none, or the camera's half-angle along the track is too narrow for it and the raster shows what is left)
-  const slantForward = lattice && spec.maxDirectionGapDeg !== null ? forwardOverlapForSlant(geometry, spec.obliqueDeg) : null;
+  const slantForward = pattern === 'lattice' && spec.maxDirectionGapDeg !== null ? forwardOverlapForSlant(geometry, spec.obliqueDeg) : null;
   const baseHalf = geometry.specHeightM * geometry.tanAcross;
   const nominalS = 2 * baseHalf * (1 - sideFloor);
   // heading candidates: the advice's best headings under the solver's nominal spacing
@@ -160,7 +170,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       const setHeading = (headingDeg + 90 * set) % 360;
       const rep = reps[set] ?? { lower: [], views: [] };
       const ctx: LineContext = { area: layArea, headingDeg: setHeading, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
-      const factorAt = (c: number) => 0.97 * 0.92 ** near(rep.lower, c);
+      const factorAt = (c: number) => tiltFactor * 0.97 * 0.92 ** near(rep.lower, c);
       const viewsAt = (c: number) => viewsPerSet + near(rep.views, c);
       const rows = layoutRows(ctx, factorAt, sideFloor);
       rowsBySet.push(rows);
@@ -179,7 +189,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         const views = viewsAt(l.offsetM);
         const fwd = Math.max(forwardOverlapForViews(views, so.minForwardOverlap), slantForward ?? 0);
         const trig = placeTriggers(l, fitted.x, fitted.fit.altitudeM, heights, { belowM, aboveM }, geometry.tanAlong, fwd, 2 * geometry.specHeightM * factor * geometry.tanAlong);
-        const line: FlightLine = { ...l, index: lines.length, stationsM: trig.stationsM };
+        const line: FlightLine = { ...l, index: lines.length, stationsM: trig.stationsM, ...(tiltDeg ? { mountTiltDeg: tiltDeg } : {}) };
         limitsBy.set(line, fitted.limits);
         stripBy.set(line, { belowM, aboveM });
         ctxBy.set(line, ctx);
@@ -251,7 +261,8 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         } else if (it && row) {
           const nx = row.next;
           const rowNo = (r: number) => { const k = kept.findIndex((q) => !q.spot && q.set === it.set && q.row === r); return k >= 0 ? k + 1 : null; };
-          if (setCount > 1) reasons.push(it.set === 0 ? `first set of the lattice, flown at ${headingDeg}°.` : `second set of the lattice, across the first at ${(headingDeg + 90) % 360}°: every point is seen from four sides, not two.`);
+          if (setCount > 1) reasons.push(it.set === 0 ? `first set of the ${pattern}, flown at ${headingDeg}°.` : `second set of the ${pattern}, across the first at ${(headingDeg + 90) % 360}°: every point is seen from four sides, not two.`);
+          if (tiltDeg) reasons.push(`camera tilted ${tiltDeg}° from straight down towards the nose (set on the gimbal before the line): the photos look ${round(it.line.headingDeg, 0)}° along the line, so this line sees the ground from one side and the lines flown the other way from the opposite side.`);
           if (nx) {
             const [lon, lat2] = frame.toLonLat(nx.atX, nx.atY);
             reasons.push(`ground at ${round(nx.groundM, 1)} m above ${datum} between lines ${li + 1} and ${rowNo(it.row + 1) ?? '?'} (lon ${round(lon, 5)}, lat ${round(lat2, 5)}) leaves ${round(nx.halfLeftM, 1)} m and ${round(nx.halfRightM, 1)} m of footprint either side under the ${geometry.rollDeg}° roll: ${round(nx.spacingM, 1)} m spacing keeps the ${round(sideFloor * 100, 0)} % side overlap floor${nx.held ? '' : ' (not held after 7 tries: the raster check decides)'}.`);
@@ -380,11 +391,13 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const bestUni = meetingUniform ? meetingUniform.flightTimeS : null;
   return {
     ...plan,
-    pattern: lattice ? 'lattice' : 'furrow',
+    pattern,
     choices: {
       headingDeg,
       heading: `${headingDeg}° flies fastest of ${headingWhy}: ${tried.join(', ')}.`,
-      pattern: (lattice
+      pattern: (pattern === 'slant'
+        ? `slant: two sets of parallel lines a quarter turn apart (${headingDeg}° and ${(headingDeg + 90) % 360}°), the camera tilted ${tiltDeg}° from straight down towards the nose on every line, so each line looks one way along it and the lines flown each way of both sets see every point from four headings; lines fly at cos² ${tiltDeg}° = ${round(tiltFactor, 3)} of the nadir height for the GSD at the image centre; each set with half the spec's views (${viewsPerSet})${so.pattern === 'slant' ? ' (the mission asks for it)' : ` (the spec asks for views from all round at ${spec.obliqueDeg}° from the vertical, a slant nadir photos from neighbouring lines cannot give with this camera)`}.`
+        : lattice
         ? `lattice: a second set of parallel lines across the first (${headingDeg}° and ${(headingDeg + 90) % 360}°), nadir camera, each set with half the spec's views (${viewsPerSet}), so every point is seen from four sides${so.pattern === 'lattice' ? ' (the mission asks for it)' : ` (the spec asks for views from all round: no gap over ${spec.maxDirectionGapDeg}° between views at least ${spec.obliqueDeg}° from the vertical)`}.`
         : `furrow: one set of parallel lines, nadir camera (mapping)${spec.maxDirectionGapDeg !== null ? '; the mission asks for it although the spec asks for views from all round, which one set seldom gives (the proof shows where)' : ''}.`)
         + (so.beyondEdgeM > 0 ? ` Lines are laid up to ${so.beyondEdgeM} m beyond the area's boundary (solve.beyondEdgeM), so ground at the edge is seen from outside too: fly there only where that is allowed.` : ''),

@@ -24,6 +24,11 @@ export function SheetLine({ line, units, datumName }: { line: SheetLineData; uni
         <Text tone="muted">
           From {formatLatLon(line.start)} to {formatLatLon(line.end)}
         </Text>
+        {line.cameraTiltDeg ? (
+          <Text variant="bodyStrong" tone="caution" testID={`line-${line.number}-tilt`}>
+            Camera tilted {line.cameraTiltDeg}° from straight down towards the nose (gimbal pitch {-(90 - line.cameraTiltDeg)}° from the horizon): set before the line, straight down after the last.
+          </Text>
+        ) : null}
         {line.warnings.length ? (
           <Banner tone="caution" title="On this line">
             <BulletList items={line.warnings} tone="caution" />

@@ -42,6 +42,7 @@ function sheetLine(line: LineView, number: number, speedMps: number): SheetLine 
     lengthM,
     timeS: legs.reduce((t, g) => t + g.timeS, 0) + Math.max(0, lengthM - legLengthM) / speedMps,
     photoCount: line.stations.length,
+    ...(line.cameraTiltDeg ? { cameraTiltDeg: line.cameraTiltDeg } : {}),
     start: { lon: first.lon, lat: first.lat },
     end: { lon: last.lon, lat: last.lat },
     legs,

@@ -12,6 +12,10 @@
  * Between two lines at different altitudes a NAV_WAYPOINT holds the transit at the higher of the two (climb over the
  * end of the one line, or arrive over the start of the next and descend), as the plan's transit clearance check
  * assumes: a straight slant from a high line to a low one (a spot photo over a pit) would cut below it.
+ * A plan with tilted-camera lines (oblique capture) sets the gimbal before each line: MAV_CMD_DO_GIMBAL_MANAGER_PITCHYAW
+ * with the pitch below the horizon (-90 straight down, -(90 - t) for a tilt t towards the nose), yaw 0 and no flags
+ * (both relative to the aircraft, as the plan's analysis models the camera on its mount), device 0 (all gimbals); and
+ * back to straight down before the return. Plans without tilted lines carry no gimbal item.
  * A DO command runs once the aircraft reaches the NAV item before it, so the camera starts on the first station
  * (the run-in before it stays free of photos, and later photos fall on the planned stations) and stops at the line end.
  */
@@ -44,6 +48,8 @@ export interface BuilderLine {
   stations: AlongPoint[];
   triggerDistanceM: number;
   speedMps: number;
+  /** Camera tilt on its mount towards the nose, degrees from straight down (0: straight down). */
+  cameraTiltDeg?: number;
 }
 
 export interface BuilderInput {
@@ -164,6 +170,10 @@ export function buildMissionItems(input: BuilderInput): { items: MissionItem[]; 
   positioned('takeoff', MavCmd.NAV_TAKEOFF, input.takeoff, firstLeg.altitudeStartAboveTakeoffM, null, null, [0, 0, 0, null]);
 
   let lastEnd: { point: AlongPoint; altitudeM: number } | null = null;
+  const tilted = input.lines.some((l) => (l.cameraTiltDeg ?? 0) !== 0);
+  // DO_GIMBAL_MANAGER_PITCHYAW: param1 pitch (deg, negative down), param2 yaw 0, param3-4 rates NaN (unset);
+  // param5 flags 0 and param7 device 0 ride in x and z of the MISSION_ITEM_INT, 0 here
+  const gimbal = (line: number | null, tiltDeg: number) => action('camera-tilt', MavCmd.DO_GIMBAL_MANAGER_PITCHYAW, line, line === null ? null : 1, [-(90 - tiltDeg), 0, null, null]);
   input.lines.forEach((line, li) => {
     if (line.legs.length === 0) return;
     const number = li + 1;
@@ -177,6 +187,8 @@ export function buildMissionItems(input: BuilderInput): { items: MissionItem[]; 
     const end = line.legs[line.legs.length - 1];
     lastEnd = { point: end.end, altitudeM: end.altitudeEndAboveTakeoffM };
     const firstSeq = items.length;
+    // set on the way to the line's start (after the transit or the last line's end), so it is in place for the first photo
+    if (tilted) gimbal(number, line.cameraTiltDeg ?? 0);
     const settings = legSettings(line);
     // Speed is set at every line start (the turn before it may have flown at another); later only where it changes.
     let speedInForce: number | undefined;
@@ -213,6 +225,7 @@ export function buildMissionItems(input: BuilderInput): { items: MissionItem[]; 
       lastSeq: items.length - 1,
     });
   });
+  if (tilted) gimbal(null, 0);
   action('return', MavCmd.NAV_RETURN_TO_LAUNCH, null, null, [0, 0, 0, 0]);
   return { items, lines };
 }

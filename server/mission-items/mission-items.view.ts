@@ -31,6 +31,8 @@ export function builderLinesOf(view: ResultView, mission: Pick<Mission, 'speedMp
     // mission's speed and the plan's air base (summary.triggerDistanceM, the spacing its stations were laid at).
     triggerDistanceM: planTrigger,
     speedMps: mission.speedMps,
+    // oblique capture: the camera tilt on its mount the plan's line was analysed with
+    cameraTiltDeg: finite((l as Record<string, unknown>).cameraTiltDeg) ?? 0,
     stations: l.stations.map((s) => ({ lon: s.lon, lat: s.lat, distanceM: s.distanceM })),
     legs: l.legs.map((g) => {
       const own = solvedLegSchema.safeParse(g);

@@ -60,7 +60,7 @@ describe('terrain solve', () => {
   it('fails with one line on stderr for a missing mission or a bad solve setting', async () => {
     for (const [args, code, pattern] of [
       [['solve', DEM], 2, /solve needs --mission/],
-      [['solve', DEM, '--mission', writeMission({ solve: { pattern: 'spiral' } })], 1, /solve.pattern must be "furrow" .* or "lattice"/],
+      [['solve', DEM, '--mission', writeMission({ solve: { pattern: 'spiral' } })], 1, /solve.pattern must be "furrow" .*, "lattice" .* or "slant"/],
       [['solve', DEM, '--mission', writeMission({ solve: { minSideOverlap: 2 } })], 1, /solve.minSideOverlap must be a number from 0 to 0.9/],
     ] as Array<[string[], number, RegExp]>) {
       const r = await runTerrainCli(args);

@@ -54,6 +54,8 @@ describe('spec for every ground cell in the plan editor', () => {
     await section.waitFor();
     await page.getByTestId('plan-spec-gsd').fill('2.5');
     await page.getByTestId('plan-spec-views').fill('5');
+    // views from all round (3D): the widest gap between slanting views, at the default slant
+    await page.getByTestId('plan-spec-direction-gap').fill('120');
     expect(await page.getByTestId('plan-envelope-roll').count()).toBe(0);
     await page.getByTestId('plan-envelope-multirotor').click();
     await page.getByTestId('plan-envelope-roll').fill('6');
@@ -64,7 +66,7 @@ describe('spec for every ground cell in the plan editor', () => {
       const input = (await team.clients.planner.get(`/api/teams/${team.teamId}/plans/${planId}`)).body.input;
       return input?.envelope ? input : null;
     }, 15_000, 'the saved spec');
-    expect(saved.spec).toEqual({ maxGsdCm: 2.5, minViews: 5 });
+    expect(saved.spec).toEqual({ maxGsdCm: 2.5, minViews: 5, maxDirectionGapDeg: 120 });
     expect(saved.envelope).toEqual({ preset: 'multirotor', rollDeg: 6, windMps: 4, windFromDeg: 270 });
     const restore = await growToContent(page);
     await section.screenshot({ path: path.join(shotDir, 'planner-phone.png') });

@@ -182,6 +182,29 @@ describe('mission items of a plan', () => {
     for (const t of transits) expect(items[t.seq + 1].about.kind).toBe('line-start');
   });
 
+  it('points the gimbal before each line of a plan with tilted-camera lines, and straight down before the return', () => {
+    // common.xml, MAV_CMD_DO_GIMBAL_MANAGER_PITCHYAW: param1 pitch in degrees, positive up (so -90 is straight down
+    // and a camera tilted 35° towards the nose from straight down is at -55), param2 yaw, param3-4 rates (NaN unset)
+    const tilted = { takeoff: { lon: 0, lat: 54 }, lines: [{ ...eastLine([{ lengthM: 100 }]), cameraTiltDeg: 35 }, eastLine([{ lengthM: 100 }])] };
+    const { items, lines } = buildMissionItems(tilted);
+    const gimbal = items.filter((i) => i.command === cmd('MAV_CMD_DO_GIMBAL_MANAGER_PITCHYAW'));
+    expect(gimbal.map((g) => [g.about.kind, g.about.line, g.param1, g.param2, g.param3, g.param4, g.frame])).toEqual([
+      ['camera-tilt', 1, -55, 0, null, null, cmd('MAV_FRAME_MISSION')],
+      ['camera-tilt', 2, -90, 0, null, null, cmd('MAV_FRAME_MISSION')],
+      ['camera-tilt', null, -90, 0, null, null, cmd('MAV_FRAME_MISSION')],
+    ]);
+    // each line's comes before its start waypoint (a DO item runs once the NAV item before it is reached) and is
+    // counted in the line's items; the last just before the return
+    for (const [k, l] of lines.entries()) {
+      expect(items[l.firstSeq]).toBe(gimbal[k]);
+      expect(items[l.firstSeq + 1].about.kind).toBe('line-start');
+    }
+    expect(items.at(-2)).toBe(gimbal[2]);
+    expect(items.at(-1)!.command).toBe(cmd('MAV_CMD_NAV_RETURN_TO_LAUNCH'));
+    // a plan of nadir lines carries no gimbal item
+    expect(buildMissionItems({ takeoff: { lon: 0, lat: 54 }, lines: [eastLine([{ lengthM: 100 }])] }).items.some((i) => i.about.kind === 'camera-tilt')).toBe(false);
+  });
+
   it('does not mutate its input', () => {
     const i = input();
     const before = JSON.stringify(i);

@@ -83,6 +83,6 @@ describe('plans laid out by the solver', () => {
     const r = await team.clients.planner.post(`/api/teams/${team.teamId}/projects/${ids.projectId}/plans`, { name: 'Spiral', siteId: site.id, input });
     expect(r.status).toBe(422);
     expect(r.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['input.solve.pattern']);
-    expect(r.body.error.message).toContain('solve.pattern must be "furrow" (one set of parallel lines) or "lattice" (a second set across the first)');
+    expect(r.body.error.message).toContain('solve.pattern must be "furrow" (one set of parallel lines), "lattice" (a second set across the first) or "slant" (a lattice with the camera tilted)');
   });
 });

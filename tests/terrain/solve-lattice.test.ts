@@ -5,7 +5,11 @@ import { resolveCoverageInput, specRasterOptions } from '../../terrain/coverage-
 import { computeCoverage } from '../../terrain/coverage';
 import { coverageFrame, planPhotos } from '../../terrain/coverage-photos';
 import { syntheticSite } from './coverage-site';
+import { localFrameFor } from '../../terrain/local-frame';
 import { cellX, cellY } from '../../terrain/coverage-grid';
+import { analysePlan } from '../../terrain/plan';
+import { planFlightLines, polygonToLocal } from '../../terrain/lines';
+import { pixelPitchMm } from '../../terrain/camera';
 
 // ground further than this inside the boundary has lines on every side (the lattice's spacing and height here)
 const INNER_M = 60;
@@ -29,7 +33,7 @@ const base = {
 const norm180 = (d: number) => ((d % 180) + 180) % 180;
 
 /** The plan's own raster recomputed here: the share of cells whose oblique views leave no gap over the spec's. */
-function directionsShare(input: typeof base, plan: Parameters<typeof planPhotos>[0]) {
+function directionsShare(input: Record<string, unknown>, plan: Parameters<typeof planPhotos>[0]) {
   const mission = resolveMission(input);
   const { spec, envelope } = resolveCoverageInput(input, mission);
   const frame = coverageFrame(mission.area);
@@ -117,5 +121,64 @@ describe('lattice: a second set of lines across the first when the spec asks for
     expect(Math.min(...sides)).toBeGreaterThan(0.45);
     // lines at the edge of each set have one neighbour only, so a null appears in both sets, never a 0
     expect(sides.some((v) => v === 0)).toBe(false);
+  });
+});
+
+describe('slant: the lattice with the camera tilted, when nadir photos cannot see the slant the spec asks for', () => {
+  // 30° from the vertical: the demo camera's half-angle across the track under 5° of roll is 31.9°, so lines would
+  // have to be at least 2h·tan 30° = 1.15 h apart for a point between them to be seen that slanting, yet at most
+  // 0.9 h·tan 31.9° = 0.56 h for a point under a line to be seen by its neighbours at all
+  const spec = { ...base.spec, obliqueDeg: 30 };
+  const inside = { ...base, spec };
+  const beyondIn = { ...base, spec, solve: { ...base.solve, beyondEdgeM: 40 } };
+  const slant = solvePlan(site.grid, inside);
+  const slantBeyond = solvePlan(site.grid, beyondIn);
+  const nadir = solvePlan(site.grid, { ...inside, solve: { ...base.solve, pattern: 'lattice' } });
+
+  it('is chosen by the spec: two sets of lines, the camera tilted the spec\'s slant and 5° more on every line', () => {
+    expect(slant.pattern).toBe('slant');
+    expect(slant.choices.pattern).toMatch(/^slant: .*tilted 35°/);
+    expect(slant.lines.every((l) => l.cameraTiltDeg === 35)).toBe(true);
+    expect(new Set(slant.lines.map((l) => norm180(l.headingDeg)))).toEqual(new Set([20, 110]));
+    expect(nadir.lines.some((l) => l.cameraTiltDeg !== undefined)).toBe(false);
+  });
+
+  it('is seen from all round at 30° where the nadir lattice is not, by its own raster recomputed here (tilted poses)', () => {
+    const s = directionsShare(inside, slant), n = directionsShare(inside, nadir), b = directionsShare(beyondIn, slantBeyond);
+    expect(n.share).toBeLessThan(0.1);
+    expect(s.share).toBeGreaterThan(0.75);
+    // the tilted footprint lies ahead of the aircraft: ground at the edges the lines start from is seen from one
+    // side only unless the lines may start beyond the boundary
+    expect(b.share).toBeGreaterThan(0.98);
+    expect(slantBeyond.proof.items.find((it) => it.item === 'directions')!.share).toBeCloseTo(b.share, 4);
+    // flown lower by cos² 35°, the finest view of every cell still meets the GSD
+    expect(s.gsdShare).toBe(1);
+    expect(b.gsdShare).toBe(1);
+  });
+});
+
+describe('a tilted camera\'s station GSD', () => {
+  it('is h·p / (f·cos² t) on level ground, at every station (Wolf, Dewitt & Wilkinson, Elements of Photogrammetry, ch. 10: scale of a tilted photograph at its principal point along the tilt, from memory)', () => {
+    const flat = syntheticSite(300, 4, () => 150);
+    const area = flat.area(-100, -100, 100, 100);
+    const [lon0, lat0] = flat.frame.toLonLat(-130, -130);
+    const input = { area, camera, targetGsdCm: 2.5, takeoff: { lon: lon0, lat: lat0 }, headingDeg: 0, mode: 'hold', clearanceM: 30, obstacleAllowanceM: 0, maxAglM: 120, speedMps: 8 };
+    // lines in the analysis's own frame (localFrameFor the area's corner mean, as the solver lays them)
+    const ring = area.coordinates[0].slice(0, -1);
+    const frame = localFrameFor(ring.reduce((t, p) => t + p[0], 0) / ring.length, ring.reduce((t, p) => t + p[1], 0) / ring.length);
+    const laid = planFlightLines(polygonToLocal(area as never, frame.toLocal), { headingDeg: 0, lineSpacingM: 60, triggerDistanceM: 20, runInM: 20 });
+    const pOverF = pixelPitchMm(camera) / camera.focalLengthMm;
+    for (const t of [0, 20, 35]) {
+      const plan = analysePlan(flat.grid, input, { lines: laid.map((l) => ({ ...l, mountTiltDeg: t })) });
+      expect(plan.lines.every((l) => (t === 0 ? l.cameraTiltDeg === undefined : l.cameraTiltDeg === t))).toBe(true);
+      const cos2 = Math.cos((t * Math.PI) / 180) ** 2;
+      let n = 0;
+      for (const st of plan.lines.flatMap((l) => l.stations)) {
+        expect(st.gsdCm! / ((st.aglM! * pOverF * 100) / cos2)).toBeCloseTo(1, 3);
+        n++;
+      }
+      expect(n).toBeGreaterThan(20);
+      for (const g of plan.lines.flatMap((l) => l.legs)) expect(g.gsdMaxCm / ((g.aglMaxM * pOverF * 100) / cos2)).toBeCloseTo(1, 3);
+    }
   });
 });
