@@ -114,8 +114,8 @@ function latticeHeight(L: HeightLattice, x: number, y: number): number {
  * heights at x + d, x − d, y + d, y − d (d = `a[2]`) and at the point itself into a[3..7] (as `latticeHeight`).
  */
 export function heightsAround(L: HeightLattice, a: Float64Array): void {
+  if (interiorAt(L, a, 3, 1, 0) && interiorAt(L, a, 4, -1, 0) && interiorAt(L, a, 5, 0, 1) && interiorAt(L, a, 6, 0, -1) && interiorAt(L, a, 7, 0, 0)) return;
   const x = a[0], y = a[1], d = a[2];
-  if (interiorAt(L, x + d, y, 3, a) && interiorAt(L, x - d, y, 4, a) && interiorAt(L, x, y + d, 5, a) && interiorAt(L, x, y - d, 6, a) && interiorAt(L, x, y, 7, a)) return;
   a[3] = latticeHeight(L, x + d, y);
   a[4] = latticeHeight(L, x - d, y);
   a[5] = latticeHeight(L, x, y + d);
@@ -124,11 +124,14 @@ export function heightsAround(L: HeightLattice, a: Float64Array): void {
 }
 
 /**
- * `latticeHeight` at (x, y) into a[k] where the point lies inside the lattice's last row and column (no clamping
- * there: the same arithmetic); false, writing nothing, elsewhere. Writing into the array keeps the height from
- * being boxed on its way out.
+ * `latticeHeight` into a[k] at the point a[0], a[1] moved by d = a[2] along x (sx: −1, 0 or 1) or y (sy), where
+ * that lies inside the lattice's last row and column (no clamping there: the same arithmetic); false, writing
+ * nothing, elsewhere. Numbers come and go through the array and the steps are whole numbers: the engine boxes each
+ * fraction a call passes or returns.
  */
-function interiorAt(L: HeightLattice, x: number, y: number, k: number, a: Float64Array): boolean {
+function interiorAt(L: HeightLattice, a: Float64Array, k: number, sx: number, sy: number): boolean {
+  const x = sx > 0 ? a[0] + a[2] : sx < 0 ? a[0] - a[2] : a[0];
+  const y = sy > 0 ? a[1] + a[2] : sy < 0 ? a[1] - a[2] : a[1];
   const fx = (x - L.x0) / L.stepM, fy = (y - L.y0) / L.stepM;
   if (!(fx >= 0 && fy >= 0 && fx < L.nx - 1 && fy < L.ny - 1)) return false;
   const i = Math.floor(fx), j = Math.floor(fy), tx = fx - i, ty = fy - j, nx = L.nx, o = j * nx + i, h = L.heights;
@@ -136,6 +139,9 @@ function interiorAt(L: HeightLattice, x: number, y: number, k: number, a: Float6
   a[k] = top + (h[o + nx] + (h[o + nx + 1] - h[o + nx]) * tx - top) * ty;
   return true;
 }
+
+/** Farther than any lattice reaches, metres. */
+const FAR = 1e300;
 
 /**
  * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
@@ -153,25 +159,29 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const hx = ox - px, hy = oy - py;
   const lenH = Math.sqrt(hx * hx + hy * hy);
   const end = a.length > 8 && a[8] < lenH ? a[8] : lenH;
-  if (lenH < L.stepM) return false;
+  const step = L.stepM;
+  if (lenH < step) return false;
   const ux = hx / lenH, uy = hy / lenH;
   const rise = (oz - pz) / lenH; // metres up per metre along the ground
-  const step = L.stepM;
-  const cellsPerBlock = L.block * step;
-  const hs = L.heights, nx = L.nx;
+  // the lattice's fields read once (each read of a fractional field goes through its box)
+  const lx0 = L.x0, ly0 = L.y0, nx = L.nx, ny = L.ny, block = L.block, bnx = L.bnx, blockMax = L.blockMax, hs = L.heights;
+  const cellsPerBlock = block * step;
   let s = step;
   while (s < end) {
     const z = pz + s * rise;
     if (z - toleranceM > maxM) return false;
     const x = px + s * ux, y = py + s * uy;
-    const fi = (x - L.x0) / step, fj = (y - L.y0) / step;
-    if (!(fi >= 0 && fj >= 0 && fi < L.nx - 1 && fj < L.ny - 1)) return false; // off the lattice: nothing known to hide it
-    const bi = Math.floor(fi / L.block), bj = Math.floor(fj / L.block);
-    if (z - toleranceM > L.blockMax[bj * L.bnx + bi]) {
+    const fi = (x - lx0) / step, fj = (y - ly0) / step;
+    if (!(fi >= 0 && fj >= 0 && fi < nx - 1 && fj < ny - 1)) return false; // off the lattice: nothing known to hide it
+    const bi = Math.floor(fi / block), bj = Math.floor(fj / block);
+    if (z - toleranceM > blockMax[bj * bnx + bi]) {
       // clear above this block: go to where the ray leaves it (slab method on the block's edges), plus a hair
-      const bx0 = L.x0 + bi * cellsPerBlock, by0 = L.y0 + bj * cellsPerBlock;
-      const tx = ux > 0 ? (bx0 + cellsPerBlock - x) / ux : ux < 0 ? (bx0 - x) / ux : Infinity;
-      const ty = uy > 0 ? (by0 + cellsPerBlock - y) / uy : uy < 0 ? (by0 - y) / uy : Infinity;
+      const bx0 = lx0 + bi * cellsPerBlock, by0 = ly0 + bj * cellsPerBlock;
+      // FAR, not Infinity, for an edge the ray runs along: the engine boxes every number a ternary mixes with the
+      // constant Infinity (one allocation per jump). Where ux is 0, |uy| is 1 and ty is a block at most, so the
+      // minimum is the same
+      const tx = ux > 0 ? (bx0 + cellsPerBlock - x) / ux : ux < 0 ? (bx0 - x) / ux : FAR;
+      const ty = uy > 0 ? (by0 + cellsPerBlock - y) / uy : uy < 0 ? (by0 - y) / uy : FAR;
       const jump = Math.min(tx, ty);
       s += (jump > 0 ? jump : 0) + 1e-6 * step;
       continue;
