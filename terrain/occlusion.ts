@@ -29,6 +29,7 @@ export interface HeightLattice {
   slopeRuns: Float32Array[];
 }
 
+/** Lattice cells per block side: a power of two (`occludedRay` multiplies by its inverse). */
 const BLOCK = 8;
 
 /** Build a lattice from heights already sampled at its nodes (block maxima worked out here). */
@@ -114,30 +115,25 @@ function latticeHeight(L: HeightLattice, x: number, y: number): number {
  * heights at x + d, x − d, y + d, y − d (d = `a[2]`) and at the point itself into a[3..7] (as `latticeHeight`).
  */
 export function heightsAround(L: HeightLattice, a: Float64Array): void {
-  if (interiorAt(L, a, 3, 1, 0) && interiorAt(L, a, 4, -1, 0) && interiorAt(L, a, 5, 0, 1) && interiorAt(L, a, 6, 0, -1) && interiorAt(L, a, 7, 0, 0)) return;
   const x = a[0], y = a[1], d = a[2];
-  a[3] = latticeHeight(L, x + d, y);
-  a[4] = latticeHeight(L, x - d, y);
-  a[5] = latticeHeight(L, x, y + d);
-  a[6] = latticeHeight(L, x, y - d);
-  a[7] = latticeHeight(L, x, y);
-}
-
-/**
- * `latticeHeight` into a[k] at the point a[0], a[1] moved by d = a[2] along x (sx: −1, 0 or 1) or y (sy), where
- * that lies inside the lattice's last row and column (no clamping there: the same arithmetic); false, writing
- * nothing, elsewhere. Numbers come and go through the array and the steps are whole numbers: the engine boxes each
- * fraction a call passes or returns.
- */
-function interiorAt(L: HeightLattice, a: Float64Array, k: number, sx: number, sy: number): boolean {
-  const x = sx > 0 ? a[0] + a[2] : sx < 0 ? a[0] - a[2] : a[0];
-  const y = sy > 0 ? a[1] + a[2] : sy < 0 ? a[1] - a[2] : a[1];
-  const fx = (x - L.x0) / L.stepM, fy = (y - L.y0) / L.stepM;
-  if (!(fx >= 0 && fy >= 0 && fx < L.nx - 1 && fy < L.ny - 1)) return false;
-  const i = Math.floor(fx), j = Math.floor(fy), tx = fx - i, ty = fy - j, nx = L.nx, o = j * nx + i, h = L.heights;
-  const top = h[o] + (h[o + 1] - h[o]) * tx;
-  a[k] = top + (h[o + nx] + (h[o + nx + 1] - h[o + nx]) * tx - top) * ty;
-  return true;
+  const x0 = L.x0, y0 = L.y0, step = L.stepM, nx = L.nx, ny = L.ny, h = L.heights;
+  // latticeHeight written out for the five points where each lies inside the lattice's last row and column (no
+  // clamping there: the same arithmetic); a call would box the numbers it passes
+  for (let k = 0; k < 5; k++) {
+    const px = k === 0 ? x + d : k === 1 ? x - d : x, py = k === 2 ? y + d : k === 3 ? y - d : y;
+    const fx = (px - x0) / step, fy = (py - y0) / step;
+    if (!(fx >= 0 && fy >= 0 && fx < nx - 1 && fy < ny - 1)) {
+      a[3] = latticeHeight(L, x + d, y);
+      a[4] = latticeHeight(L, x - d, y);
+      a[5] = latticeHeight(L, x, y + d);
+      a[6] = latticeHeight(L, x, y - d);
+      a[7] = latticeHeight(L, x, y);
+      return;
+    }
+    const i = Math.floor(fx), j = Math.floor(fy), tx = fx - i, ty = fy - j, o = j * nx + i;
+    const top = h[o] + (h[o + 1] - h[o]) * tx;
+    a[3 + k] = top + (h[o + nx] + (h[o + nx + 1] - h[o + nx]) * tx - top) * ty;
+  }
 }
 
 /** Farther than any lattice reaches, metres. */
@@ -165,7 +161,8 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const rise = (oz - pz) / lenH; // metres up per metre along the ground
   // the lattice's fields read once (each read of a fractional field goes through its box)
   const lx0 = L.x0, ly0 = L.y0, nx = L.nx, ny = L.ny, block = L.block, bnx = L.bnx, blockMax = L.blockMax, hs = L.heights;
-  const cellsPerBlock = block * step;
+  // the block size is a power of two (BLOCK), so multiplying by its inverse is dividing by it, to the bit
+  const cellsPerBlock = block * step, perBlock = 1 / block;
   let s = step;
   while (s < end) {
     const z = pz + s * rise;
@@ -173,7 +170,7 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
     const x = px + s * ux, y = py + s * uy;
     const fi = (x - lx0) / step, fj = (y - ly0) / step;
     if (!(fi >= 0 && fj >= 0 && fi < nx - 1 && fj < ny - 1)) return false; // off the lattice: nothing known to hide it
-    const bi = Math.floor(fi / block), bj = Math.floor(fj / block);
+    const bi = Math.floor(fi * perBlock), bj = Math.floor(fj * perBlock);
     if (z - toleranceM > blockMax[bj * bnx + bi]) {
       // clear above this block: go to where the ray leaves it (slab method on the block's edges), plus a hair
       const bx0 = lx0 + bi * cellsPerBlock, by0 = ly0 + bj * cellsPerBlock;
