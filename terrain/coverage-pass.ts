@@ -271,25 +271,17 @@ function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): 
  * The smallest dot product of two of the `v` unit rays (x, y, z from `rays`, the photo of each in `ids`): the
  * largest angle between two views. Exactly the minimum over every pair, with pairs that cannot reach it skipped:
  * for rays at angles θa and θb from the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the
- * sphere), so once the steepest ray m has been paired with every other, a ray a with cos(θa + θm) above the
- * minimum so far meets no ray that gives less (θb ≤ θm for every b). The minimum is then among the pairs of the
- * rays left (`kept`, scratch), each pair read once. The fewer left the better, so the pair that gave the minimum at
- * the cell before (`pair`, its two photos; neighbouring cells see much the same views) is read first when both
- * its photos see this cell, and `pair` is then set to this cell's. Applies while every ray points up (all angles
- * below 90°); else every pair is read. Any pair read is a real pair, and every pair the bound does not rule out is
- * read, so the minimum is the same whatever the seed. It is written into least[0] (a returned fraction would be
- * boxed).
+ * sphere), so while the steepest ray m (`steep`, the caller's) is paired with every other, a ray a with
+ * cos(θa + θm) above the minimum so far meets no ray that gives less (θb ≤ θm for every b); the minimum only
+ * falls, so what is left out stays out. The minimum is then among the pairs of the rays left (`kept`, scratch),
+ * each pair read once. The fewer left the better, so the pair that gave the minimum at the cell before (`pair`,
+ * its two photos; neighbouring cells see much the same views) is read first when both its photos see this cell
+ * (at `sa` and `sb`, else -1), and `pair` is then set to this cell's. Applies while every ray points up (`up`:
+ * all angles below 90°); else every pair is read. Any pair read is a real pair, and every pair the bound does not
+ * rule out is read, so the minimum is the same whatever the seed. It is written into least[0] (a returned
+ * fraction would be boxed).
  */
-function minRayDot(rays: Float64Array, v: number, ids: Int32Array, pair: Int32Array, least: Float64Array, kept: Int32Array): void {
-  const pa = pair[0], pb = pair[1];
-  let m = 0, up = true, sa = -1, sb = -1;
-  for (let a = 0; a < v; a++) {
-    const cz = rays[a * 3 + 2];
-    if (!(cz > 0)) up = false;
-    if (cz < rays[m * 3 + 2]) m = a;
-    const id = ids[a];
-    if (id === pa) sa = a; else if (id === pb) sb = a;
-  }
+function minRayDot(rays: Float64Array, v: number, ids: Int32Array, steep: number, up: boolean, sa: number, sb: number, pair: Int32Array, least: Float64Array, kept: Int32Array): void {
   let minDot = 1, ba = 0, bb = 1;
   if (!up) {
     for (let a = 0; a < v; a++) {
@@ -307,21 +299,17 @@ function minRayDot(rays: Float64Array, v: number, ids: Int32Array, pair: Int32Ar
     minDot = rays[sa * 3] * rays[sb * 3] + rays[sa * 3 + 1] * rays[sb * 3 + 1] + rays[sa * 3 + 2] * rays[sb * 3 + 2];
     ba = sa; bb = sb;
   }
-  const mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2];
+  // each ray against the steepest, and left out where cos θa cos θm − sin θa sin θm > the minimum so far (with a
+  // hair for rounding), tested squared where both sides are positive, so only the steepest ray's sine is taken
+  const m = steep, mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], sm2 = Math.max(0, 1 - mz * mz);
+  let nk = 0;
   for (let b = 0; b < v; b++) {
     if (b === m) continue;
-    const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
+    const bz = rays[b * 3 + 2];
+    const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * bz;
     if (d < minDot) { minDot = d; ba = m; bb = b; }
-  }
-  // a pair with a ray left out gives more than minDot now, so more than the minimum found in the end. Left out:
-  // cos θa cos θm − sin θa sin θm > minDot (with a hair for rounding), tested squared where both sides are
-  // positive, so only the steepest ray's sine is taken
-  const cm = mz, sm2 = Math.max(0, 1 - cm * cm), t = minDot + 1e-12;
-  let nk = 0;
-  for (let a = 0; a < v; a++) {
-    if (a === m) continue;
-    const cz = rays[a * 3 + 2], l = cz * cm - t;
-    if (!(l > 0 && l * l > Math.max(0, 1 - cz * cz) * sm2)) kept[nk++] = a;
+    const l = bz * mz - (minDot + 1e-12);
+    if (!(l > 0 && l * l > Math.max(0, 1 - bz * bz) * sm2)) kept[nk++] = b;
   }
   for (let p = 0; p < nk; p++) {
     const a = kept[p], ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
@@ -374,6 +362,8 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   const lift = around[7] - pz;
   const nearSurface = lift <= tol;
   let planned = 0, v = 0, atSpec = 0, finest = Infinity;
+  const pair = c.pair, pa = pair[0], pb = pair[1];
+  let steep = 0, up = true, sa = -1, sb = -1;
   let n0 = 0, n1 = 0, n2 = 0, n3 = 0, n4 = 0, n5 = 0;
   const ifx2 = optics[0], ify2 = optics[1], fxs = optics[2], fys = optics[3];
   for (let e = 0; e < picked; e++) {
@@ -413,8 +403,13 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
     if (g < finest) finest = g;
     if (g <= spec) atSpec++;
     const iR = 1 / R;
-    rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = -dz * iR;
+    const cz = -dz * iR;
+    rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = cz;
     rayIds[v] = j;
+    // for minRayDot: whether every ray points up, the steepest, where the last cell's widest pair is
+    if (!(cz > 0)) up = false;
+    if (cz < rays[steep * 3 + 2]) steep = v;
+    if (j === pa) sa = v; else if (j === pb) sb = v;
     const iq = 1 / qz;
     const xn = qx * iq, yn = qy * iq;
     const sx = fxs * iq, sy = fys * iq;
@@ -433,7 +428,7 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   viewsAtSpecGsd[i] = atSpec;
   if (v > 0) finestGsdCm[i] = finest;
   if (v > 1) {
-    minRayDot(rays, v, rayIds, c.pair, c.least, c.kept);
+    minRayDot(rays, v, rayIds, steep, up, sa, sb, pair, c.least, c.kept);
     const minDot = c.least[0];
     maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
     N[0] = n0; N[1] = n1; N[2] = n2; N[3] = n3; N[4] = n4; N[5] = n5;
