@@ -20,6 +20,8 @@ const BLOCKS = (TILE / BLOCK) * (TILE / BLOCK);
 const BOX_SLACK = 1e-9;
 /** A surface seen at less than about 1.1° (cos of the incidence below 0.02) is treated as unseen: back-facing or grazing. */
 const MIN_COS_INCIDENCE = 0.02;
+/** Above the square of any GSD in cm (not Infinity: a number mixed with that constant is boxed). */
+const FAR_SQ = 1e300;
 
 /** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
 interface CellPass {
@@ -29,7 +31,7 @@ interface CellPass {
   views: Uint16Array; viewsPlanned: Uint16Array; viewsAtSpecGsd: Uint16Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
   sigmaHorizontalM: Float32Array; sigmaVerticalM: Float32Array; viewsOnly: boolean; boxes: Float64Array; obox: Float64Array; pos: Float64Array;
   model: ImageModel; rots: Float64Array[]; uv: Float64Array;
-  /** The photos' rotations end to end (9 numbers each, as `rots`), and the camera's 1/fx², 1/fy², fx/σ, fy/σ (pixels): read per view. */
+  /** The photos' rotations end to end (9 numbers each, as `rots`), and the camera's 1/fx², 1/fy², fx/σ, fy/σ (pixels), then the spec's GSD squared less and more a relative hair (1e-9): read per view. */
   rotAll: Float64Array; optics: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
   envRots: Float64Array[]; boxTop: Float64Array;
   /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
@@ -361,11 +363,11 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   // than any ground it crosses can rise cannot meet that ground (occlusion.ts blockSlope)
   const lift = around[7] - pz;
   const nearSurface = lift <= tol;
-  let planned = 0, v = 0, atSpec = 0, finest = Infinity;
+  let planned = 0, v = 0, atSpec = 0, finest = Infinity, finestSq = FAR_SQ;
   const pair = c.pair, pa = pair[0], pb = pair[1];
   let steep = 0, up = true, sa = -1, sb = -1;
   let n0 = 0, n1 = 0, n2 = 0, n3 = 0, n4 = 0, n5 = 0;
-  const ifx2 = optics[0], ify2 = optics[1], fxs = optics[2], fys = optics[3];
+  const ifx2 = optics[0], ify2 = optics[1], fxs = optics[2], fys = optics[3], specLoSq = optics[4], specHiSq = optics[5];
   for (let e = 0; e < picked; e++) {
     const li = picks[at + e], code = codes[at + e];
     const j = list[li];
@@ -399,9 +401,15 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
     const ky = (nx * r1 + ny * r4 + nz * r7) * ind;
     const gyx = r1 - dx * ky, gyy = r4 - dy * ky, gyz = r7 - dz * ky;
     const ex = (gxx * gxx + gxy * gxy + gxz * gxz) * ifx2, ey = (gyx * gyx + gyy * gyy + gyz * gyz) * ify2;
-    const g = qz * Math.sqrt(ex > ey ? ex : ey) * 100;
-    if (g < finest) finest = g;
-    if (g <= spec) atSpec++;
+    // GSD = qz·√ee·100 (ee the larger of ex, ey): its square decides against the finest so far and the spec where it is clearly apart
+    // from them (a relative hair far above the rounding of either), and the root is taken only where it is not
+    const ee = ex > ey ? ex : ey;
+    const g2 = qz * qz * ee * 1e4;
+    if (g2 < finestSq || (g2 >= specLoSq && g2 <= specHiSq)) {
+      const g = qz * Math.sqrt(ee) * 100;
+      if (g < finest) { finest = g; finestSq = g * g * (1 + 1e-9); }
+      if (g <= spec) atSpec++;
+    } else if (g2 < specLoSq) atSpec++;
     const iR = 1 / R;
     const cz = -dz * iR;
     rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = cz;
