@@ -5,6 +5,11 @@ export interface HeightLattice {
   x0: number;
   y0: number;
   stepM: number;
+  /**
+   * 1 / stepM where that is exact, stepM a power of two (1 m, 2 m, 0.5 m …): multiplying by it is then dividing
+   * by stepM to the bit, at a fraction of the cost in the march; 0 otherwise (divide).
+   */
+  perStep: number;
   nx: number;
   ny: number;
   /** Row-major heights (index j * nx + i), NaN where unknown. */
@@ -71,7 +76,8 @@ export function heightLattice(x0: number, y0: number, stepM: number, nx: number,
     for (let j = 0; j < bny; j++) for (let i = 0; i + 2 * w <= bnx; i++) next[j * bnx + i] = Math.max(prev[j * bnx + i], prev[j * bnx + i + w]);
     slopeRuns.push(next);
   }
-  return { x0, y0, stepM, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax, blockSlope, slopeRuns };
+  const perStep = stepM > 0 && 2 ** Math.round(Math.log2(stepM)) === stepM ? 1 / stepM : 0;
+  return { x0, y0, stepM, perStep, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax, blockSlope, slopeRuns };
 }
 
 /** The steepest rise of the lattice's surface over a local box [x0, y0, x1, y1] (block bound; 0 off the lattice). */
@@ -116,12 +122,12 @@ function latticeHeight(L: HeightLattice, x: number, y: number): number {
  */
 export function heightsAround(L: HeightLattice, a: Float64Array): void {
   const x = a[0], y = a[1], d = a[2];
-  const x0 = L.x0, y0 = L.y0, step = L.stepM, nx = L.nx, ny = L.ny, h = L.heights;
+  const x0 = L.x0, y0 = L.y0, step = L.stepM, perStep = L.perStep, nx = L.nx, ny = L.ny, h = L.heights;
   // latticeHeight written out for the five points where each lies inside the lattice's last row and column (no
   // clamping there: the same arithmetic); a call would box the numbers it passes
   for (let k = 0; k < 5; k++) {
     const px = k === 0 ? x + d : k === 1 ? x - d : x, py = k === 2 ? y + d : k === 3 ? y - d : y;
-    const fx = (px - x0) / step, fy = (py - y0) / step;
+    const fx = perStep !== 0 ? (px - x0) * perStep : (px - x0) / step, fy = perStep !== 0 ? (py - y0) * perStep : (py - y0) / step;
     if (!(fx >= 0 && fy >= 0 && fx < nx - 1 && fy < ny - 1)) {
       a[3] = latticeHeight(L, x + d, y);
       a[4] = latticeHeight(L, x - d, y);
@@ -160,7 +166,7 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const ux = hx / lenH, uy = hy / lenH;
   const rise = (oz - pz) / lenH; // metres up per metre along the ground
   // the lattice's fields read once (each read of a fractional field goes through its box)
-  const lx0 = L.x0, ly0 = L.y0, nx = L.nx, ny = L.ny, block = L.block, bnx = L.bnx, blockMax = L.blockMax, hs = L.heights;
+  const lx0 = L.x0, ly0 = L.y0, perStep = L.perStep, nx = L.nx, ny = L.ny, block = L.block, bnx = L.bnx, blockMax = L.blockMax, hs = L.heights;
   // the block size is a power of two (BLOCK), so multiplying by its inverse is dividing by it, to the bit
   const cellsPerBlock = block * step, perBlock = 1 / block;
   let s = step;
@@ -168,7 +174,8 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
     const z = pz + s * rise;
     if (z - toleranceM > maxM) return false;
     const x = px + s * ux, y = py + s * uy;
-    const fi = (x - lx0) / step, fj = (y - ly0) / step;
+    let fi: number, fj: number;
+    if (perStep !== 0) { fi = (x - lx0) * perStep; fj = (y - ly0) * perStep; } else { fi = (x - lx0) / step; fj = (y - ly0) / step; }
     if (!(fi >= 0 && fj >= 0 && fi < nx - 1 && fj < ny - 1)) return false; // off the lattice: nothing known to hide it
     const bi = Math.floor(fi * perBlock), bj = Math.floor(fj * perBlock);
     if (z - toleranceM > blockMax[bj * bnx + bi]) {
