@@ -273,10 +273,9 @@ function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): 
  * The smallest dot product of two of the `v` unit rays (x, y, z from `rays`, the photo of each in `ids`): the
  * largest angle between two views. Exactly the minimum over every pair, with pairs that cannot reach it skipped:
  * for rays at angles θa and θb from the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the
- * sphere), so while the steepest ray m (`steep`, the caller's) is paired with every other, a ray a with
- * cos(θa + θm) above the minimum so far meets no ray that gives less (θb ≤ θm for every b); the minimum only
- * falls, so what is left out stays out. The minimum is then among the pairs of the rays left (`kept`, scratch),
- * each pair read once. The fewer left the better, so the pair that gave the minimum at the cell before (`pair`,
+ * sphere), so once the steepest ray m (`steep`, the caller's) has been paired with every other, a ray a with
+ * cos(θa + θm) above the minimum so far meets no ray that gives less (θb ≤ θm for every b). The minimum is then
+ * among the pairs of the rays left (`kept`, scratch), each pair read once. The fewer left the better, so the pair that gave the minimum at the cell before (`pair`,
  * its two photos; neighbouring cells see much the same views) is read first when both its photos see this cell
  * (at `sa` and `sb`, else -1), and `pair` is then set to this cell's. Applies while every ray points up (`up`:
  * all angles below 90°); else every pair is read. Any pair read is a real pair, and every pair the bound does not
@@ -301,16 +300,19 @@ function minRayDot(rays: Float64Array, v: number, ids: Int32Array, steep: number
     minDot = rays[sa * 3] * rays[sb * 3] + rays[sa * 3 + 1] * rays[sb * 3 + 1] + rays[sa * 3 + 2] * rays[sb * 3 + 2];
     ba = sa; bb = sb;
   }
-  // each ray against the steepest, and left out where cos θa cos θm − sin θa sin θm > the minimum so far (with a
-  // hair for rounding), tested squared where both sides are positive, so only the steepest ray's sine is taken
+  // each ray against the steepest, then left out where cos θa cos θm − sin θa sin θm > the minimum (with a hair
+  // for rounding), tested squared where both sides are positive, so only the steepest ray's sine is taken
   const m = steep, mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], sm2 = Math.max(0, 1 - mz * mz);
+  for (let b = 0; b < v; b++) {
+    if (b === m) continue;
+    const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
+    if (d < minDot) { minDot = d; ba = m; bb = b; }
+  }
+  const t = minDot + 1e-12;
   let nk = 0;
   for (let b = 0; b < v; b++) {
     if (b === m) continue;
-    const bz = rays[b * 3 + 2];
-    const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * bz;
-    if (d < minDot) { minDot = d; ba = m; bb = b; }
-    const l = bz * mz - (minDot + 1e-12);
+    const bz = rays[b * 3 + 2], l = bz * mz - t;
     if (!(l > 0 && l * l > Math.max(0, 1 - bz * bz) * sm2)) kept[nk++] = b;
   }
   for (let p = 0; p < nk; p++) {
