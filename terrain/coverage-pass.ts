@@ -21,6 +21,8 @@ const BLOCKS = (TILE / BLOCK) * (TILE / BLOCK);
 const BOX_SLACK = 1e-9;
 /** A surface seen at less than about 1.1° (cos of the incidence below 0.02) is treated as unseen: back-facing or grazing. */
 const MIN_COS_INCIDENCE = 0.02;
+/** Above the square of any GSD in cm (not Infinity: a number mixed with that constant is boxed). */
+const FAR_SQ = 1e300;
 
 /** Everything the per-cell pass reads and writes (one small function, so the engine optimises its loops on their own). */
 interface CellPass {
@@ -29,11 +31,13 @@ interface CellPass {
   tileSlopes: Float64Array[]; width: number; height: number; inside: Uint8Array; cells: CoverageCells;
   views: Uint16Array; viewsPlanned: Uint16Array; viewsAtSpecGsd: Uint16Array; finestGsdCm: Float32Array; maxRayAngleDeg: Float32Array;
   sigmaHorizontalM: Float32Array; sigmaVerticalM: Float32Array; viewsOnly: boolean; boxes: Float64Array; obox: Float64Array; pos: Float64Array;
-  model: ImageModel; rots: Float64Array[]; uv: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
+  model: ImageModel; rots: Float64Array[]; uv: Float64Array;
+  /** The photos' rotations end to end (9 numbers each, as `rots`), and the camera's 1/fx², 1/fy², fx/σ, fy/σ (pixels), then the spec's GSD squared less and more a relative hair (1e-9): read per view. */
+  rotAll: Float64Array; optics: Float64Array; env: AttitudeEnvelope | null; envCount: Int32Array;
   envRots: Float64Array[]; boxTop: Float64Array;
   /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
   boxSlope: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
-  rays: Float64Array; sigmaPx: number; sig: Float64Array;
+  rays: Float64Array; sig: Float64Array;
   /** The widest gap between oblique view directions (`view-directions.ts`), when the spec asks for views from all round; null otherwise. */
   directionGap: Float32Array | null; cosOblique: number; azimuths: Float64Array;
   /** Where the planned image and the envelope's shrunk image hold a whole box of ground points (`image-bounds.ts`). */
@@ -42,8 +46,10 @@ interface CellPass {
   exact: boolean;
   /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point, a box against a photo (`classifyBox`). */
   pt: Float64Array; ray: Float64Array; around: Float64Array; q: Float64Array;
-  /** Scratch: cos and sin of each ray's angle from the vertical (2 per view), and the rays `minRayDot` keeps. */
-  tilt: Float64Array; kept: Int32Array;
+  /** Scratch: the photo of each ray in `rays`, the minimum `minRayDot` writes, and the rays it keeps. */
+  rayIds: Int32Array; least: Float64Array; kept: Int32Array;
+  /** The two photos whose rays gave the largest angle at the cell visited last (-1: none yet). */
+  pair: Int32Array;
   /** Per raster column, how its position blends between nodes (`rowPositions`). */
   cb: ColumnBlend;
   /** Scratch: the local positions of the current tile's cells (row-major, TILE per row). */
@@ -267,53 +273,61 @@ function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): 
 }
 
 /**
- * The smallest dot product of two of the `v` unit rays (x, y, z from `rays`): the largest angle between two views.
- * Exactly the minimum over every pair, with pairs that cannot reach it skipped: for rays at angles θa and θb from
- * the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the sphere), so once the steepest ray m
- * has been paired with every other, a ray a with cos(θa + θm) above the minimum so far meets no ray that gives less
- * (θb ≤ θm for every b). The minimum is then among the pairs of the rays left (`kept`, scratch), each pair read
- * once. Applies while every ray points up (all angles below 90°); else every pair is read. The minimum is written
- * into tilt[0] (a returned fraction would be boxed).
+ * The smallest dot product of two of the `v` unit rays (x, y, z from `rays`, the photo of each in `ids`): the
+ * largest angle between two views. Exactly the minimum over every pair, with pairs that cannot reach it skipped:
+ * for rays at angles θa and θb from the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the
+ * sphere), so once the steepest ray m (`steep`, the caller's) has been paired with every other, a ray a with
+ * cos(θa + θm) above the minimum so far meets no ray that gives less (θb ≤ θm for every b). The minimum is then
+ * among the pairs of the rays left (`kept`, scratch), each pair read once. The fewer left the better, so the pair that gave the minimum at the cell before (`pair`,
+ * its two photos; neighbouring cells see much the same views) is read first when both its photos see this cell
+ * (at `sa` and `sb`, else -1), and `pair` is then set to this cell's. Applies while every ray points up (`up`:
+ * all angles below 90°); else every pair is read. Any pair read is a real pair, and every pair the bound does not
+ * rule out is read, so the minimum is the same whatever the seed. It is written into least[0] (a returned
+ * fraction would be boxed).
  */
-function minRayDot(rays: Float64Array, v: number, tilt: Float64Array, kept: Int32Array): void {
-  let m = 0, up = true;
-  for (let a = 0; a < v; a++) {
-    const cz = rays[a * 3 + 2];
-    if (!(cz > 0)) up = false;
-    tilt[a * 2] = cz;
-    tilt[a * 2 + 1] = Math.sqrt(Math.max(0, 1 - cz * cz));
-    if (cz < rays[m * 3 + 2]) m = a;
-  }
-  let minDot = 1;
+function minRayDot(rays: Float64Array, v: number, ids: Int32Array, steep: number, up: boolean, sa: number, sb: number, pair: Int32Array, least: Float64Array, kept: Int32Array): void {
+  let minDot = 1, ba = 0, bb = 1;
   if (!up) {
     for (let a = 0; a < v; a++) {
       const ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
       for (let b = a + 1; b < v; b++) {
         const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
-        if (d < minDot) minDot = d;
+        if (d < minDot) { minDot = d; ba = a; bb = b; }
       }
     }
-    tilt[0] = minDot;
+    least[0] = minDot;
+    pair[0] = ids[ba]; pair[1] = ids[bb];
     return;
   }
-  const mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], cm = tilt[m * 2], sm = tilt[m * 2 + 1];
+  if (sa >= 0 && sb >= 0) {
+    minDot = rays[sa * 3] * rays[sb * 3] + rays[sa * 3 + 1] * rays[sb * 3 + 1] + rays[sa * 3 + 2] * rays[sb * 3 + 2];
+    ba = sa; bb = sb;
+  }
+  // each ray against the steepest, then left out where cos θa cos θm − sin θa sin θm > the minimum (with a hair
+  // for rounding), tested squared where both sides are positive, so only the steepest ray's sine is taken
+  const m = steep, mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], sm2 = Math.max(0, 1 - mz * mz);
   for (let b = 0; b < v; b++) {
     if (b === m) continue;
     const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
-    if (d < minDot) minDot = d;
+    if (d < minDot) { minDot = d; ba = m; bb = b; }
   }
-  // a pair with a ray left out gives more than minDot now, so more than the minimum found in the end
+  const t = minDot + 1e-12;
   let nk = 0;
-  for (let a = 0; a < v; a++) if (a !== m && !(tilt[a * 2] * cm - tilt[a * 2 + 1] * sm > minDot + 1e-12)) kept[nk++] = a;
+  for (let b = 0; b < v; b++) {
+    if (b === m) continue;
+    const bz = rays[b * 3 + 2], l = bz * mz - t;
+    if (!(l > 0 && l * l > Math.max(0, 1 - bz * bz) * sm2)) kept[nk++] = b;
+  }
   for (let p = 0; p < nk; p++) {
     const a = kept[p], ax = rays[a * 3], ay = rays[a * 3 + 1], az = rays[a * 3 + 2];
     for (let q = p + 1; q < nk; q++) {
       const b = kept[q];
       const d = ax * rays[b * 3] + ay * rays[b * 3 + 1] + az * rays[b * 3 + 2];
-      if (d < minDot) minDot = d;
+      if (d < minDot) { minDot = d; ba = a; bb = b; }
     }
   }
-  tilt[0] = minDot;
+  least[0] = minDot;
+  pair[0] = ids[ba]; pair[1] = ids[bb];
 }
 
 /** One cell, counting views only: `sure` views decided for its whole block and those of the other photos picked for the block that see its ground point (small: it is inlined into the pass). */
@@ -335,7 +349,7 @@ function countViews(c: CellPass, list: Int32Array, i: number, k: number, picks: 
 
 /** One cell: the photos of its block that see its ground point, and the figures from them (small, so it is optimised early). */
 function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
-  const { cells, views, viewsPlanned, viewsAtSpecGsd, pos, model, rots, lattice, hStep, N, useOcclusion, tol, spec, rays, sigmaPx, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM } = c;
+  const { cells, views, viewsPlanned, viewsAtSpecGsd, pos, rotAll, optics, lattice, hStep, N, useOcclusion, tol, spec, rays, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, rayIds } = c;
   const pz = cells.z[i];
   if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
   const pt = c.pt, px = c.px[k], py = c.py[k];
@@ -354,15 +368,16 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   // than any ground it crosses can rise cannot meet that ground (occlusion.ts blockSlope)
   const lift = around[7] - pz;
   const nearSurface = lift <= tol;
-  let planned = 0, v = 0, atSpec = 0, finest = Infinity;
+  let planned = 0, v = 0, atSpec = 0, finest = Infinity, finestSq = FAR_SQ;
+  const pair = c.pair, pa = pair[0], pb = pair[1];
+  let steep = 0, up = true, sa = -1, sb = -1;
   let n0 = 0, n1 = 0, n2 = 0, n3 = 0, n4 = 0, n5 = 0;
-  const ifx2 = 1 / (model.fxPx * model.fxPx), ify2 = 1 / (model.fyPx * model.fyPx), fxs = model.fxPx / sigmaPx, fys = model.fyPx / sigmaPx;
+  const ifx2 = optics[0], ify2 = optics[1], fxs = optics[2], fys = optics[3], specLoSq = optics[4], specHiSq = optics[5];
   for (let e = 0; e < picked; e++) {
     const li = picks[at + e], code = codes[at + e];
     const j = list[li];
     if ((code & 3) !== IN && !seenAt(c, j)) continue;
     const ox = pos[j * 3], oy = pos[j * 3 + 1], oz = pos[j * 3 + 2];
-    const rot = rots[j];
     const dx = px - ox, dy = py - oy, dz = pz - oz;
     const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
     // n·d = R·(n·r̂): the incidence test −n·r̂ < MIN_COS_INCIDENCE without dividing
@@ -380,7 +395,8 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
     // viewGsdCm and addView written out here (the engine does not inline them into a function this size, and a
     // call boxes every number it passes), with their divisions shared: R·cos α = qz (the depth along the axis) and
     // r̂·(n·e)/(n·r̂) = d·(n·e)/(n·d), so GSD_e = qz / f_e · |e − d (n·e)/(n·d)| · 100
-    const r0 = rot[0], r1 = rot[1], r2 = rot[2], r3 = rot[3], r4 = rot[4], r5 = rot[5], r6 = rot[6], r7 = rot[7], r8 = rot[8];
+    const ro = j * 9;
+    const r0 = rotAll[ro], r1 = rotAll[ro + 1], r2 = rotAll[ro + 2], r3 = rotAll[ro + 3], r4 = rotAll[ro + 4], r5 = rotAll[ro + 5], r6 = rotAll[ro + 6], r7 = rotAll[ro + 7], r8 = rotAll[ro + 8];
     const qx = r0 * dx + r3 * dy + r6 * dz;
     const qy = r1 * dx + r4 * dy + r7 * dz;
     const qz = r2 * dx + r5 * dy + r8 * dz;
@@ -390,11 +406,23 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
     const ky = (nx * r1 + ny * r4 + nz * r7) * ind;
     const gyx = r1 - dx * ky, gyy = r4 - dy * ky, gyz = r7 - dz * ky;
     const ex = (gxx * gxx + gxy * gxy + gxz * gxz) * ifx2, ey = (gyx * gyx + gyy * gyy + gyz * gyz) * ify2;
-    const g = qz * Math.sqrt(ex > ey ? ex : ey) * 100;
-    if (g < finest) finest = g;
-    if (g <= spec) atSpec++;
+    // GSD = qz·√ee·100 (ee the larger of ex, ey): its square decides against the finest so far and the spec where it is clearly apart
+    // from them (a relative hair far above the rounding of either), and the root is taken only where it is not
+    const ee = ex > ey ? ex : ey;
+    const g2 = qz * qz * ee * 1e4;
+    if (g2 < finestSq || (g2 >= specLoSq && g2 <= specHiSq)) {
+      const g = qz * Math.sqrt(ee) * 100;
+      if (g < finest) { finest = g; finestSq = g * g * (1 + 1e-9); }
+      if (g <= spec) atSpec++;
+    } else if (g2 < specLoSq) atSpec++;
     const iR = 1 / R;
-    rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = -dz * iR;
+    const cz = -dz * iR;
+    rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = cz;
+    rayIds[v] = j;
+    // for minRayDot: whether every ray points up, the steepest, where the last cell's widest pair is
+    if (!(cz > 0)) up = false;
+    if (cz < rays[steep * 3 + 2]) steep = v;
+    if (j === pa) sa = v; else if (j === pb) sb = v;
     const iq = 1 / qz;
     const xn = qx * iq, yn = qy * iq;
     const sx = fxs * iq, sy = fys * iq;
@@ -414,8 +442,8 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   if (v > 0) finestGsdCm[i] = finest;
   if (c.directionGap) c.directionGap[i] = directionGapDeg(rays, v, c.cosOblique, c.azimuths);
   if (v > 1) {
-    minRayDot(rays, v, c.tilt, c.kept);
-    const minDot = c.tilt[0];
+    minRayDot(rays, v, rayIds, steep, up, sa, sb, pair, c.least, c.kept);
+    const minDot = c.least[0];
     maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
     N[0] = n0; N[1] = n1; N[2] = n2; N[3] = n3; N[4] = n4; N[5] = n5;
     sigmaFromNormal(N, 0, sig);

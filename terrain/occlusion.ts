@@ -5,6 +5,11 @@ export interface HeightLattice {
   x0: number;
   y0: number;
   stepM: number;
+  /**
+   * 1 / stepM where that is exact, stepM a power of two (1 m, 2 m, 0.5 m …): multiplying by it is then dividing
+   * by stepM to the bit, at a fraction of the cost in the march; 0 otherwise (divide).
+   */
+  perStep: number;
   nx: number;
   ny: number;
   /** Row-major heights (index j * nx + i), NaN where unknown. */
@@ -29,6 +34,7 @@ export interface HeightLattice {
   slopeRuns: Float32Array[];
 }
 
+/** Lattice cells per block side: a power of two (`occludedRay` multiplies by its inverse). */
 const BLOCK = 8;
 
 /** Build a lattice from heights already sampled at its nodes (block maxima worked out here). */
@@ -70,7 +76,8 @@ export function heightLattice(x0: number, y0: number, stepM: number, nx: number,
     for (let j = 0; j < bny; j++) for (let i = 0; i + 2 * w <= bnx; i++) next[j * bnx + i] = Math.max(prev[j * bnx + i], prev[j * bnx + i + w]);
     slopeRuns.push(next);
   }
-  return { x0, y0, stepM, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax, blockSlope, slopeRuns };
+  const perStep = stepM > 0 && 2 ** Math.round(Math.log2(stepM)) === stepM ? 1 / stepM : 0;
+  return { x0, y0, stepM, perStep, nx, ny, heights, maxM, minM, block: BLOCK, bnx, bny, blockMax, blockSlope, slopeRuns };
 }
 
 /** The steepest rise of the lattice's surface over a local box [x0, y0, x1, y1] (block bound; 0 off the lattice). */
@@ -115,27 +122,28 @@ function latticeHeight(L: HeightLattice, x: number, y: number): number {
  */
 export function heightsAround(L: HeightLattice, a: Float64Array): void {
   const x = a[0], y = a[1], d = a[2];
-  if (interiorAt(L, x + d, y, 3, a) && interiorAt(L, x - d, y, 4, a) && interiorAt(L, x, y + d, 5, a) && interiorAt(L, x, y - d, 6, a) && interiorAt(L, x, y, 7, a)) return;
-  a[3] = latticeHeight(L, x + d, y);
-  a[4] = latticeHeight(L, x - d, y);
-  a[5] = latticeHeight(L, x, y + d);
-  a[6] = latticeHeight(L, x, y - d);
-  a[7] = latticeHeight(L, x, y);
+  const x0 = L.x0, y0 = L.y0, step = L.stepM, perStep = L.perStep, nx = L.nx, ny = L.ny, h = L.heights;
+  // latticeHeight written out for the five points where each lies inside the lattice's last row and column (no
+  // clamping there: the same arithmetic); a call would box the numbers it passes
+  for (let k = 0; k < 5; k++) {
+    const px = k === 0 ? x + d : k === 1 ? x - d : x, py = k === 2 ? y + d : k === 3 ? y - d : y;
+    const fx = perStep !== 0 ? (px - x0) * perStep : (px - x0) / step, fy = perStep !== 0 ? (py - y0) * perStep : (py - y0) / step;
+    if (!(fx >= 0 && fy >= 0 && fx < nx - 1 && fy < ny - 1)) {
+      a[3] = latticeHeight(L, x + d, y);
+      a[4] = latticeHeight(L, x - d, y);
+      a[5] = latticeHeight(L, x, y + d);
+      a[6] = latticeHeight(L, x, y - d);
+      a[7] = latticeHeight(L, x, y);
+      return;
+    }
+    const i = Math.floor(fx), j = Math.floor(fy), tx = fx - i, ty = fy - j, o = j * nx + i;
+    const top = h[o] + (h[o + 1] - h[o]) * tx;
+    a[3 + k] = top + (h[o + nx] + (h[o + nx + 1] - h[o + nx]) * tx - top) * ty;
+  }
 }
 
-/**
- * `latticeHeight` at (x, y) into a[k] where the point lies inside the lattice's last row and column (no clamping
- * there: the same arithmetic); false, writing nothing, elsewhere. Writing into the array keeps the height from
- * being boxed on its way out.
- */
-function interiorAt(L: HeightLattice, x: number, y: number, k: number, a: Float64Array): boolean {
-  const fx = (x - L.x0) / L.stepM, fy = (y - L.y0) / L.stepM;
-  if (!(fx >= 0 && fy >= 0 && fx < L.nx - 1 && fy < L.ny - 1)) return false;
-  const i = Math.floor(fx), j = Math.floor(fy), tx = fx - i, ty = fy - j, nx = L.nx, o = j * nx + i, h = L.heights;
-  const top = h[o] + (h[o + 1] - h[o]) * tx;
-  a[k] = top + (h[o + nx] + (h[o + nx + 1] - h[o + nx]) * tx - top) * ty;
-  return true;
-}
+/** Farther than any lattice reaches, metres. */
+const FAR = 1e300;
 
 /**
  * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
@@ -153,25 +161,31 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const hx = ox - px, hy = oy - py;
   const lenH = Math.sqrt(hx * hx + hy * hy);
   const end = a.length > 8 && a[8] < lenH ? a[8] : lenH;
-  if (lenH < L.stepM) return false;
+  const step = L.stepM;
+  if (lenH < step) return false;
   const ux = hx / lenH, uy = hy / lenH;
   const rise = (oz - pz) / lenH; // metres up per metre along the ground
-  const step = L.stepM;
-  const cellsPerBlock = L.block * step;
-  const hs = L.heights, nx = L.nx;
+  // the lattice's fields read once (each read of a fractional field goes through its box)
+  const lx0 = L.x0, ly0 = L.y0, perStep = L.perStep, nx = L.nx, ny = L.ny, block = L.block, bnx = L.bnx, blockMax = L.blockMax, hs = L.heights;
+  // the block size is a power of two (BLOCK), so multiplying by its inverse is dividing by it, to the bit
+  const cellsPerBlock = block * step, perBlock = 1 / block;
   let s = step;
   while (s < end) {
     const z = pz + s * rise;
     if (z - toleranceM > maxM) return false;
     const x = px + s * ux, y = py + s * uy;
-    const fi = (x - L.x0) / step, fj = (y - L.y0) / step;
-    if (!(fi >= 0 && fj >= 0 && fi < L.nx - 1 && fj < L.ny - 1)) return false; // off the lattice: nothing known to hide it
-    const bi = Math.floor(fi / L.block), bj = Math.floor(fj / L.block);
-    if (z - toleranceM > L.blockMax[bj * L.bnx + bi]) {
+    let fi: number, fj: number;
+    if (perStep !== 0) { fi = (x - lx0) * perStep; fj = (y - ly0) * perStep; } else { fi = (x - lx0) / step; fj = (y - ly0) / step; }
+    if (!(fi >= 0 && fj >= 0 && fi < nx - 1 && fj < ny - 1)) return false; // off the lattice: nothing known to hide it
+    const bi = Math.floor(fi * perBlock), bj = Math.floor(fj * perBlock);
+    if (z - toleranceM > blockMax[bj * bnx + bi]) {
       // clear above this block: go to where the ray leaves it (slab method on the block's edges), plus a hair
-      const bx0 = L.x0 + bi * cellsPerBlock, by0 = L.y0 + bj * cellsPerBlock;
-      const tx = ux > 0 ? (bx0 + cellsPerBlock - x) / ux : ux < 0 ? (bx0 - x) / ux : Infinity;
-      const ty = uy > 0 ? (by0 + cellsPerBlock - y) / uy : uy < 0 ? (by0 - y) / uy : Infinity;
+      const bx0 = lx0 + bi * cellsPerBlock, by0 = ly0 + bj * cellsPerBlock;
+      // FAR, not Infinity, for an edge the ray runs along: the engine boxes every number a ternary mixes with the
+      // constant Infinity (one allocation per jump). Where ux is 0, |uy| is 1 and ty is a block at most, so the
+      // minimum is the same
+      const tx = ux > 0 ? (bx0 + cellsPerBlock - x) / ux : ux < 0 ? (bx0 - x) / ux : FAR;
+      const ty = uy > 0 ? (by0 + cellsPerBlock - y) / uy : uy < 0 ? (by0 - y) / uy : FAR;
       const jump = Math.min(tx, ty);
       s += (jump > 0 ? jump : 0) + 1e-6 * step;
       continue;
