@@ -172,7 +172,7 @@ async function main(): Promise<void> {
   console.log(`| peak memory, full decode (working set beyond the file bytes) | ${(memFull.workBytes / 2 ** 20).toFixed(0)} MiB for ${(memFull.decodedBytes / 2 ** 20).toFixed(0)} MiB decoded | GDAL ${(memGdal.peakBytes / 2 ** 20).toFixed(0)} MiB | ${(memFull.workBytes / memFull.decodedBytes).toFixed(2)} (GDAL ${(memGdal.peakBytes / memGdal.decodedBytes).toFixed(2)}) |`);
   console.log(`| peak memory, 100 line windows (64 MiB block cache) | ${(memLines.workBytes / 2 ** 20).toFixed(0)} MiB for ${(memLines.decodedBytes / 2 ** 20).toFixed(0)} MiB decoded | - | ${(memLines.workBytes / memLines.decodedBytes).toFixed(2)} |`);
   console.log(`| plan, 2 km2 at 2 cm GSD | ${plan.seconds === null ? 'TODO' : fmt(plan.seconds * 1000)} | - | ${plan.note} |`);
-  const coverageRatios = await benchCoverage(Math.min(ROUNDS, 3));
+  const coverageRatios = await benchCoverage(ROUNDS);
   const solveRatios = await benchSolve();
   console.log(`check: max |Loftline - map_coordinates| over 1000 samples = ${maxDiff.toExponential(2)} m; decoded pixel equals GDAL's`);
   console.log('');
