@@ -36,7 +36,7 @@ export function specRasterOptions(spec: CoverageSpec): { specGsdCm: number; obli
 }
 
 /** Whether cell `i` meets the views-from-all-round item (true when the spec has none). */
-function meetsDirections(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
+export function meetsDirections(r: CoverageRaster, spec: CoverageSpec, i: number): boolean {
   if (spec.maxDirectionGapDeg === null) return true;
   const gap = r.directionGapDeg ? r.directionGapDeg[i] : NaN;
   return gap <= spec.maxDirectionGapDeg;

@@ -228,10 +228,12 @@ function lineSets(lines: ReadonlyArray<{ headingDeg: number }>, layoutHeadingDeg
   return sets;
 }
 
+type LineSet = ReturnType<typeof lineSets>[number];
+
 /** Each line's photo stations in the local frame at their fitted altitudes, with the line's row across the area (within its set). */
-function stationPhotos(lines: FlightLine[], profiles: LineProfile[], layoutHeadingDeg: number): LinePhotoStations[] {
+function stationPhotos(lines: FlightLine[], profiles: LineProfile[], sets: LineSet[]): LinePhotoStations[] {
   const rowOf = new Map<FlightLine, number>();
-  for (const set of lineSets(lines, layoutHeadingDeg)) {
+  for (const set of sets) {
     const offsets = [...new Set(set.members.map((li) => lines[li].offsetM))].sort((a, b) => a - b);
     for (const li of set.members) rowOf.set(lines[li], offsets.indexOf(lines[li].offsetM));
   }
@@ -268,7 +270,7 @@ function missionEnvelope(missionInput: unknown, mission: Mission, photos: LinePh
  * Station overlaps, GSD and flags over the real ground, and as guaranteed under the envelope when there is one;
  * without overlaps (`withOverlaps` false: AnalyseOptions.overlaps) only the heights, GSDs and their flags.
  */
-function overlapsOf(mission: Mission, g: PlanGround, photos: LinePhotoStations[], headingDeg: number, lim: AltitudeLimits, env: ReturnType<typeof missionEnvelope>, withOverlaps: boolean) {
+function overlapsOf(mission: Mission, g: PlanGround, photos: LinePhotoStations[], sets: LineSet[], lim: AltitudeLimits, env: ReturnType<typeof missionEnvelope>, withOverlaps: boolean) {
   const cam = mission.camera;
   const band = gsdBandCm(mission);
   const { envelope, crabDegMax } = env;
@@ -291,7 +293,7 @@ function overlapsOf(mission: Mission, g: PlanGround, photos: LinePhotoStations[]
   else {
     // each set of lines against its own neighbours, along its own heading
     results = new Array<StationResult[]>(photos.length);
-    for (const set of lineSets(photos, headingDeg)) {
+    for (const set of sets) {
       const r = overlapsOfSet(set.members.map((li) => photos[li]), set.headingDeg);
       set.members.forEach((li, k) => { results[li] = r[k]; });
     }
@@ -407,10 +409,11 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
   const { lines: laid, headingDeg, headingAdvice } = layLines(mission, g, opts);
   const lim = altitudeLimits(mission, g.targetHeightM);
   const { lines, profiles, leftOut } = fitLines(laid, g, mission, lim, opts);
-  const photos = stationPhotos(lines, profiles, headingDeg);
+  const sets = lineSets(lines, headingDeg);
+  const photos = stationPhotos(lines, profiles, sets);
   const env = missionEnvelope(missionInput, mission, photos);
   const { envelope, crabDegMax } = env;
-  const { results, band, lattice } = overlapsOf(mission, g, photos, headingDeg, lim, env, opts.overlaps !== false);
+  const { results, band, lattice } = overlapsOf(mission, g, photos, sets, lim, env, opts.overlaps !== false);
   const outLines = resultLines(mission, g, lines, profiles, photos, results);
   const f = stationFigures(results, photos, band, g.takeoffXY);
   const { gsds, agls, photoCount, flagged } = f;

@@ -6,7 +6,7 @@ import type { AttitudeEnvelope } from './attitude-envelope';
 import type { LocalFrame } from './local-frame';
 import { cellSlopesDeg, computeCoverage, type CoverageRaster } from './coverage';
 import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
-import { coverageCompliance, specRasterOptions, type Compliance, type CoverageSpec, type CoverageSettings } from './coverage-spec';
+import { coverageCompliance, meetsDirections, specRasterOptions, type Compliance, type CoverageSpec, type CoverageSettings } from './coverage-spec';
 import { coverageFrame, planPhotos } from './coverage-photos';
 import { reachability, reachableOnly, type Reach } from './solve-reach';
 
@@ -56,7 +56,7 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
     const views = raster.views[i] < spec.minViews;
     const sv = spec.maxSigmaVerticalM !== null && !(raster.sigmaVerticalM[i] <= spec.maxSigmaVerticalM);
     const sh = spec.maxSigmaHorizontalM !== null && !(raster.sigmaHorizontalM[i] <= spec.maxSigmaHorizontalM);
-    const dirs = spec.maxDirectionGapDeg !== null && !((raster.directionGapDeg ? raster.directionGapDeg[i] : NaN) <= spec.maxDirectionGapDeg);
+    const dirs = !meetsDirections(raster, spec, i);
     return gsd ? 'gsd' : views ? 'views' : dirs ? 'directions' : sv || sh ? 'other' : null;
   };
   const rasterOf = (plan: PlanResult, stopAtShort: boolean) => computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, envelope).photos, {

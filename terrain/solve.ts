@@ -128,6 +128,8 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const tiltDeg = pattern === 'slant' ? (so.tiltDeg ?? Math.min(60, spec.obliqueDeg + 5)) : 0;
   const tiltFactor = Math.cos((tiltDeg * Math.PI) / 180) ** 2;
   const setCount = lattice ? 2 : 1;
+  /** The heading of set 0 (the layout's) or set 1 (a quarter turn on, across it). */
+  const setHeadingOf = (headingDeg: number, set: number) => (headingDeg + 90 * set) % 360;
   // every point is seen from both sets of a lattice: each set carries half the views the spec asks for
   const viewsPerSet = lattice ? Math.ceil(Math.max(1, spec.minViews) / 2) : Math.max(1, spec.minViews);
   // the side overlap floor: a furrow's strips need only join (10 %) under the envelope's roll; a lattice's point
@@ -167,7 +169,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     // the second set starts where the first ends
     let startNear: [number, number] = takeoffXY;
     for (let set = 0; set < setCount; set++) {
-      const setHeading = (headingDeg + 90 * set) % 360;
+      const setHeading = setHeadingOf(headingDeg, set);
       const rep = reps[set] ?? { lower: [], views: [] };
       const ctx: LineContext = { area: layArea, headingDeg: setHeading, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
       const factorAt = (c: number) => tiltFactor * 0.97 * 0.92 ** near(rep.lower, c);
@@ -198,7 +200,6 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       }
       if (lines.length > 0) startNear = lines[lines.length - 1].end;
     }
-    const rows = rowsBySet[0];
     const ctx: LineContext = { area: layArea, headingDeg, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
     // spot photos as one tour between two lines of the layout (both ends high: the transits to and from the tour
     // are flown at the lines' altitude), in the gap where its transits keep the clearance at the least detour
@@ -261,7 +262,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         } else if (it && row) {
           const nx = row.next;
           const rowNo = (r: number) => { const k = kept.findIndex((q) => !q.spot && q.set === it.set && q.row === r); return k >= 0 ? k + 1 : null; };
-          if (setCount > 1) reasons.push(it.set === 0 ? `first set of the ${pattern}, flown at ${headingDeg}°.` : `second set of the ${pattern}, across the first at ${(headingDeg + 90) % 360}°: every point is seen from four sides, not two.`);
+          if (setCount > 1) reasons.push(it.set === 0 ? `first set of the ${pattern}, flown at ${headingDeg}°.` : `second set of the ${pattern}, across the first at ${setHeadingOf(headingDeg, 1)}°: every point is seen from four sides, not two.`);
           if (tiltDeg) reasons.push(`camera tilted ${tiltDeg}° from straight down towards the nose (set on the gimbal before the line): the photos look ${round(it.line.headingDeg, 0)}° along the line, so this line sees the ground from one side and the lines flown the other way from the opposite side.`);
           if (nx) {
             const [lon, lat2] = frame.toLonLat(nx.atX, nx.atY);
@@ -297,7 +298,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     if (b.flightTimeS < built.flightTimeS) { built = b; headingDeg = h; }
   }
   // 2. prove, and tighten where reachable cells fall short: in each set, the row nearest the short cell
-  const rots = Array.from({ length: setCount }, (_, set) => rotated((headingDeg + 90 * set) % 360));
+  const rots = Array.from({ length: setCount }, (_, set) => rotated(setHeadingOf(headingDeg, set)));
   const rep = none();
   let verdict: Verdict = verifier.check(built.plan);
   let rounds = 0;
@@ -396,9 +397,9 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       headingDeg,
       heading: `${headingDeg}° flies fastest of ${headingWhy}: ${tried.join(', ')}.`,
       pattern: (pattern === 'slant'
-        ? `slant: two sets of parallel lines a quarter turn apart (${headingDeg}° and ${(headingDeg + 90) % 360}°), the camera tilted ${tiltDeg}° from straight down towards the nose on every line, so each line looks one way along it and the lines flown each way of both sets see every point from four headings; lines fly at cos² ${tiltDeg}° = ${round(tiltFactor, 3)} of the nadir height for the GSD at the image centre; each set with half the spec's views (${viewsPerSet})${so.pattern === 'slant' ? ' (the mission asks for it)' : ` (the spec asks for views from all round at ${spec.obliqueDeg}° from the vertical, a slant nadir photos from neighbouring lines cannot give with this camera)`}.`
+        ? `slant: two sets of parallel lines a quarter turn apart (${headingDeg}° and ${setHeadingOf(headingDeg, 1)}°), the camera tilted ${tiltDeg}° from straight down towards the nose on every line, so each line looks one way along it and the lines flown each way of both sets see every point from four headings; lines fly at cos² ${tiltDeg}° = ${round(tiltFactor, 3)} of the nadir height for the GSD at the image centre; each set with half the spec's views (${viewsPerSet})${so.pattern === 'slant' ? ' (the mission asks for it)' : ` (the spec asks for views from all round at ${spec.obliqueDeg}° from the vertical, a slant nadir photos from neighbouring lines cannot give with this camera)`}.`
         : lattice
-        ? `lattice: a second set of parallel lines across the first (${headingDeg}° and ${(headingDeg + 90) % 360}°), nadir camera, each set with half the spec's views (${viewsPerSet}), so every point is seen from four sides${so.pattern === 'lattice' ? ' (the mission asks for it)' : ` (the spec asks for views from all round: no gap over ${spec.maxDirectionGapDeg}° between views at least ${spec.obliqueDeg}° from the vertical)`}.`
+        ? `lattice: a second set of parallel lines across the first (${headingDeg}° and ${setHeadingOf(headingDeg, 1)}°), nadir camera, each set with half the spec's views (${viewsPerSet}), so every point is seen from four sides${so.pattern === 'lattice' ? ' (the mission asks for it)' : ` (the spec asks for views from all round: no gap over ${spec.maxDirectionGapDeg}° between views at least ${spec.obliqueDeg}° from the vertical)`}.`
         : `furrow: one set of parallel lines, nadir camera (mapping)${spec.maxDirectionGapDeg !== null ? '; the mission asks for it although the spec asks for views from all round, which one set seldom gives (the proof shows where)' : ''}.`)
         + (so.beyondEdgeM > 0 ? ` Lines are laid up to ${so.beyondEdgeM} m beyond the area's boundary (solve.beyondEdgeM), so ground at the edge is seen from outside too: fly there only where that is allowed.` : ''),
       lines: choiceLines,
