@@ -27,6 +27,9 @@ export const solveSettingsSchema = z.object({
   spotRounds: ranged('spotRounds', 0, 8).int({ error: 'solve.spotRounds must be a whole number.' }).optional(),
   // lines may be laid this far beyond the boundary (only where flying over the neighbouring ground is allowed)
   beyondEdgeM: ranged('beyondEdgeM', 0, 100).optional(),
+  // a line may be cut at a face and flown as two, the aircraft stopping to climb or descend straight up or down
+  // (left out: yes unless the attitude envelope's aircraft crabs, a fixed wing, which cannot stop)
+  cutAtFaces: z.boolean({ error: 'solve.cutAtFaces must be true or false.' }).optional(),
 });
 
 const n = z.number();

@@ -31,6 +31,8 @@ export interface FittedLine {
   fitSpeedMps: number;
   /** Length missed for gradient reasons at the mission's speed (why the line was slowed), metres. */
   slowedForM: number;
+  /** The stretches missed for those reasons at the mission's speed (where a cut at a face may help: `solve-cut.ts`). */
+  missedAtSpeed: Array<{ startM: number; endM: number }>;
   /** Height factor applied to the spec's GSD height. */
   heightFactor: number;
 }
@@ -117,7 +119,9 @@ function speedSteps(missionSpeedMps: number, minSpeedMps: number): number[] {
   return out;
 }
 
-const gradientMissM = (fit: AltitudeProfile) => fit.unmet.filter((u) => SPEED_REASONS.has(u.reason)).reduce((t, u) => t + (u.endM - u.startM), 0);
+const gradientMisses = (fit: AltitudeProfile) => fit.unmet.filter((u) => SPEED_REASONS.has(u.reason)).map((u) => ({ startM: u.startM, endM: u.endM }));
+/** Length of a fitted line that misses the GSD band for a reason a slower leg (or a cut at a face) can cure, metres. */
+export const gradientMissM = (fit: AltitudeProfile) => gradientMisses(fit).reduce((t, u) => t + (u.endM - u.startM), 0);
 
 /** Fit a laid line at the fastest speed step whose gradients hold the band (or the slowest, when none does). */
 export function fitAtBestSpeed(ctx: LineContext, line: FlightLine, heightFactor: number, strip: Strip): FittedLine {
@@ -130,7 +134,7 @@ export function fitAtBestSpeed(ctx: LineContext, line: FlightLine, heightFactor:
     const limits = solvedLimits(ctx, heightFactor, v);
     const f = { x: p.x, groundM: p.groundM, fit: fitAltitudes(p.x, p.groundM, 'follow', limits, p.bandGroundM) };
     const miss = gradientMissM(f.fit);
-    const cand: FittedLine = { line, x: f.x, groundM: f.groundM, fit: f.fit, limits, fitSpeedMps: v, slowedForM: first ? first.slowedForM : miss, heightFactor };
+    const cand: FittedLine = { line, x: f.x, groundM: f.groundM, fit: f.fit, limits, fitSpeedMps: v, slowedForM: first ? first.slowedForM : miss, missedAtSpeed: first ? first.missedAtSpeed : gradientMisses(f.fit), heightFactor };
     if (!first) first = cand;
     if (!best || miss < gradientMissM(best.fit) - 1e-6) best = cand;
     if (miss <= 1e-6) return cand;

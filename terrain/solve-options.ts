@@ -36,12 +36,23 @@ interface SolveOptions {
   tiltDeg: number | null;
   /** Rounds of adding spot photos over the cells the lines still leave short of the GSD (0: none). */
   spotRounds: number;
+  /**
+   * Whether a line may be cut at a face and flown as two back to back, the aircraft stopping there to climb or
+   * descend straight up or down (`solve-cut.ts`); null lets the aircraft decide (solve.ts: not for one that crabs,
+   * a fixed wing, which cannot stop).
+   */
+  cutAtFaces: boolean | null;
 }
 
 function numberIn(o: Record<string, unknown>, key: string, def: number, lo: number, hi: number): number {
   const v = o[key] === undefined ? def : o[key];
   check(typeof v === 'number' && Number.isFinite(v) && v >= lo && v <= hi, `solve.${key} must be a number from ${lo} to ${hi}, got ${JSON.stringify(v)}.`);
   return v as number;
+}
+
+function booleanOf(o: Record<string, unknown>, key: string): boolean {
+  check(typeof o[key] === 'boolean', `solve.${key} must be true or false, got ${JSON.stringify(o[key])}.`);
+  return o[key] as boolean;
 }
 
 /**
@@ -67,5 +78,6 @@ export function resolveSolveOptions(input: unknown, mission: Mission): SolveOpti
     spotRounds: Math.round(numberIn(o, 'spotRounds', 5, 0, 8)),
     beyondEdgeM: numberIn(o, 'beyondEdgeM', 0, 0, 100),
     tiltDeg: o.tiltDeg === undefined ? null : numberIn(o, 'tiltDeg', 35, 10, 60),
+    cutAtFaces: o.cutAtFaces === undefined ? null : booleanOf(o, 'cutAtFaces'),
   };
 }

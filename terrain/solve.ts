@@ -11,7 +11,8 @@ import type { AltitudeLimits } from './altitude';
 import type { PlanResult } from './plan-result';
 import { resolveSolveOptions, type SolvePattern } from './solve-options';
 import { forwardOverlapForSlant, forwardOverlapForViews, viewGeometry } from './solve-geometry';
-import { fitAtBestSpeed, stripLowM, type LineContext, type Strip } from './solve-line';
+import { stripLowM, type LineContext, type Strip } from './solve-line';
+import { fitOrCut, type LineCut } from './solve-cut';
 import { layoutRows, rotated, type LayoutRow } from './solve-layout';
 import { placeTriggers } from './solve-triggers';
 import { flightTimeWithLegSpeedsS, legSpeedMps } from './solve-speed';
@@ -95,6 +96,9 @@ interface Built {
   full: () => Built;
 }
 
+/** A piece of a laid line cut at faces (`solve-cut.ts`): which piece of how many, and the cuts either side of it. */
+interface PieceOf { piece: number; pieces: number; before: LineCut | null; after: LineCut | null }
+
 /** Repairs found by checking the raster, per set of lines: places (cross-track) that need a lower line or more photos along. */
 interface Repairs { lower: number[]; views: number[] }
 
@@ -128,6 +132,8 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   const tiltDeg = pattern === 'slant' ? (so.tiltDeg ?? Math.min(60, spec.obliqueDeg + 5)) : 0;
   const tiltFactor = Math.cos((tiltDeg * Math.PI) / 180) ** 2;
   const setCount = lattice ? 2 : 1;
+  // a line may be cut at a face where the aircraft can stop and climb straight up: not a fixed wing (it crabs)
+  const cutAtFaces = so.cutAtFaces ?? !(envelope?.crabs ?? false);
   /** The heading of set 0 (the layout's) or set 1 (a quarter turn on, across it). */
   const setHeadingOf = (headingDeg: number, set: number) => (headingDeg + 90 * set) % 360;
   // every point is seen from both sets of a lattice: each set carries half the views the spec asks for
@@ -165,7 +171,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     const limitsBy = new Map<FlightLine, AltitudeLimits>();
     const stripBy = new Map<FlightLine, Strip>();
     const ctxBy = new Map<FlightLine, LineContext>();
-    const info: Array<{ line: FlightLine; set: number; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean; spot?: Spot }> = [];
+    const info: Array<{ line: FlightLine; set: number; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean; spot?: Spot; cut?: PieceOf }> = [];
     // the second set starts where the first ends
     let startNear: [number, number] = takeoffXY;
     for (let set = 0; set < setCount; set++) {
@@ -187,16 +193,20 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         const d = (((l.headingDeg - setHeading) % 360) + 360) % 360;
         const along = d < 90 || d > 270;
         const belowM = along ? lower : upper, aboveM = along ? upper : lower;
-        const fitted = fitAtBestSpeed(ctx, l, factor, { belowM, aboveM });
+        // whole, or cut at faces where flying two pieces with a stop beats slowing the whole line
+        const { pieces, cuts } = fitOrCut(ctx, l, factor, { belowM, aboveM }, cutAtFaces);
         const views = viewsAt(l.offsetM);
         const fwd = Math.max(forwardOverlapForViews(views, so.minForwardOverlap), slantForward ?? 0);
-        const trig = placeTriggers(l, fitted.x, fitted.fit.altitudeM, heights, { belowM, aboveM }, geometry.tanAlong, fwd, 2 * geometry.specHeightM * factor * geometry.tanAlong);
-        const line: FlightLine = { ...l, index: lines.length, stationsM: trig.stationsM, ...(tiltDeg ? { mountTiltDeg: tiltDeg } : {}) };
-        limitsBy.set(line, fitted.limits);
-        stripBy.set(line, { belowM, aboveM });
-        ctxBy.set(line, ctx);
-        info.push({ line, set, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length });
-        lines.push(line);
+        pieces.forEach((fitted, k) => {
+          const trig = placeTriggers(fitted.line, fitted.x, fitted.fit.altitudeM, heights, { belowM, aboveM }, geometry.tanAlong, fwd, 2 * geometry.specHeightM * factor * geometry.tanAlong);
+          const line: FlightLine = { ...fitted.line, index: lines.length, stationsM: trig.stationsM, ...(tiltDeg ? { mountTiltDeg: tiltDeg } : {}) };
+          limitsBy.set(line, fitted.limits);
+          stripBy.set(line, { belowM, aboveM });
+          ctxBy.set(line, ctx);
+          const cut = pieces.length > 1 ? { piece: k + 1, pieces: pieces.length, before: k > 0 ? cuts[k - 1] : null, after: k + 1 < pieces.length ? cuts[k] : null } : undefined;
+          info.push({ line, set, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length, cut });
+          lines.push(line);
+        });
       }
       if (lines.length > 0) startNear = lines[lines.length - 1].end;
     }
@@ -208,11 +218,13 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       // the lines' altitudes are fitted later: the band's low end (0.6 of its top) stands for them, the lower the
       // stricter for a transit flown at the higher of its two ends
       const at = (p: [number, number]): [number, number, number] => [p[0], p[1], heights.heightAt(p[0], p[1]) + 0.6 * geometry.specHeightM * 0.97];
-      const gaps = lines.slice(0, -1).map((l, k) => ({ from: at(l.end), to: at(lines[k + 1].start) }));
+      // never between two parts of a line cut at a face: the aircraft stops there only to climb or descend
+      const gaps = lines.slice(0, -1).map((l, k) => ({ k, from: at(l.end), to: at(lines[k + 1].start) })).filter((q) => !info[q.k].cut?.after);
       const takeoffAt: [number, number, number] = [takeoffXY[0], takeoffXY[1], heights.heightAt(takeoffXY[0], takeoffXY[1])];
-      if (gaps.length === 0) gaps.push({ from: at(lines[0].end), to: takeoffAt });
+      if (gaps.length === 0) gaps.push({ k: lines.length - 1, from: at(lines[lines.length - 1].end), to: takeoffAt });
       const tour = tourOrder(spots, gaps[gaps.length - 1].from, gaps[gaps.length - 1].to, mission, heights.heightAt);
-      const { gap, reversed } = tourGap(tour, gaps, mission, heights.heightAt);
+      const chosen = tourGap(tour, gaps, mission, heights.heightAt);
+      const gap = gaps[chosen.gap].k, reversed = chosen.reversed;
       const ordered = reversed ? [...tour].reverse() : tour;
       const spotLines = ordered.map((sp) => {
         const line = spotLine(sp, rot.c(sp.x, sp.y));
@@ -268,6 +280,17 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
             const [lon, lat2] = frame.toLonLat(nx.atX, nx.atY);
             reasons.push(`ground at ${round(nx.groundM, 1)} m above ${datum} between lines ${li + 1} and ${rowNo(it.row + 1) ?? '?'} (lon ${round(lon, 5)}, lat ${round(lat2, 5)}) leaves ${round(nx.halfLeftM, 1)} m and ${round(nx.halfRightM, 1)} m of footprint either side under the ${geometry.rollDeg}° roll: ${round(nx.spacingM, 1)} m spacing keeps the ${round(sideFloor * 100, 0)} % side overlap floor${nx.held ? '' : ' (not held after 7 tries: the raster check decides)'}.`);
           } else reasons.push('last line of the layout: its footprint reaches the area\'s far edge.');
+          if (it.cut) {
+            const { piece, pieces, before, after } = it.cut;
+            const say = (c: LineCut) => {
+              const rise = c.gradient >= 0, up = c.stepM >= 0;
+              const step = Math.abs(c.stepM) < 0.5 ? 'crosses it at the same altitude' : up ? `climbs ${round(c.stepM, 1)} m straight up at ${mission.climbMps} m/s, then crosses it` : `crosses it, then descends ${round(-c.stepM, 1)} m straight down at ${mission.descentMps} m/s`;
+              return `a face ${rise ? 'rising' : 'dropping'} from ${round(c.groundFromM, 1)} to ${round(c.groundToM, 1)} m above ${datum} over ${round(c.toM - c.fromM, 1)} m (steepest ${round(Math.abs(c.gradient), 2)} m per metre): the aircraft stops at its ${rise ? 'foot' : 'top'} and ${step}; ${c.heldM > 0 ? `the GSD band is held over ${round(c.heldM, 0)} m more of the line than the whole line's slowest legs can follow, ` : ''}${c.savedS >= 0 ? `${round(c.savedS, 0)} s less` : `${round(-c.savedS, 0)} s more`} than flying the line whole with slower legs`;
+            };
+            const ends = it.line.end, starts = it.line.start;
+            const [eLon, eLat] = frame.toLonLat(ends[0], ends[1]), [sLon, sLat] = frame.toLonLat(starts[0], starts[1]);
+            reasons.push(`part ${piece} of ${pieces} of one line cut at faces${after ? `; it ends (lon ${round(eLon, 5)}, lat ${round(eLat, 5)}) before ${say(after)}` : ''}${before ? `; it starts (lon ${round(sLon, 5)}, lat ${round(sLat, 5)}) after ${say(before)}` : ''}.`);
+          }
           reasons.push(`altitude legs under ${round(it.factor * geometry.specHeightM, 1)} m above ground (${round(it.factor * 100, 0)} % of the ${round(geometry.specHeightM, 1)} m that gives the spec's ${spec.maxGsdCm} cm GSD), never below the ${mission.clearanceM + mission.obstacleAllowanceM} m clearance and allowance, under the ${mission.maxAglM} m height limit.`);
           if (it.fitSpeed < mission.speedMps - 1e-9) reasons.push(`at ${mission.speedMps} m/s the climb/descent limits (${mission.climbMps}/${mission.descentMps} m/s) miss the GSD band over ${round(it.slowedForM, 0)} m of this line; legs were fitted for ${round(it.fitSpeed, 2)} m/s (gradients ${round(mission.climbMps / it.fitSpeed, 3)} up, ${round(mission.descentMps / it.fitSpeed, 3)} down) and each flies as fast as its own gradient allows (${round(vMin, 2)}–${round(vMax, 2)} m/s).`);
           else reasons.push(`every leg at the mission's ${mission.speedMps} m/s: the climb/descent limits hold the band without slowing.`);
