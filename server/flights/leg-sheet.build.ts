@@ -69,9 +69,10 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
         const dz = l.legs[0].altitudeAboveDatumM.start - prev.legs[prev.legs.length - 1].altitudeAboveDatumM.end;
         fromPreviousS = distanceM(prev.end, l.start) / mission.speedMps + (dz > 0 ? dz / mission.climbMps : -dz / mission.descentMps);
       }
-      return { number: l.number, timeS: l.timeS, fromTakeoffM: distanceM(takeoff, l.start), toTakeoffM: distanceM(l.end, takeoff), fromPreviousS };
+      const startAboveTakeoffM = l.legs[0]?.altitudeAboveTakeoffM.start, endAboveTakeoffM = l.legs[l.legs.length - 1]?.altitudeAboveTakeoffM.end;
+      return { number: l.number, timeS: l.timeS, fromTakeoffM: distanceM(takeoff, l.start), toTakeoffM: distanceM(l.end, takeoff), fromPreviousS, startAboveTakeoffM, endAboveTakeoffM };
     }),
-    { enduranceMin: mission.enduranceMin, reserve: mission.batteryReserve, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS },
+    { enduranceMin: mission.enduranceMin, reserve: mission.batteryReserve, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS, climbMps: mission.climbMps, descentMps: mission.descentMps },
   );
   const groundM = takeoffGroundM(view);
   const farthest = lines.length

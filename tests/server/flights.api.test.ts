@@ -111,8 +111,9 @@ describe('the leg sheet', () => {
     }));
     // the fixture climbs at 0.2 m/s: some legs are slowed, and their time is the longer one
     expect(slow).toBeGreaterThan(0);
-    // each pack: out from the takeoff, its lines, a turn and the transit between each (level at 10 m/s plus the
-    // change of altitude at 0.2 m/s up or down), and back
+    // each pack: straight up off the takeoff to the first line's altitude above it and out, its lines, a turn and
+    // the transit between each (level at 10 m/s plus the change of altitude at 0.2 m/s up or down), back, and
+    // straight down onto the takeoff
     const mission = readMission(input);
     const speed = mission.speedMps, turn = mission.turnTimeS;
     expect([speed, mission.climbMps, mission.descentMps]).toEqual([10, 0.2, 0.2]);
@@ -125,13 +126,13 @@ describe('the leg sheet', () => {
     const takeoff = mission.takeoff;
     for (const p of sheet.batteries.packs) {
       const ls = p.lines.map((n) => sheet.lines[n - 1]);
-      let t = hav(takeoff, ls[0].start) / speed + ls[0].timeS;
+      let t = Math.abs(ls[0].legs[0].altitudeAboveTakeoffM.start) / 0.2 + hav(takeoff, ls[0].start) / speed + ls[0].timeS;
       for (let k = 1; k < ls.length; k++) {
         const a = ls[k - 1], b = ls[k];
         const dz = b.legs[0].altitudeAboveDatumM.start - a.legs.at(-1)!.altitudeAboveDatumM.end;
         t += turn + hav(a.end, b.start) / speed + Math.abs(dz) / 0.2 + b.timeS;
       }
-      t += hav(ls.at(-1)!.end, takeoff) / speed;
+      t += hav(ls.at(-1)!.end, takeoff) / speed + Math.abs(ls.at(-1)!.legs.at(-1)!.altitudeAboveTakeoffM.end) / 0.2;
       expect(p.flightTimeS / t).toBeGreaterThan(0.995);
       expect(p.flightTimeS / t).toBeLessThan(1.005);
     }

@@ -34,6 +34,27 @@ describe('the battery plan', () => {
     expect(plan.notes[0]).toMatch(/^Line 2 alone needs 9\.3 min/);
   });
 
+  it('counts each pack\'s climb off the takeoff point and its descent back onto it at the vertical speeds', () => {
+    // Worked by hand, 3 m/s up and 2 m/s down: lines start 90 m and end 100 m above takeoff. Pack 1: 90 / 3 = 30 s
+    // up + 30 s out + 100 + 10 + 100 + 10 + 100 = 380 s, + 30 s back + 100 / 2 = 50 s down = 460 s; a fourth line
+    // would make 380 + 110 + 80 = 570 s > 480 s.
+    const up = (n: number, t: number): BatteryLine => ({ ...line(n, t), startAboveTakeoffM: 90, endAboveTakeoffM: 100 });
+    const vert = { ...opts, climbMps: 3, descentMps: 2 };
+    const plan = planBatteries([up(1, 100), up(2, 100), up(3, 100), up(4, 100)], vert);
+    expect(plan.packs.map((p) => p.lines)).toEqual([[1, 2, 3], [4]]);
+    expect(plan.packs[0].flightTimeS).toBeCloseTo(460, 9);
+    // pack 2: 30 up + 30 out + 100 + 30 back + 50 down = 240 s
+    expect(plan.packs[1].flightTimeS).toBeCloseTo(240, 9);
+    // 100 + 100 + 190 fits one battery flat (30 + 100 + 10 + 100 + 10 + 190 + 30 = 470 s) but not with the climb and descent (550 s)
+    expect(planBatteries([line(1, 100), line(2, 100), line(3, 190)], opts).count).toBe(1);
+    expect(planBatteries([up(1, 100), up(2, 100), up(3, 190)], vert).packs.map((p) => p.lines)).toEqual([[1, 2], [3]]);
+    // a line below the takeoff point (a pit): the aircraft descends to it and climbs back
+    const pit = planBatteries([{ ...line(1, 100), startAboveTakeoffM: -20, endAboveTakeoffM: -30 }], vert);
+    expect(pit.packs[0].flightTimeS).toBeCloseTo(20 / 2 + 30 + 100 + 30 + 30 / 3, 9);
+    expect(pit.notes.at(-1)).toMatch(/climb off it to the first line's altitude at 3 m\/s and the descent back onto it at 2 m\/s/);
+    expect(() => planBatteries([], { ...opts, climbMps: 0, descentMps: 2 })).toThrow(/climbMps must be positive, got 0/);
+  });
+
   it('says its figures assume still air', () => {
     expect(planBatteries([line(1, 10)], opts).notes.at(-1)).toMatch(/still air/);
   });
