@@ -71,7 +71,9 @@ export const planResultSchema = z.object({
   lines: z.array(planLineSchema),
   summary: planSummarySchema,
   warnings: z.array(planWarningSchema),
-  takeoff: z.object({ lon: n, lat: n, groundM: n, geoidUndulationM: n }),
+  // returnAltitude…: the altitude (above the datum, and above takeoff) the straight return from the last line's end
+  // to the takeoff keeps the clearance at, never below that end's own (optional: results stored before had none)
+  takeoff: z.object({ lon: n, lat: n, groundM: n, geoidUndulationM: n, returnAltitudeM: n.optional(), returnAltitudeAboveTakeoffM: n.optional() }),
   heights: z.object({ datum: z.string(), aboveTakeoff: z.string(), verticalDatum: z.object({ epsg: z.number().int().nullable(), name: z.string() }).nullable() }),
   headingAdvice: z.object({ recommendedDeg: n, options: z.array(headingOptionSchema) }).nullable(),
   frame: z.object({ crs: z.string(), epsg: z.number().int().nullable() }),

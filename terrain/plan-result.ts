@@ -120,7 +120,12 @@ export interface PlanResult {
   lines: PlanLine[];
   summary: PlanSummary;
   warnings: PlanWarning[];
-  takeoff: { lon: number; lat: number; groundM: number; geoidUndulationM: number };
+  /**
+   * The takeoff point; `returnAltitudeM` (above the datum) and `returnAltitudeAboveTakeoffM`: the altitude the
+   * straight return from the last line's end to the takeoff keeps the clearance at, never below that end's own (the
+   * MAVLink export climbs to it over the end before the return).
+   */
+  takeoff: { lon: number; lat: number; groundM: number; geoidUndulationM: number; returnAltitudeM?: number; returnAltitudeAboveTakeoffM?: number };
   heights: { datum: string; aboveTakeoff: string; verticalDatum: { epsg: number | null; name: string } | null };
   headingAdvice: HeadingAdvice | null;
   frame: { crs: string; epsg: number | null };

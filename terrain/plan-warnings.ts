@@ -34,11 +34,13 @@ export function planSafetyWarnings(m: Mission, s: { maxDistanceFromTakeoffM: num
 
 /**
  * How far a level transit from a to b at `altM` comes inside the clearance over the ground between them, sampled
- * every 5 m (negative: clear by that much; −Infinity over unknown ground only).
+ * every `stepM` (default 5 m: the solver's many trial hops; the plan's own transits and its return altitude take
+ * 1 m, so a crest between samples hides at most a metre of run) (negative: clear by that much; −Infinity over
+ * unknown ground only).
  */
-export function transitShortfallM(a: readonly number[], b: readonly number[], altM: number, heightAt: HeightAt, clearanceM: number): number {
+export function transitShortfallM(a: readonly number[], b: readonly number[], altM: number, heightAt: HeightAt, clearanceM: number, stepM = 5): number {
   const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
-  const n = Math.max(2, Math.ceil(len / 5) + 1);
+  const n = Math.max(2, Math.ceil(len / stepM) + 1);
   let worst = -Infinity;
   for (let i = 0; i < n; i++) {
     const f = i / (n - 1);
@@ -59,19 +61,19 @@ export function transitWarnings(
   const out: PlanWarning[] = [];
   const startAlt = (i: number) => legs[i][0]?.altitudeStartM ?? NaN;
   const endAlt = (i: number) => legs[i][legs[i].length - 1]?.altitudeEndM ?? NaN;
-  const check = (label: string, a: [number, number], b: [number, number], altM: number) => {
+  const check = (label: string, a: [number, number], b: [number, number], altM: number, note = '') => {
     if (!Number.isFinite(altM)) return;
-    const worst = transitShortfallM(a, b, altM, heightAt, clearanceM);
+    const worst = transitShortfallM(a, b, altM, heightAt, clearanceM, 1);
     if (worst > 0) {
       // Both heights name their reference: the pilot sets the one above takeoff, the datum figure ties it to the grid.
       const flown = `${Math.round(altM)} m above the datum (${Math.round(altM - takeoffGroundM)} m above takeoff)`;
       const needed = `${Math.ceil(altM + worst)} m above the datum (${Math.ceil(altM + worst - takeoffGroundM)} m above takeoff)`;
-      out.push({ code: 'transit-clearance', message: `${label}: flown straight at ${flown} the transit comes ${worst.toFixed(1)} m inside the clearance; fly it at ${needed} or route around.` });
+      out.push({ code: 'transit-clearance', message: `${label}: flown straight at ${flown} the transit comes ${worst.toFixed(1)} m inside the clearance; fly it at ${needed} or route around${note}.` });
     }
   };
   if (lines.length === 0) return out;
   check('Takeoff to line 1', takeoff, lines[0].start, startAlt(0));
   for (let i = 1; i < lines.length; i++) check(`Line ${i} to line ${i + 1}`, lines[i - 1].end, lines[i].start, Math.max(endAlt(i - 1), startAlt(i)));
-  check(`Line ${lines.length} to takeoff`, lines[lines.length - 1].end, takeoff, endAlt(lines.length - 1));
+  check(`Line ${lines.length} to takeoff`, lines[lines.length - 1].end, takeoff, endAlt(lines.length - 1), ' (the MAVLink export climbs to it over the end of the line before the return; check that the autopilot\'s own return settings do not take it lower)');
   return out;
 }

@@ -15,7 +15,7 @@ import type { AttitudeEnvelope } from './attitude-envelope';
 import { adviseHeading } from './heading';
 import { estimateMission } from './estimates';
 import { geoidUndulationM } from './heights';
-import { planSafetyWarnings, transitWarnings, type PlanWarning } from './plan-warnings';
+import { planSafetyWarnings, transitShortfallM, transitWarnings, type PlanWarning } from './plan-warnings';
 import type { PlanLeg, PlanLine, PlanPoint, PlanResult, PlanStation, PlanSummary } from './plan-result';
 
 export type { PlanWarning } from './plan-warnings';
@@ -460,7 +460,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     lines: outLines,
     summary,
     warnings,
-    takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(g.takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3) },
+    takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(g.takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3), ...returnAltitude(lines, profiles, g, lim.clearanceM) },
     heights: {
       datum: `altitudeM, groundM: metres above the elevation grid's vertical datum (${opts.verticalDatum ? opts.verticalDatum.name : 'not stated in the file; usually orthometric, e.g. EGM96 or a national datum'})`,
       aboveTakeoff: 'altitude…AboveTakeoffM: metres above the ground at the takeoff point, as sampled from the grid',
@@ -469,6 +469,20 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     headingAdvice,
     frame: { crs: g.frame.crs.name, epsg: g.frame.crs.epsg },
   };
+}
+
+/**
+ * The altitude the straight return from the last line's end to the takeoff keeps the clearance at (the transit
+ * check's own sampling, every metre: `transitShortfallM`), never below the end's altitude; rounded up to the decimetre. Empty
+ * when the last line has no legs.
+ */
+function returnAltitude(lines: FlightLine[], profiles: LineProfile[], g: PlanGround, clearanceM: number): { returnAltitudeM?: number; returnAltitudeAboveTakeoffM?: number } {
+  const legs = profiles[profiles.length - 1]?.fit.legs ?? [];
+  const endM = legs[legs.length - 1]?.altitudeEndM;
+  if (lines.length === 0 || !Number.isFinite(endM)) return {};
+  const short = transitShortfallM(lines[lines.length - 1].end, g.takeoffXY, endM, g.heights.heightAt, clearanceM, 1);
+  const altM = short > 0 ? Math.ceil((endM + short) * 10) / 10 : endM;
+  return { returnAltitudeM: round(altM, 3), returnAltitudeAboveTakeoffM: round(altM - g.takeoffGroundM, 3) };
 }
 
 /** The plan-wide warnings: safety, transits, each line's own, then what the plan as a whole leaves undone. */

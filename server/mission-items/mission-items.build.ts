@@ -8,7 +8,8 @@
  *   DO_SET_CAM_TRIGG_DIST (trigger distance, one photo at once), NAV_WAYPOINT at every change of leg (followed by
  *   DO_CHANGE_SPEED where the leg's speed differs from the one in force, and DO_SET_CAM_TRIGG_DIST where its photo
  *   spacing differs once the camera runs), NAV_WAYPOINT line end, DO_SET_CAM_TRIGG_DIST 0 (camera off); finally
- *   MAV_CMD_NAV_RETURN_TO_LAUNCH.
+ *   MAV_CMD_NAV_RETURN_TO_LAUNCH, after a NAV_WAYPOINT over the last line's end at the plan's return altitude where the
+ *   straight way home needs more than that end's altitude to keep the clearance.
  * Between two lines at different altitudes a NAV_WAYPOINT holds the transit at the higher of the two (climb over the
  * end of the one line, or arrive over the start of the next and descend), as the plan's transit clearance check
  * assumes: a straight slant from a high line to a low one (a spot photo over a pit) would cut below it.
@@ -55,6 +56,8 @@ export interface BuilderLine {
 export interface BuilderInput {
   takeoff: { lon: number; lat: number };
   lines: BuilderLine[];
+  /** Altitude above takeoff the straight return from the last line's end keeps the clearance at (the plan's); climbed to there before the return when above that end. */
+  returnAltitudeAboveTakeoffM?: number;
 }
 
 /** Degrees to MAVLink's int32 degE7. */
@@ -225,6 +228,13 @@ export function buildMissionItems(input: BuilderInput): { items: MissionItem[]; 
       lastSeq: items.length - 1,
     });
   });
+  // the return flies straight home from here: climb over the last line's end first where the ground on the way
+  // needs it (the plan's return altitude), so the transit keeps the clearance whatever the autopilot's own return
+  // altitude (which only ever raises it on the usual autopilots: check yours)
+  const back = input.returnAltitudeAboveTakeoffM;
+  // (set inside the callback above, which the compiler's narrowing does not follow)
+  const finalEnd = lastEnd as { point: AlongPoint; altitudeM: number } | null;
+  if (finalEnd && back !== undefined && Number.isFinite(back) && back > finalEnd.altitudeM + 0.5) positioned('transit', MavCmd.NAV_WAYPOINT, finalEnd.point, back, null, null, [0, 0, 0, null]);
   if (tilted) gimbal(null, 0);
   action('return', MavCmd.NAV_RETURN_TO_LAUNCH, null, null, [0, 0, 0, 0]);
   return { items, lines };

@@ -56,7 +56,7 @@ export function missionItemsOf(v: VersionRecord, now: Date = new Date()): Missio
   const mission = readMission(v.input);
   const view = readResult(v.result);
   const lines = builderLinesOf(view, mission, v.number);
-  const { items, lines: missionLines } = buildMissionItems({ takeoff: mission.takeoff, lines });
+  const { items, lines: missionLines } = buildMissionItems({ takeoff: mission.takeoff, lines, returnAltitudeAboveTakeoffM: view.takeoff.returnAltitudeAboveTakeoffM });
   const datum = heightDatumOf(v);
   const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
   return {

@@ -182,6 +182,19 @@ describe('mission items of a plan', () => {
     for (const t of transits) expect(items[t.seq + 1].about.kind).toBe('line-start');
   });
 
+  it('climbs over the last line\'s end to the plan\'s return altitude before the return when the way home needs it', () => {
+    const level = { triggerDistanceM: 10, speedMps: 8, stations: [{ lon: 0.0011, lat: 54, distanceM: 6.6 }], legs: [{ start: { lon: 0.001, lat: 54, distanceM: 0 }, end: { lon: 0.0013, lat: 54, distanceM: 19.7 }, altitudeStartAboveTakeoffM: 80, altitudeEndAboveTakeoffM: 80 }] };
+    // a ridge on the way home: the plan says 86.4 m above takeoff keeps the clearance
+    const up = buildMissionItems({ takeoff: { lon: 0, lat: 54 }, lines: [level], returnAltitudeAboveTakeoffM: 86.4 }).items;
+    expect(kinds(up).slice(-2)).toEqual(['transit', 'return']);
+    const t = up[up.length - 2];
+    expect([t.command, t.x, t.y, t.z, t.about.line]).toEqual([cmd('MAV_CMD_NAV_WAYPOINT'), degE7(54), degE7(0.0013), 86.4, null]);
+    // no climb when the end's own altitude already keeps it (or within half a metre of it), nor when the plan has no figure (stored before)
+    for (const returnAltitudeAboveTakeoffM of [80, 80.4, undefined]) {
+      expect(kinds(buildMissionItems({ takeoff: { lon: 0, lat: 54 }, lines: [level], returnAltitudeAboveTakeoffM }).items).slice(-2)).toEqual(['camera-off', 'return']);
+    }
+  });
+
   it('points the gimbal before each line of a plan with tilted-camera lines, and straight down before the return', () => {
     // common.xml, MAV_CMD_DO_GIMBAL_MANAGER_PITCHYAW: param1 pitch in degrees, positive up (so -90 is straight down
     // and a camera tilted 35° towards the nose from straight down is at -55), param2 yaw, param3-4 rates (NaN unset)
