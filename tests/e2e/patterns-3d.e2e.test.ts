@@ -203,11 +203,20 @@ describe('views from all round, from the spec to the leg sheet', () => {
         expect(heights).toContain(`${leg.altitudeAboveDatumM.start.toFixed(1)} m above ${sheet.datum.name}`);
         expect(heights).toMatch(/ m above ground · GSD [\d.]+ cm$/);
       }
+      // the sheet's facts count the lines of the layout and the spot photos apart
+      const facts = (await page.getByTestId('sheet-facts').textContent()) ?? '';
+      expect(facts).toContain(`Lines${sheet.lines.length - spotLines.length}`);
+      expect(facts).toContain(`Spot photos${spotLines.length}`);
       // in a plan with tilted lines the spot photos say the camera looks straight down for them
       expect(await group.getByTestId(`spot-photos-${firstSpot}-camera`).textContent()).toContain('Camera straight down for these photos');
       // the flight-facing sheet keeps its cautions, with the camera tilt among the checks
       await page.getByText('Before you fly').first().waitFor();
       await expect(page.getByTestId('preflight-checklist').textContent()).resolves.toContain('The camera is tilted 35°');
+      // the sketch's takeoff (south-west of this area, in the box's corner) is not drawn over the scale bar
+      const takeoff = (await page.getByTestId('sketch-takeoff').boundingBox())!;
+      const scale = (await page.getByTestId('sketch-scale').boundingBox())!;
+      const apart = takeoff.x + takeoff.width < scale.x || scale.x + scale.width < takeoff.x || takeoff.y + takeoff.height < scale.y || scale.y + scale.height < takeoff.y;
+      expect(apart, `takeoff ${JSON.stringify(takeoff)} over the scale bar ${JSON.stringify(scale)}`).toBe(true);
       // nothing runs out of its card on a phone (a MAVLink frame name in the hand-off cautions once did)
       for (const id of [`spot-photos-${firstSpot}`, 'mission-items']) {
         await page.getByTestId('mission-items-count').waitFor();
@@ -223,6 +232,8 @@ describe('views from all round, from the spec to the leg sheet', () => {
       await page.getByTestId('line-index').screenshot({ path: path.join(shotDir, `line-index-${size}.png`) });
       await page.getByTestId('mission-items').screenshot({ path: path.join(shotDir, `mission-items-${size}.png`) });
       await page.getByTestId('preflight-checklist').screenshot({ path: path.join(shotDir, `checklist-${size}.png`) });
+      await page.getByTestId('leg-sheet-datum').screenshot({ path: path.join(shotDir, `takeoff-and-heights-${size}.png`) });
+      await page.getByTestId('lines-sketch').screenshot({ path: path.join(shotDir, `lines-sketch-${size}.png`) });
       await restore();
       expect(pageErrors).toEqual([]);
       await context.close();
