@@ -71,6 +71,13 @@ describe('views from all round, from the spec to the leg sheet', () => {
     await page.getByTestId('spec-section').waitFor();
     await page.getByTestId('plan-spec-direction-gap').fill('120');
     await page.getByTestId('plan-layout-by-solver').click();
+    // with the solver chosen, lines may be let past the edge (left empty here: 0 m)
+    await page.getByTestId('plan-solve-beyond').waitFor();
+    {
+      const restore = await growToContent(page);
+      await page.getByTestId('spec-section').screenshot({ path: path.join(shotDir, 'spec-section-wide.png') });
+      await restore();
+    }
     await page.getByTestId('plan-run').click();
     const card = page.getByTestId('solved-card');
     await card.waitFor({ timeout: 150_000 });
