@@ -219,6 +219,11 @@ describe('views from all round, from the spec to the leg sheet', () => {
       // the flight-facing sheet keeps its cautions, with the camera tilt among the checks
       await page.getByText('Before you fly').first().waitFor();
       await expect(page.getByTestId('preflight-checklist').textContent()).resolves.toContain('The camera is tilted 35°');
+      // the index's entry for the tour brings its card to the top
+      expect((await group.boundingBox())!.y).toBeGreaterThan(viewport.height);
+      await page.getByTestId(`line-index-spots-${firstSpot}`).click();
+      await expect.poll(async () => (await group.boundingBox())!.y, { timeout: 5_000 }).toBeLessThan(viewport.height / 2);
+      expect((await group.boundingBox())!.y).toBeGreaterThanOrEqual(-1);
       // the sketch's takeoff (south-west of this area, in the box's corner) is not drawn over the scale bar
       const takeoff = (await page.getByTestId('sketch-takeoff').boundingBox())!;
       const scale = (await page.getByTestId('sketch-scale').boundingBox())!;
