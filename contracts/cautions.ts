@@ -21,6 +21,14 @@ interface CautionFacts {
   verticalDatum: string;
   maxAglM: number;
   obstacleAllowanceM: number;
+  /** The camera tilts of the plan's tilted lines (oblique capture), degrees from straight down; empty or absent: none. */
+  cameraTiltsDeg?: readonly number[];
+}
+
+/** "35°" or "20°–35°". */
+function tiltWords(tilts: readonly number[]): string {
+  const lo = Math.min(...tilts), hi = Math.max(...tilts);
+  return lo === hi ? `${lo}°` : `${lo}°–${hi}°`;
 }
 
 /** Cautions for one plan, in the order the pilot should read them. */
@@ -35,6 +43,10 @@ export function flightCautions(f: CautionFacts): string[] {
     'Keep the aircraft within visual line of sight as your local rules require; the plan does not check line of sight, terrain masking or radio range.',
     'Wind moves the aircraft off the planned track and changes its ground speed: overlap, time and battery figures assume still air.',
     `Altitudes above takeoff assume the takeoff point's ground height from the grid (heights above the vertical datum ${f.verticalDatum}); check the takeoff point's height on site, and if you take off elsewhere every altitude above takeoff changes.`,
+    // a photo at another angle sees other ground: the plan's coverage holds only with the camera as planned
+    ...(f.cameraTiltsDeg?.length
+      ? [`The camera is tilted ${tiltWords(f.cameraTiltsDeg)} from straight down towards the nose on the lines marked so, and straight down on the others: the coverage was worked out at those angles. The MAVLink mission items point the gimbal before each line; flying from waypoints alone, set it yourself before each line and check it holds in flight.`]
+      : []),
     regulationsCaution,
   ];
 }

@@ -48,6 +48,10 @@ export type SheetLeg = z.infer<typeof sheetLegSchema>;
 const sheetLineSchema = z.object({
   /** Flying order, 1 first. */
   number: z.number().int(),
+  /** A line of the layout, or a spot photo the solver added (one photo straight above short ground; sheets kept before: a line). */
+  kind: z.enum(['line', 'spot']).default('line'),
+  /** Which set of lines in a plan of two sets across each other (lattice, slant): 1 or 2; absent: one set. */
+  set: z.number().int().optional(),
   headingDeg: nn,
   lengthM: n,
   timeS: n,

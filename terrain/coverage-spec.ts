@@ -209,7 +209,8 @@ export function coverageCompliance(raster: CoverageRaster, spec: CoverageSpec): 
       item: 'directions', asks: `views from all round: no gap wider than ${lim}° between the directions of views at least ${spec.obliqueDeg}° from the vertical`,
       fails: (i) => !unknown(i) && !meetsDirections(raster, spec, i),
       worstOf: (i) => (raster.directionGapDeg ? raster.directionGapDeg[i] : NaN), worse: (a, b) => !(a <= b),
-      what: (w) => `seen from too few sides (${basis}): widest gap between views at least ${spec.obliqueDeg}° from the vertical ${w === null || !Number.isFinite(w) ? 'not known' : w >= 360 ? '360° (fewer than 2 such views)' : `${w.toFixed(0)}°`}, the spec allows ${lim}°`,
+      // the figure right after "widest gap", so it cannot be read as an angle from the vertical
+      what: (w) => `seen from too few sides (${basis}): widest gap ${w === null || !Number.isFinite(w) ? 'not known' : w >= 360 ? '360° (fewer than 2 such views)' : `${w.toFixed(0)}°`} between views at least ${spec.obliqueDeg}° from the vertical, the spec allows ${lim}°`,
     });
   }
   items.push({ item: 'ground-unknown', asks: 'known ground height', fails: unknown, worstOf: () => NaN, worse: () => false, what: () => 'the elevation grid has no height here' });

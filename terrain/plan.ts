@@ -188,7 +188,8 @@ function altitudeLimits(mission: Mission, targetHeightM: number): AltitudeLimits
   };
 }
 
-type LineProfile = { x: Float64Array; stationIdx: Int32Array; fit: ReturnType<typeof fitAltitudes> };
+/** `minLegLengthM`: the shortest-leg setting the line was fitted with (a spot photo's hover has none). */
+type LineProfile = { x: Float64Array; stationIdx: Int32Array; fit: ReturnType<typeof fitAltitudes>; minLegLengthM: number };
 
 /**
  * Ground profiles (one batch sample per line, stations included as samples) and the altitudes fitted over them.
@@ -200,7 +201,8 @@ function fitLines(laid: FlightLine[], g: PlanGround, mission: Mission, lim: Alti
     const xs = new Float64Array(x.length), ys = new Float64Array(x.length), z = new Float64Array(x.length);
     for (let i = 0; i < x.length; i++) { const p = pointAlong(line, x[i]); xs[i] = p[0]; ys[i] = p[1]; }
     g.heights.sampleMany(xs, ys, z);
-    return { x, stationIdx, fit: fitAltitudes(x, z, mission.mode, opts.limitsFor ? opts.limitsFor(line, lim) : lim, opts.bandGroundFor?.(line, x)) };
+    const own = opts.limitsFor ? opts.limitsFor(line, lim) : lim;
+    return { x, stationIdx, fit: fitAltitudes(x, z, mission.mode, own, opts.bandGroundFor?.(line, x)), minLegLengthM: own.minLegLengthM };
   });
   const plannable = laidProfiles.map((p) => p.fit.unknownCount < p.x.length);
   const lines = laid.filter((_, i) => plannable[i]);
@@ -340,7 +342,8 @@ function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profi
       gsdMaxCm: round((leg.aglMaxM * gsdPerM) / tiltCos2, 4),
       gradient: round(leg.gradient, 6),
     }));
-    const warnings: PlanWarning[] = shortLegWarnings(li, line.lengthM, legs, mission.minLegLengthM);
+    // against the setting the line was fitted with: a spot photo's 1 m hover is that short by design
+    const warnings: PlanWarning[] = shortLegWarnings(li, line.lengthM, legs, profiles[li].minLegLengthM);
     if (fit.unknownCount > 0) {
       warnings.push({ code: 'ground-unknown', message: `Line ${li + 1}: ${fit.unknownCount} of ${fit.groundM.length} ground samples have no elevation data; heights there were carried over from known neighbours.` });
     }

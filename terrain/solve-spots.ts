@@ -180,13 +180,17 @@ export function spotLine(s: Spot, offsetM: number): FlightLine {
   };
 }
 
+/** How far above its height a spot's hover may sit before the analysis calls it off the height (metres). */
+const SPOT_HEIGHT_SLACK_M = 0.05;
+
 /** Altitude limits of a spot's line: held at the spot's height above the ground under it (a hover, so any gradient). */
 export function spotLimits(s: Spot, mission: Mission): AltitudeLimits {
   const clearanceM = mission.clearanceM + mission.obstacleAllowanceM;
   return {
     targetHeightM: s.heightM,
     bandLowM: clearanceM,
-    bandHighM: Math.max(clearanceM, s.heightM),
+    // a centimetre of slack: the ground under the 1 m hover varies by about that, which is no departure from the height
+    bandHighM: Math.max(clearanceM, s.heightM) + SPOT_HEIGHT_SLACK_M,
     clearanceM,
     maxAglM: mission.maxAglM,
     climbGradient: 10,

@@ -467,14 +467,15 @@ function shortGroups(v: Verifier, verdict: Verdict, maxGsdCm: number, rounds: nu
     }
     const [lon, lat] = v.frame.toLonLat(sx / cells.length, sy / cells.length);
     const steep = lo >= 30;
+    const after = `after ${rounds} tightening round${rounds === 1 ? '' : 's'}`;
     out.push({
       item, cells: cells.length, areaM2: round(cells.length * v.cells.cellAreaM2, 1), slopeDeg: { min: round(lo, 1), max: round(hi, 1) },
       centroid: { lon: round(lon, 7), lat: round(lat, 7) },
       message: item === 'gsd'
-        ? `no view at or finer than ${maxGsdCm} cm after ${rounds} tightening rounds (finest there up to ${Number.isFinite(worst) ? `${round(worst, 2)} cm` : 'none'}) on ground sloping ${round(lo, 0)}–${round(hi, 0)}°${steep ? ': steep faces that nadir photos from lines beside them see too obliquely; a line straight over the face or a tilted camera is needed' : ''}.`
-        : item === 'views' ? `fewer views than the spec asks after ${rounds} tightening rounds (terrain hides them, or the strip edges under the envelope).`
-          : item === 'directions' ? `seen from too few sides after ${rounds} tightening rounds: the oblique views leave a wider gap between their directions than the spec allows (near the area's edge a point has lines on one side only${beyondEdgeM > 0 ? '' : ': solve.beyondEdgeM lets lines fly past the edge where flying over the neighbouring ground is allowed'}; terrain can hide one side).`
-          : `the advisory σ items are not met here after ${rounds} rounds (the solver does not steer by them).`,
+        ? `no view at or finer than ${maxGsdCm} cm ${after} (finest there up to ${Number.isFinite(worst) ? `${round(worst, 2)} cm` : 'none'}) on ground sloping ${round(lo, 0)}–${round(hi, 0)}°${steep ? ': steep faces that nadir photos from lines beside them see too obliquely; a line straight over the face or a tilted camera is needed' : ''}.`
+        : item === 'views' ? `fewer views than the spec asks ${after} (terrain hides them, or the strip edges under the envelope).`
+          : item === 'directions' ? `seen from too few sides ${after}: the oblique views leave a wider gap between their directions than the spec allows (near the area's edge a point has lines on one side only${beyondEdgeM > 0 ? '' : ': where flying over the neighbouring ground is allowed, let lines fly past the edge (solve.beyondEdgeM; "Lines may fly past the edge by" in the plan editor)'}; terrain can hide one side).`
+          : `the advisory σ items are not met here ${after} (the solver does not steer by them).`,
     });
   }
   return out;
@@ -498,7 +499,7 @@ function unreachableGroups(v: Verifier, maxGsdCm: number, m: Mission): Unreachab
       reason: code === 1 ? 'ground-unknown' : 'slope-gsd',
       message: code === 1
         ? 'the elevation grid has no height here: no altitude can be proven safe and no GSD computed.'
-        : `ground sloping up to ${round(slopeMax, 1)}°: even a photo straight above at the ${low} m clearance and allowance gives a GSD coarser than the spec's ${maxGsdCm} cm along the slope; the clearance forbids flying lower (a tilted camera would be needed).`,
+        : `ground sloping up to ${round(slopeMax, 1)}°: even a photo straight above at the ${low} m clearance and allowance gives a GSD coarser than the spec's ${maxGsdCm} cm along the slope; the clearance forbids flying lower (a camera pointed square at the face would be needed).`,
       cells: n, areaM2: round(n * cells.cellAreaM2, 1), centroid: { lon: round(lon, 7), lat: round(lat, 7) },
     });
   }

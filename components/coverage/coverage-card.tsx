@@ -58,7 +58,7 @@ export function CoverageCard(props: CoverageCardProps) {
           <List label="Share of the area meeting each item of the spec" style={styles.items} testID="coverage-items">
             {ready.document.compliance.items.map((it) => (
               <View key={it.item} style={styles.item} testID={`coverage-item-${it.item}`}>
-                <View style={styles.itemWords}>
+                <View style={styles.itemHead}>
                   <Text variant="bodyStrong">{itemTitle(it.item, ready.document.spec)}</Text>
                   <Text variant="label" tone={it.share < 1 ? 'caution' : 'success'}>
                     {shareWords(it.share)} of the area{it.failingAreaM2 > 0 ? ` · ${areaWords(it.failingAreaM2)} short` : ' · met everywhere'}
@@ -146,6 +146,8 @@ function CellFigures({ v }: { v: ReturnType<typeof useCoverageView> }) {
 const styles = StyleSheet.create({
   items: { gap: space.md },
   item: { gap: space.xs },
+  // above its bar, in a column: no flex basis, which would set the words' height there, not their width
+  itemHead: { gap: space.xxs, minWidth: 0 },
   itemWords: { flexGrow: 1, flexShrink: 1, flexBasis: 220, gap: space.xxs, minWidth: 0 },
   bar: { height: space.sm, borderRadius: radii.pill, backgroundColor: colors.cautionSoft, borderWidth: layout.borderWidthPx, borderColor: colors.line, overflow: 'hidden' },
   barFill: { height: '100%', backgroundColor: colors.primary },

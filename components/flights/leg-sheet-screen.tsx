@@ -22,7 +22,9 @@ import { LiveCoverageCard } from './live-coverage-card';
 import { MissionItemsCard } from './mission-items-card';
 import { OfflineNotice } from './offline-notice';
 import { PreflightChecklist } from './preflight-checklist';
+import { sheetBlocks } from './sheet-blocks';
 import { SheetLine } from './sheet-line';
+import { SpotPhotosCard } from './spot-photos-card';
 import { useLegSheet } from './use-leg-sheet';
 
 /** Route /flights/:versionId. */
@@ -56,6 +58,8 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
   // The first line is drawn with the top of the sheet; the other lines and the cards below them a moment later.
   const whole = useAfterFirstPaint();
   const lines = whole ? sheet.lines : sheet.lines.slice(0, 1);
+  const tilted = sheet.lines.some((l) => (l.cameraTiltDeg ?? 0) > 0);
+  const spots = sheet.lines.filter((l) => l.kind === 'spot').length;
   return (
     <View style={styles.body}>
       {sheet.version.signedOff ? (
@@ -87,7 +91,8 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
         <FigureGrid
           testID="sheet-facts"
           figures={[
-            { key: 'lines', label: 'Lines', value: String(sheet.lines.length) },
+            { key: 'lines', label: 'Lines', value: String(sheet.lines.length - spots) },
+            ...(spots ? [{ key: 'spots', label: 'Spot photos', value: String(spots) }] : []),
             { key: 'speed', label: 'Speed', value: formatSpeed(sheet.speedMps, u) },
             { key: 'mode', label: 'Altitude mode', value: sheet.altitudeMode },
             { key: 'first', label: 'First leg above takeoff', value: firstLeg ? formatLength(firstLeg.altitudeAboveTakeoffM.start, u) : '–' },
@@ -97,9 +102,13 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
       <PreflightChecklist items={sheet.checklist} versionId={sheet.version.id} />
       <BatteryPlanCard plan={sheet.batteries} />
       <View style={styles.lines}>
-        {lines.map((line) => (
-          <SheetLine key={line.number} line={line} units={u} datumName={sheet.datum.name} />
-        ))}
+        {sheetBlocks(lines).map((b) =>
+          b.kind === 'line' ? (
+            <SheetLine key={b.line.number} line={b.line} units={u} datumName={sheet.datum.name} />
+          ) : (
+            <SpotPhotosCard key={`spots-${b.spots[0]!.number}`} block={b} units={u} datumName={sheet.datum.name} tiltedLines={tilted} />
+          ),
+        )}
       </View>
       {whole ? <SheetFoot sheet={sheet} teamId={teamId} offline={offline} /> : null}
     </View>

@@ -20,7 +20,7 @@ export function LineIndexCard({ sheet }: { sheet: Pick<LegSheet, 'lines' | 'unit
           <View role="listitem" key={e.number} style={styles.cell}>
             <Pressable
               role="link"
-              testID={`line-index-${e.number}`}
+              testID={e.testID}
               onPress={() => scrollToLine(e.anchorId)}
               style={(s) => [styles.entry, (s as { hovered?: boolean }).hovered || s.pressed ? styles.hover : null, showFocusRing((s as { focused?: boolean }).focused) && styles.focused]}
             >

@@ -21,6 +21,9 @@ export function LinesSketchCard({ sheet }: { sheet: Pick<LegSheet, 'lines' | 'da
   const every = Math.max(1, Math.ceil(LABEL_ROOM_PX / minGap));
   const labelled = (i: number) => i === 0 || i === s.lines.length - 1 || i % every === 0;
   const t = s.takeoff;
+  // The scale bar sits in the bottom corner away from the takeoff: a takeoff at the plan's south-west (the box is fitted
+  // to it, so it lands in a corner) would otherwise be drawn over the bar's label.
+  const x0 = t.x < W / 2 ? W - 12 - s.scale.lengthPx : 12;
   return (
     <Card testID="lines-sketch">
       <Heading level={2}>Lines and takeoff</Heading>
@@ -61,10 +64,10 @@ export function LinesSketchCard({ sheet }: { sheet: Pick<LegSheet, 'lines' | 'da
           </text>
         </g>
         <g data-testid="sketch-scale">
-          <line x1={12} y1={H - 12} x2={12 + s.scale.lengthPx} y2={H - 12} stroke={colors.ink} strokeWidth={2} />
-          <line x1={12} y1={H - 16} x2={12} y2={H - 8} stroke={colors.ink} strokeWidth={1.5} />
-          <line x1={12 + s.scale.lengthPx} y1={H - 16} x2={12 + s.scale.lengthPx} y2={H - 8} stroke={colors.ink} strokeWidth={1.5} />
-          <text x={12} y={H - 20} fontSize={10} fontFamily={fonts.regular} fill={colors.ink}>
+          <line x1={x0} y1={H - 12} x2={x0 + s.scale.lengthPx} y2={H - 12} stroke={colors.ink} strokeWidth={2} />
+          <line x1={x0} y1={H - 16} x2={x0} y2={H - 8} stroke={colors.ink} strokeWidth={1.5} />
+          <line x1={x0 + s.scale.lengthPx} y1={H - 16} x2={x0 + s.scale.lengthPx} y2={H - 8} stroke={colors.ink} strokeWidth={1.5} />
+          <text x={x0} y={H - 20} fontSize={10} fontFamily={fonts.regular} fill={colors.ink}>
             {s.scale.label}
           </text>
         </g>

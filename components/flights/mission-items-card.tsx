@@ -2,13 +2,12 @@
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { UnitSystem } from '../../contracts/projects';
-import { formatLength, formatSpeed } from '../projects/units';
 import { BulletList } from '../reports/bullet-list';
 import { DownloadLink } from '../reports/download-link';
 import { formatDayTime } from '../projects/format-date';
 import { space } from '../theme';
 import { Banner, Button, Card, Heading, Loading, Text } from '../ui';
-import { itemRowText, rangeText, useMissionItems } from './use-mission-items';
+import { handoffLineText, itemRowText, useMissionItems } from './use-mission-items';
 
 /** testIDs mission-items, mission-items-count, mission-items-line-N, mission-items-toggle, mission-items-list, mission-items-recorded, mission-items-download. */
 export function MissionItemsCard(p: { teamId: string | undefined; versionId: string; signedOff: boolean; offline: boolean; units: UnitSystem }) {
@@ -28,8 +27,7 @@ export function MissionItemsCard(p: { teamId: string | undefined; versionId: str
           <View style={styles.lines} role="list">
             {h.lines.map((l) => (
               <Text key={l.number} role="listitem" testID={`mission-items-line-${l.number}`}>
-                Line {l.number}: a photo every {rangeText(l.triggerDistanceM, (v) => formatLength(v, p.units, 1))} at {rangeText(l.speedMps, (v) => formatSpeed(v, p.units))}
-                {l.perLeg ? ', set leg by leg' : ''} ({l.photoCount} photos, items {l.firstSeq}–{l.lastSeq})
+                {handoffLineText(l, p.units)}
               </Text>
             ))}
           </View>

@@ -1,4 +1,4 @@
-/** One flight line of the leg sheet: its number in flying order, heading, length, time, photos, warnings and legs. */
+/** One flight line of the leg sheet: its number in flying order, its set (two sets across each other), heading, length, time, photos, camera tilt, warnings and legs. */
 import { StyleSheet, View } from 'react-native';
 import type { SheetLine as SheetLineData } from '../../contracts/flights';
 import type { UnitSystem } from '../../contracts/projects';
@@ -17,7 +17,13 @@ export function SheetLine({ line, units, datumName }: { line: SheetLineData; uni
     // The line index scrolls to this anchor: the whole card comes to the top.
     <View nativeID={lineAnchorId(line.number)}>
       <Card testID={`line-${line.number}`}>
-        <Heading level={2}>Line {line.number}</Heading>
+        {/* a lattice or slant plan: the set, as the version screen names it */}
+        <Heading level={2}>Line {line.number}{line.set ? ` · set ${line.set}` : ''}</Heading>
+        {line.set ? (
+          <Text tone="muted" testID={`line-${line.number}-set`}>
+            {line.set === 1 ? 'First set of lines.' : 'Second set of lines, across the first.'}
+          </Text>
+        ) : null}
         <Text variant="bodyStrong">
           Heading {formatHeading(line.headingDeg)} · {formatLength(line.lengthM, units)} · {formatDuration(line.timeS)} · {formatCount(line.photoCount)} photos
         </Text>

@@ -34,6 +34,8 @@ interface HandoffLine {
   speedMps: { min: number; max: number };
   /** True when the legs of the line differ in spacing or speed (solved plans). */
   perLeg: boolean;
+  /** The camera tilt the gimbal item before the line sets, degrees from straight down; null: no gimbal item (straight down). */
+  cameraTiltDeg: number | null;
 }
 
 /** One item in short: its MAVLink command without the MAV_CMD_ prefix, where it belongs, and the figure it sets. */
@@ -48,6 +50,8 @@ interface ItemRow {
   speedMps: number | null;
   /** Photo spacing set (DO_SET_CAM_TRIGG_DIST; 0 stops the camera), m. */
   triggerDistanceM: number | null;
+  /** Gimbal pitch set (DO_GIMBAL_MANAGER_PITCHYAW param1), degrees from the horizon, −90 straight down. */
+  gimbalPitchDeg: number | null;
 }
 
 /** Pure: one item's short row. */
@@ -61,6 +65,7 @@ export function itemRowOf(i: MissionItem): ItemRow {
     altitudeAboveTakeoffM: positioned && i.about.kind !== 'return' ? i.z : null,
     speedMps: i.about.kind === 'speed' ? i.param2 : null,
     triggerDistanceM: i.about.kind === 'camera-on' || i.about.kind === 'camera-spacing' || i.about.kind === 'camera-off' ? i.param1 : null,
+    gimbalPitchDeg: i.about.kind === 'camera-tilt' ? i.param1 : null,
   };
 }
 
@@ -79,14 +84,24 @@ export function itemRowText(i: ItemRow, units: UnitSystem): string {
           ? i.triggerDistanceM === 0
             ? ' · camera off'
             : ` · a photo every ${formatLength(i.triggerDistanceM, units, 2)}`
-          : '';
+          : i.gimbalPitchDeg !== null
+            ? ` · gimbal pitch ${i.gimbalPitchDeg}° from the horizon (${gimbalWords(i.gimbalPitchDeg)})`
+            : '';
   return `${i.seq} ${i.command}${where}${figure}`;
 }
 
-/** Pure: a line's figures for the card. */
-export function handoffLineOf(l: MissionItems['lines'][number]): HandoffLine {
+/** "straight down" or "tilted 35° from straight down": a gimbal pitch as the leg sheet words the camera. */
+function gimbalWords(pitchDeg: number): string {
+  const tilt = 90 + pitchDeg;
+  return tilt === 0 ? 'straight down' : `tilted ${tilt}° from straight down`;
+}
+
+/** Pure: a line's figures for the card; `items` give the gimbal item set before it, if any. */
+export function handoffLineOf(l: MissionItems['lines'][number], items: readonly MissionItem[] = []): HandoffLine {
   const r = lineSettingRanges(l);
+  const gimbal = items.find((i) => i.about.kind === 'camera-tilt' && i.about.line === l.number);
   return {
+    cameraTiltDeg: gimbal && gimbal.param1 !== null ? 90 + gimbal.param1 : null,
     number: l.number,
     photoCount: l.photoCount,
     firstSeq: l.firstSeq,
@@ -94,6 +109,19 @@ export function handoffLineOf(l: MissionItems['lines'][number]): HandoffLine {
     ...r,
     perLeg: r.triggerDistanceM.min !== r.triggerDistanceM.max || r.speedMps.min !== r.speedMps.max,
   };
+}
+
+/**
+ * A line of the card in words: its photo spacing and speed, or one photo for a spot photo's hover; the camera tilt
+ * its gimbal item sets; its photos and items.
+ */
+export function handoffLineText(l: HandoffLine, units: UnitSystem): string {
+  const speed = rangeText(l.speedMps, (v) => formatSpeed(v, units));
+  const camera = l.cameraTiltDeg === null ? '' : `, camera ${l.cameraTiltDeg === 0 ? 'straight down' : `tilted ${l.cameraTiltDeg}°`}`;
+  const items = `items ${l.firstSeq}–${l.lastSeq}`;
+  if (l.photoCount === 1) return `Line ${l.number}: one photo at ${speed}${camera} (${items})`;
+  const spacing = rangeText(l.triggerDistanceM, (v) => formatLength(v, units, 1));
+  return `Line ${l.number}: a photo every ${spacing} at ${speed}${l.perLeg ? ', set leg by leg' : ''}${camera} (${l.photoCount} photos, ${items})`;
 }
 
 /** Pure: the card's state from the sheet's facts and the query's. */
@@ -105,7 +133,7 @@ export function missionHandoffOf(q: { signedOff: boolean; offline: boolean; team
       itemCount: q.data.items.length,
       frameName: q.data.altitude.frameName,
       reference: q.data.altitude.reference,
-      lines: q.data.lines.map(handoffLineOf),
+      lines: q.data.lines.map((l) => handoffLineOf(l, q.data!.items)),
       items: q.data.items.map(itemRowOf),
       cautions: q.data.cautions,
       downloadHref: missionItemsPath(q.teamId, q.versionId, true),

@@ -63,6 +63,15 @@ export function SpecFields({ control, setValue, readOnly }: Props) {
           </Text>
         </View>
       </FieldCell>
+      {defaults ? (
+        <>
+          <FieldCell><NumberField control={control} name="mission.envelope.rollDeg" label="Roll, up to ±" unit="°" hint={`Empty: ${defaults.rollDeg}°.`} testID="plan-envelope-roll" disabled={readOnly} /></FieldCell>
+          <FieldCell><NumberField control={control} name="mission.envelope.pitchDeg" label="Pitch, up to ±" unit="°" hint={`Empty: ${defaults.pitchDeg}°.`} testID="plan-envelope-pitch" disabled={readOnly} /></FieldCell>
+          <FieldCell><NumberField control={control} name="mission.envelope.windMps" label="Wind" unit="m/s" hint="Empty: calm." testID="plan-envelope-wind" disabled={readOnly} /></FieldCell>
+          <FieldCell><NumberField control={control} name="mission.envelope.windFromDeg" label="Wind from" unit="°" hint="Degrees clockwise from north." testID="plan-envelope-wind-from" disabled={readOnly} /></FieldCell>
+        </>
+      ) : null}
+      {/* after the envelope's own fields, so the solver's field does not read as one of them */}
       <FieldCell wide>
         <View style={styles.stack}>
           <Text variant="label">Lay the lines out</Text>
@@ -83,14 +92,6 @@ export function SpecFields({ control, setValue, readOnly }: Props) {
       </FieldCell>
       {solver ? (
         <FieldCell><NumberField control={control} name="mission.solve.beyondEdgeM" label="Lines may fly past the edge by" unit="m" hint="Empty: 0, lines stay over the area. Only where flying over the neighbouring ground is allowed: edge ground is then seen from outside too." testID="plan-solve-beyond" disabled={readOnly} /></FieldCell>
-      ) : null}
-      {defaults ? (
-        <>
-          <FieldCell><NumberField control={control} name="mission.envelope.rollDeg" label="Roll, up to ±" unit="°" hint={`Empty: ${defaults.rollDeg}°.`} testID="plan-envelope-roll" disabled={readOnly} /></FieldCell>
-          <FieldCell><NumberField control={control} name="mission.envelope.pitchDeg" label="Pitch, up to ±" unit="°" hint={`Empty: ${defaults.pitchDeg}°.`} testID="plan-envelope-pitch" disabled={readOnly} /></FieldCell>
-          <FieldCell><NumberField control={control} name="mission.envelope.windMps" label="Wind" unit="m/s" hint="Empty: calm." testID="plan-envelope-wind" disabled={readOnly} /></FieldCell>
-          <FieldCell><NumberField control={control} name="mission.envelope.windFromDeg" label="Wind from" unit="°" hint="Degrees clockwise from north." testID="plan-envelope-wind-from" disabled={readOnly} /></FieldCell>
-        </>
       ) : null}
     </FormSection>
   );

@@ -38,7 +38,9 @@ export function formatDecimal(v: number, minDigits: number, maxDigits = minDigit
     f = new Intl.NumberFormat('en-GB', { minimumFractionDigits: minDigits, maximumFractionDigits: maxDigits });
     formatters.set(key, f);
   }
-  return f.format(v);
+  const out = f.format(v);
+  // a small negative figure rounds to "-0": it is zero as shown, with no sign
+  return /^-0([.,]0+)?$/.test(out) ? out.slice(1) : out;
 }
 
 /** `bound`: the figure is shown against a target it must reach ('min') or stay under ('max'): rounded toward failing. */

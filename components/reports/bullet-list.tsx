@@ -22,5 +22,7 @@ export function BulletList({ items, tone = 'default', testID }: { items: readonl
 const styles = StyleSheet.create({
   list: { gap: space.xs },
   item: { flexDirection: 'row', gap: space.sm },
-  line: { flex: 1 },
+  // minWidth 0: the line may be narrower than its longest word (a MAVLink frame name), which then breaks
+  // (react-native-web's text wraps long words) instead of pushing the list out of its card on a phone
+  line: { flex: 1, minWidth: 0 },
 });

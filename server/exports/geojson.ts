@@ -14,7 +14,7 @@ export function toGeoJson(ctx: ExportContext): FeatureCollection & Record<string
     features.push({
       type: 'Feature',
       geometry: { type: 'LineString', coordinates: pts.map((w) => [w.lon, w.lat, w.altitudeEllipsoidM]) },
-      properties: { kind: 'line', line: line.number, headingDeg: line.headingDeg, lengthM: line.lengthM, timeS: line.timeS, legCount: line.legs.length, verticalDatum: datum.name, cautions: ctx.cautions },
+      properties: { kind: 'line', line: line.number, headingDeg: line.headingDeg, lengthM: line.lengthM, timeS: line.timeS, legCount: line.legs.length, spotPhoto: line.kind === 'spot', cameraTiltDeg: line.cameraTiltDeg ?? 0, verticalDatum: datum.name, cautions: ctx.cautions },
     });
     for (const leg of line.legs) {
       features.push({

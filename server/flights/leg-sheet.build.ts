@@ -4,7 +4,7 @@ import { reviewStateSchema } from '../../contracts/reviews';
 import { flightCautions, notSignedOffCaution } from '../../contracts/cautions';
 import { fmt } from '../../contracts/format/figures';
 import { azimuthDeg, distanceM } from '../versions/geodesy';
-import { heightDatumOf, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../versions/result-view';
+import { cameraTiltsOf, heightDatumOf, planWarnings, readMission, readResult, takeoffGroundM, type LegView, type LineView } from '../versions/result-view';
 import type { VersionRecord } from '../versions/versions.repository';
 import { planBatteries } from './battery-plan';
 
@@ -29,7 +29,23 @@ function sheetLeg(leg: LegView, number: number, speedMps: number): SheetLeg {
   };
 }
 
-function sheetLine(line: LineView, number: number, speedMps: number): SheetLine {
+/** What the solver says of a line: a spot photo or a line of the layout, and which set of lines (lattice and slant plans). */
+type LineRole = { kind: 'line' | 'spot'; set?: number };
+
+/** Each line's role, in flying order; a plan laid out from the settings has one set of lines and no spot photos. */
+function lineRoles(view: ReturnType<typeof readResult>): LineRole[] {
+  const choices = view.solved?.choices.lines ?? [];
+  const byLine = new Map(choices.map((c) => [c.line, c]));
+  const sets = new Set(choices.filter((c) => c.kind === 'line').map((c) => c.set));
+  return view.lines.map((l) => {
+    // the solver numbers its lines in flying order from 1, as the result's line index counts from 0
+    const c = byLine.get(l.index + 1);
+    if (!c) return { kind: 'line' };
+    return c.kind === 'spot' ? { kind: 'spot' } : sets.size > 1 ? { kind: 'line', set: c.set } : { kind: 'line' };
+  });
+}
+
+function sheetLine(line: LineView, number: number, speedMps: number, role: LineRole): SheetLine {
   const first = line.legs[0]?.start ?? line.stations[0];
   const last = line.legs[line.legs.length - 1]?.end ?? line.stations[line.stations.length - 1];
   const lengthM = line.lengthM;
@@ -38,6 +54,8 @@ function sheetLine(line: LineView, number: number, speedMps: number): SheetLine 
   const legLengthM = legs.reduce((t, g) => t + g.lengthM, 0);
   return {
     number,
+    kind: role.kind,
+    ...(role.set !== undefined ? { set: role.set } : {}),
     headingDeg: line.headingDeg,
     lengthM,
     timeS: legs.reduce((t, g) => t + g.timeS, 0) + Math.max(0, lengthM - legLengthM) / speedMps,
@@ -57,7 +75,8 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
   const state = reviewStateSchema.parse(v.reviewState);
   const signedOff = state === 'signed_off';
   const surfaceKind = v.siteSurfaceKind === 'surface' ? 'surface' : 'bare-earth';
-  const lines = view.lines.map((l, i) => sheetLine(l, i + 1, mission.speedMps));
+  const roles = lineRoles(view);
+  const lines = view.lines.map((l, i) => sheetLine(l, i + 1, mission.speedMps, roles[i]!));
   const takeoff = mission.takeoff;
   const batteries = planBatteries(
     lines.map((l, i) => {
@@ -78,7 +97,7 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
   const farthest = lines.length
     ? Math.max(...lines.flatMap((l) => l.legs.flatMap((g) => [distanceM(takeoff, g.start), distanceM(takeoff, g.end)])))
     : null;
-  const cautions = flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM });
+  const cautions = flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM, cameraTiltsDeg: cameraTiltsOf(view) });
   if (!signedOff) cautions.unshift(notSignedOffCaution);
 
   const checklist: ChecklistItem[] = [

@@ -3,7 +3,7 @@ import { missionCautions } from '../../contracts/cautions';
 import { planLegSchema } from '../../contracts/plan-result';
 import type { MissionItems } from '../../contracts/mission-items';
 import { reviewStateSchema } from '../../contracts/reviews';
-import { heightDatumOf, readMission, readResult, requireAnalysed, takeoffGroundM, type ResultView } from '../versions/result-view';
+import { cameraTiltsOf, heightDatumOf, readMission, readResult, requireAnalysed, takeoffGroundM, type ResultView } from '../versions/result-view';
 import type { Mission } from '../../terrain/mission';
 import type { VersionRecord } from '../versions/versions.repository';
 import { altitudeFrame, buildMissionItems, protocolUsed, type BuilderLine } from './mission-items.build';
@@ -79,7 +79,7 @@ export function missionItemsOf(v: VersionRecord, now: Date = new Date()): Missio
     lines: missionLines,
     items,
     protocol: protocolUsed,
-    cautions: missionCautions({ surfaceKind, verticalDatum: datum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
+    cautions: missionCautions({ surfaceKind, verticalDatum: datum, maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM, cameraTiltsDeg: cameraTiltsOf(view) }),
     generatedAt: now.toISOString(),
   };
 }

@@ -10,7 +10,7 @@ import { coverageChecks, reportCoverage } from './report.coverage';
 import type { ReportAsFlown, ReportFlown } from '../../contracts/reports';
 import { gsdBandCm } from '../../terrain/gsd';
 import { fmt } from '../../contracts/format/figures';
-import { heightDatumOf, planWarnings, readMission, readResult, type StationView } from '../versions/result-view';
+import { cameraTiltsOf, heightDatumOf, planWarnings, readMission, readResult, type StationView } from '../versions/result-view';
 import { distribution, maxKnown, minKnown, percentileMethod, shareWithin } from './stats';
 
 /** The GSD band of the spec as the report gives it, [finest, coarsest] cm (terrain/gsd.ts computes it). */
@@ -128,6 +128,7 @@ export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { 
   const basis = overall.gsdCm.median;
   const state = reviewStateSchema.parse(v.reviewState);
   const signedAt = v.signedOffAt ? v.signedOffAt.toISOString() : null;
+  const tilts = cameraTiltsOf(view);
 
   return {
     version: {
@@ -195,10 +196,12 @@ export function buildReport(v: VersionRecord, now: Date = new Date(), extras: { 
       `A station meets the GSD target when its GSD lies within ${fmt.gsdCm(band[0])} to ${fmt.gsdCm(band[1])} (target ${fmt.gsdCm(mission.targetGsdCm)} ± ${fmt.percent(mission.gsdTolerance)}); stations over unknown ground count as not meeting it.`,
       `Percentiles: ${percentileMethod}.`,
       `Heights above the datum refer to the grid's vertical datum (${heightDatumOf(v)}); altitudes for the pilot are above the takeoff point.`,
-      'Station figures (GSD, overlaps, heights) take the camera pointing straight down (no tilt, roll or wind crab) and the aircraft holding the planned track and speed; the ground proof counts views per cell under the attitude envelope the mission states, if any.',
+      tilts.length
+        ? `Station figures (GSD, overlaps, heights) take the camera as planned: tilted ${tilts.join('°, ')}° from straight down towards the nose on the lines planned so (GSD where the photo's centre ray meets the ground), straight down on the others, with no roll or wind crab, and the aircraft holding the planned track and speed; the ground proof counts views per cell at those angles, under the attitude envelope the mission states, if any.`
+        : 'Station figures (GSD, overlaps, heights) take the camera pointing straight down (no tilt, roll or wind crab) and the aircraft holding the planned track and speed; the ground proof counts views per cell under the attitude envelope the mission states, if any.',
     ],
     warnings: planWarnings(view),
-    cautions: flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM }),
+    cautions: flightCautions({ surfaceKind, verticalDatum: heightDatumOf(v), maxAglM: mission.maxAglM, obstacleAllowanceM: mission.obstacleAllowanceM, cameraTiltsDeg: tilts }),
     signOff: {
       state,
       signedOffBy: state === 'signed_off' ? (v.signedOffByName ?? '(former member)') : null,

@@ -63,3 +63,8 @@ export function requireAnalysed(v: { analysisState: string; result: unknown; num
     throw versionErrors.analysis_not_done(`Version ${v.number} has no finished analysis yet (it is ${v.analysisState}).`);
   }
 }
+
+/** The distinct camera tilts of a plan's tilted lines (oblique capture), ascending; empty when every photo looks straight down. */
+export function cameraTiltsOf(view: ResultView): number[] {
+  return [...new Set(view.lines.map((l) => l.cameraTiltDeg ?? 0).filter((t) => t > 0))].sort((a, b) => a - b);
+}

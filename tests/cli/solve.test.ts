@@ -38,6 +38,8 @@ describe('terrain solve', () => {
       const spots = doc.choices.lines.filter((l: { kind: string }) => l.kind === 'spot');
       for (const l of spots) {
         expect(doc.lines[l.line - 1].stations).toHaveLength(1);
+        // a spot is a 1 m hover by design: it is not held to the layout's shortest-leg setting
+        expect(doc.lines[l.line - 1].warnings.map((w: { code: string }) => w.code)).not.toContain('short-leg');
         expect(l.reasons[0]).toMatch(/^spot photo straight above ground sloping \d+° at [\d.]+ m above EGM96 .* no finer than the spec's 2.75 cm\. [\d.]+ m above the ground gives about [\d.]+ cm along the slope/);
       }
       // every leg carries its speed and photo spacing; no leg is faster than the mission's speed

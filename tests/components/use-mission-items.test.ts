@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { MissionItems } from '../../contracts/mission-items';
 import { ApiError } from '../../components/api/api-error';
-import { handoffLineOf, itemRowOf, itemRowText, missionHandoffOf, rangeText } from '../../components/flights/use-mission-items';
+import { handoffLineOf, handoffLineText, itemRowOf, itemRowText, missionHandoffOf, rangeText } from '../../components/flights/use-mission-items';
 import { buildMissionItems } from '../../server/mission-items/mission-items.build';
 
 // One line due east at 54° N, three legs: the second slower and with tighter photos (as a solved plan states them).
@@ -84,5 +84,34 @@ describe('the hand-off card\'s lines and item rows', () => {
     ]);
     // 80 m is 262.5 ft (0.3048 m to the foot, exact by definition).
     expect(itemRowText(rows[1], 'imperial')).toBe('1 NAV_WAYPOINT · line 1 leg 1 · 262.5 ft above takeoff');
+  });
+});
+
+describe('the hand-off card for oblique capture and spot photos', () => {
+  // Two tilted lines and a spot photo's one-photo hover between them, as a slant plan's solver lays them out.
+  const tilted = buildMissionItems({
+    takeoff: { lon: 0, lat: 54 },
+    lines: [
+      { triggerDistanceM: 25, speedMps: 10, cameraTiltDeg: 35, stations: [at(5), at(30)], legs: [{ start: at(0), end: at(100), altitudeStartAboveTakeoffM: 60, altitudeEndAboveTakeoffM: 60 }] },
+      { triggerDistanceM: 25, speedMps: 8, stations: [at(150.5)], legs: [{ start: at(150), end: at(151), altitudeStartAboveTakeoffM: 40, altitudeEndAboveTakeoffM: 40 }] },
+      { triggerDistanceM: 25, speedMps: 10, cameraTiltDeg: 35, stations: [at(205), at(230)], legs: [{ start: at(200), end: at(300), altitudeStartAboveTakeoffM: 60, altitudeEndAboveTakeoffM: 60 }] },
+    ],
+  });
+
+  it('names the camera each gimbal item sets, from the item\'s own pitch (−90° straight down)', () => {
+    const lines = tilted.lines.map((l) => handoffLineOf(l, tilted.items));
+    expect(lines.map((l) => l.cameraTiltDeg)).toEqual([35, 0, 35]);
+    expect(handoffLineText(lines[0]!, 'metric')).toBe(`Line 1: a photo every 25.0 m at 10.0 m/s, camera tilted 35° (2 photos, items ${lines[0]!.firstSeq}–${lines[0]!.lastSeq})`);
+    // a spot photo's hover: one photo, not "a photo every 25 m" of a line that has one
+    expect(handoffLineText(lines[1]!, 'metric')).toBe(`Line 2: one photo at 8.0 m/s, camera straight down (items ${lines[1]!.firstSeq}–${lines[1]!.lastSeq})`);
+    const gimbalRows = tilted.items.filter((i) => i.about.kind === 'camera-tilt').map((i) => itemRowText(itemRowOf(i), 'metric'));
+    expect(gimbalRows[0]).toMatch(/^\d+ DO_GIMBAL_MANAGER_PITCHYAW · line 1 leg 1 · gimbal pitch -55° from the horizon \(tilted 35° from straight down\)$/);
+    expect(gimbalRows.at(-1)).toMatch(/^\d+ DO_GIMBAL_MANAGER_PITCHYAW · gimbal pitch -90° from the horizon \(straight down\)$/);
+  });
+
+  it('says nothing of the camera in a plan without gimbal items', () => {
+    const l = handoffLineOf(built.lines[0]!, built.items);
+    expect(l.cameraTiltDeg).toBeNull();
+    expect(handoffLineText(l, 'metric')).not.toContain('camera');
   });
 });

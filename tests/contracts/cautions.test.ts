@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { flightCautions, generalCautions, regulationsCaution } from '../../contracts/cautions';
+import { flightCautions, generalCautions, missionCautions, regulationsCaution } from '../../contracts/cautions';
 import { signedOffMail } from '../../server/mail/templates';
 
 const facts = { surfaceKind: 'bare-earth' as const, verticalDatum: 'EGM96 height', maxAglM: 120, obstacleAllowanceM: 0 };
@@ -24,6 +24,16 @@ describe('safety cautions', () => {
     const text = flightCautions(facts).join(' ');
     expect(text).toMatch(/120 m above ground level/);
     expect(text).toMatch(/above the vertical datum EGM96 height/);
+  });
+
+  it('say the camera tilt of a plan flown with the camera tilted, before the closing rule, and nothing of it otherwise', () => {
+    const tilted = flightCautions({ ...facts, cameraTiltsDeg: [35] });
+    expect(tilted).toHaveLength(flightCautions(facts).length + 1);
+    expect(tilted.at(-2)).toMatch(/^The camera is tilted 35° from straight down towards the nose on the lines marked so, and straight down on the others/);
+    expect(tilted.at(-1)).toBe(regulationsCaution);
+    expect(flightCautions({ ...facts, cameraTiltsDeg: [20, 35] }).join(' ')).toContain('tilted 20°–35° from straight down');
+    expect(flightCautions({ ...facts, cameraTiltsDeg: [] })).toEqual(flightCautions(facts));
+    expect(missionCautions({ ...facts, cameraTiltsDeg: [35] }).join(' ')).toContain('The MAVLink mission items point the gimbal before each line');
   });
 
   it('go out with the sign-off mail', () => {

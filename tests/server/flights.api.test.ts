@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { legSheetSchema, type LegSheet } from '../../contracts/flights';
+import { SOLVE_REPORT_KEYS } from '../../contracts/solve';
+import { planResultSchema } from '../../contracts/plan-result';
 import { analysedResult, createVersion, freshTeam, solvedMission, solvedResult, type FreshTeam } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { readMission } from '../../server/versions/result-view';
@@ -136,6 +138,36 @@ describe('the leg sheet', () => {
       expect(p.flightTimeS / t).toBeGreaterThan(0.995);
       expect(p.flightTimeS / t).toBeLessThan(1.005);
     }
+  });
+
+  it('marks the solver\'s spot photos and sets of lines, and cautions a tilted camera in the sheet, its checklist and the exports', async () => {
+    // the stored result of a solved plan, its lines read as a slant plan's: two sets, the camera tilted 35° on the
+    // lines of the layout and straight down on one spot photo between them (the solver's own choices say which)
+    // stored as the analysis worker stores a solved plan: the solver's report under `solved`
+    const plan = solvedResult() as unknown as Record<string, unknown>;
+    const report = Object.fromEntries(SOLVE_REPORT_KEYS.map((k) => [k, plan[k]]));
+    for (const k of SOLVE_REPORT_KEYS) delete plan[k];
+    const result = planResultSchema.parse({ ...plan, solved: report });
+    expect(result.lines.length).toBeGreaterThan(3);
+    const n = result.lines.length;
+    const spotAt = 1;
+    result.solved!.choices.lines = result.solved!.choices.lines.map((c, i) => ({ ...c, kind: i === spotAt ? 'spot' : 'line', set: i < n / 2 ? 1 : 2 }));
+    result.lines.forEach((l, i) => { if (i !== spotAt) l.cameraTiltDeg = 35; });
+    const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', result, input: solvedMission() });
+    const sheet: LegSheet = legSheetSchema.parse((await team.clients.pilot.get(sheetPath(v.versionId))).body);
+    expect(sheet.lines.map((l) => l.kind)).toEqual(result.lines.map((_, i) => (i === spotAt ? 'spot' : 'line')));
+    expect(sheet.lines.map((l) => l.set)).toEqual(result.lines.map((_, i) => (i === spotAt ? undefined : i < n / 2 ? 1 : 2)));
+    expect(sheet.lines.map((l) => l.cameraTiltDeg)).toEqual(result.lines.map((_, i) => (i === spotAt ? undefined : 35)));
+    const caution = sheet.cautions.find((c) => c.startsWith('The camera is tilted 35° from straight down towards the nose'));
+    expect(caution).toBeDefined();
+    expect(sheet.checklist.filter((c) => c.kind === 'caution').map((c) => c.text)).toContain(caution);
+    const geo = (await team.clients.pilot.get(`${v.path}/export.geojson`)).body;
+    expect(geo.cautions).toContain(caution);
+    // one set and no spots: a plan laid out from the settings has neither, nor the caution
+    const plain = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off' });
+    const plainSheet: LegSheet = legSheetSchema.parse((await team.clients.pilot.get(sheetPath(plain.versionId))).body);
+    expect(new Set(plainSheet.lines.map((l) => `${l.kind}/${l.set}`))).toEqual(new Set(['line/undefined']));
+    expect(plainSheet.cautions.join(' ')).not.toContain('The camera is tilted');
   });
 
   it('plans the batteries and carries the pre-flight checklist with the cautions', async () => {
