@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import type { Role } from '../../contracts/roles';
 import { demoPassword } from '../../server/seed/demo-password';
-import { launchBrowser, openPage, viewports } from '../support/browser';
+import { launchBrowser, openPage, viewports, signInWith } from '../support/browser';
 import { demoTeamVersions } from '../support/demo';
 import type { VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
@@ -66,11 +66,7 @@ async function open(page: Page, url: string): Promise<void> {
 }
 
 async function signIn(page: Page, role: Role): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === role)!.email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, demoUsers.find((u) => u.role === role)!.email, demoPassword);
 }
 
 const v = () => `/projects/${draft.projectId}/plans/${draft.planId}/versions/${draft.versionId}`;

@@ -18,7 +18,7 @@ import { asFlownDocSchema } from '../../contracts/as-flown';
 import { formatAltitudePair } from '../../components/flights/leg-format';
 import { EXAMPLE_SKIPPED } from '../../datasets/make-example-photo-log';
 import { analysedExampleVersion } from '../support/analysed-version';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { fixturePassword, freshTeam, type FreshTeam } from '../support/fixtures';
 import { writePhotoJpegs } from '../support/photo-jpegs';
 import { startTestServer, type TestServer } from '../support/test-server';
@@ -48,11 +48,7 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page, email: string) {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(fixturePassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, email, fixturePassword);
 }
 
 /** "line 5, stations 12–17" runs of the simulation's skipped triggers, as the card words them. */

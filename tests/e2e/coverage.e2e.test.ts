@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { versionCoverageSchema } from '../../contracts/coverage';
 import { demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from '../../server/seed/demo-password';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { demoClients, seededDemoVersion } from '../support/demo';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -42,11 +42,7 @@ describe('ground proof on the version screen', () => {
       const api = versionCoverageSchema.parse((await clients.surveyor.get(`${apiPath}/coverage`)).body);
       if (api.state !== 'ready') throw new Error('the demo coverage is not ready');
       const { page, context, pageErrors } = await openPage(browser, viewport);
-      await page.goto(`${srv.url}/sign-in`);
-      await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === 'surveyor')!.email);
-      await page.getByTestId('sign-in-password').fill(demoPassword);
-      await page.getByTestId('sign-in-submit').click();
-      await page.getByTestId('nav-profile').waitFor();
+      await signInWith(page, srv.url, demoUsers.find((u) => u.role === 'surveyor')!.email, demoPassword);
       await page.goto(`${srv.url}${pagePath}`);
       const card = page.getByTestId('coverage-card');
       await card.waitFor();

@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import type { LegSheet } from '../../contracts/flights';
 import { demoPassword } from '../../server/seed/demo-password';
-import { launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { demoClients, demoTeamId } from '../support/demo';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -43,11 +43,7 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === 'pilot')!.email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, demoUsers.find((u) => u.role === 'pilot')!.email, demoPassword);
 }
 
 describe.skipIf(skipWeb)('the line index of the leg sheet', () => {

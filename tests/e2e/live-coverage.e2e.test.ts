@@ -8,7 +8,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { analysedResult, createVersion, fixturePassword, freshTeam, storeSyntheticDem, type FreshTeam, type VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -43,11 +43,7 @@ afterAll(async () => {
 
 async function signIn(role: 'planner' | 'pilot', viewport: { width: number; height: number }) {
   const { page, context, pageErrors } = await openPage(browser, viewport);
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(team.users[role].email);
-  await page.getByTestId('sign-in-password').fill(fixturePassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, team.users[role].email, fixturePassword);
   return { page, context, pageErrors };
 }
 

@@ -14,7 +14,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from '../../server/seed/demo-password';
-import { launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { demoClients, demoTeamId } from '../support/demo';
 import { uploadDem } from '../support/upload-helpers';
 import { startTestServer, type TestServer } from '../support/test-server';
@@ -54,11 +54,7 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === 'planner')!.email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, demoUsers.find((u) => u.role === 'planner')!.email, demoPassword);
 }
 
 async function box(page: Page, testId: string) {

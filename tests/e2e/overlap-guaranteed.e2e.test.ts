@@ -13,7 +13,7 @@ import { demoUsers } from '../../contracts/demo-team';
 import { planResultSchema } from '../../contracts/plan-result';
 import { roundTowardFailing } from '../../contracts/target-rounding';
 import { demoPassword } from '../../server/seed/demo-password';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { demoClients, seededDemoVersion } from '../support/demo';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -47,11 +47,7 @@ describe('overlaps as planned and as guaranteed on the results screen', () => {
       const s = result.summary;
       expect(s.overlapEnvelope?.words).toBe('±5° roll, ±5° pitch');
       const { page, context, pageErrors } = await openPage(browser, viewport);
-      await page.goto(`${srv.url}/sign-in`);
-      await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === 'surveyor')!.email);
-      await page.getByTestId('sign-in-password').fill(demoPassword);
-      await page.getByTestId('sign-in-submit').click();
-      await page.getByTestId('nav-profile').waitFor();
+      await signInWith(page, srv.url, demoUsers.find((u) => u.role === 'surveyor')!.email, demoPassword);
       await page.goto(`${srv.url}${pagePath}`);
       await page.getByTestId('summary-figures').waitFor();
       const planned = await page.getByTestId('summary-overlap').textContent();

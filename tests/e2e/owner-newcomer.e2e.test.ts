@@ -10,7 +10,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { emptyEnduranceMessage } from '../../components/plans/plan-form-schema';
 import { noFileMessage } from '../../components/sites/site-upload-words';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { createVersion, eventually, fixturePassword, freshTeam, type FreshTeam, type VersionFixture } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -37,11 +37,7 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(fixturePassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, email, fixturePassword);
 }
 
 async function shootWhole(page: Page, name: string): Promise<void> {

@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import { parsePhotoLogCsv } from '../../contracts/photo-log';
 import { demoPassword } from '../../server/seed/demo-password';
-import { launchBrowser, openPage, viewports } from '../support/browser';
+import { launchBrowser, openPage, viewports, signInWith } from '../support/browser';
 import { demoTeamVersions } from '../support/demo';
 import type { VersionFixture } from '../support/fixtures';
 import { writePhotoJpegs } from '../support/photo-jpegs';
@@ -42,11 +42,7 @@ afterAll(async () => {
 describe('photo metadata read on the device', () => {
   it(`reads ${PHOTOS.toLocaleString('en')} photos in Chromium within ${BUDGET_MS / 1000} s`, async () => {
     const { page, context, pageErrors } = await openPage(browser, viewports.phone);
-    await page.goto(`${srv.url}/sign-in`);
-    await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === 'pilot')!.email);
-    await page.getByTestId('sign-in-password').fill(demoPassword);
-    await page.getByTestId('sign-in-submit').click();
-    await page.getByTestId('nav-profile').waitFor();
+    await signInWith(page, srv.url, demoUsers.find((u) => u.role === 'pilot')!.email, demoPassword);
     // the check itself is not the subject here: its request is stopped, and the card says it could not be sent
     await page.route('**/as-flown-checks', (route) => (route.request().method() === 'POST' ? route.abort() : route.continue()));
     await page.goto(`${srv.url}/flights/${version.versionId}`);

@@ -12,7 +12,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from '../../server/seed/demo-password';
 import { seriesLooks } from '../../components/charts/chart-palette';
-import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
+import { launchBrowser, screenshotDir, viewports, openPage, signInWith } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const shotDir = path.join(screenshotDir, 'planner');
@@ -41,11 +41,7 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, email, demoPassword);
 }
 
 /**

@@ -12,7 +12,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import { planResultSchema } from '../../contracts/plan-result';
 import { demoPassword } from '../../server/seed/demo-password';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { demoClients, seededDemoVersion } from '../support/demo';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -37,11 +37,7 @@ afterAll(async () => {
 });
 
 async function signInAndOpen(page: Page): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(demoUsers.find((u) => u.role === 'surveyor')!.email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, demoUsers.find((u) => u.role === 'surveyor')!.email, demoPassword);
   await page.goto(`${srv.url}${pagePath}`);
   await page.getByTestId('summary-figures').waitFor();
   // the panels below the results load on their own; the height counts once they are in

@@ -13,7 +13,7 @@ import { demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from '../../server/seed/demo-password';
 import type { Role } from '../../contracts/roles';
 import { user } from '../../db/schema';
-import { growToContent, launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
+import { growToContent, launchBrowser, screenshotDir, viewports, openPage, signInWith } from '../support/browser';
 import { demoClients, demoTeamId, seededDemoVersion } from '../support/demo';
 import { createVersion, eventually, type VersionFixture } from '../support/fixtures';
 import type { ApiClient } from '../support/http-client';
@@ -59,11 +59,7 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page, email: string, password = demoPassword): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(password);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, email, password);
 }
 
 /**

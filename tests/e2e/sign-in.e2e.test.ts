@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../contracts/roles';
 import { demoTeam, demoUsers } from '../../contracts/demo-team';
 import { demoPassword } from '../../server/seed/demo-password';
-import { launchBrowser, screenshotDir, viewports, openPage } from '../support/browser';
+import { launchBrowser, screenshotDir, viewports, openPage, signInWith } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 const navIds = ['nav-work', 'nav-projects', 'nav-flights', 'nav-team', 'nav-profile'] as const;
@@ -100,11 +100,7 @@ describe.skipIf(skipWeb).each(Object.entries(viewports))('signing in on a %s win
     it(`lets the demo ${user.role} in, landing on ${want.home} with only ${want.nav.join(', ')}`, async () => {
       const { context, page, pageErrors } = await openPage(browser, viewport);
       try {
-        await page.goto(`${srv.url}/sign-in`);
-        await page.getByTestId('sign-in-email').fill(user.email);
-        await page.getByTestId('sign-in-password').fill(demoPassword);
-        await page.getByTestId('sign-in-submit').click();
-        await page.getByTestId('nav-profile').waitFor();
+        await signInWith(page, srv.url, user.email, demoPassword);
         await page.waitForURL((u) => u.pathname === want.home);
 
         // The layout for the window size: a side column from 1024 px, a bottom tab bar below that.

@@ -10,7 +10,7 @@ import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { COVERAGE_RANGES } from '../../terrain/coverage-ranges';
 import { EXAMPLE_MISSION } from '../support/analysed-version';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { eventually, fixturePassword, freshTeam, type FreshTeam } from '../support/fixtures';
 import { startTestServer, type TestServer } from '../support/test-server';
 
@@ -44,11 +44,7 @@ afterAll(async () => {
 describe('spec for every ground cell in the plan editor', () => {
   it('saves the spec and the envelope the planner types, and refuses a value out of range beside its field', async () => {
     const { page, context, pageErrors } = await openPage(browser, viewports.phone);
-    await page.goto(`${srv.url}/sign-in`);
-    await page.getByTestId('sign-in-email').fill(team.users.planner.email);
-    await page.getByTestId('sign-in-password').fill(fixturePassword);
-    await page.getByTestId('sign-in-submit').click();
-    await page.getByTestId('nav-profile').waitFor();
+    await signInWith(page, srv.url, team.users.planner.email, fixturePassword);
     await page.goto(`${srv.url}/projects/${projectId}/plans/${planId}`);
     const section = page.getByTestId('spec-section');
     await section.waitFor();
@@ -83,11 +79,7 @@ describe('spec for every ground cell in the plan editor', () => {
 
   it('lets Loftline lay the lines out to the spec, and shows why on the version screen', async () => {
     const { page, context, pageErrors } = await openPage(browser, viewports.wide);
-    await page.goto(`${srv.url}/sign-in`);
-    await page.getByTestId('sign-in-email').fill(team.users.planner.email);
-    await page.getByTestId('sign-in-password').fill(fixturePassword);
-    await page.getByTestId('sign-in-submit').click();
-    await page.getByTestId('nav-profile').waitFor();
+    await signInWith(page, srv.url, team.users.planner.email, fixturePassword);
     await page.goto(`${srv.url}/projects/${projectId}/plans/${planId}`);
     await page.getByTestId('spec-section').waitFor();
     await page.getByTestId('plan-spec-views').fill('5');

@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoUsers } from '../../contracts/demo-team';
 import type { Role } from '../../contracts/roles';
 import { demoPassword } from '../../server/seed/demo-password';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { demoClients, demoTeamVersions } from '../support/demo';
 import type { VersionFixture } from '../support/fixtures';
 import type { ApiClient } from '../support/http-client';
@@ -56,11 +56,7 @@ afterAll(async () => {
 const demo = (role: Role) => demoUsers.find((u) => u.role === role)!;
 
 async function signIn(page: Page, role: Role): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(demo(role).email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, demo(role).email, demoPassword);
 }
 
 async function shootWhole(page: Page, name: string): Promise<void> {

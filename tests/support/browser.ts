@@ -65,3 +65,12 @@ export async function growToContent(page: Page): Promise<() => Promise<void>> {
   await page.waitForTimeout(300);
   return () => page.setViewportSize(size);
 }
+
+/** Sign in through the sign-in screen at `baseUrl` and wait for the signed-in shell (its profile link). */
+export async function signInWith(page: Page, baseUrl: string, email: string, password: string): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(email);
+  await page.getByTestId('sign-in-password').fill(password);
+  await page.getByTestId('sign-in-submit').click();
+  await page.getByTestId('nav-profile').waitFor();
+}
