@@ -78,6 +78,12 @@ const batteryPlanSchema = z.object({
       flightTimeS: n,
       /** True when one line alone needs more than a battery's usable time. */
       overBudget: z.boolean(),
+      /**
+       * The altitude above takeoff the pack flies home at from its last line (that line's end, or higher where the
+       * ground on the straight way home needs it to keep the clearance), and how much it climbs over the end first.
+       */
+      homeAboveTakeoffM: n.optional(),
+      homeClimbM: n.optional(),
     }),
   ),
   notes: z.array(z.string()),

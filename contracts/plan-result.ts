@@ -42,6 +42,9 @@ export const planLineSchema = z.object({
   areaStartM: n, areaEndM: n,
   // oblique capture: the camera tilted on its mount towards the nose, degrees from straight down (absent: straight down)
   cameraTiltDeg: n.optional(),
+  // the altitude above takeoff the straight way home from the line's end keeps the clearance at (a battery change
+  // after it); optional: results stored before had none
+  returnAltitudeAboveTakeoffM: n.optional(),
   stations: z.array(planStationSchema), legs: z.array(planLegSchema),
   unmet: z.array(unmetStretchSchema), warnings: z.array(planWarningSchema),
 });

@@ -60,6 +60,12 @@ export interface PlanLine {
   areaEndM: number;
   /** Camera tilt on its mount along the line, degrees from straight down towards the nose (oblique capture); absent: straight down. */
   cameraTiltDeg?: number;
+  /**
+   * The altitude above takeoff at which the straight way home from this line's end keeps the clearance and
+   * allowance (never below the end's own): where a battery change after this line flies home from. Absent where
+   * the line has no legs.
+   */
+  returnAltitudeAboveTakeoffM?: number;
   stations: PlanStation[];
   legs: PlanLeg[];
   unmet: UnmetStretch[];

@@ -347,11 +347,15 @@ function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profi
     if (fit.unknownCount > 0) {
       warnings.push({ code: 'ground-unknown', message: `Line ${li + 1}: ${fit.unknownCount} of ${fit.groundM.length} ground samples have no elevation data; heights there were carried over from known neighbours.` });
     }
+    // where a battery change after this line flies home from
+    const endAlt = fit.legs[fit.legs.length - 1]?.altitudeEndM;
+    const home = Number.isFinite(endAlt) ? { returnAltitudeAboveTakeoffM: round(safeReturnM(line.end, endAlt, g, mission.clearanceM + mission.obstacleAllowanceM) - g.takeoffGroundM, 3) } : {};
     return {
       index: li, headingDeg: round(line.headingDeg, 6), lengthM: round(line.lengthM, 3),
       start: ll(line.start[0], line.start[1]), end: ll(line.end[0], line.end[1]),
       areaStartM: round(line.areaStartM, 3), areaEndM: round(line.areaEndM, 3),
       ...(line.mountTiltDeg ? { cameraTiltDeg: round(line.mountTiltDeg, 3) } : {}),
+      ...home,
       stations, legs, unmet: fit.unmet.map((u) => ({ ...u, startM: round(u.startM, 3), endM: round(u.endM, 3) })), warnings,
     };
   });
@@ -483,9 +487,14 @@ function returnAltitude(lines: FlightLine[], profiles: LineProfile[], g: PlanGro
   const legs = profiles[profiles.length - 1]?.fit.legs ?? [];
   const endM = legs[legs.length - 1]?.altitudeEndM;
   if (lines.length === 0 || !Number.isFinite(endM)) return {};
-  const short = transitShortfallM(lines[lines.length - 1].end, g.takeoffXY, endM, g.heights.heightAt, clearanceM, 1);
-  const altM = short > 0 ? Math.ceil((endM + short) * 10) / 10 : endM;
+  const altM = safeReturnM(lines[lines.length - 1].end, endM, g, clearanceM);
   return { returnAltitudeM: round(altM, 3), returnAltitudeAboveTakeoffM: round(altM - g.takeoffGroundM, 3) };
+}
+
+/** The altitude (above the datum) a straight flight home from `from` at `altM` must be raised to, to keep the clearance over the ground every metre (rounded up to the decimetre); `altM` itself when it does. */
+function safeReturnM(from: readonly number[], altM: number, g: PlanGround, clearanceM: number): number {
+  const short = transitShortfallM(from, g.takeoffXY, altM, g.heights.heightAt, clearanceM, 1);
+  return short > 0 ? Math.ceil((altM + short) * 10) / 10 : altM;
 }
 
 /** The plan-wide warnings: safety, transits, each line's own, then what the plan as a whole leaves undone. */

@@ -1,14 +1,15 @@
 /** The battery plan: how many packs, which lines each flies, its flight time, and packs that cannot fly a line alone. */
 import { StyleSheet, View } from 'react-native';
 import type { BatteryPlan } from '../../contracts/flights';
+import type { UnitSystem } from '../../contracts/projects';
 import { formatDuration } from '../projects/units';
 import { BulletList } from '../reports/bullet-list';
 import { colors, layout, space } from '../theme';
 import { Badge, Card, Heading, Text } from '../ui';
-import { batterySummary, packLinesLabel } from './leg-format';
+import { batterySummary, packHomeLabel, packLinesLabel } from './leg-format';
 
-/** Each pack starts and ends at the takeoff point (the server's plan); over-budget packs are marked in words. */
-export function BatteryPlanCard({ plan }: { plan: BatteryPlan }) {
+/** Each pack starts and ends at the takeoff point (the server's plan); over-budget packs are marked in words; each says the altitude it flies home at. */
+export function BatteryPlanCard({ plan, units }: { plan: BatteryPlan; units: UnitSystem }) {
   return (
     <Card testID="battery-plan">
       <Heading level={2}>Battery plan</Heading>
@@ -19,6 +20,7 @@ export function BatteryPlanCard({ plan }: { plan: BatteryPlan }) {
             <View style={styles.what}>
               <Text variant="bodyStrong">Battery {p.number}</Text>
               <Text>{packLinesLabel(p.lines)}</Text>
+              {packHomeLabel(p, units) ? <Text testID={`pack-${p.number}-home`}>{packHomeLabel(p, units)}</Text> : null}
             </View>
             <View style={styles.right}>
               <Text variant="bodyStrong">{formatDuration(p.flightTimeS)}</Text>

@@ -61,6 +61,19 @@ export function packLinesLabel(lines: readonly number[]): string {
   return consecutive ? `Lines ${lines[0]}–${lines[lines.length - 1]}` : `Lines ${lines.join(', ')}`;
 }
 
+/**
+ * "Home from line 12 at 86 m above takeoff", and where the ground on the straight way home needs the pack to climb
+ * over that line's end first, by how much; empty for a sheet stored without the figure.
+ */
+export function packHomeLabel(pack: BatteryPlan['packs'][number], units: UnitSystem): string {
+  if (pack.homeAboveTakeoffM === undefined || pack.lines.length === 0) return '';
+  const unit = lengthUnit(units);
+  const last = pack.lines[pack.lines.length - 1];
+  const home = `Home from line ${last} at ${whole(pack.homeAboveTakeoffM, units)} ${unit} above takeoff`;
+  const climb = pack.homeClimbM ?? 0;
+  return climb >= 0.5 ? `${home}: climb ${whole(climb, units)} ${unit} over its end first, the ground on the way needs it` : home;
+}
+
 /** One sentence for the battery plan's head: count, usable time per battery and the reserve kept. */
 export function batterySummary(b: BatteryPlan): string {
   const reserve = `${Math.round(b.reserve * 100)} %`;

@@ -100,7 +100,7 @@ function SheetBody({ sheet, teamId, offline }: { sheet: LegSheet; teamId: string
         />
       </Card>
       <PreflightChecklist items={sheet.checklist} versionId={sheet.version.id} />
-      <BatteryPlanCard plan={sheet.batteries} />
+      <BatteryPlanCard plan={sheet.batteries} units={u} />
       <View style={styles.lines}>
         {sheetBlocks(lines).map((b) =>
           b.kind === 'line' ? (

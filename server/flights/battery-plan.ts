@@ -21,6 +21,8 @@ export interface BatteryLine {
   /** Altitude above the takeoff point at the line's start and at its end, metres (the climb out and the descent back). */
   startAboveTakeoffM?: number;
   endAboveTakeoffM?: number;
+  /** Altitude above takeoff the straight way home from the line's end keeps the clearance at (the plan's; at least the end's): climbed to before heading home. */
+  returnAboveTakeoffM?: number;
 }
 
 interface BatteryOptions {
@@ -49,7 +51,12 @@ export function planBatteries(lines: readonly BatteryLine[], o: BatteryOptions):
     return dz > 0 ? dz / o.climbMps : -dz / o.descentMps;
   };
   const outS = (l: BatteryLine) => vertical(l.startAboveTakeoffM) + l.fromTakeoffM / o.speedMps;
-  const backS = (l: BatteryLine) => l.toTakeoffM / o.speedMps + vertical(l.endAboveTakeoffM === undefined ? undefined : -l.endAboveTakeoffM);
+  // home at the plan's return altitude where the way needs it: climb over the line's end first, then descend from there
+  const homeAlt = (l: BatteryLine) => (l.endAboveTakeoffM === undefined ? undefined : Math.max(l.endAboveTakeoffM, l.returnAboveTakeoffM ?? -Infinity));
+  const backS = (l: BatteryLine) => {
+    const home = homeAlt(l);
+    return (home === undefined ? 0 : vertical(home - l.endAboveTakeoffM!) + vertical(-home)) + l.toTakeoffM / o.speedMps;
+  };
   const packs: BatteryPlan['packs'] = [];
   const notes: string[] = [];
   let cur: { lines: BatteryLine[]; timeS: number } | null = null;
@@ -58,7 +65,8 @@ export function planBatteries(lines: readonly BatteryLine[], o: BatteryOptions):
     if (!cur) return;
     const last = cur.lines[cur.lines.length - 1];
     const flightTimeS = cur.timeS + backS(last);
-    packs.push({ number: packs.length + 1, lines: cur.lines.map((l) => l.number), flightTimeS, overBudget: flightTimeS > usable + 1e-9 });
+    const home = homeAlt(last);
+    packs.push({ number: packs.length + 1, lines: cur.lines.map((l) => l.number), flightTimeS, overBudget: flightTimeS > usable + 1e-9, ...(home !== undefined && Number.isFinite(home) ? { homeAboveTakeoffM: home, homeClimbM: Math.max(0, home - last.endAboveTakeoffM!) } : {}) });
     cur = null;
   };
 

@@ -89,7 +89,7 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
         fromPreviousS = distanceM(prev.end, l.start) / mission.speedMps + (dz > 0 ? dz / mission.climbMps : -dz / mission.descentMps);
       }
       const startAboveTakeoffM = l.legs[0]?.altitudeAboveTakeoffM.start, endAboveTakeoffM = l.legs[l.legs.length - 1]?.altitudeAboveTakeoffM.end;
-      return { number: l.number, timeS: l.timeS, fromTakeoffM: distanceM(takeoff, l.start), toTakeoffM: distanceM(l.end, takeoff), fromPreviousS, startAboveTakeoffM, endAboveTakeoffM };
+      return { number: l.number, timeS: l.timeS, fromTakeoffM: distanceM(takeoff, l.start), toTakeoffM: distanceM(l.end, takeoff), fromPreviousS, startAboveTakeoffM, endAboveTakeoffM, returnAboveTakeoffM: view.lines[i].returnAltitudeAboveTakeoffM };
     }),
     { enduranceMin: mission.enduranceMin, reserve: mission.batteryReserve, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS, climbMps: mission.climbMps, descentMps: mission.descentMps },
   );

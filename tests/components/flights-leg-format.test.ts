@@ -6,6 +6,7 @@ import {
   formatLatLon,
   formatRange,
   legKindLabel,
+  packHomeLabel,
   packLinesLabel,
 } from '../../components/flights/leg-format';
 
@@ -62,5 +63,14 @@ describe('leg-sheet ranges and words', () => {
     expect(packLinesLabel([4])).toBe('Line 4');
     expect(packLinesLabel([1, 3, 5])).toBe('Lines 1, 3, 5');
     expect(packLinesLabel([])).toBe('No lines');
+  });
+
+  it('says the altitude each pack flies home at, and the climb first where the ground on the way needs it', () => {
+    const pack = { number: 2, lines: [4, 5, 6], flightTimeS: 900, overBudget: false };
+    expect(packHomeLabel({ ...pack, homeAboveTakeoffM: 81.2, homeClimbM: 0 }, 'metric')).toBe('Home from line 6 at 81 m above takeoff');
+    expect(packHomeLabel({ ...pack, homeAboveTakeoffM: 86.4, homeClimbM: 5.2 }, 'metric')).toBe('Home from line 6 at 86 m above takeoff: climb 5 m over its end first, the ground on the way needs it');
+    // 86.4 m is 283.46 ft (0.3048 m to the international foot)
+    expect(packHomeLabel({ ...pack, homeAboveTakeoffM: 86.4, homeClimbM: 5.2 }, 'imperial')).toMatch(/^Home from line 6 at 283 ft above takeoff: climb 17 ft/);
+    expect(packHomeLabel(pack, 'metric')).toBe('');
   });
 });

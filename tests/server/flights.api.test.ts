@@ -134,7 +134,11 @@ describe('the leg sheet', () => {
         const dz = b.legs[0].altitudeAboveDatumM.start - a.legs.at(-1)!.altitudeAboveDatumM.end;
         t += turn + hav(a.end, b.start) / speed + Math.abs(dz) / 0.2 + b.timeS;
       }
-      t += hav(ls.at(-1)!.end, takeoff) / speed + Math.abs(ls.at(-1)!.legs.at(-1)!.altitudeAboveTakeoffM.end) / 0.2;
+      // home from the last line at the plan's return altitude for it (at least its end's): climb first, then down
+      const endAlt = ls.at(-1)!.legs.at(-1)!.altitudeAboveTakeoffM.end;
+      const home = Math.max(endAlt, result.lines[ls.at(-1)!.number - 1].returnAltitudeAboveTakeoffM!);
+      expect(p.homeAboveTakeoffM).toBeCloseTo(home, 6);
+      t += (home - endAlt) / 0.2 + hav(ls.at(-1)!.end, takeoff) / speed + Math.abs(home) / 0.2;
       expect(p.flightTimeS / t).toBeGreaterThan(0.995);
       expect(p.flightTimeS / t).toBeLessThan(1.005);
     }

@@ -55,6 +55,20 @@ describe('the battery plan', () => {
     expect(() => planBatteries([], { ...opts, climbMps: 0, descentMps: 2 })).toThrow(/climbMps must be positive, got 0/);
   });
 
+  it('flies each pack home at its last line\'s return altitude, climbing over the line\'s end first where the ground on the way needs it', () => {
+    const vert = { ...opts, climbMps: 3, descentMps: 2 };
+    // ends at 100 m above takeoff; the way home needs 118 m: 30 up + 30 out + 100 + (18 / 3 = 6 up) + 30 back + 118 / 2 = 59 down = 255 s
+    const plan = planBatteries([{ ...line(1, 100), startAboveTakeoffM: 90, endAboveTakeoffM: 100, returnAboveTakeoffM: 118 }], vert);
+    expect(plan.packs[0].flightTimeS).toBeCloseTo(255, 9);
+    expect([plan.packs[0].homeAboveTakeoffM, plan.packs[0].homeClimbM]).toEqual([118, 18]);
+    // a return altitude at or below the end's own changes nothing: home at the end's altitude, no climb
+    const clear = planBatteries([{ ...line(1, 100), startAboveTakeoffM: 90, endAboveTakeoffM: 100, returnAboveTakeoffM: 100 }], vert);
+    expect(clear.packs[0].flightTimeS).toBeCloseTo(30 + 30 + 100 + 30 + 50, 9);
+    expect([clear.packs[0].homeAboveTakeoffM, clear.packs[0].homeClimbM]).toEqual([100, 0]);
+    // without altitudes (a sheet stored before) no home figure at all
+    expect(planBatteries([line(1, 100)], opts).packs[0].homeAboveTakeoffM).toBeUndefined();
+  });
+
   it('says its figures assume still air', () => {
     expect(planBatteries([line(1, 10)], opts).notes.at(-1)).toMatch(/still air/);
   });

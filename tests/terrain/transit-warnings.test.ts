@@ -62,6 +62,16 @@ describe('the return altitude', () => {
     // clear by the clearance to the grid's own interpolation of the 2 m pixels (a few centimetres on this ridge)
     expect(worst).toBeLessThanOrEqual(0.1);
     expect(worst).toBeGreaterThan(-0.5);
+    // every line's own way home (where a battery change after it flies from): the same check, each at least its end's altitude
+    for (const l of p.lines) {
+      const home = l.returnAltitudeAboveTakeoffM! + p.takeoff.groundM;
+      expect(home).toBeGreaterThanOrEqual(l.legs[l.legs.length - 1].altitudeEndM - 1e-6);
+      const [lx, ly] = site.frame.toLocal(l.end.lon, l.end.lat);
+      let w = -Infinity;
+      for (let k = 0; k <= 2000; k++) w = Math.max(w, ridge(lx + ((tx - lx) * k) / 2000, ly + ((ty - ly) * k) / 2000) + 40 - home);
+      expect(w).toBeLessThanOrEqual(0.1);
+    }
+    expect(p.lines[p.lines.length - 1].returnAltitudeAboveTakeoffM).toBe(p.takeoff.returnAltitudeAboveTakeoffM);
     const w = p.warnings.find((x) => x.message.startsWith(`Line ${p.lines.length} to takeoff`));
     expect(w?.message).toMatch(/the MAVLink export climbs to it over the end of the line before the return/);
   }, 60_000);
