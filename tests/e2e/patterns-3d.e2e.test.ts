@@ -12,7 +12,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { LegSheet } from '../../contracts/flights';
 import { EXAMPLE_MISSION } from '../support/analysed-version';
-import { growToContent, launchBrowser, openPage, screenshotDir, viewports } from '../support/browser';
+import { growToContent, launchBrowser, openPage, screenshotDir, viewports, signInWith } from '../support/browser';
 import { fixturePassword, freshTeam, type FreshTeam } from '../support/fixtures';
 import { signOffBody } from '../support/review-helpers';
 import { startTestServer, type TestServer } from '../support/test-server';
@@ -54,11 +54,7 @@ afterAll(async () => {
 });
 
 async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${srv.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(fixturePassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('nav-profile').waitFor();
+  await signInWith(page, srv.url, email, fixturePassword);
 }
 
 type Choice = { line: number; kind: 'line' | 'spot'; set: number; reasons: string[] };
