@@ -518,6 +518,6 @@ function planWideWarnings(
     warnings.push({ code: 'band-not-held', message: `The GSD band or the height limit is not held over ${round(s.unmetLengthM, 0)} m of line (${[...byReason].map(([r, m]) => `${r} ${Math.round(m)} m`).join(', ')}); see each line's unmet stretches.` });
   }
   if (s.flagged > 0) warnings.push({ code: 'stations-flagged', message: `${s.flagged} of ${s.photoCount} photos are flagged (overlap or GSD off target over the real terrain${s.envelope ? ', or overlap under the attitude envelope' : ''}); see each station's flags.` });
-  if (s.est.batteries > 1) warnings.push({ code: 'batteries', message: `The flight needs about ${s.est.batteries} batteries (${round(s.est.flightTimeS / 60, 1)} min of flight, ${round(s.est.usablePerBatteryS / 60, 1)} min usable per battery after the reserve); plan the battery changes.` });
+  if (s.est.batteries > 1) warnings.push({ code: 'batteries', message: `The flight needs at least ${s.est.batteries} batteries (${round(s.est.flightTimeS / 60, 1)} min of flight, ${round(s.est.usablePerBatteryS / 60, 1)} min usable per battery after the reserve); each change adds a flight home and back out, so the leg sheet's battery plan, which packs the lines, may need more.` });
   return warnings;
 }

@@ -24,7 +24,7 @@ export function SummaryFigures({ summary, units }: { summary: PlanSummary; units
     <View style={styles.grid} testID="summary-figures">
       <Figure label="Photos" value={formatCount(s.photoCount)} note={`${s.lineCount} lines`} testID="summary-photos" />
       <Figure label="Flight time" value={formatDuration(s.flightTimeS)} note={`${formatLength(s.flightDistanceM, units)} flown`} testID="summary-time" />
-      <Figure label="Batteries" value={formatCount(s.batteries)} note="with the reserve kept" testID="summary-batteries" />
+      <Figure label="Batteries" value={formatCount(s.batteries)} note="at least, with the reserve kept; the leg sheet packs the lines" testID="summary-batteries" />
       {/* figures against a target are rounded toward failing (contracts/target-rounding.ts); overlaps with one decimal */}
       <Figure label="Within the GSD target" value={formatPercent(s.shareWithinGsdTarget, 1, 'min')} note={`band ${formatGsd(s.gsdBandCm.min)} – ${formatGsd(s.gsdBandCm.max)}`} testID="summary-share" />
       <Figure label="GSD min / median / max" value={`${formatGsd(s.gsdCm.min, 2, 'min')} / ${formatGsd(s.gsdCm.median)} / ${formatGsd(s.gsdCm.max, 2, 'max')}`} />
