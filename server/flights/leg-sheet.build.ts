@@ -93,6 +93,7 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
     }),
     { enduranceMin: mission.enduranceMin, reserve: mission.batteryReserve, speedMps: mission.speedMps, turnTimeS: mission.turnTimeS, climbMps: mission.climbMps, descentMps: mission.descentMps },
   );
+  const onLines = new Set(lines.flatMap((l) => l.warnings));
   const groundM = takeoffGroundM(view);
   const farthest = lines.length
     ? Math.max(...lines.flatMap((l) => l.legs.flatMap((g) => [distanceM(takeoff, g.start), distanceM(takeoff, g.end)])))
@@ -138,7 +139,8 @@ export function buildLegSheet(v: VersionRecord, now: Date = new Date()): LegShee
     batteries,
     checklist,
     cautions,
-    warnings: planWarnings(view),
+    // the plan's own list repeats every line's warnings; the sheet shows those on their line's card only
+    warnings: planWarnings(view).filter((m) => !onLines.has(m)),
     generatedAt: now.toISOString(),
   };
 }

@@ -101,6 +101,9 @@ describe('the leg sheet', () => {
 
   it('times a solved plan\'s legs at their own speeds, and packs batteries with the transits between lines', async () => {
     const result = solvedResult();
+    const repeated = { code: 'short-leg', message: 'Line 1, leg 2 is 12 m long, shorter than the 50 m shortest-leg setting.' };
+    result.lines[0].warnings.push(repeated);
+    result.warnings.push(repeated);
     const input = solvedMission();
     const v = await createVersion(srv, { teamId: team.teamId, createdBy: team.users.planner.id, reviewState: 'signed_off', result, input });
     const sheet: LegSheet = legSheetSchema.parse((await team.clients.pilot.get(sheetPath(v.versionId))).body);
@@ -113,6 +116,11 @@ describe('the leg sheet', () => {
     }));
     // the fixture climbs at 0.2 m/s: some legs are slowed, and their time is the longer one
     expect(slow).toBeGreaterThan(0);
+    // a line's warnings are on its card, not again in the sheet's list (the plan's own list repeats them, as the
+    // engine writes it: planWideWarnings in terrain/plan.ts)
+    expect(sheet.lines[0].warnings).toContain(repeated.message);
+    expect(sheet.warnings).not.toContain(repeated.message);
+    expect(sheet.warnings.length).toBeGreaterThan(0);
     // each pack: straight up off the takeoff to the first line's altitude above it and out, its lines, a turn and
     // the transit between each (level at 10 m/s plus the change of altitude at 0.2 m/s up or down), back, and
     // straight down onto the takeoff
