@@ -305,7 +305,7 @@ function overlapsOf(mission: Mission, g: PlanGround, photos: LinePhotoStations[]
 }
 
 /** The lines of the result in longitude/latitude, rounded, with their stations, legs, unmet stretches and warnings. */
-function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profiles: LineProfile[], photos: LinePhotoStations[], results: StationResult[][]): PlanLine[] {
+function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profiles: LineProfile[], photos: LinePhotoStations[], results: StationResult[][], homes: Float64Array): PlanLine[] {
   const cam = mission.camera;
   const gsdPerM = (pixelPitchMm(cam) / cam.focalLengthMm) * 100;
   const aboveTakeoff = (z: number) => round(z - g.takeoffGroundM, 2);
@@ -348,8 +348,7 @@ function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profi
       warnings.push({ code: 'ground-unknown', message: `Line ${li + 1}: ${fit.unknownCount} of ${fit.groundM.length} ground samples have no elevation data; heights there were carried over from known neighbours.` });
     }
     // where a battery change after this line flies home from
-    const endAlt = fit.legs[fit.legs.length - 1]?.altitudeEndM;
-    const home = Number.isFinite(endAlt) ? { returnAltitudeAboveTakeoffM: round(safeReturnM(line.end, endAlt, g, mission.clearanceM + mission.obstacleAllowanceM) - g.takeoffGroundM, 3) } : {};
+    const home = Number.isFinite(homes[li]) ? { returnAltitudeAboveTakeoffM: round(homes[li] - g.takeoffGroundM, 3) } : {};
     return {
       index: li, headingDeg: round(line.headingDeg, 6), lengthM: round(line.lengthM, 3),
       start: ll(line.start[0], line.start[1]), end: ll(line.end[0], line.end[1]),
@@ -421,7 +420,8 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
   const env = missionEnvelope(missionInput, mission, photos);
   const { envelope, crabDegMax } = env;
   const { results, band, lattice } = overlapsOf(mission, g, photos, sets, lim, env, opts.overlaps !== false);
-  const outLines = resultLines(mission, g, lines, profiles, photos, results);
+  const homes = returnAltitudes(lines, profiles, g, lim.clearanceM);
+  const outLines = resultLines(mission, g, lines, profiles, photos, results, homes);
   const f = stationFigures(results, photos, band, g.takeoffXY);
   const { gsds, agls, photoCount, flagged } = f;
   const med = gsds.length === 0 ? null : gsds.length % 2 ? gsds[gsds.length >> 1] : (gsds[gsds.length / 2 - 1] + gsds[gsds.length / 2]) / 2;
@@ -467,7 +467,7 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
     lines: outLines,
     summary,
     warnings,
-    takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(g.takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3), ...returnAltitude(lines, profiles, g, lim.clearanceM) },
+    takeoff: { lon: mission.takeoff.lon, lat: mission.takeoff.lat, groundM: round(g.takeoffGroundM, 3), geoidUndulationM: round(geoidUndulationM(mission.takeoff.lat, mission.takeoff.lon), 3), ...finalReturn(homes, g) },
     heights: {
       datum: `altitudeM, groundM: metres above the elevation grid's vertical datum (${opts.verticalDatum ? opts.verticalDatum.name : 'not stated in the file; usually orthometric, e.g. EGM96 or a national datum'})`,
       aboveTakeoff: 'altitude…AboveTakeoffM: metres above the ground at the takeoff point, as sampled from the grid',
@@ -479,22 +479,24 @@ export function analysePlan(grid: Grid, missionInput: unknown, opts: AnalyseOpti
 }
 
 /**
- * The altitude the straight return from the last line's end to the takeoff keeps the clearance at (the transit
- * check's own sampling, every metre: `transitShortfallM`), never below the end's altitude; rounded up to the decimetre. Empty
- * when the last line has no legs.
+ * Per line, the altitude (above the datum) the straight way home from its end keeps the clearance at (the transit
+ * check's own sampling, every metre: `transitShortfallM`), never below the end's altitude, rounded up to the
+ * decimetre where raised; NaN for a line without legs. The last line's is the mission's own return.
  */
-function returnAltitude(lines: FlightLine[], profiles: LineProfile[], g: PlanGround, clearanceM: number): { returnAltitudeM?: number; returnAltitudeAboveTakeoffM?: number } {
-  const legs = profiles[profiles.length - 1]?.fit.legs ?? [];
-  const endM = legs[legs.length - 1]?.altitudeEndM;
-  if (lines.length === 0 || !Number.isFinite(endM)) return {};
-  const altM = safeReturnM(lines[lines.length - 1].end, endM, g, clearanceM);
-  return { returnAltitudeM: round(altM, 3), returnAltitudeAboveTakeoffM: round(altM - g.takeoffGroundM, 3) };
+function returnAltitudes(lines: FlightLine[], profiles: LineProfile[], g: PlanGround, clearanceM: number): Float64Array {
+  return Float64Array.from(lines, (line, li) => {
+    const legs = profiles[li].fit.legs;
+    const endM = legs[legs.length - 1]?.altitudeEndM;
+    if (!Number.isFinite(endM)) return NaN;
+    const short = transitShortfallM(line.end, g.takeoffXY, endM, g.heights.heightAt, clearanceM, 1);
+    return short > 0 ? Math.ceil((endM + short) * 10) / 10 : endM;
+  });
 }
 
-/** The altitude (above the datum) a straight flight home from `from` at `altM` must be raised to, to keep the clearance over the ground every metre (rounded up to the decimetre); `altM` itself when it does. */
-function safeReturnM(from: readonly number[], altM: number, g: PlanGround, clearanceM: number): number {
-  const short = transitShortfallM(from, g.takeoffXY, altM, g.heights.heightAt, clearanceM, 1);
-  return short > 0 ? Math.ceil((altM + short) * 10) / 10 : altM;
+/** The mission's return (the last line's way home) for the result's takeoff: above the datum and above takeoff; empty without one. */
+function finalReturn(homes: Float64Array, g: PlanGround): { returnAltitudeM?: number; returnAltitudeAboveTakeoffM?: number } {
+  const altM = homes[homes.length - 1];
+  return Number.isFinite(altM) ? { returnAltitudeM: round(altM, 3), returnAltitudeAboveTakeoffM: round(altM - g.takeoffGroundM, 3) } : {};
 }
 
 /** The plan-wide warnings: safety, transits, each line's own, then what the plan as a whole leaves undone. */
