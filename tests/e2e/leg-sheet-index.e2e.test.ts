@@ -2,7 +2,8 @@
  * The leg sheet's line index in Chromium against the real web build and API: the demo pilot opens the seeded
  * signed-off flight at 390x844 and 1440x900, finds one entry per line near the top of the sheet (number, legs,
  * photos, start height above takeoff as the API gives it), and a tap on the last entry brings that line's card to
- * the top of the screen. Screenshots go to .artifacts/screenshots/leg-sheet-index/.
+ * the top of the screen; each battery pack says the altitude it flies home at. Screenshots go to
+ * .artifacts/screenshots/leg-sheet-index/.
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -92,6 +93,15 @@ describe.skipIf(skipWeb)('the line index of the leg sheet', () => {
         const figures = (await page.getByTestId('leg-1-1-figures').textContent()) ?? '';
         expect(figures).toMatch(/Start, [\d,.]+ m along the line/);
         expect(figures).not.toMatch(/Start \(/);
+        // Each battery pack says the altitude above takeoff it flies home at from its last line, as the API's sheet has it (whole metres).
+        const battery = page.getByTestId('battery-plan');
+        await battery.scrollIntoViewIfNeeded();
+        for (const pack of sheet.batteries.packs) {
+          expect(pack.homeAboveTakeoffM, `pack ${pack.number} has a home altitude`).toBeDefined();
+          const home = (await page.getByTestId(`pack-${pack.number}-home`).textContent()) ?? '';
+          expect(home).toContain(`Home from line ${pack.lines[pack.lines.length - 1]} at ${Math.round(pack.homeAboveTakeoffM!).toLocaleString('en-GB')} m above takeoff`);
+        }
+        await battery.screenshot({ path: path.join(shotDir, `${size}-battery-plan.png`) });
         expect(pageErrors).toEqual([]);
       } finally {
         await context.close();
