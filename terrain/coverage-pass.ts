@@ -58,6 +58,12 @@ interface CellPass {
   longest: number;
   /** Per tile its box and ground range (`tileBoxes`); the tile being visited; the lattice's block maxima. */
   tileBox: Float64Array; tile: number; maxRuns: MaxRuns;
+  /**
+   * Per lattice cell, the steepest ground within `nearM` of its points (`nearSlopes`), and that distance; scratch:
+   * the value at the cell being visited (a ray leaving the surface there rising at least this fast clears the
+   * march's first `nearM` metres).
+   */
+  near: Float32Array; nearM: number; nearRise: Float64Array;
   /** Per photo of the tile being visited: its clearance profile (CLEARANCE_STRIDE numbers, count 0 until worked out), and the narrowest bin, metres. */
   profiles: Float64Array; binM: number;
   /** Stop after the first cell for which this says true (null: visit every cell). */
@@ -235,13 +241,14 @@ function heldAt(c: CellPass, j: number): boolean {
 
 /**
  * Whether terrain hides the cell's ground point (c.pt[0..2]) from photo j (`occludedRay`, numbers passed in an
- * array), marching no farther than `bins` bins of the tile's clearance profile for photo `li` of its list (all the
- * way for NO_PROOF).
+ * array), marching only the bins of the tile's clearance profile for photo `li` of its list that `bins` names
+ * (`marchNeeded`; all the way for NO_PROOF).
  */
 function hiddenFrom(c: CellPass, j: number, li: number, bins: number): boolean {
   const a = c.ray, pt = c.pt, pos = c.pos;
   a[0] = pt[0]; a[1] = pt[1]; a[2] = pt[2]; a[3] = pos[j * 3]; a[4] = pos[j * 3 + 1]; a[5] = pos[j * 3 + 2]; a[6] = c.tol; a[7] = c.boxTop[j];
-  a[8] = bins === NO_PROOF ? Infinity : bins * c.profiles[li * CLEARANCE_STRIDE + 1];
+  // a[9], where the march starts, is set by `marchNeeded`
+  if (bins === NO_PROOF) { a[8] = Infinity; a[9] = 0; } else a[8] = bins * c.profiles[li * CLEARANCE_STRIDE + 1];
   return occludedRay(c.lattice, a);
 }
 
@@ -250,9 +257,9 @@ const NO_PROOF = -1;
 
 /**
  * How many bins of the clearance profile of the tile and photo `li` of its list (worked out on first use) the ray
- * from the cell (c.pt) to photo j must still be marched through: 0 when the profile proves the whole ray clear
- * (`ray-clearance.ts`), NO_PROOF when it is not used. Whole numbers in and out (a call boxes each fraction it
- * passes).
+ * from the cell (c.pt) to photo j must be marched up to: 0 when the profile and the ground near the cell prove the
+ * whole ray clear (`ray-clearance.ts`), NO_PROOF when they are not used; where the march may start is written to
+ * c.ray[9]. Whole numbers in and out (a call boxes each fraction it passes).
  */
 function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): number {
   const pt = c.pt, pos = c.pos;
@@ -268,7 +275,22 @@ function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): 
   const lift = c.pt[2] + c.tol - 1e-6;
   let k = prof[base + 2];
   while (k > 0 && lift + (k - 1) * W * rho >= prof[base + HIGHEST_AT + k - 1]) k--;
-  if (k === 0 || (nearSurface && rho >= prof[base + STEEPEST_AT + k])) return 0;
+  if (k === 0) return 0;
+  c.ray[9] = 0;
+  if (!nearSurface) return k;
+  // a ray leaving the surface and rising faster than the steepest ground of bins 0..m−1 clears them (the
+  // argument of `blockSlope`), and one rising faster than the steepest ground near its cell clears the first
+  // `nearM` metres: the march starts past both
+  let m = 0;
+  while (m < k && rho >= prof[base + STEEPEST_AT + m + 1]) m++;
+  if (m === k) return 0;
+  let from = m * W;
+  const nearM = c.nearM;
+  if (nearM > from && rho >= c.nearRise[0]) {
+    if (k * W <= nearM) return 0;
+    from = nearM;
+  }
+  c.ray[9] = from;
   return k;
 }
 
@@ -368,6 +390,11 @@ function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: numbe
   // than any ground it crosses can rise cannot meet that ground (occlusion.ts blockSlope)
   const lift = around[7] - pz;
   const nearSurface = lift <= tol;
+  if (nearSurface && useOcclusion) {
+    // the steepest ground near the point (`nearSlopes`), off the lattice none proven
+    const fi = Math.floor((px - lattice.x0) / hStep), fj = Math.floor((py - lattice.y0) / hStep);
+    c.nearRise[0] = fi >= 0 && fj >= 0 && fi < lattice.nx && fj < lattice.ny ? c.near[fj * lattice.nx + fi] : FAR_SQ;
+  }
   let planned = 0, v = 0, atSpec = 0, finest = Infinity, finestSq = FAR_SQ;
   const pair = c.pair, pa = pair[0], pb = pair[1];
   let steep = 0, up = true, sa = -1, sb = -1;

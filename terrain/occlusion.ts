@@ -24,7 +24,8 @@ export interface HeightLattice {
   blockMax: Float32Array;
   /**
    * Steepest rise of the bilinear surface in any direction within each block (metres per metre): a bound from the
-   * cells' edge differences, 0 where no cell of the block has four known nodes.
+   * cells' edge differences; Infinity where a cell of the block has an unknown node (ground beyond a void may stand
+   * at any height, so no rise across it is bounded).
    */
   blockSlope: Float32Array;
   /**
@@ -58,12 +59,13 @@ export function heightLattice(x0: number, y0: number, stepM: number, nx: number,
     }
   }
   // on one bilinear cell ∂h/∂x is a blend of its two x edges' differences (and ∂h/∂y of its y edges'), so
-  // |∇h| ≤ √(max|Δx|² + max|Δy|²) / step there; the surface is continuous, so this bounds every rise through the block
+  // |∇h| ≤ √(max|Δx|² + max|Δy|²) / step there; the surface is continuous, so this bounds every rise through the
+  // block, unless a cell of it has an unknown node
   const blockSlope = new Float32Array(bnx * bny);
   for (let j = 0; j + 1 < ny; j++) {
     for (let i = 0; i + 1 < nx; i++) {
       const a = heights[j * nx + i], b = heights[j * nx + i + 1], c = heights[(j + 1) * nx + i], d = heights[(j + 1) * nx + i + 1];
-      if (!(a === a && b === b && c === c && d === d)) continue;
+      if (!(a === a && b === b && c === c && d === d)) { blockSlope[Math.floor(j / BLOCK) * bnx + Math.floor(i / BLOCK)] = Infinity; continue; }
       const gx = Math.max(Math.abs(b - a), Math.abs(d - c)), gy = Math.max(Math.abs(c - a), Math.abs(d - b));
       const g = Math.sqrt(gx * gx + gy * gy) / stepM;
       const k = Math.floor(j / BLOCK) * bnx + Math.floor(i / BLOCK);
@@ -97,6 +99,54 @@ export function slopeIn(L: HeightLattice, box: readonly [number, number, number,
     if (b > g) g = b;
   }
   return g;
+}
+
+/** Lattice cells each way from a point within which `nearSlopes` bounds the rise of the ground. */
+export const NEAR_CELLS = 4;
+
+const nearOf = new WeakMap<HeightLattice, Float32Array>();
+
+/**
+ * Per lattice cell (index j * nx + i), the steepest rise of the bilinear surface (the bound of `blockSlope`, from
+ * each cell's edge differences) over the cells at most NEAR_CELLS away each way; Infinity where one of them has
+ * an unknown node (the surface is not continuous there, so no rise is bounded). Ground within NEAR_CELLS · step
+ * (along either axis) of a point of cell (i, j) lies in those cells, so a ray leaving the surface at the point and
+ * rising at least this fast clears every sample of the march within that distance. Worked out on first use and kept
+ * with the lattice.
+ */
+export function nearSlopes(L: HeightLattice): Float32Array {
+  const kept = nearOf.get(L);
+  if (kept) return kept;
+  const { nx, ny, heights: h, stepM } = L;
+  // the last row and column of nodes start no cell (0); off the lattice the march ends unhidden, so no ground there counts
+  const own = new Float32Array(nx * ny);
+  for (let j = 0; j + 1 < ny; j++) {
+    for (let i = 0; i + 1 < nx; i++) {
+      const a = h[j * nx + i], b = h[j * nx + i + 1], c = h[(j + 1) * nx + i], d = h[(j + 1) * nx + i + 1];
+      if (!(a === a && b === b && c === c && d === d)) { own[j * nx + i] = Infinity; continue; }
+      const gx = Math.max(Math.abs(b - a), Math.abs(d - c)), gy = Math.max(Math.abs(c - a), Math.abs(d - b));
+      own[j * nx + i] = Math.sqrt(gx * gx + gy * gy) / stepM;
+    }
+  }
+  // the window's maximum, along rows then along columns
+  const rows = new Float32Array(nx * ny), out = new Float32Array(nx * ny);
+  const r = NEAR_CELLS;
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      let g = 0;
+      for (let k = Math.max(0, i - r); k <= Math.min(nx - 1, i + r); k++) { const v = own[j * nx + k]; if (v > g) g = v; }
+      rows[j * nx + i] = g;
+    }
+  }
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      let g = 0;
+      for (let k = Math.max(0, j - r); k <= Math.min(ny - 1, j + r); k++) { const v = rows[k * nx + i]; if (v > g) g = v; }
+      out[j * nx + i] = g;
+    }
+  }
+  nearOf.set(L, out);
+  return out;
 }
 
 /** Bilinear height of the lattice at local (x, y); NaN off the lattice or beside unknown nodes. */
@@ -147,14 +197,16 @@ const FAR = 1e300;
 
 /**
  * True when the terrain rises above the straight line from the ground point (px, py, pz) to the camera
- * (ox, oy, oz) by more than `toleranceM` anywhere between (a ray march on the lattice: fixed steps of the
- * lattice spacing, from one step away from the point, stopping once the ray is above every height of the
- * lattice, or above `maxM` when the caller knows the highest ground around the whole ray (e.g. under a photo's
- * box, which holds the point and the camera and so the ray); where the ray is above a block's highest height it
- * jumps to the block's far side). Unknown heights never hide a point. The numbers come in one array
- * (px, py, pz, ox, oy, oz, toleranceM, maxM): a hot loop passes one reference instead of eight numbers the engine
- * would box on every call; a ninth, when given, ends the march at that distance along the ground (where the
- * caller has proven the rest of the ray clear: `ray-clearance.ts`).
+ * (ox, oy, oz) by more than `toleranceM` at any sample between (a ray march on the lattice: samples at whole
+ * multiples of the lattice spacing along the ground, from one spacing away from the point, stopping once the ray
+ * is above every height of the lattice, or above `maxM` when the caller knows the highest ground around the whole
+ * ray (e.g. under a photo's box, which holds the point and the camera and so the ray); where the ray is above a
+ * block's highest height it skips the samples up to the block's far side). Unknown heights never hide a point.
+ * The numbers come in one array (px, py, pz, ox, oy, oz, toleranceM, maxM): a hot loop passes one reference
+ * instead of eight numbers the engine would box on every call. A ninth, when given, ends the march at that
+ * distance along the ground, and a tenth starts it there (where the caller has proven the rest of the ray clear:
+ * `ray-clearance.ts`). The samples sit at the same whole multiples whatever the start, end and skips, so a march
+ * cut short by such proofs reads the same samples as a whole one, less those proven clear.
  */
 export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const px = a[0], py = a[1], pz = a[2], ox = a[3], oy = a[4], oz = a[5], toleranceM = a[6], maxM = a[7];
@@ -169,7 +221,10 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   const lx0 = L.x0, ly0 = L.y0, perStep = L.perStep, nx = L.nx, ny = L.ny, block = L.block, bnx = L.bnx, blockMax = L.blockMax, hs = L.heights;
   // the block size is a power of two (BLOCK), so multiplying by its inverse is dividing by it, to the bit
   const cellsPerBlock = block * step, perBlock = 1 / block;
-  let s = step;
+  // sample n at s = n·step (a whole count, so every march reads the same positions)
+  let n = 1;
+  if (a.length > 9 && a[9] > step) n = Math.ceil(a[9] / step - 1e-9);
+  let s = n * step;
   while (s < end) {
     const z = pz + s * rise;
     if (z - toleranceM > maxM) return false;
@@ -179,7 +234,8 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
     if (!(fi >= 0 && fj >= 0 && fi < nx - 1 && fj < ny - 1)) return false; // off the lattice: nothing known to hide it
     const bi = Math.floor(fi * perBlock), bj = Math.floor(fj * perBlock);
     if (z - toleranceM > blockMax[bj * bnx + bi]) {
-      // clear above this block: go to where the ray leaves it (slab method on the block's edges), plus a hair
+      // clear above this block (the ray rises or falls straight across it, so it is clear until it leaves the
+      // block's box): go to the first sample past where it leaves (slab method on the block's edges)
       const bx0 = lx0 + bi * cellsPerBlock, by0 = ly0 + bj * cellsPerBlock;
       // FAR, not Infinity, for an edge the ray runs along: the engine boxes every number a ternary mixes with the
       // constant Infinity (one allocation per jump). Where ux is 0, |uy| is 1 and ty is a block at most, so the
@@ -187,7 +243,10 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
       const tx = ux > 0 ? (bx0 + cellsPerBlock - x) / ux : ux < 0 ? (bx0 - x) / ux : FAR;
       const ty = uy > 0 ? (by0 + cellsPerBlock - y) / uy : uy < 0 ? (by0 - y) / uy : FAR;
       const jump = Math.min(tx, ty);
-      s += (jump > 0 ? jump : 0) + 1e-6 * step;
+      // (a sample a hair inside the block is read again; none past its edge is skipped)
+      const past = jump > 0 ? Math.ceil((s + jump) / step - 1e-9) : n;
+      n = past > n ? past : n + 1;
+      s = n * step;
       continue;
     }
     // latticeHeight written out (a call would box the height it returns); inside the lattice, as tested above
@@ -196,7 +255,8 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
     const top = ha + (hb - ha) * tx;
     const h = top + (hc + (hd - hc) * tx - top) * ty;
     if (h - toleranceM > z) return true;
-    s += step;
+    n++;
+    s = n * step;
   }
   return false;
 }

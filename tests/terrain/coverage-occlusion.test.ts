@@ -43,6 +43,26 @@ describe('terrain occlusion along viewing rays', () => {
     expect(seen).toBeGreaterThan(3000);
   });
 
+  it('still hides ground behind a plateau when a strip of unknown heights covers the cliff face (no slope bound is taken across it)', () => {
+    // plateau 40 m high west of the strip, level ground at 0 east of it; the heights from x = −1.5 to 1.5 m are
+    // unknown (NaN, as in a grid's void), so every known pixel is level and only the march finds the shadow
+    const cliffM = 40, a = 30, Z = 100;
+    const site = syntheticSite(150, 1, (x) => (x < -1.5 ? cliffM : x <= 1.5 ? NaN : 0));
+    const raster = computeCoverage(site.grid, site.frame, site.area(-20, -15, 30, 15), camera, [{ xM: -a, yM: 0, altitudeM: Z, yawDeg: 0 }], { cellM: 0.5, specGsdCm: 10 });
+    // the plateau's known surface ends between x = −3.5 and −1.5 (a pixel of resampling beside the void), and an
+    // edge at e casts the shadow to (cliff·a + Z·e) / (Z − cliff), as similar triangles give it (first test)
+    const shadowAtLeast = (cliffM * a + Z * -3.5) / (Z - cliffM), shadowAtMost = (cliffM * a + Z * -1.5) / (Z - cliffM);
+    let hidden = 0, seen = 0;
+    for (let i = 0; i < raster.cells.z.length; i++) {
+      if (!raster.cells.inside[i] || !(raster.cells.z[i] === raster.cells.z[i])) continue;
+      const x = cellX(raster.cells, i);
+      if (x > 4 && x < shadowAtLeast - 0.5) { expect(raster.views[i], `cell at x = ${x.toFixed(2)} m`).toBe(0); hidden++; }
+      if (x > shadowAtMost + 1) { expect(raster.views[i], `cell at x = ${x.toFixed(2)} m`).toBe(1); seen++; }
+    }
+    expect(hidden).toBeGreaterThan(500);
+    expect(seen).toBeGreaterThan(500);
+  });
+
   it('sees the whole cliff shadow when occlusion is switched off (the shadow comes from the march, not from the view test)', () => {
     const site = syntheticSite(150, 1, (x) => (x < 0 ? 20 : 0));
     const raster = computeCoverage(site.grid, site.frame, site.area(2, -15, 5, 15), camera, [{ xM: -30, yM: 0, altitudeM: 100, yawDeg: 0 }], { cellM: 0.5, specGsdCm: 10, occlusion: false });
