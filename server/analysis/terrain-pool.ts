@@ -16,6 +16,7 @@ import type { FlownPhoto } from '../../terrain/as-flown-match';
 import type { PlanResult } from '../../terrain/index';
 import { loadDatumGrids } from './datum-grids';
 import { installNodeCodecs } from './node-codecs';
+import { compiledEntry } from './compiled-entry';
 
 export type ThreadTask =
   /** `bytes` as a thread gets it: the bytes, a local path, or `remote` (each range asked of the main thread). */
@@ -94,6 +95,22 @@ interface Slot {
 const bootFile = fileURLToPath(new URL('./terrain-thread-boot.mjs', import.meta.url));
 const entryFile = new URL('./terrain-thread.ts', import.meta.url).href;
 
+/**
+ * What a terrain thread starts from: the thread's entry compiled to plain JavaScript (compiled-entry.ts: the
+ * terrain passes run about 6 % faster than through the development loader), else, where the compiler fails, the
+ * loader's start file with the TypeScript entry.
+ */
+function threadStart(): { file: string; entry?: string } {
+  try {
+    return { file: compiledEntry(fileURLToPath(entryFile)) };
+  } catch (err) {
+    if (!compileFailed) console.error(`loftline: the terrain threads run through the TypeScript loader (compiling them failed: ${err instanceof Error ? err.message : String(err)})`);
+    compileFailed = true;
+    return { file: bootFile, entry: entryFile };
+  }
+}
+let compileFailed = false;
+
 /** A Uint8Array that owns its whole buffer (transferable without taking bytes that belong to someone else). */
 function ownBuffer(b: Uint8Array): Uint8Array {
   return b.byteOffset === 0 && b.byteLength === b.buffer.byteLength && b.buffer instanceof ArrayBuffer ? b : new Uint8Array(b);
@@ -127,13 +144,16 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   loadDatumGrids(opts.datumGridDir);
   installNodeCodecs();
   if (opts.threads <= 0) return createInlineTerrainRunner();
+  // compiled now, with the process starting, not on the first request (compiling takes about half a second)
+  threadStart();
   const slots: Slot[] = [];
   const queue: Pending[] = [];
   let nextId = 1;
   let closed = false;
 
   function spawn(): Slot {
-    const worker = new Worker(bootFile, { workerData: { entry: entryFile, datumGridDir: opts.datumGridDir, nice: opts.nice ?? 0 } });
+    const start = threadStart();
+    const worker = new Worker(start.file, { workerData: { entry: start.entry, datumGridDir: opts.datumGridDir, nice: opts.nice ?? 0 } });
     const slot: Slot = { worker, busy: null };
     worker.unref(); // an idle pool never keeps the process alive
     worker.on('message', (m: ThreadReply) => {
