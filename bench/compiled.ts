@@ -12,6 +12,8 @@ if (!entry) {
   console.error('usage: tsx bench/compiled.ts <bench entry .ts>');
   process.exit(2);
 }
-// the entry sees its own arguments after its name, as if run directly
-process.argv.splice(1, 2, resolve(entry));
-await import(pathToFileURL(compiledEntry(resolve(entry))).href);
+const compiled = compiledEntry(resolve(entry));
+// the entry sees its own arguments after its name, as if run directly, and its name is the compiled file's (so an
+// entry's test "am I the program run?" against its own import.meta.url holds)
+process.argv.splice(1, 2, compiled);
+await import(pathToFileURL(compiled).href);

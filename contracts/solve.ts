@@ -58,7 +58,7 @@ export const solveReportSchema = z.object({
   }),
   comparison: z.object({
     uniform: z.array(z.object({
-      setting: z.object({ forwardOverlap: n, sideOverlap: n, mode: z.string(), headingDeg: n }),
+      setting: z.object({ forwardOverlap: n, sideOverlap: n, mode: z.string(), headingDeg: n, targetGsdCm: n.optional() }),
       flightTimeS: n, shareReachable: n.nullable(), meets: z.boolean().nullable(),
     })),
     bestUniformFlightTimeS: n.nullable(), solvedFlightTimeS: n, ratio: n.nullable(),

@@ -22,7 +22,8 @@ function sourceFiles(dir: string): string[] {
   for (const e of fs.readdirSync(path.join(root, dir), { withFileTypes: true })) {
     const rel = path.join(dir, e.name);
     if (e.isDirectory()) out.push(...sourceFiles(rel));
-    else if (/\.(tsx?|mjs)$/.test(e.name) && !e.name.endsWith('.d.ts')) out.push(rel);
+    // (the hidden `.compiled.mjs` bundles the terrain threads and the bench build are output, not source)
+    else if (/\.(tsx?|mjs)$/.test(e.name) && !e.name.endsWith('.d.ts') && !e.name.endsWith('.compiled.mjs')) out.push(rel);
   }
   return out;
 }

@@ -68,12 +68,15 @@ interface CellPass {
   profiles: Float64Array; binM: number;
   /** Stop after the first cell for which this says true (null: visit every cell). */
   stop: ((cell: number) => boolean) | null;
+  /** Tiles (ty · tw + tx) to visit before the others, in this order (empty: tiles in row order). */
+  firstTiles: Int32Array;
 }
 
 /**
  * The per-cell pass over the tiles: views and the figures from them. Returns the cell it stopped at (`stop`), else
- * -1. Cells are visited in the same order with or without block decisions (tile by tile, row by row in a tile), so
- * `stop` sees the same first cell either way.
+ * -1. Cells are visited in the same order with or without block decisions (tile by tile, `firstTiles` first, then row
+ * by row of tiles; row by row in a tile), so `stop` sees the same first cell either way. A cell's figures depend on
+ * its own ground point and the photos alone, so the order changes none of them.
  */
 export function fillCells(c: CellPass): number {
   const { th, tw, tileLists, tileSlopes, width, height, inside, stop, cells, longest } = c;
@@ -83,28 +86,38 @@ export function fillCells(c: CellPass): number {
   const picks = new Int32Array(BLOCKS * Math.max(1, longest)), codes = new Uint8Array(BLOCKS * Math.max(1, longest));
   const picked = new Int32Array(BLOCKS), sure = new Int32Array(BLOCKS), tileCodes = new Int8Array(Math.max(1, longest));
   const nb = TILE / BLOCK;
-  for (let ty = 0; ty < th; ty++) {
-    for (let tx = 0; tx < tw; tx++) {
-      const list = tileLists[ty * tw + tx], slopes = tileSlopes[ty * tw + tx];
-      const r0 = ty * TILE, c0 = tx * TILE, r1 = Math.min(height, r0 + TILE), c1 = Math.min(width, c0 + TILE);
-      let any = false;
-      for (let i = r0 * width + c0; i < r0 * width + c1 && !any; i++) any = inside[i] === 1;
-      for (let r = r0 + 1; r < r1 && !any; r++) for (let i = r * width + c0; i < r * width + c1 && !any; i++) any = inside[i] === 1;
-      if (!any) continue;
-      for (let r = r0; r < r1; r++) rowPositions(cells.nodes, c.cb, r, c0, c1, px, py, (r - r0) * TILE);
-      c.tile = ty * tw + tx;
-      for (let li = 0; li < list.length; li++) c.profiles[li * CLEARANCE_STRIDE] = 0;
-      decideTile(c, list, r0, c0, r1, c1, px, py, tileCodes, picks, codes, picked, sure);
-      for (let r = r0; r < r1; r++) {
-        for (let col = c0; col < c1; col++) {
-          const i = r * width + col;
-          if (!inside[i]) continue;
-          const k = (r - r0) * TILE + (col - c0);
-          const b = Math.floor((r - r0) / BLOCK) * nb + Math.floor((col - c0) / BLOCK);
-          if (c.viewsOnly) countViews(c, list, i, k, picks, codes, b * longest, picked[b], sure[b]);
-          else visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
-          if (stop !== null && stop(i)) return i;
-        }
+  // the tiles asked for first, then the rest in row order (each tile once)
+  const first = c.firstTiles, done = first.length > 0 ? new Uint8Array(th * tw) : null;
+  for (let step = 0; step < first.length + th * tw; step++) {
+    let t: number;
+    if (step < first.length) {
+      t = first[step];
+      if (done![t]) continue;
+      done![t] = 1;
+    } else {
+      t = step - first.length;
+      if (done !== null && done[t]) continue;
+    }
+    const ty = Math.floor(t / tw), tx = t - ty * tw;
+    const list = tileLists[ty * tw + tx], slopes = tileSlopes[ty * tw + tx];
+    const r0 = ty * TILE, c0 = tx * TILE, r1 = Math.min(height, r0 + TILE), c1 = Math.min(width, c0 + TILE);
+    let any = false;
+    for (let i = r0 * width + c0; i < r0 * width + c1 && !any; i++) any = inside[i] === 1;
+    for (let r = r0 + 1; r < r1 && !any; r++) for (let i = r * width + c0; i < r * width + c1 && !any; i++) any = inside[i] === 1;
+    if (!any) continue;
+    for (let r = r0; r < r1; r++) rowPositions(cells.nodes, c.cb, r, c0, c1, px, py, (r - r0) * TILE);
+    c.tile = ty * tw + tx;
+    for (let li = 0; li < list.length; li++) c.profiles[li * CLEARANCE_STRIDE] = 0;
+    decideTile(c, list, r0, c0, r1, c1, px, py, tileCodes, picks, codes, picked, sure);
+    for (let r = r0; r < r1; r++) {
+      for (let col = c0; col < c1; col++) {
+        const i = r * width + col;
+        if (!inside[i]) continue;
+        const k = (r - r0) * TILE + (col - c0);
+        const b = Math.floor((r - r0) / BLOCK) * nb + Math.floor((col - c0) / BLOCK);
+        if (c.viewsOnly) countViews(c, list, i, k, picks, codes, b * longest, picked[b], sure[b]);
+        else visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
+        if (stop !== null && stop(i)) return i;
       }
     }
   }

@@ -58,6 +58,12 @@ export interface CoverageOptions {
    */
   stopAt?: (cell: number, raster: CoverageRaster) => boolean;
   /**
+   * Cells whose tiles are visited first, in this order (then the other tiles in row order): where a `stopAt`
+   * question is likely to say true (the cells an earlier plan fell short at), so it is answered sooner. Figures do
+   * not depend on the order; `stoppedAtCell` is the first cell in the order visited.
+   */
+  firstCells?: ArrayLike<number>;
+  /**
    * Project every cell into every candidate photo instead of deciding blocks of cells at once, and march every ray
    * the slope bound does not clear instead of proving parts of rays clear by tile (`ray-clearance.ts`): the same
    * figures, slower; the reference the tests hold the block decisions and the clearance proofs to.
@@ -329,7 +335,14 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const rotAll = new Float64Array(9 * P);
   for (let j = 0; j < P; j++) rotAll.set(rots[j], 9 * j);
   const optics = Float64Array.of(1 / (model.fxPx * model.fxPx), 1 / (model.fyPx * model.fyPx), model.fxPx / sigmaPx, model.fyPx / sigmaPx, spec * spec * (1 - 1e-9), spec * spec * (1 + 1e-9));
-  const stopped = fillCells({ rotAll, optics, cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, rayIds: new Int32Array(Math.max(1, longest)), pair: new Int32Array([-1, -1]), least: new Float64Array(1), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(10), near: useOcclusion ? nearSlopes(lattice) : new Float32Array(0), nearM: NEAR_CELLS * lattice.stepM, nearRise: new Float64Array(1), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, directionGap, cosOblique: Math.cos(((oblique ?? 0) * Math.PI) / 180), azimuths: new Float64Array(Math.max(1, longest)), stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const firstCells = opts.firstCells ?? [];
+  const firstTiles = new Int32Array(firstCells.length);
+  for (let k = 0; k < firstCells.length; k++) {
+    const i = firstCells[k];
+    check(Number.isInteger(i) && i >= 0 && i < width * height, `firstCells: ${i} is not a cell of this ${width} x ${height} raster.`);
+    firstTiles[k] = Math.floor(Math.floor(i / width) / TILE) * tw + Math.floor((i % width) / TILE);
+  }
+  const stopped = fillCells({ firstTiles, rotAll, optics, cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, rayIds: new Int32Array(Math.max(1, longest)), pair: new Int32Array([-1, -1]), least: new Float64Array(1), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(10), near: useOcclusion ? nearSlopes(lattice) : new Float32Array(0), nearM: NEAR_CELLS * lattice.stepM, nearRise: new Float64Array(1), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, directionGap, cosOblique: Math.cos(((oblique ?? 0) * Math.PI) / 180), azimuths: new Float64Array(Math.max(1, longest)), stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }

@@ -11,6 +11,8 @@ export interface UniformSetting {
   sideOverlap: number;
   mode: AltitudeMode;
   headingDeg: number;
+  /** The middle of the GSD band flown (cm; the band's width the mission's tolerance); absent: the mission's own target. */
+  targetGsdCm?: number;
 }
 
 /** A uniform setting's plan and how it fares against the spec. */
@@ -22,8 +24,12 @@ export interface UniformOutcome {
   /** Share of the reachable cells meeting every spec item (null when not checked: a faster setting already met it, or the check stopped at the first short cell). */
   shareReachable: number | null;
   meets: boolean | null;
-  plan: PlanResult;
+  /** The analysed plan (null in a lean sweep, except for the best setting's). */
+  plan: PlanResult | null;
 }
+
+/** How many cells settings fell short at are kept to be visited first by the next setting's raster. */
+const SHORT_KEPT = 32;
 
 /** Forward and side overlaps 60–90 % in 5 % steps, the three altitude modes, one heading. */
 export function uniformSweep(headingDeg: number): UniformSetting[] {
@@ -35,26 +41,53 @@ export function uniformSweep(headingDeg: number): UniformSetting[] {
 }
 
 /**
+ * The same settings flown lower: for each share in `tops`, each setting with its GSD band topped at that share of
+ * the spec's coarsest GSD (target = spec · share / (1 + tolerance)). A planner who flies a uniform plan chooses its
+ * height as well as its overlaps; over hilly ground the band at the mission's own target leaves coarse GSD where the
+ * ground falls away from the lines, and a lower band is the uniform answer to that.
+ */
+export function bandLadder(settings: UniformSetting[], specGsdCm: number, tolerance: number, tops: number[]): UniformSetting[] {
+  return tops.flatMap((top) => settings.map((s) => ({ ...s, targetGsdCm: (specGsdCm * top) / (1 + tolerance) })));
+}
+
+/**
  * Analyse every setting, then check them fastest first until one meets the spec on every reachable cell (the
  * best uniform plan: no faster setting meets it). `maxChecks` bounds the rasters computed. `opts.overlaps: false`
  * analyses without overlaps (flight time, photos and raster are the same; the verdict never reads them).
+ * `untilShort` stops each setting's raster at its first short cell (`verdictIfMeets`): the same best setting, found
+ * sooner, but no share for the settings that fall short (null). `lean` keeps no plan but the best one's, analysing
+ * each setting again when it is checked: a sweep of hundreds of dense plans would not fit in memory.
  */
-export function bestUniform(grid: Grid, input: Record<string, unknown>, settings: UniformSetting[], verifier: Verifier, opts: AnalyseOptions = {}, maxChecks = Infinity): { outcomes: UniformOutcome[]; best: UniformOutcome | null; checked: number } {
+export function bestUniform(grid: Grid, input: Record<string, unknown>, settings: UniformSetting[], verifier: Verifier, opts: AnalyseOptions = {}, maxChecks = Infinity, untilShort = false, lean = false): { outcomes: UniformOutcome[]; best: UniformOutcome | null; checked: number } {
+  const analyse = (setting: UniformSetting) => analysePlan(grid, { ...input, ...setting }, { verticalDatum: opts.verticalDatum, overlaps: opts.overlaps });
   const outcomes: UniformOutcome[] = settings.map((setting) => {
-    const plan = analysePlan(grid, { ...input, ...setting }, { verticalDatum: opts.verticalDatum, overlaps: opts.overlaps });
-    return { setting, flightTimeS: plan.summary.flightTimeS, lineCount: plan.summary.lineCount, photoCount: plan.summary.photoCount, shareReachable: null, meets: null, plan };
+    const plan = analyse(setting);
+    return { setting, flightTimeS: plan.summary.flightTimeS, lineCount: plan.summary.lineCount, photoCount: plan.summary.photoCount, shareReachable: null, meets: null, plan: lean ? null : plan };
   });
   const order = outcomes.map((_, i) => i).sort((a, b) => outcomes[a].flightTimeS - outcomes[b].flightTimeS || outcomes[b].setting.forwardOverlap - outcomes[a].setting.forwardOverlap);
   let best: UniformOutcome | null = null;
   let checked = 0;
+  // the cells earlier settings fell short at, latest first: uniform settings tend to fall short at the same ground
+  // (a pit the lines cannot come down to), so a raster visiting them first stops in a tile or two
+  const shortAt: number[] = [];
+  const short = { cell: -1 };
   for (const i of order) {
     if (checked >= maxChecks) break;
     const o = outcomes[i];
-    const v = verifier.check(o.plan);
+    short.cell = -1;
+    // (lean: analysed again, the same plan: the analysis is a pure function of the grid and the input)
+    const plan = o.plan ?? analyse(o.setting);
+    const v = untilShort ? verifier.verdictIfMeets(plan, shortAt, short) : verifier.check(plan);
+    if (short.cell >= 0) {
+      const at = shortAt.indexOf(short.cell);
+      if (at >= 0) shortAt.splice(at, 1);
+      shortAt.unshift(short.cell);
+      if (shortAt.length > SHORT_KEPT) shortAt.pop();
+    }
     checked++;
-    o.shareReachable = v.compliance.shareAll;
-    o.meets = v.meets;
-    if (v.meets) { best = o; break; }
+    o.shareReachable = v ? v.compliance.shareAll : null;
+    o.meets = v ? v.meets : false;
+    if (o.meets) { o.plan = plan; best = o; break; }
   }
   return { outcomes, best, checked };
 }

@@ -30,8 +30,10 @@ export interface Verifier {
   /**
    * Whether the plan meets the spec on every reachable cell, answered at the first short cell: its full verdict
    * when it does (every cell was visited), null at the first reachable cell that falls short (no share known).
+   * `firstCells` are visited first (`CoverageOptions.firstCells`): where other plans fell short. `short`, when
+   * given, receives the cell a raster stopped at.
    */
-  verdictIfMeets(plan: PlanResult): Verdict | null;
+  verdictIfMeets(plan: PlanResult, firstCells?: ArrayLike<number>, short?: { cell: number }): Verdict | null;
 }
 
 /**
@@ -59,9 +61,9 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
     const dirs = !meetsDirections(raster, spec, i);
     return gsd ? 'gsd' : views ? 'views' : dirs ? 'directions' : sv || sh ? 'other' : null;
   };
-  const rasterOf = (plan: PlanResult, stopAtShort: boolean) => computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, envelope).photos, {
+  const rasterOf = (plan: PlanResult, stopAtShort: boolean, firstCells?: ArrayLike<number>) => computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, envelope).photos, {
     cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
-    stopAt: stopAtShort ? (i, r) => shortOf(r, i) !== null : undefined,
+    stopAt: stopAtShort ? (i, r) => shortOf(r, i) !== null : undefined, firstCells,
   });
   const verdictOf = (raster: CoverageRaster): Verdict => {
     const compliance = coverageCompliance(reachableOnly(raster, reach), spec);
@@ -77,9 +79,11 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
   return {
     frame, cells, cellM, reach,
     check: (plan) => verdictOf(rasterOf(plan, false)),
-    verdictIfMeets(plan) {
-      const raster = rasterOf(plan, true);
-      return raster.stoppedAtCell === undefined ? verdictOf(raster) : null;
+    verdictIfMeets(plan, firstCells, short) {
+      const raster = rasterOf(plan, true, firstCells);
+      if (raster.stoppedAtCell === undefined) return verdictOf(raster);
+      if (short) short.cell = raster.stoppedAtCell;
+      return null;
     },
   };
 }

@@ -379,7 +379,9 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   for (const o of checkedUniform) {
     if (verdict.meets && o.flightTimeS > built.flightTimeS) continue;
     // only whether it meets the spec decides: its raster stops at its first short cell
-    const v = opts.candidatesInFull ? verifier.check(o.plan) : verifier.verdictIfMeets(o.plan);
+    // (the sweep here is not lean: every outcome keeps its plan)
+    const plan = o.plan!;
+    const v = opts.candidatesInFull ? verifier.check(plan) : verifier.verdictIfMeets(plan);
     if (v) uniformVerdicts.set(o, v);
     o.meets = v ? v.meets : false; o.shareReachable = v ? v.compliance.shareAll : null;
   }

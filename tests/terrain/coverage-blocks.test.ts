@@ -87,6 +87,29 @@ describe('coverage by blocks of cells', () => {
       expect(r.views[first]).toBe(full.views[first]);
     }
   }, 60_000);
+
+  it('visits the tiles of `firstCells` first: the same figures in every cell, and a stop in the first of those tiles that holds a cell the question says true for', () => {
+    const full = computeCoverage(site.grid, site.frame, area, plain, photos(), { cellM: 1.5, specGsdCm: 4 });
+    const { width, height, inside } = full.cells;
+    const tiles = Math.ceil(width / TILE) * Math.ceil(height / TILE);
+    const tileOf = (i: number) => Math.floor(Math.floor(i / width) / TILE) * Math.ceil(width / TILE) + Math.floor((i % width) / TILE);
+    // the last cell in plain order with 4 or 5 views: in plain order its tile is among the last visited
+    let late = -1;
+    for (let i = inside.length - 1; i >= 0 && late < 0; i--) if (inside[i] && full.views[i] >= 4 && full.views[i] < 6) late = i;
+    expect(late).toBeGreaterThan(0);
+    expect(tileOf(late)).toBeGreaterThan(tiles / 2);
+    const stopAt = (i: number, r: CoverageRaster) => r.views[i] >= 4 && r.views[i] < 6;
+    const r = computeCoverage(site.grid, site.frame, area, plain, photos(), { cellM: 1.5, specGsdCm: 4, stopAt, firstCells: [late] });
+    // it stopped inside the late cell's tile (the first visited), at a cell the question says true for
+    expect(r.stoppedAtCell).toBeDefined();
+    expect(tileOf(r.stoppedAtCell!)).toBe(tileOf(late));
+    expect(stopAt(r.stoppedAtCell!, full)).toBe(true);
+    // with no stop, every figure of every cell is the plain order's
+    const reordered = computeCoverage(site.grid, site.frame, area, plain, photos(), { cellM: 1.5, specGsdCm: 4, firstCells: [late, 0, late, width * height - 1] });
+    expect(differences(reordered, full).slice(0, 5)).toEqual([]);
+    expect(reordered.stoppedAtCell).toBeUndefined();
+    expect(() => computeCoverage(site.grid, site.frame, area, plain, photos(), { cellM: 1.5, specGsdCm: 4, firstCells: [width * height] })).toThrow(/firstCells: .* is not a cell/);
+  }, 60_000);
 });
 
 describe('cell positions blended between exact nodes', () => {

@@ -4,6 +4,7 @@ import { analysePlan } from '../../terrain/plan';
 import { resolveMission } from '../../terrain/mission';
 import { resolveCoverageInput } from '../../terrain/coverage-spec';
 import { makeVerifier } from '../../terrain/solve-verify';
+import { bandLadder, bestUniform } from '../../terrain/solve-uniform';
 import { viewGeometry } from '../../terrain/solve-geometry';
 import { syntheticSite } from './coverage-site';
 
@@ -104,5 +105,34 @@ describe('solver candidates analysed without overlaps', () => {
     }
     expect(short).toBeGreaterThan(0);
     expect(meeting).toBeGreaterThan(0);
+  }, 300_000);
+
+  it('a sweep whose rasters stop at their first short cell finds the same best uniform setting as whole rasters, down a ladder of GSD bands', () => {
+    const input = mission({ headingDeg: 0, gsdTolerance: 0.1 });
+    const m = resolveMission(input);
+    const { spec, envelope, settings } = resolveCoverageInput(input, m);
+    const verifier = makeVerifier(site.grid, m, spec, envelope, settings, viewGeometry(m.camera, spec, envelope).gsdPerM);
+    const base = [{ forwardOverlap: 0.7, sideOverlap: 0.6, mode: 'follow' as const, headingDeg: 0 }, { forwardOverlap: 0.9, sideOverlap: 0.85, mode: 'follow' as const, headingDeg: 0 }];
+    const ladder = bandLadder(base, spec.maxGsdCm, m.gsdTolerance, [0.85, 0.7]);
+    // each setting's band top is the share of the spec's GSD it names (target · (1 + tolerance))
+    expect(ladder.map((s) => +(s.targetGsdCm! * 1.1).toFixed(9))).toEqual([2.3375, 2.3375, 1.925, 1.925]);
+    const settingsAll = [...base, ...ladder];
+    const whole = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false });
+    const quick = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false }, Infinity, true);
+    // lean: no plan kept but the best one's, which is the plan the whole sweep kept
+    const lean = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false }, Infinity, true, true);
+    expect(lean.best?.setting).toEqual(whole.best!.setting);
+    expect(lean.best?.plan).toEqual(whole.best!.plan);
+    expect(lean.outcomes.filter((o) => o.plan !== null)).toEqual([lean.best]);
+    // some setting meets the spec here, and not the fastest: the search passed settings that fall short first
+    expect(whole.best).not.toBeNull();
+    expect(whole.checked).toBeGreaterThan(1);
+    // only a setting flown lower meets it: at the mission's own band both fall short
+    expect(whole.best!.setting.targetGsdCm).toBeDefined();
+    expect(quick.best?.setting).toEqual(whole.best!.setting);
+    expect(quick.best?.shareReachable).toBe(1);
+    expect(quick.checked).toBe(whole.checked);
+    // the settings passed over have no share when their raster stopped early, and none is said to meet
+    for (const o of quick.outcomes) if (o !== quick.best && o.meets !== null) { expect(o.meets).toBe(false); expect(o.shareReachable).toBeNull(); }
   }, 300_000);
 });
