@@ -1,5 +1,5 @@
 /**
- * Runs a bench entry as the server's terrain threads run the engine: compiled to plain JavaScript first
+ * Runs a bench entry as the server's terrain threads run the engine with TERRAIN_THREADS_COMPILED: compiled to plain JavaScript first
  * (`server/analysis/compiled-entry.ts`), not through the TypeScript loader, which costs the terrain passes about
  * 6 %. `tsx bench/compiled.ts bench/run.ts` (what `npm run bench` does).
  */

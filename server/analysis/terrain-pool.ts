@@ -96,11 +96,12 @@ const bootFile = fileURLToPath(new URL('./terrain-thread-boot.mjs', import.meta.
 const entryFile = new URL('./terrain-thread.ts', import.meta.url).href;
 
 /**
- * What a terrain thread starts from: the thread's entry compiled to plain JavaScript (compiled-entry.ts: the
- * terrain passes run about 6 % faster than through the development loader), else, where the compiler fails, the
- * loader's start file with the TypeScript entry.
+ * What a terrain thread starts from: when `compiled`, the thread's entry compiled to plain JavaScript
+ * (compiled-entry.ts: the terrain passes run about 6 % faster than through the development loader), else, or where
+ * the compiler fails, the loader's start file with the TypeScript entry.
  */
-function threadStart(): { file: string; entry?: string } {
+function threadStart(compiled: boolean): { file: string; entry?: string } {
+  if (!compiled) return { file: bootFile, entry: entryFile };
   try {
     return { file: compiledEntry(fileURLToPath(entryFile)) };
   } catch (err) {
@@ -139,20 +140,21 @@ export function createInlineTerrainRunner(): TerrainRunner {
  * A pool of terrain threads; `nice` (0 normal … 19 lowest, default 0) lowers the threads' priority so that a
  * process's API requests keep their latency while analyses run (lowerThisThreadsPriority in terrain-thread.ts).
  */
-export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number; datumGridDir?: string; nice?: number }): TerrainRunner {
+export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: number; datumGridDir?: string; nice?: number; compiled?: boolean }): TerrainRunner {
   // the datum-shift grids in this thread (inline tasks, and CRSs the routes resolve) and, through workerData, in each terrain thread
   loadDatumGrids(opts.datumGridDir);
   installNodeCodecs();
   if (opts.threads <= 0) return createInlineTerrainRunner();
-  // compiled now, with the process starting, not on the first request (compiling takes about half a second)
-  threadStart();
+  // when compiled, compiled now, with the process starting, not on the first request (about half a second)
+  const compiled = opts.compiled ?? false;
+  threadStart(compiled);
   const slots: Slot[] = [];
   const queue: Pending[] = [];
   let nextId = 1;
   let closed = false;
 
   function spawn(): Slot {
-    const start = threadStart();
+    const start = threadStart(compiled);
     const worker = new Worker(start.file, { workerData: { entry: start.entry, datumGridDir: opts.datumGridDir, nice: opts.nice ?? 0 } });
     const slot: Slot = { worker, busy: null };
     worker.unref(); // an idle pool never keeps the process alive

@@ -37,6 +37,24 @@ describe('terrain pool time limit', () => {
   });
 });
 
+describe('terrain pool compiled (TERRAIN_THREADS_COMPILED)', () => {
+  const pool = createTerrainRunner({ threads: 1, compiled: true });
+  afterAll(() => pool.close());
+
+  it('runs its threads from the entry compiled to one plain module, with the same answers as through the loader', async () => {
+    const loader = createTerrainRunner({ threads: 1 });
+    try {
+      const [a, b] = await Promise.all([pool.inspect(small()), loader.inspect(small())]);
+      expect(a.metadata).toEqual(b.metadata);
+      expect(a.metadata.width).toBe(9);
+    } finally {
+      await loader.close();
+    }
+    // the compiled module sits beside the entry, hidden
+    expect(fs.readdirSync('server/analysis').some((f) => /^\.terrain-thread\.[0-9a-f]+\.compiled\.mjs$/.test(f))).toBe(true);
+  });
+});
+
 /** The nice value the priority tests give their pools. */
 const ANALYSIS_THREAD_NICE = 10;
 
