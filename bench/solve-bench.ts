@@ -83,7 +83,7 @@ function benchSite(name: string, grid: Grid, input: Record<string, unknown>, dat
   const missionTop = mission.targetGsdCm * (1 + mission.gsdTolerance);
   const tops = SWEEP_TOPS.filter((t) => Math.abs(spec.maxGsdCm * t - missionTop) > 1e-9);
   const t1 = performance.now();
-  const sweep = bestUniform(grid, input, [...base, ...bandLadder(base, spec.maxGsdCm, mission.gsdTolerance, tops)], verifier, { verticalDatum: datum, overlaps: false }, Infinity, true, true);
+  const sweep = bestUniform(grid, input, [...base, ...bandLadder(base, spec.maxGsdCm, mission.gsdTolerance, tops)], verifier, { verticalDatum: datum, overlaps: false }, { untilShort: true, lean: true });
   const sweepS = (performance.now() - t1) / 1000;
   const best = sweep.best;
   const pct = (v: number) => `${(v * 100).toFixed(2)} %`;
@@ -101,7 +101,7 @@ function benchSite(name: string, grid: Grid, input: Record<string, unknown>, dat
     const full = bestUniform(grid, input, densest, verifier, { verticalDatum: datum, overlaps: false });
     closest = [...full.outcomes].sort((a, b) => (b.shareReachable ?? 0) - (a.shareReachable ?? 0))[0];
     console.log(`| solve, ${name}: closest of the densest uniform settings (90/90 % in each mode) at the mission's GSD band (${full.checked} rasters in full, ${((performance.now() - t2) / 1000).toFixed(0)} s) | ${setting(closest)} | ${pct(closest.shareReachable ?? 0)} of reachable cells | - |`);
-    ladder = ladderRows(grid, input, closest.setting, spec.maxGsdCm, gsdPerM, verifier, datum);
+    ladder = ladderRows(grid, input, mission, closest.setting, spec.maxGsdCm, gsdPerM, verifier, datum);
     for (const l of ladder) console.log(`| solve, ${name}: that setting flown lower, ${l.row} | - |`);
   }
   const speedMps = mission.speedMps;
@@ -138,8 +138,8 @@ const SLOWER = [0.5, 0.25];
  * worst one's finest view (GSD / (pixel pitch / focal length)): level ground seen only from high up is ground the
  * lines could not come down to (a pit under the climb and descent limits), not ground too steep for a nadir photo.
  */
-function ladderRows(grid: Grid, input: Record<string, unknown>, setting: UniformSetting, specGsdCm: number, gsdPerM: number, verifier: ReturnType<typeof makeVerifier>, datum: { epsg: number | null; name: string } | null): Array<{ row: string; band: number; speed: number; share: number; meets: boolean; flightTimeS: number }> {
-  const { gsdTolerance: tol, speedMps } = resolveMission(input);
+function ladderRows(grid: Grid, input: Record<string, unknown>, mission: ReturnType<typeof resolveMission>, setting: UniformSetting, specGsdCm: number, gsdPerM: number, verifier: ReturnType<typeof makeVerifier>, datum: { epsg: number | null; name: string } | null): Array<{ row: string; band: number; speed: number; share: number; meets: boolean; flightTimeS: number }> {
+  const { gsdTolerance: tol, speedMps } = mission;
   const tries = [...LADDER.map((band) => ({ band, speed: speedMps })), ...SLOWER.map((k) => ({ band: 0.6, speed: speedMps * k }))];
   return tries.map(({ band, speed }) => {
     const targetGsdCm = (specGsdCm * band) / (1 + tol);

@@ -68,14 +68,14 @@ interface CellPass {
   profiles: Float64Array; binM: number;
   /** Stop after the first cell for which this says true (null: visit every cell). */
   stop: ((cell: number) => boolean) | null;
-  /** Tiles (ty · tw + tx) to visit before the others, in this order (empty: tiles in row order). */
-  firstTiles: Int32Array;
+  /** Every tile (ty · tw + tx) once, in the order visited (`tileOrder`). */
+  order: Int32Array;
 }
 
 /**
  * The per-cell pass over the tiles: views and the figures from them. Returns the cell it stopped at (`stop`), else
- * -1. Cells are visited in the same order with or without block decisions (tile by tile, `firstTiles` first, then row
- * by row of tiles; row by row in a tile), so `stop` sees the same first cell either way. A cell's figures depend on
+ * -1. Cells are visited in the same order with or without block decisions (tile by tile in `order`, row by row in a
+ * tile), so `stop` sees the same first cell either way. A cell's figures depend on
  * its own ground point and the photos alone, so the order changes none of them.
  */
 export function fillCells(c: CellPass): number {
@@ -86,18 +86,9 @@ export function fillCells(c: CellPass): number {
   const picks = new Int32Array(BLOCKS * Math.max(1, longest)), codes = new Uint8Array(BLOCKS * Math.max(1, longest));
   const picked = new Int32Array(BLOCKS), sure = new Int32Array(BLOCKS), tileCodes = new Int8Array(Math.max(1, longest));
   const nb = TILE / BLOCK;
-  // the tiles asked for first, then the rest in row order (each tile once)
-  const first = c.firstTiles, done = first.length > 0 ? new Uint8Array(th * tw) : null;
-  for (let step = 0; step < first.length + th * tw; step++) {
-    let t: number;
-    if (step < first.length) {
-      t = first[step];
-      if (done![t]) continue;
-      done![t] = 1;
-    } else {
-      t = step - first.length;
-      if (done !== null && done[t]) continue;
-    }
+  const order = c.order;
+  for (let step = 0; step < order.length; step++) {
+    const t = order[step];
     const ty = Math.floor(t / tw), tx = t - ty * tw;
     const list = tileLists[ty * tw + tx], slopes = tileSlopes[ty * tw + tx];
     const r0 = ty * TILE, c0 = tx * TILE, r1 = Math.min(height, r0 + TILE), c1 = Math.min(width, c0 + TILE);
@@ -122,6 +113,15 @@ export function fillCells(c: CellPass): number {
     }
   }
   return -1;
+}
+
+/** Every one of `count` tiles once: those of `first` in their order (repeats dropped), then the rest in row order. */
+export function tileOrder(count: number, first: ArrayLike<number>): Int32Array {
+  const order = new Int32Array(count), seen = new Uint8Array(count);
+  let n = 0;
+  for (let k = 0; k < first.length; k++) if (!seen[first[k]]) { seen[first[k]] = 1; order[n++] = first[k]; }
+  for (let t = 0; t < count; t++) if (!seen[t]) order[n++] = t;
+  return order;
 }
 
 /** Codes of a photo against a box of cells: the planned decision (ground boxes and image) | the envelope's << 2; DROP when no cell can count it. */

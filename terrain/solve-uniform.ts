@@ -52,13 +52,14 @@ export function bandLadder(settings: UniformSetting[], specGsdCm: number, tolera
 
 /**
  * Analyse every setting, then check them fastest first until one meets the spec on every reachable cell (the
- * best uniform plan: no faster setting meets it). `maxChecks` bounds the rasters computed. `opts.overlaps: false`
+ * best uniform plan: no faster setting meets it). `sweep.maxChecks` bounds the rasters computed. `opts.overlaps: false`
  * analyses without overlaps (flight time, photos and raster are the same; the verdict never reads them).
- * `untilShort` stops each setting's raster at its first short cell (`verdictIfMeets`): the same best setting, found
- * sooner, but no share for the settings that fall short (null). `lean` keeps no plan but the best one's, analysing
+ * `sweep.untilShort` stops each setting's raster at its first short cell (`verdictIfMeets`): the same best setting, found
+ * sooner, but no share for the settings that fall short (null). `sweep.lean` keeps no plan but the best one's, analysing
  * each setting again when it is checked: a sweep of hundreds of dense plans would not fit in memory.
  */
-export function bestUniform(grid: Grid, input: Record<string, unknown>, settings: UniformSetting[], verifier: Verifier, opts: AnalyseOptions = {}, maxChecks = Infinity, untilShort = false, lean = false): { outcomes: UniformOutcome[]; best: UniformOutcome | null; checked: number } {
+export function bestUniform(grid: Grid, input: Record<string, unknown>, settings: UniformSetting[], verifier: Verifier, opts: AnalyseOptions = {}, sweep: { maxChecks?: number; untilShort?: boolean; lean?: boolean } = {}): { outcomes: UniformOutcome[]; best: UniformOutcome | null; checked: number } {
+  const { maxChecks = Infinity, untilShort = false, lean = false } = sweep;
   const analyse = (setting: UniformSetting) => analysePlan(grid, { ...input, ...setting }, { verticalDatum: opts.verticalDatum, overlaps: opts.overlaps });
   const outcomes: UniformOutcome[] = settings.map((setting) => {
     const plan = analyse(setting);

@@ -374,7 +374,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
   // the mission's own overlaps in each altitude mode, and any settings the caller adds
   const modes = (['hold', 'steps', 'follow'] as const).filter((m) => m !== own.mode).map((mode) => ({ ...own, mode }));
   // analysed all; rasters only for those that could win (no slower than the solved plan, or all when it falls short)
-  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, { ...opts, overlaps: opts.candidatesInFull ?? false }, 0).outcomes;
+  const checkedUniform = bestUniform(grid, inputObj, [own, ...modes, ...(opts.uniform ?? [])], verifier, { ...opts, overlaps: opts.candidatesInFull ?? false }, { maxChecks: 0 }).outcomes;
   const uniformVerdicts = new Map<UniformOutcome, Verdict>();
   for (const o of checkedUniform) {
     if (verdict.meets && o.flightTimeS > built.flightTimeS) continue;

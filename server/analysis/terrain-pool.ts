@@ -145,7 +145,7 @@ export function createTerrainRunner(opts: { threads: number; taskTimeoutMs?: num
   loadDatumGrids(opts.datumGridDir);
   installNodeCodecs();
   if (opts.threads <= 0) return createInlineTerrainRunner();
-  // when compiled, compiled now, with the process starting, not on the first request (about half a second)
+  // compiled (when asked for) now, with the process starting, not on the first request (about half a second)
   const compiled = opts.compiled ?? false;
   threadStart(compiled);
   const slots: Slot[] = [];

@@ -118,9 +118,9 @@ describe('solver candidates analysed without overlaps', () => {
     expect(ladder.map((s) => +(s.targetGsdCm! * 1.1).toFixed(9))).toEqual([2.3375, 2.3375, 1.925, 1.925]);
     const settingsAll = [...base, ...ladder];
     const whole = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false });
-    const quick = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false }, Infinity, true);
+    const quick = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false }, { untilShort: true });
     // lean: no plan kept but the best one's, which is the plan the whole sweep kept
-    const lean = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false }, Infinity, true, true);
+    const lean = bestUniform(site.grid, input, settingsAll, verifier, { overlaps: false }, { untilShort: true, lean: true });
     expect(lean.best?.setting).toEqual(whole.best!.setting);
     expect(lean.best?.plan).toEqual(whole.best!.plan);
     expect(lean.outcomes.filter((o) => o.plan !== null)).toEqual([lean.best]);
