@@ -40,6 +40,8 @@ export const solveReportSchema = z.object({
   pattern: z.string(),
   choices: z.object({
     headingDeg: n, heading: z.string(), pattern: z.string(), fallback: z.string().nullable(), summary: z.string(),
+    // which tightening round was kept and why (stored before it was said: absent)
+    tightening: z.string().optional(),
     lines: z.array(z.object({
       // stored before spot photos existed: every line was a line of the layout
       line: z.number().int(), kind: z.enum(['line', 'spot']).default('line'), offsetM: n, spacingToNextM: n.nullable(),

@@ -71,7 +71,7 @@ export function stripLowM(ctx: LineContext, line: FlightLine, x: Float64Array, s
   const n = x.length;
   const ux = (line.end[0] - line.start[0]) / (line.lengthM || 1), uy = (line.end[1] - line.start[1]) / (line.lengthM || 1);
   const across = [-strip.belowM, -strip.belowM / 2, 0, strip.aboveM / 2, strip.aboveM];
-  const k = across.length;
+  const k = across.length, mid = 2;
   const d = Math.max(1, ctx.stepM);
   // five samples per point: the point and its neighbours d away east, west, north and south (for the slope)
   const xs = new Float64Array(n * k * 5), ys = new Float64Array(n * k * 5), g = new Float64Array(n * k * 5);
@@ -92,10 +92,39 @@ export function stripLowM(ctx: LineContext, line: FlightLine, x: Float64Array, s
     const gy = g[q + 3] === g[q + 3] && g[q + 4] === g[q + 4] ? (g[q + 3] - g[q + 4]) / (2 * d) : 0;
     const cosB = 1 / Math.sqrt(1 + gx * gx + gy * gy);
     if (lowest / cosB > ctx.geometry.specHeightM) continue; // unreachable for a nadir photo
-    const e = v - bandTopM * (1 - cosB);
+    // the point is seen from this line and the neighbour on its side (a strip side away beyond the strip's edge):
+    // the better view of the two serves it
+    const own = gsdStretch(ux, uy, uy * across[j], -ux * across[j], bandTopM, gx, gy);
+    const far = j === mid ? own : across[j] - Math.sign(across[j]) * 2 * (across[j] < 0 ? strip.belowM : strip.aboveM);
+    const stretch = j === mid ? own : Math.min(own, gsdStretch(ux, uy, uy * far, -ux * far, bandTopM, gx, gy));
+    // seen from this line too obliquely for the GSD even at the clearance: left to its neighbours and spot photos
+    if (j !== mid && lowest * stretch > ctx.geometry.specHeightM) continue;
+    const e = v - bandTopM * (1 - 1 / stretch);
     if (!(e >= low[i])) low[i] = e;
   }
   return low;
+}
+
+/**
+ * How much coarser than h·p/f (h the height above the point) a vertical photo sees a ground point offset (hx, hy)
+ * across from the point straight below the camera, on ground with gradient (gx, gy): the coarser pixel side of
+ * `view-gsd.ts`'s GSD_e = (R·cos α / f)·|e − r̂ (n·e)/(n·r̂)| with R·cos α = h for a vertical camera, over the
+ * image axes along (ux, uy) and across the line. Straight below, 1/cos β on a slope β; off to the side, more on
+ * ground facing away from the line (the ray meets it at a grazing angle) and less on ground facing it. Infinity
+ * where the ray meets the back of the ground.
+ */
+export function gsdStretch(ux: number, uy: number, hx: number, hy: number, h: number, gx: number, gy: number): number {
+  // unnormalised normal n = (−gx, −gy, 1) and ray d = (hx, hy, −h): r̂ (n·e)/(n·r̂) = d (n·e)/(n·d)
+  const nd = -gx * hx - gy * hy - h;
+  if (!(nd < 0)) return Infinity;
+  let worst = 0;
+  for (const [ex, ey] of [[ux, uy], [uy, -ux]]) {
+    const k = (-gx * ex - gy * ey) / nd;
+    const vx = ex - hx * k, vy = ey - hy * k, vz = h * k;
+    const m = vx * vx + vy * vy + vz * vz;
+    if (m > worst) worst = m;
+  }
+  return Math.sqrt(worst);
 }
 
 /** Ground profile of a laid line at the plan analysis's sample distances, and the ground its band is measured from. */

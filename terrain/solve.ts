@@ -19,6 +19,7 @@ import { flightTimeWithLegSpeedsS, legSpeedMps } from './solve-speed';
 import { makeVerifier, type Verdict, type Verifier } from './solve-verify';
 import { bestUniform, type UniformOutcome, type UniformSetting } from './solve-uniform';
 import { areaBeyond } from './area-beyond';
+import { transitShortfallM } from './plan-warnings';
 import { placeSpots, spotLimits, spotLine, tourGap, tourOrder, type Spot } from './solve-spots';
 
 const round = (v: number, d: number) => { const f = 10 ** d; return Math.round(v * f) / f; };
@@ -60,7 +61,11 @@ interface ShortGroup {
 /** What the solver adds to the plan document. */
 interface SolveReport {
   pattern: SolvePattern;
-  choices: { headingDeg: number; heading: string; pattern: string; lines: LineChoice[]; fallback: string | null; summary: string };
+  choices: {
+    headingDeg: number; heading: string; pattern: string; lines: LineChoice[]; fallback: string | null; summary: string;
+    /** Which tightening round's lines were kept and why: each round's lines and spot photos, timed. */
+    tightening: string;
+  };
   unreachable: UnreachableGroup[];
   proof: {
     cellM: number; cellsInArea: number; reachableCells: number; shareReachableMeeting: number; meets: boolean;
@@ -92,6 +97,8 @@ interface SolveOptionsArg extends AnalyseOptions {
 interface Built {
   /** Per set of lines (one, or two for a lattice), its rows across the area at its own heading. */
   plan: PlanResult; rows: LayoutRow[][]; choices: LineChoice[]; flightTimeS: number;
+  /** Transits to, from or between spot photos that come inside the clearance flown straight (the plan warns of each). */
+  unsafeSpotHops: number;
   /** The same layout analysed with every figure (overlaps as planned and guaranteed). */
   full: () => Built;
 }
@@ -101,6 +108,13 @@ interface PieceOf { piece: number; pieces: number; before: LineCut | null; after
 
 /** Repairs found by checking the raster, per set of lines: places (cross-track) that need a lower line or more photos along. */
 interface Repairs { lower: number[]; views: number[] }
+
+/** A layout checked by its raster: the repairs it was built with and the round that made them. */
+interface Candidate {
+  built: Built; verdict: Verdict; rep: Repairs[]; round: number;
+  /** Spot photos added to the round's lines (0 before closing). */
+  spots?: number;
+}
 
 export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}): SolvedPlan {
   const mission = resolveMission(input);
@@ -164,14 +178,23 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     }
     headingWhy = `candidates ${headings.map((h) => `${h}°`).join(', ')} (the least spread of height above ground in the heading advice)`;
   }
-  const build = (headingDeg: number, reps: Repairs[], spots: Spot[] = []): Built => {
+  type LineInfo = { line: FlightLine; set: number; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean; spot?: Spot; cut?: PieceOf;
+    /** Fitted altitude at the line's start and end (metres above the grid's datum; NaN for a spot). */
+    endsM: [number, number] };
+  interface Layout { lines: FlightLine[]; info: LineInfo[]; rowsBySet: LayoutRow[][]; limitsBy: Map<FlightLine, AltitudeLimits>; stripBy: Map<FlightLine, Strip>; ctxBy: Map<FlightLine, LineContext> }
+  // the lines of one heading and set of repairs, fitted once: spot rounds add spots to the same lines
+  const layouts = new Map<string, Layout>();
+  const layOut = (headingDeg: number, reps: Repairs[]): Layout => {
+    const key = JSON.stringify([headingDeg, reps]);
+    const known = layouts.get(key);
+    if (known) return known;
     const near = (list: number[], c: number) => list.filter((v) => Math.abs(v - c) <= nominalS / 2).length;
     const lines: FlightLine[] = [];
     const rowsBySet: LayoutRow[][] = [];
     const limitsBy = new Map<FlightLine, AltitudeLimits>();
     const stripBy = new Map<FlightLine, Strip>();
     const ctxBy = new Map<FlightLine, LineContext>();
-    const info: Array<{ line: FlightLine; set: number; row: number; fitSpeed: number; slowedForM: number; factor: number; trig: ReturnType<typeof placeTriggers>; fwd: number; views: number; plannable: boolean; spot?: Spot; cut?: PieceOf }> = [];
+    const info: LineInfo[] = [];
     // the second set starts where the first ends
     let startNear: [number, number] = takeoffXY;
     for (let set = 0; set < setCount; set++) {
@@ -204,24 +227,32 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
           stripBy.set(line, { belowM, aboveM });
           ctxBy.set(line, ctx);
           const cut = pieces.length > 1 ? { piece: k + 1, pieces: pieces.length, before: k > 0 ? cuts[k - 1] : null, after: k + 1 < pieces.length ? cuts[k] : null } : undefined;
-          info.push({ line, set, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length, cut });
+          info.push({ line, set, row, fitSpeed: fitted.fitSpeedMps, slowedForM: fitted.slowedForM, factor, trig, fwd, views, plannable: fitted.fit.unknownCount < fitted.x.length, cut, endsM: [fitted.fit.altitudeM[0], fitted.fit.altitudeM[fitted.fit.altitudeM.length - 1]] });
           lines.push(line);
         });
       }
       if (lines.length > 0) startNear = lines[lines.length - 1].end;
     }
+    const result: Layout = { lines, info, rowsBySet, limitsBy, stripBy, ctxBy };
+    layouts.set(key, result);
+    return result;
+  };
+  const build = (headingDeg: number, reps: Repairs[], spots: Spot[] = []): Built => {
+    const laid = layOut(headingDeg, reps);
+    const { rowsBySet, limitsBy, stripBy, ctxBy } = laid;
+    const lines = [...laid.lines], info = [...laid.info];
     const ctx: LineContext = { area: layArea, headingDeg, mission, heights, stepM, geometry, minSpeedMps: so.minSpeedMps };
     // spot photos as one tour between two lines of the layout (both ends high: the transits to and from the tour
     // are flown at the lines' altitude), in the gap where its transits keep the clearance at the least detour
     if (spots.length > 0 && lines.length > 0) {
       const rot = rotated(headingDeg);
-      // the lines' altitudes are fitted later: the band's low end (0.6 of its top) stands for them, the lower the
-      // stricter for a transit flown at the higher of its two ends
-      const at = (p: [number, number]): [number, number, number] => [p[0], p[1], heights.heightAt(p[0], p[1]) + 0.6 * geometry.specHeightM * 0.97];
+      // a transit flies at the higher of its two ends: the lines' fitted altitudes there (the band's low end, 0.6 of
+      // its top, where a line has none)
+      const at = (p: [number, number], altM = NaN): [number, number, number] => [p[0], p[1], Number.isFinite(altM) ? altM : heights.heightAt(p[0], p[1]) + 0.6 * geometry.specHeightM * 0.97];
       // never between two parts of a line cut at a face: the aircraft stops there only to climb or descend
-      const gaps = lines.slice(0, -1).map((l, k) => ({ k, from: at(l.end), to: at(lines[k + 1].start) })).filter((q) => !info[q.k].cut?.after);
+      const gaps = lines.slice(0, -1).map((l, k) => ({ k, from: at(l.end, info[k].endsM[1]), to: at(lines[k + 1].start, info[k + 1].endsM[0]) })).filter((q) => !info[q.k].cut?.after);
       const takeoffAt: [number, number, number] = [takeoffXY[0], takeoffXY[1], heights.heightAt(takeoffXY[0], takeoffXY[1])];
-      if (gaps.length === 0) gaps.push({ k: lines.length - 1, from: at(lines[lines.length - 1].end), to: takeoffAt });
+      if (gaps.length === 0) gaps.push({ k: lines.length - 1, from: at(lines[lines.length - 1].end, info[lines.length - 1].endsM[1]), to: takeoffAt });
       const tour = tourOrder(spots, gaps[gaps.length - 1].from, gaps[gaps.length - 1].to, mission, heights.heightAt);
       const chosen = tourGap(tour, gaps, mission, heights.heightAt);
       const gap = gaps[chosen.gap].k, reversed = chosen.reversed;
@@ -229,7 +260,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       const spotLines = ordered.map((sp) => {
         const line = spotLine(sp, rot.c(sp.x, sp.y));
         limitsBy.set(line, spotLimits(sp, mission));
-        return { line, info: { line, set: 0, row: -1, fitSpeed: mission.speedMps, slowedForM: 0, factor: sp.heightM / geometry.specHeightM, trig: { stationsM: line.stationsM, minM: 0, maxM: 0, tightestGroundM: sp.groundM, tightestAtM: 0 }, fwd: 0, views: 1, plannable: Number.isFinite(sp.groundM), spot: sp } };
+        return { line, info: { line, set: 0, row: -1, fitSpeed: mission.speedMps, slowedForM: 0, factor: sp.heightM / geometry.specHeightM, trig: { stationsM: line.stationsM, minM: 0, maxM: 0, tightestGroundM: sp.groundM, tightestAtM: 0 }, fwd: 0, views: 1, plannable: Number.isFinite(sp.groundM), spot: sp, endsM: [NaN, NaN] as [number, number] } };
       });
       const all = [...info.slice(0, gap + 1), ...spotLines.map((q) => q.info), ...info.slice(gap + 1)];
       lines.length = 0;
@@ -304,7 +335,16 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         };
       });
       const flightTimeS = flightTimeWithLegSpeedsS(plan, mission);
-      const out: Built = { plan, rows: rowsBySet, choices, flightTimeS, full: () => (overlaps ? out : finish(true)) };
+      // transits to, from and between spot photos flown straight at the higher end that come inside the clearance
+      // (the tour avoids them where it can; a plan that has any is kept only when no other meets the spec)
+      let unsafeSpotHops = 0;
+      for (let li = 0; li + 1 < plan.lines.length; li++) {
+        if (!kept[li].spot && !kept[li + 1].spot) continue;
+        const a = plan.lines[li].legs, b = plan.lines[li + 1].legs;
+        const alt = Math.max(a[a.length - 1]?.altitudeEndM ?? NaN, b[0]?.altitudeStartM ?? NaN);
+        if (transitShortfallM(kept[li].line.end, kept[li + 1].line.start, alt, heights.heightAt, mission.clearanceM + mission.obstacleAllowanceM, 1) > 0) unsafeSpotHops++;
+      }
+      const out: Built = { plan, rows: rowsBySet, choices, flightTimeS, unsafeSpotHops, full: () => (overlaps ? out : finish(true)) };
       return out;
     };
     // candidates are analysed without overlaps (no choice reads them: the raster decides), the chosen one in full
@@ -320,13 +360,49 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     tried.push(`${h}°: ${round(b.flightTimeS, 0)} s`);
     if (b.flightTimeS < built.flightTimeS) { built = b; headingDeg = h; }
   }
-  // 2. prove, and tighten where reachable cells fall short: in each set, the row nearest the short cell
+  // 2. prove, and tighten where reachable cells fall short: in each set, the row nearest the short cell; 3. close
+  // what each round leaves short with spot photos, and keep the round whose lines and spots fly fastest (lowering
+  // every line of a row costs more than spot photos over a few short cells, and fewer than a few hundred it does not)
   const rots = Array.from({ length: setCount }, (_, set) => rotated(setHeadingOf(headingDeg, set)));
   const rep = none();
   let verdict: Verdict = verifier.check(built.plan);
   let rounds = 0;
   const snapshot = (r: Repairs[]): Repairs[] => r.map((q) => ({ lower: [...q.lower], views: [...q.views] }));
-  let best = { built, verdict, rep: snapshot(rep) };
+  /**
+   * One round's lines closed with spot photos: one straight above each cell still short, lower again where a spot
+   * of an earlier spot round did not do; given as far as it got once it flies slower than `bound`, when that meets the spec.
+   */
+  const withSpots = (c: Candidate, bound: Candidate | null): Candidate => {
+    let { built: b0, verdict: v0 } = c;
+    let spots: Spot[] = [];
+    let spotRounds = 0;
+    while (!v0.meets && spotRounds < so.spotRounds) {
+      const short = v0.failing.filter((f) => f.item === 'gsd' || f.item === 'views').map((f) => ({ x: cellX(verifier.cells, f.cell), y: cellY(verifier.cells, f.cell), z: verifier.cells.z[f.cell], slopeDeg: verifier.reach.slopeDeg[f.cell], finestGsdCm: v0.raster.finestGsdCm[f.cell], item: f.item === 'gsd' ? 'gsd' as const : 'views' as const }));
+      if (short.length === 0) break;
+      spotRounds++;
+      const added = placeSpots(short, geometry, mission, 0.95, spots, heights.heightAt, headingDeg);
+      if (added.length === 0) break;
+      // a lower spot replaces the earlier one over the same cell
+      const next = [...spots.filter((s0) => !added.some((a) => a.x === s0.x && a.y === s0.y)), ...added];
+      const b = build(headingDeg, c.rep, next);
+      // slower than a plan that meets the spec already: more or lower spots only add time
+      if (bound && b.flightTimeS >= bound.built.flightTimeS) break;
+      const v = verifier.check(b.plan);
+      if (v.failing.length >= v0.failing.length) break;
+      b0 = b; v0 = v; spots = next;
+    }
+    return { built: b0, verdict: v0, rep: c.rep, round: c.round, spots: spots.length };
+  };
+  /**
+   * Whether `a` is a better outcome than `b`: it meets the spec with every spot transit clear and `b` does not,
+   * else both alike and `a` flies faster (when they meet) or leaves fewer cells short.
+   */
+  const sound = (c: Candidate) => c.verdict.meets && c.built.unsafeSpotHops === 0;
+  const better = (a: Candidate, b: Candidate) => sound(a) !== sound(b) ? sound(a)
+    : a.verdict.meets !== b.verdict.meets ? a.verdict.meets
+      : a.verdict.meets ? a.built.flightTimeS < b.built.flightTimeS : a.verdict.failing.length < b.verdict.failing.length;
+  const rounded: Candidate[] = [{ built, verdict, rep: snapshot(rep), round: 0 }];
+  let fewestShort = verdict.failing.length;
   while (!verdict.meets && rounds < so.repairRounds) {
     rounds++;
     for (let set = 0; set < setCount; set++) {
@@ -344,29 +420,31 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     }
     built = build(headingDeg, rep);
     verdict = verifier.check(built.plan);
-    if ((verdict.meets && (!best.verdict.meets || built.flightTimeS < best.built.flightTimeS)) || (!best.verdict.meets && verdict.failing.length < best.verdict.failing.length)) best = { built, verdict, rep: snapshot(rep) };
-    // a round that left more cells short than the best one lowered lines past where it helps: spot photos close
-    // the rest at less cost than more rounds from here
-    else if (!verdict.meets) break;
+    rounded.push({ built, verdict, rep: snapshot(rep), round: rounds });
+    // a round that left more cells short than an earlier one lowered lines past where it helps
+    if (!verdict.meets && verdict.failing.length > fewestShort) break;
+    fewestShort = Math.min(fewestShort, verdict.failing.length);
   }
-  ({ built, verdict } = best);
-  // 3. spot photos where reachable cells are still short of the GSD: one photo straight above each, lower again
-  // where a spot of an earlier round did not do
-  let spots: Spot[] = [];
-  let spotRounds = 0;
-  while (!verdict.meets && spotRounds < so.spotRounds) {
-    const short = verdict.failing.filter((f) => f.item === 'gsd' || f.item === 'views').map((f) => ({ x: cellX(verifier.cells, f.cell), y: cellY(verifier.cells, f.cell), z: verifier.cells.z[f.cell], slopeDeg: verifier.reach.slopeDeg[f.cell], finestGsdCm: verdict.raster.finestGsdCm[f.cell], item: f.item === 'gsd' ? 'gsd' as const : 'views' as const }));
-    if (short.length === 0) break;
-    spotRounds++;
-    const added = placeSpots(short, geometry, mission, 0.95, spots, heights.heightAt, headingDeg);
-    if (added.length === 0) break;
-    // a lower spot replaces the earlier one over the same cell
-    const next = [...spots.filter((s0) => !added.some((a) => a.x === s0.x && a.y === s0.y)), ...added];
-    const b = build(headingDeg, best.rep, next);
-    const v = verifier.check(b.plan);
-    if (v.failing.length >= verdict.failing.length) break;
-    built = b; verdict = v; spots = next;
+  // closed with spots, the round with the fewest cells short first: its time bounds the others, whose spots are
+  // then checked only while they fly faster
+  let best: Candidate | null = null;
+  const outcomes: string[] = [];
+  for (const c of [...rounded].sort((a, b) => a.verdict.failing.length - b.verdict.failing.length || a.built.flightTimeS - b.built.flightTimeS)) {
+    const lines = `round ${c.round}: lines ${round(c.built.flightTimeS, 0)} s leaving ${c.verdict.failing.length} cell${c.verdict.failing.length === 1 ? '' : 's'} short`;
+    if (best && sound(best) && c.built.flightTimeS >= best.built.flightTimeS) { outcomes[c.round] = `${lines} (no faster)`; continue; }
+    const closed = withSpots(c, best && sound(best) ? best : null);
+    const n = closed.spots ?? 0;
+    const spotted = `${n} spot photo${n === 1 ? '' : 's'}`;
+    outcomes[c.round] = `${lines}${c.verdict.meets ? '' : sound(closed) ? `, with ${spotted} ${round(closed.built.flightTimeS, 0)} s`
+      : closed.verdict.meets ? `, with ${spotted} whose transits come inside the clearance`
+        : best && sound(best) ? ', slower with spot photos than the best so far' : n === 0 ? '' : `, with ${spotted} ${closed.verdict.failing.length} short`}`;
+    if (!best || better(closed, best)) best = closed;
   }
+  const kept = best!;
+  const tightening = rounded.length === 1
+    ? (kept.verdict.meets ? `the first layout meets the spec${kept.spots ? ` with ${kept.spots} spot photos` : ''}: no tightening round.` : `no tightening round (solve.repairRounds is 0): ${outcomes[0]}.`)
+    : `round ${kept.round} of ${rounds} kept, ${sound(kept) ? 'the fastest that meets the spec' : kept.verdict.meets ? 'the fastest that meets the spec, although a spot transit comes inside the clearance (see the warnings)' : 'the one that leaves the fewest cells short'}: each round lowers the lines nearest the cells the last one left short of the GSD and adds photos along those short of views, and what a round leaves short is closed with spot photos. ${outcomes.filter(Boolean).join('; ')}.`;
+  ({ built, verdict } = best!);
   // the chosen layout with every figure: the same lines, stations and legs (so the same raster and verdict)
   built = built.full();
   // 4. the yardstick: uniform settings; fall back when one meets the spec in no more time (or the solved plan does not meet it)
@@ -429,6 +507,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
         + (so.beyondEdgeM > 0 ? ` Lines are laid up to ${so.beyondEdgeM} m beyond the area's boundary (solve.beyondEdgeM), so ground at the edge is seen from outside too: fly there only where that is allowed.` : ''),
       lines: choiceLines,
       fallback,
+      tightening,
       summary: fallback
         ? 'the summary is the uniform plan\'s own.'
         : 'summary.lineSpacingM and summary.triggerDistanceM are the tightest line spacing and photo spacing (each line\'s own are in choices.lines); summary.plannedHeightM is the height above ground the GSD bands are topped at; the GSD band is the spec\'s (finer is never a fault); overlaps are checked against the solver\'s floors.',

@@ -44,6 +44,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
       />
       <Text testID="solved-heading">Heading: {s.choices.heading}</Text>
       <Text>Pattern: {s.choices.pattern}</Text>
+      {s.choices.tightening ? <Text testID="solved-tightening">Tightening: {s.choices.tightening}</Text> : null}
       {s.choices.fallback ? <Text tone="caution">{s.choices.fallback}</Text> : null}
       {s.unreachable.length ? (
         <View style={styles.block} testID="solved-unreachable">

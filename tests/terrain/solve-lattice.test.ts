@@ -109,7 +109,8 @@ describe('lattice: a second set of lines across the first when the spec asks for
       return most;
     };
     expect(furthest(beyond)).toBeGreaterThan(furthest(lattice) + 10);
-    expect(furthest(beyond)).toBeLessThan(furthest(lattice) + 30 + 1);
+    // (and the photo spacing near a line's end, a metre or two either way)
+    expect(furthest(beyond)).toBeLessThan(furthest(lattice) + 30 + 2);
     // the price: a longer flight than inside the boundary
     expect(beyond.summary.flightTimeS).toBeGreaterThan(lattice.summary.flightTimeS);
   });

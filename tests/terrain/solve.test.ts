@@ -46,13 +46,43 @@ describe('solver choices', () => {
   it('spaces lines closer where the ground between them is higher, and says so', () => {
     // a 60 m high plateau on the east half: lines over it fly at the same height above it, but the ground between a
     // low line and a high one is the plateau's, so that pair sits closer than the pairs on the low ground
-    const site = syntheticSite(420, 4, (x) => 300 + 60 / (1 + Math.exp(-(x - 20) / 8)));
+    const ground = (x: number) => 300 + 60 / (1 + Math.exp(-(x - 20) / 8));
+    const site = syntheticSite(420, 4, (x) => ground(x));
     const r = solvePlan(site.grid, mission(site, { solve: { repairRounds: 0 } }));
-    const pairs = r.choices.lines.filter((c) => c.spacingToNextM !== null).map((c) => ({ s: c.spacingToNextM!, groundM: Number(/^ground at ([\d.]+) m above the grid's vertical datum between lines \d+ and \d+/.exec(c.reasons[0])![1]) }));
-    const low = pairs.filter((p) => p.groundM < 302), edge = pairs.filter((p) => p.groundM > 330 && p.groundM < 359);
+    // heading 0: a line's offset is its east coordinate, so the ground under it is ground(offset)
+    const rows = r.choices.lines.filter((c) => c.kind === 'line');
+    const pairs = rows.slice(0, -1).map((c, k) => ({ s: c.spacingToNextM!, lowLine: ground(c.offsetM), highLine: ground(rows[k + 1].offsetM), groundM: Number(/^ground at ([\d.]+) m above the grid's vertical datum between lines \d+ and \d+/.exec(c.reasons[0])![1]) }));
+    // both lines on the low ground, and the pair with one line below the plateau's edge and the other on top
+    const low = pairs.filter((p) => p.lowLine < 302 && p.highLine < 302), edge = pairs.filter((p) => p.lowLine < 330 && p.highLine > 330);
     expect(low.length).toBeGreaterThan(0);
-    expect(edge.length).toBeGreaterThan(0);
-    // the pair straddling the plateau's edge: the low line flies ~100 m above its own ground, only ~40 m above the plateau
-    for (const e of edge) for (const l of low) expect(e.s).toBeLessThan(0.6 * l.s);
+    expect(edge.length).toBe(1);
+    // the low line flies ~100 m above its own ground, only ~50 m above the plateau: its reason names the plateau
+    for (const e of edge) {
+      expect(e.groundM).toBeGreaterThan(350);
+      for (const l of low) expect(e.s).toBeLessThan(0.7 * l.s);
+    }
+  }, 120_000);
+
+  it('keeps the round whose lines and spot photos fly fastest: more tightening rounds never give a slower plan', () => {
+    // invented rolling hills: lines lowered over short ground cost more than spot photos over a few cells, up to a point
+    const site = syntheticSite(420, 4, (x, y) => 300 + 40 * Math.sin(x / 60) * Math.cos(y / 90) + 30 * Math.exp(-((x + 80) ** 2 + (y - 50) ** 2) / 70 ** 2));
+    const times: number[] = [];
+    for (const repairRounds of [0, 1, 2, 3]) {
+      const r = solvePlan(site.grid, mission(site, { solve: { repairRounds } }));
+      expect(r.proof.meets).toBe(true);
+      times.push(r.summary.flightTimeS);
+      // the explanation names the round kept and each round tried, with its time when closed with spot photos
+      const kept = /^round (\d+) of (\d+) kept, the fastest that meets the spec/.exec(r.choices.tightening);
+      if (repairRounds === 0) expect(r.choices.tightening).toMatch(/no tightening round/);
+      else {
+        expect(Number(kept![2])).toBe(repairRounds);
+        const closed = [...r.choices.tightening.matchAll(/round (\d+): lines \d+ s leaving \d+ cells? short, with \d+ spot photos? (\d+) s/g)].map((m) => ({ round: Number(m[1]), s: Number(m[2]) }));
+        expect(closed.find((c) => c.round === Number(kept![1]))!.s).toBeCloseTo(r.summary.flightTimeS, -1);
+        for (const c of closed) expect(r.summary.flightTimeS).toBeLessThanOrEqual(c.s + 0.5);
+      }
+    }
+    for (let k = 1; k < times.length; k++) expect(times[k]).toBeLessThanOrEqual(times[k - 1] + 0.05);
+    // and here the rounds pay: three rounds fly at least a fifth faster than none
+    expect(times[3]).toBeLessThan(0.8 * times[0]);
   }, 120_000);
 });
