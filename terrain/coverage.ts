@@ -64,6 +64,13 @@ export interface CoverageOptions {
    */
   firstCells?: ArrayLike<number>;
   /**
+   * A whole raster of the same cells and options for these photos less the `fresh` ones (indices into `photos`):
+   * only the tiles a fresh photo's box meets are worked out again, and every other cell's figures are copied from
+   * it (a photo changes no cell outside its box). The solver checks spot photos added to a checked layout so. Not
+   * with `stopAt` (a copied cell is not asked) nor `viewsOnly`.
+   */
+  adding?: { raster: CoverageRaster; fresh: ArrayLike<number> };
+  /**
    * Project every cell into every candidate photo instead of deciding blocks of cells at once, and march every ray
    * the slope bound does not clear instead of proving parts of rays clear by tile (`ray-clearance.ts`): the same
    * figures, slower; the reference the tests hold the block decisions and the clearance proofs to.
@@ -191,6 +198,43 @@ function buildLattice(grid: Grid, frame: LocalFrame, cellBox: readonly [number, 
 
 /** No occlusion: no slope bound is read. */
 const noSlopes = new Float64Array(0);
+/** A tile not worked out: no photos to bound slopes to. */
+const noPhotos = new Int32Array(0);
+
+/** Per tile, 1 where a fresh photo's box meets it (its cells are worked out again when photos are added to a raster). */
+function touchedTiles(adding: NonNullable<CoverageOptions['adding']>, tileLists: readonly Int32Array[], P: number, width: number, height: number, opts: CoverageOptions, viewsOnly: boolean): Uint8Array {
+  const base = adding.raster;
+  check(!opts.stopAt && !viewsOnly, 'adding photos to a raster works out every cell a fresh photo may see: not with stopAt or viewsOnly.');
+  check(base.cells.width === width && base.cells.height === height && base.stoppedAtCell === undefined, `adding photos needs a whole raster of the same ${width} x ${height} cells.`);
+  const fresh = new Uint8Array(P);
+  for (let k = 0; k < adding.fresh.length; k++) {
+    const j = adding.fresh[k];
+    check(Number.isInteger(j) && j >= 0 && j < P, `adding: ${j} is not a photo of these ${P}.`);
+    fresh[j] = 1;
+  }
+  const touched = new Uint8Array(tileLists.length);
+  tileLists.forEach((l, t) => { for (let k = 0; k < l.length; k++) if (fresh[l[k]]) { touched[t] = 1; break; } });
+  return touched;
+}
+
+/** Every band of `base` into `out`, and the cells of the touched tiles back to their initial values (0 views, NaN figures). */
+function copyUntouched(base: CoverageRaster, out: CoverageRaster, touched: Uint8Array, tw: number): void {
+  check(!!base.directionGapDeg === !!out.directionGapDeg, 'adding photos needs a raster with the same bands (directions or none).');
+  const counts = [[base.views, out.views], [base.viewsPlanned, out.viewsPlanned], [base.viewsAtSpecGsd, out.viewsAtSpecGsd]] as const;
+  const figures = [[base.finestGsdCm, out.finestGsdCm], [base.maxRayAngleDeg, out.maxRayAngleDeg], [base.sigmaVerticalM, out.sigmaVerticalM], [base.sigmaHorizontalM, out.sigmaHorizontalM], ...(base.directionGapDeg && out.directionGapDeg ? [[base.directionGapDeg, out.directionGapDeg] as const] : [])];
+  for (const [a, b] of counts) b.set(a);
+  for (const [a, b] of figures) b.set(a);
+  const { width, height } = out.cells;
+  for (let t = 0; t < touched.length; t++) {
+    if (!touched[t]) continue;
+    const ty = Math.floor(t / tw), tx = t - ty * tw;
+    for (let r = ty * TILE; r < Math.min(height, (ty + 1) * TILE); r++) for (let col = tx * TILE; col < Math.min(width, (tx + 1) * TILE); col++) {
+      const i = r * width + col;
+      for (const [, b] of counts) b[i] = 0;
+      for (const [, b] of figures) b[i] = NaN;
+    }
+  }
+}
 
 /** Per tile, parallel to its photo list: the steepest ground a ray from the tile's cells to that camera crosses (`riseNeeded`). */
 function slopesToPhotos(lattice: HeightLattice, tileBox: Float64Array, tileLists: readonly Int32Array[], pos: Float64Array, boxTop: Float64Array, boxSlope: Float64Array, tol: number, pb: number): Float64Array[] {
@@ -308,7 +352,11 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const tileLists = tilePhotoLists(tileBox, tw * th, boxes, obox, pos, P);
   let longest = 0;
   for (const l of tileLists) if (l.length > longest) longest = l.length;
-  const tileSlopes = useOcclusion ? slopesToPhotos(lattice, tileBox, tileLists, pos, boxTop, boxSlope, tol, 4 * Math.max(opts.cellM, lattice.stepM)) : tileLists.map(() => noSlopes);
+  // adding photos to a raster: the tiles a fresh photo's box meets (the only ones worked out)
+  const adding = opts.adding;
+  const touched = adding ? touchedTiles(adding, tileLists, P, width, height, opts, viewsOnly) : null;
+  const slopeLists = touched ? tileLists.map((l, t) => (touched[t] ? l : noPhotos)) : tileLists;
+  const tileSlopes = useOcclusion ? slopesToPhotos(lattice, tileBox, slopeLists, pos, boxTop, boxSlope, tol, 4 * Math.max(opts.cellM, lattice.stepM)) : tileLists.map(() => noSlopes);
   // counts are whole numbers (0 outside the area: the mask says where the area is); counting views only, no other
   // measure is worked out, and one array of zeros and one of NaN stand for the other counts and the figures (a
   // fresh array costs its first writes: tens of milliseconds for the four figure bands of a large raster)
@@ -330,6 +378,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const directionGap = oblique === undefined || viewsOnly ? null : new Float32Array(n).fill(NaN);
   const raster: CoverageRaster = { cells, views, viewsPlanned, finestGsdCm, viewsAtSpecGsd, maxRayAngleDeg, sigmaVerticalM, sigmaHorizontalM, guaranteed: env !== null, envelopeMarginPx: marginPx, imageErrorPx: sigmaPx };
   if (directionGap) raster.directionGapDeg = directionGap;
+  if (adding && touched) copyUntouched(adding.raster, raster, touched, tw);
   const stopAt = opts.stopAt;
   const bounds = normalisedBounds(model), envBounds = normalisedBounds(model, marginPx);
   const rotAll = new Float64Array(9 * P);
@@ -342,7 +391,8 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     check(Number.isInteger(i) && i >= 0 && i < width * height, `firstCells: ${i} is not a cell of this ${width} x ${height} raster.`);
     firstTiles[k] = Math.floor(Math.floor(i / width) / TILE) * tw + Math.floor((i % width) / TILE);
   }
-  const stopped = fillCells({ order: tileOrder(tw * th, firstTiles), rotAll, optics, cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, rayIds: new Int32Array(Math.max(1, longest)), pair: new Int32Array([-1, -1]), least: new Float64Array(1), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(10), near: useOcclusion ? nearSlopes(lattice) : new Float32Array(0), nearM: NEAR_CELLS * lattice.stepM, nearRise: new Float64Array(1), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, directionGap, cosOblique: Math.cos(((oblique ?? 0) * Math.PI) / 180), azimuths: new Float64Array(Math.max(1, longest)), stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const order = touched ? tileOrder(tw * th, firstTiles).filter((t) => touched[t] === 1) : tileOrder(tw * th, firstTiles);
+  const stopped = fillCells({ order, rotAll, optics, cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, rayIds: new Int32Array(Math.max(1, longest)), pair: new Int32Array([-1, -1]), least: new Float64Array(1), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(10), near: useOcclusion ? nearSlopes(lattice) : new Float32Array(0), nearM: NEAR_CELLS * lattice.stepM, nearRise: new Float64Array(1), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, directionGap, cosOblique: Math.cos(((oblique ?? 0) * Math.PI) / 180), azimuths: new Float64Array(Math.max(1, longest)), stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }

@@ -9,6 +9,7 @@ import type { Mission } from './mission';
 import type { ViewGeometry } from './solve-geometry';
 import type { HeightAt } from './footprint';
 import { transitShortfallM } from './plan-warnings';
+import { gsdStretch } from './solve-line';
 
 const DEG = Math.PI / 180;
 
@@ -51,12 +52,26 @@ export function spotHeightM(geometry: ViewGeometry, mission: Mission, slopeDeg: 
  * found there (a nadir photo's GSD is proportional to its height), with a 2 % margin.
  */
 export function placeSpots(short: ShortCell[], geometry: ViewGeometry, mission: Mission, factor: number, existing: Spot[], heightAt: HeightAt, layoutHeadingDeg: number): Spot[] {
+  const low = mission.clearanceM + mission.obstacleAllowanceM;
   const order = [...short].sort((p, q) => q.slopeDeg - p.slopeDeg);
   const out: Spot[] = [];
-  // a cell within a tenth of a spot's height of it (at least 2 m) is seen by it at nearly the same slant
+  // a cell within a tenth of a spot's height of it (at least 4.5 m) is seen by it at nearly the same slant; further
+  // off, one whose ground the spot's photo sees, by the raster's own GSD formula (`gsdStretch`), within the spec with
+  // the margin, inside half the guaranteed footprint (the raster check that follows decides)
   const reach = (s: Spot) => Math.max(4.5, 0.12 * s.heightM);
-  const near = (s: Spot, c: ShortCell) => Math.hypot(s.x - c.x, s.y - c.y) <= reach(s) && Math.abs(s.groundM - c.z) <= reach(s);
-  const low = mission.clearanceM + mission.obstacleAllowanceM;
+  const specCm = geometry.specHeightM * geometry.gsdPerM;
+  const sees = (s: Spot, c: ShortCell) => {
+    const alt = s.groundM + s.heightM, h = alt - c.z;
+    if (!(h > low)) return false;
+    const ux = Math.sin(s.headingDeg * DEG), uy = Math.cos(s.headingDeg * DEG);
+    const dx = c.x - s.x, dy = c.y - s.y;
+    const along = dx * ux + dy * uy, across = dx * uy - dy * ux;
+    if (Math.abs(across) > 0.5 * h * geometry.tanAcross || Math.abs(along) > 0.5 * h * geometry.tanAlong) return false;
+    const gx = (heightAt(c.x + 1, c.y) - heightAt(c.x - 1, c.y)) / 2, gy = (heightAt(c.x, c.y + 1) - heightAt(c.x, c.y - 1)) / 2;
+    if (!(gx === gx && gy === gy)) return false;
+    return h * geometry.gsdPerM * gsdStretch(ux, uy, dx, dy, h, gx, gy) <= specCm * factor;
+  };
+  const near = (s: Spot, c: ShortCell) => (Math.hypot(s.x - c.x, s.y - c.y) <= reach(s) && Math.abs(s.groundM - c.z) <= reach(s)) || (c.item === 'gsd' && sees(s, c));
   for (const c of order) {
     const served = out.find((s) => near(s, c));
     if (served) { served.cells++; continue; }

@@ -4,7 +4,8 @@ import type { Mission } from './mission';
 import type { PlanResult } from './plan-result';
 import type { AttitudeEnvelope } from './attitude-envelope';
 import type { LocalFrame } from './local-frame';
-import { cellSlopesDeg, computeCoverage, type CoverageRaster } from './coverage';
+import { cellSlopesDeg, computeCoverage, type CoverageOptions, type CoverageRaster } from './coverage';
+import type { CoveragePhoto } from './coverage-photo';
 import { coverageCells, gridCellM, type CoverageCells } from './coverage-grid';
 import { coverageCompliance, meetsDirections, specRasterOptions, type Compliance, type CoverageSpec, type CoverageSettings } from './coverage-spec';
 import { coverageFrame, planPhotos } from './coverage-photos';
@@ -34,6 +35,28 @@ export interface Verifier {
    * given, receives the cell a raster stopped at.
    */
   verdictIfMeets(plan: PlanResult, firstCells?: ArrayLike<number>, short?: { cell: number }): Verdict | null;
+  /**
+   * The verdict of `plan` when it holds every photo of `base`'s plan and more (spot photos added to a checked
+   * layout): only the cells the added photos may see are worked out again (`CoverageOptions.adding`), the same
+   * verdict as `check`. A plan that lacks some photo of the base is checked whole.
+   */
+  checkAdding(plan: PlanResult, base: { plan: PlanResult; verdict: Verdict }): Verdict;
+}
+
+/** A photo's pose as a key: the same key, the same photo in every raster. */
+const poseKey = (p: CoveragePhoto) => `${p.xM} ${p.yM} ${p.altitudeM} ${p.yawDeg} ${p.pitchDeg ?? 0} ${p.rollDeg ?? 0} ${p.mountTiltDeg ?? 0} ${p.crabDeg ?? 0}`;
+
+/** Indices of the photos of `all` that `base` lacks, or null when `base` has one that `all` lacks. */
+function freshPhotos(all: readonly CoveragePhoto[], base: readonly CoveragePhoto[]): number[] | null {
+  const left = new Map<string, number>();
+  for (const p of base) { const k = poseKey(p); left.set(k, (left.get(k) ?? 0) + 1); }
+  const fresh: number[] = [];
+  all.forEach((p, j) => {
+    const k = poseKey(p), n = left.get(k) ?? 0;
+    if (n > 0) left.set(k, n - 1); else fresh.push(j);
+  });
+  for (const n of left.values()) if (n > 0) return null;
+  return fresh;
 }
 
 /**
@@ -61,9 +84,9 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
     const dirs = !meetsDirections(raster, spec, i);
     return gsd ? 'gsd' : views ? 'views' : dirs ? 'directions' : sv || sh ? 'other' : null;
   };
-  const rasterOf = (plan: PlanResult, stopAtShort: boolean, firstCells?: ArrayLike<number>) => computeCoverage(grid, frame, mission.area, mission.camera, planPhotos(plan, frame, envelope).photos, {
+  const rasterOf = (plan: PlanResult, stopAtShort: boolean, firstCells?: ArrayLike<number>, adding?: CoverageOptions['adding'], photos = planPhotos(plan, frame, envelope).photos) => computeCoverage(grid, frame, mission.area, mission.camera, photos, {
     cellM, maxCells: settings.maxCells, ...specRasterOptions(spec), imageErrorPx: settings.imageErrorPx, envelope, occlusion: settings.occlusion,
-    stopAt: stopAtShort ? (i, r) => shortOf(r, i) !== null : undefined, firstCells,
+    stopAt: stopAtShort ? (i, r) => shortOf(r, i) !== null : undefined, firstCells, adding,
   });
   const verdictOf = (raster: CoverageRaster): Verdict => {
     const compliance = coverageCompliance(reachableOnly(raster, reach), spec);
@@ -79,6 +102,11 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
   return {
     frame, cells, cellM, reach,
     check: (plan) => verdictOf(rasterOf(plan, false)),
+    checkAdding(plan, base) {
+      const photos = planPhotos(plan, frame, envelope).photos;
+      const fresh = base.verdict.raster.stoppedAtCell === undefined ? freshPhotos(photos, planPhotos(base.plan, frame, envelope).photos) : null;
+      return verdictOf(rasterOf(plan, false, undefined, fresh ? { raster: base.verdict.raster, fresh } : undefined, photos));
+    },
     verdictIfMeets(plan, firstCells, short) {
       const raster = rasterOf(plan, true, firstCells);
       if (raster.stoppedAtCell === undefined) return verdictOf(raster);

@@ -387,7 +387,9 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       const b = build(headingDeg, c.rep, next);
       // slower than a plan that meets the spec already: more or lower spots only add time
       if (bound && b.flightTimeS >= bound.built.flightTimeS) break;
-      const v = verifier.check(b.plan);
+      // the round's lines are the checked layout's own: only the ground the spots may see is worked out again
+      // (every candidate in full: the whole raster, which the tests compare with)
+      const v = opts.candidatesInFull ? verifier.check(b.plan) : verifier.checkAdding(b.plan, { plan: c.built.plan, verdict: c.verdict });
       if (v.failing.length >= v0.failing.length) break;
       b0 = b; v0 = v; spots = next;
     }

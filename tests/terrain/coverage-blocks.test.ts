@@ -110,6 +110,30 @@ describe('coverage by blocks of cells', () => {
     expect(reordered.stoppedAtCell).toBeUndefined();
     expect(() => computeCoverage(site.grid, site.frame, area, plain, photos(), { cellM: 1.5, specGsdCm: 4, firstCells: [width * height] })).toThrow(/firstCells: .* is not a cell/);
   }, 60_000);
+
+  it('adds photos to a raster: the same figures in every cell as the whole raster, with only the tiles the added photos may see worked out again', () => {
+    // two low photos (spot photos over the cliff step, one of them rolled) added in the middle of the photo list
+    const spots: CoveragePhoto[] = [{ xM: 45, yM: 20, altitudeM: 60, yawDeg: 15 }, { xM: -60, yM: -120, altitudeM: 50, yawDeg: 200, rollDeg: 3 }];
+    const base = photos();
+    const all = [...base.slice(0, 13), spots[0], ...base.slice(13, 20), spots[1], ...base.slice(20)];
+    for (const opts of [{}, { envelope }, { envelope, obliqueDeg: 20 }] as Array<Partial<CoverageOptions>>) {
+      const o = { cellM: 1.5, specGsdCm: 4, ...opts };
+      const before = computeCoverage(site.grid, site.frame, area, plain, base, o);
+      const whole = computeCoverage(site.grid, site.frame, area, plain, all, o);
+      const added = computeCoverage(site.grid, site.frame, area, plain, all, { ...o, adding: { raster: before, fresh: [13, 21] } });
+      expect(differences(added, whole).slice(0, 5)).toEqual([]);
+      if (o.obliqueDeg) for (let i = 0; i < whole.views.length; i++) if (!Object.is(added.directionGapDeg![i], whole.directionGapDeg![i])) throw new Error(`directionGapDeg[${i}]`);
+      // not vacuous: the spots add views to some cells and not to others
+      let more = 0, same = 0;
+      for (let i = 0; i < whole.views.length; i++) if (whole.cells.inside[i]) { if (whole.views[i] > before.views[i]) more++; else same++; }
+      expect(more).toBeGreaterThan(100);
+      expect(same).toBeGreaterThan(more);
+    }
+    // asked of a raster it cannot have come from, it says so
+    const small = computeCoverage(site.grid, site.frame, site.area(-100, -100, 100, 100), plain, base, { cellM: 1.5, specGsdCm: 4 });
+    expect(() => computeCoverage(site.grid, site.frame, area, plain, all, { cellM: 1.5, specGsdCm: 4, adding: { raster: small, fresh: [13] } })).toThrow(/same .* cells/);
+    expect(() => computeCoverage(site.grid, site.frame, area, plain, all, { cellM: 1.5, specGsdCm: 4, stopAt: () => false, adding: { raster: small, fresh: [13] } })).toThrow(/not with stopAt/);
+  });
 });
 
 describe('cell positions blended between exact nodes', () => {

@@ -68,6 +68,38 @@ describe('spot photos', () => {
     expect(again.heightM).toBeCloseTo(first.heightM * (2.5 / 2.8) * 0.98, 6);
   });
 
+  it('serves short cells on gentle ground with one spot as far as its photo meets the spec there, and the raster agrees', () => {
+    // invented ground rising 6° to the east: a patch of short cells 40 m square
+    const site = syntheticSite(200, 1, (x) => 300 + Math.tan(6 * DEG) * x);
+    const mission = missionOn(site);
+    const g = viewGeometry(camera, spec, null);
+    const { heightAt } = localHeights(site.grid, site.frame);
+    const cells = coverageCells(site.grid, site.frame, mission.area, 4);
+    const short: Parameters<typeof placeSpots>[0] = [];
+    for (let i = 0; i < cells.inside.length; i++) {
+      const x = cellX(cells, i), y = cellY(cells, i);
+      if (cells.inside[i] && Math.abs(x) <= 20 && Math.abs(y) <= 20) short.push({ x, y, z: cells.z[i], slopeDeg: 6, finestGsdCm: 3, item: 'gsd' });
+    }
+    expect(short.length).toBeGreaterThan(80);
+    const spots = placeSpots(short, g, mission, 0.95, [], heightAt, 0);
+    // a photo straight above at about 0.95 of the spec's height covers tens of metres of gentle ground: a few
+    // spots, not one per 4.5 m
+    expect(spots.length).toBeLessThanOrEqual(10);
+    expect(spots.reduce((t, sp) => t + sp.cells, 0)).toBe(short.length);
+    // the coverage raster of those photos alone (its own GSD formula, view-gsd.ts): every short cell within the spec
+    const photos = spots.map((sp) => ({ xM: sp.x, yM: sp.y, altitudeM: sp.groundM + sp.heightM, yawDeg: sp.headingDeg }));
+    const raster = computeCoverage(site.grid, site.frame, mission.area, camera, photos, { cellM: 4, specGsdCm: spec.maxGsdCm });
+    for (let i = 0; i < cells.inside.length; i++) {
+      if (!cells.inside[i] || Math.abs(cellX(cells, i)) > 20 || Math.abs(cellY(cells, i)) > 20) continue;
+      expect(raster.finestGsdCm[i]).toBeLessThanOrEqual(spec.maxGsdCm);
+    }
+    // on a 55° face the same patch needs more spots: the spots fly lower (h ≤ H·cos β) and the slant changes the GSD fast
+    const face = syntheticSite(200, 1, (x) => 300 + Math.tan(55 * DEG) * x);
+    const faceHeight = localHeights(face.grid, face.frame).heightAt;
+    const steep = short.map((c) => ({ ...c, z: faceHeight(c.x, c.y), slopeDeg: 55 }));
+    expect(placeSpots(steep, g, missionOn(face), 0.95, [], faceHeight, 0).length).toBeGreaterThan(1.5 * spots.length);
+  });
+
   it('orders a tour so no transit crosses a ridge inside the clearance when another order avoids it, and fits it in a clear gap', () => {
     // invented ground: level at 300 m with a 60 m wall along x = 0 between y = -100 and 100
     const site = syntheticSite(300, 2, (x, y) => 300 + (Math.abs(x) < 10 && Math.abs(y) < 100 ? 60 : 0));
