@@ -62,6 +62,8 @@ export const solveReportSchema = z.object({
     uniform: z.array(z.object({
       setting: z.object({ forwardOverlap: n, sideOverlap: n, mode: z.string(), headingDeg: n, targetGsdCm: n.optional() }),
       flightTimeS: n, shareReachable: n.nullable(), meets: z.boolean().nullable(),
+      // the setting's photos and batteries (stored before they were given: absent)
+      photoCount: z.number().int().optional(), batteries: z.number().int().optional(),
     })),
     bestUniformFlightTimeS: n.nullable(), solvedFlightTimeS: n, ratio: n.nullable(),
   }),

@@ -76,7 +76,7 @@ interface SolveReport {
     short: ShortGroup[];
     basis: string;
   };
-  comparison: { uniform: Array<{ setting: UniformSetting; flightTimeS: number; shareReachable: number | null; meets: boolean | null }>; bestUniformFlightTimeS: number | null; solvedFlightTimeS: number; ratio: number | null };
+  comparison: { uniform: Array<{ setting: UniformSetting; flightTimeS: number; photoCount: number; batteries: number; shareReachable: number | null; meets: boolean | null }>; bestUniformFlightTimeS: number | null; solvedFlightTimeS: number; ratio: number | null };
   rounds: number;
 }
 
@@ -361,8 +361,8 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     if (b.flightTimeS < built.flightTimeS) { built = b; headingDeg = h; }
   }
   // 2. prove, and tighten where reachable cells fall short: in each set, the row nearest the short cell; 3. close
-  // what each round leaves short with spot photos, and keep the round whose lines and spots fly fastest (lowering
-  // every line of a row costs more than spot photos over a few short cells, and fewer than a few hundred it does not)
+  // what each round leaves short with spot photos, and keep the round whose lines and spots fly fastest (lowering a
+  // whole line costs more than spot photos over a few short cells beside it, and less than spots over thousands)
   const rots = Array.from({ length: setCount }, (_, set) => rotated(setHeadingOf(headingDeg, set)));
   const rep = none();
   let verdict: Verdict = verifier.check(built.plan);
@@ -437,9 +437,9 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     const closed = withSpots(c, best && sound(best) ? best : null);
     const n = closed.spots ?? 0;
     const spotted = `${n} spot photo${n === 1 ? '' : 's'}`;
-    outcomes[c.round] = `${lines}${c.verdict.meets ? '' : sound(closed) ? `, with ${spotted} ${round(closed.built.flightTimeS, 0)} s`
+    outcomes[c.round] = `${lines}${c.verdict.meets ? '' : sound(closed) ? `, with ${spotted}: ${round(closed.built.flightTimeS, 0)} s`
       : closed.verdict.meets ? `, with ${spotted} whose transits come inside the clearance`
-        : best && sound(best) ? ', slower with spot photos than the best so far' : n === 0 ? '' : `, with ${spotted} ${closed.verdict.failing.length} short`}`;
+        : best && sound(best) ? ', slower with spot photos than the best so far' : n === 0 ? '' : `, with ${spotted} still ${closed.verdict.failing.length} short`}`;
     if (!best || better(closed, best)) best = closed;
   }
   const kept = best!;
@@ -524,7 +524,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       basis: envelope ? 'coverage raster of the solved plan, guaranteed under the attitude envelope' : 'coverage raster of the solved plan, as planned (no attitude envelope in the mission)',
     },
     comparison: {
-      uniform: checkedUniform.map((o) => ({ setting: o.setting, flightTimeS: o.flightTimeS, shareReachable: o.shareReachable === null ? null : round(o.shareReachable, 6), meets: o.meets })),
+      uniform: checkedUniform.map((o) => ({ setting: o.setting, flightTimeS: o.flightTimeS, photoCount: o.photoCount, batteries: Math.max(1, Math.ceil(o.flightTimeS / usable - 1e-9)), shareReachable: o.shareReachable === null ? null : round(o.shareReachable, 6), meets: o.meets })),
       bestUniformFlightTimeS: bestUni,
       solvedFlightTimeS: round(flightTimeS, 1),
       ratio: bestUni ? round(flightTimeS / bestUni, 4) : null,

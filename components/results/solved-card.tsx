@@ -11,11 +11,12 @@ import { BulletList } from '../reports/bullet-list';
 import { FigureGrid } from '../reports/figure-grid';
 import { space } from '../theme';
 import { Badge, Button, Card, Heading, Text } from '../ui';
+import { SolvedVersusOwn } from './solved-versus-own';
 
 /** Lines shown before "Show all lines". */
 const FIRST_LINES = 4;
 
-export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
+export function SolvedCard({ solved: s, plan }: { solved: SolveReportData; plan: { flightTimeS: number; photoCount: number; batteries: number } }) {
   const [all, setAll] = useState(false);
   const c = s.comparison;
   const lines = all ? s.choices.lines : s.choices.lines.slice(0, FIRST_LINES);
@@ -42,6 +43,7 @@ export function SolvedCard({ solved: s }: { solved: SolveReportData }) {
           { key: 'spots', label: 'Spot photos (one photo straight above short ground)', value: String(spots) },
         ]}
       />
+      <SolvedVersusOwn solved={s} plan={plan} />
       <Text testID="solved-heading">Heading: {s.choices.heading}</Text>
       <Text>Pattern: {s.choices.pattern}</Text>
       {s.choices.tightening ? <Text testID="solved-tightening">Tightening: {s.choices.tightening}</Text> : null}

@@ -87,7 +87,7 @@ export function VersionScreen() {
           />
         ) : null}
         {v?.analysisState === 'done' && !v.result ? <Banner tone="danger" message="This version is marked done but carries no result." /> : null}
-        {v?.analysisState === 'done' && v.result?.solved ? <SolvedCard solved={v.result.solved} /> : null}
+        {v?.analysisState === 'done' && v.result?.solved ? <SolvedCard solved={v.result.solved} plan={v.result.summary} /> : null}
         {v?.analysisState === 'done' && v.result ? (
           <AsFlownCard
             versionId={String(versionId)}

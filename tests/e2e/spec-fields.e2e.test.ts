@@ -100,6 +100,13 @@ describe('spec for every ground cell in the plan editor', () => {
     // the spot photos are counted beside the lines, and each names its ground in its reasons
     const spots = result.solved.choices.lines.filter((l: { kind: string }) => l.kind === 'spot').length;
     expect(await card.getByTestId('solved-comparison').textContent()).toContain(`Spot photos (one photo straight above short ground)${spots}`);
+    // beside the planner's own settings: the solved plan's photos and batteries as stored, the own settings' as the
+    // solver compared them
+    const own = result.solved.comparison.uniform[0];
+    const rows = await card.getByTestId('solved-versus-own').getByRole('row').allTextContents();
+    expect(rows).toContain(`Photos${result.summary.photoCount}${own.photoCount}`);
+    expect(rows).toContain(`Batteries${result.summary.batteries}${own.batteries}`);
+    expect(await card.getByTestId('solved-versus-own').textContent()).toContain(`forward ${Math.round(own.setting.forwardOverlap * 100)} %, side ${Math.round(own.setting.sideOverlap * 100)} %, ${own.setting.mode}`);
     expect(pageErrors).toEqual([]);
     await context.close();
     // the same card on a phone: nothing wider than the screen

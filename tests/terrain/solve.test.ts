@@ -76,7 +76,7 @@ describe('solver choices', () => {
       if (repairRounds === 0) expect(r.choices.tightening).toMatch(/no tightening round/);
       else {
         expect(Number(kept![2])).toBe(repairRounds);
-        const closed = [...r.choices.tightening.matchAll(/round (\d+): lines \d+ s leaving \d+ cells? short, with \d+ spot photos? (\d+) s/g)].map((m) => ({ round: Number(m[1]), s: Number(m[2]) }));
+        const closed = [...r.choices.tightening.matchAll(/round (\d+): lines \d+ s leaving \d+ cells? short, with \d+ spot photos?: (\d+) s/g)].map((m) => ({ round: Number(m[1]), s: Number(m[2]) }));
         expect(closed.find((c) => c.round === Number(kept![1]))!.s).toBeCloseTo(r.summary.flightTimeS, -1);
         for (const c of closed) expect(r.summary.flightTimeS).toBeLessThanOrEqual(c.s + 0.5);
       }
