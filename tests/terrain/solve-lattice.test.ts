@@ -115,6 +115,13 @@ describe('lattice: a second set of lines across the first when the spec asks for
     expect(beyond.summary.flightTimeS).toBeGreaterThan(lattice.summary.flightTimeS);
   });
 
+  it('checks a tightening round that changes no photo no further, and says so', () => {
+    // the cells short here are short of sides: more views along the lines ask for a photo spacing the slant's
+    // forward overlap already sets, so both rounds give the first layout's photos again
+    expect(lattice.rounds).toBe(2);
+    expect(lattice.choices.tightening).toMatch(/^2 tightening rounds changed no photo .*: round 0: lines \d+ s leaving \d+ cells short\.$/);
+  });
+
   it('gives each line its side overlap against its own set (neighbours across the other set would read near nothing)', () => {
     const sides = lattice.lines.flatMap((ln) => ln.stations.map((s) => s.sideOverlap)).filter((v): v is number => v !== null);
     expect(sides.length).toBeGreaterThan(100);
