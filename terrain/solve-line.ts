@@ -117,14 +117,11 @@ export function gsdStretch(ux: number, uy: number, hx: number, hy: number, h: nu
   // unnormalised normal n = (−gx, −gy, 1) and ray d = (hx, hy, −h): r̂ (n·e)/(n·r̂) = d (n·e)/(n·d)
   const nd = -gx * hx - gy * hy - h;
   if (!(nd < 0)) return Infinity;
-  let worst = 0;
-  for (const [ex, ey] of [[ux, uy], [uy, -ux]]) {
-    const k = (-gx * ex - gy * ey) / nd;
-    const vx = ex - hx * k, vy = ey - hy * k, vz = h * k;
-    const m = vx * vx + vy * vy + vz * vz;
-    if (m > worst) worst = m;
-  }
-  return Math.sqrt(worst);
+  // along the line (ux, uy) and across it (uy, −ux), written out: called for every sample of every strip
+  const ka = (-gx * ux - gy * uy) / nd, kc = (-gx * uy + gy * ux) / nd;
+  const ax = ux - hx * ka, ay = uy - hy * ka, az = h * ka;
+  const cx = uy - hx * kc, cy = -ux - hy * kc, cz = h * kc;
+  return Math.sqrt(Math.max(ax * ax + ay * ay + az * az, cx * cx + cy * cy + cz * cz));
 }
 
 /** Ground profile of a laid line at the plan analysis's sample distances, and the ground its band is measured from. */

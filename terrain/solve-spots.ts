@@ -67,7 +67,7 @@ export function placeSpots(short: ShortCell[], geometry: ViewGeometry, mission: 
     const dx = c.x - s.x, dy = c.y - s.y;
     const along = dx * ux + dy * uy, across = dx * uy - dy * ux;
     if (Math.abs(across) > 0.5 * h * geometry.tanAcross || Math.abs(along) > 0.5 * h * geometry.tanAlong) return false;
-    const gx = (heightAt(c.x + 1, c.y) - heightAt(c.x - 1, c.y)) / 2, gy = (heightAt(c.x, c.y + 1) - heightAt(c.x, c.y - 1)) / 2;
+    const [gx, gy] = gradientAt(heightAt, c.x, c.y);
     if (!(gx === gx && gy === gy)) return false;
     return h * geometry.gsdPerM * gsdStretch(ux, uy, dx, dy, h, gx, gy) <= specCm * factor;
   };
@@ -172,13 +172,18 @@ export function tourGap(tour: Spot[], gaps: Array<{ from: Anchor; to: Anchor }>,
   return best;
 }
 
+/** Ground gradient at a point: central differences 1 m either side (NaN over unknown ground). */
+function gradientAt(heightAt: HeightAt, x: number, y: number): [number, number] {
+  return [(heightAt(x + 1, y) - heightAt(x - 1, y)) / 2, (heightAt(x, y + 1) - heightAt(x, y - 1)) / 2];
+}
+
 /**
  * Heading along the contour at a point (perpendicular to the steepest slope, from central differences 1 m either
  * side): the altitude fit keeps the clearance over the highest ground within a sample of the photo, which along
  * the contour is the cell's own height. Level ground keeps the layout's heading.
  */
 function contourDeg(heightAt: HeightAt, x: number, y: number, fallbackDeg: number): number {
-  const gx = (heightAt(x + 1, y) - heightAt(x - 1, y)) / 2, gy = (heightAt(x, y + 1) - heightAt(x, y - 1)) / 2;
+  const [gx, gy] = gradientAt(heightAt, x, y);
   if (!(Math.hypot(gx, gy) > 1e-3)) return fallbackDeg;
   // (−gy, gx) is perpendicular to the gradient; a heading is atan2(east, north)
   return ((Math.atan2(-gy, gx) / DEG) % 360 + 360) % 360;

@@ -41,6 +41,8 @@ export interface Verifier {
    * verdict as `check`. A plan that lacks some photo of the base is checked whole.
    */
   checkAdding(plan: PlanResult, base: { plan: PlanResult; verdict: Verdict }): Verdict;
+  /** Whether two plans take the same photos (the same poses, whatever their order): then their rasters are the same. */
+  samePhotos(a: PlanResult, b: PlanResult): boolean;
 }
 
 /** A photo's pose as a key: the same key, the same photo in every raster. */
@@ -106,6 +108,10 @@ export function makeVerifier(grid: Grid, mission: Mission, spec: CoverageSpec, e
       const photos = planPhotos(plan, frame, envelope).photos;
       const fresh = base.verdict.raster.stoppedAtCell === undefined ? freshPhotos(photos, planPhotos(base.plan, frame, envelope).photos) : null;
       return verdictOf(rasterOf(plan, false, undefined, fresh ? { raster: base.verdict.raster, fresh } : undefined, photos));
+    },
+    samePhotos(a, b) {
+      const fresh = freshPhotos(planPhotos(a, frame, envelope).photos, planPhotos(b, frame, envelope).photos);
+      return fresh !== null && fresh.length === 0;
     },
     verdictIfMeets(plan, firstCells, short) {
       const raster = rasterOf(plan, true, firstCells);

@@ -424,7 +424,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     built = build(headingDeg, rep);
     // the same photos as the last round (more views asked along lines whose forward overlap the slant already
     // sets): the same raster, so the same verdict, and nothing new to close with spots
-    if (photoPoses(built.plan) === photoPoses(last.built.plan)) { verdict = last.verdict; continue; }
+    if (verifier.samePhotos(built.plan, last.built.plan)) { verdict = last.verdict; continue; }
     verdict = verifier.check(built.plan);
     rounded.push({ built, verdict, rep: snapshot(rep), round: rounds });
     // a round that left more cells short than an earlier one lowered lines past where it helps
@@ -453,7 +453,7 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
       : rounds === 0 ? `no tightening round (solve.repairRounds is 0): ${outcomes[0]}.`
         : `${unchanged}: ${outcomes[0]}.`)
     : `round ${kept.round} of ${rounds} kept, ${sound(kept) ? 'the fastest that meets the spec' : kept.verdict.meets ? 'the fastest that meets the spec, although a spot transit comes inside the clearance (see the warnings)' : 'the one that leaves the fewest cells short'}: each round lowers the lines nearest the cells the last one left short of the GSD and adds photos along those short of views, and what a round leaves short is closed with spot photos. ${outcomes.filter(Boolean).join('; ')}.`;
-  ({ built, verdict } = best!);
+  ({ built, verdict } = kept);
   // the chosen layout with every figure: the same lines, stations and legs (so the same raster and verdict)
   built = built.full();
   // 4. the yardstick: uniform settings; fall back when one meets the spec in no more time (or the solved plan does not meet it)
@@ -538,11 +538,6 @@ export function solvePlan(grid: Grid, input: unknown, opts: SolveOptionsArg = {}
     },
     rounds,
   };
-}
-
-/** Every photo of a plan (position, altitude, heading, camera tilt) as one string: equal strings, equal rasters. */
-function photoPoses(plan: PlanResult): string {
-  return JSON.stringify(plan.lines.map((l) => [l.headingDeg, l.cameraTiltDeg ?? 0, l.stations.map((st) => [st.lon, st.lat, st.altitudeM])]));
 }
 
 /** Short cells grouped by item, with the slopes under them. */
