@@ -37,7 +37,9 @@ interface CellPass {
   envRots: Float64Array[]; boxTop: Float64Array;
   /** Per photo: the steepest rise of the ground between its footprint and the camera (a ray rising faster cannot be hidden). */
   boxSlope: Float64Array; marginPx: number; lattice: HeightLattice; hStep: number; N: Float64Array; useOcclusion: boolean; tol: number; spec: number;
-  rays: Float64Array; sig: Float64Array;
+  sig: Float64Array;
+  /** Scratch of the block being visited (`visitBlock`). */
+  block: BlockScratch;
   /** The widest gap between oblique view directions (`view-directions.ts`), when the spec asks for views from all round; null otherwise. */
   directionGap: Float32Array | null; cosOblique: number; azimuths: Float64Array;
   /** Where the planned image and the envelope's shrunk image hold a whole box of ground points (`image-bounds.ts`). */
@@ -46,8 +48,8 @@ interface CellPass {
   exact: boolean;
   /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point, a box against a photo (`classifyBox`). */
   pt: Float64Array; ray: Float64Array; around: Float64Array; q: Float64Array;
-  /** Scratch: the photo of each ray in `rays`, the minimum `minRayDot` writes, and the rays it keeps. */
-  rayIds: Int32Array; least: Float64Array; kept: Int32Array;
+  /** Scratch: the minimum `minRayDot` writes, and the rays it keeps. */
+  least: Float64Array; kept: Int32Array;
   /** The two photos whose rays gave the largest angle at the cell visited last (-1: none yet). */
   pair: Int32Array;
   /** Per raster column, how its position blends between nodes (`rowPositions`). */
@@ -100,15 +102,28 @@ export function fillCells(c: CellPass): number {
     c.tile = ty * tw + tx;
     for (let li = 0; li < list.length; li++) c.profiles[li * CLEARANCE_STRIDE] = 0;
     decideTile(c, list, r0, c0, r1, c1, px, py, tileCodes, picks, codes, picked, sure);
-    for (let r = r0; r < r1; r++) {
-      for (let col = c0; col < c1; col++) {
-        const i = r * width + col;
-        if (!inside[i]) continue;
-        const k = (r - r0) * TILE + (col - c0);
-        const b = Math.floor((r - r0) / BLOCK) * nb + Math.floor((col - c0) / BLOCK);
-        if (c.viewsOnly) countViews(c, list, i, k, picks, codes, b * longest, picked[b], sure[b]);
-        else visitCell(c, list, slopes, i, k, picks, codes, b * longest, picked[b], sure[b]);
-        if (stop !== null && stop(i)) return i;
+    if (c.viewsOnly) {
+      for (let r = r0; r < r1; r++) {
+        for (let col = c0; col < c1; col++) {
+          const i = r * width + col;
+          if (!inside[i]) continue;
+          const k = (r - r0) * TILE + (col - c0);
+          const b = Math.floor((r - r0) / BLOCK) * nb + Math.floor((col - c0) / BLOCK);
+          countViews(c, list, i, k, picks, codes, b * longest, picked[b], sure[b]);
+          if (stop !== null && stop(i)) return i;
+        }
+      }
+      continue;
+    }
+    // the full figures block by block, each block's photos in the outer loop (their numbers read once for its
+    // cells); each cell still meets its photos in the tile list's order, so every sum is the same to the bit
+    for (let b = 0; b < BLOCKS; b++) {
+      const br = r0 + Math.floor(b / nb) * BLOCK, bc = c0 + (b % nb) * BLOCK;
+      if (br < r1 && bc < c1) visitBlock(c, list, slopes, br, bc, Math.min(r1, br + BLOCK), Math.min(c1, bc + BLOCK), r0, c0, picks, codes, b * longest, picked[b]);
+    }
+    if (stop !== null) {
+      for (let r = r0; r < r1; r++) {
+        for (let i = r * width + c0; i < r * width + c1; i++) if (inside[i] && stop(i)) return i;
       }
     }
   }
@@ -262,6 +277,8 @@ function hiddenFrom(c: CellPass, j: number, li: number, bins: number): boolean {
   a[0] = pt[0]; a[1] = pt[1]; a[2] = pt[2]; a[3] = pos[j * 3]; a[4] = pos[j * 3 + 1]; a[5] = pos[j * 3 + 2]; a[6] = c.tol; a[7] = c.boxTop[j];
   // a[9], where the march starts, is set by `marchNeeded`
   if (bins === NO_PROOF) { a[8] = Infinity; a[9] = 0; } else a[8] = bins * c.profiles[li * CLEARANCE_STRIDE + 1];
+  // a[10], the sample that hid the last ray to this photo (read first), is kept by the caller; the exact pass reads none
+  if (c.exact) a[10] = 0;
   return occludedRay(c.lattice, a);
 }
 
@@ -334,22 +351,26 @@ function minRayDot(rays: Float64Array, v: number, ids: Int32Array, steep: number
     pair[0] = ids[ba]; pair[1] = ids[bb];
     return;
   }
-  if (sa >= 0 && sb >= 0) {
+  const m = steep, mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], sm2 = Math.max(0, 1 - mz * mz);
+  const seeded = sa >= 0 && sb >= 0;
+  if (seeded) {
     minDot = rays[sa * 3] * rays[sb * 3] + rays[sa * 3 + 1] * rays[sb * 3 + 1] + rays[sa * 3 + 2] * rays[sb * 3 + 2];
     ba = sa; bb = sb;
+  } else {
+    // unseeded: each ray against the steepest first, for a minimum to leave rays out by
+    for (let b = 0; b < v; b++) {
+      if (b === m) continue;
+      const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
+      if (d < minDot) { minDot = d; ba = m; bb = b; }
+    }
   }
-  // each ray against the steepest, then left out where cos θa cos θm − sin θa sin θm > the minimum (with a hair
-  // for rounding), tested squared where both sides are positive, so only the steepest ray's sine is taken
-  const m = steep, mx = rays[m * 3], my = rays[m * 3 + 1], mz = rays[m * 3 + 2], sm2 = Math.max(0, 1 - mz * mz);
-  for (let b = 0; b < v; b++) {
-    if (b === m) continue;
-    const d = mx * rays[b * 3] + my * rays[b * 3 + 1] + mz * rays[b * 3 + 2];
-    if (d < minDot) { minDot = d; ba = m; bb = b; }
-  }
+  // rays left out where cos θa cos θm − sin θa sin θm > the minimum (with a hair for rounding), tested squared
+  // where both sides are positive, so only the steepest ray's sine is taken; seeded, the steepest is tested too
+  // (its pairs are not read yet: left out where cos 2θm is above the minimum, so no pair of it gives less)
   const t = minDot + 1e-12;
   let nk = 0;
   for (let b = 0; b < v; b++) {
-    if (b === m) continue;
+    if (b === m && !seeded) continue;
     const bz = rays[b * 3 + 2], l = bz * mz - t;
     if (!(l > 0 && l * l > Math.max(0, 1 - bz * bz) * sm2)) kept[nk++] = b;
   }
@@ -382,112 +403,181 @@ function countViews(c: CellPass, list: Int32Array, i: number, k: number, picks: 
   c.views[i] = count;
 }
 
-/** One cell: the photos of its block that see its ground point, and the figures from them (small, so it is optimised early). */
-function visitCell(c: CellPass, list: Int32Array, slopes: Float64Array, i: number, k: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number, sure: number): void {
-  const { cells, views, viewsPlanned, viewsAtSpecGsd, pos, rotAll, optics, lattice, hStep, N, useOcclusion, tol, spec, rays, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, rayIds } = c;
-  const pz = cells.z[i];
-  if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; return; }
-  const pt = c.pt, px = c.px[k], py = c.py[k];
-  pt[0] = px; pt[1] = py; pt[2] = pz;
-  // ground normal from the lattice (central differences); level where unknown
-  const around = c.around;
-  around[0] = px; around[1] = py; around[2] = hStep;
-  heightsAround(lattice, around);
-  let gx = (around[3] - around[4]) / (2 * hStep);
-  let gy = (around[5] - around[6]) / (2 * hStep);
-  if (!(gx === gx)) gx = 0;
-  if (!(gy === gy)) gy = 0;
-  const nl = Math.sqrt(gx * gx + gy * gy + 1);
-  const nx = -gx / nl, ny = -gy / nl, nz = 1 / nl;
-  // the lattice's surface at the point against the cell's own height: a ray leaving the surface and rising faster
-  // than any ground it crosses can rise cannot meet that ground (occlusion.ts blockSlope)
-  const lift = around[7] - pz;
-  const nearSurface = lift <= tol;
-  if (nearSurface && useOcclusion) {
-    // the steepest ground near the point (`nearSlopes`), off the lattice none proven
-    const fi = Math.floor((px - lattice.x0) / hStep), fj = Math.floor((py - lattice.y0) / hStep);
-    c.nearRise[0] = fi >= 0 && fj >= 0 && fi < lattice.nx && fj < lattice.ny ? c.near[fj * lattice.nx + fi] : FAR_SQ;
+/** Per block of the full pass: its cells' numbers and the sums each gathers over its views (BLOCK² slots each; `blockScratch`). */
+interface BlockScratch {
+  /** Cell index, local position and height, ground normal (3 each), and near the surface with its steepest nearby rise (`nearSlopes`). */
+  cell: Int32Array; x: Float64Array; y: Float64Array; z: Float64Array; normal: Float64Array; near: Uint8Array; rise: Float64Array;
+  /** Views as planned and counted, at the spec's GSD, the steepest ray's slot, whether every ray points up. */
+  planned: Int32Array; v: Int32Array; atSpec: Int32Array; steep: Int32Array;
+  /** The steepest ray's z (the least cosine from the vertical; every ray points up where it is above 0). */
+  lowZ: Float64Array;
+  /** The finest GSD so far and its square less a hair; the normal matrix's six numbers. */
+  finest: Float64Array; finestSq: Float64Array; normal6: Float64Array;
+  /** Each slot's unit rays (3 numbers a view) and their photos, `longest` views each. */
+  rays: Float64Array[]; ids: Int32Array[];
+  /** The same rays and photos end to end (slot q from q · `longest` views). */
+  all: Float64Array; allIds: Int32Array;
+}
+
+/** Scratch for `visitBlock`, sized for tiles of at most `longest` photos. */
+export function blockScratch(longest: number): BlockScratch {
+  const S = BLOCK * BLOCK, L = Math.max(1, longest);
+  const rays = new Float64Array(S * L * 3), ids = new Int32Array(S * L);
+  return {
+    cell: new Int32Array(S), x: new Float64Array(S), y: new Float64Array(S), z: new Float64Array(S), normal: new Float64Array(3 * S), near: new Uint8Array(S), rise: new Float64Array(S),
+    planned: new Int32Array(S), v: new Int32Array(S), atSpec: new Int32Array(S), steep: new Int32Array(S), lowZ: new Float64Array(S),
+    finest: new Float64Array(S), finestSq: new Float64Array(S), normal6: new Float64Array(6 * S),
+    all: rays, allIds: ids, rays: Array.from({ length: S }, (_, q) => rays.subarray(q * L * 3, (q + 1) * L * 3)), ids: Array.from({ length: S }, (_, q) => ids.subarray(q * L, (q + 1) * L)),
+  };
+}
+
+/**
+ * The cells of one block (rows br..r1 − 1, columns bc..c1 − 1; the tile's corner r0, c0): the photos picked for it
+ * that see each cell's ground point, and the figures from them. Photo by photo in the outer loop, so a photo's
+ * numbers are read once for the block's cells; each cell meets its photos in the order of the tile list, as it
+ * would alone.
+ */
+function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: number, bc: number, r1: number, c1: number, r0: number, c0: number, picks: Int32Array, codes: Uint8Array, at: number, picked: number): void {
+  const { cells, views, viewsPlanned, viewsAtSpecGsd, pos, rotAll, optics, lattice, hStep, N, useOcclusion, tol, spec, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, width, inside } = c;
+  const B = c.block, z = cells.z, around = c.around, pt = c.pt;
+  // the block's cells with a known height: position, ground normal, whether the lattice's surface is at the point
+  let nq = 0;
+  for (let r = br; r < r1; r++) {
+    for (let col = bc; col < c1; col++) {
+      const i = r * width + col;
+      if (!inside[i]) continue;
+      const pz = z[i];
+      if (!(pz === pz)) { views[i] = 0; viewsPlanned[i] = 0; viewsAtSpecGsd[i] = 0; continue; }
+      const k = (r - r0) * TILE + (col - c0);
+      const px = c.px[k], py = c.py[k];
+      // ground normal from the lattice (central differences); level where unknown
+      around[0] = px; around[1] = py; around[2] = hStep;
+      heightsAround(lattice, around);
+      let gx = (around[3] - around[4]) / (2 * hStep);
+      let gy = (around[5] - around[6]) / (2 * hStep);
+      if (!(gx === gx)) gx = 0;
+      if (!(gy === gy)) gy = 0;
+      const nl = Math.sqrt(gx * gx + gy * gy + 1);
+      B.normal[nq * 3] = -gx / nl; B.normal[nq * 3 + 1] = -gy / nl; B.normal[nq * 3 + 2] = 1 / nl;
+      // the lattice's surface at the point against the cell's own height: a ray leaving the surface and rising
+      // faster than any ground it crosses can rise cannot meet that ground (occlusion.ts blockSlope)
+      const nearSurface = around[7] - pz <= tol;
+      B.near[nq] = nearSurface ? 1 : 0;
+      if (nearSurface && useOcclusion) {
+        // the steepest ground near the point (`nearSlopes`), off the lattice none proven
+        const fi = Math.floor((px - lattice.x0) / hStep), fj = Math.floor((py - lattice.y0) / hStep);
+        B.rise[nq] = fi >= 0 && fj >= 0 && fi < lattice.nx && fj < lattice.ny ? c.near[fj * lattice.nx + fi] : FAR_SQ;
+      }
+      B.cell[nq] = i; B.x[nq] = px; B.y[nq] = py; B.z[nq] = pz;
+      B.planned[nq] = 0; B.v[nq] = 0; B.atSpec[nq] = 0; B.steep[nq] = 0; B.lowZ[nq] = Infinity; B.finest[nq] = Infinity; B.finestSq[nq] = FAR_SQ;
+      for (let m = 0; m < 6; m++) B.normal6[nq * 6 + m] = 0;
+      nq++;
+    }
   }
-  let planned = 0, v = 0, atSpec = 0, finest = Infinity, finestSq = FAR_SQ;
-  const pair = c.pair, pa = pair[0], pb = pair[1];
-  let steep = 0, up = true, sa = -1, sb = -1;
-  let n0 = 0, n1 = 0, n2 = 0, n3 = 0, n4 = 0, n5 = 0;
+  if (nq === 0) return;
   const ifx2 = optics[0], ify2 = optics[1], fxs = optics[2], fys = optics[3], specLoSq = optics[4], specHiSq = optics[5];
+  const bn = B.normal, acc = B.normal6, bX = B.x, bY = B.y, bZ = B.z, bNear = B.near, bRise = B.rise, bPlanned = B.planned, bFinest = B.finest, bFinestSq = B.finestSq, bAtSpec = B.atSpec, bV = B.v, bLowZ = B.lowZ, bSteep = B.steep, allRays = B.all, allIds = B.allIds, L = c.longest > 0 ? c.longest : 1;
   for (let e = 0; e < picked; e++) {
     const li = picks[at + e], code = codes[at + e];
     const j = list[li];
-    if ((code & 3) !== IN && !seenAt(c, j)) continue;
+    const mixed = (code & 3) !== IN, enc = code >> 2;
     const ox = pos[j * 3], oy = pos[j * 3 + 1], oz = pos[j * 3 + 2];
-    const dx = px - ox, dy = py - oy, dz = pz - oz;
-    const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    // n·d = R·(n·r̂): the incidence test −n·r̂ < MIN_COS_INCIDENCE without dividing
-    const nd = nx * dx + ny * dy + nz * dz;
-    if (-nd < MIN_COS_INCIDENCE * R) continue;
-    // the slope bound (occlusion.ts blockSlope) squared: −dz ≥ slope · horizontal distance
-    const sl = slopes[li];
-    if (useOcclusion && !(nearSurface && dz <= 0 && dz * dz >= sl * sl * (dx * dx + dy * dy))) {
-      const bins = marchNeeded(c, li, j, nearSurface);
-      if (bins !== 0 && hiddenFrom(c, j, li, bins)) continue;
-    }
-    planned++;
-    const enc = code >> 2;
-    if (enc !== IN && (enc === OUT || !heldAt(c, j))) continue;
-    // viewGsdCm and addView written out here (the engine does not inline them into a function this size, and a
-    // call boxes every number it passes), with their divisions shared: R·cos α = qz (the depth along the axis) and
-    // r̂·(n·e)/(n·r̂) = d·(n·e)/(n·d), so GSD_e = qz / f_e · |e − d (n·e)/(n·d)| · 100
     const ro = j * 9;
-    const r0 = rotAll[ro], r1 = rotAll[ro + 1], r2 = rotAll[ro + 2], r3 = rotAll[ro + 3], r4 = rotAll[ro + 4], r5 = rotAll[ro + 5], r6 = rotAll[ro + 6], r7 = rotAll[ro + 7], r8 = rotAll[ro + 8];
-    const qx = r0 * dx + r3 * dy + r6 * dz;
-    const qy = r1 * dx + r4 * dy + r7 * dz;
-    const qz = r2 * dx + r5 * dy + r8 * dz;
-    const ind = 1 / nd;
-    const kx = (nx * r0 + ny * r3 + nz * r6) * ind;
-    const gxx = r0 - dx * kx, gxy = r3 - dy * kx, gxz = r6 - dz * kx;
-    const ky = (nx * r1 + ny * r4 + nz * r7) * ind;
-    const gyx = r1 - dx * ky, gyy = r4 - dy * ky, gyz = r7 - dz * ky;
-    const ex = (gxx * gxx + gxy * gxy + gxz * gxz) * ifx2, ey = (gyx * gyx + gyy * gyy + gyz * gyz) * ify2;
-    // GSD = qz·√ee·100 (ee the larger of ex, ey): its square decides against the finest so far and the spec where it is clearly apart
-    // from them (a relative hair far above the rounding of either), and the root is taken only where it is not
-    const ee = ex > ey ? ex : ey;
-    const g2 = qz * qz * ee * 1e4;
-    if (g2 < finestSq || (g2 >= specLoSq && g2 <= specHiSq)) {
-      const g = qz * Math.sqrt(ee) * 100;
-      if (g < finest) { finest = g; finestSq = g * g * (1 + 1e-9); }
-      if (g <= spec) atSpec++;
-    } else if (g2 < specLoSq) atSpec++;
-    const iR = 1 / R;
-    const cz = -dz * iR;
-    rays[v * 3] = -dx * iR; rays[v * 3 + 1] = -dy * iR; rays[v * 3 + 2] = cz;
-    rayIds[v] = j;
-    // for minRayDot: whether every ray points up, the steepest, where the last cell's widest pair is
-    if (!(cz > 0)) up = false;
-    if (cz < rays[steep * 3 + 2]) steep = v;
-    if (j === pa) sa = v; else if (j === pb) sb = v;
-    const iq = 1 / qz;
-    const xn = qx * iq, yn = qy * iq;
-    const sx = fxs * iq, sy = fys * iq;
-    const ax = (r0 - xn * r2) * sx, ay = (r3 - xn * r5) * sx, az = (r6 - xn * r8) * sx;
-    const bx = (r1 - yn * r2) * sy, by = (r4 - yn * r5) * sy, bz = (r7 - yn * r8) * sy;
-    n0 += ax * ax + bx * bx;
-    n1 += ax * ay + bx * by;
-    n2 += ax * az + bx * bz;
-    n3 += ay * ay + by * by;
-    n4 += ay * az + by * bz;
-    n5 += az * az + bz * bz;
-    v++;
+    const r0_ = rotAll[ro], r1_ = rotAll[ro + 1], r2 = rotAll[ro + 2], r3 = rotAll[ro + 3], r4 = rotAll[ro + 4], r5 = rotAll[ro + 5], r6 = rotAll[ro + 6], r7 = rotAll[ro + 7], r8 = rotAll[ro + 8];
+    const sl = slopes.length > 0 ? slopes[li] : 0, sl2 = sl * sl;
+    // no sample of this photo's rays has hidden a cell of the block yet
+    c.ray[10] = 0;
+    for (let q = 0; q < nq; q++) {
+      const px = bX[q], py = bY[q], pz = bZ[q];
+      if (mixed) {
+        pt[0] = px; pt[1] = py; pt[2] = pz;
+        if (!seenAt(c, j)) continue;
+      }
+      const dx = px - ox, dy = py - oy, dz = pz - oz;
+      const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
+      const nx = bn[q * 3], ny = bn[q * 3 + 1], nz = bn[q * 3 + 2];
+      // n·d = R·(n·r̂): the incidence test −n·r̂ < MIN_COS_INCIDENCE without dividing
+      const nd = nx * dx + ny * dy + nz * dz;
+      if (-nd < MIN_COS_INCIDENCE * R) continue;
+      // the slope bound (occlusion.ts blockSlope) squared: −dz ≥ slope · horizontal distance
+      const near = bNear[q] === 1;
+      if (useOcclusion && !(near && dz <= 0 && dz * dz >= sl2 * (dx * dx + dy * dy))) {
+        pt[0] = px; pt[1] = py; pt[2] = pz;
+        c.nearRise[0] = bRise[q];
+        const bins = marchNeeded(c, li, j, near);
+        if (bins !== 0 && hiddenFrom(c, j, li, bins)) continue;
+      }
+      bPlanned[q]++;
+      if (enc !== IN) {
+        if (enc === OUT) continue;
+        pt[0] = px; pt[1] = py; pt[2] = pz;
+        if (!heldAt(c, j)) continue;
+      }
+      // viewGsdCm and addView written out here (a call boxes every number it passes), with their divisions
+      // shared: R·cos α = qz (the depth along the axis) and r̂·(n·e)/(n·r̂) = d·(n·e)/(n·d), so
+      // GSD_e = qz / f_e · |e − d (n·e)/(n·d)| · 100
+      const qx = r0_ * dx + r3 * dy + r6 * dz;
+      const qy = r1_ * dx + r4 * dy + r7 * dz;
+      const qz = r2 * dx + r5 * dy + r8 * dz;
+      const ind = 1 / nd;
+      const kx = (nx * r0_ + ny * r3 + nz * r6) * ind;
+      const gxx = r0_ - dx * kx, gxy = r3 - dy * kx, gxz = r6 - dz * kx;
+      const ky = (nx * r1_ + ny * r4 + nz * r7) * ind;
+      const gyx = r1_ - dx * ky, gyy = r4 - dy * ky, gyz = r7 - dz * ky;
+      const ex = (gxx * gxx + gxy * gxy + gxz * gxz) * ifx2, ey = (gyx * gyx + gyy * gyy + gyz * gyz) * ify2;
+      // GSD = qz·√ee·100 (ee the larger of ex, ey): its square decides against the finest so far and the spec where
+      // it is clearly apart from them (a relative hair far above the rounding of either), and the root is taken
+      // only where it is not
+      const ee = ex > ey ? ex : ey;
+      const g2 = qz * qz * ee * 1e4;
+      if (g2 < bFinestSq[q] || (g2 >= specLoSq && g2 <= specHiSq)) {
+        const g = qz * Math.sqrt(ee) * 100;
+        if (g < bFinest[q]) { bFinest[q] = g; bFinestSq[q] = g * g * (1 + 1e-9); }
+        if (g <= spec) bAtSpec[q]++;
+      } else if (g2 < specLoSq) bAtSpec[q]++;
+      const v = bV[q], w = q * L + v;
+      const iR = 1 / R;
+      const cz = -dz * iR;
+      allRays[w * 3] = -dx * iR; allRays[w * 3 + 1] = -dy * iR; allRays[w * 3 + 2] = cz;
+      allIds[w] = j;
+      // for minRayDot: whether every ray points up, the steepest
+      if (cz < bLowZ[q]) { bLowZ[q] = cz; bSteep[q] = v; }
+      const iq = 1 / qz;
+      const xn = qx * iq, yn = qy * iq;
+      const sx = fxs * iq, sy = fys * iq;
+      const ax = (r0_ - xn * r2) * sx, ay = (r3 - xn * r5) * sx, az = (r6 - xn * r8) * sx;
+      const bx = (r1_ - yn * r2) * sy, by = (r4 - yn * r5) * sy, bz = (r7 - yn * r8) * sy;
+      const o = q * 6;
+      acc[o] += ax * ax + bx * bx;
+      acc[o + 1] += ax * ay + bx * by;
+      acc[o + 2] += ax * az + bx * bz;
+      acc[o + 3] += ay * ay + by * by;
+      acc[o + 4] += ay * az + by * bz;
+      acc[o + 5] += az * az + bz * bz;
+      bV[q] = v + 1;
+    }
   }
-  views[i] = v;
-  viewsPlanned[i] = planned;
-  viewsAtSpecGsd[i] = atSpec;
-  if (v > 0) finestGsdCm[i] = finest;
-  if (c.directionGap) c.directionGap[i] = directionGapDeg(rays, v, c.cosOblique, c.azimuths);
-  if (v > 1) {
-    minRayDot(rays, v, rayIds, steep, up, sa, sb, pair, c.least, c.kept);
-    const minDot = c.least[0];
-    maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
-    N[0] = n0; N[1] = n1; N[2] = n2; N[3] = n3; N[4] = n4; N[5] = n5;
-    sigmaFromNormal(N, 0, sig);
-    sigmaHorizontalM[i] = sig[0];
-    sigmaVerticalM[i] = sig[1];
+  const pair = c.pair;
+  for (let q = 0; q < nq; q++) {
+    const i = B.cell[q], v = B.v[q], rays = B.rays[q], ids = B.ids[q];
+    views[i] = v;
+    viewsPlanned[i] = B.planned[q];
+    viewsAtSpecGsd[i] = B.atSpec[q];
+    if (v > 0) finestGsdCm[i] = B.finest[q];
+    if (c.directionGap) c.directionGap[i] = directionGapDeg(rays, v, c.cosOblique, c.azimuths);
+    if (v > 1) {
+      // where the widest pair of the cell finished last is among this cell's views
+      const pa = pair[0], pb = pair[1];
+      let sa = -1, sb = -1;
+      for (let w = 0; w < v; w++) { const j = ids[w]; if (j === pa) sa = w; else if (j === pb) sb = w; }
+      minRayDot(rays, v, ids, B.steep[q], B.lowZ[q] > 0, sa, sb, pair, c.least, c.kept);
+      const minDot = c.least[0];
+      maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
+      const o = q * 6;
+      N[0] = acc[o]; N[1] = acc[o + 1]; N[2] = acc[o + 2]; N[3] = acc[o + 3]; N[4] = acc[o + 4]; N[5] = acc[o + 5];
+      sigmaFromNormal(N, 0, sig);
+      sigmaHorizontalM[i] = sig[0];
+      sigmaVerticalM[i] = sig[1];
+    }
   }
 }

@@ -8,7 +8,7 @@ import { localHeights } from './local-frame';
 import type { CameraPose } from './footprint';
 import { cameraToLocal } from './footprint';
 import { imageModel } from './pose';
-import { fillCells, tileOrder, TILE, TILE_BOX } from './coverage-pass';
+import { blockScratch, fillCells, tileOrder, TILE, TILE_BOX } from './coverage-pass';
 import { tileBoxes, tilePhotoLists } from './coverage-tiles';
 import { CLEARANCE_STRIDE } from './ray-clearance';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
@@ -366,8 +366,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const maxRayAngleDeg = viewsOnly ? finestGsdCm : new Float32Array(n).fill(NaN);
   const sigmaVerticalM = viewsOnly ? finestGsdCm : new Float32Array(n).fill(NaN);
   const sigmaHorizontalM = viewsOnly ? finestGsdCm : new Float32Array(n).fill(NaN);
-  // scratch, allocated once: unit rays from the point to each camera that counts, normal matrix, outputs
-  const rays = new Float64Array(3 * Math.max(1, longest));
+  // scratch, allocated once: normal matrix, outputs
   const N = new Float64Array(6);
   const uv = new Float64Array(2);
   const sig = new Float64Array(2);
@@ -392,7 +391,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
     firstTiles[k] = Math.floor(Math.floor(i / width) / TILE) * tw + Math.floor((i % width) / TILE);
   }
   const order = touched ? tileOrder(tw * th, firstTiles).filter((t) => touched[t] === 1) : tileOrder(tw * th, firstTiles);
-  const stopped = fillCells({ order, rotAll, optics, cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, rayIds: new Int32Array(Math.max(1, longest)), pair: new Int32Array([-1, -1]), least: new Float64Array(1), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(10), near: useOcclusion ? nearSlopes(lattice) : new Float32Array(0), nearM: NEAR_CELLS * lattice.stepM, nearRise: new Float64Array(1), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, rays, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, directionGap, cosOblique: Math.cos(((oblique ?? 0) * Math.PI) / 180), azimuths: new Float64Array(Math.max(1, longest)), stop: stopAt ? (i) => stopAt(i, raster) : null });
+  const stopped = fillCells({ order, rotAll, optics, cb, tileBox, tile: 0, maxRuns: maxRunsOf(lattice), profiles: new Float64Array(CLEARANCE_STRIDE * Math.max(1, longest)), binM: 4 * lattice.stepM, block: blockScratch(longest), pair: new Int32Array([-1, -1]), least: new Float64Array(1), kept: new Int32Array(Math.max(1, longest)), pt: new Float64Array(3), q: new Float64Array(6), ray: new Float64Array(11), near: useOcclusion ? nearSlopes(lattice) : new Float32Array(0), nearM: NEAR_CELLS * lattice.stepM, nearRise: new Float64Array(1), around: new Float64Array(8), px: new Float64Array(TILE * TILE), py: new Float64Array(TILE * TILE), bounds, envBounds, exact: opts.exactPass ?? false, longest, th, tw, tileLists, tileSlopes, width, height, inside, cells, views, viewsPlanned, viewsAtSpecGsd, viewsOnly, boxes, obox, pos, model, rots, uv, env, envCount, envRots, boxTop, boxSlope, marginPx, lattice, hStep, N, useOcclusion, tol, spec, finestGsdCm, maxRayAngleDeg, sig, sigmaHorizontalM, sigmaVerticalM, directionGap, cosOblique: Math.cos(((oblique ?? 0) * Math.PI) / 180), azimuths: new Float64Array(Math.max(1, longest)), stop: stopAt ? (i) => stopAt(i, raster) : null });
   if (stopped >= 0) raster.stoppedAtCell = stopped;
   return raster;
 }

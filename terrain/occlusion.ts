@@ -224,6 +224,24 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
   // sample n at s = n·step (a whole count, so every march reads the same positions)
   let n = 1;
   if (a.length > 9 && a[9] > step) n = Math.ceil(a[9] / step - 1e-9);
+  // an eleventh number, when given and above 0, names a sample to read first (where a neighbouring ray was hidden):
+  // one the march would read (from its start, before its end, the ray rising, so no sample before it ends the
+  // march above `maxM`, which bounds the heights under the whole ray) that hides the point hides it
+  if (a.length > 10 && a[10] >= n && rise > 0) {
+    const sp = a[10] * step;
+    if (sp < end) {
+      // the march's own arithmetic at that sample, so the probe reads the height and ray it would
+      const x = px + sp * ux, y = py + sp * uy;
+      let fi: number, fj: number;
+      if (perStep !== 0) { fi = (x - lx0) * perStep; fj = (y - ly0) * perStep; } else { fi = (x - lx0) / step; fj = (y - ly0) / step; }
+      if (fi >= 0 && fj >= 0 && fi < nx - 1 && fj < ny - 1) {
+        const i = Math.floor(fi), j = Math.floor(fj), tx = fi - i, ty = fj - j, o = j * nx + i;
+        const top = hs[o] + (hs[o + 1] - hs[o]) * tx;
+        const h = top + (hs[o + nx] + (hs[o + nx + 1] - hs[o + nx]) * tx - top) * ty;
+        if (h - toleranceM > pz + sp * rise) return true;
+      }
+    }
+  }
   let s = n * step;
   while (s < end) {
     const z = pz + s * rise;
@@ -254,7 +272,10 @@ export function occludedRay(L: HeightLattice, a: Float64Array): boolean {
     const ha = hs[o], hb = hs[o + 1], hc = hs[o + nx], hd = hs[o + nx + 1];
     const top = ha + (hb - ha) * tx;
     const h = top + (hc + (hd - hc) * tx - top) * ty;
-    if (h - toleranceM > z) return true;
+    if (h - toleranceM > z) {
+      if (a.length > 10) a[10] = n;
+      return true;
+    }
     n++;
     s = n * step;
   }
