@@ -76,9 +76,10 @@ interface CellPass {
 
 /**
  * The per-cell pass over the tiles: views and the figures from them. Returns the cell it stopped at (`stop`), else
- * -1. Cells are visited in the same order with or without block decisions (tile by tile in `order`, row by row in a
- * tile), so `stop` sees the same first cell either way. A cell's figures depend on
- * its own ground point and the photos alone, so the order changes none of them.
+ * -1. `stop` is asked of cells in the same order with or without block decisions (tile by tile in `order`, row by
+ * row in a tile; the full figures are worked out for a whole tile, block by block, before it asks any of its
+ * cells), so it sees the same first cell either way. A cell's figures depend on its own ground point and the
+ * photos alone, so the order changes none of them.
  */
 export function fillCells(c: CellPass): number {
   const { th, tw, tileLists, tileSlopes, width, height, inside, stop, cells, longest } = c;

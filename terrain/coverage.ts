@@ -14,7 +14,7 @@ import { CLEARANCE_STRIDE } from './ray-clearance';
 import { envelopeSamples, type AttitudeEnvelope } from './attitude-envelope';
 import { heightLattice, heightsAround, NEAR_CELLS, nearSlopes, slopeIn, type HeightLattice } from './occlusion';
 import { latticeRange, maxRuns, rangeBlocks, type MaxRuns, type RangeBlocks } from './lattice-range';
-import { columnBlend, coverageCells, gridCellM, rowPositions, type CoverageCells } from './coverage-grid';
+import { columnBlend, coverageCells, gridCellM, rowPositions, type ColumnBlend, type CoverageCells } from './coverage-grid';
 import { normalisedBounds } from './image-bounds';
 import { check } from './errors';
 import type { CoveragePhoto } from './coverage-photo';
@@ -54,7 +54,8 @@ export interface CoverageOptions {
    * question such as "does any cell fall short?" is answered at the first cell that says no. Cells are visited
    * tile by tile (TILE x TILE cells, tiles in row order), row by row within a tile, every cell of the area once;
    * `stoppedAtCell` then names the first cell in that order the question said true for (not the first in plain
-   * row order); cells not visited yet keep their initial values (0 views, NaN figures).
+   * row order); cells of tiles not visited yet keep their initial values (0 views, NaN figures), while the tile it
+   * stopped in is worked out whole (its figures are worked out block by block before any of its cells is asked).
    */
   stopAt?: (cell: number, raster: CoverageRaster) => boolean;
   /**
@@ -264,6 +265,31 @@ function maxRunsOf(lattice: HeightLattice): MaxRuns {
   return m;
 }
 
+/** A raster's cells with their column blend and tile boxes (`cellsOf`). */
+interface CellSet { cells: CoverageCells; cb: ColumnBlend; tileBox: Float64Array }
+
+/** The last cells laid out per grid, frame and area, with the cell size and limit they were laid out for. */
+const cellsCache = new WeakMap<Grid, WeakMap<LocalFrame, WeakMap<AreaPolygon, { cellM: number; maxCells: number | undefined; set: CellSet }>>>();
+
+/**
+ * The cells over `area` (`coverageCells`), their column blend and their tiles' boxes: the same grid, frame, area
+ * and cell size give the same cells, so a run of rasters over one site (the solver's checks, a bench's rounds) lays
+ * them out once. Every raster shares them: they are read, never written.
+ */
+function cellsOf(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells: number | undefined): CellSet {
+  const byFrame = cellsCache.get(grid) ?? new WeakMap<LocalFrame, WeakMap<AreaPolygon, { cellM: number; maxCells: number | undefined; set: CellSet }>>();
+  cellsCache.set(grid, byFrame);
+  const byArea = byFrame.get(frame) ?? new WeakMap<AreaPolygon, { cellM: number; maxCells: number | undefined; set: CellSet }>();
+  byFrame.set(frame, byArea);
+  const kept = byArea.get(area);
+  if (kept && kept.cellM === cellM && kept.maxCells === maxCells) return kept.set;
+  const cells = coverageCells(grid, frame, area, cellM, maxCells);
+  const cb = columnBlend(cells.nodes, cells.width);
+  const set = { cells, cb, tileBox: tileBoxes(cells, cb, Math.ceil(cells.width / TILE), Math.ceil(cells.height / TILE)) };
+  byArea.set(area, { cellM, maxCells, set });
+  return set;
+}
+
 /** The last lattice built per grid and frame (read only once built; dropped with the grid or the frame). */
 const latticeCache = new WeakMap<Grid, WeakMap<LocalFrame, { key: string; lattice: HeightLattice }>>();
 
@@ -285,7 +311,7 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const sigmaPx = opts.imageErrorPx ?? 0.5;
   check(Number.isFinite(sigmaPx) && sigmaPx > 0 && sigmaPx <= 100, `the image measurement error must be a number of pixels in (0, 100], got ${opts.imageErrorPx}.`);
   check(Number.isFinite(opts.specGsdCm) && opts.specGsdCm > 0, `the spec's GSD must be a positive number of centimetres, got ${opts.specGsdCm}.`);
-  const cells = coverageCells(grid, frame, area, opts.cellM, opts.maxCells);
+  const { cells, cb, tileBox } = cellsOf(grid, frame, area, opts.cellM, opts.maxCells);
   const { width, height, inside } = cells;
   const n = width * height;
   const tol = opts.occlusionToleranceM ?? 0.2;
@@ -294,8 +320,6 @@ export function computeCoverage(grid: Grid, frame: LocalFrame, area: AreaPolygon
   const lat = area.coordinates[0][0][1];
   // each tile's box of cell positions (and its lowest ground): the cells' box is their union
   const tw = Math.ceil(width / TILE), th = Math.ceil(height / TILE);
-  const cb = columnBlend(cells.nodes, width);
-  const tileBox = tileBoxes(cells, cb, tw, th);
   const cellBox: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
   for (let t = 0; t < tw * th; t++) {
     cellBox[0] = Math.min(cellBox[0], tileBox[t * TILE_BOX]); cellBox[1] = Math.min(cellBox[1], tileBox[t * TILE_BOX + 1]);
