@@ -46,7 +46,11 @@ interface CellPass {
   bounds: NormalisedBounds; envBounds: NormalisedBounds;
   /** Test every candidate photo at every cell, deciding no block at once (the reference the block decisions are checked against). */
   exact: boolean;
-  /** Scratch: the cell's ground point, the ray handed to the occlusion march, the heights around the point, a box against a photo (`classifyBox`). */
+  /**
+   * Scratch: the cell's ground point, the ray handed to the occlusion march (`occludedRay`'s eleven numbers: the
+   * last, the sample that hid the block's last ray to the photo being visited, is read first), the heights around
+   * the point, a box against a photo (`classifyBox`).
+   */
   pt: Float64Array; ray: Float64Array; around: Float64Array; q: Float64Array;
   /** Scratch: the minimum `minRayDot` writes, and the rays it keeps. */
   least: Float64Array; kept: Int32Array;
@@ -329,11 +333,12 @@ function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): 
  * The smallest dot product of two of the `v` unit rays (x, y, z from `rays`, the photo of each in `ids`): the
  * largest angle between two views. Exactly the minimum over every pair, with pairs that cannot reach it skipped:
  * for rays at angles θa and θb from the vertical, a·b ≥ cos(θa + θb) (the triangle inequality of angles on the
- * sphere), so once the steepest ray m (`steep`, the caller's) has been paired with every other, a ray a with
- * cos(θa + θm) above the minimum so far meets no ray that gives less (θb ≤ θm for every b). The minimum is then
- * among the pairs of the rays left (`kept`, scratch), each pair read once. The fewer left the better, so the pair that gave the minimum at the cell before (`pair`,
- * its two photos; neighbouring cells see much the same views) is read first when both its photos see this cell
- * (at `sa` and `sb`, else -1), and `pair` is then set to this cell's. Applies while every ray points up (`up`:
+ * sphere), so with m the steepest ray (`steep`, the caller's), a ray a with cos(θa + θm) above some pair's dot
+ * meets no ray that gives less (θb ≤ θm for every b). The minimum is then among the pairs of the rays left
+ * (`kept`, scratch), each pair read once. The fewer left the better, so the pair that gave the minimum at the cell
+ * before (`pair`, its two photos; neighbouring cells see much the same views) gives the first dot when both its
+ * photos see this cell (at `sa` and `sb`, else -1; without it, m paired with every other ray does, and m itself
+ * is then not kept), and `pair` is then set to this cell's. Applies while every ray points up (`up`:
  * all angles below 90°); else every pair is read. Any pair read is a real pair, and every pair the bound does not
  * rule out is read, so the minimum is the same whatever the seed. It is written into least[0] (a returned
  * fraction would be boxed).
