@@ -159,7 +159,7 @@ async function main(): Promise<void> {
 
   const fmt = (ms: number) => (ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${ms.toFixed(1)} ms`);
   console.log(`\nLoftline terrain benchmark: ${width} x ${height} float32 DEM, medians of ${ROUNDS} interleaved rounds (samples: ${3 * ROUNDS})`);
-  console.log(`reference: GDAL ${versions.gdal}, numpy ${versions.numpy}, scipy ${versions.scipy} (python ${versions.python}); Node ${process.version}, ${import.meta.url.endsWith('.compiled.mjs') ? 'compiled to plain JavaScript (as TERRAIN_THREADS_COMPILED runs the terrain threads)' : 'through the TypeScript loader'}; ${cpus().length} cores; load average ${load0.toFixed(1)} -> ${loadavg()[0].toFixed(1)}`);
+  console.log(`reference: GDAL ${versions.gdal}, numpy ${versions.numpy}, scipy ${versions.scipy} (python ${versions.python}); Node ${process.version}, ${import.meta.url.endsWith('.compiled.mjs') ? 'compiled to plain JavaScript and run by plain node, without the TypeScript loader (as TERRAIN_THREADS_COMPILED runs the terrain threads)' : 'through the TypeScript loader'}; ${cpus().length} cores; load average ${load0.toFixed(1)} -> ${loadavg()[0].toFixed(1)}`);
   console.log('| step | Loftline (TypeScript) | reference | ratio |');
   console.log('| --- | --- | --- | --- |');
   const ratio: Record<string, number> = {};
