@@ -87,7 +87,6 @@ interface CellPass {
  */
 export function fillCells(c: CellPass): number {
   const { th, tw, tileLists, tileSlopes, width, height, inside, stop, cells, longest } = c;
-  const z = cells.z;
   // per tile: the cells' positions; per block: the photos that may see some of its cells and how far each is decided
   const { px, py } = c;
   const picks = new Int32Array(BLOCKS * Math.max(1, longest)), codes = new Uint8Array(BLOCKS * Math.max(1, longest));
