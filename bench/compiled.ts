@@ -20,7 +20,7 @@ const compiled = compiledEntry(resolve(entry));
 // NODE_OPTIONS is cleaned all the same, should a caller have put the loader there
 const env = { ...process.env, NODE_OPTIONS: (process.env.NODE_OPTIONS ?? '').split(/\s+/).filter((o) => o && !/tsx/.test(o)).join(' ') };
 // the entry sees its own arguments after its name, as if run directly, and its name is the compiled file's (so an
-// entry's test "am I the program run?" against its own import.meta.url holds)
+// entry's test "am I the program run?" (`bench/run-as-main.ts`) holds)
 const run = spawnSync(process.execPath, [compiled, ...process.argv.slice(3)], { stdio: 'inherit', env });
 if (run.error) {
   console.error(`could not run ${compiled}: ${run.error.message}`);

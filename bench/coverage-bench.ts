@@ -17,6 +17,7 @@ import { coverageGeoTiff } from '../terrain/coverage-raster-file';
 import { cameraToLocal, castPixel } from '../terrain/footprint';
 import { localHeights } from '../terrain/local-frame';
 import { nodeInflate } from '../cli/io';
+import { runAsMain } from './run-as-main';
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -95,7 +96,7 @@ export async function benchCoverage(rounds = 5): Promise<string[]> {
   ];
 }
 
-if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+if (runAsMain('coverage-bench')) {
   benchCoverage(Number(process.env.BENCH_ROUNDS ?? 5)).then((lines) => { for (const l of lines) console.log(l); }).catch((err) => {
     console.error(`coverage bench failed: ${err instanceof Error ? err.stack : err}`);
     process.exitCode = 1;

@@ -21,6 +21,7 @@ import { viewGeometry } from '../terrain/solve-geometry';
 import { makeVerifier } from '../terrain/solve-verify';
 import { bandLadder, bestUniform, uniformSweep, type UniformOutcome, type UniformSetting } from '../terrain/solve-uniform';
 import { nodeInflate } from '../cli/io';
+import { runAsMain } from './run-as-main';
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 
@@ -170,7 +171,7 @@ export async function benchSolve(): Promise<string[]> {
   return [...benchSite('demo', demo.grid, demo.input, demo.datum), ...benchSite('steep', steep.grid, steep.input, null)];
 }
 
-if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+if (runAsMain('solve-bench')) {
   benchSolve().then((lines) => { for (const l of lines) console.log(l); }).catch((err) => {
     console.error(`solve bench failed: ${err instanceof Error ? err.stack : err}`);
     process.exitCode = 1;
