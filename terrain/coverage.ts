@@ -268,8 +268,10 @@ function maxRunsOf(lattice: HeightLattice): MaxRuns {
 /** A raster's cells with their column blend and tile boxes (`cellsOf`). */
 interface CellSet { cells: CoverageCells; cb: ColumnBlend; tileBox: Float64Array }
 
-/** The last cells laid out per grid, frame and area, with the cell size and limit they were laid out for. */
-const cellsCache = new WeakMap<Grid, WeakMap<LocalFrame, WeakMap<AreaPolygon, { cellM: number; maxCells: number | undefined; set: CellSet }>>>();
+/** The last cells laid out per area (of one grid and frame), with the cell size and limit they were laid out for. */
+type CellsByArea = WeakMap<AreaPolygon, { cellM: number; maxCells: number | undefined; set: CellSet }>;
+/** Those per grid and frame (dropped with the grid, the frame or the area). */
+const cellsCache = new WeakMap<Grid, WeakMap<LocalFrame, CellsByArea>>();
 
 /**
  * The cells over `area` (`coverageCells`), their column blend and their tiles' boxes: the same grid, frame, area
@@ -277,9 +279,9 @@ const cellsCache = new WeakMap<Grid, WeakMap<LocalFrame, WeakMap<AreaPolygon, { 
  * them out once. Every raster shares them: they are read, never written.
  */
 function cellsOf(grid: Grid, frame: LocalFrame, area: AreaPolygon, cellM: number, maxCells: number | undefined): CellSet {
-  const byFrame = cellsCache.get(grid) ?? new WeakMap<LocalFrame, WeakMap<AreaPolygon, { cellM: number; maxCells: number | undefined; set: CellSet }>>();
+  const byFrame = cellsCache.get(grid) ?? new WeakMap<LocalFrame, CellsByArea>();
   cellsCache.set(grid, byFrame);
-  const byArea = byFrame.get(frame) ?? new WeakMap<AreaPolygon, { cellM: number; maxCells: number | undefined; set: CellSet }>();
+  const byArea: CellsByArea = byFrame.get(frame) ?? new WeakMap();
   byFrame.set(frame, byArea);
   const kept = byArea.get(area);
   if (kept && kept.cellM === cellM && kept.maxCells === maxCells) return kept.set;
