@@ -414,6 +414,8 @@ interface BlockScratch {
   cell: Int32Array; x: Float64Array; y: Float64Array; z: Float64Array; normal: Float64Array; near: Uint8Array; rise: Float64Array;
   /** Views as planned and counted, at the spec's GSD, the steepest ray's slot, whether every ray points up. */
   planned: Int32Array; v: Int32Array; atSpec: Int32Array; steep: Int32Array;
+  /** The slots of the seed pair's two photos among the cell's views (-1: not among them; `minRayDot`). */
+  seedA: Int32Array; seedB: Int32Array;
   /** The steepest ray's z (the least cosine from the vertical; every ray points up where it is above 0). */
   lowZ: Float64Array;
   /** The finest GSD so far and its square less a hair; the normal matrix's six numbers. */
@@ -430,7 +432,7 @@ export function blockScratch(longest: number): BlockScratch {
   const rays = new Float64Array(S * L * 3), ids = new Int32Array(S * L);
   return {
     cell: new Int32Array(S), x: new Float64Array(S), y: new Float64Array(S), z: new Float64Array(S), normal: new Float64Array(3 * S), near: new Uint8Array(S), rise: new Float64Array(S),
-    planned: new Int32Array(S), v: new Int32Array(S), atSpec: new Int32Array(S), steep: new Int32Array(S), lowZ: new Float64Array(S),
+    planned: new Int32Array(S), v: new Int32Array(S), seedA: new Int32Array(S), seedB: new Int32Array(S), atSpec: new Int32Array(S), steep: new Int32Array(S), lowZ: new Float64Array(S),
     finest: new Float64Array(S), finestSq: new Float64Array(S), normal6: new Float64Array(6 * S),
     all: rays, allIds: ids, rays: Array.from({ length: S }, (_, q) => rays.subarray(q * L * 3, (q + 1) * L * 3)), ids: Array.from({ length: S }, (_, q) => ids.subarray(q * L, (q + 1) * L)),
   };
@@ -474,6 +476,7 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
         B.rise[nq] = fi >= 0 && fj >= 0 && fi < lattice.nx && fj < lattice.ny ? c.near[fj * lattice.nx + fi] : FAR_SQ;
       }
       B.cell[nq] = i; B.x[nq] = px; B.y[nq] = py; B.z[nq] = pz;
+      B.seedA[nq] = -1; B.seedB[nq] = -1;
       B.planned[nq] = 0; B.v[nq] = 0; B.atSpec[nq] = 0; B.steep[nq] = 0; B.lowZ[nq] = Infinity; B.finest[nq] = Infinity; B.finestSq[nq] = FAR_SQ;
       for (let m = 0; m < 6; m++) B.normal6[nq * 6 + m] = 0;
       nq++;
@@ -481,7 +484,9 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
   }
   if (nq === 0) return;
   const ifx2 = optics[0], ify2 = optics[1], fxs = optics[2], fys = optics[3], specLoSq = optics[4], specHiSq = optics[5];
-  const bn = B.normal, acc = B.normal6, bX = B.x, bY = B.y, bZ = B.z, bNear = B.near, bRise = B.rise, bPlanned = B.planned, bFinest = B.finest, bFinestSq = B.finestSq, bAtSpec = B.atSpec, bV = B.v, bLowZ = B.lowZ, bSteep = B.steep, allRays = B.all, allIds = B.allIds, L = c.longest > 0 ? c.longest : 1;
+  const bn = B.normal, acc = B.normal6, bX = B.x, bY = B.y, bZ = B.z, bNear = B.near, bRise = B.rise, bPlanned = B.planned, bFinest = B.finest, bFinestSq = B.finestSq, bAtSpec = B.atSpec, bV = B.v, bLowZ = B.lowZ, bSteep = B.steep, bSa = B.seedA, bSb = B.seedB, allRays = B.all, allIds = B.allIds, L = c.longest > 0 ? c.longest : 1;
+  // the widest pair of the cell visited last (minRayDot's seed): where each cell's views hold its two photos
+  const pa = c.pair[0], pb = c.pair[1];
   for (let e = 0; e < picked; e++) {
     const li = picks[at + e], code = codes[at + e];
     const j = list[li];
@@ -490,6 +495,8 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
     const ro = j * 9;
     const r0_ = rotAll[ro], r1_ = rotAll[ro + 1], r2 = rotAll[ro + 2], r3 = rotAll[ro + 3], r4 = rotAll[ro + 4], r5 = rotAll[ro + 5], r6 = rotAll[ro + 6], r7 = rotAll[ro + 7], r8 = rotAll[ro + 8];
     const sl = slopes.length > 0 ? slopes[li] : 0, sl2 = sl * sl;
+    // whether this photo is one of the seed pair's (its view's slot is then noted for minRayDot)
+    const seedA = j === pa, seedB = j === pb;
     // no sample of this photo's rays has hidden a cell of the block yet
     c.ray[10] = 0;
     for (let q = 0; q < nq; q++) {
@@ -499,7 +506,7 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
         if (!seenAt(c, j)) continue;
       }
       const dx = px - ox, dy = py - oy, dz = pz - oz;
-      const R = Math.sqrt(dx * dx + dy * dy + dz * dz);
+      const R2 = dx * dx + dy * dy + dz * dz, R = Math.sqrt(R2);
       const nx = bn[q * 3], ny = bn[q * 3 + 1], nz = bn[q * 3 + 2];
       // n·d = R·(n·r̂): the incidence test −n·r̂ < MIN_COS_INCIDENCE without dividing
       const nd = nx * dx + ny * dy + nz * dz;
@@ -520,16 +527,15 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
       }
       // viewGsdCm and addView written out here (a call boxes every number it passes), with their divisions
       // shared: R·cos α = qz (the depth along the axis) and r̂·(n·e)/(n·r̂) = d·(n·e)/(n·d), so
-      // GSD_e = qz / f_e · |e − d (n·e)/(n·d)| · 100
+      // GSD_e = qz / f_e · |e − d·k| · 100 with k = (n·e)/(n·d), and as e is a unit vector and e·d = q_e,
+      // |e − d·k|² = 1 − 2k·q_e + k²·R²
       const qx = r0_ * dx + r3 * dy + r6 * dz;
       const qy = r1_ * dx + r4 * dy + r7 * dz;
       const qz = r2 * dx + r5 * dy + r8 * dz;
       const ind = 1 / nd;
       const kx = (nx * r0_ + ny * r3 + nz * r6) * ind;
-      const gxx = r0_ - dx * kx, gxy = r3 - dy * kx, gxz = r6 - dz * kx;
       const ky = (nx * r1_ + ny * r4 + nz * r7) * ind;
-      const gyx = r1_ - dx * ky, gyy = r4 - dy * ky, gyz = r7 - dz * ky;
-      const ex = (gxx * gxx + gxy * gxy + gxz * gxz) * ifx2, ey = (gyx * gyx + gyy * gyy + gyz * gyz) * ify2;
+      const ex = (1 + kx * (kx * R2 - 2 * qx)) * ifx2, ey = (1 + ky * (ky * R2 - 2 * qy)) * ify2;
       // GSD = qz·√ee·100 (ee the larger of ex, ey): its square decides against the finest so far and the spec where
       // it is clearly apart from them (a relative hair far above the rounding of either), and the root is taken
       // only where it is not
@@ -545,6 +551,7 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
       const cz = -dz * iR;
       allRays[w * 3] = -dx * iR; allRays[w * 3 + 1] = -dy * iR; allRays[w * 3 + 2] = cz;
       allIds[w] = j;
+      if (seedA) bSa[q] = v; else if (seedB) bSb[q] = v;
       // for minRayDot: whether every ray points up, the steepest
       if (cz < bLowZ[q]) { bLowZ[q] = cz; bSteep[q] = v; }
       const iq = 1 / qz;
@@ -571,10 +578,14 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
     if (v > 0) finestGsdCm[i] = B.finest[q];
     if (c.directionGap) c.directionGap[i] = directionGapDeg(rays, v, c.cosOblique, c.azimuths);
     if (v > 1) {
-      // where the widest pair of the cell finished last is among this cell's views
-      const pa = pair[0], pb = pair[1];
-      let sa = -1, sb = -1;
-      for (let w = 0; w < v; w++) { const j = ids[w]; if (j === pa) sa = w; else if (j === pb) sb = w; }
+      // seeded by the widest pair of the cell visited last: its slots were noted with the views while it is the
+      // block's seed, and are looked for among them once it is not
+      let sa = B.seedA[q], sb = B.seedB[q];
+      const qa = pair[0], qb = pair[1];
+      if (qa !== pa || qb !== pb) {
+        sa = -1; sb = -1;
+        for (let w = 0; w < v; w++) { const j = ids[w]; if (j === qa) sa = w; else if (j === qb) sb = w; }
+      }
       minRayDot(rays, v, ids, B.steep[q], B.lowZ[q] > 0, sa, sb, pair, c.least, c.kept);
       const minDot = c.least[0];
       maxRayAngleDeg[i] = (Math.acos(Math.max(-1, Math.min(1, minDot))) * 180) / Math.PI;
