@@ -131,7 +131,8 @@ function CellFigures({ v }: { v: ReturnType<typeof useCoverageView> }) {
   if (v.cell.isError) return <Banner tone="danger" title="Could not read the cell" message={errorMessage(v.cell.error)} />;
   const c = v.cell.data;
   if (!c || !c.inside) return <Text testID="coverage-cell">At {at}: outside the survey area.</Text>;
-  const n = (x: number | null, d: number, unit: string) => (x === null ? 'none' : `${x.toFixed(d)} ${unit}`);
+  // the degree sign goes straight after its number, every other unit after a space (SI Brochure, 9th edition, 5.4.3)
+  const n = (x: number | null, d: number, unit: string) => (x === null ? 'none' : `${x.toFixed(d)}${unit === '°' ? '' : ' '}${unit}`);
   return (
     <View style={styles.cell} testID="coverage-cell" aria-live="polite">
       <Text variant="bodyStrong">Cell at {at} (WGS 84)</Text>
