@@ -131,13 +131,14 @@ function CellFigures({ v }: { v: ReturnType<typeof useCoverageView> }) {
   if (v.cell.isError) return <Banner tone="danger" title="Could not read the cell" message={errorMessage(v.cell.error)} />;
   const c = v.cell.data;
   if (!c || !c.inside) return <Text testID="coverage-cell">At {at}: outside the survey area.</Text>;
-  // the degree sign goes straight after its number, every other unit after a space (SI Brochure, 9th edition, 5.4.3)
-  const n = (x: number | null, d: number, unit: string) => (x === null ? 'none' : `${x.toFixed(d)}${unit === '°' ? '' : ' '}${unit}`);
+  // each unit with its own spacing, as contracts/format/figures.ts writes them: the degree sign straight after its
+  // number, every other unit after a space (SI Brochure, 9th edition, 5.4.3)
+  const n = (x: number | null, d: number, unit: string) => (x === null ? 'none' : `${x.toFixed(d)}${unit}`);
   return (
     <View style={styles.cell} testID="coverage-cell" aria-live="polite">
       <Text variant="bodyStrong">Cell at {at} (WGS 84)</Text>
       <Text>
-        {c.views} views · finest GSD {n(c.finestGsdCm, 2, 'cm')} · {c.viewsAtSpecGsd ?? 0} views at the spec GSD · widest ray angle {n(c.maxRayAngleDeg, 1, '°')} · vertical σ {n(c.sigmaVerticalM, 3, 'm')} (advisory)
+        {c.views} views · finest GSD {n(c.finestGsdCm, 2, ' cm')} · {c.viewsAtSpecGsd ?? 0} views at the spec GSD · widest ray angle {n(c.maxRayAngleDeg, 1, '°')} · vertical σ {n(c.sigmaVerticalM, 3, ' m')} (advisory)
       </Text>
       <Text tone={c.fails.length ? 'caution' : 'success'}>{c.fails.length ? `Short of the spec: ${c.fails.join('; ')}.` : 'Meets every item of the spec.'}</Text>
     </View>
