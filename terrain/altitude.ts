@@ -2,6 +2,7 @@
 import type { Breakpoints, Corridor } from './altitude-fit';
 import { fitFollow, fitHold, fitSteps } from './altitude-fit';
 import { check } from './errors';
+import type { UnmetReason } from './unmet-words';
 
 /** Altitude modes (Loftline's names): one altitude per line, a few level legs, sloped legs that track the ground. */
 export type AltitudeMode = 'hold' | 'steps' | 'follow';
@@ -33,19 +34,6 @@ export interface AltitudeLeg {
   aglMinM: number;
   aglMaxM: number;
 }
-
-/** Why the band could not be held on a stretch. */
-type UnmetReason =
-  | 'ground-unknown'
-  | 'above-max-agl'
-  | 'max-agl-ahead'
-  | 'band-above-max-agl'
-  | 'clearance-above-band'
-  | 'climb-limit'
-  | 'descent-limit'
-  | 'hold'
-  | 'steps'
-  | 'leg-limits';
 
 /** A stretch of a line where the profile leaves the GSD band (or the height cap), with the reason. */
 export interface UnmetStretch {

@@ -8,6 +8,7 @@ import { resolveMission, type Mission } from './mission';
 import { localFrameFor, localHeights, type LocalFrame } from './local-frame';
 import { planFlightLines, polygonToLocal, pointAlong, type FlightLine } from './lines';
 import { fitAltitudes, type AltitudeLimits } from './altitude';
+import { lineLengthWords, unmetByReasonWords } from './unmet-words';
 import { stationHeights, stationOverlaps, type StationResult } from './overlap';
 import { envelopeWords, guaranteedExtents, lineCrabDeg } from './overlap-envelope';
 import { resolveCoverageInput } from './coverage-spec';
@@ -345,7 +346,7 @@ function resultLines(mission: Mission, g: PlanGround, lines: FlightLine[], profi
     // against the setting the line was fitted with: a spot photo's 1 m hover is that short by design
     const warnings: PlanWarning[] = shortLegWarnings(li, line.lengthM, legs, profiles[li].minLegLengthM);
     if (fit.unknownCount > 0) {
-      warnings.push({ code: 'ground-unknown', message: `Line ${li + 1}: ${fit.unknownCount} of ${fit.groundM.length} ground samples have no elevation data; heights there were carried over from known neighbours.` });
+      warnings.push({ code: 'ground-unknown', message: `Line ${li + 1}: ${fit.unknownCount} of ${fit.groundM.length} ground samples ${fit.unknownCount === 1 ? 'has' : 'have'} no elevation data; ${fit.unknownCount === 1 ? 'its height was' : 'heights there were'} carried over from known neighbours.` });
     }
     // where a battery change after this line flies home from
     const home = Number.isFinite(homes[li]) ? { returnAltitudeAboveTakeoffM: round(homes[li] - g.takeoffGroundM, 3) } : {};
@@ -517,7 +518,7 @@ function planWideWarnings(
   if (s.unmetLengthM > 0) {
     const byReason = new Map<string, number>();
     for (const l of outLines) for (const u of l.unmet) byReason.set(u.reason, (byReason.get(u.reason) ?? 0) + u.endM - u.startM);
-    warnings.push({ code: 'band-not-held', message: `The GSD band or the height limit is not held over ${round(s.unmetLengthM, 0)} m of line (${[...byReason].map(([r, m]) => `${r} ${Math.round(m)} m`).join(', ')}); see each line's unmet stretches.` });
+    warnings.push({ code: 'band-not-held', message: `The GSD band or the height limit is not held over ${lineLengthWords(s.unmetLengthM)} of line: ${unmetByReasonWords(byReason)}. See each line's unmet stretches.` });
   }
   if (s.flagged > 0) warnings.push({ code: 'stations-flagged', message: `${s.flagged} of ${s.photoCount} photos are flagged (overlap or GSD off target over the real terrain${s.envelope ? ', or overlap under the attitude envelope' : ''}); see each station's flags.` });
   if (s.est.batteries > 1) warnings.push({ code: 'batteries', message: `The flight needs at least ${s.est.batteries} batteries (${round(s.est.flightTimeS / 60, 1)} min of flight, ${round(s.est.usablePerBatteryS / 60, 1)} min usable per battery after the reserve); each change adds a flight home and back out, so the leg sheet's battery plan, which packs the lines, may need more.` });

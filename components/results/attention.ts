@@ -6,6 +6,7 @@
 import type { ResultOverview } from '../../contracts/result-parts';
 import { statusLooks } from './station-status';
 import type { StationStatus } from '../../contracts/station-status';
+import { lineLengthWords, unmetByReasonWords } from '../../terrain/unmet-words';
 
 interface AttentionItem {
   key: string;
@@ -21,20 +22,6 @@ interface AttentionItem {
 export const standingWarningCodes = new Set(['bare-earth', 'local-rules', 'wind']);
 /** Plan-wide warnings this summary says in its own items (so no warning is said twice). */
 const summarisedCodes = new Set(['band-not-held', 'stations-flagged']);
-
-/** Why a stretch leaves the band, in words (the engine's reason codes never reach users). */
-const unmetWords: Record<string, string> = {
-  'ground-unknown': 'no elevation data under the line',
-  'above-max-agl': 'the aircraft would be above the height limit',
-  'max-agl-ahead': 'keeping under the height limit over lower ground nearby',
-  'band-above-max-agl': 'the target GSD needs more height than the height limit allows',
-  'clearance-above-band': 'the clearance is above the height the GSD band allows',
-  'climb-limit': 'the ground rises faster than the climb limit allows',
-  'descent-limit': 'the ground falls faster than the descent limit allows',
-  hold: 'one altitude per line (hold mode) cannot follow the ground',
-  steps: 'a few level legs (steps mode) cannot follow the ground',
-  'leg-limits': 'the shortest-leg and most-legs settings',
-};
 
 /** Kinds of line warning, in words (each line's own sentence is shown with its chart). */
 const lineWarningWords: Record<string, string> = {
@@ -89,10 +76,9 @@ export function attentionItems(result: Pick<ResultOverview, 'lines' | 'warnings'
   }
   // one item: the total, then each reason with its length, largest first
   if (byReason.size > 0) {
-    const length = (m: number) => (m < 0.5 ? 'less than a metre' : `${Math.round(m).toLocaleString('en-GB')} m`);
     const total = [...byReason.values()].reduce((t, e) => t + e.m, 0);
-    const reasons = [...byReason].sort((p, q) => q[1].m - p[1].m).map(([r, e]) => `${unmetWords[r] ?? 'the altitude limits'} (${length(e.m)})`);
-    out.push({ key: 'unmet', title: `GSD band or height limit not held over ${length(total)} of line: ${reasons.join('; ')}.`, lines: [...new Set([...byReason.values()].flatMap((e) => [...e.lines]))] });
+    const reasons = unmetByReasonWords(new Map([...byReason].map(([r, e]) => [r, e.m])));
+    out.push({ key: 'unmet', title: `GSD band or height limit not held over ${lineLengthWords(total)} of line: ${reasons}.`, lines: [...new Set([...byReason.values()].flatMap((e) => [...e.lines]))] });
   }
   // line warnings, by kind
   const byCode = new Map<string, Set<number>>();

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { analysePlan, missionBboxWgs84 } from '../../terrain/plan';
-import { planResultSchema } from '../../contracts/plan-result';
+import { planResultSchema, unmetReasons } from '../../contracts/plan-result';
+import { unmetReasonWords } from '../../terrain/unmet-words';
 import { airBaseM, footprintM, heightForGsdM, lineSpacingM } from '../../terrain/gsd';
 import { createGrid } from '../../terrain/grid';
 import { WGS84, createTransform } from '../../terrain/crs';
@@ -90,6 +91,17 @@ describe('analysePlan', () => {
     expect(codes).toEqual(expect.arrayContaining(['bare-earth', 'local-rules', 'wind', 'band-not-held']));
     expect(r.lines.some((l) => l.unmet.some((u) => u.reason === 'hold'))).toBe(true);
     expect(r.summary.flaggedStationCount).toBeGreaterThan(0);
+    // the plan-wide sentence says each reason in words, with its length, and no reason code reaches the reader
+    const said = r.warnings.find((w) => w.code === 'band-not-held')!.message;
+    const reasons = new Set(r.lines.flatMap((l) => l.unmet.map((u) => u.reason)));
+    for (const reason of reasons) expect(said).toContain(unmetReasonWords[reason]);
+    // (the hyphenated codes; 'hold' and 'steps' are also the modes' own names, which the words use)
+    for (const code of unmetReasons.filter((c) => c.includes('-'))) expect(said).not.toContain(code);
+    expect(said).toMatch(/not held over [\d,]+ m of line: /);
+  });
+
+  it('has words for every reason the result schema lets a stretch give', () => {
+    expect(Object.keys(unmetReasonWords).sort()).toEqual([...unmetReasons].sort());
   });
 
   it('advises a heading when asked, along the contours of a tilted plane', () => {
