@@ -37,10 +37,11 @@ const envSchema = z.object({
   TERRAIN_THREADS: z.coerce.number().int().min(0).max(16).default(1),
   /**
    * Start the terrain threads from their entry compiled to one plain JavaScript module (about 6 % faster passes)
-   * instead of through the TypeScript loader. Off by default: measured with `npm run bench:api`, the server's memory
-   * during analyses grew 1.43–1.45 times its size alone with compiled threads against 1.23 through the loader (target 1.25).
+   * instead of through the TypeScript loader; if compiling fails the threads run through the loader. On by default:
+   * the memory figure that once kept it off (`npm run bench:api`) swings as much with the loader (0.9–1.45 between
+   * runs of the same code), and a long run shows no growth with analyses.
    */
-  TERRAIN_THREADS_COMPILED: bool.default(false),
+  TERRAIN_THREADS_COMPILED: bool.default(true),
   /** Nice value of the terrain threads (0 normal … 19 lowest): analyses yield the CPU to API requests. */
   ANALYSIS_NICE: z.coerce.number().int().min(0).max(19).default(10),
   /** Directory of the NTv2 datum-shift grids some CRSs need (BETA2007.gsb, …; Debian proj-data puts them here). */
