@@ -232,6 +232,8 @@ export function summariseUnmet(unmet: ReadonlyArray<{ startM: number; endM: numb
     if (g.length === 1) return g[0].message;
     const total = g.reduce((t, u) => t + (u.endM - u.startM), 0);
     const longest = g.reduce((a, b) => (b.endM - b.startM > a.endM - a.startM ? b : a));
-    return `${g.length} stretches, ${Math.round(total)} m in all: ${longest.message}`;
+    // the engine's sentence follows a colon: its capital goes, unless it starts an abbreviation (GSD, AGL)
+    const m = longest.message, said = /^[A-Z][a-z]/.test(m) ? m[0].toLowerCase() + m.slice(1) : m;
+    return `${g.length} stretches, ${Math.round(total)} m in all: ${said}`;
   });
 }

@@ -11,6 +11,16 @@ describe('summariseUnmet', () => {
     expect(out).toEqual(['2 stretches, 40 m in all: climb B (up to 9 m)', 'over the cap']);
   });
 
+  it("carries on the engine's sentence after the colon without its capital, but keeps an abbreviation's", () => {
+    const out = summariseUnmet([
+      { startM: 0, endM: 10, reason: 'descent-limit', message: 'The descent limit keeps the aircraft high.' },
+      { startM: 20, endM: 32, reason: 'descent-limit', message: 'The descent limit keeps the aircraft high after a crest.' },
+      { startM: 40, endM: 41, reason: 'hold', message: 'GSD off band here.' },
+      { startM: 50, endM: 52, reason: 'hold', message: 'GSD off band over a crest.' },
+    ]);
+    expect(out).toEqual(['2 stretches, 22 m in all: the descent limit keeps the aircraft high after a crest.', '2 stretches, 3 m in all: GSD off band over a crest.']);
+  });
+
   it('says nothing when every stretch was held', () => {
     expect(summariseUnmet([])).toEqual([]);
   });
