@@ -301,7 +301,7 @@ function marchNeeded(c: CellPass, li: number, j: number, nearSurface: boolean): 
   if (!(dz < 0) || c.exact) return NO_PROOF;
   const prof = c.profiles, base = li * CLEARANCE_STRIDE;
   if (!(prof[base] > 0)) {
-    clearanceProfile(c.lattice, c.maxRuns, c.tileBox, c.tile * TILE_BOX, pos[j * 3], pos[j * 3 + 1], pos[j * 3 + 2], c.tol, c.binM, prof, base);
+    clearanceProfile(c.lattice, c.maxRuns, c.tileBox, c.tile * TILE_BOX, pos[j * 3], pos[j * 3 + 1], pos[j * 3 + 2], c.tol, c.binM, prof, base, c.boxTop[j]);
   }
   const W = prof[base + 1];
   const rho = -dz / Math.sqrt(dx * dx + dy * dy);
@@ -471,9 +471,10 @@ function visitBlock(c: CellPass, list: Int32Array, slopes: Float64Array, br: num
       const nearSurface = around[7] - pz <= tol;
       B.near[nq] = nearSurface ? 1 : 0;
       if (nearSurface && useOcclusion) {
-        // the steepest ground near the point (`nearSlopes`), off the lattice none proven
+        // the steepest ground near the point (`nearSlopes`), off the lattice none proven (FAR_SQ written out: a
+        // ternary that mixes a module's named constant with a number read here boxes that number)
         const fi = Math.floor((px - lattice.x0) / hStep), fj = Math.floor((py - lattice.y0) / hStep);
-        B.rise[nq] = fi >= 0 && fj >= 0 && fi < lattice.nx && fj < lattice.ny ? c.near[fj * lattice.nx + fi] : FAR_SQ;
+        B.rise[nq] = fi >= 0 && fj >= 0 && fi < lattice.nx && fj < lattice.ny ? c.near[fj * lattice.nx + fi] : 1e300;
       }
       B.cell[nq] = i; B.x[nq] = px; B.y[nq] = py; B.z[nq] = pz;
       B.seedA[nq] = -1; B.seedB[nq] = -1;

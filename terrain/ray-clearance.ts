@@ -17,7 +17,8 @@ const CLEAR_BINS = 24;
 /**
  * Numbers per profile: bin count K, bin width W, the first bin K0 from which every ray of the tile is proven clear
  * (from the tile's lowest ground and the slowest rise of its rays), then the highest ground of each bin (CLEAR_BINS
- * slots), then the steepest ground of bins 0..k−1 for k = 0..CLEAR_BINS (CLEAR_BINS + 1 slots).
+ * slots), then the steepest ground of bins 0..k−1 for k = 0..CLEAR_BINS (CLEAR_BINS + 1 slots); of both, only
+ * the slots of the bins before K0 are written (the rays' own tests read no other).
  */
 export const CLEARANCE_STRIDE = 3 + 2 * CLEAR_BINS + 1;
 /** Offset of the highest-ground slots and of the steepest-ground slots in a profile. */
@@ -41,7 +42,7 @@ function angleRange(lo: number, hi: number): [number, number, number, number] {
  * ground: `tb` from `t`) to a camera at (ox, oy, oz), written into `out` from `at` (CLEARANCE_STRIDE numbers). Bins
  * are `minBinM` wide, or wider where the camera is farther than CLEAR_BINS of them from the tile's far corner.
  */
-export function clearanceProfile(L: HeightLattice, M: MaxRuns, tb: Float64Array, t: number, ox: number, oy: number, oz: number, toleranceM: number, minBinM: number, out: Float64Array, at: number): void {
+export function clearanceProfile(L: HeightLattice, M: MaxRuns, tb: Float64Array, t: number, ox: number, oy: number, oz: number, toleranceM: number, minBinM: number, out: Float64Array, at: number, topM = Infinity): void {
   const x0 = tb[t], y0 = tb[t + 1], x1 = tb[t + 2], y1 = tb[t + 3], zLow = tb[t + 4], zHigh = tb[t + 5];
   // the directions u = (o − p)/|o − p| from points p of the box: from outside it, an angle range ending at corners
   let ux0 = -1, ux1 = 1, uy0 = -1, uy1 = 1;
@@ -64,13 +65,26 @@ export function clearanceProfile(L: HeightLattice, M: MaxRuns, tb: Float64Array,
   const K = Math.max(1, Math.min(CLEAR_BINS, Math.ceil(dmax / W)));
   out[at] = K;
   out[at + 1] = W;
+  // every ray of the tile starts at or above zLow and rises at least (oz − zHigh) / dmax: the bins it clears from
+  // the last down are cleared by each ray, whose own test can start there. Where the caller knows the highest
+  // ground around every ray that counts (`topM`: a photo's box holds its views' ground points and its camera), the
+  // bins from the first the slowest ray clears that height on need no box of their own: only those before are
+  // worked out (their heights are the only ones the rays' own tests read)
+  const rise = (oz - zHigh) / dmax, lift = zLow + toleranceM - 1e-6;
+  let kTop = K;
+  if (rise > 0 && topM < Infinity) {
+    kTop = Math.min(K, Math.max(0, Math.ceil((topM - lift) / (W * rise))));
+    // the division's rounding settled by the test the descent itself makes
+    while (kTop > 0 && lift + (kTop - 1) * W * rise >= topM) kTop--;
+    while (kTop < K && !(lift + kTop * W * rise >= topM)) kTop++;
+  }
   // each bin's box: the tile's box moved by s·u for s in the bin and u in the ranges (extremes at the ends of both),
   // within the box of the tile and the camera (the rays lie in it); the boxes of the bins before k for the slopes
   const hx0 = Math.min(x0, ox), hx1 = Math.max(x1, ox), hy0 = Math.min(y0, oy), hy1 = Math.max(y1, oy);
   let bx0 = Infinity, by0 = Infinity, bx1 = -Infinity, by1 = -Infinity;
   const box: [number, number, number, number] = [0, 0, 0, 0];
   out[at + STEEPEST_AT] = 0;
-  for (let k = 0; k < K; k++) {
+  for (let k = 0; k < kTop; k++) {
     const sa = k * W, sb = (k + 1) * W;
     box[0] = Math.max(hx0, x0 + Math.min(sa * ux0, sb * ux0));
     box[2] = Math.min(hx1, x1 + Math.max(sa * ux1, sb * ux1));
@@ -81,10 +95,7 @@ export function clearanceProfile(L: HeightLattice, M: MaxRuns, tb: Float64Array,
     box[0] = bx0; box[1] = by0; box[2] = bx1; box[3] = by1;
     out[at + STEEPEST_AT + k + 1] = slopeIn(L, box);
   }
-  // every ray of the tile starts at or above zLow and rises at least (oz − zHigh) / dmax: the bins it clears from
-  // the last down are cleared by each ray, whose own test can start there
-  const rise = (oz - zHigh) / dmax, lift = zLow + toleranceM - 1e-6;
-  let k0 = K;
+  let k0 = kTop;
   if (rise > 0) while (k0 > 0 && lift + (k0 - 1) * W * rise >= out[at + HIGHEST_AT + k0 - 1]) k0--;
   out[at + 2] = k0;
 }
