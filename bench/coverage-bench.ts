@@ -1,8 +1,9 @@
 /**
  * The coverage figures of `npm run bench` (also runnable alone: `tsx bench/coverage-bench.ts`): the demo plan's
  * coverage raster at 1 m cells against GDAL's `gdal_rasterize -add` of the same ray-cast footprints, rounds
- * interleaved after one untimed warm-up round of each, medians reported. Both sides write their raster to a file;
- * GDAL's time includes its process start and reading the footprints' GeoJSON.
+ * interleaved after one untimed warm-up round of each, medians reported. Both sides write their raster to a file
+ * (Loftline in parts, as the command line does); GDAL's time includes its process start and reading the
+ * footprints' GeoJSON.
  */
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -13,10 +14,10 @@ import { analysePlan, missionBboxWgs84 } from '../terrain/plan';
 import { resolveMission } from '../terrain/mission';
 import { computeCoverage, type CoverageRaster } from '../terrain/coverage';
 import { coverageFrame, planPhotos } from '../terrain/coverage-photos';
-import { coverageGeoTiff } from '../terrain/coverage-raster-file';
+import { coverageGeoTiffParts } from '../terrain/coverage-raster-file';
 import { cameraToLocal, castPixel } from '../terrain/footprint';
 import { localHeights } from '../terrain/local-frame';
-import { nodeInflate } from '../cli/io';
+import { nodeInflate, writeFilePartsSync } from '../cli/io';
 import { runAsMain } from './run-as-main';
 
 const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
@@ -64,11 +65,11 @@ export async function benchCoverage(rounds = 5): Promise<string[]> {
     const timed = r >= 0;
     let t = performance.now();
     const v = computeCoverage(grid, frame, mission.area, mission.camera, photos, { ...opts, viewsOnly: true });
-    writeFileSync(`${out}coverage-views.tif`, coverageGeoTiff(v));
+    writeFilePartsSync(`${out}coverage-views.tif`, coverageGeoTiffParts(v));
     if (timed) views.push(performance.now() - t);
     t = performance.now();
     const c = computeCoverage(grid, frame, mission.area, mission.camera, photos, opts);
-    writeFileSync(`${out}coverage-full.tif`, coverageGeoTiff(c));
+    writeFilePartsSync(`${out}coverage-full.tif`, coverageGeoTiffParts(c));
     if (timed) full.push(performance.now() - t);
     const tt = c.cells.transform;
     const te = [tt[0], tt[3] + c.cells.height * tt[5], tt[0] + c.cells.width * tt[1], tt[3]].map(String);

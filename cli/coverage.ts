@@ -1,15 +1,14 @@
 /** `terrain coverage DEM.tif --mission mission.json --out coverage.tif [--cell-m N]`: the coverage raster of the plan over every ground cell, as a GeoTIFF and a compliance document. */
-import { writeFile } from 'node:fs/promises';
 import { openDem } from '../terrain/dem';
 import { WGS84 } from '../terrain/crs';
 import { analysePlan, missionBboxWgs84 } from '../terrain/plan';
 import { resolveMission } from '../terrain/mission';
 import { resolveCoverageInput } from '../terrain/coverage-spec';
 import { checkCoverageRun, runCoverage } from '../terrain/coverage-document';
-import { coverageGeoTiff } from '../terrain/coverage-raster-file';
+import { coverageGeoTiffParts } from '../terrain/coverage-raster-file';
 import { TerrainError } from '../terrain/errors';
 import { generalCautions } from '../contracts/cautions';
-import { CliError, nodeInflate, parseCommandArgs, readFileBytes } from './io';
+import { CliError, nodeInflate, parseCommandArgs, readFileBytes, writeFileParts } from './io';
 import { readMission } from './plan';
 
 export const usage = 'usage: npm run -s terrain -- coverage DEM.tif --mission mission.json --out coverage.tif [--cell-m N]';
@@ -40,9 +39,9 @@ export async function run(args: string[]): Promise<unknown> {
   const plan = analysePlan(grid, input, { verticalDatum: dem.header.verticalDatum, mission });
   const t1 = performance.now();
   const run = runCoverage(grid, input, mission, plan, { cellM: cellArg, now: () => performance.now() });
-  const bytes = coverageGeoTiff(run.raster);
   try {
-    await writeFile(values.out, bytes);
+    // in parts: the file is never held whole
+    await writeFileParts(values.out, coverageGeoTiffParts(run.raster));
   } catch (err) {
     throw new CliError(`Cannot write the coverage raster to "${values.out}": ${(err as Error).message}.`, 1);
   }

@@ -1,5 +1,6 @@
 /** Command-line plumbing shared by the terrain commands: file bytes, Node's fast inflate, argument parsing, one-line errors. */
-import { readFile } from 'node:fs/promises';
+import { closeSync, openSync, writeSync } from 'node:fs';
+import { open, readFile } from 'node:fs/promises';
 import { inflateSync } from 'node:zlib';
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { TerrainError } from '../terrain/errors';
@@ -56,6 +57,31 @@ function joinNegativeValues(args: readonly string[], options: NonNullable<ParseA
 }
 
 /** node:util parseArgs with our error wording (strict: unknown options are errors); negative numbers are values. */
+/**
+ * Writes a file from parts given one after the other (a part may be overwritten once the next is asked for, as
+ * `float32GeoTiffParts` does), each written whole before the next is asked for.
+ */
+export async function writeFileParts(path: string, parts: Iterable<Uint8Array>): Promise<void> {
+  const fh = await open(path, 'w');
+  try {
+    for (const part of parts) {
+      for (let at = 0; at < part.length;) at += (await fh.write(part, at, part.length - at)).bytesWritten;
+    }
+  } finally {
+    await fh.close();
+  }
+}
+
+/** `writeFileParts` without waiting on the event loop (benchmarks and scripts). */
+export function writeFilePartsSync(path: string, parts: Iterable<Uint8Array>): void {
+  const fd = openSync(path, 'w');
+  try {
+    for (const part of parts) for (let at = 0; at < part.length;) at += writeSync(fd, part, at, part.length - at);
+  } finally {
+    closeSync(fd);
+  }
+}
+
 export function parseCommandArgs<T extends NonNullable<ParseArgsConfig['options']>>(args: string[], options: T) {
   try {
     return parseArgs({ args: joinNegativeValues(args, options), options, allowPositionals: true, strict: true });

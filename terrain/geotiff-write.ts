@@ -17,10 +17,11 @@ export interface Float32GeoTiff {
 }
 
 /**
- * A band's values, or a function that writes them into the array it is given: where the host is little-endian
- * that array is the file's own bytes, so a large raster is not held twice.
+ * A band's values, or a function that writes them into the array it is given, from value `from` of the band on
+ * (as many as the array holds): where the host is little-endian that array is the file's own bytes, or a piece of
+ * them (`float32GeoTiffParts`), so a large raster is not held twice.
  */
-type BandSource = Float32Array | ((out: Float32Array) => void);
+type BandSource = Float32Array | ((out: Float32Array, from: number) => void);
 
 const SHORT = 3, LONG = 4, DOUBLE = 12, ASCII = 2;
 const TYPE_BYTES: Record<number, number> = { [SHORT]: 2, [LONG]: 4, [DOUBLE]: 8, [ASCII]: 1 };
@@ -40,6 +41,56 @@ const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replac
  * same bytes (TIFF 6.0 asks only that each strip offset point at its strip's data).
  */
 export function writeFloat32GeoTiff(r: Omit<Float32GeoTiff, 'bands'> & { bands: readonly BandSource[] }): Uint8Array {
+  const { head, offsets, firstOf, bandBytes, total } = layout(r);
+  const out = new Uint8Array(total);
+  out.set(head);
+  const dv = new DataView(out.buffer);
+  for (let b = 0; b < r.bands.length; b++) {
+    if (firstOf[b] !== b) continue;
+    const source = r.bands[b];
+    const at = offsets[b];
+    if (typeof source === 'function' && LITTLE_ENDIAN_HOST && at % 4 === 0) { source(new Float32Array(out.buffer, at, r.width * r.height), 0); continue; }
+    let band: Float32Array;
+    if (typeof source === 'function') { band = new Float32Array(r.width * r.height); source(band, 0); } else band = source;
+    if (LITTLE_ENDIAN_HOST) out.set(new Uint8Array(band.buffer, band.byteOffset, bandBytes), at);
+    else for (let i = 0; i < band.length; i++) dv.setFloat32(at + 4 * i, band[i], true);
+  }
+  return out;
+}
+
+/**
+ * The same file's bytes as `writeFloat32GeoTiff`, in parts to be written one after the other: the header, then each
+ * band in pieces of at most `chunkValues` values, laid out in one scratch array reused from piece to piece. A part
+ * holds its bytes only until the next is asked for, so write (or copy) each before going on. A writer that streams
+ * the parts never holds the whole file, and a large raster costs one piece of fresh memory instead of the file's
+ * size (fresh memory is slow to touch the first time: about 2.6 ms a megabyte on the 2-core machine the benchmarks
+ * run on, 40 ms for the demo's coverage raster).
+ */
+export function* float32GeoTiffParts(r: Omit<Float32GeoTiff, 'bands'> & { bands: readonly BandSource[] }, chunkValues = 1 << 18): Generator<Uint8Array> {
+  check(Number.isInteger(chunkValues) && chunkValues >= 1, `a piece must hold a whole number of values (1 or more), got ${chunkValues}.`);
+  const { head, firstOf } = layout(r);
+  yield head;
+  const n = r.width * r.height;
+  const scratch = new Float32Array(Math.min(n, chunkValues));
+  const bytes = new Uint8Array(scratch.buffer);
+  const dv = new DataView(scratch.buffer);
+  for (let b = 0; b < r.bands.length; b++) {
+    if (firstOf[b] !== b) continue;
+    const source = r.bands[b];
+    for (let from = 0; from < n; from += scratch.length) {
+      const len = Math.min(scratch.length, n - from);
+      const piece = len === scratch.length ? scratch : scratch.subarray(0, len);
+      if (typeof source === 'function') source(piece, from);
+      else piece.set(source.subarray(from, from + len));
+      // the file is little-endian: a big-endian host swaps each value in place
+      if (!LITTLE_ENDIAN_HOST) for (let i = 0; i < len; i++) dv.setFloat32(4 * i, piece[i], true);
+      yield bytes.subarray(0, 4 * len);
+    }
+  }
+}
+
+/** Where a file's parts go: its header (every byte before the first band), each band's offset, and the file's size. */
+function layout(r: Omit<Float32GeoTiff, 'bands'> & { bands: readonly BandSource[] }): { head: Uint8Array; offsets: number[]; firstOf: number[]; bandBytes: number; total: number } {
   const nb = r.bands.length;
   check(nb >= 1 && r.bandNames.length === nb, `a GeoTIFF needs at least one band and one name per band, got ${nb} bands and ${r.bandNames.length} names.`);
   check(r.transform[2] === 0 && r.transform[4] === 0, 'the raster must be north up (no rotation terms) to be written.');
@@ -85,7 +136,7 @@ export function writeFloat32GeoTiff(r: Omit<Float32GeoTiff, 'bands'> & { bands: 
   let stored = 0;
   for (let b = 0; b < nb; b++) offsets[b] = firstOf[b] === b ? dataAt + stored++ * bandBytes : offsets[firstOf[b]];
   check(dataAt + stored * bandBytes < 2 ** 32, 'the raster is too large for a classic TIFF (4 GiB); use larger cells.');
-  const out = new Uint8Array(dataAt + stored * bandBytes);
+  const out = new Uint8Array(dataAt);
   const dv = new DataView(out.buffer);
   out.set([0x49, 0x49, 42, 0]);
   dv.setUint32(4, 8, true);
@@ -108,15 +159,5 @@ export function writeFloat32GeoTiff(r: Omit<Float32GeoTiff, 'bands'> & { bands: 
     else { dv.setUint32(at + 8, ext, true); put(ext, e); }
   });
   dv.setUint32(10 + entries.length * 12, 0, true);
-  for (let b = 0; b < nb; b++) {
-    if (firstOf[b] !== b) continue;
-    const source = r.bands[b];
-    const at = offsets[b];
-    if (typeof source === 'function' && LITTLE_ENDIAN_HOST && at % 4 === 0) { source(new Float32Array(out.buffer, at, r.width * r.height)); continue; }
-    let band: Float32Array;
-    if (typeof source === 'function') { band = new Float32Array(r.width * r.height); source(band); } else band = source;
-    if (LITTLE_ENDIAN_HOST) out.set(new Uint8Array(band.buffer, band.byteOffset, bandBytes), at);
-    else for (let i = 0; i < band.length; i++) dv.setFloat32(at + 4 * i, band[i], true);
-  }
-  return out;
+  return { head: out, offsets, firstOf, bandBytes, total: dataAt + stored * bandBytes };
 }

@@ -4,13 +4,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { computeCoverage, type CoveragePhoto } from '../../terrain/coverage';
-import { coverageCog, coverageGeoTiff, COVERAGE_NODATA } from '../../terrain/coverage-raster-file';
+import { coverageCog, coverageGeoTiff, coverageGeoTiffParts, COVERAGE_NODATA } from '../../terrain/coverage-raster-file';
+import { writeFilePartsSync } from '../../cli/io';
 import type { Camera } from '../../terrain/camera';
 import { syntheticSite } from './coverage-site';
 
 const camera: Camera = { sensorWidthMm: 13.2, sensorHeightMm: 8.8, focalLengthMm: 8.8, imageWidthPx: 5472, imageHeightPx: 3648 };
 
-/** A raster wider than two tiles (so it is tiled and has overviews), with cells outside the area. */
+/** A raster wider than two tiles (so it is tiled and has overviews); its area is the cells' whole square (the parts test below has cells outside its area). */
 function raster(viewsOnly = false) {
   const site = syntheticSite(700, 2, (x, y) => 20 * Math.sin(x / 90) + 15 * Math.cos(y / 60));
   const photos: CoveragePhoto[] = [];
@@ -83,5 +84,48 @@ describe('views-only coverage raster as a strip GeoTIFF', () => {
     }
     expect(inArea).toBeGreaterThan(10_000);
     expect(seen).toBeGreaterThan(inArea / 2);
+  });
+});
+
+describe('coverage raster written in parts', () => {
+  it('is byte for byte the file written whole, whatever the piece size, and GDAL reads every band of it cell for cell', () => {
+    // a triangle of ground, so every row has a run of cells outside the area (nodata) that pieces start and end in
+    const site = syntheticSite(700, 2, (x, y) => 20 * Math.sin(x / 90) + 15 * Math.cos(y / 60));
+    const photos: CoveragePhoto[] = [];
+    for (let line = 0; line < 5; line++) for (let k = 0; k < 12; k++) photos.push({ xM: -500 + line * 250, yM: -550 + k * 100, altitudeM: 200, yawDeg: 0 });
+    const triangle = { type: 'Polygon' as const, coordinates: [[[-600, -640], [600, -640], [0, 600], [-600, -640]].map(([x, y]) => site.frame.toLonLat(x, y))] };
+    const r = computeCoverage(site.grid, site.frame, triangle, camera, photos, { cellM: 2, specGsdCm: 5 });
+    const { width, height, inside } = r.cells;
+    const n = width * height;
+    expect(n - r.cells.insideCount).toBeGreaterThan(n / 3);
+    const whole = coverageGeoTiff(r);
+    // pieces of one value, of a few (their ends falling inside and outside the runs of cells outside the area), of
+    // more than a row, and the default (more than the whole band here)
+    for (const size of [1, 7, 1000, undefined]) {
+      const parts: Uint8Array[] = [];
+      // each part is copied before the next is asked for: the pieces share one scratch array
+      for (const part of coverageGeoTiffParts(r, size)) parts.push(part.slice());
+      const joined = Buffer.concat(parts);
+      expect(joined.length).toBe(whole.length);
+      expect(Buffer.compare(joined, Buffer.from(whole))).toBe(0);
+    }
+    // Reference: gdal_translate -of ENVI from GDAL 3.6.2 (Debian gdal-bin) on the file as the command line writes it
+    // (`writeFilePartsSync`, pieces of 4096 values): band-sequential little-endian Float32 as GDAL decodes it
+    const dir = mkdtempSync(join(tmpdir(), 'loftline-parts-'));
+    const tif = join(dir, 'parts.tif'), raw = join(dir, 'parts.raw');
+    writeFilePartsSync(tif, coverageGeoTiffParts(r, 4096));
+    execFileSync('gdal_translate', ['-q', '-of', 'ENVI', tif, raw]);
+    const read = new Float32Array(new Uint8Array(readFileSync(raw)).buffer);
+    expect(read.length).toBe(5 * n);
+    const bands = [r.views, r.finestGsdCm, r.viewsAtSpecGsd, r.maxRayAngleDeg, r.sigmaVerticalM];
+    let checked = 0;
+    for (let i = 0; i < n; i++) {
+      for (let b = 0; b < 5; b++) {
+        const want = inside[i] ? Math.fround(bands[b][i]) : COVERAGE_NODATA;
+        if (!Object.is(read[b * n + i], want)) expect(`band ${b + 1} cell ${i}: ${read[b * n + i]}`).toBe(`band ${b + 1} cell ${i}: ${want}`);
+      }
+      if (inside[i] && r.views[i] > 1) checked++;
+    }
+    expect(checked).toBeGreaterThan(10_000);
   });
 });
