@@ -56,7 +56,6 @@ function joinNegativeValues(args: readonly string[], options: NonNullable<ParseA
   return out;
 }
 
-/** node:util parseArgs with our error wording (strict: unknown options are errors); negative numbers are values. */
 /**
  * Writes a file from parts given one after the other (a part may be overwritten once the next is asked for, as
  * `float32GeoTiffParts` does), each written whole before the next is asked for.
@@ -82,6 +81,7 @@ export function writeFilePartsSync(path: string, parts: Iterable<Uint8Array>): v
   }
 }
 
+/** node:util parseArgs with our error wording (strict: unknown options are errors); negative numbers are values. */
 export function parseCommandArgs<T extends NonNullable<ParseArgsConfig['options']>>(args: string[], options: T) {
   try {
     return parseArgs({ args: joinNegativeValues(args, options), options, allowPositionals: true, strict: true });

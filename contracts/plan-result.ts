@@ -1,5 +1,6 @@
 /** The plan analysis result (CLI `plan`, worker, API): zod schema of what `analysePlan` returns. */
 import { z } from 'zod';
+import { unmetReasons } from '../terrain/unmet-words';
 import { altitudeModeSchema } from './mission';
 import { solveReportSchema } from './solve';
 
@@ -8,8 +9,8 @@ const nn = z.number().nullable();
 const fraction = z.number().gte(0).lte(1);
 
 const stationFlagCodes = ['ground-unknown', 'footprint-off-grid', 'forward-overlap-low', 'side-overlap-low', 'forward-overlap-envelope', 'side-overlap-envelope', 'gsd-coarse', 'gsd-fine', 'above-max-agl', 'below-clearance'] as const;
-/** The engine's reasons a stretch leaves the band (`terrain/unmet-words.ts` says each in words). */
-export const unmetReasons = ['ground-unknown', 'above-max-agl', 'max-agl-ahead', 'band-above-max-agl', 'clearance-above-band', 'climb-limit', 'descent-limit', 'hold', 'steps', 'leg-limits'] as const;
+/** The engine's reasons a stretch leaves the band (listed, and said in words, in `terrain/unmet-words.ts`). */
+export { unmetReasons };
 
 const stationFlagSchema = z.object({ code: z.enum(stationFlagCodes), reason: z.string() });
 const planWarningSchema = z.object({ code: z.string(), message: z.string() });

@@ -1,17 +1,8 @@
 /** The reasons a flight line leaves the GSD band (or the height limit), and how they read to people. */
 
-/** Why the band could not be held on a stretch. */
-export type UnmetReason =
-  | 'ground-unknown'
-  | 'above-max-agl'
-  | 'max-agl-ahead'
-  | 'band-above-max-agl'
-  | 'clearance-above-band'
-  | 'climb-limit'
-  | 'descent-limit'
-  | 'hold'
-  | 'steps'
-  | 'leg-limits';
+/** Why the band could not be held on a stretch: the engine's reason codes (the plan result's schema takes this list). */
+export const unmetReasons = ['ground-unknown', 'above-max-agl', 'max-agl-ahead', 'band-above-max-agl', 'clearance-above-band', 'climb-limit', 'descent-limit', 'hold', 'steps', 'leg-limits'] as const;
+export type UnmetReason = (typeof unmetReasons)[number];
 
 /** Why a stretch leaves the band, in words (the reason codes never reach users). */
 export const unmetReasonWords: Record<UnmetReason, string> = {
